@@ -1,0 +1,12 @@
+//! beltwright: plan and check polyphase windings.
+//!
+//! Pipeline: layout file (TOML) → [`layout::Spec`] → [`winding::Winding`] → analyses
+//! ([`factors`], [`linear`]) → presenters ([`output`]). Analyses are pure functions of the
+//! `Winding`; only the binary touches the file system.
+
+pub mod factors;
+pub mod layout;
+pub mod linear;
+pub mod output;
+pub mod plan;
+pub mod winding;

@@ -1,0 +1,71 @@
+//! Presenters: turn analysis reports into text tables, JSON or CSV. Analyses never print;
+//! a new format never touches an analysis (one exporter per format behind [`Exporter`]).
+
+mod csv;
+mod json;
+mod reports;
+mod table;
+mod text;
+
+pub use csv::Csv;
+pub use json::Json;
+pub use table::{Align, Table};
+pub use text::Text;
+
+use serde::Serialize;
+
+/// Output formats of every analysis command.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum Format {
+    /// Aligned tables for a person (80 columns).
+    Text,
+    /// One JSON object (the contract of `../shared/design.md`).
+    Json,
+    /// The main table as comma-separated values.
+    Csv,
+}
+
+/// One block of a text report.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Section {
+    /// A heading line.
+    Heading(String),
+    /// Free lines of text.
+    Lines(Vec<String>),
+    /// An aligned table.
+    Table(Table),
+}
+
+/// Something every exporter can present.
+pub trait Report: Serialize {
+    /// The text view, in reading order.
+    fn sections(&self) -> Vec<Section>;
+    /// The table a spreadsheet gets.
+    fn main_table(&self) -> Table;
+}
+
+/// One output format.
+pub trait Exporter {
+    /// Serialize a report to the bytes written on stdout.
+    fn export<R: Report>(&self, report: &R) -> Result<String, serde_json::Error>;
+}
+
+/// Present `report` in `format`.
+pub fn render<R: Report>(report: &R, format: Format) -> Result<String, serde_json::Error> {
+    match format {
+        Format::Text => Text.export(report),
+        Format::Json => Json.export(report),
+        Format::Csv => Csv.export(report),
+    }
+}
+
+/// A number with at most `digits` decimals, trailing zeros trimmed ("1", "0.933").
+pub fn num(x: f64, digits: usize) -> String {
+    let s = format!("{x:.digits$}");
+    let s = if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    };
+    if s == "-0" { "0".into() } else { s }
+}

@@ -1,0 +1,296 @@
+//! How each analysis report reads as text and CSV.
+
+use super::{Align, Report, Section, Table, num};
+use crate::factors::FactorTable;
+use crate::plan::PlanReport;
+use crate::winding::{Style, Topology};
+
+/// Wrap text at `width` columns on word boundaries.
+pub fn wrap(text: &str, width: usize) -> Vec<String> {
+    let mut lines = Vec::new();
+    let mut line = String::new();
+    for word in text.split_whitespace() {
+        if !line.is_empty() && line.chars().count() + 1 + word.chars().count() > width {
+            lines.push(std::mem::take(&mut line));
+        }
+        if !line.is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+    }
+    if !line.is_empty() {
+        lines.push(line);
+    }
+    lines
+}
+
+/// "1-3, 7, 9-10" from sorted numbers.
+pub fn ranges(ns: &[usize]) -> String {
+    let mut parts: Vec<String> = Vec::new();
+    let mut i = 0;
+    while i < ns.len() {
+        let mut j = i;
+        while j + 1 < ns.len() && ns[j + 1] == ns[j] + 1 {
+            j += 1;
+        }
+        parts.push(if j > i {
+            format!("{}-{}", ns[i], ns[j])
+        } else {
+            ns[i].to_string()
+        });
+        i = j + 1;
+    }
+    parts.join(", ")
+}
+
+fn opt(x: Option<f64>, digits: usize, unit: &str) -> Option<String> {
+    x.map(|v| format!("{} {unit}", num(v, digits)))
+}
+
+impl Report for PlanReport {
+    fn sections(&self) -> Vec<Section> {
+        let mut s = Vec::new();
+        let kind = match self.topology {
+            Topology::Rotary => "rotary core",
+            Topology::Linear => "linear primary",
+        };
+        let layers = if self.layers == 2 {
+            "double layer"
+        } else {
+            "single layer"
+        };
+        let style = match self.style {
+            Style::Lap if self.pitch == 1 => "tooth coils",
+            Style::Lap => "lap",
+            Style::Concentric => "concentric",
+        };
+        let mut head = vec![
+            format!(
+                "{kind}, {} slots, {} poles, {} phases; {layers} {style}, span {} (pole pitch {} slots)",
+                self.slots,
+                self.poles,
+                self.phases,
+                self.pitch,
+                num(self.pole_pitch_slots, 3)
+            ),
+            format!(
+                "q = {}, {} turns per coil, {} path(s), {} connection{}",
+                self.slots_per_pole_phase_fraction,
+                self.turns_per_coil,
+                self.parallel_paths,
+                self.connection,
+                self.periodicity
+                    .map(|t| format!(", periodicity {t}"))
+                    .unwrap_or_default()
+            ),
+            format!(
+                "k_w1 = {}  (k_d {}, k_p {}, k_s {});  balanced: {}",
+                num(self.winding_factor, 4),
+                num(self.fundamental.distribution, 4),
+                num(self.fundamental.pitch, 4),
+                num(self.fundamental.skew, 4),
+                if self.balanced { "yes" } else { "NO" }
+            ),
+        ];
+        if let Some(h) = &self.half_filled_slots {
+            if !h.is_empty() {
+                head.push(format!("half-filled end slots: {}", ranges(h)));
+            }
+        }
+        if !self.empty_slots.is_empty() {
+            head.push(format!("empty slots: {}", ranges(&self.empty_slots)));
+        }
+        s.push(Section::Heading(
+            self.title.clone().unwrap_or_else(|| "Winding plan".into()),
+        ));
+        s.push(Section::Lines(head));
+        s.push(Section::Lines(wrap(self.caution, 78)));
+
+        s.push(Section::Heading(
+            "Slots (sign: current in at +, out at -)".into(),
+        ));
+        let across = if self.layers == 2 { 3 } else { 4 };
+        let mut cols: Vec<(&str, Align)> = Vec::new();
+        for _ in 0..across {
+            cols.extend([("slot", Align::Right), ("top", Align::Left)]);
+            if self.layers == 2 {
+                cols.push(("bottom", Align::Left));
+            }
+            cols.push(("|", Align::Left));
+        }
+        cols.pop();
+        let mut t = Table::new(&cols);
+        let rows = self.slot_table.len().div_ceil(across);
+        for r in 0..rows {
+            let mut row = Vec::new();
+            for c in 0..across {
+                match self.slot_table.get(c * rows + r) {
+                    Some(sr) => {
+                        row.push(sr.slot.to_string());
+                        row.push(sr.top.clone().unwrap_or_else(|| ".".into()));
+                        if self.layers == 2 {
+                            row.push(sr.bottom.clone().unwrap_or_else(|| ".".into()));
+                        }
+                    }
+                    None => row.extend(std::iter::repeat_n(String::new(), self.layers + 1)),
+                }
+                row.push("|".into());
+            }
+            row.pop();
+            t.push(row);
+        }
+        s.push(Section::Table(t));
+
+        s.push(Section::Heading("Coils".into()));
+        s.push(Section::Table(self.main_table()));
+
+        s.push(Section::Heading(
+            "Coil groups in connection order (- : connect reversed)".into(),
+        ));
+        let mut g = Table::new(&[
+            ("group", Align::Right),
+            ("phase", Align::Left),
+            ("polarity", Align::Left),
+            ("path", Align::Right),
+            ("coils", Align::Left),
+        ]);
+        let mut order: Vec<&crate::plan::GroupRow> = self.groups.iter().collect();
+        order.sort_by_key(|r| (self.phases_emf.iter().position(|p| p.phase == r.phase), r.path));
+        for r in order {
+            g.push(vec![
+                r.number.to_string(),
+                r.phase.clone(),
+                r.polarity.to_string(),
+                r.path.to_string(),
+                ranges(&r.coils),
+            ]);
+        }
+        s.push(Section::Table(g));
+
+        s.push(Section::Heading(
+            "Phase EMF at the fundamental (N_ph*k_w1)".into(),
+        ));
+        let mut p = Table::new(&[
+            ("phase", Align::Left),
+            ("magnitude", Align::Right),
+            ("angle deg", Align::Right),
+        ]);
+        for r in &self.phases_emf {
+            p.push(vec![r.phase.clone(), num(r.magnitude, 4), num(r.angle_deg, 2)]);
+        }
+        s.push(Section::Table(p));
+        s.push(Section::Lines(vec![format!(
+            "parallel path counts with equal EMFs: {}",
+            self.possible_parallel_paths
+                .iter()
+                .map(|a| a.to_string())
+                .collect::<Vec<_>>()
+                .join(", ")
+        )]));
+
+        let f = &self.figures;
+        let figs: Vec<String> = [
+            opt(f.pole_pitch_m.map(|t| t * 1e3), 2, "mm").map(|v| format!("pole pitch: {v}")),
+            opt(f.synchronous_speed_m_s, 3, "m/s").map(|v| format!("synchronous speed: {v}")),
+            opt(f.synchronous_speed_rpm, 1, "rpm").map(|v| format!("synchronous speed: {v}")),
+            f.slip
+                .and(f.speed_m_s.or(f.speed_rpm))
+                .map(|_| format!("at slip {}:", num(f.slip.unwrap_or(0.0), 4))),
+            opt(f.speed_m_s, 3, "m/s").map(|v| format!("  secondary speed: {v}")),
+            opt(f.speed_rpm, 1, "rpm").map(|v| format!("  rotor speed: {v}")),
+            opt(f.thrust_n, 1, "N").map(|v| format!("thrust from air-gap power: {v}")),
+            opt(f.torque_nm, 2, "N m").map(|v| format!("torque from air-gap power: {v}")),
+            opt(f.active_length_m.map(|x| x * 1e3), 1, "mm")
+                .map(|v| format!("active length (2p*tau): {v}")),
+            opt(f.total_length_m.map(|x| x * 1e3), 1, "mm")
+                .map(|v| format!("primary length (Z*slot pitch): {v}")),
+        ]
+        .into_iter()
+        .flatten()
+        .collect();
+        if !figs.is_empty() {
+            s.push(Section::Heading("Speeds and sizes".into()));
+            s.push(Section::Lines(figs));
+        }
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("coil", Align::Right),
+            ("phase", Align::Left),
+            ("go", Align::Right),
+            ("back", Align::Right),
+            ("span", Align::Right),
+            ("turns", Align::Right),
+            ("group", Align::Right),
+            ("path", Align::Right),
+            ("go layer", Align::Left),
+            ("back layer", Align::Left),
+        ]);
+        for c in &self.coils {
+            t.push(vec![
+                c.number.to_string(),
+                c.phase.clone(),
+                c.go.to_string(),
+                c.back.to_string(),
+                c.span.to_string(),
+                c.turns.to_string(),
+                c.group.to_string(),
+                c.path.to_string(),
+                c.go_layer.into(),
+                c.back_layer.into(),
+            ]);
+        }
+        t
+    }
+}
+
+impl Report for FactorTable {
+    fn sections(&self) -> Vec<Section> {
+        vec![
+            Section::Heading(format!("Winding factors of phase {}", self.phase)),
+            Section::Table(self.main_table()),
+        ]
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("order", Align::Right),
+            ("mech", Align::Right),
+            ("k_d", Align::Right),
+            ("k_p", Align::Right),
+            ("k_s", Align::Right),
+            ("k_w", Align::Right),
+        ]);
+        for r in &self.rows {
+            t.push(vec![
+                num(r.order, 4),
+                r.mech_order.map(|n| n.to_string()).unwrap_or_default(),
+                format!("{:.4}", r.distribution),
+                format!("{:.4}", r.pitch),
+                format!("{:.4}", r.skew),
+                format!("{:.4}", r.winding),
+            ]);
+        }
+        t
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn ranges_compress_runs() {
+        assert_eq!(ranges(&[1, 2, 3, 7, 9, 10]), "1-3, 7, 9-10");
+        assert_eq!(ranges(&[]), "");
+    }
+
+    #[test]
+    fn wrap_keeps_lines_short() {
+        let lines = wrap(crate::plan::CAUTION, 78);
+        assert!(lines.len() > 1);
+        assert!(lines.iter().all(|l| l.chars().count() <= 78));
+    }
+}

@@ -1,0 +1,258 @@
+//! The plan report: everything a winder needs to lay the coils, as one plain struct.
+
+use serde::Serialize;
+
+use crate::factors::{self, FactorRow};
+use crate::linear::{self, Figures, Operating};
+use crate::winding::{
+    Connection, Style, Topology, Winding, coil_groups, possible_path_counts, rotary_periodicity,
+};
+
+/// Caution printed on every report and sheet.
+pub const CAUTION: &str = "CAUTION: windings run at mains voltage. Work on them only \
+de-energised and isolated; test insulation before energising; follow local electrical codes \
+and have the work done or checked by qualified persons. beltwright plans, it does not certify.";
+
+/// One coil as the shop sees it (slots from 1).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CoilRow {
+    /// Coil number from 1.
+    pub number: usize,
+    /// Phase label.
+    pub phase: String,
+    /// Slot where current enters.
+    pub go: usize,
+    /// Slot where current leaves.
+    pub back: usize,
+    /// Turns.
+    pub turns: u32,
+    /// Parallel path from 1.
+    pub path: usize,
+    /// Coil group number from 1.
+    pub group: usize,
+    /// Signed span in slot pitches (negative: coil reversed).
+    pub span: i64,
+    /// Layer of the go side: "top", "bottom" or "single".
+    pub go_layer: &'static str,
+    /// Layer of the back side.
+    pub back_layer: &'static str,
+}
+
+/// What lies in one slot.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct SlotRow {
+    /// Slot number from 1.
+    pub slot: usize,
+    /// Side in the top layer (or the only layer): sign of current and phase, e.g. "+U".
+    pub top: Option<String>,
+    /// Side in the bottom layer.
+    pub bottom: Option<String>,
+}
+
+/// One coil group in connection order.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct GroupRow {
+    /// Group number from 1, in slot order.
+    pub number: usize,
+    /// Phase label.
+    pub phase: String,
+    /// "+" forward, "-" reversed.
+    pub polarity: &'static str,
+    /// Coils from 1, in slot order.
+    pub coils: Vec<usize>,
+    /// Parallel path from 1.
+    pub path: usize,
+}
+
+/// A phase EMF phasor: magnitude in effective series turns N_ph·k_w, angle in degrees.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PhasorRow {
+    /// Phase label.
+    pub phase: String,
+    /// |E| / (4.44·f·Φ), i.e. N_ph·k_w1.
+    pub magnitude: f64,
+    /// Angle of the phasor, degrees (V lags U by 120° in positive sequence).
+    pub angle_deg: f64,
+}
+
+/// The complete plan of a winding.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PlanReport {
+    /// Free text title.
+    pub title: Option<String>,
+    /// Core kind.
+    pub topology: Topology,
+    /// Slots Z.
+    pub slots: usize,
+    /// Poles 2p.
+    pub poles: usize,
+    /// Phases m.
+    pub phases: usize,
+    /// Layers.
+    pub layers: usize,
+    /// Design span.
+    pub pitch: usize,
+    /// Lap or concentric.
+    pub style: Style,
+    /// Turns per coil.
+    pub turns_per_coil: u32,
+    /// Parallel paths.
+    pub parallel_paths: usize,
+    /// Star or delta.
+    pub connection: Connection,
+    /// Pole pitch τ in slot pitches.
+    pub pole_pitch_slots: f64,
+    /// Slots per pole per phase q.
+    pub slots_per_pole_phase: f64,
+    /// q as a reduced fraction, e.g. "5/4".
+    pub slots_per_pole_phase_fraction: String,
+    /// Machine periodicity gcd(Z, p) of a rotary core.
+    pub periodicity: Option<usize>,
+    /// Phases equal and 2π/m apart at the fundamental.
+    pub balanced: bool,
+    /// Fundamental winding factor k_w1.
+    pub winding_factor: f64,
+    /// Fundamental factors in full.
+    pub fundamental: FactorRow,
+    /// Every coil.
+    pub coils: Vec<CoilRow>,
+    /// Every slot.
+    pub slot_table: Vec<SlotRow>,
+    /// Coil groups in slot order.
+    pub groups: Vec<GroupRow>,
+    /// Phase EMF phasors at the fundamental.
+    pub phases_emf: Vec<PhasorRow>,
+    /// Half-filled end slots of a linear primary (slot numbers from 1).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub half_filled_slots: Option<Vec<usize>>,
+    /// Slots holding no coil side.
+    pub empty_slots: Vec<usize>,
+    /// Parallel path counts that keep every path's EMF equal.
+    pub possible_parallel_paths: Vec<usize>,
+    /// Speeds, lengths, forces.
+    pub figures: Figures,
+    /// The safety caution.
+    pub caution: &'static str,
+}
+
+fn layer_name(layers: usize, l: usize) -> &'static str {
+    match (layers, l) {
+        (1, _) => "single",
+        (_, 0) => "top",
+        _ => "bottom",
+    }
+}
+
+/// Phase EMF phasors at electrical order `order`.
+pub fn phasors(w: &Winding, order: f64) -> Vec<PhasorRow> {
+    (0..w.geometry.phases)
+        .map(|k| {
+            let e = w.phase_emf(k, order);
+            PhasorRow {
+                phase: w.label(k).to_string(),
+                magnitude: e.norm(),
+                angle_deg: tidy_angle(e.arg().to_degrees()),
+            }
+        })
+        .collect()
+}
+
+/// Angle in (−180, 180], with −0 and rounding dust removed.
+fn tidy_angle(a: f64) -> f64 {
+    let r = (a * 1e9).round() / 1e9;
+    if r <= -180.0 { r + 360.0 } else { r + 0.0 }
+}
+
+/// Build the plan report of a winding at an operating point.
+pub fn plan(w: &Winding, op: Operating) -> PlanReport {
+    let g = &w.geometry;
+    let groups = coil_groups(w);
+    let mut group_of = vec![0; w.coils.len()];
+    for (n, grp) in groups.iter().enumerate() {
+        for &c in &grp.coils {
+            group_of[c] = n + 1;
+        }
+    }
+    let coils = w
+        .coils
+        .iter()
+        .enumerate()
+        .map(|(i, c)| CoilRow {
+            number: i + 1,
+            phase: w.label(c.phase).to_string(),
+            go: c.go + 1,
+            back: c.back + 1,
+            turns: c.turns,
+            path: c.path + 1,
+            group: group_of[i],
+            span: w.span(c),
+            go_layer: layer_name(g.layers, c.go_layer),
+            back_layer: layer_name(g.layers, c.back_layer),
+        })
+        .collect();
+    let mut slot_table: Vec<SlotRow> = (0..g.slots)
+        .map(|k| SlotRow {
+            slot: k + 1,
+            top: None,
+            bottom: None,
+        })
+        .collect();
+    for c in &w.coils {
+        let label = w.label(c.phase);
+        for (slot, layer, sign) in [(c.go, c.go_layer, '+'), (c.back, c.back_layer, '-')] {
+            let cell = if layer == 0 {
+                &mut slot_table[slot].top
+            } else {
+                &mut slot_table[slot].bottom
+            };
+            *cell = Some(format!("{sign}{label}"));
+        }
+    }
+    let group_rows = groups
+        .iter()
+        .enumerate()
+        .map(|(n, grp)| GroupRow {
+            number: n + 1,
+            phase: w.label(grp.phase).to_string(),
+            polarity: if grp.polarity > 0 { "+" } else { "-" },
+            coils: grp.coils.iter().map(|c| c + 1).collect(),
+            path: w.coils[grp.coils[0]].path + 1,
+        })
+        .collect();
+    let (qn, qd) = w.slots_per_pole_phase();
+    let fundamental = factors::fundamental(w);
+    PlanReport {
+        title: w.title.clone(),
+        topology: g.topology,
+        slots: g.slots,
+        poles: g.poles,
+        phases: g.phases,
+        layers: g.layers,
+        pitch: w.pitch,
+        style: w.style,
+        turns_per_coil: w.turns_per_coil,
+        parallel_paths: w.parallel_paths,
+        connection: w.connection,
+        pole_pitch_slots: g.pole_pitch_slots,
+        slots_per_pole_phase: qn as f64 / qd as f64,
+        slots_per_pole_phase_fraction: if qd == 1 {
+            qn.to_string()
+        } else {
+            format!("{qn}/{qd}")
+        },
+        periodicity: (g.topology == Topology::Rotary).then(|| rotary_periodicity(g.slots, g.poles)),
+        balanced: w.is_balanced(),
+        winding_factor: fundamental.winding,
+        fundamental,
+        coils,
+        slot_table,
+        groups: group_rows,
+        phases_emf: phasors(w, 1.0),
+        half_filled_slots: (g.topology == Topology::Linear)
+            .then(|| w.half_filled_slots().iter().map(|k| k + 1).collect()),
+        empty_slots: w.empty_slots().iter().map(|k| k + 1).collect(),
+        possible_parallel_paths: possible_path_counts(w),
+        figures: linear::figures(w, op),
+        caution: CAUTION,
+    }
+}

@@ -1,0 +1,331 @@
+//! The `Winding` model: core geometry plus a list of coils. It is the single source of truth;
+//! every analysis is a pure function of it and never looks back at the layout file.
+
+mod feasible;
+mod groups;
+mod synth;
+
+use num_complex::Complex64;
+use std::f64::consts::PI;
+use thiserror::Error;
+
+pub use crate::layout::{Connection, Core, Style, Supply, Topology};
+pub use feasible::{double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity};
+pub use groups::{CoilGroup, assign_paths, coil_groups, possible_path_counts};
+pub use synth::build;
+
+/// Why a spec could not become a winding.
+#[derive(Debug, Error, Clone, PartialEq)]
+pub enum PlanError {
+    /// No balanced winding exists for the request; the message says why and what would work.
+    #[error("{0}")]
+    Infeasible(String),
+    /// A slot holds more coil sides than it has layers.
+    #[error(
+        "slot {slot} holds {sides} coil sides but the winding has {layers} layer(s): coils {}",
+        coils.iter().map(|c| c.to_string()).collect::<Vec<_>>().join(", ")
+    )]
+    Overfilled {
+        /// Slot number, 1-based.
+        slot: usize,
+        /// How many sides were found.
+        sides: usize,
+        /// Layers per slot.
+        layers: usize,
+        /// Coils involved, 1-based indices into the coil list.
+        coils: Vec<usize>,
+    },
+    /// The requested parallel path count would make circulating currents.
+    #[error(
+        "{requested} parallel paths would carry unequal EMFs and drive circulating currents; \
+         this winding allows {}",
+        possible.iter().map(|c| c.to_string()).collect::<Vec<_>>().join(", ")
+    )]
+    Paths {
+        /// What the layout asked for.
+        requested: usize,
+        /// Path counts that give every path the same EMF phasor.
+        possible: Vec<usize>,
+    },
+}
+
+/// Geometry of the core and the electrical angle of every slot.
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+pub struct Geometry {
+    /// Closed rotary core or open linear primary.
+    pub topology: Topology,
+    /// Slot count Z (end slots of a linear primary included).
+    pub slots: usize,
+    /// Pole count 2p.
+    pub poles: usize,
+    /// Phase count m.
+    pub phases: usize,
+    /// Layers per slot.
+    pub layers: usize,
+    /// Pole pitch τ in slot pitches.
+    pub pole_pitch_slots: f64,
+    /// Slot `k` (0-based) lies at electrical angle 2π·(k·angle_num mod angle_den)/angle_den.
+    pub angle_num: u64,
+    /// See `angle_num`.
+    pub angle_den: u64,
+    /// Physical sizes, when given.
+    pub core: Core,
+}
+
+impl Geometry {
+    /// Rotary core: slot angle 2π·p/Z electrical (star of slots).
+    pub fn rotary(slots: usize, poles: usize, phases: usize, layers: usize, core: Core) -> Self {
+        Geometry {
+            topology: Topology::Rotary,
+            slots,
+            poles,
+            phases,
+            layers,
+            pole_pitch_slots: slots as f64 / poles as f64,
+            angle_num: (poles / 2) as u64,
+            angle_den: slots as u64,
+            core,
+        }
+    }
+
+    /// Linear primary whose `active` slot positions span the poles: slot angle π·poles/active.
+    pub fn linear(
+        slots: usize,
+        active: usize,
+        poles: usize,
+        phases: usize,
+        layers: usize,
+        core: Core,
+    ) -> Self {
+        Geometry {
+            topology: Topology::Linear,
+            slots,
+            poles,
+            phases,
+            layers,
+            pole_pitch_slots: active as f64 / poles as f64,
+            angle_num: poles as u64,
+            angle_den: 2 * active as u64,
+            core,
+        }
+    }
+
+    /// Pole pairs p (for odd-pole linear primaries this is a half-integer, so we keep 2p).
+    pub fn pole_pairs(&self) -> f64 {
+        self.poles as f64 / 2.0
+    }
+
+    /// Electrical angle (radians) of slot `k` (0-based) at electrical order `order`.
+    /// Exact integer reduction when `order · angle_num` is whole, so large slot numbers lose
+    /// no precision.
+    pub fn slot_angle(&self, k: usize, order: f64) -> f64 {
+        let r = order * self.angle_num as f64;
+        let ri = r.round();
+        if (r - ri).abs() < 1e-9 && ri.abs() < 1e15 {
+            let den = self.angle_den as i128;
+            let red = ((ri as i128) * (k as i128)).rem_euclid(den);
+            2.0 * PI * red as f64 / den as f64
+        } else {
+            2.0 * PI * r * k as f64 / self.angle_den as f64
+        }
+    }
+
+    /// Slot angle in electrical radians at the fundamental (α = π/τ).
+    pub fn slot_angle_elec(&self) -> f64 {
+        PI / self.pole_pitch_slots
+    }
+
+    /// Slot pitch in metres: given directly, or from the bore of a rotary core.
+    pub fn slot_pitch_m(&self) -> Option<f64> {
+        self.core.slot_pitch_m.or_else(|| {
+            self.core
+                .bore_m
+                .filter(|_| self.topology == Topology::Rotary)
+                .map(|d| PI * d / self.slots as f64)
+        })
+    }
+
+    /// Pole pitch τ in metres, when the slot pitch is known.
+    pub fn pole_pitch_m(&self) -> Option<f64> {
+        self.slot_pitch_m().map(|s| s * self.pole_pitch_slots)
+    }
+}
+
+/// One coil: current enters at `go` and leaves at `back` (0-based slots inside the program).
+#[derive(Debug, Clone, PartialEq, Eq, serde::Serialize)]
+pub struct Coil {
+    /// Index into the phase labels.
+    pub phase: usize,
+    /// Slot where current enters, 0-based.
+    pub go: usize,
+    /// Slot where current leaves, 0-based.
+    pub back: usize,
+    /// Turns.
+    pub turns: u32,
+    /// Parallel path, 0-based.
+    pub path: usize,
+    /// Layer position of the go side: 0 top (nearest the gap, or left half of a tooth-coil
+    /// slot), 1 bottom. Always 0 in a single-layer winding.
+    pub go_layer: usize,
+    /// Layer position of the back side.
+    pub back_layer: usize,
+}
+
+/// A planned or recorded winding.
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+pub struct Winding {
+    /// Free text for drawings and reports.
+    pub title: Option<String>,
+    /// The core.
+    pub geometry: Geometry,
+    /// Phase labels in sequence order.
+    pub phase_labels: Vec<String>,
+    /// Coils, numbered from 1 at every edge a person sees.
+    pub coils: Vec<Coil>,
+    /// Design span in slot pitches (concentric: the mean span).
+    pub pitch: usize,
+    /// Coil shape.
+    pub style: Style,
+    /// Turns per coil of the design.
+    pub turns_per_coil: u32,
+    /// Parallel paths per phase.
+    pub parallel_paths: usize,
+    /// Star or delta.
+    pub connection: Connection,
+    /// Skew in slot pitches.
+    pub skew_slots: f64,
+    /// Supply, when given.
+    pub supply: Supply,
+    /// True when the coils came from an explicit `[[coil]]` list rather than synthesis.
+    pub from_coil_list: bool,
+    /// Drawing colours per phase, when the layout overrides the defaults.
+    pub colours: Option<Vec<String>>,
+}
+
+/// Relative tolerance used for "equal" phasors throughout.
+pub const PHASOR_TOL: f64 = 1e-9;
+
+impl Winding {
+    /// Signed span of a coil in slot pitches: positive when current enters at the left side
+    /// (the side from which the coil reaches forward), negative for a coil reversed.
+    pub fn span(&self, coil: &Coil) -> i64 {
+        let z = self.geometry.slots as i64;
+        let d = coil.back as i64 - coil.go as i64;
+        match self.geometry.topology {
+            Topology::Linear => d,
+            Topology::Rotary => {
+                let f = d.rem_euclid(z);
+                if 2 * f <= z { f } else { f - z }
+            }
+        }
+    }
+
+    /// Left slot of a coil: the side from which its span reaches forward.
+    pub fn left_slot(&self, coil: &Coil) -> usize {
+        if self.span(coil) >= 0 {
+            coil.go
+        } else {
+            coil.back
+        }
+    }
+
+    /// EMF phasor of one coil at `order`, in turns: N·(e^{−jθ_go} − e^{−jθ_back})/2, so that a
+    /// full-pitch coil of N turns gives magnitude N (EMF per 4.44·f·Φ).
+    pub fn coil_emf(&self, coil: &Coil, order: f64) -> Complex64 {
+        let g = self.geometry.slot_angle(coil.go, order);
+        let b = self.geometry.slot_angle(coil.back, order);
+        let e = Complex64::from_polar(1.0, -g) - Complex64::from_polar(1.0, -b);
+        e * (coil.turns as f64 / 2.0)
+    }
+
+    /// EMF phasor of a phase at `order`: the sum over its coils divided by the parallel path
+    /// count, i.e. N_ph·k_w in magnitude (effective series turns).
+    pub fn phase_emf(&self, phase: usize, order: f64) -> Complex64 {
+        let s: Complex64 = self
+            .coils
+            .iter()
+            .filter(|c| c.phase == phase)
+            .map(|c| self.coil_emf(c, order))
+            .sum();
+        s / self.parallel_paths as f64
+    }
+
+    /// Series turns per phase N_ph (all coils of the phase over the parallel paths).
+    pub fn series_turns(&self, phase: usize) -> f64 {
+        let n: u64 = self
+            .coils
+            .iter()
+            .filter(|c| c.phase == phase)
+            .map(|c| c.turns as u64)
+            .sum();
+        n as f64 / self.parallel_paths as f64
+    }
+
+    /// True when every phase EMF at the fundamental has the same magnitude and the phases
+    /// follow each other by 2π/m in sequence order (positive sequence).
+    pub fn is_balanced(&self) -> bool {
+        let m = self.geometry.phases;
+        let e: Vec<Complex64> = (0..m).map(|k| self.phase_emf(k, 1.0)).collect();
+        let r = e[0].norm();
+        if r < 1e-12 {
+            return false;
+        }
+        (0..m).all(|k| {
+            let ideal = e[0] * Complex64::from_polar(1.0, -2.0 * PI * k as f64 / m as f64);
+            (e[k] - ideal).norm() <= PHASOR_TOL * r.max(1.0)
+        })
+    }
+
+    /// Occupancy of every slot layer: `fill[slot][layer]` is the coil index (0-based) whose
+    /// side lies there.
+    pub fn slot_fill(&self) -> Vec<[Option<usize>; 2]> {
+        let mut fill = vec![[None, None]; self.geometry.slots];
+        for (i, c) in self.coils.iter().enumerate() {
+            fill[c.go][c.go_layer.min(1)] = Some(i);
+            fill[c.back][c.back_layer.min(1)] = Some(i);
+        }
+        fill
+    }
+
+    /// Slots (0-based) with one layer empty: the end slots of a linear double-layer primary,
+    /// or any gap left in a double-layer record.
+    pub fn half_filled_slots(&self) -> Vec<usize> {
+        if self.geometry.layers < 2 {
+            return Vec::new();
+        }
+        self.slot_fill()
+            .iter()
+            .enumerate()
+            .filter(|(_, f)| f.iter().filter(|x| x.is_some()).count() == 1)
+            .map(|(k, _)| k)
+            .collect()
+    }
+
+    /// Slots (0-based) holding no coil side at all.
+    pub fn empty_slots(&self) -> Vec<usize> {
+        self.slot_fill()
+            .iter()
+            .enumerate()
+            .filter(|(_, f)| f.iter().all(|x| x.is_none()))
+            .map(|(k, _)| k)
+            .collect()
+    }
+
+    /// Slots per pole per phase q = Z_active / (2p·m), as a reduced fraction (num, den).
+    pub fn slots_per_pole_phase(&self) -> (u64, u64) {
+        let active = (self.geometry.pole_pitch_slots * self.geometry.poles as f64).round() as u64;
+        let den = (self.geometry.poles * self.geometry.phases) as u64;
+        let g = gcd(active, den).max(1);
+        (active / g, den / g)
+    }
+
+    /// Label of a phase.
+    pub fn label(&self, phase: usize) -> &str {
+        &self.phase_labels[phase]
+    }
+}
+
+/// Greatest common divisor.
+pub fn gcd(a: u64, b: u64) -> u64 {
+    if b == 0 { a } else { gcd(b, a % b) }
+}

@@ -1,0 +1,560 @@
+//! Synthesis of balanced windings by the star of slots with 60° phase belts, and the
+//! building of a [`Winding`] from an explicit coil list.
+//!
+//! Method: the star of slots (slot k at electrical angle k·p·2π/Z on a rotary core, π·k/τ
+//! along a linear primary) is cut into 2m sectors of π/m; sector b belongs to phase b/2
+//! (b even, positive) or to phase (b − m)/2 (b odd, negative), giving the belt order
+//! +U −W +V −U +W −V for m = 3 (Pyrhönen, Jokinen, Hrabovcová, *Design of Rotating Electrical
+//! Machines*, 2nd ed. 2014, §2.4; K. Vogt, *Berechnung elektrischer Maschinen*, 1996).
+
+use super::{
+    Coil, Geometry, PlanError, Style, Topology, Winding, assign_paths,
+    double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity,
+};
+use crate::layout::{CoilEntry, Spec};
+
+/// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
+pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
+    let mut w = if spec.coils.is_empty() {
+        synthesize(spec)?
+    } else {
+        return from_coil_list(spec);
+    };
+    if spec.parallel_paths > 1 {
+        assign_paths(&mut w, spec.parallel_paths)?;
+    }
+    Ok(w)
+}
+
+/// Phase and polarity of belt `b` of 2m belts (see the module note).
+fn belt(b: usize, m: usize) -> (usize, bool) {
+    if b % 2 == 0 {
+        (b / 2, true)
+    } else {
+        (((b + m) / 2) % m, false)
+    }
+}
+
+/// Belt of an angle index `a` (of `den` per electrical turn) for m phases.
+fn belt_of(a: u64, den: u64, m: usize) -> (usize, bool) {
+    let b = (2 * m as u64 * a / den) as usize;
+    belt(b.min(2 * m - 1), m)
+}
+
+fn angle_index(geom: &Geometry, k: usize) -> u64 {
+    (k as u64 * geom.angle_num) % geom.angle_den
+}
+
+/// Nearest whole span to a pole pitch, halves rounded down (the shorter coil).
+fn nearest_full_pitch(tau: f64) -> usize {
+    let f = tau.floor();
+    let y = if tau - f > 0.5 { f + 1.0 } else { f };
+    (y as usize).max(1)
+}
+
+fn blank_winding(spec: &Spec, geometry: Geometry, pitch: usize, coils: Vec<Coil>) -> Winding {
+    Winding {
+        title: spec.title.clone(),
+        geometry,
+        phase_labels: spec.phase_labels.clone(),
+        coils,
+        pitch,
+        style: spec.style,
+        turns_per_coil: spec.turns_per_coil,
+        parallel_paths: 1,
+        connection: spec.connection,
+        skew_slots: spec.skew_slots,
+        supply: spec.supply,
+        from_coil_list: false,
+        colours: spec.colours.clone(),
+    }
+}
+
+fn synthesize(spec: &Spec) -> Result<Winding, PlanError> {
+    match (spec.topology, spec.layers) {
+        (Topology::Rotary, 2) => rotary_double(spec),
+        (Topology::Linear, 2) => linear_double(spec),
+        (_, _) => single_layer(spec),
+    }
+}
+
+/// Double-layer lap coils at every position: coil i from slot i (top) to slot i + y
+/// (bottom), phase by the belt of slot i.
+fn double_layer_coils(geom: &Geometry, positions: usize, y: usize, turns: u32) -> Vec<Coil> {
+    let z = geom.slots;
+    (0..positions)
+        .map(|i| {
+            let right = (i + y) % z;
+            let (phase, positive) = belt_of(angle_index(geom, i), geom.angle_den, geom.phases);
+            let (go, back, go_layer, back_layer) = if positive {
+                (i, right, 0, 1)
+            } else {
+                (right, i, 1, 0)
+            };
+            Coil {
+                phase,
+                go,
+                back,
+                turns,
+                path: 0,
+                go_layer,
+                back_layer,
+            }
+        })
+        .collect()
+}
+
+fn rotary_double(spec: &Spec) -> Result<Winding, PlanError> {
+    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+    if !double_layer_rotary_feasible(z, poles, m) {
+        return Err(PlanError::Infeasible(rotary_refusal(z, poles, m, 2)));
+    }
+    let geom = Geometry::rotary(z, poles, m, 2, spec.core);
+    let y = match spec.pitch {
+        Some(y) => check_rotary_span(z, y)?,
+        None => nearest_full_pitch(geom.pole_pitch_slots),
+    };
+    let coils = double_layer_coils(&geom, z, y, spec.turns_per_coil);
+    let w = blank_winding(spec, geom, y, coils);
+    ensure_balanced(w, || rotary_refusal(z, poles, m, 2))
+}
+
+fn check_rotary_span(z: usize, y: usize) -> Result<usize, PlanError> {
+    if 2 * y > z {
+        return Err(PlanError::Infeasible(format!(
+            "span {y} is longer than half of the {z}-slot core; the longest span is {}",
+            z / 2
+        )));
+    }
+    Ok(y)
+}
+
+fn ensure_balanced(w: Winding, why: impl Fn() -> String) -> Result<Winding, PlanError> {
+    if w.is_balanced() {
+        Ok(w)
+    } else {
+        Err(PlanError::Infeasible(why()))
+    }
+}
+
+/// Refusal text for a rotary core, with the nearest slot counts that work.
+fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
+    let t = rotary_periodicity(z, poles);
+    let kind = if layers == 2 {
+        "double-layer"
+    } else {
+        "single-layer"
+    };
+    let ok = |zz: usize| {
+        if layers == 2 {
+            double_layer_rotary_feasible(zz, poles, m)
+        } else {
+            single_layer_rotary_feasible(zz, poles, m)
+        }
+    };
+    let why = if layers == 2 {
+        format!(
+            " ({z} is not a multiple of {m}·gcd({z}, {}) = {})",
+            poles / 2,
+            m * t
+        )
+    } else {
+        String::new()
+    };
+    let mut msg = format!(
+        "{z} slots cannot carry a balanced {m}-phase {kind} winding for {poles} poles{why}"
+    );
+    match nearby_rotary_slot_counts(z, 4 * m * poles.max(2), ok) {
+        (Some(lo), Some(hi)) => msg += &format!("; {lo} or {hi} slots can"),
+        (Some(s), None) | (None, Some(s)) => msg += &format!("; {s} slots can"),
+        (None, None) => {}
+    }
+    if layers == 1 && double_layer_rotary_feasible(z, poles, m) {
+        msg += "; a double-layer winding (layers = 2) fits these slots";
+    }
+    msg
+}
+
+/// A single-layer winding exists on this rotary core (decided by synthesis itself).
+pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
+    let spec = Spec {
+        title: None,
+        topology: Topology::Rotary,
+        slots: z,
+        poles,
+        phases: m,
+        phase_labels: (0..m).map(|i| i.to_string()).collect(),
+        layers: 1,
+        pitch: None,
+        style: Style::Lap,
+        turns_per_coil: 1,
+        parallel_paths: 1,
+        connection: crate::layout::Connection::Star,
+        skew_slots: 0.0,
+        core: Default::default(),
+        supply: Default::default(),
+        coils: Vec::new(),
+        colours: None,
+    };
+    single_layer(&spec).is_ok()
+}
+
+/// Linear double layer: N = Z − y coils, y half-filled slots at each end.
+fn linear_double(spec: &Spec) -> Result<Winding, PlanError> {
+    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+    let attempt = |y: usize| -> Option<Winding> {
+        let n = z.checked_sub(y).filter(|&n| n >= m)?;
+        let geom = Geometry::linear(z, n, poles, m, 2, spec.core);
+        let coils = double_layer_coils(&geom, n, y, spec.turns_per_coil);
+        let w = blank_winding(spec, geom, y, coils);
+        w.is_balanced().then_some(w)
+    };
+    match spec.pitch {
+        Some(y) => attempt(y).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, y))),
+        None => {
+            // Span closest to the pole pitch it produces, τ = (Z − y)/2p, among balanced ones.
+            let mut spans: Vec<usize> = (1..z).collect();
+            spans.sort_by(|&a, &b| {
+                let da = (a as f64 - (z - a) as f64 / poles as f64).abs();
+                let db = (b as f64 - (z - b) as f64 / poles as f64).abs();
+                da.total_cmp(&db).then(a.cmp(&b))
+            });
+            let best = spans[0];
+            attempt(best).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, best)))
+        }
+    }
+}
+
+/// Refusal text for a linear primary: how many slots q and the span need.
+fn linear_refusal(spec: &Spec, y: usize) -> String {
+    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+    let unit = poles * m;
+    let n = z.saturating_sub(y);
+    let mut msg = format!(
+        "a linear double-layer primary of {poles} poles with span {y} has {n} coil positions \
+         ({z} slots − {y}), which do not make a balanced {m}-phase winding"
+    );
+    let q_lo = (n / unit).max(1);
+    let options: Vec<String> = [q_lo, q_lo + 1]
+        .iter()
+        .map(|&q| {
+            let tau = q * m;
+            format!(
+                "q = {q} needs {} slots ({poles}·{m}·{q} + {y}; full pitch is span {tau})",
+                unit * q + y
+            )
+        })
+        .collect();
+    msg += &format!("; {}", options.join(", "));
+    msg
+}
+
+/// Single-layer windings: tooth coils on every other tooth (span 1), or lap/concentric coils
+/// pairing the positive and negative belt slots of each phase.
+fn single_layer(spec: &Spec) -> Result<Winding, PlanError> {
+    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+    let geom = match spec.topology {
+        Topology::Rotary => Geometry::rotary(z, poles, m, 1, spec.core),
+        Topology::Linear => Geometry::linear(z, z, poles, m, 1, spec.core),
+    };
+    let refuse = || match spec.topology {
+        Topology::Rotary => rotary_refusal(z, poles, m, 1),
+        Topology::Linear => format!(
+            "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles \
+             on a linear primary; it needs an even pole count and 2p·m·q slots, e.g. {} (q = 1) \
+             or {} (q = 2), or use layers = 2",
+            2 * poles.div_ceil(2) * m,
+            4 * poles.div_ceil(2) * m
+        ),
+    };
+    let y_default = nearest_full_pitch(geom.pole_pitch_slots);
+    let y = match spec.pitch {
+        Some(y) if spec.topology == Topology::Rotary => check_rotary_span(z, y)?,
+        Some(y) => y,
+        None => y_default,
+    };
+    if y == 1 && spec.style == Style::Lap {
+        let coils = tooth_coils(&geom, spec.turns_per_coil).ok_or_else(|| {
+            PlanError::Infeasible(format!(
+                "single-layer tooth coils wind every other tooth and need an even slot count, \
+                 not {z}"
+            ))
+        })?;
+        let w = blank_winding(spec, geom, 1, coils);
+        return ensure_balanced(w, refuse);
+    }
+    // Each slot takes one coil side, its belt from the star of slots.
+    let mut plus: Vec<Vec<usize>> = vec![Vec::new(); m];
+    let mut minus: Vec<Vec<usize>> = vec![Vec::new(); m];
+    for k in 0..z {
+        let (phase, positive) = belt_of(angle_index(&geom, k), geom.angle_den, m);
+        if positive {
+            plus[phase].push(k)
+        } else {
+            minus[phase].push(k)
+        }
+    }
+    if (0..m).any(|p| plus[p].len() != minus[p].len() || plus[p].is_empty()) {
+        return Err(PlanError::Infeasible(refuse()));
+    }
+    let mut coils = Vec::with_capacity(z / 2);
+    for p in 0..m {
+        let pairs = match spec.style {
+            Style::Concentric => nest(&geom, &plus[p], &minus[p]),
+            Style::Lap => {
+                match pair_at_span(&geom, &plus[p], &minus[p], y) {
+                    Some(pairs) => Some(pairs),
+                    None if spec.pitch.is_none() => {
+                        // Default span: the nearest span that pairs every slot.
+                        (1..z)
+                            .flat_map(|d| [y.checked_sub(d), Some(y + d)])
+                            .flatten()
+                            .filter(|&s| s >= 1 && s < z)
+                            .find_map(|s| pair_at_span(&geom, &plus[p], &minus[p], s))
+                    }
+                    None => None,
+                }
+            }
+        };
+        let pairs = pairs.ok_or_else(|| {
+            let spans = single_layer_spans(&geom, &plus, &minus);
+            PlanError::Infeasible(format!(
+                "span {y} cannot pair the single-layer slots of phase {} in lap coils; \
+                 spans that can: {}",
+                spec.phase_labels[p],
+                if spans.is_empty() {
+                    "none (try style = \"concentric\")".to_string()
+                } else {
+                    spans
+                        .iter()
+                        .map(|s| s.to_string())
+                        .collect::<Vec<_>>()
+                        .join(", ")
+                }
+            ))
+        })?;
+        coils.extend(pairs.into_iter().map(|(go, back)| Coil {
+            phase: p,
+            go,
+            back,
+            turns: spec.turns_per_coil,
+            path: 0,
+            go_layer: 0,
+            back_layer: 0,
+        }));
+    }
+    let mut w = blank_winding(spec, geom, y, coils);
+    let mut coils = std::mem::take(&mut w.coils);
+    coils.sort_by_key(|c| (w.left_slot(c), c.go));
+    w.coils = coils;
+    if spec.style == Style::Concentric {
+        let total: i64 = w.coils.iter().map(|c| w.span(c).abs()).sum();
+        w.pitch = (total as f64 / w.coils.len() as f64).round() as usize;
+    }
+    ensure_balanced(w, refuse)
+}
+
+/// Tooth coils on teeth 0, 2, 4, …: coil i from slot 2i to slot 2i + 1, phase by the belt
+/// of its coil phasor. `None` if the slot count is odd.
+fn tooth_coils(geom: &Geometry, turns: u32) -> Option<Vec<Coil>> {
+    let z = geom.slots;
+    if z % 2 != 0 {
+        return None;
+    }
+    Some(
+        (0..z / 2)
+            .map(|i| {
+                let (l, r) = (2 * i, (2 * i + 1) % z);
+                let (phase, positive) =
+                    belt_of(angle_index(geom, l), geom.angle_den, geom.phases);
+                let (go, back) = if positive { (l, r) } else { (r, l) };
+                Coil {
+                    phase,
+                    go,
+                    back,
+                    turns,
+                    path: 0,
+                    go_layer: 0,
+                    back_layer: 0,
+                }
+            })
+            .collect(),
+    )
+}
+
+/// Forward distance from slot a to slot b.
+fn forward(geom: &Geometry, a: usize, b: usize) -> Option<usize> {
+    match geom.topology {
+        Topology::Rotary => Some((b + geom.slots - a) % geom.slots),
+        Topology::Linear => b.checked_sub(a),
+    }
+}
+
+/// Pair every positive slot with a negative slot at distance exactly `y` either way
+/// (bipartite matching by augmenting paths; each slot has at most two partners).
+fn pair_at_span(
+    geom: &Geometry,
+    plus: &[usize],
+    minus: &[usize],
+    y: usize,
+) -> Option<Vec<(usize, usize)>> {
+    let partners: Vec<Vec<usize>> = plus
+        .iter()
+        .map(|&s| {
+            minus
+                .iter()
+                .enumerate()
+                .filter(|&(_, &t)| forward(geom, s, t) == Some(y) || forward(geom, t, s) == Some(y))
+                .map(|(j, _)| j)
+                .collect()
+        })
+        .collect();
+    let mut owner: Vec<Option<usize>> = vec![None; minus.len()];
+    fn augment(
+        i: usize,
+        partners: &[Vec<usize>],
+        owner: &mut [Option<usize>],
+        seen: &mut [bool],
+    ) -> bool {
+        for &j in &partners[i] {
+            if !seen[j] {
+                seen[j] = true;
+                if owner[j].is_none_or(|o| augment(o, partners, owner, seen)) {
+                    owner[j] = Some(i);
+                    return true;
+                }
+            }
+        }
+        false
+    }
+    for i in 0..plus.len() {
+        let mut seen = vec![false; minus.len()];
+        if !augment(i, &partners, &mut owner, &mut seen) {
+            return None;
+        }
+    }
+    Some(
+        owner
+            .iter()
+            .enumerate()
+            .filter_map(|(j, o)| o.map(|i| (plus[i], minus[j])))
+            .collect(),
+    )
+}
+
+/// Concentric coils: each negative slot closes the nearest open positive slot before it
+/// (bracket matching in slot order), so coils of one group nest around one centre.
+fn nest(geom: &Geometry, plus: &[usize], minus: &[usize]) -> Option<Vec<(usize, usize)>> {
+    let mut sides: Vec<(usize, bool)> = plus
+        .iter()
+        .map(|&s| (s, true))
+        .chain(minus.iter().map(|&s| (s, false)))
+        .collect();
+    sides.sort_unstable();
+    // On a closed core start where the running balance is lowest (cyclic lemma).
+    if geom.topology == Topology::Rotary {
+        let mut bal = 0i64;
+        let mut low = (0i64, 0usize);
+        for (i, &(_, p)) in sides.iter().enumerate() {
+            bal += if p { 1 } else { -1 };
+            if bal < low.0 {
+                low = (bal, i + 1);
+            }
+        }
+        let n = sides.len().max(1);
+        sides.rotate_left(low.1 % n);
+    }
+    let mut open = Vec::new();
+    let mut pairs = Vec::with_capacity(plus.len());
+    for (s, positive) in sides {
+        if positive {
+            open.push(s);
+        } else {
+            let g = open.pop()?;
+            pairs.push((g, s));
+        }
+    }
+    open.is_empty().then_some(pairs)
+}
+
+/// Spans at which lap coils pair every phase's single-layer slots.
+fn single_layer_spans(geom: &Geometry, plus: &[Vec<usize>], minus: &[Vec<usize>]) -> Vec<usize> {
+    let top = match geom.topology {
+        Topology::Rotary => geom.slots / 2,
+        Topology::Linear => geom.slots - 1,
+    };
+    (2..=top)
+        .filter(|&y| (0..plus.len()).all(|p| pair_at_span(geom, &plus[p], &minus[p], y).is_some()))
+        .collect()
+}
+
+/// A winding from an explicit coil list, taken as given: only range and fill are checked.
+fn from_coil_list(spec: &Spec) -> Result<Winding, PlanError> {
+    let (z, poles, m, layers) = (spec.slots, spec.poles, spec.phases, spec.layers);
+    let rough = |e: &CoilEntry| -> usize {
+        let d = e.back.abs_diff(e.go);
+        match spec.topology {
+            Topology::Rotary => d.min(z - d),
+            Topology::Linear => d,
+        }
+    };
+    let pitch = spec.pitch.unwrap_or_else(|| {
+        let mut spans: Vec<usize> = spec.coils.iter().map(rough).collect();
+        spans.sort_unstable();
+        spans[spans.len() / 2]
+    });
+    let geom = match spec.topology {
+        Topology::Rotary => Geometry::rotary(z, poles, m, layers, spec.core),
+        Topology::Linear => {
+            let active = if layers == 2 { z.saturating_sub(pitch) } else { z };
+            Geometry::linear(z, active.max(1), poles, m, layers, spec.core)
+        }
+    };
+    // Count sides per slot before placing them, so overfilled slots name every coil.
+    let mut in_slot: Vec<Vec<usize>> = vec![Vec::new(); z];
+    for (i, e) in spec.coils.iter().enumerate() {
+        in_slot[e.go].push(i);
+        in_slot[e.back].push(i);
+    }
+    if let Some((k, cs)) = in_slot.iter().enumerate().find(|(_, cs)| cs.len() > layers) {
+        let mut coils: Vec<usize> = cs.iter().map(|i| i + 1).collect();
+        coils.dedup();
+        return Err(PlanError::Overfilled {
+            slot: k + 1,
+            sides: cs.len(),
+            layers,
+            coils,
+        });
+    }
+    let mut w = blank_winding(spec, geom, pitch, Vec::with_capacity(spec.coils.len()));
+    w.from_coil_list = true;
+    w.parallel_paths = spec.parallel_paths;
+    let mut used = vec![[false; 2]; z];
+    for e in &spec.coils {
+        let mut c = Coil {
+            phase: e.phase,
+            go: e.go,
+            back: e.back,
+            turns: e.turns,
+            path: e.path,
+            go_layer: 0,
+            back_layer: 0,
+        };
+        if layers == 2 {
+            // Left side in the top layer, right side in the bottom, as a lap coil lies.
+            let forward = w.span(&c) >= 0;
+            let (want_go, want_back) = if forward { (0, 1) } else { (1, 0) };
+            c.go_layer = take(&mut used[c.go], want_go);
+            c.back_layer = take(&mut used[c.back], want_back);
+        }
+        w.coils.push(c);
+    }
+    Ok(w)
+}
+
+/// Take layer `want` of a slot if free, else the other one.
+fn take(slot: &mut [bool; 2], want: usize) -> usize {
+    let l = if slot[want] { 1 - want } else { want };
+    slot[l] = true;
+    l
+}
