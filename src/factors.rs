@@ -112,7 +112,11 @@ pub fn factors_at(w: &Winding, phase: usize, order: f64) -> FactorRow {
     } else {
         let sum: Complex64 = coils.iter().map(|c| w.coil_emf(c, order)).sum();
         let kw = sum.norm() / turns;
-        let mean = spans.iter().zip(&coils).map(|(&s, c)| s as f64 * c.turns as f64).sum::<f64>()
+        let mean = spans
+            .iter()
+            .zip(&coils)
+            .map(|(&s, c)| s as f64 * c.turns as f64)
+            .sum::<f64>()
             / turns;
         let kp = closed::pitch(mean / g.pole_pitch_slots, order);
         if kp > 1e-9 && kw / kp <= 1.0 + 1e-9 {
@@ -151,7 +155,9 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
             let top = (upto * p + 1e-9).floor() as u64;
             (1..=top).map(|n| n as f64 / p).collect()
         }
-        Topology::Linear => (1..=(upto + 1e-9).floor() as u64).map(|n| n as f64).collect(),
+        Topology::Linear => (1..=(upto + 1e-9).floor() as u64)
+            .map(|n| n as f64)
+            .collect(),
     };
     let rows = orders
         .into_iter()

@@ -103,19 +103,19 @@ fn main() -> ExitCode {
 fn run(cli: Cli) -> Result<String, Failure> {
     match cli.command {
         Command::Plan(a) => {
-            if let Some(s) = a.slip {
-                if !(0.0..=1.0).contains(&s) {
-                    return Err(Failure::input(format!(
-                        "--slip {s} is not valid; give a slip from 0 to 1"
-                    )));
-                }
+            if let Some(s) = a.slip
+                && !(0.0..=1.0).contains(&s)
+            {
+                return Err(Failure::input(format!(
+                    "--slip {s} is not valid; give a slip from 0 to 1"
+                )));
             }
-            if let Some(p) = a.airgap_power_w {
-                if !(p.is_finite() && p >= 0.0) {
-                    return Err(Failure::input(format!(
-                        "--airgap-power-w {p} is not valid; give a power of 0 W or more"
-                    )));
-                }
+            if let Some(p) = a.airgap_power_w
+                && !(p.is_finite() && p >= 0.0)
+            {
+                return Err(Failure::input(format!(
+                    "--airgap-power-w {p} is not valid; give a power of 0 W or more"
+                )));
             }
             let w = load(&a.common.file)?;
             let op = Operating {

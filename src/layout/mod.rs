@@ -216,12 +216,11 @@ pub(crate) fn locate(source: &str, table: &str, index: usize, key: &str) -> Opti
             in_wanted = rest.trim_end_matches(']').trim() == table;
             continue;
         }
-        if in_wanted {
-            if let Some((k, _)) = t.split_once('=') {
-                if k.trim() == key {
-                    return Some(n + 1);
-                }
-            }
+        if in_wanted
+            && let Some((k, _)) = t.split_once('=')
+            && k.trim() == key
+        {
+            return Some(n + 1);
         }
     }
     None

@@ -347,7 +347,10 @@ impl RawLayout {
                     "coil",
                     i,
                     "back",
-                    format!("a coil cannot go and come back in the same slot ({})", rc.go),
+                    format!(
+                        "a coil cannot go and come back in the same slot ({})",
+                        rc.go
+                    ),
                 ));
             }
             let turns = match rc.turns {

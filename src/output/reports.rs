@@ -92,10 +92,10 @@ impl Report for PlanReport {
                 if self.balanced { "yes" } else { "NO" }
             ),
         ];
-        if let Some(h) = &self.half_filled_slots {
-            if !h.is_empty() {
-                head.push(format!("half-filled end slots: {}", ranges(h)));
-            }
+        if let Some(h) = &self.half_filled_slots
+            && !h.is_empty()
+        {
+            head.push(format!("half-filled end slots: {}", ranges(h)));
         }
         if !self.empty_slots.is_empty() {
             head.push(format!("empty slots: {}", ranges(&self.empty_slots)));
@@ -155,7 +155,12 @@ impl Report for PlanReport {
             ("coils", Align::Left),
         ]);
         let mut order: Vec<&crate::plan::GroupRow> = self.groups.iter().collect();
-        order.sort_by_key(|r| (self.phases_emf.iter().position(|p| p.phase == r.phase), r.path));
+        order.sort_by_key(|r| {
+            (
+                self.phases_emf.iter().position(|p| p.phase == r.phase),
+                r.path,
+            )
+        });
         for r in order {
             g.push(vec![
                 r.number.to_string(),
@@ -176,7 +181,11 @@ impl Report for PlanReport {
             ("angle deg", Align::Right),
         ]);
         for r in &self.phases_emf {
-            p.push(vec![r.phase.clone(), num(r.magnitude, 4), num(r.angle_deg, 2)]);
+            p.push(vec![
+                r.phase.clone(),
+                num(r.magnitude, 4),
+                num(r.angle_deg, 2),
+            ]);
         }
         s.push(Section::Table(p));
         s.push(Section::Lines(vec![format!(

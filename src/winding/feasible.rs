@@ -15,9 +15,9 @@ pub fn rotary_periodicity(slots: usize, poles: usize) -> usize {
 /// Balanced m-phase double-layer winding on a rotary core: Z / (m·gcd(Z, p)) ∈ ℕ.
 pub fn double_layer_rotary_feasible(slots: usize, poles: usize, phases: usize) -> bool {
     poles >= 2
-        && poles % 2 == 0
+        && poles.is_multiple_of(2)
         && slots >= phases
-        && slots % (phases * rotary_periodicity(slots, poles)) == 0
+        && slots.is_multiple_of(phases * rotary_periodicity(slots, poles))
 }
 
 /// The nearest slot counts below and above `slots` that satisfy `ok`, searching at most
@@ -43,7 +43,15 @@ mod tests {
     // of surface-mounted PM machines with concentrated windings", KTH 2008, table of k_w1).
     #[test]
     fn published_tooth_coil_combinations_are_feasible() {
-        for (z, poles) in [(12, 10), (9, 8), (12, 14), (9, 10), (12, 8), (6, 4), (18, 16)] {
+        for (z, poles) in [
+            (12, 10),
+            (9, 8),
+            (12, 14),
+            (9, 10),
+            (12, 8),
+            (6, 4),
+            (18, 16),
+        ] {
             assert!(double_layer_rotary_feasible(z, poles, 3), "{z}/{poles}");
         }
     }

@@ -40,12 +40,13 @@ pub fn coil_groups(w: &Winding) -> Vec<CoilGroup> {
     // On a closed core the last run may continue into the first.
     if w.geometry.topology == Topology::Rotary && groups.len() > 1 {
         let (first, last) = (&groups[0], &groups[groups.len() - 1]);
-        if first.phase == last.phase && first.polarity == last.polarity {
-            if let Some(tail) = groups.pop() {
-                let mut merged = tail.coils;
-                merged.extend_from_slice(&groups[0].coils);
-                groups[0].coils = merged;
-            }
+        if first.phase == last.phase
+            && first.polarity == last.polarity
+            && let Some(tail) = groups.pop()
+        {
+            let mut merged = tail.coils;
+            merged.extend_from_slice(&groups[0].coils);
+            groups[0].coils = merged;
         }
     }
     groups
@@ -74,7 +75,7 @@ fn split_phase(w: &Winding, groups: &[&CoilGroup], a: usize) -> Option<Vec<usize
     let turns: Vec<u64> = groups.iter().map(|g| turns_of(w, &g.coils)).collect();
     let total: Complex64 = emfs.iter().sum();
     let total_turns: u64 = turns.iter().sum();
-    if total_turns % a as u64 != 0 {
+    if !total_turns.is_multiple_of(a as u64) {
         return None;
     }
     let target = total / a as f64;

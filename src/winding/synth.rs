@@ -28,7 +28,7 @@ pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
 
 /// Phase and polarity of belt `b` of 2m belts (see the module note).
 fn belt(b: usize, m: usize) -> (usize, bool) {
-    if b % 2 == 0 {
+    if b.is_multiple_of(2) {
         (b / 2, true)
     } else {
         (((b + m) / 2) % m, false)
@@ -358,15 +358,14 @@ fn single_layer(spec: &Spec) -> Result<Winding, PlanError> {
 /// of its coil phasor. `None` if the slot count is odd.
 fn tooth_coils(geom: &Geometry, turns: u32) -> Option<Vec<Coil>> {
     let z = geom.slots;
-    if z % 2 != 0 {
+    if !z.is_multiple_of(2) {
         return None;
     }
     Some(
         (0..z / 2)
             .map(|i| {
                 let (l, r) = (2 * i, (2 * i + 1) % z);
-                let (phase, positive) =
-                    belt_of(angle_index(geom, l), geom.angle_den, geom.phases);
+                let (phase, positive) = belt_of(angle_index(geom, l), geom.angle_den, geom.phases);
                 let (go, back) = if positive { (l, r) } else { (r, l) };
                 Coil {
                     phase,
@@ -506,7 +505,11 @@ fn from_coil_list(spec: &Spec) -> Result<Winding, PlanError> {
     let geom = match spec.topology {
         Topology::Rotary => Geometry::rotary(z, poles, m, layers, spec.core),
         Topology::Linear => {
-            let active = if layers == 2 { z.saturating_sub(pitch) } else { z };
+            let active = if layers == 2 {
+                z.saturating_sub(pitch)
+            } else {
+                z
+            };
             Geometry::linear(z, active.max(1), poles, m, layers, spec.core)
         }
     };
