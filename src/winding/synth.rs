@@ -114,6 +114,13 @@ fn rotary_double(spec: &Spec) -> Result<Winding, PlanError> {
         Some(y) => check_rotary_span(z, y)?,
         None => nearest_full_pitch(geom.pole_pitch_slots),
     };
+    if (y * poles / 2) % z == 0 {
+        return Err(PlanError::Infeasible(format!(
+            "span {y} spans a whole number of pole pairs, so its coils link no working flux; \
+             choose a span near the pole pitch of {} slots",
+            crate::output::num(geom.pole_pitch_slots, 3)
+        )));
+    }
     let coils = double_layer_coils(&geom, z, y, spec.turns_per_coil);
     let w = blank_winding(spec, geom, y, coils);
     ensure_balanced(w, || rotary_refusal(z, poles, m, 2))
@@ -212,15 +219,21 @@ fn linear_double(spec: &Spec) -> Result<Winding, PlanError> {
     match spec.pitch {
         Some(y) => attempt(y).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, y))),
         None => {
-            // Span closest to the pole pitch it produces, τ = (Z − y)/2p, among balanced ones.
-            let mut spans: Vec<usize> = (1..z).collect();
+            // The balanced span closest to the pole pitch it produces, τ = (Z − y)/2p; a span
+            // more than a third of a pole pitch away from full pitch is no default.
+            let tau = |y: usize| (z - y) as f64 / poles as f64;
+            let mut spans: Vec<usize> = (1..z).filter(|&y| z - y >= m).collect();
             spans.sort_by(|&a, &b| {
-                let da = (a as f64 - (z - a) as f64 / poles as f64).abs();
-                let db = (b as f64 - (z - b) as f64 / poles as f64).abs();
+                let da = (a as f64 - tau(a)).abs() / tau(a);
+                let db = (b as f64 - tau(b)).abs() / tau(b);
                 da.total_cmp(&db).then(a.cmp(&b))
             });
-            let best = spans[0];
-            attempt(best).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, best)))
+            let nearest = spans.first().copied().unwrap_or(1);
+            spans
+                .into_iter()
+                .take_while(|&y| (y as f64 - tau(y)).abs() <= tau(y) / 3.0)
+                .find_map(attempt)
+                .ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, nearest)))
         }
     }
 }
