@@ -145,7 +145,9 @@ fn layer_name(layers: usize, l: usize) -> &'static str {
 
 /// Phase EMF phasors at electrical order `order`, angles relative to the first phase.
 pub fn phasors(w: &Winding, order: f64) -> Vec<PhasorRow> {
-    let e: Vec<_> = (0..w.geometry.phases).map(|k| w.phase_emf(k, order)).collect();
+    let e: Vec<_> = (0..w.geometry.phases)
+        .map(|k| w.phase_emf(k, order))
+        .collect();
     let reference = e.first().map(|r| r.arg()).unwrap_or(0.0);
     e.iter()
         .enumerate()

@@ -49,7 +49,10 @@ fn wrong_type_names_the_key_and_line() {
 #[test]
 fn unknown_key_is_named_with_what_is_valid() {
     let err = refuse(&with("pitch = 7", "pitch = 7\nturns_per_coi = 12"));
-    assert!(err.contains("turns_per_coi") && err.contains("turns_per_coil"), "{err}");
+    assert!(
+        err.contains("turns_per_coi") && err.contains("turns_per_coil"),
+        "{err}"
+    );
 }
 
 #[test]
@@ -61,8 +64,16 @@ fn zero_negative_and_huge_values_are_refused_with_the_valid_range() {
         ("poles = 4", "poles = 0", "machine.poles"),
         ("poles = 4", "poles = 5", "machine.poles"),
         ("pitch = 7", "pitch = 0", "winding.pitch"),
-        ("pitch = 7", "pitch = 7\nturns_per_coil = 0", "winding.turns_per_coil"),
-        ("pitch = 7", "pitch = 7\nparallel_paths = -1", "winding.parallel_paths"),
+        (
+            "pitch = 7",
+            "pitch = 7\nturns_per_coil = 0",
+            "winding.turns_per_coil",
+        ),
+        (
+            "pitch = 7",
+            "pitch = 7\nparallel_paths = -1",
+            "winding.parallel_paths",
+        ),
         ("pitch = 7", "pitch = 7\nskew = -1.0", "winding.skew"),
     ] {
         let err = refuse(&with(from, to));
@@ -70,7 +81,10 @@ fn zero_negative_and_huge_values_are_refused_with_the_valid_range() {
         assert!(err.contains("line"), "{to}: {err}");
     }
     let err = refuse(&format!("{GOOD}[core]\nslot_pitch_mm = -3.0\n"));
-    assert!(err.contains("core.slot_pitch_mm") && err.contains("positive"), "{err}");
+    assert!(
+        err.contains("core.slot_pitch_mm") && err.contains("positive"),
+        "{err}"
+    );
     let err = refuse(&format!("{GOOD}[supply]\nfrequency_hz = 0.0\n"));
     assert!(err.contains("supply.frequency_hz"), "{err}");
 }
@@ -78,13 +92,19 @@ fn zero_negative_and_huge_values_are_refused_with_the_valid_range() {
 #[test]
 fn three_layers_are_refused() {
     let err = refuse(&with("layers = 2", "layers = 3"));
-    assert!(err.contains("winding.layers") && err.contains("1 to 2"), "{err}");
+    assert!(
+        err.contains("winding.layers") && err.contains("1 to 2"),
+        "{err}"
+    );
 }
 
 #[test]
 fn a_span_longer_than_the_core_is_refused() {
     let err = refuse(&with("pitch = 7", "pitch = 40"));
-    assert!(err.contains("winding.pitch") && err.contains("1 to 35"), "{err}");
+    assert!(
+        err.contains("winding.pitch") && err.contains("1 to 35"),
+        "{err}"
+    );
     let err = refuse(&with("pitch = 7", "pitch = 20"));
     assert!(err.contains("longest span is 18"), "{err}");
 }
@@ -106,21 +126,34 @@ fn a_coil_outside_the_core_is_named() {
     let err = refuse(&format!(
         "{GOOD}[[coil]]\nphase = \"U\"\ngo = 1\nback = 8\n[[coil]]\nphase = \"U\"\ngo = 2\nback = 37\n"
     ));
-    assert!(err.contains("coil[2].back") && err.contains("1 to 36"), "{err}");
+    assert!(
+        err.contains("coil[2].back") && err.contains("1 to 36"),
+        "{err}"
+    );
     assert!(err.contains("line 15"), "{err}");
 }
 
 #[test]
 fn an_unknown_phase_lists_the_phases() {
-    let err = refuse(&format!("{GOOD}[[coil]]\nphase = \"X\"\ngo = 1\nback = 8\n"));
+    let err = refuse(&format!(
+        "{GOOD}[[coil]]\nphase = \"X\"\ngo = 1\nback = 8\n"
+    ));
     assert!(err.contains("U, V, W"), "{err}");
 }
 
 #[test]
 fn an_overfilled_slot_names_its_coils() {
     let coil = |go: u32, back: u32| format!("[[coil]]\nphase = \"U\"\ngo = {go}\nback = {back}\n");
-    let err = refuse(&format!("{GOOD}{}{}{}", coil(1, 8), coil(1, 9), coil(1, 10)));
-    assert!(err.contains("slot 1") && err.contains("coils 1, 2, 3"), "{err}");
+    let err = refuse(&format!(
+        "{GOOD}{}{}{}",
+        coil(1, 8),
+        coil(1, 9),
+        coil(1, 10)
+    ));
+    assert!(
+        err.contains("slot 1") && err.contains("coils 1, 2, 3"),
+        "{err}"
+    );
 }
 
 #[test]
@@ -150,7 +183,11 @@ fn bad_flags_exit_two() {
         vec!["factors", "layouts/pump-rewind.toml", "--upto", "0"],
         vec!["frobnicate"],
     ] {
-        let out = Command::cargo_bin("beltwright").expect("binary").args(&args).output().expect("runs");
+        let out = Command::cargo_bin("beltwright")
+            .expect("binary")
+            .args(&args)
+            .output()
+            .expect("runs");
         assert_eq!(out.status.code(), Some(2), "{args:?}");
     }
 }

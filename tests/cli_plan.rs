@@ -8,8 +8,16 @@ fn beltwright() -> Command {
 }
 
 fn json(args: &[&str]) -> Value {
-    let out = beltwright().args(args).args(["--format", "json"]).output().expect("runs");
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    let out = beltwright()
+        .args(args)
+        .args(["--format", "json"])
+        .output()
+        .expect("runs");
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     serde_json::from_slice(&out.stdout).expect("one JSON object")
 }
 
@@ -29,7 +37,10 @@ fn plan_json_has_the_contract_fields() {
     // k_w1 of 36 slots, 4 poles, span 7/9 = 0.902 (closed forms, Say 1983).
     let kw = v["winding_factor"].as_f64().expect("winding_factor");
     assert!((kw - 0.902).abs() < 5e-4);
-    assert!(v.get("half_filled_slots").is_none(), "rotary cores have no end slots");
+    assert!(
+        v.get("half_filled_slots").is_none(),
+        "rotary cores have no end slots"
+    );
 }
 
 #[test]
@@ -134,7 +145,12 @@ fn every_example_layout_plans_cleanly() {
         if path.extension().and_then(|e| e.to_str()) != Some("toml") {
             continue;
         }
-        let out = beltwright().arg("plan").arg(&path).args(["--format", "json"]).output().expect("runs");
+        let out = beltwright()
+            .arg("plan")
+            .arg(&path)
+            .args(["--format", "json"])
+            .output()
+            .expect("runs");
         if out.status.success() {
             n += 1;
             let v: Value = serde_json::from_slice(&out.stdout).expect("json");
@@ -142,7 +158,10 @@ fn every_example_layout_plans_cleanly() {
         } else {
             let err = String::from_utf8_lossy(&out.stderr);
             assert_eq!(out.status.code(), Some(2), "{}: {err}", path.display());
-            assert!(err.contains(&*path.to_string_lossy()), "names the file: {err}");
+            assert!(
+                err.contains(&*path.to_string_lossy()),
+                "names the file: {err}"
+            );
         }
     }
     assert!(n >= 5, "at least five example layouts plan");

@@ -35,7 +35,9 @@ fn fill_counts(w: &Winding) -> Vec<[usize; 2]> {
 
 fn rotary_double() -> impl Strategy<Value = (usize, usize, usize)> {
     (6usize..=120, 1usize..=20)
-        .prop_filter("feasible", |&(z, pp)| double_layer_rotary_feasible(z, 2 * pp, 3))
+        .prop_filter("feasible", |&(z, pp)| {
+            double_layer_rotary_feasible(z, 2 * pp, 3)
+        })
         .prop_flat_map(|(z, pp)| (Just(z), Just(2 * pp), 1..=z / 2))
         // A span of whole pole pairs links no working flux and is refused.
         .prop_filter("links flux", |&(z, poles, y)| (y * poles / 2) % z != 0)

@@ -4,7 +4,13 @@ use beltwright::factors::{closed, factor_table, factors_at};
 use beltwright::layout::parse;
 use beltwright::winding::{Winding, build};
 
-fn winding(topology: &str, slots: usize, poles: usize, layers: usize, pitch: Option<usize>) -> Winding {
+fn winding(
+    topology: &str,
+    slots: usize,
+    poles: usize,
+    layers: usize,
+    pitch: Option<usize>,
+) -> Winding {
     let pitch = pitch.map(|y| format!("pitch = {y}\n")).unwrap_or_default();
     let src = format!(
         "[machine]\ntopology = \"{topology}\"\nslots = {slots}\npoles = {poles}\n\
@@ -55,10 +61,22 @@ fn tooth_coil_combinations_match_published_tables() {
     // J. Cros and P. Viarouge, "Synthesis of high performance PM motors with concentrated
     // windings", IEEE Trans. Energy Conversion 17(2), 2002, table of k_w1 (values from
     // memory of that table; they agree with F. Meier, KTH 2008, and with the closed forms).
-    close3(factors_at(&winding("rotary", 12, 10, 2, None), 0, 1.0).winding, 0.933);
-    close3(factors_at(&winding("rotary", 12, 10, 1, None), 0, 1.0).winding, 0.966);
-    close3(factors_at(&winding("rotary", 9, 8, 2, None), 0, 1.0).winding, 0.945);
-    close3(factors_at(&winding("rotary", 12, 14, 2, None), 0, 1.0).winding, 0.933);
+    close3(
+        factors_at(&winding("rotary", 12, 10, 2, None), 0, 1.0).winding,
+        0.933,
+    );
+    close3(
+        factors_at(&winding("rotary", 12, 10, 1, None), 0, 1.0).winding,
+        0.966,
+    );
+    close3(
+        factors_at(&winding("rotary", 9, 8, 2, None), 0, 1.0).winding,
+        0.945,
+    );
+    close3(
+        factors_at(&winding("rotary", 12, 14, 2, None), 0, 1.0).winding,
+        0.933,
+    );
 }
 
 #[test]
@@ -69,7 +87,10 @@ fn nine_slot_eight_pole_has_the_published_sub_harmonics() {
     let w = winding("rotary", 9, 8, 2, None);
     let t = factor_table(&w, 2.0);
     let orders: Vec<f64> = t.rows.iter().map(|r| r.order).collect();
-    assert!(orders.contains(&0.25), "sub-harmonic ν = 1/4 listed: {orders:?}");
+    assert!(
+        orders.contains(&0.25),
+        "sub-harmonic ν = 1/4 listed: {orders:?}"
+    );
     let kw1 = (80f64.to_radians().sin()) * (1.0 + 2.0 * 20f64.to_radians().cos()) / 3.0;
     let fund = t.rows.iter().find(|r| r.order == 1.0).map(|r| r.winding);
     assert!((fund.unwrap_or(0.0) - kw1).abs() < 1e-12);
