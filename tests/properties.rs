@@ -129,7 +129,7 @@ proptest! {
     fn belts_reach_the_fractional_slot_distribution_factor((z, poles, _y) in rotary_double()) {
         let tau = z as f64 / poles as f64;
         let y = (tau.round() as usize).clamp(1, z / 2);
-        prop_assume!((y * poles / 2) % z != 0);
+        prop_assume!(!(y * poles / 2).is_multiple_of(z));
         let w = build(&parse(&layout("rotary", z, poles, 2, y), "p").unwrap()).unwrap();
         let (b, _c) = w.slots_per_pole_phase();
         let b = b as f64;
