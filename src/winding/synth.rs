@@ -74,7 +74,7 @@ fn synthesize(spec: &Spec) -> Result<Winding, PlanError> {
     match (spec.topology, spec.layers) {
         (Topology::Rotary, 2) => rotary_double(spec),
         (Topology::Linear, 2) => linear_double(spec),
-        (_, _) => single_layer(spec),
+        (_, _) => single_layer(spec, true),
     }
 }
 
@@ -171,7 +171,7 @@ fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
     let mut msg = format!(
         "{z} slots cannot carry a balanced {m}-phase {kind} winding for {poles} poles{why}"
     );
-    match nearby_rotary_slot_counts(z, 4 * m * poles.max(2), ok) {
+    match nearby_rotary_slot_counts(z, (4 * m * poles.max(2)).min(240), ok) {
         (Some(lo), Some(hi)) => msg += &format!("; {lo} or {hi} slots can"),
         (Some(s), None) | (None, Some(s)) => msg += &format!("; {s} slots can"),
         (None, None) => {}
@@ -203,7 +203,7 @@ pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
         coils: Vec::new(),
         colours: None,
     };
-    single_layer(&spec).is_ok()
+    single_layer(&spec, false).is_ok()
 }
 
 /// Linear double layer: N = Z − y coils, y half-filled slots at each end.
@@ -263,14 +263,16 @@ fn linear_refusal(spec: &Spec, y: usize) -> String {
 }
 
 /// Single-layer windings: tooth coils on every other tooth (span 1), or lap/concentric coils
-/// pairing the positive and negative belt slots of each phase.
-fn single_layer(spec: &Spec) -> Result<Winding, PlanError> {
+/// pairing the positive and negative belt slots of each phase. `explain` builds refusal
+/// texts (which search nearby slot counts); feasibility probes pass `false`.
+fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
     let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
     let geom = match spec.topology {
         Topology::Rotary => Geometry::rotary(z, poles, m, 1, spec.core),
         Topology::Linear => Geometry::linear(z, z, poles, m, 1, spec.core),
     };
     let refuse = || match spec.topology {
+        _ if !explain => String::new(),
         Topology::Rotary => rotary_refusal(z, poles, m, 1),
         Topology::Linear => format!(
             "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles \
@@ -394,14 +396,6 @@ fn tooth_coils(geom: &Geometry, turns: u32) -> Option<Vec<Coil>> {
     )
 }
 
-/// Forward distance from slot a to slot b.
-fn forward(geom: &Geometry, a: usize, b: usize) -> Option<usize> {
-    match geom.topology {
-        Topology::Rotary => Some((b + geom.slots - a) % geom.slots),
-        Topology::Linear => b.checked_sub(a),
-    }
-}
-
 /// Pair every positive slot with a negative slot at distance exactly `y` either way
 /// (bipartite matching by augmenting paths; each slot has at most two partners).
 fn pair_at_span(
@@ -410,39 +404,72 @@ fn pair_at_span(
     minus: &[usize],
     y: usize,
 ) -> Option<Vec<(usize, usize)>> {
+    // Index of every negative slot, so each positive slot finds its partners at once.
+    let mut at: Vec<Option<usize>> = vec![None; geom.slots];
+    for (j, &t) in minus.iter().enumerate() {
+        at[t] = Some(j);
+    }
+    let z = geom.slots;
     let partners: Vec<Vec<usize>> = plus
         .iter()
         .map(|&s| {
-            minus
-                .iter()
-                .enumerate()
-                .filter(|&(_, &t)| forward(geom, s, t) == Some(y) || forward(geom, t, s) == Some(y))
-                .map(|(j, _)| j)
-                .collect()
+            let ahead = match geom.topology {
+                Topology::Rotary => Some((s + y) % z),
+                Topology::Linear => Some(s + y).filter(|&t| t < z),
+            };
+            let behind = match geom.topology {
+                Topology::Rotary => Some((s + z - y % z) % z),
+                Topology::Linear => s.checked_sub(y),
+            };
+            let mut p: Vec<usize> = [ahead, behind]
+                .into_iter()
+                .flatten()
+                .filter_map(|t| at[t])
+                .collect();
+            p.dedup();
+            p
         })
         .collect();
     let mut owner: Vec<Option<usize>> = vec![None; minus.len()];
-    fn augment(
-        i: usize,
-        partners: &[Vec<usize>],
-        owner: &mut [Option<usize>],
-        seen: &mut [bool],
-    ) -> bool {
-        for &j in &partners[i] {
-            if !seen[j] {
-                seen[j] = true;
-                if owner[j].is_none_or(|o| augment(o, partners, owner, seen)) {
-                    owner[j] = Some(i);
-                    return true;
+    let mut mate: Vec<Option<usize>> = vec![None; plus.len()];
+    let mut via = vec![0usize; minus.len()];
+    let mut seen = vec![false; minus.len()];
+    let mut stack: Vec<(usize, usize)> = Vec::new();
+    for first in 0..plus.len() {
+        seen.iter_mut().for_each(|x| *x = false);
+        stack.clear();
+        stack.push((first, 0));
+        let mut found = None;
+        // Depth-first search for an augmenting path, iteratively (long belts are deep).
+        while let Some(&mut (i, ref mut k)) = stack.last_mut() {
+            let Some(&j) = partners[i].get(*k) else {
+                stack.pop();
+                continue;
+            };
+            *k += 1;
+            if seen[j] {
+                continue;
+            }
+            seen[j] = true;
+            via[j] = i;
+            match owner[j] {
+                None => {
+                    found = Some(j);
+                    break;
                 }
+                Some(o) => stack.push((o, 0)),
             }
         }
-        false
-    }
-    for i in 0..plus.len() {
-        let mut seen = vec![false; minus.len()];
-        if !augment(i, &partners, &mut owner, &mut seen) {
-            return None;
+        let mut j = found?;
+        loop {
+            let i = via[j];
+            let previous = mate[i];
+            owner[j] = Some(i);
+            mate[i] = Some(j);
+            match previous {
+                Some(pj) => j = pj,
+                None => break,
+            }
         }
     }
     Some(
