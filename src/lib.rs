@@ -6,7 +6,10 @@
 
 pub mod factors;
 pub mod layout;
+pub mod leakage;
 pub mod linear;
 pub mod output;
+pub mod pitch;
 pub mod plan;
+pub mod survey;
 pub mod winding;

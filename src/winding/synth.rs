@@ -601,3 +601,34 @@ fn take(slot: &mut [bool; 2], want: usize) -> usize {
     slot[l] = true;
     l
 }
+
+/// The synthesized winding of the same core and design at span `pitch` (the coils of an
+/// explicit list are replaced). A double-layer flat primary keeps its coil positions and
+/// pole pitch, so its slot count becomes N + `pitch`. Used by the span tool.
+pub fn with_span(w: &Winding, pitch: usize) -> Result<Winding, PlanError> {
+    let g = &w.geometry;
+    let slots = match (g.topology, g.layers) {
+        (Topology::Linear, 2) => (g.pole_pitch_slots * g.poles as f64).round() as usize + pitch,
+        _ => g.slots,
+    };
+    let spec = Spec {
+        title: w.title.clone(),
+        topology: g.topology,
+        slots,
+        poles: g.poles,
+        phases: g.phases,
+        phase_labels: w.phase_labels.clone(),
+        layers: g.layers,
+        pitch: Some(pitch),
+        style: w.style,
+        turns_per_coil: w.turns_per_coil,
+        parallel_paths: 1,
+        connection: w.connection,
+        skew_slots: w.skew_slots,
+        core: g.core,
+        supply: w.supply,
+        coils: Vec::new(),
+        colours: w.colours.clone(),
+    };
+    build(&spec)
+}
