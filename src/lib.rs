@@ -4,9 +4,11 @@
 //! ([`factors`], [`linear`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.
 
+pub mod audit;
 pub mod factors;
 pub mod layout;
 pub mod linear;
 pub mod output;
 pub mod plan;
+pub mod rewind;
 pub mod winding;
