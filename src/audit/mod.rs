@@ -192,6 +192,15 @@ pub fn tidy_deg(a: f64) -> f64 {
     if r <= -180.0 { r + 360.0 } else { r + 0.0 }
 }
 
+/// Angle of a phasor in degrees; 0 for a phasor with no magnitude.
+fn angle_of(e: Complex64) -> f64 {
+    if e.norm() < 1e-9 {
+        0.0
+    } else {
+        tidy_deg(e.arg().to_degrees())
+    }
+}
+
 /// Symmetrical components of m phasors (Fortescue 1918): (forward, backward, zero) with
 /// forward = (1/m) Σ E_k e^{+j2πk/m}, backward = (1/m) Σ E_k e^{−j2πk/m}, zero = (1/m) Σ E_k,
 /// for the convention that phase k lags phase 0 by 2πk/m in positive sequence.
@@ -299,19 +308,17 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             let mut sorted = coils.clone();
             sorted.sort_unstable();
             let ph = w.label(w.coils[coils[0]].phase).to_string();
-            let first = &w.coils[coils[0]];
-            let last = &w.coils[coils[coils.len() - 1]];
+            let slots = slots_of(w, coils);
             Finding {
                 kind: FindingKind::ReversedGroup,
                 coils: sorted.iter().map(|c| c + 1).collect(),
-                slots: slots_of(w, coils),
                 message: format!(
-                    "the coil group of coils {} (phase {ph}, in at slot {}, out at slot {}) is \
-                     connected backwards: swap the two jumpers at the ends of the group",
+                    "the coil group of coils {} (phase {ph}, slots {}) is connected backwards: \
+                     swap the two jumpers at the ends of the group",
                     label_list(&sorted),
-                    first.go + 1,
-                    last.back + 1
+                    runs(&slots)
                 ),
+                slots,
                 phases: vec![ph],
             }
         }
@@ -426,7 +433,7 @@ fn balance(w: &Winding) -> Balance {
                         HarmonicRow {
                             order: nu,
                             magnitude: h.norm(),
-                            angle_deg: tidy_deg(h.arg().to_degrees()),
+                            angle_deg: angle_of(h),
                         }
                     })
                     .collect(),
@@ -488,7 +495,7 @@ fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                 coils: coils[p].iter().map(|c| c + 1).collect(),
                 turns: turns[p],
                 magnitude: emf[p].norm(),
-                angle_deg: tidy_deg(emf[p].arg().to_degrees()),
+                angle_deg: angle_of(emf[p]),
                 circulating_emf: circ,
                 circulating_percent: if mean_mag > 0.0 {
                     100.0 * circ / mean_mag

@@ -94,6 +94,8 @@ struct Delta {
     da: C,
     b: usize,
     db: C,
+    /// Turns moved from phase a to phase b.
+    turns: f64,
     key: f64,
     cost: u8,
     /// Coil members: `members[lo..hi]`.
@@ -108,6 +110,13 @@ struct Map {
     perm: [usize; MAX_PHASES],
     sign: [f64; MAX_PHASES],
     edit: u32,
+}
+
+/// Phase phasors and series turns of a candidate winding (a stack value, copied freely).
+#[derive(Debug, Clone, Copy)]
+struct State {
+    e: [C; MAX_PHASES],
+    t: [f64; MAX_PHASES],
 }
 
 /// Precomputed constants of the balance test.
@@ -150,6 +159,11 @@ impl Balance {
             f += s[k] * self.u[k].conj();
         }
         f / self.m as f64
+    }
+
+    /// True when the state is a non-zero positive-sequence set with equal turns per phase.
+    fn fixed(&self, st: &State) -> bool {
+        st.t[..self.m].iter().all(|&t| t == st.t[0]) && self.ok(&st.e[..self.m])
     }
 
     /// True when `s` is a non-zero positive-sequence set.
@@ -264,11 +278,15 @@ pub fn search(w: &Winding) -> Search {
     let emf: Vec<C> = w.coils.iter().map(|c| w.coil_emf(c, 1.0)).collect();
     let scale: f64 = emf.iter().map(|e| e.norm()).sum();
     let bal = Balance::new(m, scale);
-    let mut s0 = [C::new(0.0, 0.0); MAX_PHASES];
+    let mut s0 = State {
+        e: [C::new(0.0, 0.0); MAX_PHASES],
+        t: [0.0; MAX_PHASES],
+    };
     for (c, e) in w.coils.iter().zip(&emf) {
-        s0[c.phase.min(m - 1)] += e;
+        s0.e[c.phase.min(m - 1)] += e;
+        s0.t[c.phase.min(m - 1)] += c.turns as f64;
     }
-    if bal.ok(&s0[..m]) {
+    if bal.ok(&s0.e[..m]) {
         return Search {
             balanced: true,
             fix: None,
@@ -280,7 +298,7 @@ pub fn search(w: &Winding) -> Search {
     let mut edits: Vec<Edit> = Vec::new();
     let mut deltas: Vec<Delta> = Vec::new();
     let mut members: Vec<usize> = Vec::new();
-    let mut push = |edit: Edit, a: usize, da: C, b: usize, db: C, coils: &[usize]| {
+    let mut push = |edit: Edit, a: usize, da: C, b: usize, db: C, turns: f64, coils: &[usize]| {
         let lo = members.len() as u32;
         members.extend_from_slice(coils);
         deltas.push(Delta {
@@ -288,6 +306,7 @@ pub fn search(w: &Winding) -> Search {
             da,
             b,
             db,
+            turns,
             key: bal.key(a, da, b, db),
             cost: edit.cost() as u8,
             lo,
@@ -305,6 +324,7 @@ pub fn search(w: &Winding) -> Search {
             -2.0 * emf[i],
             p,
             zero,
+            0.0,
             &[i],
         );
         for to in (0..m).filter(|&t| t != p) {
@@ -321,6 +341,7 @@ pub fn search(w: &Winding) -> Search {
                     -emf[i],
                     to,
                     moved,
+                    c.turns as f64,
                     &[i],
                 );
             }
@@ -343,6 +364,7 @@ pub fn search(w: &Winding) -> Search {
             -2.0 * sum,
             p,
             zero,
+            0.0,
             &g,
         );
     }
@@ -377,14 +399,17 @@ pub fn search(w: &Winding) -> Search {
         }
     }
 
-    let apply = |s: &mut [C; MAX_PHASES], d: &Delta| {
-        s[d.a] += d.da;
-        s[d.b] += d.db;
+    let apply = |s: &mut State, d: &Delta| {
+        s.e[d.a] += d.da;
+        s.e[d.b] += d.db;
+        s.t[d.a] -= d.turns;
+        s.t[d.b] += d.turns;
     };
-    let map = |s: &[C; MAX_PHASES], q: &Map| {
-        let mut out = [C::new(0.0, 0.0); MAX_PHASES];
+    let map = |s: &State, q: &Map| {
+        let mut out = *s;
         for k in 0..m {
-            out[k] = s[q.perm[k]] * q.sign[k];
+            out.e[k] = s.e[q.perm[k]] * q.sign[k];
+            out.t[k] = s.t[q.perm[k]];
         }
         out
     };
@@ -402,12 +427,12 @@ pub fn search(w: &Winding) -> Search {
     for d in deltas.iter().filter(|d| d.cost == 1) {
         let mut s = s0;
         apply(&mut s, d);
-        if bal.ok(&s[..m]) {
+        if bal.fixed(&s) {
             keep(vec![d.edit], &mut found);
         }
     }
     for q in &maps {
-        if bal.ok(&map(&s0, q)[..m]) {
+        if bal.fixed(&map(&s0, q)) {
             keep(vec![q.edit], &mut found);
         }
     }
@@ -417,7 +442,7 @@ pub fn search(w: &Winding) -> Search {
         for d in deltas.iter().filter(|d| d.cost == 2) {
             let mut s = s0;
             apply(&mut s, d);
-            if bal.ok(&s[..m]) {
+            if bal.fixed(&s) {
                 keep(vec![d.edit], &mut found);
             }
         }
@@ -426,7 +451,7 @@ pub fn search(w: &Winding) -> Search {
         let mut sorted: Vec<&Delta> = ones.clone();
         sorted.sort_by(|x, y| x.key.total_cmp(&y.key));
         let keys: Vec<f64> = sorted.iter().map(|d| d.key).collect();
-        let k0 = bal.key_of(&s0[..m]);
+        let k0 = bal.key_of(&s0.e[..m]);
         let beta_sum: f64 = bal.beta[..m].iter().map(|b| b.norm()).sum();
         let tol = 1e-7 * scale.max(1.0) * beta_sum;
         let disjoint = |x: &Delta, y: &Delta| {
@@ -445,7 +470,7 @@ pub fn search(w: &Winding) -> Search {
                 let mut s = s0;
                 apply(&mut s, d1);
                 apply(&mut s, d2);
-                if bal.ok(&s[..m]) {
+                if bal.fixed(&s) {
                     keep(vec![d1.edit, d2.edit], &mut found);
                 }
             }
@@ -455,7 +480,7 @@ pub fn search(w: &Winding) -> Search {
             for d in &ones {
                 let mut s = s0;
                 apply(&mut s, d);
-                if bal.ok(&map(&s, q)[..m]) {
+                if bal.fixed(&map(&s, q)) {
                     keep(vec![d.edit, q.edit], &mut found);
                 }
             }
@@ -463,7 +488,7 @@ pub fn search(w: &Winding) -> Search {
         // Two phase-level edits, in either order (they need not commute).
         for (i, q1) in maps.iter().enumerate() {
             for (j, q2) in maps.iter().enumerate() {
-                if i != j && bal.ok(&map(&map(&s0, q1), q2)[..m]) {
+                if i != j && bal.fixed(&map(&map(&s0, q1), q2)) {
                     keep(vec![q1.edit, q2.edit], &mut found);
                 }
             }
