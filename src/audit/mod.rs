@@ -16,7 +16,7 @@ use serde::Serialize;
 use std::f64::consts::PI;
 
 use crate::plan::CAUTION;
-use crate::winding::{Topology, Winding};
+use crate::winding::{Topology, Winding, coil_groups};
 
 pub use compare::{Comparison, SlotDifference, compare};
 pub use search::{BALANCE_TOL, Edit, Search, apply_fix, search};
@@ -470,6 +470,7 @@ fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
     if a < 2 {
         return (rows, findings);
     }
+    let groups = coil_groups(w);
     for k in 0..w.geometry.phases {
         let mut emf = vec![Complex64::new(0.0, 0.0); a];
         let mut turns = vec![0u64; a];
@@ -507,9 +508,23 @@ fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
         if bad.is_empty() {
             continue;
         }
-        // A single coil in the wrong path explains it?
-        let mut hint = None;
-        'outer: for (p, cs) in coils.iter().enumerate() {
+        // A single coil in the wrong path explains it? Of several such coils, the one whose
+        // coil-group neighbours lie in the path it moves to.
+        let mut hint: Option<(usize, usize, usize)> = None;
+        let mut best = 0usize;
+        let neighbours_in = |i: usize, q: usize| {
+            groups
+                .iter()
+                .find(|g| g.coils.contains(&i))
+                .map(|g| {
+                    g.coils
+                        .iter()
+                        .filter(|&&j| j != i && w.coils[j].path == q)
+                        .count()
+                })
+                .unwrap_or(0)
+        };
+        for (p, cs) in coils.iter().enumerate() {
             for &i in cs {
                 let ce = w.coil_emf(&w.coils[i], 1.0);
                 let t = w.coils[i].turns as u64;
@@ -527,9 +542,10 @@ fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                         }
                         (e - mean).norm() <= tol && n * a as u64 == turns.iter().sum::<u64>()
                     });
-                    if ok {
+                    let score = neighbours_in(i, q) + 1;
+                    if ok && score > best {
+                        best = score;
                         hint = Some((i, p, q));
-                        break 'outer;
                     }
                 }
             }
