@@ -254,3 +254,23 @@ fn audit_names_two_faults_at_once() {
         }
     }
 }
+
+/// A coil with the wrong turn count cannot be balanced by reconnecting: the audit names the
+/// coil and says that no small change balances the phases.
+#[test]
+fn audit_names_a_coil_with_other_turns() {
+    for (name, s) in corpus() {
+        let w = sound(&name, &s);
+        let mut f = w.clone();
+        f.coils[2].turns += 1;
+        let r = audit(&f, None);
+        let kinds: Vec<FindingKind> = r.findings.iter().map(|f| f.kind).collect();
+        assert_eq!(
+            kinds,
+            vec![FindingKind::TurnsDiffer, FindingKind::Unbalanced],
+            "{name}"
+        );
+        assert_eq!(r.findings[0].coils, vec![3], "{name}");
+        assert!(!r.balanced && !r.sound, "{name}");
+    }
+}

@@ -22,15 +22,17 @@ impl Report for AuditReport {
                 self.slots, self.poles, self.layers, self.parallel_paths
             ),
             format!(
-                "phases balanced: {}; sequence {}: {}",
+                "phases balanced: {}; phase sequence {}",
                 if self.balanced { "yes" } else { "NO" },
                 match self.sequence {
                     Sequence::Positive => "positive",
                     Sequence::Negative => "NEGATIVE",
                 },
-                self.travel
             ),
-            format!(
+        ];
+        head.extend(wrap(&self.travel, 78));
+        head.extend(wrap(
+            &format!(
                 "backward field {}% of forward, zero sequence {}%, magnitudes spread {}%, \
                  largest angle error {} deg",
                 num(self.backward_percent, 2),
@@ -38,7 +40,8 @@ impl Report for AuditReport {
                 num(self.magnitude_spread_percent, 2),
                 num(self.max_angle_error_deg, 2)
             ),
-        ];
+            78,
+        ));
         if self.fix_edits > 0 {
             head.push(format!(
                 "smallest fix: {} edit(s){}",
