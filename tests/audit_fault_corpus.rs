@@ -40,8 +40,8 @@ fn corpus() -> Vec<(String, Spec)> {
     let mut out = Vec::new();
     let mut add = |s: Spec| {
         let name = format!(
-            "{:?} Z={} 2p={} layers={} y={:?} {:?}",
-            s.topology, s.slots, s.poles, s.layers, s.pitch, s.style
+            "{:?} Z={} 2p={} layers={} y={:?} {:?} a={}",
+            s.topology, s.slots, s.poles, s.layers, s.pitch, s.style, s.parallel_paths
         );
         out.push((name, s));
     };
@@ -58,6 +58,14 @@ fn corpus() -> Vec<(String, Spec)> {
     add(spec(Rotary, 30, 4, 2, 7)); // q = 5/2
     add(spec(Rotary, 12, 4, 2, 3)); // q = 1
     add(spec(Rotary, 48, 8, 2, 5)); // q = 2, short pitch
+    add(spec(Rotary, 72, 8, 2, 7)); // q = 3, periodicity 4
+    add(spec(Rotary, 24, 2, 2, 10)); // two-pole, q = 4
+    add(spec(Rotary, 15, 4, 2, 3)); // q = 5/4
+    add(spec(Rotary, 18, 16, 2, 1)); // tooth coils, q = 3/8, periodicity 2
+    add(spec(Rotary, 36, 4, 1, 9)); // single layer, q = 3
+    let mut p = spec(Rotary, 36, 4, 2, 8);
+    p.parallel_paths = 2;
+    add(p); // two parallel paths
     add(spec(Linear, 29, 4, 2, 5)); // flat primary, 24 coils, span 5
     add(spec(Linear, 24, 4, 1, 6)); // flat primary, single layer
     add(spec(Linear, 23, 3, 2, 5)); // flat primary, odd pole count
@@ -264,7 +272,12 @@ fn audit_names_a_coil_with_other_turns() {
         let mut f = w.clone();
         f.coils[2].turns += 1;
         let r = audit(&f, None);
-        let kinds: Vec<FindingKind> = r.findings.iter().map(|f| f.kind).collect();
+        let mut kinds: Vec<FindingKind> = r.findings.iter().map(|f| f.kind).collect();
+        if s.parallel_paths > 1 {
+            // The path holding the odd coil no longer matches its sibling either.
+            assert!(kinds.contains(&FindingKind::PathMismatch), "{name}");
+            kinds.retain(|k| *k != FindingKind::PathMismatch);
+        }
         assert_eq!(
             kinds,
             vec![FindingKind::TurnsDiffer, FindingKind::Unbalanced],
@@ -272,5 +285,38 @@ fn audit_names_a_coil_with_other_turns() {
         );
         assert_eq!(r.findings[0].coils, vec![3], "{name}");
         assert!(!r.balanced && !r.sound, "{name}");
+    }
+}
+
+/// A reversed coil together with two leads exchanged: an additive edit and a phase-level one.
+#[test]
+fn audit_names_a_reversed_coil_behind_swapped_leads() {
+    for (name, s) in corpus() {
+        let w = sound(&name, &s);
+        for i in [0, w.coils.len() / 2] {
+            let mut f = w.clone();
+            flip(&mut f, i);
+            for c in &mut f.coils {
+                c.phase = [0, 2, 1][c.phase];
+            }
+            let r = audit(&f, None);
+            let what = format!("coil {} reversed, V and W exchanged", i + 1);
+            assert_eq!(r.sequence, Sequence::Negative, "{name}, {what}");
+            let got: Vec<(FindingKind, Vec<String>)> = r
+                .findings
+                .iter()
+                .map(|f| (f.kind, f.phases.clone()))
+                .collect();
+            let coil_phase = f.label(f.coils[i].phase).to_string();
+            assert_eq!(
+                got,
+                vec![
+                    (FindingKind::ReversedCoil, vec![coil_phase]),
+                    (FindingKind::LeadsSwapped, vec!["V".into(), "W".into()]),
+                ],
+                "{name}, {what}"
+            );
+            assert_eq!(r.findings[0].coils, vec![i + 1], "{name}, {what}");
+        }
     }
 }

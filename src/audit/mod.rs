@@ -639,10 +639,15 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             message: format!(
                 "the phases are unbalanced (backward field {}% of forward, magnitudes spread \
                  {}%) and no change of up to two edits (reversing a coil, a group or a phase, \
-                 moving a coil to another phase, swapping two leads) balances them; compare the \
-                 record with the design slot by slot",
+                 moving a coil to another phase, swapping two leads) balances them{}; compare \
+                 the record with the design slot by slot",
                 crate::output::num(pct(bal.backward, bal.forward), 2),
-                crate::output::num(bal.spread, 2)
+                crate::output::num(bal.spread, 2),
+                if found.truncated {
+                    " (the search of pairs of edits was cut short on this record)"
+                } else {
+                    ""
+                }
             ),
         });
     }

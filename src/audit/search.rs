@@ -25,6 +25,10 @@ pub const BALANCE_TOL: f64 = 1e-7;
 /// Longest run of same-phase coils whose every contiguous part is tried as a group.
 const MAX_RUN: usize = 24;
 
+/// Most candidate pairs checked in full: far above any real record (a 360-slot record needs
+/// a few thousand), a bound on the time a pathological record can take.
+const MAX_PAIR_CHECKS: usize = 20_000_000;
+
 /// Most fixes of the smallest size kept for ranking.
 const MAX_FIXES: usize = 256;
 
@@ -85,6 +89,8 @@ pub struct Search {
     pub fix: Option<Vec<Edit>>,
     /// How many other fixes of the same size were found (ties broken by regularity).
     pub alternatives: usize,
+    /// The pair stage hit its work limit (a pathological record): the search is incomplete.
+    pub truncated: bool,
 }
 
 /// An additive edit: phasor deltas on at most two phases.
@@ -297,6 +303,7 @@ pub fn search(w: &Winding) -> Search {
             balanced: true,
             fix: None,
             alternatives: 0,
+            truncated: false,
         };
     }
 
@@ -421,6 +428,7 @@ pub fn search(w: &Winding) -> Search {
     };
 
     let mut found: Vec<Vec<u32>> = Vec::new();
+    let mut truncated = false;
     let mut total = 0usize;
     let mut keep = |f: Vec<u32>, found: &mut Vec<Vec<u32>>| {
         total += 1;
@@ -465,10 +473,16 @@ pub fn search(w: &Winding) -> Search {
             let ys = &members[y.lo as usize..y.hi as usize];
             xs.iter().all(|c| !ys.contains(c))
         };
+        let mut checks = 0usize;
         for d1 in &ones {
             let want = -k0 - d1.key;
             let from = keys.partition_point(|&k| k < want - tol);
             let to = keys.partition_point(|&k| k <= want + tol);
+            if checks > MAX_PAIR_CHECKS {
+                truncated = true;
+                break;
+            }
+            checks += to - from;
             for d2 in &sorted[from..to] {
                 if d2.edit <= d1.edit || !disjoint(d1, d2) {
                     continue;
@@ -506,6 +520,7 @@ pub fn search(w: &Winding) -> Search {
             balanced: false,
             fix: None,
             alternatives: 0,
+            truncated,
         };
     }
     // Rank: fewest shop edits, then most coils agreeing with the standard belt layout, then
@@ -525,6 +540,7 @@ pub fn search(w: &Winding) -> Search {
         balanced: false,
         fix: ranked.map(|r| r.4),
         alternatives: total - 1,
+        truncated,
     }
 }
 
