@@ -4,6 +4,7 @@
 //! ([`factors`], [`linear`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.
 
+pub mod audit;
 pub mod factors;
 pub mod layout;
 pub mod leakage;
@@ -11,5 +12,6 @@ pub mod linear;
 pub mod output;
 pub mod pitch;
 pub mod plan;
+pub mod rewind;
 pub mod survey;
 pub mod winding;

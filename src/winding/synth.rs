@@ -18,12 +18,23 @@ pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
     let mut w = if spec.coils.is_empty() {
         synthesize(spec)?
     } else {
-        return from_coil_list(spec);
+        return from_coil_list(spec, true);
     };
     if spec.parallel_paths > 1 {
         assign_paths(&mut w, spec.parallel_paths)?;
     }
     Ok(w)
+}
+
+/// Build a recorded winding as found, for auditing: like [`build`], but a coil list whose
+/// slots hold more sides than the winding has layers is accepted, so the audit can report
+/// the overfilled slots as a finding instead of refusing the record.
+pub fn build_lenient(spec: &Spec) -> Result<Winding, PlanError> {
+    if spec.coils.is_empty() {
+        build(spec)
+    } else {
+        from_coil_list(spec, false)
+    }
 }
 
 /// Phase and polarity of belt `b` of 2m belts (see the module note).
@@ -527,8 +538,9 @@ fn single_layer_spans(geom: &Geometry, plus: &[Vec<usize>], minus: &[Vec<usize>]
         .collect()
 }
 
-/// A winding from an explicit coil list, taken as given: only range and fill are checked.
-fn from_coil_list(spec: &Spec) -> Result<Winding, PlanError> {
+/// A winding from an explicit coil list, taken as given: only range and (when `strict`)
+/// fill are checked.
+fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
     let (z, poles, m, layers) = (spec.slots, spec.poles, spec.phases, spec.layers);
     let rough = |e: &CoilEntry| -> usize {
         let d = e.back.abs_diff(e.go);
@@ -559,7 +571,11 @@ fn from_coil_list(spec: &Spec) -> Result<Winding, PlanError> {
         in_slot[e.go].push(i);
         in_slot[e.back].push(i);
     }
-    if let Some((k, cs)) = in_slot.iter().enumerate().find(|(_, cs)| cs.len() > layers) {
+    if let Some((k, cs)) = in_slot
+        .iter()
+        .enumerate()
+        .find(|(_, cs)| strict && cs.len() > layers)
+    {
         let mut coils: Vec<usize> = cs.iter().map(|i| i + 1).collect();
         coils.dedup();
         return Err(PlanError::Overfilled {
