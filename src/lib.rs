@@ -5,6 +5,7 @@
 //! `Winding`; only the binary touches the file system.
 
 pub mod factors;
+pub mod field;
 pub mod layout;
 pub mod linear;
 pub mod output;

@@ -2,6 +2,7 @@
 //! a new format never touches an analysis (one exporter per format behind [`Exporter`]).
 
 mod csv;
+mod field_report;
 mod json;
 mod reports;
 mod table;
