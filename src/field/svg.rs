@@ -156,10 +156,43 @@ fn speed_text(rep: &FieldReport) -> String {
         Topology::Rotary => tau,
     };
     format!(
-        "working wave travels {dir}: two pole pitches ({} slot pitches) per supply period{}",
+        "working wave travels {dir}, two pole pitches ({} slot pitches) per supply period{}",
         num(2.0 * pitch, 2),
         speed.map(|s| format!("; {s}")).unwrap_or_default()
     )
+}
+
+/// Crest positions of the snapshots unwrapped along the direction of travel, shifted back
+/// by whole wavelengths so they stay on the core where they can.
+fn unwrapped_crests(rep: &FieldReport, snaps: &[Snapshot]) -> Vec<f64> {
+    let z = rep.slots as f64;
+    let period = 2.0 * z / rep.poles.max(1) as f64;
+    let period = match rep.linear {
+        Some(l) => 2.0 * std::f64::consts::PI / l.synchronous_wavenumber_rad_slot,
+        None => period,
+    };
+    let mut out: Vec<f64> = Vec::with_capacity(snaps.len());
+    for s in snaps {
+        let x = match out.last() {
+            None => s.crest_x,
+            Some(&prev) => match rep.working_wave {
+                Direction::Forward => prev + (s.crest_x - prev).rem_euclid(period),
+                Direction::Backward => prev - (prev - s.crest_x).rem_euclid(period),
+            },
+        };
+        out.push(x);
+    }
+    let (lo, hi) = out
+        .iter()
+        .fold((f64::MAX, f64::MIN), |(a, b), &x| (a.min(x), b.max(x)));
+    let mut shift = 0.0;
+    while hi + shift > z && lo + shift - period >= 0.0 {
+        shift -= period;
+    }
+    while lo + shift < 0.0 && hi + shift + period <= z {
+        shift += period;
+    }
+    out.iter().map(|x| x + shift).collect()
 }
 
 /// The field sheet of `rep`, with `snaps` the MMF at several instants of one period.
@@ -226,7 +259,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     }
     let every = (tick_step(z, 24.0).round() as usize).max(1);
     for s in 1..=rep.slots {
-        if s == 1 || s % every == 0 {
+        if (s == 1 && every != 2) || s % every == 0 {
             let x = xs(s as f64 - 0.5);
             panel = panel
                 .add(line(x, bottom, x, bottom + 5.0, "#000000", 1.0))
@@ -251,6 +284,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
                     format!("rotate(-90 22 {})", r((top + bottom) / 2.0)),
                 ),
         );
+    let crests = unwrapped_crests(rep, snaps);
     for (i, s) in snaps.iter().enumerate() {
         let colour = PALETTE[i % PALETTE.len()];
         let dash = DASHES[i % DASHES.len()];
@@ -269,7 +303,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
         }
         panel = panel.add(pl);
         // Crest marker of the working wave, above the plot.
-        let cx = xs(s.crest_x.min(z));
+        let cx = xs(crests[i]);
         let tri = Data::new()
             .move_to((r(cx - 5.0), r(top - 14.0)))
             .line_to((r(cx + 5.0), r(top - 14.0)))
@@ -284,7 +318,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
         );
         // Legend entry.
         let lx = LEFT + 10.0 + (i % 6) as f64 * 140.0;
-        let ly = 62.0 + (i / 6) as f64 * 14.0;
+        let ly = 52.0 + (i / 6) as f64 * 14.0;
         let mut ll = line(lx, ly, lx + 30.0, ly, colour, 2.0);
         if dash != "none" {
             ll = ll.set("stroke-dasharray", dash);
@@ -298,18 +332,22 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     }
     doc = doc.add(panel);
 
-    // Arrow showing the direction of travel, below the snapshots' x labels.
-    let ay = bottom + 52.0;
-    let (ax1, ax2) = match rep.working_wave {
-        Direction::Forward => (LEFT + 40.0, LEFT + 200.0),
-        Direction::Backward => (LEFT + 200.0, LEFT + 40.0),
-    };
-    doc = doc
-        .add(line(ax1, ay, ax2, ay, "#000000", 2.0).set("marker-end", "url(#arrow-head)"))
-        .add(text(LEFT + 215.0, ay + 4.0, 12.0, &speed_text(rep)));
+    // Arrow from the first crest to the last: the way and the distance the working wave
+    // travels in the instants drawn; the speed in words below the plot.
+    if let (Some(&first), Some(&last)) = (crests.first(), crests.last())
+        && (last - first).abs() > 1e-9
+    {
+        doc = doc.add(
+            line(xs(first), top - 20.0, xs(last), top - 20.0, "#000000", 1.6)
+                .set("marker-end", "url(#arrow-head)"),
+        );
+    }
+    for (i, l) in wrap(&speed_text(rep), 130).iter().enumerate() {
+        doc = doc.add(text(LEFT, bottom + 52.0 + 15.0 * i as f64, 12.0, l));
+    }
 
     // Panel 2: spectrum bars on a log scale from 1e-4 to 1.
-    let (stop, sbot) = (430.0, 630.0);
+    let (stop, sbot) = (440.0, 635.0);
     let floor = -4.0f64;
     let yl = |a: f64| {
         let l = a.max(1e-300).log10().clamp(floor, 0.0);
