@@ -211,6 +211,15 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
         )));
     }
     let w = load(&a.common.file)?;
+    let orders = (a.upto * w.geometry.poles as f64 / 2.0).floor();
+    if orders > field::MAX_ORDERS as f64 {
+        return Err(Failure::input(format!(
+            "--upto {} would list {orders} mechanical orders on this {}-pole core; give at most {}",
+            a.upto,
+            w.geometry.poles,
+            field::MAX_ORDERS as f64 / (w.geometry.poles as f64 / 2.0)
+        )));
+    }
     let currents = match &a.currents {
         Some(text) => field::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,

@@ -35,6 +35,9 @@ use crate::winding::{Topology, Winding};
 /// Relative amplitude below which a wave is taken as absent.
 pub const PRESENT: f64 = 1e-9;
 
+/// Most mechanical orders one report lists (keeps output and memory bounded).
+pub const MAX_ORDERS: u64 = 1_000_000;
+
 /// Largest slot-opening width accepted, in slot pitches (openings must not overlap).
 pub const MAX_OPENING: f64 = 1.0;
 
@@ -600,13 +603,14 @@ pub fn rotary_spectrum(sheet: &CurrentSheet, top: u64) -> Vec<(u64, f64, f64)> {
     out
 }
 
-/// Spectrum rows relative to `amplitude`, present orders only, up to electrical `upto`.
+/// Spectrum rows relative to `amplitude`, present orders only, up to electrical `upto`
+/// (at most [`MAX_ORDERS`] orders).
 fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
     let keep = |r: &WaveRow| r.forward.max(r.backward) > PRESENT;
     match sheet.topology {
         Topology::Rotary => {
             let p = sheet.poles as f64 / 2.0;
-            let top = (upto * p + 1e-9).floor().max(0.0) as u64;
+            let top = ((upto * p + 1e-9).floor().max(0.0) as u64).min(MAX_ORDERS);
             rotary_spectrum(sheet, top)
                 .into_iter()
                 .map(|(n, f, b)| WaveRow {
@@ -618,7 +622,7 @@ fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
                 .filter(keep)
                 .collect()
         }
-        Topology::Linear => (1..=(upto + 1e-9).floor().max(0.0) as u64)
+        Topology::Linear => (1..=((upto + 1e-9).floor().max(0.0) as u64).min(MAX_ORDERS))
             .map(|n| {
                 let (f, b) = sheet.wave(n as f64);
                 WaveRow {

@@ -69,7 +69,8 @@ fn r(x: f64) -> f64 {
 fn wrap(s: &str, width: usize) -> Vec<String> {
     let mut out = Vec::new();
     let mut cur = String::new();
-    for word in s.split_whitespace() {
+    // Split on plain spaces only, so a no-break space keeps a value with its unit.
+    for word in s.split(' ').filter(|w| !w.is_empty()) {
         if !cur.is_empty() && cur.chars().count() + 1 + word.chars().count() > width {
             out.push(std::mem::take(&mut cur));
         }
@@ -135,17 +136,23 @@ fn speed_text(rep: &FieldReport) -> String {
                 .linear
                 .and_then(|l| l.secondary_speed_m_s)
                 .zip(rep.figures.slip)
-                .map(|(s, slip)| format!("; secondary {} m/s at slip {}", num(s, 3), num(slip, 3)))
+                .map(|(s, slip)| {
+                    format!(
+                        "; secondary {}\u{a0}m/s at slip {}",
+                        num(s, 3),
+                        num(slip, 3)
+                    )
+                })
                 .unwrap_or_default();
-            format!("v_s = 2·f·τ = {} m/s{sec}", num(v, 3))
+            format!("v_s = 2·f·τ = {}\u{a0}m/s{sec}", num(v, 3))
         }),
         Topology::Rotary => rep.figures.synchronous_speed_rpm.map(|n| {
             let v = rep
                 .figures
                 .synchronous_speed_m_s
-                .map(|v| format!(", {} m/s at the bore", num(v, 2)))
+                .map(|v| format!(", {}\u{a0}m/s at the bore", num(v, 2)))
                 .unwrap_or_default();
-            format!("n_s = {} rpm{v}", num(n, 1))
+            format!("n_s = {}\u{a0}rpm{v}", num(n, 1))
         }),
     };
     let pitch = match rep.topology {

@@ -503,6 +503,23 @@ fn sheet_draws_with_patterns_and_caution() {
     assert!(s.starts_with("<svg"));
     assert!(s.contains("fwd-hatch") && s.contains("bwd-hatch"));
     assert!(s.contains("CAUTION"));
-    assert!(s.contains("7.2 m/s"));
+    assert!(s.contains("7.2\u{a0}m/s; secondary 6.48\u{a0}m/s at slip 0.1"));
     assert_eq!(s.matches("<polyline").count(), 6);
+}
+
+// Closed form for full-pitch three-phase integer-slot windings,
+// σ_d = π²·(5q² + 1)/(54·q²·k_d1²) − 1 (from memory; it reproduces the textbook table values
+// 0.0966, 0.0284, 0.0141, 0.0089 for q = 1…4, also from memory), against Parseval.
+#[test]
+fn full_pitch_leakage_closed_form_for_q_one_to_six() {
+    for q in 1..=6usize {
+        let w = rotary(12 * q, 4, 2, 3 * q);
+        let alpha = std::f64::consts::PI / (3.0 * q as f64);
+        let kd = factors::closed::distribution(q as u32, 1.0, alpha);
+        let qf = q as f64;
+        let want =
+            std::f64::consts::PI.powi(2) * (5.0 * qf * qf + 1.0) / (54.0 * qf * qf * kd * kd) - 1.0;
+        let got = differential_leakage(&w);
+        assert!((got - want).abs() < 1e-12, "q = {q}: {got} vs {want}");
+    }
 }
