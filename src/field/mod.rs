@@ -349,6 +349,46 @@ impl CurrentSheet {
         }
     }
 
+    /// A linear primary's sheet folded onto the shortest whole number of slot pitches that
+    /// holds whole wavelengths 2τ (n slot pitches, d wavelengths): slot k adds into slot
+    /// k mod n of a closed core with n slots and 2d poles. Since e^{jνπx/τ} repeats every
+    /// 2τ, the folded sheet's slot sums equal the open primary's at every wavenumber
+    /// ν·π/(d·τ); its staircase (mean removed) gives by Parseval the sum of those waves.
+    /// A rotary sheet is returned unchanged.
+    pub fn folded(&self) -> CurrentSheet {
+        if self.topology == Topology::Rotary {
+            return self.clone();
+        }
+        let g = &self.geometry;
+        let k = crate::winding::gcd(g.angle_num, g.angle_den).max(1);
+        let n = (g.angle_den / k).max(1) as usize;
+        let d = (g.angle_num / k) as usize;
+        let mut c = vec![Complex64::new(0.0, 0.0); n];
+        for (i, ck) in self.slot_current.iter().enumerate() {
+            c[i % n] += ck;
+        }
+        let mut level = Vec::with_capacity(n);
+        let mut run = Complex64::new(0.0, 0.0);
+        for ck in &c {
+            run += ck;
+            level.push(run);
+        }
+        let mean = level.iter().sum::<Complex64>() / n as f64;
+        for l in &mut level {
+            *l -= mean;
+        }
+        let geometry = crate::winding::Geometry::rotary(n, 2 * d, g.phases, g.layers, g.core);
+        CurrentSheet {
+            topology: Topology::Rotary,
+            poles: 2 * d,
+            pole_pitch_slots: geometry.pole_pitch_slots,
+            opening: self.opening,
+            slot_current: c,
+            level,
+            geometry,
+        }
+    }
+
     /// Points of the MMF polyline at ωt = `theta` radians, from x = 0 to x = Z.
     pub fn snapshot(&self, theta: f64) -> Vec<MmfPoint> {
         let z = self.slots();
@@ -543,6 +583,24 @@ fn leakage_of(sheet: &CurrentSheet, amplitude: f64) -> f64 {
     (sheet.mean_square() / (amplitude * amplitude) - 1.0).max(0.0)
 }
 
+/// σ_d of a sheet: on a rotary core from its own staircase; on a linear primary from the
+/// sheet folded onto whole wavelengths ([`CurrentSheet::folded`]), i.e. the sum over the
+/// open primary's spectrum at the harmonic wavenumbers, its uniform (pulsating) part
+/// excluded and reported apart.
+fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
+    match sheet.topology {
+        Topology::Rotary => {
+            let (_, a) = working(sheet)?;
+            Ok(leakage_of(sheet, a))
+        }
+        Topology::Linear => {
+            let f = sheet.folded();
+            let (_, a) = working(&f)?;
+            Ok(leakage_of(&f, a))
+        }
+    }
+}
+
 /// Differential (harmonic) leakage coefficient σ_d = Σ_{waves ≠ working} (F/F_w)² for
 /// balanced positive-sequence currents and no slot opening, computed exactly from the mean
 /// square of the MMF staircase (Parseval). Equals the textbook series Σ_{ν≠1}(k_wν/(ν·k_w1))²
@@ -551,10 +609,7 @@ fn leakage_of(sheet: &CurrentSheet, amplitude: f64) -> f64 {
 pub fn differential_leakage(w: &Winding) -> f64 {
     let cur = balanced_currents(w.geometry.phases, Sequence::Positive);
     match CurrentSheet::new(w, &cur, 0.0) {
-        Ok(sheet) => match working(&sheet) {
-            Ok((_, a)) => leakage_of(&sheet, a),
-            Err(_) => f64::NAN,
-        },
+        Ok(sheet) => sigma_of(&sheet).unwrap_or(f64::NAN),
         Err(_) => f64::NAN,
     }
 }
@@ -667,7 +722,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
     let sheet = CurrentSheet::new(w, &opts.currents, opts.opening)?;
     let (dir, amp) = working(&sheet)?;
     let rows = rows_of(&sheet, opts.upto, amp);
-    let sigma = leakage_of(&sheet, amp);
+    let sigma = sigma_of(&sheet)?;
     let g = &w.geometry;
     let figures = linear::figures(
         w,

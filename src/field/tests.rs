@@ -378,6 +378,8 @@ fn linear_primary_folds_onto_the_closed_winding() {
         assert!((a.forward - b.forward).abs() < 1e-12, "order {nu}");
         assert!((a.backward - b.backward).abs() < 1e-12, "order {nu}");
     }
+    // σ_d of the open primary is that of its folded periodic part: here the closed winding's.
+    assert!((lin.differential_leakage - rot.differential_leakage).abs() < 1e-12);
     let l = lin.linear.unwrap();
     assert!(l.backward_wave < 1e-12 && l.pulsating < 1e-12);
     // v_s = 2·f·τ (Nasar & Boldea 1987, ch. 2): τ = 6 × 12 mm, 50 Hz.
@@ -522,4 +524,30 @@ fn full_pitch_leakage_closed_form_for_q_one_to_six() {
         let got = differential_leakage(&w);
         assert!((got - want).abs() < 1e-12, "q = {q}: {got} vs {want}");
     }
+}
+
+// Folding an open primary onto whole wavelengths keeps every slot sum at the harmonic
+// wavenumbers (e^{jνπx/τ} repeats every 2τ), so the folded sheet's Parseval sum equals the
+// sum of the open primary's own amplitudes at ν = 1, 2, 3, ... (3 poles: fold onto 6 slots).
+#[test]
+fn folded_primary_parseval_equals_its_integer_order_amplitudes() {
+    let w =
+        wind("[machine]\ntopology=\"linear\"\nslots=12\npoles=3\n[winding]\nlayers=2\npitch=3\n");
+    let cur = parse_currents("1@0,0.9@-115,1.2@118", 3).unwrap();
+    let sheet = CurrentSheet::new(&w, &cur, 0.0).unwrap();
+    let f = sheet.folded();
+    assert_eq!((f.slots(), f.poles), (6, 2));
+    let top = 200_000u64;
+    let mut sum = 0.0;
+    for nu in 1..=top {
+        let (a, b) = sheet.wave(nu as f64);
+        // Refer to the folded core: same slot sums, amplitude scale 2p_open/2p_folded.
+        let k = sheet.poles as f64 / f.poles as f64;
+        sum += (a * k).powi(2) + (b * k).powi(2);
+    }
+    // Tail: amplitudes ≤ Σ|C|/(2πν) on the folded core.
+    let c: f64 = f.slot_current.iter().map(|c| c.norm()).sum();
+    let tail = 2.0 * (c / (2.0 * std::f64::consts::PI)).powi(2) / (top as f64 - 1.0);
+    let ms = f.mean_square();
+    assert!((ms - sum).abs() <= tail, "{ms} vs {sum} (tail {tail})");
 }
