@@ -235,9 +235,11 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
         .title
         .clone()
         .unwrap_or_else(|| "Travelling field".to_string());
-    doc = doc.add(
-        text(LEFT, 32.0, 20.0, &format!("Travelling field: {heading}")).set("font-weight", "bold"),
-    );
+    let banner = match &rep.title {
+        Some(t) => format!("Travelling field: {t}"),
+        None => heading.clone(),
+    };
+    doc = doc.add(text(LEFT, 32.0, 20.0, &banner).set("font-weight", "bold"));
 
     // Panel 1: MMF snapshots.
     let (top, bottom) = (90.0, 330.0);
