@@ -226,7 +226,7 @@ impl CurrentSheet {
 
     /// Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) of electrical order ν: the Fourier
     /// transform of the slot current spread evenly over the opening b (T. A. Lipo,
-    /// *Introduction to AC Machine Design*, 2017, ch. 3, the same pulse transform as the skew
+    /// *Introduction to AC Machine Design*, 2017; the same pulse transform as the skew
     /// factor of Pyrhönen et al. 2014, eq. 2.34).
     pub fn opening_factor(&self, order: f64) -> f64 {
         let x = order * PI * self.opening / (2.0 * self.pole_pitch_slots);
@@ -604,7 +604,7 @@ fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
 /// Differential (harmonic) leakage coefficient σ_d = Σ_{waves ≠ working} (F/F_w)² for
 /// balanced positive-sequence currents and no slot opening, computed exactly from the mean
 /// square of the MMF staircase (Parseval). Equals the textbook series Σ_{ν≠1}(k_wν/(ν·k_w1))²
-/// for balanced windings (Pyrhönen et al. 2014, §4.3.1 "air-gap leakage"; Vogt 1996).
+/// for balanced windings (Pyrhönen et al. 2014, ch. 4, air-gap leakage).
 /// One allocation of Z slot currents; NaN when the winding has no working wave.
 pub fn differential_leakage(w: &Winding) -> f64 {
     let cur = balanced_currents(w.geometry.phases, Sequence::Positive);

@@ -5,6 +5,8 @@
 //! - Pyrhönen: J. Pyrhönen, T. Jokinen, V. Hrabovcová, *Design of Rotating Electrical
 //!   Machines*, 2nd ed., Wiley 2014, ch. 2 (windings, MMF harmonics ν = 1 + 2mg) and ch. 4
 //!   (air-gap / differential leakage σ_δ).
+//! Chapter numbers are given from memory; the formulas themselves are also derived in
+//! `docs/theory-field.md`.
 
 use super::*;
 use crate::layout;
@@ -417,7 +419,7 @@ fn odd_pole_primary_has_a_pulsating_part() {
     assert!((r.linear.unwrap().pulsating - std::f64::consts::PI / 9.0).abs() < 1e-12);
 }
 
-// Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) (Lipo 2017, ch. 3), and Parseval on the
+// Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) (Lipo 2017; derived in docs/theory-field.md), and Parseval on the
 // trapezoidal MMF equals the sum of squared amplitudes (which fall as 1/ν² · k_o²).
 #[test]
 fn slot_opening_factor_and_parseval_with_ramps() {
@@ -554,4 +556,59 @@ fn folded_primary_parseval_equals_its_integer_order_amplitudes() {
     let tail = 2.0 * (c / (2.0 * std::f64::consts::PI)).powi(2) / (top as f64 - 1.0);
     let ms = f.mean_square();
     assert!((ms - sum).abs() <= tail, "{ms} vs {sum} (tail {tail})");
+}
+
+// Independent reference for the open primary's continuous transform: embed the primary in a
+// zero-padded window of W = K·2τ slot pitches, sample F̃ (zero beyond the ends) and FFT it
+// with rustfft. Bin m of the window is κ = 2πm/W, so ν·π/τ falls on m = ν·K, and
+// F̂(κ_m) = W·c_m; A±(ν) = W·|c_∓m|/L_a and the uniform part is W·|c_0|/L_a. The aliasing
+// bound is that of the rotary check; c_0 has no aliases (Σ C_k = 0).
+#[test]
+fn linear_transform_agrees_with_fft_of_padded_primary() {
+    let cases = [
+        (
+            include_str!("../../layouts/pallet-shuttle.toml").to_string(),
+            3usize,
+        ),
+        (
+            "[machine]\ntopology=\"linear\"\nslots=12\npoles=3\n[winding]\nlayers=2\npitch=3\n"
+                .to_string(),
+            3,
+        ),
+    ];
+    for (src, k) in &cases {
+        let w = wind(src);
+        let cur = parse_currents("1@0,0.9@-115,1.2@118", 3).unwrap();
+        let sheet = CurrentSheet::new(&w, &cur, 0.25).unwrap();
+        let tau = sheet.pole_pitch_slots;
+        let win = (2.0 * tau * *k as f64).round() as usize;
+        assert!(win >= sheet.slots());
+        let per_slot = 512;
+        let m = win * per_slot;
+        let mut buf: Vec<rustfft::num_complex::Complex<f64>> = (0..m)
+            .map(|i| {
+                let f = sheet.mmf_phasor((i as f64 + 0.5) / per_slot as f64);
+                rustfft::num_complex::Complex::new(f.re, f.im)
+            })
+            .collect();
+        FftPlanner::new().plan_fft_forward(m).process(&mut buf);
+        let la = sheet.reference_length();
+        let scale = win as f64 / (m as f64 * la);
+        let a1 = sheet.wave(1.0).0;
+        for nu in 1..=20usize {
+            let bin = nu * k;
+            let (f, b) = sheet.wave(nu as f64);
+            let (ff, fb) = (buf[m - bin].norm() * scale, buf[bin].norm() * scale);
+            let x = std::f64::consts::PI * bin as f64 / m as f64;
+            let tol = |v: f64| v * x * x / 3.0 * 1.01 + 1e-9 * a1;
+            assert!((f - ff).abs() <= tol(f), "ν {nu}: forward {f} vs fft {ff}");
+            assert!((b - fb).abs() <= tol(b), "ν {nu}: backward {b} vs fft {fb}");
+        }
+        let p0 = buf[0].norm() * scale;
+        assert!(
+            (sheet.pulsating() - p0).abs() <= 1e-9 * a1,
+            "{} vs {p0}",
+            sheet.pulsating()
+        );
+    }
 }
