@@ -5,6 +5,7 @@
 //! - Pyrhönen: J. Pyrhönen, T. Jokinen, V. Hrabovcová, *Design of Rotating Electrical
 //!   Machines*, 2nd ed., Wiley 2014, ch. 2 (windings, MMF harmonics ν = 1 + 2mg) and ch. 4
 //!   (air-gap / differential leakage σ_δ).
+//!
 //! Chapter numbers are given from memory; the formulas themselves are also derived in
 //! `docs/theory-field.md`.
 
@@ -419,8 +420,9 @@ fn odd_pole_primary_has_a_pulsating_part() {
     assert!((r.linear.unwrap().pulsating - std::f64::consts::PI / 9.0).abs() < 1e-12);
 }
 
-// Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) (Lipo 2017; derived in docs/theory-field.md), and Parseval on the
-// trapezoidal MMF equals the sum of squared amplitudes (which fall as 1/ν² · k_o²).
+// Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) (Lipo 2017; derived in
+// docs/theory-field.md), and Parseval on the trapezoidal MMF equals the sum of squared
+// amplitudes (which fall as 1/ν² · k_o²).
 #[test]
 fn slot_opening_factor_and_parseval_with_ramps() {
     let w = rotary(36, 4, 2, 7);
