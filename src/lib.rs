@@ -6,6 +6,7 @@
 
 pub mod audit;
 pub mod factors;
+pub mod field;
 pub mod layout;
 pub mod leakage;
 pub mod linear;

@@ -11,6 +11,7 @@ use indicatif::ProgressBar;
 
 use beltwright::audit;
 use beltwright::factors;
+use beltwright::field::{self, FieldOptions, Sequence};
 use beltwright::layout;
 use beltwright::linear::Operating;
 use beltwright::output::{Format, Report, pitch_chart, render};
@@ -26,6 +27,8 @@ Examples:
   beltwright plan layouts/pump-rewind.toml --format json
   beltwright plan layouts/pallet-shuttle.toml --slip 0.08 --airgap-power-w 1500
   beltwright factors layouts/fan-concentric.toml --upto 31 --format csv
+  beltwright field layouts/pump-rewind.toml --upto 49 --svg pump-field.svg
+  beltwright field layouts/pallet-shuttle.toml --slip 0.1 --format json
   beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
@@ -50,6 +53,9 @@ enum Command {
     /// Distribution, pitch, skew and winding factors per harmonic order.
     #[command(after_help = EXAMPLES)]
     Factors(FactorsArgs),
+    /// Travelling field: MMF along the gap, forward/backward spectrum, leakage, field sheet.
+    #[command(after_help = EXAMPLES)]
+    Field(FieldArgs),
     /// Compare every feasible coil span and recommend one.
     #[command(after_help = EXAMPLES)]
     Pitch(PitchArgs),
@@ -122,6 +128,37 @@ struct RewindArgs {
     /// Wires in hand (wound in parallel as one conductor) in the old winding.
     #[arg(long = "wires-in-hand", default_value_t = 1)]
     wires_in_hand: u32,
+}
+
+#[derive(Args)]
+struct FieldArgs {
+    #[command(flatten)]
+    common: Common,
+    /// Highest electrical order listed.
+    #[arg(long, default_value_t = 25.0)]
+    upto: f64,
+    /// Instant of the MMF snapshot, electrical degrees (omega*t).
+    #[arg(long = "at-deg", default_value_t = 0.0, allow_negative_numbers = true)]
+    at_deg: f64,
+    /// Balanced phase currents in this sequence.
+    #[arg(long, value_enum, default_value_t = Sequence::Positive, conflicts_with = "currents")]
+    sequence: Sequence,
+    /// Phase-current phasors, one per phase: "magnitude@angle_deg,..." e.g. "1@0,1@-120,1@120".
+    #[arg(long)]
+    currents: Option<String>,
+    /// Slot-opening width in slot pitches (0 to below 1); current spread evenly across it.
+    #[arg(
+        long = "slot-opening",
+        default_value_t = 0.0,
+        allow_negative_numbers = true
+    )]
+    slot_opening: f64,
+    /// Slip of the secondary for its speed (0 to 1).
+    #[arg(long, allow_negative_numbers = true)]
+    slip: Option<f64>,
+    /// Also write the field sheet (SVG) to this file.
+    #[arg(long)]
+    svg: Option<PathBuf>,
 }
 
 #[derive(Args)]
@@ -265,6 +302,7 @@ fn run(cli: Cli) -> Result<String, Failure> {
             let w = load(&a.common.file)?;
             present(&factors::factor_table(&w, a.upto), a.common.format)
         }
+        Command::Field(a) => run_field(a),
         Command::Pitch(a) => pitch(a),
         Command::Survey(a) => survey(a),
         Command::Audit(a) => run_audit(a),
@@ -334,6 +372,77 @@ fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
     let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand)
         .map_err(|e| Failure::input(format!("{} -> {}: {e}", a.from.display(), a.to.display())))?;
     present(&report, a.format)
+}
+
+/// `beltwright field`: check the flags, compute, present, and write the sheet if asked.
+fn run_field(a: FieldArgs) -> Result<String, Failure> {
+    if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
+        return Err(Failure::input(format!(
+            "--upto {} is not valid; give an order from 1 to 10000",
+            a.upto
+        )));
+    }
+    if !(a.at_deg.is_finite() && a.at_deg.abs() <= 1e6) {
+        return Err(Failure::input(format!(
+            "--at-deg {} is not valid; give an angle in degrees",
+            a.at_deg
+        )));
+    }
+    if !(a.slot_opening.is_finite() && (0.0..field::MAX_OPENING).contains(&a.slot_opening)) {
+        return Err(Failure::input(format!(
+            "--slot-opening {} is not valid; give a width from 0 up to (not including) 1 slot pitch",
+            a.slot_opening
+        )));
+    }
+    if let Some(s) = a.slip
+        && !(0.0..=1.0).contains(&s)
+    {
+        return Err(Failure::input(format!(
+            "--slip {s} is not valid; give a slip from 0 to 1"
+        )));
+    }
+    if let Some(out) = &a.svg
+        && same_file(out, &a.common.file)
+    {
+        return Err(Failure::input(format!(
+            "--svg {}: that is the layout file; give another file name for the sheet",
+            out.display()
+        )));
+    }
+    let w = load(&a.common.file)?;
+    let orders = (a.upto * w.geometry.poles as f64 / 2.0).floor();
+    if orders > field::MAX_ORDERS as f64 {
+        return Err(Failure::input(format!(
+            "--upto {} would list {orders} mechanical orders on this {}-pole core; give at most {}",
+            a.upto,
+            w.geometry.poles,
+            field::MAX_ORDERS as f64 / (w.geometry.poles as f64 / 2.0)
+        )));
+    }
+    let currents = match &a.currents {
+        Some(text) => field::parse_currents(text, w.geometry.phases)
+            .map_err(|e| Failure::input(format!("--currents: {e}")))?,
+        None => field::balanced_currents(w.geometry.phases, a.sequence),
+    };
+    let opts = FieldOptions {
+        currents,
+        opening: a.slot_opening,
+        upto: a.upto,
+        at_deg: a.at_deg,
+        slip: a.slip,
+    };
+    let name = a.common.file.display().to_string();
+    let fail = |e: field::FieldError| Failure::input(format!("{name}: {e}"));
+    let report = field::field(&w, &opts).map_err(fail)?;
+    if let Some(out) = &a.svg {
+        let snaps = field::snapshots(&w, &opts, 6).map_err(fail)?;
+        write_atomic(
+            out,
+            &a.common.file,
+            field::svg::field_sheet(&report, &snaps).as_bytes(),
+        )?;
+    }
+    present(&report, a.common.format)
 }
 
 fn pitch(a: PitchArgs) -> Result<String, Failure> {
@@ -419,6 +528,14 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
     present(&report, a.format)
 }
 
+/// True when two paths name the same existing file.
+fn same_file(a: &Path, b: &Path) -> bool {
+    match (a.canonicalize(), b.canonicalize()) {
+        (Ok(x), Ok(y)) => x == y,
+        _ => false,
+    }
+}
+
 /// Write `bytes` to `path` through a temporary file in the same folder and a rename, so a
 /// reader never sees half a file; refuse to write over the layout being read.
 fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> {
@@ -437,6 +554,7 @@ fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> 
     let fail = |e: std::io::Error| Failure::input(format!("{name}: cannot write: {e}"));
     let mut tmp = tempfile::NamedTempFile::new_in(&dir).map_err(fail)?;
     tmp.write_all(bytes).map_err(fail)?;
+    tmp.as_file().sync_all().map_err(fail)?;
     tmp.persist(path).map_err(|e| fail(e.error))?;
     Ok(())
 }

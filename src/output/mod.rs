@@ -4,6 +4,7 @@
 mod audit_report;
 mod choose_report;
 mod csv;
+mod field_report;
 mod json;
 mod pitch_svg;
 pub(crate) mod reports;
