@@ -1,7 +1,7 @@
 //! Audit of a 360-slot record, sound and with two faults (which needs the two-edit search).
 
 use beltwright::audit::{audit, search};
-use beltwright::layout::{Connection, Spec, Style, Topology};
+use beltwright::layout::{Spec, Topology};
 use beltwright::winding::{self, Winding};
 use criterion::{Criterion, criterion_group, criterion_main};
 use std::hint::black_box;
@@ -9,23 +9,9 @@ use std::hint::black_box;
 /// 360 slots, 12 poles, q = 10, double layer, span 25 of 30: a large traction-motor stator.
 fn record() -> Winding {
     let s = Spec {
-        title: None,
-        topology: Topology::Rotary,
-        slots: 360,
-        poles: 12,
-        phases: 3,
-        phase_labels: vec!["U".into(), "V".into(), "W".into()],
-        layers: 2,
         pitch: Some(25),
-        style: Style::Lap,
         turns_per_coil: 4,
-        parallel_paths: 1,
-        connection: Connection::Star,
-        skew_slots: 0.0,
-        core: Default::default(),
-        supply: Default::default(),
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(Topology::Rotary, 360, 12, 2)
     };
     match winding::build(&s) {
         Ok(w) => w,

@@ -10,6 +10,7 @@ pub mod field;
 pub mod layout;
 pub mod leakage;
 pub mod linear;
+pub mod numbering;
 pub mod output;
 pub mod pitch;
 pub mod plan;

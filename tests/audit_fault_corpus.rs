@@ -9,28 +9,14 @@
 //! connected backwards.
 
 use beltwright::audit::{AuditReport, FindingKind, Sequence, audit};
-use beltwright::layout::{Connection, Spec, Style, Topology};
+use beltwright::layout::{Spec, Style, Topology};
 use beltwright::winding::{self, Winding, coil_groups};
 
 fn spec(topology: Topology, slots: usize, poles: usize, layers: usize, pitch: usize) -> Spec {
     Spec {
-        title: None,
-        topology,
-        slots,
-        poles,
-        phases: 3,
-        phase_labels: vec!["U".into(), "V".into(), "W".into()],
-        layers,
         pitch: Some(pitch),
-        style: Style::Lap,
         turns_per_coil: 12,
-        parallel_paths: 1,
-        connection: Connection::Star,
-        skew_slots: 0.0,
-        core: Default::default(),
-        supply: Default::default(),
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(topology, slots, poles, layers)
     }
 }
 

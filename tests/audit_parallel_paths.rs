@@ -2,29 +2,16 @@
 //! phase; a coil put in the wrong path is named.
 
 use beltwright::audit::{FindingKind, audit};
-use beltwright::layout::{Connection, Spec, Style, Topology};
+use beltwright::layout::{Spec, Topology};
 use beltwright::winding::{self, Winding};
 
 /// 36 slots, 4 poles, span 8, two paths: each path holds one pole pair's groups.
 fn two_paths() -> Winding {
     let s = Spec {
-        title: None,
-        topology: Topology::Rotary,
-        slots: 36,
-        poles: 4,
-        phases: 3,
-        phase_labels: vec!["U".into(), "V".into(), "W".into()],
-        layers: 2,
         pitch: Some(8),
-        style: Style::Lap,
         turns_per_coil: 20,
         parallel_paths: 2,
-        connection: Connection::Star,
-        skew_slots: 0.0,
-        core: Default::default(),
-        supply: Default::default(),
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(Topology::Rotary, 36, 4, 2)
     };
     winding::build(&s).unwrap_or_else(|e| panic!("design refused: {e}"))
 }

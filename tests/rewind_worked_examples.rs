@@ -4,33 +4,21 @@
 //! of Rotating Electrical Machines*, 2014, eq. 2.59).
 
 use beltwright::factors::closed;
-use beltwright::layout::{Connection, Spec, Style, Supply, Topology};
+use beltwright::layout::{Connection, Spec, Supply, Topology};
 use beltwright::rewind::{OldConductor, RewindError, area_of_diameter, rewind};
 use beltwright::winding::{self, Winding};
 use std::f64::consts::PI;
 
 fn design(slots: usize, poles: usize, pitch: usize, connection: Connection, f_hz: f64) -> Spec {
     Spec {
-        title: None,
-        topology: Topology::Rotary,
-        slots,
-        poles,
-        phases: 3,
-        phase_labels: vec!["U".into(), "V".into(), "W".into()],
-        layers: 2,
         pitch: Some(pitch),
-        style: Style::Lap,
         turns_per_coil: 20,
-        parallel_paths: 1,
         connection,
-        skew_slots: 0.0,
-        core: Default::default(),
         supply: Supply {
             frequency_hz: Some(f_hz),
             line_voltage_v: Some(400.0),
         },
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(Topology::Rotary, slots, poles, 2)
     }
 }
 

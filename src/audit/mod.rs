@@ -240,24 +240,7 @@ fn harmonic_orders(w: &Winding) -> Vec<f64> {
     orders
 }
 
-/// "1-3, 7" from sorted 1-based numbers.
-pub(crate) fn runs(ns: &[usize]) -> String {
-    let mut parts: Vec<String> = Vec::new();
-    let mut i = 0;
-    while i < ns.len() {
-        let mut j = i;
-        while j + 1 < ns.len() && ns[j + 1] == ns[j] + 1 {
-            j += 1;
-        }
-        parts.push(if j > i {
-            format!("{}-{}", ns[i], ns[j])
-        } else {
-            ns[i].to_string()
-        });
-        i = j + 1;
-    }
-    parts.join(", ")
-}
+pub(crate) use crate::numbering::ranges as runs;
 
 /// Coil numbers as a person reads them, from 0-based indices.
 fn label_list(coils: &[usize]) -> String {

@@ -641,28 +641,14 @@ pub fn apply_fix(w: &Winding, fix: &[Edit]) -> Winding {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::layout::{Connection, Spec, Style};
+    use crate::layout::Spec;
     use crate::winding;
 
     fn spec(slots: usize, poles: usize, layers: usize, pitch: usize) -> Spec {
         Spec {
-            title: None,
-            topology: Topology::Rotary,
-            slots,
-            poles,
-            phases: 3,
-            phase_labels: vec!["U".into(), "V".into(), "W".into()],
-            layers,
             pitch: Some(pitch),
-            style: Style::Lap,
             turns_per_coil: 5,
-            parallel_paths: 1,
-            connection: Connection::Star,
-            skew_slots: 0.0,
-            core: Default::default(),
-            supply: Default::default(),
-            coils: Vec::new(),
-            colours: None,
+            ..Spec::basic(Topology::Rotary, slots, poles, layers)
         }
     }
 

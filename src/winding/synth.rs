@@ -196,23 +196,9 @@ fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
 /// A single-layer winding exists on this rotary core (decided by synthesis itself).
 pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
     let spec = Spec {
-        title: None,
-        topology: Topology::Rotary,
-        slots: z,
-        poles,
         phases: m,
         phase_labels: (0..m).map(|i| i.to_string()).collect(),
-        layers: 1,
-        pitch: None,
-        style: Style::Lap,
-        turns_per_coil: 1,
-        parallel_paths: 1,
-        connection: crate::layout::Connection::Star,
-        skew_slots: 0.0,
-        core: Default::default(),
-        supply: Default::default(),
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(Topology::Rotary, z, poles, 1)
     };
     single_layer(&spec, false).is_ok()
 }
