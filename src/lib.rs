@@ -1,7 +1,8 @@
 //! beltwright: plan and check polyphase windings.
 //!
 //! Pipeline: layout file (TOML) → [`layout::Spec`] → [`winding::Winding`] → analyses
-//! ([`factors`], [`linear`]) → presenters ([`output`]). Analyses are pure functions of the
+//! ([`factors`], [`field`], [`leakage`], [`audit`], [`rewind`], [`pitch`], [`survey`],
+//! [`linear`], [`plan`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.
 
 pub mod audit;
