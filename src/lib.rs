@@ -4,6 +4,7 @@
 //! ([`factors`], [`linear`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.
 
+pub mod draw;
 pub mod factors;
 pub mod layout;
 pub mod linear;
