@@ -8,6 +8,8 @@
 //! numbers. Large cores wrap onto several rows; the slot pitch on paper is capped so small
 //! cores are not blown up.
 
+use std::f64::consts::PI;
+
 use num_complex::Complex64;
 use svg::node::element::path::Data;
 use svg::node::element::{ClipPath, Definitions, Group, Line, Path, Polygon, Rectangle};
@@ -288,16 +290,33 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
 }
 
 /// True when the field travels towards higher slot numbers with the phases supplied in
-/// label order; `None` when the phases are not balanced. With EMF ∝ e^{−jθ}, phase 2 lagging
-/// phase 1 means its coils lie further along, so the field moves forward.
+/// label order, false when it travels the other way; `None` when the phase EMFs are not an
+/// equal, evenly spaced set. With EMF ∝ e^{−jθ}, phase 2 lagging phase 1 means its coils lie
+/// further along, so the field moves forward.
 fn field_direction(w: &Winding) -> Option<bool> {
-    if w.geometry.phases < 2 || !w.is_balanced() {
+    let m = w.geometry.phases;
+    if m < 2 {
         return None;
     }
-    let e0 = w.phase_emf(0, 1.0);
-    let e1 = w.phase_emf(1, 1.0);
-    let rel: Complex64 = e1 * e0.conj();
-    Some(rel.im < 0.0)
+    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, 1.0)).collect();
+    let size = e[0].norm();
+    if size < 1e-12 {
+        return None;
+    }
+    let tol = 1e-6 * size;
+    let spaced = |sign: f64| {
+        (0..m).all(|k| {
+            let ideal = e[0] * Complex64::from_polar(1.0, sign * 2.0 * PI * k as f64 / m as f64);
+            (e[k] - ideal).norm() <= tol
+        })
+    };
+    if spaced(-1.0) {
+        Some(true)
+    } else if spaced(1.0) {
+        Some(false)
+    } else {
+        None
+    }
 }
 
 fn phase_line(pal: &Palette, k: usize, x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {
@@ -356,6 +375,8 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid, width: f64) -> Group {
             );
             slots_g = slots_g.add(
                 Rectangle::new()
+                    .set("class", "slot")
+                    .set("data-slot", k + 1)
                     .set("x", r(cx - 0.45 * p))
                     .set("y", r(slot_top))
                     .set("width", r(0.9 * p))
