@@ -7,7 +7,10 @@
 pub mod draw;
 pub mod factors;
 pub mod layout;
+pub mod leakage;
 pub mod linear;
 pub mod output;
+pub mod pitch;
 pub mod plan;
+pub mod survey;
 pub mod winding;

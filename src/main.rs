@@ -1,25 +1,32 @@
 //! beltwright command line: parse arguments, read files, call the library, write output.
 //! Everything else lives in the library; this file is the only one that touches the disk.
 
+use std::io::{IsTerminal, Write};
+use std::ops::RangeInclusive;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 use clap::{Args, Parser, Subcommand};
+use indicatif::ProgressBar;
 
 use beltwright::draw::{self, FileKind, Orientation, Page, PaperSize, Sheet};
 use beltwright::factors;
 use beltwright::layout;
 use beltwright::linear::Operating;
-use beltwright::output::{Format, Report, render};
+use beltwright::output::{Format, Report, pitch_chart, render};
+use beltwright::pitch::{self, PitchGoal};
 use beltwright::plan;
-use beltwright::winding::{self, Winding};
+use beltwright::survey::{self, SortKey, SurveyQuery};
+use beltwright::winding::{self, Topology, Winding};
 
 const EXAMPLES: &str = "\
 Examples:
   beltwright plan layouts/pallet-shuttle.toml
   beltwright plan layouts/pump-rewind.toml --format json
   beltwright plan layouts/pallet-shuttle.toml --slip 0.08 --airgap-power-w 1500
-  beltwright factors layouts/fan-stator.toml --upto 31 --format csv
+  beltwright factors layouts/fan-concentric.toml --upto 31 --format csv
+  beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
+  beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright draw layouts/pallet-shuttle.toml --sheet slots -o shuttle-slots.pdf
   beltwright draw layouts/pump-rewind.toml --sheet connections --page a3 -o pump.svg
   beltwright plan layouts/pump-rewind.toml --out pump-pack
@@ -43,6 +50,12 @@ enum Command {
     /// Distribution, pitch, skew and winding factors per harmonic order.
     #[command(after_help = EXAMPLES)]
     Factors(FactorsArgs),
+    /// Compare every feasible coil span and recommend one.
+    #[command(after_help = EXAMPLES)]
+    Pitch(PitchArgs),
+    /// Survey slot/pole combinations: feasibility, best span, k_w1, leakage and more.
+    #[command(after_help = EXAMPLES)]
+    Survey(SurveyArgs),
     /// Draw a shop-floor sheet as SVG, PDF or PNG (format from the output file's extension).
     #[command(after_help = EXAMPLES)]
     Draw(DrawArgs),
@@ -101,6 +114,78 @@ struct FactorsArgs {
     /// Highest electrical order listed.
     #[arg(long, default_value_t = 25.0)]
     upto: f64,
+}
+
+#[derive(Args)]
+struct PitchArgs {
+    #[command(flatten)]
+    common: Common,
+    /// Harmonic orders to suppress, comma-separated.
+    #[arg(long, value_delimiter = ',', default_values_t = [5.0, 7.0, 11.0, 13.0])]
+    suppress: Vec<f64>,
+    /// Lowest acceptable fundamental winding factor k_w1.
+    #[arg(long = "min-fundamental", default_value_t = 0.9)]
+    min_fundamental: f64,
+    /// Also draw factor against span as an SVG chart to this file.
+    #[arg(long)]
+    svg: Option<PathBuf>,
+}
+
+#[derive(Args)]
+struct SurveyArgs {
+    /// Slot counts, e.g. 12..=48 (or a single count).
+    #[arg(long, value_parser = parse_range)]
+    slots: RangeInclusive<usize>,
+    /// Pole counts, e.g. 2..=16 (rotary: odd counts are skipped).
+    #[arg(long, value_parser = parse_range)]
+    poles: RangeInclusive<usize>,
+    /// Layer counts to try, comma-separated.
+    #[arg(long, value_delimiter = ',', default_values_t = [2usize])]
+    layers: Vec<usize>,
+    /// Phase count (odd, 3 or more).
+    #[arg(long, default_value_t = 3)]
+    phases: usize,
+    /// Closed rotary core or flat linear primary.
+    #[arg(long, value_enum, default_value_t = TopologyArg::Rotary)]
+    topology: TopologyArg,
+    /// Keep only combinations with k_w1 at least this.
+    #[arg(long = "min-kw")]
+    min_kw: Option<f64>,
+    /// Keep only feasible combinations.
+    #[arg(long)]
+    feasible: bool,
+    /// Sort order.
+    #[arg(long, value_enum, default_value_t = SortKey::Slots)]
+    sort: SortKey,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Text)]
+    format: Format,
+}
+
+#[derive(Clone, Copy, clap::ValueEnum)]
+enum TopologyArg {
+    Rotary,
+    Linear,
+}
+
+/// `A..=B`, `A..B` or a single number.
+fn parse_range(s: &str) -> Result<RangeInclusive<usize>, String> {
+    let bad = || format!("{s:?} is not a range; write A..=B (e.g. 12..=48) or one number");
+    let num = |t: &str| t.trim().parse::<usize>().map_err(|_| bad());
+    let (a, b) = if let Some((a, b)) = s.split_once("..=") {
+        (num(a)?, num(b)?)
+    } else if let Some((a, b)) = s.split_once("..") {
+        (num(a)?, num(b)?.checked_sub(1).ok_or_else(bad)?)
+    } else {
+        let n = num(s)?;
+        (n, n)
+    };
+    if a > b {
+        return Err(format!(
+            "{s:?} is empty; the first number must not exceed the last"
+        ));
+    }
+    Ok(a..=b)
 }
 
 /// A failure at the edge: what to print, and the exit status.
@@ -199,7 +284,122 @@ fn run(cli: Cli) -> Result<String, Failure> {
             let w = load(&a.common.file)?;
             present(&factors::factor_table(&w, a.upto), a.common.format)
         }
+        Command::Pitch(a) => pitch(a),
+        Command::Survey(a) => survey(a),
     }
+}
+
+fn pitch(a: PitchArgs) -> Result<String, Failure> {
+    if !(0.0..=1.0).contains(&a.min_fundamental) {
+        return Err(Failure::input(format!(
+            "--min-fundamental {} is not valid; give a winding factor from 0 to 1",
+            a.min_fundamental
+        )));
+    }
+    if let Some(o) = a
+        .suppress
+        .iter()
+        .find(|o| !(o.is_finite() && **o > 0.0 && **o <= 10_000.0))
+    {
+        return Err(Failure::input(format!(
+            "--suppress {o} is not valid; give harmonic orders above 0, e.g. 5,7"
+        )));
+    }
+    let w = load(&a.common.file)?;
+    let goal = PitchGoal {
+        suppress: a.suppress,
+        min_fundamental: a.min_fundamental,
+    };
+    let report = pitch::compare(&w, &goal);
+    if let Some(path) = &a.svg {
+        write_atomic(path, &a.common.file, pitch_chart(&report).as_bytes())?;
+    }
+    present(&report, a.common.format)
+}
+
+fn survey(a: SurveyArgs) -> Result<String, Failure> {
+    let (lo, hi) = (*a.slots.start(), *a.slots.end());
+    if lo < 3 || hi > layout::MAX_SLOTS {
+        return Err(Failure::input(format!(
+            "--slots {lo}..={hi} is not valid; slot counts run from 3 to {}",
+            layout::MAX_SLOTS
+        )));
+    }
+    let (plo, phi) = (*a.poles.start(), *a.poles.end());
+    if plo < 1 || phi > layout::MAX_POLES {
+        return Err(Failure::input(format!(
+            "--poles {plo}..={phi} is not valid; pole counts run from 1 to {}",
+            layout::MAX_POLES
+        )));
+    }
+    if let Some(l) = a.layers.iter().find(|l| !(1..=2).contains(*l)) {
+        return Err(Failure::input(format!(
+            "--layers {l} is not valid; give 1, 2 or 1,2"
+        )));
+    }
+    if a.phases < 3 || a.phases.is_multiple_of(2) || a.phases > layout::MAX_PHASES {
+        return Err(Failure::input(format!(
+            "--phases {} is not valid; give an odd phase count from 3 to {}",
+            a.phases,
+            layout::MAX_PHASES
+        )));
+    }
+    let combos = (hi - lo + 1) * (phi - plo + 1) * a.layers.len();
+    if combos > 2_000_000 {
+        return Err(Failure::input(format!(
+            "{combos} combinations is too many for one survey; narrow --slots or --poles"
+        )));
+    }
+    let query = SurveyQuery {
+        slots: a.slots,
+        poles: a.poles,
+        layers: a.layers,
+        phases: a.phases,
+        topology: match a.topology {
+            TopologyArg::Rotary => Topology::Rotary,
+            TopologyArg::Linear => Topology::Linear,
+        },
+    };
+    let n = survey::combinations(&query).len() as u64;
+    let bar = if std::io::stderr().is_terminal() && n > 2_000 {
+        ProgressBar::new(n)
+    } else {
+        ProgressBar::hidden()
+    };
+    let mut report = survey::survey(&query, &|| bar.inc(1));
+    bar.finish_and_clear();
+    survey::filter_and_sort(&mut report, a.min_kw, a.feasible, a.sort);
+    present(&report, a.format)
+}
+
+/// Write `bytes` to `path` through a temporary file in the same folder and a rename, so a
+/// reader never sees half a file; refuse to write over the layout being read.
+fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> {
+    let name = path.display().to_string();
+    if let (Ok(a), Ok(b)) = (path.canonicalize(), input.canonicalize())
+        && a == b
+    {
+        return Err(Failure::input(format!(
+            "{name}: refusing to write over the layout file being read"
+        )));
+    }
+    let dir = match path.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
+        _ => PathBuf::from("."),
+    };
+    let fail = |e: std::io::Error| Failure::input(format!("{name}: cannot write: {e}"));
+    let mut tmp = tempfile::NamedTempFile::new_in(&dir).map_err(fail)?;
+    tmp.write_all(bytes).map_err(fail)?;
+    // Temporary files are private (0600); an output file is an ordinary one.
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::PermissionsExt;
+        tmp.as_file()
+            .set_permissions(std::fs::Permissions::from_mode(0o644))
+            .map_err(fail)?;
+    }
+    tmp.persist(path).map_err(|e| fail(e.error))?;
+    Ok(())
 }
 
 fn present<R: Report>(report: &R, format: Format) -> Result<String, Failure> {
@@ -256,11 +456,8 @@ fn write_sheet(
             v
         }
     };
-    for (name, _) in &files {
-        refuse_input(name, input)?;
-    }
     for (name, bytes) in &files {
-        write_atomic(name, bytes)?;
+        write_atomic(name, input, bytes)?;
     }
     Ok(files.into_iter().map(|(n, _)| n).collect())
 }
@@ -298,46 +495,7 @@ fn write_pack(
         status: 1,
     })?;
     let path = dir.join(format!("{stem}-plan.json"));
-    refuse_input(&path, input)?;
-    write_atomic(&path, json.as_bytes())?;
+    write_atomic(&path, input, json.as_bytes())?;
     eprintln!("wrote {}", path.display());
-    Ok(())
-}
-
-/// Refuse to write over the layout file being read.
-fn refuse_input(out: &Path, input: &Path) -> Result<(), Failure> {
-    let same = match (std::fs::canonicalize(out), std::fs::canonicalize(input)) {
-        (Ok(a), Ok(b)) => a == b,
-        _ => false,
-    };
-    if same {
-        return Err(Failure::input(format!(
-            "{}: this is the layout file being read; choose another output name",
-            out.display()
-        )));
-    }
-    Ok(())
-}
-
-/// Write `bytes` to `path` through a temporary file in the same folder and a rename, so a
-/// reader never sees half a file.
-fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), Failure> {
-    use std::io::Write;
-    let fail = |e: std::io::Error| Failure::input(format!("{}: cannot write: {e}", path.display()));
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
-        _ => PathBuf::from("."),
-    };
-    let mut tmp = tempfile::NamedTempFile::new_in(&dir).map_err(fail)?;
-    tmp.write_all(bytes).map_err(fail)?;
-    // Temporary files are private (0600); a drawing is an ordinary file.
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::PermissionsExt;
-        tmp.as_file()
-            .set_permissions(std::fs::Permissions::from_mode(0o644))
-            .map_err(fail)?;
-    }
-    tmp.persist(path).map_err(|e| fail(e.error))?;
     Ok(())
 }

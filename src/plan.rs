@@ -143,24 +143,26 @@ fn layer_name(layers: usize, l: usize) -> &'static str {
     }
 }
 
-/// Phase EMF phasors at electrical order `order`.
+/// Phase EMF phasors at electrical order `order`, angles relative to the first phase.
 pub fn phasors(w: &Winding, order: f64) -> Vec<PhasorRow> {
-    (0..w.geometry.phases)
-        .map(|k| {
-            let e = w.phase_emf(k, order);
-            PhasorRow {
-                phase: w.label(k).to_string(),
-                magnitude: e.norm(),
-                angle_deg: tidy_angle(e.arg().to_degrees()),
-            }
+    let e: Vec<_> = (0..w.geometry.phases)
+        .map(|k| w.phase_emf(k, order))
+        .collect();
+    let reference = e.first().map(|r| r.arg()).unwrap_or(0.0);
+    e.iter()
+        .enumerate()
+        .map(|(k, e)| PhasorRow {
+            phase: w.label(k).to_string(),
+            magnitude: e.norm(),
+            angle_deg: tidy_angle((e.arg() - reference).to_degrees()),
         })
         .collect()
 }
 
 /// Angle in (−180, 180], with −0 and rounding dust removed.
 fn tidy_angle(a: f64) -> f64 {
-    let r = (a * 1e9).round() / 1e9;
-    if r <= -180.0 { r + 360.0 } else { r + 0.0 }
+    let r = ((a * 1e9).round() / 1e9).rem_euclid(360.0);
+    if r > 180.0 { r - 360.0 } else { r + 0.0 }
 }
 
 /// Build the plan report of a winding at an operating point.

@@ -179,13 +179,26 @@ pub fn parse(source: &str, file: &str) -> Result<Spec, LayoutError> {
     raw.validate(source, file)
 }
 
-/// The parser's message, reduced to one readable line with the line number in front.
+/// The parser's message, reduced to one readable line with the line and key in front.
 fn syntax_message(source: &str, e: &toml::de::Error) -> String {
-    let what = e.message().trim().to_string();
+    let what = e
+        .message()
+        .trim()
+        .replace("expected i64", "expected a whole number")
+        .replace("expected f64", "expected a number");
     match e.span() {
         Some(span) => {
             let line = line_of_offset(source, span.start);
-            format!("line {line}: {what}")
+            let key = source
+                .lines()
+                .nth(line - 1)
+                .and_then(|l| l.split_once('='))
+                .map(|(k, _)| k.trim())
+                .filter(|k| !k.is_empty() && !k.starts_with('['));
+            match key {
+                Some(k) => format!("line {line}, key `{k}`: {what}"),
+                None => format!("line {line}: {what}"),
+            }
         }
         None => what,
     }

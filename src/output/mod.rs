@@ -1,14 +1,17 @@
 //! Presenters: turn analysis reports into text tables, JSON or CSV. Analyses never print;
 //! a new format never touches an analysis (one exporter per format behind [`Exporter`]).
 
+mod choose_report;
 mod csv;
 mod json;
-mod reports;
+mod pitch_svg;
+pub(crate) mod reports;
 mod table;
 mod text;
 
 pub use csv::Csv;
 pub use json::Json;
+pub use pitch_svg::pitch_chart;
 pub use table::{Align, Table};
 pub use text::Text;
 

@@ -66,16 +66,17 @@ impl Report for PlanReport {
         };
         let mut head = vec![
             format!(
-                "{kind}, {} slots, {} poles, {} phases; {layers} {style}, span {} (pole pitch {} slots)",
-                self.slots,
-                self.poles,
-                self.phases,
-                self.pitch,
-                num(self.pole_pitch_slots, 3)
+                "{kind}: {} slots, {} poles, {} phases",
+                self.slots, self.poles, self.phases
             ),
             format!(
-                "q = {}, {} turns per coil, {} path(s), {} connection{}",
-                self.slots_per_pole_phase_fraction,
+                "{layers} {style}, span {}, pole pitch {} slots, q = {}",
+                self.pitch,
+                num(self.pole_pitch_slots, 3),
+                self.slots_per_pole_phase_fraction
+            ),
+            format!(
+                "{} turns per coil, {} path(s), {} connection{}",
                 self.turns_per_coil,
                 self.parallel_paths,
                 self.connection,

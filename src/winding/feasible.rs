@@ -30,7 +30,10 @@ pub fn nearby_rotary_slot_counts(
     let below = (1..=reach)
         .filter_map(|d| slots.checked_sub(d))
         .find(|&z| z >= 3 && ok(z));
-    let above = (1..=reach).map(|d| slots + d).find(|&z| ok(z));
+    let above = (1..=reach)
+        .map(|d| slots + d)
+        .take_while(|&z| z <= crate::layout::MAX_SLOTS)
+        .find(|&z| ok(z));
     (below, above)
 }
 

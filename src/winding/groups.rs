@@ -81,17 +81,15 @@ fn split_phase(w: &Winding, groups: &[&CoilGroup], a: usize) -> Option<Vec<usize
     let target = total / a as f64;
     let tol = PHASOR_TOL * total.norm().max(1.0) * 10.0;
     let balanced = |assign: &[usize]| {
-        (0..a).all(|p| {
-            let e: Complex64 = (0..groups.len())
-                .filter(|&g| assign[g] == p)
-                .map(|g| emfs[g])
-                .sum();
-            let n: u64 = (0..groups.len())
-                .filter(|&g| assign[g] == p)
-                .map(|g| turns[g])
-                .sum();
-            (e - target).norm() <= tol && n * a as u64 == total_turns
-        })
+        let mut e = vec![Complex64::new(0.0, 0.0); a];
+        let mut n = vec![0u64; a];
+        for (g, &p) in assign.iter().enumerate() {
+            e[p] += emfs[g];
+            n[p] += turns[g];
+        }
+        e.iter()
+            .zip(&n)
+            .all(|(e, &n)| (e - target).norm() <= tol && n * a as u64 == total_turns)
     };
     // Runs of consecutive groups: cut where the running sum reaches k·target.
     let mut assign = Vec::with_capacity(groups.len());

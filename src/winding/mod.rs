@@ -12,7 +12,7 @@ use thiserror::Error;
 pub use crate::layout::{Connection, Core, Style, Supply, Topology};
 pub use feasible::{double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity};
 pub use groups::{CoilGroup, assign_paths, coil_groups, possible_path_counts};
-pub use synth::build;
+pub use synth::{build, single_layer_rotary_feasible, with_span};
 
 /// Why a spec could not become a winding.
 #[derive(Debug, Error, Clone, PartialEq)]
@@ -207,7 +207,8 @@ pub const PHASOR_TOL: f64 = 1e-9;
 
 impl Winding {
     /// Signed span of a coil in slot pitches: positive when current enters at the left side
-    /// (the side from which the coil reaches forward), negative for a coil reversed.
+    /// (the side from which the coil reaches forward), negative for a coil reversed. A span
+    /// of exactly half a closed core is forward when its go side is in the top layer.
     pub fn span(&self, coil: &Coil) -> i64 {
         let z = self.geometry.slots as i64;
         let d = coil.back as i64 - coil.go as i64;
@@ -215,7 +216,17 @@ impl Winding {
             Topology::Linear => d,
             Topology::Rotary => {
                 let f = d.rem_euclid(z);
-                if 2 * f <= z { f } else { f - z }
+                match (2 * f).cmp(&z) {
+                    std::cmp::Ordering::Less => f,
+                    std::cmp::Ordering::Greater => f - z,
+                    // Half the core either way: a lap coil's left side lies in the top layer.
+                    std::cmp::Ordering::Equal
+                        if self.geometry.layers == 2 && coil.go_layer == 1 =>
+                    {
+                        -f
+                    }
+                    std::cmp::Ordering::Equal => f,
+                }
             }
         }
     }
@@ -250,6 +261,17 @@ impl Winding {
         s / self.parallel_paths as f64
     }
 
+    /// EMF phasors of every phase at `order` in one pass over the coils (see `phase_emf`).
+    pub fn phase_emfs(&self, order: f64) -> Vec<Complex64> {
+        let mut e = vec![Complex64::new(0.0, 0.0); self.geometry.phases];
+        for c in &self.coils {
+            e[c.phase] += self.coil_emf(c, order);
+        }
+        let a = self.parallel_paths as f64;
+        e.iter_mut().for_each(|x| *x /= a);
+        e
+    }
+
     /// Series turns per phase N_ph (all coils of the phase over the parallel paths).
     pub fn series_turns(&self, phase: usize) -> f64 {
         let n: u64 = self
@@ -265,7 +287,7 @@ impl Winding {
     /// follow each other by 2π/m in sequence order (positive sequence).
     pub fn is_balanced(&self) -> bool {
         let m = self.geometry.phases;
-        let e: Vec<Complex64> = (0..m).map(|k| self.phase_emf(k, 1.0)).collect();
+        let e = self.phase_emfs(1.0);
         let r = e[0].norm();
         if r < 1e-12 {
             return false;

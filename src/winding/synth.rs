@@ -74,7 +74,7 @@ fn synthesize(spec: &Spec) -> Result<Winding, PlanError> {
     match (spec.topology, spec.layers) {
         (Topology::Rotary, 2) => rotary_double(spec),
         (Topology::Linear, 2) => linear_double(spec),
-        (_, _) => single_layer(spec),
+        (_, _) => single_layer(spec, true),
     }
 }
 
@@ -114,6 +114,13 @@ fn rotary_double(spec: &Spec) -> Result<Winding, PlanError> {
         Some(y) => check_rotary_span(z, y)?,
         None => nearest_full_pitch(geom.pole_pitch_slots),
     };
+    if (y * poles / 2) % z == 0 {
+        return Err(PlanError::Infeasible(format!(
+            "span {y} spans a whole number of pole pairs, so its coils link no working flux; \
+             choose a span near the pole pitch of {} slots",
+            crate::output::num(geom.pole_pitch_slots, 3)
+        )));
+    }
     let coils = double_layer_coils(&geom, z, y, spec.turns_per_coil);
     let w = blank_winding(spec, geom, y, coils);
     ensure_balanced(w, || rotary_refusal(z, poles, m, 2))
@@ -164,7 +171,7 @@ fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
     let mut msg = format!(
         "{z} slots cannot carry a balanced {m}-phase {kind} winding for {poles} poles{why}"
     );
-    match nearby_rotary_slot_counts(z, 4 * m * poles.max(2), ok) {
+    match nearby_rotary_slot_counts(z, (4 * m * poles.max(2)).min(240), ok) {
         (Some(lo), Some(hi)) => msg += &format!("; {lo} or {hi} slots can"),
         (Some(s), None) | (None, Some(s)) => msg += &format!("; {s} slots can"),
         (None, None) => {}
@@ -196,7 +203,7 @@ pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
         coils: Vec::new(),
         colours: None,
     };
-    single_layer(&spec).is_ok()
+    single_layer(&spec, false).is_ok()
 }
 
 /// Linear double layer: N = Z − y coils, y half-filled slots at each end.
@@ -212,15 +219,21 @@ fn linear_double(spec: &Spec) -> Result<Winding, PlanError> {
     match spec.pitch {
         Some(y) => attempt(y).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, y))),
         None => {
-            // Span closest to the pole pitch it produces, τ = (Z − y)/2p, among balanced ones.
-            let mut spans: Vec<usize> = (1..z).collect();
+            // The balanced span closest to the pole pitch it produces, τ = (Z − y)/2p; a span
+            // more than a third of a pole pitch away from full pitch is no default.
+            let tau = |y: usize| (z - y) as f64 / poles as f64;
+            let mut spans: Vec<usize> = (1..z).filter(|&y| z - y >= m).collect();
             spans.sort_by(|&a, &b| {
-                let da = (a as f64 - (z - a) as f64 / poles as f64).abs();
-                let db = (b as f64 - (z - b) as f64 / poles as f64).abs();
+                let da = (a as f64 - tau(a)).abs() / tau(a);
+                let db = (b as f64 - tau(b)).abs() / tau(b);
                 da.total_cmp(&db).then(a.cmp(&b))
             });
-            let best = spans[0];
-            attempt(best).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, best)))
+            let nearest = spans.first().copied().unwrap_or(1);
+            spans
+                .into_iter()
+                .take_while(|&y| (y as f64 - tau(y)).abs() <= tau(y) / 3.0)
+                .find_map(attempt)
+                .ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, nearest)))
         }
     }
 }
@@ -250,14 +263,16 @@ fn linear_refusal(spec: &Spec, y: usize) -> String {
 }
 
 /// Single-layer windings: tooth coils on every other tooth (span 1), or lap/concentric coils
-/// pairing the positive and negative belt slots of each phase.
-fn single_layer(spec: &Spec) -> Result<Winding, PlanError> {
+/// pairing the positive and negative belt slots of each phase. `explain` builds refusal
+/// texts (which search nearby slot counts); feasibility probes pass `false`.
+fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
     let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
     let geom = match spec.topology {
         Topology::Rotary => Geometry::rotary(z, poles, m, 1, spec.core),
         Topology::Linear => Geometry::linear(z, z, poles, m, 1, spec.core),
     };
     let refuse = || match spec.topology {
+        _ if !explain => String::new(),
         Topology::Rotary => rotary_refusal(z, poles, m, 1),
         Topology::Linear => format!(
             "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles \
@@ -381,14 +396,6 @@ fn tooth_coils(geom: &Geometry, turns: u32) -> Option<Vec<Coil>> {
     )
 }
 
-/// Forward distance from slot a to slot b.
-fn forward(geom: &Geometry, a: usize, b: usize) -> Option<usize> {
-    match geom.topology {
-        Topology::Rotary => Some((b + geom.slots - a) % geom.slots),
-        Topology::Linear => b.checked_sub(a),
-    }
-}
-
 /// Pair every positive slot with a negative slot at distance exactly `y` either way
 /// (bipartite matching by augmenting paths; each slot has at most two partners).
 fn pair_at_span(
@@ -397,39 +404,72 @@ fn pair_at_span(
     minus: &[usize],
     y: usize,
 ) -> Option<Vec<(usize, usize)>> {
+    // Index of every negative slot, so each positive slot finds its partners at once.
+    let mut at: Vec<Option<usize>> = vec![None; geom.slots];
+    for (j, &t) in minus.iter().enumerate() {
+        at[t] = Some(j);
+    }
+    let z = geom.slots;
     let partners: Vec<Vec<usize>> = plus
         .iter()
         .map(|&s| {
-            minus
-                .iter()
-                .enumerate()
-                .filter(|&(_, &t)| forward(geom, s, t) == Some(y) || forward(geom, t, s) == Some(y))
-                .map(|(j, _)| j)
-                .collect()
+            let ahead = match geom.topology {
+                Topology::Rotary => Some((s + y) % z),
+                Topology::Linear => Some(s + y).filter(|&t| t < z),
+            };
+            let behind = match geom.topology {
+                Topology::Rotary => Some((s + z - y % z) % z),
+                Topology::Linear => s.checked_sub(y),
+            };
+            let mut p: Vec<usize> = [ahead, behind]
+                .into_iter()
+                .flatten()
+                .filter_map(|t| at[t])
+                .collect();
+            p.dedup();
+            p
         })
         .collect();
     let mut owner: Vec<Option<usize>> = vec![None; minus.len()];
-    fn augment(
-        i: usize,
-        partners: &[Vec<usize>],
-        owner: &mut [Option<usize>],
-        seen: &mut [bool],
-    ) -> bool {
-        for &j in &partners[i] {
-            if !seen[j] {
-                seen[j] = true;
-                if owner[j].is_none_or(|o| augment(o, partners, owner, seen)) {
-                    owner[j] = Some(i);
-                    return true;
+    let mut mate: Vec<Option<usize>> = vec![None; plus.len()];
+    let mut via = vec![0usize; minus.len()];
+    let mut seen = vec![false; minus.len()];
+    let mut stack: Vec<(usize, usize)> = Vec::new();
+    for first in 0..plus.len() {
+        seen.iter_mut().for_each(|x| *x = false);
+        stack.clear();
+        stack.push((first, 0));
+        let mut found = None;
+        // Depth-first search for an augmenting path, iteratively (long belts are deep).
+        while let Some(&mut (i, ref mut k)) = stack.last_mut() {
+            let Some(&j) = partners[i].get(*k) else {
+                stack.pop();
+                continue;
+            };
+            *k += 1;
+            if seen[j] {
+                continue;
+            }
+            seen[j] = true;
+            via[j] = i;
+            match owner[j] {
+                None => {
+                    found = Some(j);
+                    break;
                 }
+                Some(o) => stack.push((o, 0)),
             }
         }
-        false
-    }
-    for i in 0..plus.len() {
-        let mut seen = vec![false; minus.len()];
-        if !augment(i, &partners, &mut owner, &mut seen) {
-            return None;
+        let mut j = found?;
+        loop {
+            let i = via[j];
+            let previous = mate[i];
+            owner[j] = Some(i);
+            mate[i] = Some(j);
+            match previous {
+                Some(pj) => j = pj,
+                None => break,
+            }
         }
     }
     Some(
@@ -560,4 +600,35 @@ fn take(slot: &mut [bool; 2], want: usize) -> usize {
     let l = if slot[want] { 1 - want } else { want };
     slot[l] = true;
     l
+}
+
+/// The synthesized winding of the same core and design at span `pitch` (the coils of an
+/// explicit list are replaced). A double-layer flat primary keeps its coil positions and
+/// pole pitch, so its slot count becomes N + `pitch`. Used by the span tool.
+pub fn with_span(w: &Winding, pitch: usize) -> Result<Winding, PlanError> {
+    let g = &w.geometry;
+    let slots = match (g.topology, g.layers) {
+        (Topology::Linear, 2) => (g.pole_pitch_slots * g.poles as f64).round() as usize + pitch,
+        _ => g.slots,
+    };
+    let spec = Spec {
+        title: w.title.clone(),
+        topology: g.topology,
+        slots,
+        poles: g.poles,
+        phases: g.phases,
+        phase_labels: w.phase_labels.clone(),
+        layers: g.layers,
+        pitch: Some(pitch),
+        style: w.style,
+        turns_per_coil: w.turns_per_coil,
+        parallel_paths: 1,
+        connection: w.connection,
+        skew_slots: w.skew_slots,
+        core: g.core,
+        supply: w.supply,
+        coils: Vec::new(),
+        colours: w.colours.clone(),
+    };
+    build(&spec)
 }
