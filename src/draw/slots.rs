@@ -160,7 +160,19 @@ pub fn draw(w: &Winding, page: &Page) -> String {
     let mut canvas = Canvas::new(page, &TitleBlock::of(w, "Slot layout"));
     let area = canvas.area;
     let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
-    let (grid, scale) = Grid::choose(w, area);
+    // A closed core keeps room at the right for the "→ 1" that says slot Z meets slot 1.
+    let room = if w.geometry.topology == Topology::Rotary {
+        6.0
+    } else {
+        0.0
+    };
+    let (grid, scale) = Grid::choose(
+        w,
+        Rect {
+            w: area.w - room,
+            ..area
+        },
+    );
     canvas.add(header(w, &pal, area));
     let body = Group::new()
         .set("class", "core")

@@ -87,11 +87,22 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
     let top_note = 8.0;
     let cy = b.y + top_note + (b.h - top_note) / 2.0;
     let rays = rays(w);
-    let max_label: f64 = rays
-        .iter()
-        .map(|(_, s)| text::width(&ray_label(s, w.geometry.slots), 1.8))
-        .fold(0.0, f64::max);
-    let rad = ((b.w.min(b.h - top_note)) / 2.0 - max_label.min(22.0) - 9.0).max(15.0);
+    let half = b.w.min(b.h - top_note) / 2.0;
+    // Ray numbers as large as their spacing round the circle allows (at most 3 mm), and
+    // the circle as large as leaves room for the longest of them outside it.
+    let size_at = |rad: f64| (2.0 * PI * rad / rays.len() as f64 * 0.55).clamp(1.4, 3.0);
+    let longest = |size: f64| {
+        rays.iter()
+            .map(|(_, s)| text::width(&ray_label(s, w.geometry.slots), size))
+            .fold(0.0, f64::max)
+    };
+    let mut rad = (half - 9.0).max(15.0);
+    // Long labels (many slots per ray) are kept to a quarter of the star's half-width.
+    let mut ray_size = size_at(rad).min((0.25 * half / longest(1.0).max(1e-9)).max(1.4));
+    for _ in 0..4 {
+        rad = (half - longest(ray_size) - 9.0).max(15.0);
+        ray_size = size_at(rad).min(ray_size);
+    }
     let fill = w.slot_fill();
     let mut g = Group::new().set("class", "star");
     g = g.add(label(
@@ -112,6 +123,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
             b.w,
         ),
     ));
+    let mut names = Group::new().set("class", "sector-names");
     // Phase sectors: sector s covers slot angles s·π/m .. (s+1)·π/m (the synthesis belts).
     for s in 0..2 * m {
         let (phase, positive) = if s % 2 == 0 {
@@ -141,14 +153,20 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
                         .set("fill", pal.tint(phase))
                         .set("stroke", "#999999")
                         .set("stroke-width", 0.2),
-                )
-                .add(label(
-                    lx,
-                    ly + 1.2,
-                    3.4,
-                    Anchor::Middle,
-                    &format!("{sign}{}", w.label(phase)),
-                )),
+                ),
+        );
+        // Sector names go on top of the rays, with a white halo so a ray never hides them.
+        names = names.add(
+            label(
+                lx,
+                ly + 1.2,
+                3.4,
+                Anchor::Middle,
+                &format!("{sign}{}", w.label(phase)),
+            )
+            .set("stroke", "#FFFFFF")
+            .set("stroke-width", 0.9)
+            .set("paint-order", "stroke"),
         );
     }
     g = g.add(
@@ -203,7 +221,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
                 )
                 .add(line)
                 .add(
-                    label(0.0, 0.6, 1.8, Anchor::Start, &txt)
+                    label(0.0, ray_size * 0.35, ray_size, Anchor::Start, &txt)
                         .set("text-anchor", anchor)
                         .set(
                             "transform",
@@ -212,7 +230,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
                 ),
         );
     }
-    g
+    g.add(names)
 }
 
 /// Slot numbers on one ray: all of them when few, else the first and the repeat step.
