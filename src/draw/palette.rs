@@ -74,7 +74,8 @@ mod tests {
 
     #[test]
     fn defaults_are_okabe_ito_and_overrides_win() {
-        // Okabe & Ito 2008: vermillion (213, 94, 0), blue (0, 114, 178), bluish green (0, 158, 115).
+        // Okabe & Ito 2008: vermillion (213, 94, 0), blue (0, 114, 178), bluish green (0, 158, 115)
+        // (RGB triples from memory of the published table).
         let p = Palette::new(3, None);
         assert_eq!(hex(p.stroke(0)), Some((213, 94, 0)));
         assert_eq!(hex(p.stroke(1)), Some((0, 114, 178)));
