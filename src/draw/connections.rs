@@ -143,7 +143,17 @@ pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
                 .unwrap_or(0)
         });
     let more_cols = ((probe.w / col_w).floor() as usize).max(1);
-    let first_n = (first_cols * rows_per_col).min(entries.len());
+    // On a narrow sheet the diagram takes the full width; the schedule then starts below
+    // it when there is room for a useful number of rows.
+    let diagram_h = diagram_height(w, &groups, probe.w);
+    let below_rows = ((probe.h - diagram_h - 6.0 - SCHED_HEAD - SCHED_ROW) / SCHED_ROW).floor();
+    let stacked = first_cols == 0 && diagram_h <= probe.h && below_rows >= 8.0;
+    let (first_n, first_rows) = if stacked {
+        let rows = below_rows as usize;
+        ((more_cols * rows).min(entries.len()), rows)
+    } else {
+        ((first_cols * rows_per_col).min(entries.len()), rows_per_col)
+    };
     let rest = entries.len() - first_n;
     let pages = 1 + rest.div_ceil(more_cols * rows_per_col);
     let mut out = Vec::with_capacity(pages);
@@ -161,22 +171,31 @@ pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
         } else {
             a.w - sched_w - 4.0
         },
-        h: a.h,
+        h: if stacked { diagram_h } else { a.h },
     };
     canvas.add(connection_diagram(w, &pal, &groups, diagram));
-    let sched_box = Rect {
-        x: a.right() - sched_w,
-        y: a.y,
-        w: sched_w,
-        h: a.h,
+    let sched_box = if stacked {
+        Rect {
+            x: a.x,
+            y: a.y + diagram_h + 6.0,
+            w: a.w,
+            h: a.h - diagram_h - 6.0,
+        }
+    } else {
+        Rect {
+            x: a.right() - sched_w,
+            y: a.y,
+            w: sched_w,
+            h: a.h,
+        }
     };
-    if first_cols > 0 {
+    if first_n > 0 {
         canvas.add(schedule_table(
             w,
             &cols,
             &entries[..first_n],
             sched_box,
-            rows_per_col,
+            first_rows,
             pages > 1,
         ));
     } else {
@@ -344,19 +363,24 @@ fn per_line(width: f64) -> usize {
     (((width - 2.0 * LEAD_W - 8.0 + BOX_GAP) / (BOX_W + BOX_GAP)).floor() as usize).max(1)
 }
 
-/// Scale at which the diagram fits `width` × `height` (1 when it fits at full size).
-fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
-    if width < 40.0 {
-        return 0.0;
-    }
+/// Height of the diagram drawn `width` wide at full size, mm.
+fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
     let lanes = lanes(w, groups);
     let n = per_line(width);
     let lines: usize = lanes
         .iter()
         .map(|(_, _, gs)| gs.len().div_ceil(n).max(1))
         .sum();
-    let need = BOARD_H + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 3.0 + 4.0;
-    (height / need).min(1.0)
+    let note = if w.parallel_paths > 1 { 4.0 } else { 0.0 };
+    BOARD_H + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 3.0 + 4.0 + note
+}
+
+/// Scale at which the diagram fits `width` × `height` (1 when it fits at full size).
+fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
+    if width < 40.0 {
+        return 0.0;
+    }
+    (height / diagram_height(w, groups, width)).min(1.0)
 }
 
 /// Terminal board, then one lane per phase and path with the groups in connection order.
