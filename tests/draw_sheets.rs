@@ -70,6 +70,49 @@ poles = 2
 layers = 1
 "#;
 
+/// Invented odd cases that must still draw: five phases with own labels, and a rewind
+/// record holding a single coil (unbalanced; most slots empty).
+const FIVE_PHASE: &str = r#"
+[machine]
+topology = "rotary"
+slots = 20
+poles = 2
+phases = 5
+phase_labels = ["A", "B", "C", "D", "E"]
+[winding]
+layers = 1
+"#;
+const ONE_COIL: &str = r#"
+title = "one coil found"
+[machine]
+topology = "rotary"
+slots = 12
+poles = 2
+[winding]
+layers = 2
+[[coil]]
+phase = "U"
+go = 1
+back = 6
+"#;
+
+#[test]
+fn odd_windings_draw_and_count_right() {
+    for (name, src) in [("five phases", FIVE_PHASE), ("one coil", ONE_COIL)] {
+        let w = build(src, name);
+        for sheet in SHEETS {
+            check_sheet_renders(name, &w, sheet, &Page::default());
+        }
+        check_slot_counts(name, &w);
+        check_connection_counts(name, &w);
+    }
+    // An unbalanced record gets no field arrow rather than a wrong one.
+    let w = build(ONE_COIL, "one coil");
+    let svg = &draw::draw(&w, Sheet::Slots, &Page::default())[0];
+    assert!(!svg.contains("field-arrow"));
+    assert!(svg.contains("direction unclear"));
+}
+
 fn elements<'a>(doc: &'a roxmltree::Document, class: &str) -> Vec<roxmltree::Node<'a, 'a>> {
     doc.descendants()
         .filter(|n| n.attribute("class") == Some(class))

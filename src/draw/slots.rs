@@ -185,7 +185,7 @@ pub fn draw(w: &Winding, page: &Page) -> String {
                 r(scale * 1000.0) / 1000.0
             ),
         )
-        .add(rows(w, &pal, &grid, area.w / scale));
+        .add(rows(w, &pal, &grid));
     canvas.add(body);
     canvas.finish()
 }
@@ -346,7 +346,7 @@ fn phase_line(pal: &Palette, k: usize, x1: f64, y1: f64, x2: f64, y2: f64, width
 }
 
 /// All rows of slots, coils and groups, in the body's own coordinates (origin top left).
-fn rows(w: &Winding, pal: &Palette, g: &Grid, width: f64) -> Group {
+fn rows(w: &Winding, pal: &Palette, g: &Grid) -> Group {
     let z = w.geometry.slots;
     let fill = w.slot_fill();
     let groups = coil_groups(w);
@@ -520,7 +520,6 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid, width: f64) -> Group {
             );
         }
     }
-    let _ = width;
     Group::new().add(defs).add(out)
 }
 

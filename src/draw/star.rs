@@ -93,7 +93,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
     let size_at = |rad: f64| (2.0 * PI * rad / rays.len() as f64 * 0.55).clamp(1.4, 3.0);
     let longest = |size: f64| {
         rays.iter()
-            .map(|(_, s)| text::width(&ray_label(s, w.geometry.slots), size))
+            .map(|(_, s)| text::width(&ray_label(s), size))
             .fold(0.0, f64::max)
     };
     let mut rad = (half - 9.0).max(15.0);
@@ -207,7 +207,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
         } else {
             (deg, "start")
         };
-        let txt = ray_label(slots, w.geometry.slots);
+        let txt = ray_label(slots);
         g = g.add(
             Group::new()
                 .set("class", "ray")
@@ -234,13 +234,12 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
 }
 
 /// Slot numbers on one ray: all of them when few, else the first and the repeat step.
-fn ray_label(slots: &[usize], z: usize) -> String {
+fn ray_label(slots: &[usize]) -> String {
     let nums: Vec<String> = slots.iter().map(|k| (k + 1).to_string()).collect();
     if nums.len() <= 4 {
         nums.join(", ")
     } else {
         let step = slots[1] - slots[0];
-        let _ = z;
         format!(
             "{}, {} \u{2026} {} (every {step})",
             nums[0],
@@ -280,6 +279,12 @@ fn phase_phasors(w: &Winding, pal: &Palette, b: Rect) -> Group {
             .set("stroke-width", 0.2),
     );
     for (k, p) in rows.iter().enumerate() {
+        if p.magnitude <= 1e-9 * big {
+            // A phase with no EMF (e.g. a partial rewind record) has no arrow; the table
+            // below says 0.
+            g = g.add(Group::new().set("class", "phasor").set("data-phase", k));
+            continue;
+        }
         let phi = p.angle_deg.to_radians();
         let len = rad * p.magnitude / big;
         let (x, y) = pt(cx, cy, len, phi);
