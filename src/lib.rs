@@ -1,16 +1,21 @@
 //! beltwright: plan and check polyphase windings.
 //!
 //! Pipeline: layout file (TOML) → [`layout::Spec`] → [`winding::Winding`] → analyses
-//! ([`factors`], [`linear`]) → presenters ([`output`]). Analyses are pure functions of the
+//! ([`factors`], [`field`], [`leakage`], [`audit`], [`rewind`], [`pitch`], [`survey`],
+//! [`linear`], [`plan`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.
 
+pub mod audit;
 pub mod draw;
 pub mod factors;
+pub mod field;
 pub mod layout;
 pub mod leakage;
 pub mod linear;
+pub mod numbering;
 pub mod output;
 pub mod pitch;
 pub mod plan;
+pub mod rewind;
 pub mod survey;
 pub mod winding;

@@ -9,13 +9,16 @@ use std::process::ExitCode;
 use clap::{Args, Parser, Subcommand};
 use indicatif::ProgressBar;
 
+use beltwright::audit;
 use beltwright::draw::{self, FileKind, Orientation, Page, PaperSize, Sheet};
 use beltwright::factors;
+use beltwright::field::{self, FieldOptions, Sequence};
 use beltwright::layout;
 use beltwright::linear::Operating;
 use beltwright::output::{Format, Report, pitch_chart, render};
 use beltwright::pitch::{self, PitchGoal};
 use beltwright::plan;
+use beltwright::rewind::{self, OldConductor};
 use beltwright::survey::{self, SortKey, SurveyQuery};
 use beltwright::winding::{self, Topology, Winding};
 
@@ -25,8 +28,12 @@ Examples:
   beltwright plan layouts/pump-rewind.toml --format json
   beltwright plan layouts/pallet-shuttle.toml --slip 0.08 --airgap-power-w 1500
   beltwright factors layouts/fan-concentric.toml --upto 31 --format csv
+  beltwright field layouts/pump-rewind.toml --upto 49 --svg pump-field.svg
+  beltwright field layouts/pallet-shuttle.toml --slip 0.1 --format json
   beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
+  beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
+  beltwright rewind layouts/hoist-rewind-sound.toml layouts/hoist-rewind-new.toml --wire-diameter-mm 1.12
   beltwright draw layouts/pallet-shuttle.toml --sheet slots -o shuttle-slots.pdf
   beltwright draw layouts/pump-rewind.toml --sheet connections --page a3 -o pump.svg
   beltwright plan layouts/pump-rewind.toml --out pump-pack
@@ -50,12 +57,22 @@ enum Command {
     /// Distribution, pitch, skew and winding factors per harmonic order.
     #[command(after_help = EXAMPLES)]
     Factors(FactorsArgs),
+    /// Travelling field: MMF along the gap, forward/backward spectrum, leakage, field sheet.
+    #[command(after_help = EXAMPLES)]
+    Field(FieldArgs),
     /// Compare every feasible coil span and recommend one.
     #[command(after_help = EXAMPLES)]
     Pitch(PitchArgs),
     /// Survey slot/pole combinations: feasibility, best span, k_w1, leakage and more.
     #[command(after_help = EXAMPLES)]
     Survey(SurveyArgs),
+    /// Check an as-found or as-wound coil list: balance, phase sequence, paths, slot fill,
+    /// and the coils to fix (exit status 1 when anything is wrong).
+    #[command(after_help = EXAMPLES)]
+    Audit(AuditArgs),
+    /// Turns per coil and wire size for a changed design on the same core.
+    #[command(after_help = EXAMPLES)]
+    Rewind(RewindArgs),
     /// Draw a shop-floor sheet as SVG, PDF or PNG (format from the output file's extension).
     #[command(after_help = EXAMPLES)]
     Draw(DrawArgs),
@@ -114,6 +131,66 @@ struct FactorsArgs {
     /// Highest electrical order listed.
     #[arg(long, default_value_t = 25.0)]
     upto: f64,
+}
+
+#[derive(Args)]
+struct AuditArgs {
+    #[command(flatten)]
+    common: Common,
+    /// The intended design (layout file) to compare with slot by slot.
+    #[arg(long)]
+    intended: Option<PathBuf>,
+}
+
+#[derive(Args)]
+struct RewindArgs {
+    /// Old design (layout file with its turns per coil and supply).
+    from: PathBuf,
+    /// New design (layout file: changed span, layers, connection, paths, voltage or frequency).
+    to: PathBuf,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Text)]
+    format: Format,
+    /// Bare copper diameter of one old wire, in mm (as measured with a micrometer).
+    #[arg(long = "wire-diameter-mm", conflicts_with = "conductor_mm2")]
+    wire_diameter_mm: Option<f64>,
+    /// Bare copper cross-section of one old wire, in mm².
+    #[arg(long = "conductor-mm2")]
+    conductor_mm2: Option<f64>,
+    /// Wires in hand (wound in parallel as one conductor) in the old winding.
+    #[arg(long = "wires-in-hand", default_value_t = 1)]
+    wires_in_hand: u32,
+}
+
+#[derive(Args)]
+struct FieldArgs {
+    #[command(flatten)]
+    common: Common,
+    /// Highest electrical order listed.
+    #[arg(long, default_value_t = 25.0)]
+    upto: f64,
+    /// Instant of the MMF snapshot, electrical degrees (omega*t).
+    #[arg(long = "at-deg", default_value_t = 0.0, allow_negative_numbers = true)]
+    at_deg: f64,
+    /// Balanced phase currents in this sequence.
+    #[arg(long, value_enum, default_value_t = Sequence::Positive, conflicts_with = "currents")]
+    sequence: Sequence,
+    /// Phase-current phasors, one per phase: "magnitude@angle_deg,..." e.g. "1@0,1@-120,1@120".
+    #[arg(long)]
+    currents: Option<String>,
+    /// Slot-opening width in slot pitches (0 to below 1); current spread evenly across it.
+    #[arg(
+        long = "slot-opening",
+        default_value_t = 0.0,
+        allow_negative_numbers = true
+    )]
+    slot_opening: f64,
+    /// Slip of the secondary for its speed (0 to 1).
+    #[arg(long, allow_negative_numbers = true)]
+    slip: Option<f64>,
+    /// Also write the field sheet (SVG) to this file.
+    #[arg(long)]
+    svg: Option<PathBuf>,
 }
 
 #[derive(Args)]
@@ -192,6 +269,8 @@ fn parse_range(s: &str) -> Result<RangeInclusive<usize>, String> {
 struct Failure {
     message: String,
     status: u8,
+    /// A report still printed on stdout (an audit that found faults).
+    report: Option<String>,
 }
 
 impl Failure {
@@ -199,6 +278,7 @@ impl Failure {
         Failure {
             message: message.into(),
             status: 2,
+            report: None,
         }
     }
 }
@@ -211,6 +291,9 @@ fn main() -> ExitCode {
             ExitCode::SUCCESS
         }
         Err(f) => {
+            if let Some(out) = &f.report {
+                print!("{out}");
+            }
             eprintln!("beltwright: {}", f.message);
             ExitCode::from(f.status)
         }
@@ -284,9 +367,147 @@ fn run(cli: Cli) -> Result<String, Failure> {
             let w = load(&a.common.file)?;
             present(&factors::factor_table(&w, a.upto), a.common.format)
         }
+        Command::Field(a) => run_field(a),
         Command::Pitch(a) => pitch(a),
         Command::Survey(a) => survey(a),
+        Command::Audit(a) => run_audit(a),
+        Command::Rewind(a) => run_rewind(a),
     }
+}
+
+fn run_audit(a: AuditArgs) -> Result<String, Failure> {
+    let (spec, name) = read_spec(&a.common.file)?;
+    let w = winding::build_lenient(&spec).map_err(|e| Failure::input(format!("{name}: {e}")))?;
+    let design = match &a.intended {
+        Some(p) => {
+            let d = load(p)?;
+            if d.geometry.slots != w.geometry.slots {
+                return Err(Failure::input(format!(
+                    "--intended {}: the design has {} slots but the record {} has {}; compare \
+                     designs of the same core",
+                    p.display(),
+                    d.geometry.slots,
+                    name,
+                    w.geometry.slots
+                )));
+            }
+            Some(d)
+        }
+        None => None,
+    };
+    let report = audit::audit(&w, design.as_ref());
+    let out = present(&report, a.common.format)?;
+    if report.sound {
+        Ok(out)
+    } else {
+        Err(Failure {
+            message: format!(
+                "{name}: the audit found {} problem(s); see the findings",
+                report.findings.len()
+            ),
+            status: 1,
+            report: Some(out),
+        })
+    }
+}
+
+fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
+    let check = |flag: &str, v: f64| {
+        if v.is_finite() && v > 0.0 && v < 1000.0 {
+            Ok(v)
+        } else {
+            Err(Failure::input(format!(
+                "{flag} {v} is not valid; give a positive size below 1000"
+            )))
+        }
+    };
+    let conductor = match (a.wire_diameter_mm, a.conductor_mm2) {
+        (Some(d), _) => Some(OldConductor::DiameterMm(check("--wire-diameter-mm", d)?)),
+        (None, Some(x)) => Some(OldConductor::AreaMm2(check("--conductor-mm2", x)?)),
+        (None, None) => None,
+    };
+    if !(1..=100).contains(&a.wires_in_hand) {
+        return Err(Failure::input(format!(
+            "--wires-in-hand {} is not valid; give 1 to 100",
+            a.wires_in_hand
+        )));
+    }
+    let old = load(&a.from)?;
+    let new = load(&a.to)?;
+    let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand)
+        .map_err(|e| Failure::input(format!("{} -> {}: {e}", a.from.display(), a.to.display())))?;
+    present(&report, a.format)
+}
+
+/// `beltwright field`: check the flags, compute, present, and write the sheet if asked.
+fn run_field(a: FieldArgs) -> Result<String, Failure> {
+    if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
+        return Err(Failure::input(format!(
+            "--upto {} is not valid; give an order from 1 to 10000",
+            a.upto
+        )));
+    }
+    if !(a.at_deg.is_finite() && a.at_deg.abs() <= 1e6) {
+        return Err(Failure::input(format!(
+            "--at-deg {} is not valid; give an angle in degrees",
+            a.at_deg
+        )));
+    }
+    if !(a.slot_opening.is_finite() && (0.0..field::MAX_OPENING).contains(&a.slot_opening)) {
+        return Err(Failure::input(format!(
+            "--slot-opening {} is not valid; give a width from 0 up to (not including) 1 slot pitch",
+            a.slot_opening
+        )));
+    }
+    if let Some(s) = a.slip
+        && !(0.0..=1.0).contains(&s)
+    {
+        return Err(Failure::input(format!(
+            "--slip {s} is not valid; give a slip from 0 to 1"
+        )));
+    }
+    if let Some(out) = &a.svg
+        && same_file(out, &a.common.file)
+    {
+        return Err(Failure::input(format!(
+            "--svg {}: that is the layout file; give another file name for the sheet",
+            out.display()
+        )));
+    }
+    let w = load(&a.common.file)?;
+    let orders = (a.upto * w.geometry.poles as f64 / 2.0).floor();
+    if orders > field::MAX_ORDERS as f64 {
+        return Err(Failure::input(format!(
+            "--upto {} would list {orders} mechanical orders on this {}-pole core; give at most {}",
+            a.upto,
+            w.geometry.poles,
+            field::MAX_ORDERS as f64 / (w.geometry.poles as f64 / 2.0)
+        )));
+    }
+    let currents = match &a.currents {
+        Some(text) => field::parse_currents(text, w.geometry.phases)
+            .map_err(|e| Failure::input(format!("--currents: {e}")))?,
+        None => field::balanced_currents(w.geometry.phases, a.sequence),
+    };
+    let opts = FieldOptions {
+        currents,
+        opening: a.slot_opening,
+        upto: a.upto,
+        at_deg: a.at_deg,
+        slip: a.slip,
+    };
+    let name = a.common.file.display().to_string();
+    let fail = |e: field::FieldError| Failure::input(format!("{name}: {e}"));
+    let report = field::field(&w, &opts).map_err(fail)?;
+    if let Some(out) = &a.svg {
+        let snaps = field::snapshots(&w, &opts, 6).map_err(fail)?;
+        write_atomic(
+            out,
+            &a.common.file,
+            field::svg::field_sheet(&report, &snaps).as_bytes(),
+        )?;
+    }
+    present(&report, a.common.format)
 }
 
 fn pitch(a: PitchArgs) -> Result<String, Failure> {
@@ -372,6 +593,14 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
     present(&report, a.format)
 }
 
+/// True when two paths name the same existing file.
+fn same_file(a: &Path, b: &Path) -> bool {
+    match (a.canonicalize(), b.canonicalize()) {
+        (Ok(x), Ok(y)) => x == y,
+        _ => false,
+    }
+}
+
 /// Write `bytes` to `path` through a temporary file in the same folder and a rename, so a
 /// reader never sees half a file; refuse to write over the layout being read.
 fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> {
@@ -398,6 +627,7 @@ fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> 
             .set_permissions(std::fs::Permissions::from_mode(0o644))
             .map_err(fail)?;
     }
+    tmp.as_file().sync_all().map_err(fail)?;
     tmp.persist(path).map_err(|e| fail(e.error))?;
     Ok(())
 }
@@ -406,11 +636,18 @@ fn present<R: Report>(report: &R, format: Format) -> Result<String, Failure> {
     render(report, format).map_err(|e| Failure {
         message: format!("could not write the report: {e}"),
         status: 1,
+        report: None,
     })
 }
 
 /// Read and validate a layout file and build its winding.
 fn load(path: &Path) -> Result<Winding, Failure> {
+    let (spec, name) = read_spec(path)?;
+    winding::build(&spec).map_err(|e| Failure::input(format!("{name}: {e}")))
+}
+
+/// Read and validate a layout file.
+fn read_spec(path: &Path) -> Result<(layout::Spec, String), Failure> {
     let name = path.display().to_string();
     let meta = std::fs::metadata(path)
         .map_err(|e| Failure::input(format!("{name}: cannot read the layout file: {e}")))?;
@@ -423,7 +660,7 @@ fn load(path: &Path) -> Result<Winding, Failure> {
     let source = std::fs::read_to_string(path)
         .map_err(|e| Failure::input(format!("{name}: cannot read the layout file: {e}")))?;
     let spec = layout::parse(&source, &name).map_err(|e| Failure::input(e.to_string()))?;
-    winding::build(&spec).map_err(|e| Failure::input(format!("{name}: {e}")))
+    Ok((spec, name))
 }
 
 /// Write one sheet's pages in `kind` to `path` (and `NAME-2.ext`... for SVG/PNG pages).
@@ -437,6 +674,7 @@ fn write_sheet(
     let export = |e: draw::ExportError| Failure {
         message: format!("{}: {e}", path.display()),
         status: 1,
+        report: None,
     };
     let files: Vec<(PathBuf, Vec<u8>)> = match kind {
         FileKind::Pdf => vec![(
@@ -493,6 +731,7 @@ fn write_pack(
     let json = render(report, Format::Json).map_err(|e| Failure {
         message: format!("could not write the plan JSON: {e}"),
         status: 1,
+        report: None,
     })?;
     let path = dir.join(format!("{stem}-plan.json"));
     write_atomic(&path, input, json.as_bytes())?;

@@ -15,7 +15,7 @@ use std::ops::RangeInclusive;
 use rayon::prelude::*;
 use serde::Serialize;
 
-use crate::layout::{Connection, Spec, Style};
+use crate::layout::Spec;
 use crate::leakage::staircase_leakage;
 use crate::winding::{
     Topology, build, double_layer_rotary_feasible, gcd, possible_path_counts, rotary_periodicity,
@@ -305,23 +305,9 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
         r.unbalanced_pull = Some(t == 1 && z % 2 == 1);
     }
     let spec = Spec {
-        title: None,
-        topology,
-        slots: z,
-        poles,
         phases: m,
         phase_labels: (1..=m).map(|i| format!("P{i}")).collect(),
-        layers: r.layers,
-        pitch: None,
-        style: Style::Lap,
-        turns_per_coil: 1,
-        parallel_paths: 1,
-        connection: Connection::Star,
-        skew_slots: 0.0,
-        core: Default::default(),
-        supply: Default::default(),
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(topology, z, poles, r.layers)
     };
     match build(&spec) {
         Err(e) => {

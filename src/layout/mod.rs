@@ -145,6 +145,33 @@ pub struct Spec {
     pub colours: Option<Vec<String>>,
 }
 
+impl Spec {
+    /// A three-phase design of the given core with every optional key at its default (U, V,
+    /// W; lap; one turn per coil; one path; star; no skew; nearest full pitch): the start
+    /// for feasibility probes, surveys and tests, changed with struct-update syntax.
+    pub fn basic(topology: Topology, slots: usize, poles: usize, layers: usize) -> Spec {
+        Spec {
+            title: None,
+            topology,
+            slots,
+            poles,
+            phases: 3,
+            phase_labels: vec!["U".into(), "V".into(), "W".into()],
+            layers,
+            pitch: None,
+            style: Style::Lap,
+            turns_per_coil: 1,
+            parallel_paths: 1,
+            connection: Connection::Star,
+            skew_slots: 0.0,
+            core: Core::default(),
+            supply: Supply::default(),
+            coils: Vec::new(),
+            colours: None,
+        }
+    }
+}
+
 /// Why a layout file was refused.
 #[derive(Debug, Error, Clone, PartialEq)]
 pub enum LayoutError {

@@ -1,8 +1,10 @@
 //! Presenters: turn analysis reports into text tables, JSON or CSV. Analyses never print;
 //! a new format never touches an analysis (one exporter per format behind [`Exporter`]).
 
+mod audit_report;
 mod choose_report;
 mod csv;
+mod field_report;
 mod json;
 mod pitch_svg;
 pub(crate) mod reports;

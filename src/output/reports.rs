@@ -24,24 +24,7 @@ pub fn wrap(text: &str, width: usize) -> Vec<String> {
     lines
 }
 
-/// "1-3, 7, 9-10" from sorted numbers.
-pub fn ranges(ns: &[usize]) -> String {
-    let mut parts: Vec<String> = Vec::new();
-    let mut i = 0;
-    while i < ns.len() {
-        let mut j = i;
-        while j + 1 < ns.len() && ns[j + 1] == ns[j] + 1 {
-            j += 1;
-        }
-        parts.push(if j > i {
-            format!("{}-{}", ns[i], ns[j])
-        } else {
-            ns[i].to_string()
-        });
-        i = j + 1;
-    }
-    parts.join(", ")
-}
+pub use crate::numbering::ranges;
 
 fn opt(x: Option<f64>, digits: usize, unit: &str) -> Option<String> {
     x.map(|v| format!("{} {unit}", num(v, digits)))
@@ -290,12 +273,6 @@ impl Report for FactorTable {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn ranges_compress_runs() {
-        assert_eq!(ranges(&[1, 2, 3, 7, 9, 10]), "1-3, 7, 9-10");
-        assert_eq!(ranges(&[]), "");
-    }
 
     #[test]
     fn wrap_keeps_lines_short() {

@@ -18,12 +18,23 @@ pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
     let mut w = if spec.coils.is_empty() {
         synthesize(spec)?
     } else {
-        return from_coil_list(spec);
+        return from_coil_list(spec, true);
     };
     if spec.parallel_paths > 1 {
         assign_paths(&mut w, spec.parallel_paths)?;
     }
     Ok(w)
+}
+
+/// Build a recorded winding as found, for auditing: like [`build`], but a coil list whose
+/// slots hold more sides than the winding has layers is accepted, so the audit can report
+/// the overfilled slots as a finding instead of refusing the record.
+pub fn build_lenient(spec: &Spec) -> Result<Winding, PlanError> {
+    if spec.coils.is_empty() {
+        build(spec)
+    } else {
+        from_coil_list(spec, false)
+    }
 }
 
 /// Phase and polarity of belt `b` of 2m belts (see the module note).
@@ -185,23 +196,9 @@ fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
 /// A single-layer winding exists on this rotary core (decided by synthesis itself).
 pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
     let spec = Spec {
-        title: None,
-        topology: Topology::Rotary,
-        slots: z,
-        poles,
         phases: m,
         phase_labels: (0..m).map(|i| i.to_string()).collect(),
-        layers: 1,
-        pitch: None,
-        style: Style::Lap,
-        turns_per_coil: 1,
-        parallel_paths: 1,
-        connection: crate::layout::Connection::Star,
-        skew_slots: 0.0,
-        core: Default::default(),
-        supply: Default::default(),
-        coils: Vec::new(),
-        colours: None,
+        ..Spec::basic(Topology::Rotary, z, poles, 1)
     };
     single_layer(&spec, false).is_ok()
 }
@@ -527,8 +524,9 @@ fn single_layer_spans(geom: &Geometry, plus: &[Vec<usize>], minus: &[Vec<usize>]
         .collect()
 }
 
-/// A winding from an explicit coil list, taken as given: only range and fill are checked.
-fn from_coil_list(spec: &Spec) -> Result<Winding, PlanError> {
+/// A winding from an explicit coil list, taken as given: only range and (when `strict`)
+/// fill are checked.
+fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
     let (z, poles, m, layers) = (spec.slots, spec.poles, spec.phases, spec.layers);
     let rough = |e: &CoilEntry| -> usize {
         let d = e.back.abs_diff(e.go);
@@ -559,7 +557,11 @@ fn from_coil_list(spec: &Spec) -> Result<Winding, PlanError> {
         in_slot[e.go].push(i);
         in_slot[e.back].push(i);
     }
-    if let Some((k, cs)) = in_slot.iter().enumerate().find(|(_, cs)| cs.len() > layers) {
+    if let Some((k, cs)) = in_slot
+        .iter()
+        .enumerate()
+        .find(|(_, cs)| strict && cs.len() > layers)
+    {
         let mut coils: Vec<usize> = cs.iter().map(|i| i + 1).collect();
         coils.dedup();
         return Err(PlanError::Overfilled {

@@ -1,0 +1,156 @@
+//! Slot-by-slot and coil-by-coil comparison of a record with its intended design.
+
+use serde::Serialize;
+
+use super::{Finding, FindingKind};
+use crate::winding::Winding;
+
+/// What one slot holds in the record and in the design: "+U" for current in, "-U" out.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct SlotDifference {
+    /// Slot number from 1.
+    pub slot: usize,
+    /// Sides found, sorted.
+    pub found: Vec<String>,
+    /// Sides intended, sorted.
+    pub intended: Vec<String>,
+}
+
+/// The comparison with the intended design.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Comparison {
+    /// Slots whose contents differ.
+    pub slot_differences: Vec<SlotDifference>,
+    /// Coil-level findings (also listed among the audit's findings).
+    #[serde(skip)]
+    pub findings: Vec<Finding>,
+}
+
+fn sides(w: &Winding) -> Vec<Vec<String>> {
+    let mut s = vec![Vec::new(); w.geometry.slots];
+    for c in &w.coils {
+        let l = w.label(c.phase);
+        s[c.go].push(format!("+{l}"));
+        s[c.back].push(format!("-{l}"));
+    }
+    for v in &mut s {
+        v.sort();
+    }
+    s
+}
+
+/// Compare `found` with `design` slot by slot and coil by coil.
+pub fn compare(found: &Winding, design: &Winding) -> Comparison {
+    if found.geometry.slots != design.geometry.slots {
+        return Comparison {
+            slot_differences: Vec::new(),
+            findings: vec![Finding {
+                kind: FindingKind::DiffersFromIntended,
+                coils: Vec::new(),
+                slots: Vec::new(),
+                phases: Vec::new(),
+                message: format!(
+                    "the intended design has {} slots and the record {}: they are not the same \
+                     core",
+                    design.geometry.slots, found.geometry.slots
+                ),
+            }],
+        };
+    }
+    let (a, b) = (sides(found), sides(design));
+    let slot_differences = (0..a.len())
+        .filter(|&k| a[k] != b[k])
+        .map(|k| SlotDifference {
+            slot: k + 1,
+            found: a[k].clone(),
+            intended: b[k].clone(),
+        })
+        .collect();
+
+    let pair = |go: usize, back: usize| (go.min(back), go.max(back));
+    let mut used = vec![false; design.coils.len()];
+    let mut findings = Vec::new();
+    let same = |i: usize, j: usize| {
+        let (c, d) = (&found.coils[i], &design.coils[j]);
+        c.go == d.go && found.label(c.phase) == design.label(d.phase) && c.path == d.path
+    };
+    // Exact matches first, so that a reversed coil is not paired with a neighbour's slots.
+    let mut partner = vec![None; found.coils.len()];
+    for (i, c) in found.coils.iter().enumerate() {
+        if let Some(j) = (0..design.coils.len()).find(|&j| {
+            !used[j]
+                && pair(design.coils[j].go, design.coils[j].back) == pair(c.go, c.back)
+                && same(i, j)
+        }) {
+            used[j] = true;
+            partner[i] = Some(j);
+        }
+    }
+    for (i, c) in found.coils.iter().enumerate() {
+        if partner[i].is_some() {
+            continue;
+        }
+        let here = format!(
+            "coil {} (phase {}, in at slot {}, out at slot {}, path {})",
+            i + 1,
+            found.label(c.phase),
+            c.go + 1,
+            c.back + 1,
+            c.path + 1
+        );
+        let j = (0..design.coils.len()).find(|&j| {
+            !used[j] && pair(design.coils[j].go, design.coils[j].back) == pair(c.go, c.back)
+        });
+        let message = match j {
+            None => format!("{here} has no coil in the same slots in the intended design"),
+            Some(j) => {
+                used[j] = true;
+                let d = &design.coils[j];
+                let mut what = Vec::new();
+                if found.label(c.phase) != design.label(d.phase) {
+                    what.push(format!("it belongs in phase {}", design.label(d.phase)));
+                }
+                if c.go != d.go {
+                    what.push(format!(
+                        "it is reversed: current should enter at slot {}",
+                        d.go + 1
+                    ));
+                }
+                if c.path != d.path {
+                    what.push(format!("it belongs in path {}", d.path + 1));
+                }
+                format!(
+                    "{here} differs from the intended design: {}",
+                    what.join("; ")
+                )
+            }
+        };
+        findings.push(Finding {
+            kind: FindingKind::DiffersFromIntended,
+            coils: vec![i + 1],
+            slots: vec![c.go + 1, c.back + 1],
+            phases: vec![found.label(c.phase).to_string()],
+            message,
+        });
+    }
+    for (j, d) in design.coils.iter().enumerate().filter(|(j, _)| !used[*j]) {
+        let _ = j;
+        findings.push(Finding {
+            kind: FindingKind::DiffersFromIntended,
+            coils: Vec::new(),
+            slots: vec![d.go + 1, d.back + 1],
+            phases: vec![design.label(d.phase).to_string()],
+            message: format!(
+                "the intended design has a coil of phase {} in at slot {} and out at slot {} \
+                 that the record lacks",
+                design.label(d.phase),
+                d.go + 1,
+                d.back + 1
+            ),
+        });
+    }
+    Comparison {
+        slot_differences,
+        findings,
+    }
+}

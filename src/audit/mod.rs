@@ -1,0 +1,752 @@
+//! Audit of an as-found or as-wound coil list: balance, phase sequence, parallel paths, slot
+//! fill, and findings that name the coils to fix in shop terms.
+//!
+//! Phase EMFs are phasor sums of the coil EMFs (star of slots); their symmetrical components
+//! (C. L. Fortescue, "Method of symmetrical co-ordinates applied to the solution of polyphase
+//! networks", Trans. AIEE 37, 1918) give the forward and backward (negative-sequence) fields.
+//! The findings come from [`search`]: the smallest change, of up to two edits, that restores
+//! a balanced positive-sequence winding.
+
+mod compare;
+pub mod search;
+mod slots;
+
+use num_complex::Complex64;
+use serde::Serialize;
+use std::f64::consts::PI;
+
+use crate::plan::CAUTION;
+use crate::winding::{Topology, Winding, coil_groups};
+
+pub use compare::{Comparison, SlotDifference, compare};
+pub use search::{BALANCE_TOL, Edit, Search, apply_fix, search};
+pub use slots::{SlotCheck, check_slots};
+
+/// Direction of the phase sequence at the fundamental.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum Sequence {
+    /// V lags U by 360°/m: the field travels towards rising slot numbers.
+    Positive,
+    /// V leads U: the field travels towards falling slot numbers.
+    Negative,
+}
+
+/// What a finding is about, in shop terms.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum FindingKind {
+    /// One coil connected the wrong way round.
+    ReversedCoil,
+    /// A coil group (or part of one) connected the wrong way round.
+    ReversedGroup,
+    /// A coil connected into the wrong phase.
+    WrongPhase,
+    /// A whole phase wound or connected backwards (its two leads swapped).
+    ReversedPhase,
+    /// Two phases' leads exchanged: the phase sequence is reversed.
+    LeadsSwapped,
+    /// A parallel path whose EMF differs from its siblings'.
+    PathMismatch,
+    /// Slots with no coil side, or with a layer left empty.
+    EmptySlots,
+    /// Slots holding more coil sides than the winding has layers.
+    OverfilledSlots,
+    /// Coils whose turns differ from the rest.
+    TurnsDiffer,
+    /// The phases are unbalanced and no change of up to two edits restores them.
+    Unbalanced,
+    /// The record differs from the intended design.
+    DiffersFromIntended,
+}
+
+/// One thing wrong with the winding, and what to do about it.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Finding {
+    /// What is wrong.
+    pub kind: FindingKind,
+    /// Coils involved: indices into the coil list, from 1.
+    pub coils: Vec<usize>,
+    /// Slots involved, from 1.
+    pub slots: Vec<usize>,
+    /// Phases involved (labels).
+    pub phases: Vec<String>,
+    /// What is wrong and what to change, for the winder.
+    pub message: String,
+}
+
+/// A phasor at one harmonic order.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct HarmonicRow {
+    /// Electrical order ν (fractional for a sub-harmonic).
+    pub order: f64,
+    /// |E| / (4.44·f·Φ_ν) in effective series turns N_ph·k_wν.
+    pub magnitude: f64,
+    /// Angle in degrees.
+    pub angle_deg: f64,
+}
+
+/// One phase at the fundamental, with its main harmonics.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PhaseRow {
+    /// Phase label.
+    pub phase: String,
+    /// Fundamental EMF magnitude, effective series turns N_ph·k_w1.
+    pub magnitude: f64,
+    /// Fundamental angle, degrees.
+    pub angle_deg: f64,
+    /// Deviation from the ideal position 360°/m from its neighbours in the sequence found.
+    pub angle_error_deg: f64,
+    /// Coils in the phase.
+    pub coils: usize,
+    /// Series turns N_ph (all coils over the parallel paths).
+    pub series_turns: f64,
+    /// Orders 5, 7 and (fractional-slot rotary cores) the main sub-harmonic.
+    pub harmonics: Vec<HarmonicRow>,
+}
+
+/// One parallel path of one phase.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PathRow {
+    /// Phase label.
+    pub phase: String,
+    /// Path number from 1.
+    pub path: usize,
+    /// Coils in the path.
+    pub coils: Vec<usize>,
+    /// Turns in the path.
+    pub turns: u64,
+    /// EMF magnitude of the path in effective turns.
+    pub magnitude: f64,
+    /// EMF angle, degrees.
+    pub angle_deg: f64,
+    /// |E_path − mean of the phase's paths|: the EMF that drives a circulating current
+    /// around the parallel loop, in effective turns.
+    pub circulating_emf: f64,
+    /// `circulating_emf` as a percentage of the mean path EMF.
+    pub circulating_percent: f64,
+}
+
+/// The complete audit.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct AuditReport {
+    /// Title of the record.
+    pub title: Option<String>,
+    /// Slot count.
+    pub slots: usize,
+    /// Pole count.
+    pub poles: usize,
+    /// Layers.
+    pub layers: usize,
+    /// Parallel paths.
+    pub parallel_paths: usize,
+    /// Phase EMFs equal and 360°/m apart in positive sequence at the fundamental.
+    pub balanced: bool,
+    /// No finding at all.
+    pub sound: bool,
+    /// Phase sequence at the fundamental.
+    pub sequence: Sequence,
+    /// Direction of travel of the field with the supply in order on the phase starts.
+    pub travel: String,
+    /// Forward (positive-sequence) component, effective turns.
+    pub forward: f64,
+    /// Backward (negative-sequence) component, effective turns.
+    pub backward: f64,
+    /// Backward as a percentage of forward.
+    pub backward_percent: f64,
+    /// Zero-sequence component as a percentage of forward.
+    pub zero_sequence_percent: f64,
+    /// (max − min) / mean of the phase magnitudes, per cent.
+    pub magnitude_spread_percent: f64,
+    /// Largest angle error of a phase, degrees.
+    pub max_angle_error_deg: f64,
+    /// Every phase.
+    pub phases: Vec<PhaseRow>,
+    /// Every parallel path (empty for a single path).
+    pub paths: Vec<PathRow>,
+    /// Slot fill.
+    pub slot_check: SlotCheck,
+    /// Number of edits in the fix found (0 when balanced or none found).
+    pub fix_edits: usize,
+    /// Other fixes of the same size found (the best is reported).
+    pub other_fixes: usize,
+    /// Comparison with the intended design, when given.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub intended: Option<Comparison>,
+    /// What is wrong.
+    pub findings: Vec<Finding>,
+    /// The safety caution.
+    pub caution: &'static str,
+}
+
+/// Angle in (−180, 180] degrees, rounding dust removed.
+pub fn tidy_deg(a: f64) -> f64 {
+    let mut r = a % 360.0;
+    if r > 180.0 {
+        r -= 360.0;
+    }
+    if r <= -180.0 {
+        r += 360.0;
+    }
+    let r = (r * 1e9).round() / 1e9;
+    if r <= -180.0 { r + 360.0 } else { r + 0.0 }
+}
+
+/// Angle of a phasor in degrees; 0 for a phasor with no magnitude.
+fn angle_of(e: Complex64) -> f64 {
+    if e.norm() < 1e-9 {
+        0.0
+    } else {
+        tidy_deg(e.arg().to_degrees())
+    }
+}
+
+/// Symmetrical components of m phasors (Fortescue 1918): (forward, backward, zero) with
+/// forward = (1/m) Σ E_k e^{+j2πk/m}, backward = (1/m) Σ E_k e^{−j2πk/m}, zero = (1/m) Σ E_k,
+/// for the convention that phase k lags phase 0 by 2πk/m in positive sequence.
+pub fn symmetrical_components(e: &[Complex64]) -> (Complex64, Complex64, Complex64) {
+    let m = e.len().max(1) as f64;
+    let mut f = Complex64::new(0.0, 0.0);
+    let mut b = f;
+    let mut z = f;
+    for (k, x) in e.iter().enumerate() {
+        let w = Complex64::from_polar(1.0, 2.0 * PI * k as f64 / m);
+        f += x * w;
+        b += x * w.conj();
+        z += x;
+    }
+    (f / m, b / m, z / m)
+}
+
+/// Orders listed beside the fundamental: 5, 7, and for a fractional-slot rotary winding the
+/// sub-harmonic (ν = n/p, n < p) with the largest EMF.
+fn harmonic_orders(w: &Winding) -> Vec<f64> {
+    let mut orders = vec![5.0, 7.0];
+    let g = &w.geometry;
+    let (_, qd) = w.slots_per_pole_phase();
+    if g.topology == Topology::Rotary && qd != 1 {
+        let p = g.poles / 2;
+        let best = (1..p)
+            .map(|n| {
+                let nu = n as f64 / p as f64;
+                (nu, w.phase_emf(0, nu).norm())
+            })
+            .filter(|(_, e)| *e > 1e-9 * w.coils.len().max(1) as f64)
+            .max_by(|a, b| a.1.total_cmp(&b.1));
+        if let Some((nu, _)) = best {
+            orders.insert(0, nu);
+        }
+    }
+    orders
+}
+
+pub(crate) use crate::numbering::ranges as runs;
+
+/// Coil numbers as a person reads them, from 0-based indices.
+fn label_list(coils: &[usize]) -> String {
+    runs(&coils.iter().map(|c| c + 1).collect::<Vec<_>>())
+}
+
+fn slots_of(w: &Winding, coils: &[usize]) -> Vec<usize> {
+    let mut s: Vec<usize> = coils
+        .iter()
+        .flat_map(|&i| [w.coils[i].go + 1, w.coils[i].back + 1])
+        .collect();
+    s.sort_unstable();
+    s.dedup();
+    s
+}
+
+fn coil_words(w: &Winding, i: usize) -> String {
+    let c = &w.coils[i];
+    format!(
+        "coil {} (phase {}, in at slot {}, out at slot {})",
+        i + 1,
+        w.label(c.phase),
+        c.go + 1,
+        c.back + 1
+    )
+}
+
+/// A finding in shop terms for one edit of the fix.
+fn finding_for(w: &Winding, e: &Edit) -> Finding {
+    match e {
+        Edit::ReverseCoil { coil } => {
+            let c = &w.coils[*coil];
+            Finding {
+                kind: FindingKind::ReversedCoil,
+                coils: vec![coil + 1],
+                slots: slots_of(w, &[*coil]),
+                phases: vec![w.label(c.phase).to_string()],
+                message: format!(
+                    "{} is connected backwards: reconnect it so that current enters at slot {} \
+                     and leaves at slot {}",
+                    coil_words(w, *coil),
+                    c.back + 1,
+                    c.go + 1
+                ),
+            }
+        }
+        Edit::ReverseGroup { coils } => {
+            let mut sorted = coils.clone();
+            sorted.sort_unstable();
+            let ph = w.label(w.coils[coils[0]].phase).to_string();
+            let slots = slots_of(w, coils);
+            Finding {
+                kind: FindingKind::ReversedGroup,
+                coils: sorted.iter().map(|c| c + 1).collect(),
+                message: format!(
+                    "the coil group of coils {} (phase {ph}, slots {}) is connected backwards: \
+                     swap the two jumpers at the ends of the group",
+                    label_list(&sorted),
+                    runs(&slots)
+                ),
+                slots,
+                phases: vec![ph],
+            }
+        }
+        Edit::MoveCoil {
+            coil,
+            from,
+            to,
+            reversed,
+        } => Finding {
+            kind: FindingKind::WrongPhase,
+            coils: vec![coil + 1],
+            slots: slots_of(w, &[*coil]),
+            phases: vec![w.label(*from).to_string(), w.label(*to).to_string()],
+            message: format!(
+                "{} is connected into phase {} but belongs in phase {}{}",
+                coil_words(w, *coil),
+                w.label(*from),
+                w.label(*to),
+                if *reversed {
+                    format!(
+                        ", the other way round (current in at slot {})",
+                        w.coils[*coil].back + 1
+                    )
+                } else {
+                    String::new()
+                }
+            ),
+        },
+        Edit::ReversePhase { phase } => {
+            let coils: Vec<usize> = (0..w.coils.len())
+                .filter(|&i| w.coils[i].phase == *phase)
+                .collect();
+            let l = w.label(*phase);
+            Finding {
+                kind: FindingKind::ReversedPhase,
+                coils: coils.iter().map(|c| c + 1).collect(),
+                slots: Vec::new(),
+                phases: vec![l.to_string()],
+                message: format!(
+                    "phase {l} is wound or connected backwards (its EMF is 180° from where it \
+                     belongs): swap its leads {l}1 and {l}2"
+                ),
+            }
+        }
+        Edit::SwapPhases { a, b } => {
+            let coils: Vec<usize> = (0..w.coils.len())
+                .filter(|&i| w.coils[i].phase == *a || w.coils[i].phase == *b)
+                .map(|i| i + 1)
+                .collect();
+            let (la, lb) = (w.label(*a), w.label(*b));
+            Finding {
+                kind: FindingKind::LeadsSwapped,
+                coils,
+                slots: Vec::new(),
+                phases: vec![la.to_string(), lb.to_string()],
+                message: format!(
+                    "the leads of phases {la} and {lb} are exchanged (phase sequence reversed): \
+                     exchange them back, {la}1 with {lb}1 and {la}2 with {lb}2"
+                ),
+            }
+        }
+    }
+}
+
+/// Phase rows, symmetrical components and the sequence of a winding.
+struct Balance {
+    phases: Vec<PhaseRow>,
+    forward: f64,
+    backward: f64,
+    zero: f64,
+    sequence: Sequence,
+    spread: f64,
+    max_err: f64,
+}
+
+fn balance(w: &Winding) -> Balance {
+    let m = w.geometry.phases;
+    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, 1.0)).collect();
+    let (f, b, z) = symmetrical_components(&e);
+    let sequence = if f.norm() >= b.norm() {
+        Sequence::Positive
+    } else {
+        Sequence::Negative
+    };
+    let s = if sequence == Sequence::Positive {
+        1.0
+    } else {
+        -1.0
+    };
+    let orders = harmonic_orders(w);
+    let a0 = e[0].arg().to_degrees();
+    let phases: Vec<PhaseRow> = (0..m)
+        .map(|k| {
+            let ideal = a0 - s * 360.0 * k as f64 / m as f64;
+            let ang = e[k].arg().to_degrees();
+            let err = if e[k].norm() > 0.0 && e[0].norm() > 0.0 {
+                tidy_deg(ang - ideal)
+            } else {
+                0.0
+            };
+            PhaseRow {
+                phase: w.label(k).to_string(),
+                magnitude: e[k].norm(),
+                angle_deg: tidy_deg(ang),
+                angle_error_deg: err,
+                coils: w.coils.iter().filter(|c| c.phase == k).count(),
+                series_turns: w.series_turns(k),
+                harmonics: orders
+                    .iter()
+                    .map(|&nu| {
+                        let h = w.phase_emf(k, nu);
+                        HarmonicRow {
+                            order: nu,
+                            magnitude: h.norm(),
+                            angle_deg: angle_of(h),
+                        }
+                    })
+                    .collect(),
+            }
+        })
+        .collect();
+    let mags: Vec<f64> = phases.iter().map(|p| p.magnitude).collect();
+    let mean = mags.iter().sum::<f64>() / m as f64;
+    let hi = mags.iter().cloned().fold(f64::MIN, f64::max);
+    let lo = mags.iter().cloned().fold(f64::MAX, f64::min);
+    Balance {
+        forward: f.norm(),
+        backward: b.norm(),
+        zero: z.norm(),
+        sequence,
+        spread: if mean > 0.0 {
+            100.0 * (hi - lo) / mean
+        } else {
+            0.0
+        },
+        max_err: phases
+            .iter()
+            .map(|p| p.angle_error_deg.abs())
+            .fold(0.0, f64::max),
+        phases,
+    }
+}
+
+/// Paths of every phase, and findings for paths that do not match their siblings.
+fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
+    let a = w.parallel_paths;
+    let mut rows = Vec::new();
+    let mut findings = Vec::new();
+    if a < 2 {
+        return (rows, findings);
+    }
+    let groups = coil_groups(w);
+    for k in 0..w.geometry.phases {
+        let mut emf = vec![Complex64::new(0.0, 0.0); a];
+        let mut turns = vec![0u64; a];
+        let mut coils: Vec<Vec<usize>> = vec![Vec::new(); a];
+        for (i, c) in w.coils.iter().enumerate().filter(|(_, c)| c.phase == k) {
+            let p = c.path.min(a - 1);
+            emf[p] += w.coil_emf(c, 1.0);
+            turns[p] += c.turns as u64;
+            coils[p].push(i);
+        }
+        let mean: Complex64 = emf.iter().sum::<Complex64>() / a as f64;
+        let mean_mag = emf.iter().map(|e| e.norm()).sum::<f64>() / a as f64;
+        let tol = BALANCE_TOL * mean_mag.max(1e-12);
+        let mut bad = Vec::new();
+        for p in 0..a {
+            let circ = (emf[p] - mean).norm();
+            if circ > tol || turns[p] * a as u64 != turns.iter().sum::<u64>() {
+                bad.push(p);
+            }
+            rows.push(PathRow {
+                phase: w.label(k).to_string(),
+                path: p + 1,
+                coils: coils[p].iter().map(|c| c + 1).collect(),
+                turns: turns[p],
+                magnitude: emf[p].norm(),
+                angle_deg: angle_of(emf[p]),
+                circulating_emf: circ,
+                circulating_percent: if mean_mag > 0.0 {
+                    100.0 * circ / mean_mag
+                } else {
+                    0.0
+                },
+            });
+        }
+        if bad.is_empty() {
+            continue;
+        }
+        // A single coil in the wrong path explains it? Of several such coils, the one whose
+        // coil-group neighbours lie in the path it moves to.
+        let mut hint: Option<(usize, usize, usize)> = None;
+        let mut best = 0usize;
+        let neighbours_in = |i: usize, q: usize| {
+            groups
+                .iter()
+                .find(|g| g.coils.contains(&i))
+                .map(|g| {
+                    g.coils
+                        .iter()
+                        .filter(|&&j| j != i && w.coils[j].path == q)
+                        .count()
+                })
+                .unwrap_or(0)
+        };
+        for (p, cs) in coils.iter().enumerate() {
+            for &i in cs {
+                let ce = w.coil_emf(&w.coils[i], 1.0);
+                let t = w.coils[i].turns as u64;
+                for q in (0..a).filter(|&q| q != p) {
+                    let ok = (0..a).all(|r| {
+                        let mut e = emf[r];
+                        let mut n = turns[r];
+                        if r == p {
+                            e -= ce;
+                            n -= t;
+                        }
+                        if r == q {
+                            e += ce;
+                            n += t;
+                        }
+                        (e - mean).norm() <= tol && n * a as u64 == turns.iter().sum::<u64>()
+                    });
+                    let score = neighbours_in(i, q) + 1;
+                    if ok && score > best {
+                        best = score;
+                        hint = Some((i, p, q));
+                    }
+                }
+            }
+        }
+        let l = w.label(k).to_string();
+        match hint {
+            Some((i, p, q)) => findings.push(Finding {
+                kind: FindingKind::PathMismatch,
+                coils: vec![i + 1],
+                slots: slots_of(w, &[i]),
+                phases: vec![l.clone()],
+                message: format!(
+                    "the parallel paths of phase {l} do not match, so a current circulates \
+                     between them: {} is in path {} but belongs in path {}",
+                    coil_words(w, i),
+                    p + 1,
+                    q + 1
+                ),
+            }),
+            None => {
+                for p in bad {
+                    let row = &rows[rows.len() - a + p];
+                    findings.push(Finding {
+                        kind: FindingKind::PathMismatch,
+                        coils: row.coils.clone(),
+                        slots: slots_of(w, &coils[p]),
+                        phases: vec![l.clone()],
+                        message: format!(
+                            "path {} of phase {l} does not match its siblings ({} turns, EMF {} \
+                             at {}°): a circulating EMF of {}% of the path EMF drives a \
+                             current around the parallel loop; check the coils of this path",
+                            p + 1,
+                            row.turns,
+                            crate::output::num(row.magnitude, 3),
+                            crate::output::num(row.angle_deg, 1),
+                            crate::output::num(row.circulating_percent, 2)
+                        ),
+                    });
+                }
+            }
+        }
+    }
+    (rows, findings)
+}
+
+/// Coils whose turns differ from the most common turn count.
+fn odd_turns(w: &Winding) -> Option<Finding> {
+    let mut counts: Vec<(u32, usize)> = Vec::new();
+    for c in &w.coils {
+        match counts.iter_mut().find(|(t, _)| *t == c.turns) {
+            Some(e) => e.1 += 1,
+            None => counts.push((c.turns, 1)),
+        }
+    }
+    let common = counts.iter().max_by_key(|(t, n)| (*n, *t))?.0;
+    let odd: Vec<usize> = (0..w.coils.len())
+        .filter(|&i| w.coils[i].turns != common)
+        .collect();
+    if odd.is_empty() {
+        return None;
+    }
+    Some(Finding {
+        kind: FindingKind::TurnsDiffer,
+        coils: odd.iter().map(|i| i + 1).collect(),
+        slots: slots_of(w, &odd),
+        phases: Vec::new(),
+        message: format!(
+            "coils {} have a turn count other than the {common} turns of the rest; check the \
+             record or the coils",
+            label_list(&odd)
+        ),
+    })
+}
+
+/// Audit a recorded winding, optionally against the intended design.
+pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
+    let bal = balance(w);
+    let found = search(w);
+    let mut findings = Vec::new();
+    let slot_check = check_slots(w);
+    findings.extend(slot_check.findings(w));
+    findings.extend(odd_turns(w));
+    let fix = found.fix.clone().unwrap_or_default();
+    findings.extend(fix.iter().map(|e| finding_for(w, e)));
+    if !found.balanced && found.fix.is_none() {
+        findings.push(Finding {
+            kind: FindingKind::Unbalanced,
+            coils: Vec::new(),
+            slots: Vec::new(),
+            phases: Vec::new(),
+            message: format!(
+                "the phases are unbalanced (backward field {}% of forward, magnitudes spread \
+                 {}%) and no change of up to two edits (reversing a coil, a group or a phase, \
+                 moving a coil to another phase, swapping two leads) balances them{}; compare \
+                 the record with the design slot by slot",
+                crate::output::num(pct(bal.backward, bal.forward), 2),
+                crate::output::num(bal.spread, 2),
+                if found.truncated {
+                    " (the search of pairs of edits was cut short on this record)"
+                } else {
+                    ""
+                }
+            ),
+        });
+    }
+    // Paths are judged once the fix is applied, so one reversed coil is not reported twice.
+    let fixed = apply_fix(w, &fix);
+    let (_, path_findings) = paths(&fixed);
+    let (path_rows, _) = paths(w);
+    findings.extend(path_findings);
+    let intended = intended.map(|d| compare(w, d));
+    if let Some(c) = &intended {
+        findings.extend(c.findings.iter().cloned());
+    }
+    let g = &w.geometry;
+    let labels: Vec<String> = w.phase_labels.iter().map(|l| format!("{l}1")).collect();
+    let towards = match bal.sequence {
+        Sequence::Positive => format!(
+            "towards rising slot numbers (slot 1 towards slot {})",
+            g.slots
+        ),
+        Sequence::Negative => format!(
+            "towards falling slot numbers (slot {} towards slot 1)",
+            g.slots
+        ),
+    };
+    let kind = match g.topology {
+        Topology::Rotary => "the field rotates",
+        Topology::Linear => "the field travels",
+    };
+    AuditReport {
+        title: w.title.clone(),
+        slots: g.slots,
+        poles: g.poles,
+        layers: g.layers,
+        parallel_paths: w.parallel_paths,
+        balanced: found.balanced,
+        sound: findings.is_empty(),
+        sequence: bal.sequence,
+        travel: format!(
+            "with supply lines 1, 2, 3... on {}, {kind} {towards}",
+            labels.join(", ")
+        ),
+        forward: bal.forward,
+        backward: bal.backward,
+        backward_percent: pct(bal.backward, bal.forward),
+        zero_sequence_percent: pct(bal.zero, bal.forward),
+        magnitude_spread_percent: bal.spread,
+        max_angle_error_deg: bal.max_err,
+        phases: bal.phases,
+        paths: path_rows,
+        slot_check,
+        fix_edits: fix.iter().map(Edit::cost).sum(),
+        other_fixes: found.alternatives,
+        intended,
+        findings,
+        caution: CAUTION,
+    }
+}
+
+fn pct(x: f64, of: f64) -> f64 {
+    if of > 0.0 { 100.0 * x / of } else { 0.0 }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // Symmetrical components of a single-phase set (1, 0, 0): each component is 1/3
+    // (Fortescue 1918; J. J. Grainger, W. D. Stevenson, *Power System Analysis*, 1994, §11.1).
+    #[test]
+    fn single_phase_set_splits_into_thirds() {
+        let one = Complex64::new(1.0, 0.0);
+        let zero = Complex64::new(0.0, 0.0);
+        let (f, b, z) = symmetrical_components(&[one, zero, zero]);
+        for x in [f, b, z] {
+            assert!((x - one / 3.0).norm() < 1e-15);
+        }
+    }
+
+    // A positive-sequence set (V lagging U by 120°) has no backward or zero component, and a
+    // negative-sequence set no forward one (definition of the sequences, Fortescue 1918).
+    #[test]
+    fn pure_sequences_are_recognised() {
+        let pos: Vec<Complex64> = (0..3)
+            .map(|k| Complex64::from_polar(2.0, 0.3 - 2.0 * PI * k as f64 / 3.0))
+            .collect();
+        let (f, b, z) = symmetrical_components(&pos);
+        assert!((f.norm() - 2.0).abs() < 1e-12 && b.norm() < 1e-12 && z.norm() < 1e-12);
+        let neg: Vec<Complex64> = pos.iter().rev().cloned().collect();
+        let (f, b, _) = symmetrical_components(&neg);
+        assert!(f.norm() < 1e-12 && (b.norm() - 2.0).abs() < 1e-12);
+    }
+
+    // Cross-check against a general-purpose FFT (rustfft): the forward component is the
+    // inverse DFT bin 1 divided by m, the backward one the forward DFT bin 1 divided by m.
+    #[test]
+    fn components_match_an_fft_for_five_phases() {
+        use rustfft::FftPlanner;
+        let e: Vec<Complex64> = (0..5)
+            .map(|k| Complex64::new(1.0 + k as f64 * 0.7, (k * k) as f64 * 0.3 - 1.0))
+            .collect();
+        let (f, b, z) = symmetrical_components(&e);
+        let mut planner = FftPlanner::<f64>::new();
+        let mut fwd = e.clone();
+        planner.plan_fft_forward(5).process(&mut fwd);
+        let mut inv = e.clone();
+        planner.plan_fft_inverse(5).process(&mut inv);
+        assert!((b - fwd[1] / 5.0).norm() < 1e-12);
+        assert!((f - inv[1] / 5.0).norm() < 1e-12);
+        assert!((z - fwd[0] / 5.0).norm() < 1e-12);
+    }
+
+    #[test]
+    fn angles_are_tidied_into_half_open_range() {
+        assert_eq!(tidy_deg(-180.0), 180.0);
+        assert_eq!(tidy_deg(540.0), 180.0);
+        assert_eq!(tidy_deg(-190.0), 170.0);
+        assert_eq!(tidy_deg(-0.0), 0.0);
+    }
+}

@@ -1,0 +1,118 @@
+//! Slot fill of a record: slots left empty, layers left empty, slots overfilled.
+
+use serde::Serialize;
+
+use super::{Finding, FindingKind, runs};
+use crate::winding::{Topology, Winding};
+
+/// How the slots of a record are filled (slot numbers from 1).
+#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+pub struct SlotCheck {
+    /// Slots with no coil side at all.
+    pub empty: Vec<usize>,
+    /// Slots with fewer coil sides than they should hold (but at least one).
+    pub partly_filled: Vec<usize>,
+    /// Slots holding more coil sides than the winding has layers.
+    pub overfilled: Vec<usize>,
+    /// End slots of a double-layer linear primary, which hold one side by design.
+    pub half_filled_by_design: Vec<usize>,
+    /// Coils (from 1) with a side in an overfilled slot.
+    pub overfilled_coils: Vec<usize>,
+}
+
+/// Sides each slot should hold: the layer count, one at the ends of a double-layer linear
+/// primary (its span's worth of slots at each end).
+fn expected(w: &Winding, k: usize) -> usize {
+    let g = &w.geometry;
+    if g.topology == Topology::Linear && g.layers == 2 {
+        let y = w.pitch.min(g.slots / 2);
+        if k < y || k + y >= g.slots {
+            return 1;
+        }
+    }
+    g.layers
+}
+
+/// Count the coil sides in every slot.
+pub fn check_slots(w: &Winding) -> SlotCheck {
+    let z = w.geometry.slots;
+    let mut sides = vec![0usize; z];
+    for c in &w.coils {
+        sides[c.go] += 1;
+        sides[c.back] += 1;
+    }
+    let mut out = SlotCheck::default();
+    for (k, &n) in sides.iter().enumerate() {
+        let want = expected(w, k);
+        if want < w.geometry.layers {
+            out.half_filled_by_design.push(k + 1);
+        }
+        if n == 0 {
+            out.empty.push(k + 1);
+        } else if n < want {
+            out.partly_filled.push(k + 1);
+        } else if n > w.geometry.layers {
+            out.overfilled.push(k + 1);
+        }
+    }
+    out.overfilled_coils = (0..w.coils.len())
+        .filter(|&i| {
+            let c = &w.coils[i];
+            sides[c.go] > w.geometry.layers || sides[c.back] > w.geometry.layers
+        })
+        .map(|i| i + 1)
+        .collect();
+    out
+}
+
+impl SlotCheck {
+    /// Findings for empty and overfilled slots.
+    pub fn findings(&self, w: &Winding) -> Vec<Finding> {
+        let mut f = Vec::new();
+        if !self.empty.is_empty() || !self.partly_filled.is_empty() {
+            let mut parts = Vec::new();
+            if !self.empty.is_empty() {
+                parts.push(format!("slots {} hold no coil side", runs(&self.empty)));
+            }
+            if !self.partly_filled.is_empty() {
+                parts.push(format!(
+                    "slots {} have a layer left empty",
+                    runs(&self.partly_filled)
+                ));
+            }
+            let mut slots: Vec<usize> = self
+                .empty
+                .iter()
+                .chain(&self.partly_filled)
+                .cloned()
+                .collect();
+            slots.sort_unstable();
+            f.push(Finding {
+                kind: FindingKind::EmptySlots,
+                coils: Vec::new(),
+                slots,
+                phases: Vec::new(),
+                message: format!(
+                    "{}: a coil is missing from the record or was laid in another slot",
+                    parts.join("; ")
+                ),
+            });
+        }
+        if !self.overfilled.is_empty() {
+            f.push(Finding {
+                kind: FindingKind::OverfilledSlots,
+                coils: self.overfilled_coils.clone(),
+                slots: self.overfilled.clone(),
+                phases: Vec::new(),
+                message: format!(
+                    "slots {} hold more coil sides than the {} layer(s) of the winding; coils \
+                     {} have a side there: check their slot numbers",
+                    runs(&self.overfilled),
+                    w.geometry.layers,
+                    runs(&self.overfilled_coils)
+                ),
+            });
+        }
+        f
+    }
+}

@@ -1,0 +1,796 @@
+//! Travelling-field analysis: the stepwise MMF a winding sets up along the gap, its exact
+//! spatial spectrum split into forward and backward travelling waves, and the differential
+//! (harmonic) leakage coefficient σ_d.
+//!
+//! Method (derivations and sources in `docs/theory-field.md`): each slot carries the phasor
+//! sum C_k of its conductors' ampere-turns, `+N·I/a` for a go side and `−N·I/a` for a back
+//! side. The MMF is the running sum of the slot currents along the gap (Ampère's law), a
+//! staircase. Its Fourier coefficients are closed-form sums over the slots,
+//! `Σ C_k e^{∓jνθ_k} / (jνπ·2p)`, so the spectrum has no sampling error; the mean square of
+//! the staircase gives Σ over every wave of (F/F_1)² exactly (Parseval), hence σ_d without a
+//! truncated series. A linear primary's MMF is a finite current sheet: its continuous
+//! Fourier transform is the same slot sum at any wavenumber, read at multiples of the
+//! synchronous wavenumber π/τ.
+//!
+//! Conventions: a phase current is `Re{I·e^{jωt}}`; in positive sequence V lags U by 120°.
+//! A wave travels *forward* when it moves toward higher slot numbers. Positions along the
+//! gap are in slot pitches, slot `k` (0-based) centred at `k + 0.5`, so the core spans
+//! `[0, Z]`.
+
+pub mod svg;
+
+#[cfg(test)]
+mod tests;
+
+use num_complex::Complex64;
+use serde::Serialize;
+use std::f64::consts::PI;
+use thiserror::Error;
+
+use crate::factors;
+use crate::linear::{self, Figures, Operating};
+use crate::plan::CAUTION;
+use crate::winding::{Topology, Winding};
+
+/// Relative amplitude below which a wave is taken as absent.
+pub const PRESENT: f64 = 1e-9;
+
+/// Most mechanical orders one report lists (keeps output and memory bounded).
+pub const MAX_ORDERS: u64 = 1_000_000;
+
+/// Largest slot-opening width accepted, in slot pitches (openings must not overlap).
+pub const MAX_OPENING: f64 = 1.0;
+
+/// Order of the phase currents in time.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, clap::ValueEnum)]
+#[serde(rename_all = "lowercase")]
+pub enum Sequence {
+    /// Each phase lags the one before it by 2π/m (V lags U).
+    Positive,
+    /// Each phase leads the one before it by 2π/m: the field turns the other way.
+    Negative,
+}
+
+/// Direction a wave moves along the gap.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum Direction {
+    /// Toward higher slot numbers.
+    Forward,
+    /// Toward lower slot numbers.
+    Backward,
+}
+
+/// Why a field could not be computed.
+#[derive(Debug, Error, Clone, PartialEq)]
+pub enum FieldError {
+    /// The current list does not give one phasor per phase.
+    #[error(
+        "{given} current(s) given for {phases} phases; give one `magnitude@angle_deg` per phase"
+    )]
+    CurrentCount {
+        /// How many were given.
+        given: usize,
+        /// How many phases the winding has.
+        phases: usize,
+    },
+    /// One item of the current list could not be read.
+    #[error("`{item}` is not a current phasor: {why}; write magnitude@angle_deg, e.g. 1@-120")]
+    BadCurrent {
+        /// The item as written.
+        item: String,
+        /// What is wrong with it.
+        why: String,
+    },
+    /// The slot-opening width is out of range.
+    #[error(
+        "slot opening {0} is not valid; give a width from 0 up to (not including) 1 slot pitch"
+    )]
+    SlotOpening(f64),
+    /// Winding and currents make no fundamental wave to compare against.
+    #[error(
+        "the winding and the phase currents set up no working wave (order 1 is absent), so no \
+         spectrum relative to it exists; check the coil list and the currents"
+    )]
+    NoWorkingWave,
+}
+
+/// Balanced phase-current phasors of unit magnitude for `m` phases in `seq`.
+pub fn balanced_currents(m: usize, seq: Sequence) -> Vec<Complex64> {
+    let s = match seq {
+        Sequence::Positive => -1.0,
+        Sequence::Negative => 1.0,
+    };
+    (0..m)
+        .map(|k| Complex64::from_polar(1.0, s * 2.0 * PI * k as f64 / m as f64))
+        .collect()
+}
+
+/// Read a list of phase-current phasors written `magnitude@angle_deg`, comma separated, one
+/// per phase in phase order (e.g. `1@0,1@-120,1@120`).
+pub fn parse_currents(text: &str, phases: usize) -> Result<Vec<Complex64>, FieldError> {
+    let items: Vec<&str> = text.split(',').map(str::trim).collect();
+    if items.len() != phases {
+        return Err(FieldError::CurrentCount {
+            given: items.len(),
+            phases,
+        });
+    }
+    items
+        .iter()
+        .map(|item| {
+            let bad = |why: &str| FieldError::BadCurrent {
+                item: item.to_string(),
+                why: why.into(),
+            };
+            let (m, a) = item.split_once('@').ok_or_else(|| bad("no `@`"))?;
+            let m: f64 = m
+                .trim()
+                .parse()
+                .map_err(|_| bad("the magnitude is not a number"))?;
+            let a: f64 = a
+                .trim()
+                .parse()
+                .map_err(|_| bad("the angle is not a number"))?;
+            if !(0.0..=1e9).contains(&m) {
+                return Err(bad("the magnitude must be from 0 to 1e9"));
+            }
+            if !(a.is_finite() && a.abs() <= 1e6) {
+                return Err(bad("the angle must be a finite number of degrees"));
+            }
+            Ok(Complex64::from_polar(m, a.to_radians()))
+        })
+        .collect()
+}
+
+/// The current sheet of a winding: the ampere-turn phasor in every slot and the MMF
+/// staircase it makes. Everything else in this module is computed from it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CurrentSheet {
+    /// Closed or open core.
+    pub topology: Topology,
+    /// Pole count 2p.
+    pub poles: usize,
+    /// Pole pitch τ in slot pitches.
+    pub pole_pitch_slots: f64,
+    /// Slot-opening width b in slot pitches (0: current concentrated at the slot centre).
+    pub opening: f64,
+    /// Ampere-turn phasor C_k of every slot (peak values for peak currents).
+    pub slot_current: Vec<Complex64>,
+    /// MMF phasor between slot k and slot k+1 (after slot k), mean removed on a rotary core.
+    pub level: Vec<Complex64>,
+    /// Slot angle per slot at order 1: exact integer reduction comes from the geometry.
+    geometry: crate::winding::Geometry,
+}
+
+impl CurrentSheet {
+    /// Slot currents of `w` for phase-current phasors `currents` (one per phase) and a
+    /// slot opening of `opening` slot pitches. Go sides carry `+N·I/a`, back sides `−N·I/a`.
+    pub fn new(w: &Winding, currents: &[Complex64], opening: f64) -> Result<Self, FieldError> {
+        let m = w.geometry.phases;
+        if currents.len() != m {
+            return Err(FieldError::CurrentCount {
+                given: currents.len(),
+                phases: m,
+            });
+        }
+        if !(opening.is_finite() && (0.0..MAX_OPENING).contains(&opening)) {
+            return Err(FieldError::SlotOpening(opening));
+        }
+        let z = w.geometry.slots;
+        let a = w.parallel_paths.max(1) as f64;
+        let mut c = vec![Complex64::new(0.0, 0.0); z];
+        for coil in &w.coils {
+            let i = currents[coil.phase] * (coil.turns as f64 / a);
+            c[coil.go] += i;
+            c[coil.back] -= i;
+        }
+        let mut level = Vec::with_capacity(z);
+        let mut run = Complex64::new(0.0, 0.0);
+        for ck in &c {
+            run += ck;
+            level.push(run);
+        }
+        if w.geometry.topology == Topology::Rotary && z > 0 {
+            // The mean of the staircase is the same with or without slot openings: each ramp
+            // is symmetric about its slot centre, and the level sum is cyclic.
+            let mean = level.iter().sum::<Complex64>() / z as f64;
+            for l in &mut level {
+                *l -= mean;
+            }
+        }
+        Ok(CurrentSheet {
+            topology: w.geometry.topology,
+            poles: w.geometry.poles,
+            pole_pitch_slots: w.geometry.pole_pitch_slots,
+            opening,
+            slot_current: c,
+            level,
+            geometry: w.geometry.clone(),
+        })
+    }
+
+    /// Slot count Z.
+    pub fn slots(&self) -> usize {
+        self.slot_current.len()
+    }
+
+    /// Length over which amplitudes are referred: the periphery Z on a rotary core, the
+    /// active length 2p·τ of a linear primary (slot pitches).
+    pub fn reference_length(&self) -> f64 {
+        match self.topology {
+            Topology::Rotary => self.slots() as f64,
+            Topology::Linear => self.pole_pitch_slots * self.poles as f64,
+        }
+    }
+
+    /// Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) of electrical order ν: the Fourier
+    /// transform of the slot current spread evenly over the opening b (T. A. Lipo,
+    /// *Introduction to AC Machine Design*, 2017; the same pulse transform as the skew
+    /// factor of Pyrhönen et al. 2014, eq. 2.34).
+    pub fn opening_factor(&self, order: f64) -> f64 {
+        let x = order * PI * self.opening / (2.0 * self.pole_pitch_slots);
+        if x.abs() < 1e-12 { 1.0 } else { x.sin() / x }
+    }
+
+    /// Slot sums S±(ν) = Σ_k C_k·e^{±jνθ_k}, θ_k the slot's electrical angle (exact integer
+    /// reduction on a rotary core).
+    pub fn slot_sums(&self, order: f64) -> (Complex64, Complex64) {
+        let mut plus = Complex64::new(0.0, 0.0);
+        let mut minus = Complex64::new(0.0, 0.0);
+        for (k, ck) in self.slot_current.iter().enumerate() {
+            let th = self.angle(k, order);
+            let e = Complex64::from_polar(1.0, th);
+            plus += ck * e;
+            minus += ck * e.conj();
+        }
+        (plus, minus)
+    }
+
+    fn angle(&self, k: usize, order: f64) -> f64 {
+        match self.topology {
+            Topology::Rotary => self.geometry.slot_angle(k, order),
+            Topology::Linear => PI * order * k as f64 / self.pole_pitch_slots,
+        }
+    }
+
+    /// Amplitudes (ampere-turns, peak) of the forward and backward waves of electrical order
+    /// ν: `|S±(ν)|·|k_o(ν)| / (π·ν·2p)`. On a linear primary these are the wavenumber
+    /// spectrum at κ = ν·π/τ divided by the active length (the amplitude of a wave that would
+    /// give the same transform over 2p pole pitches).
+    pub fn wave(&self, order: f64) -> (f64, f64) {
+        let (plus, minus) = self.slot_sums(order);
+        let scale = self.opening_factor(order).abs() / (PI * order * self.poles as f64);
+        (plus.norm() * scale, minus.norm() * scale)
+    }
+
+    /// MMF phasor F̃(x) at position `x` in slot pitches (slot k centred at k + 0.5); the
+    /// instantaneous MMF is `Re{F̃·e^{jωt}}`.
+    pub fn mmf_phasor(&self, x: f64) -> Complex64 {
+        let z = self.slots();
+        if z == 0 {
+            return Complex64::new(0.0, 0.0);
+        }
+        let before = |j: isize| -> Complex64 {
+            if j < 0 {
+                match self.topology {
+                    Topology::Rotary => self.level[z - 1],
+                    Topology::Linear => Complex64::new(0.0, 0.0),
+                }
+            } else {
+                self.level[j as usize]
+            }
+        };
+        let (x, outside) = match self.topology {
+            Topology::Rotary => (x.rem_euclid(z as f64), false),
+            Topology::Linear => (x, !(0.0..=z as f64).contains(&x)),
+        };
+        if outside {
+            return Complex64::new(0.0, 0.0);
+        }
+        // Nearest slot centre k + 0.5 and the ramp across its opening.
+        let k = (x - 0.5).round().clamp(0.0, (z - 1) as f64) as isize;
+        let centre = k as f64 + 0.5;
+        let half = self.opening / 2.0;
+        let (lo, hi) = (before(k - 1), self.level[k as usize]);
+        if x < centre - half {
+            before(k - 1)
+        } else if x >= centre + half {
+            hi
+        } else {
+            lo + (hi - lo) * ((x - (centre - half)) / self.opening)
+        }
+    }
+
+    /// Instantaneous MMF (ampere-turns) at position `x` (slot pitches) and electrical time
+    /// angle ωt = `theta` radians.
+    pub fn mmf(&self, x: f64, theta: f64) -> f64 {
+        (self.mmf_phasor(x) * Complex64::from_polar(1.0, theta)).re
+    }
+
+    /// Mean over the reference length of |F̃|², exactly, from the staircase (with linear
+    /// ramps across the slot openings). By Parseval this equals Σ over every travelling wave
+    /// of its amplitude squared (forward and backward, every order, sub-harmonics included).
+    pub fn mean_square(&self) -> f64 {
+        let z = self.slots();
+        if z == 0 {
+            return 0.0;
+        }
+        let b = self.opening;
+        let mut prev = match self.topology {
+            Topology::Rotary => self.level[z - 1],
+            Topology::Linear => Complex64::new(0.0, 0.0),
+        };
+        let mut sum = 0.0;
+        for &g in &self.level {
+            let flat = g.norm_sqr();
+            let ramp = (prev.norm_sqr() + (prev * g.conj()).re + flat) / 3.0;
+            sum += (1.0 - b) * flat + b * ramp;
+            prev = g;
+        }
+        sum / self.reference_length()
+    }
+
+    /// Zero-wavenumber (uniform) part of a linear primary's MMF, ampere-turns: the mean of
+    /// F̃ over the active length, `−Σ C_k·x_k / 2pτ`. It does not travel; it pulsates at
+    /// supply frequency. Zero on a rotary core, whose MMF has no mean by definition.
+    pub fn pulsating(&self) -> f64 {
+        match self.topology {
+            Topology::Rotary => 0.0,
+            Topology::Linear => {
+                let s: Complex64 = self
+                    .slot_current
+                    .iter()
+                    .enumerate()
+                    .map(|(k, c)| c * (k as f64 + 0.5))
+                    .sum();
+                s.norm() / self.reference_length()
+            }
+        }
+    }
+
+    /// A linear primary's sheet folded onto the shortest whole number of slot pitches that
+    /// holds whole wavelengths 2τ (n slot pitches, d wavelengths): slot k adds into slot
+    /// k mod n of a closed core with n slots and 2d poles. Since e^{jνπx/τ} repeats every
+    /// 2τ, the folded sheet's slot sums equal the open primary's at every wavenumber
+    /// ν·π/(d·τ); its staircase (mean removed) gives by Parseval the sum of those waves.
+    /// A rotary sheet is returned unchanged.
+    pub fn folded(&self) -> CurrentSheet {
+        if self.topology == Topology::Rotary {
+            return self.clone();
+        }
+        let g = &self.geometry;
+        let k = crate::winding::gcd(g.angle_num, g.angle_den).max(1);
+        let n = (g.angle_den / k).max(1) as usize;
+        let d = (g.angle_num / k) as usize;
+        let mut c = vec![Complex64::new(0.0, 0.0); n];
+        for (i, ck) in self.slot_current.iter().enumerate() {
+            c[i % n] += ck;
+        }
+        let mut level = Vec::with_capacity(n);
+        let mut run = Complex64::new(0.0, 0.0);
+        for ck in &c {
+            run += ck;
+            level.push(run);
+        }
+        let mean = level.iter().sum::<Complex64>() / n as f64;
+        for l in &mut level {
+            *l -= mean;
+        }
+        let geometry = crate::winding::Geometry::rotary(n, 2 * d, g.phases, g.layers, g.core);
+        CurrentSheet {
+            topology: Topology::Rotary,
+            poles: 2 * d,
+            pole_pitch_slots: geometry.pole_pitch_slots,
+            opening: self.opening,
+            slot_current: c,
+            level,
+            geometry,
+        }
+    }
+
+    /// Points of the MMF polyline at ωt = `theta` radians, from x = 0 to x = Z.
+    pub fn snapshot(&self, theta: f64) -> Vec<MmfPoint> {
+        let z = self.slots();
+        let rot = Complex64::from_polar(1.0, theta);
+        let start = match self.topology {
+            Topology::Rotary if z > 0 => self.level[z - 1],
+            _ => Complex64::new(0.0, 0.0),
+        };
+        let half = self.opening / 2.0;
+        let mut pts = Vec::with_capacity(2 * z + 2);
+        let mut prev = start;
+        pts.push(MmfPoint {
+            x: 0.0,
+            mmf: (prev * rot).re,
+        });
+        for (k, &g) in self.level.iter().enumerate() {
+            let c = k as f64 + 0.5;
+            pts.push(MmfPoint {
+                x: c - half,
+                mmf: (prev * rot).re,
+            });
+            pts.push(MmfPoint {
+                x: c + half,
+                mmf: (g * rot).re,
+            });
+            prev = g;
+        }
+        pts.push(MmfPoint {
+            x: z as f64,
+            mmf: (prev * rot).re,
+        });
+        pts
+    }
+}
+
+/// One corner of the MMF staircase.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct MmfPoint {
+    /// Position along the gap in slot pitches (slot n, counted from 1, centred at n − 0.5).
+    pub x: f64,
+    /// MMF in ampere-turns (peak currents in, peak MMF out).
+    pub mmf: f64,
+}
+
+/// The MMF at one instant.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Snapshot {
+    /// Electrical time angle ωt in degrees.
+    pub at_deg: f64,
+    /// Corners of the staircase, left to right.
+    pub points: Vec<MmfPoint>,
+    /// Crest position of the working wave at this instant, slot pitches.
+    pub crest_x: f64,
+}
+
+/// One harmonic order of the spectrum.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct WaveRow {
+    /// Electrical order ν (ν = n/p on a rotary core; κ/(π/τ) on a linear primary).
+    pub order: f64,
+    /// Mechanical order n = ν·p (wave count around a rotary gap).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub mech_order: Option<u64>,
+    /// Forward wave amplitude relative to the working wave.
+    pub forward: f64,
+    /// Backward wave amplitude relative to the working wave.
+    pub backward: f64,
+}
+
+/// Figures only a linear primary has.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct LinearField {
+    /// Synchronous wavenumber π/τ, radians per metre (None without a slot pitch).
+    pub synchronous_wavenumber_rad_m: Option<f64>,
+    /// Synchronous wavenumber π/τ, radians per slot pitch.
+    pub synchronous_wavenumber_rad_slot: f64,
+    /// Forward wave at π/τ relative to the working wave.
+    pub forward_wave: f64,
+    /// Backward wave at π/τ relative to the working wave.
+    pub backward_wave: f64,
+    /// Uniform pulsating component the open ends add (zero wavenumber), relative to the
+    /// working wave.
+    pub pulsating: f64,
+    /// Field speed v_s = 2·f·τ, m/s.
+    pub field_speed_m_s: Option<f64>,
+    /// Secondary speed (1 − s)·v_s at the given slip, m/s.
+    pub secondary_speed_m_s: Option<f64>,
+}
+
+/// Current phasor of one phase as used.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CurrentRow {
+    /// Phase label.
+    pub phase: String,
+    /// Peak magnitude (amperes, or any unit: the spectrum is relative).
+    pub magnitude: f64,
+    /// Angle in degrees (V at −120° in positive sequence).
+    pub angle_deg: f64,
+}
+
+/// Inputs of the field analysis besides the winding.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FieldOptions {
+    /// Phase-current phasors, one per phase.
+    pub currents: Vec<Complex64>,
+    /// Slot-opening width, slot pitches.
+    pub opening: f64,
+    /// Highest electrical order listed.
+    pub upto: f64,
+    /// Instant of the snapshot, electrical degrees.
+    pub at_deg: f64,
+    /// Slip for the secondary speed.
+    pub slip: Option<f64>,
+}
+
+impl FieldOptions {
+    /// Balanced positive-sequence unit currents, no slot opening, orders to 25, ωt = 0.
+    pub fn balanced(w: &Winding) -> Self {
+        FieldOptions {
+            currents: balanced_currents(w.geometry.phases, Sequence::Positive),
+            opening: 0.0,
+            upto: 25.0,
+            at_deg: 0.0,
+            slip: None,
+        }
+    }
+}
+
+/// The travelling-field report.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct FieldReport {
+    /// Free text title.
+    pub title: Option<String>,
+    /// Core kind.
+    pub topology: Topology,
+    /// Slots Z.
+    pub slots: usize,
+    /// Poles 2p.
+    pub poles: usize,
+    /// Phases m.
+    pub phases: usize,
+    /// Layers.
+    pub layers: usize,
+    /// Design span.
+    pub pitch: usize,
+    /// Fundamental winding factor of the first phase.
+    pub winding_factor: f64,
+    /// Phase currents used.
+    pub currents: Vec<CurrentRow>,
+    /// Slot-opening width, slot pitches.
+    pub slot_opening: f64,
+    /// Which way the working wave (the stronger fundamental) travels.
+    pub working_wave: Direction,
+    /// Peak amplitude of the working wave, ampere-turns (for the current magnitudes given).
+    pub working_wave_amplitude: f64,
+    /// Highest electrical order listed.
+    pub upto: f64,
+    /// Every present order up to `upto`, amplitudes relative to the working wave.
+    pub rows: Vec<WaveRow>,
+    /// σ_d = Σ (F/F_w)² over every wave except the working wave, exact (Parseval).
+    pub differential_leakage: f64,
+    /// MMF total harmonic distortion √σ_d (all waves but the working one, r.m.s.).
+    pub thd: f64,
+    /// MMF snapshot at `--at-deg`.
+    pub snapshot: Snapshot,
+    /// Linear primaries only.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub linear: Option<LinearField>,
+    /// Speeds from the core sizes and supply.
+    pub figures: Figures,
+    /// The safety caution.
+    pub caution: &'static str,
+}
+
+/// Working wave of a sheet: the stronger fundamental wave and its direction.
+fn working(sheet: &CurrentSheet) -> Result<(Direction, f64), FieldError> {
+    let (f, b) = sheet.wave(1.0);
+    let (dir, a) = if f >= b {
+        (Direction::Forward, f)
+    } else {
+        (Direction::Backward, b)
+    };
+    let total: f64 = sheet.slot_current.iter().map(|c| c.norm()).sum();
+    if a.is_nan() || a <= 1e-12 * total {
+        return Err(FieldError::NoWorkingWave);
+    }
+    Ok((dir, a))
+}
+
+/// σ_d from a sheet and its working-wave amplitude.
+fn leakage_of(sheet: &CurrentSheet, amplitude: f64) -> f64 {
+    (sheet.mean_square() / (amplitude * amplitude) - 1.0).max(0.0)
+}
+
+/// σ_d of a sheet: on a rotary core from its own staircase; on a linear primary from the
+/// sheet folded onto whole wavelengths ([`CurrentSheet::folded`]), i.e. the sum over the
+/// open primary's spectrum at the harmonic wavenumbers, its uniform (pulsating) part
+/// excluded and reported apart.
+fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
+    match sheet.topology {
+        Topology::Rotary => {
+            let (_, a) = working(sheet)?;
+            Ok(leakage_of(sheet, a))
+        }
+        Topology::Linear => {
+            let f = sheet.folded();
+            let (_, a) = working(&f)?;
+            Ok(leakage_of(&f, a))
+        }
+    }
+}
+
+/// Differential (harmonic) leakage coefficient σ_d = Σ_{waves ≠ working} (F/F_w)² for
+/// balanced positive-sequence currents and no slot opening, computed exactly from the mean
+/// square of the MMF staircase (Parseval). Equals the textbook series Σ_{ν≠1}(k_wν/(ν·k_w1))²
+/// for balanced windings (Pyrhönen et al. 2014, ch. 4, air-gap leakage).
+/// One allocation of Z slot currents; NaN when the winding has no working wave.
+pub fn differential_leakage(w: &Winding) -> f64 {
+    let cur = balanced_currents(w.geometry.phases, Sequence::Positive);
+    match CurrentSheet::new(w, &cur, 0.0) {
+        Ok(sheet) => sigma_of(&sheet).unwrap_or(f64::NAN),
+        Err(_) => f64::NAN,
+    }
+}
+
+/// MMF total harmonic distortion √σ_d for balanced positive-sequence currents: the r.m.s.
+/// of every wave except the working wave, relative to it. NaN without a working wave.
+pub fn thd(w: &Winding) -> f64 {
+    differential_leakage(w).sqrt()
+}
+
+/// Forward and backward amplitudes of every mechanical order 1..=`top` of a rotary sheet,
+/// by one cyclic DFT of the slot currents: S±(n) depends on n only modulo Z, so all orders
+/// cost Z² multiply-adds and no trigonometry beyond one table of Z roots of unity.
+pub fn rotary_spectrum(sheet: &CurrentSheet, top: u64) -> Vec<(u64, f64, f64)> {
+    let z = sheet.slots();
+    if z == 0 || sheet.topology != Topology::Rotary {
+        return Vec::new();
+    }
+    let p = sheet.poles as f64 / 2.0;
+    let roots: Vec<Complex64> = (0..z)
+        .map(|r| Complex64::from_polar(1.0, 2.0 * PI * r as f64 / z as f64))
+        .collect();
+    // e[m] = Σ_k C_k·e^{+j2πmk/Z} = S+(n) for n ≡ m (mod Z); S−(n) = e[(−n) mod Z].
+    let mut e = vec![Complex64::new(0.0, 0.0); z];
+    for (m, em) in e.iter_mut().enumerate() {
+        let mut idx = 0usize;
+        let mut acc = Complex64::new(0.0, 0.0);
+        for ck in &sheet.slot_current {
+            acc += ck * roots[idx];
+            idx += m;
+            if idx >= z {
+                idx -= z;
+            }
+        }
+        *em = acc;
+    }
+    let mut out = Vec::with_capacity(top as usize);
+    for n in 1..=top {
+        let nu = n as f64 / p;
+        let r = (n % z as u64) as usize;
+        let scale = sheet.opening_factor(nu).abs() / (PI * nu * sheet.poles as f64);
+        let plus = e[r].norm() * scale;
+        let minus = e[(z - r) % z].norm() * scale;
+        out.push((n, plus, minus));
+    }
+    out
+}
+
+/// Spectrum rows relative to `amplitude`, present orders only, up to electrical `upto`
+/// (at most [`MAX_ORDERS`] orders).
+fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
+    let keep = |r: &WaveRow| r.forward.max(r.backward) > PRESENT;
+    match sheet.topology {
+        Topology::Rotary => {
+            let p = sheet.poles as f64 / 2.0;
+            let top = ((upto * p + 1e-9).floor().max(0.0) as u64).min(MAX_ORDERS);
+            rotary_spectrum(sheet, top)
+                .into_iter()
+                .map(|(n, f, b)| WaveRow {
+                    order: n as f64 / p,
+                    mech_order: Some(n),
+                    forward: f / amplitude,
+                    backward: b / amplitude,
+                })
+                .filter(keep)
+                .collect()
+        }
+        Topology::Linear => (1..=((upto + 1e-9).floor().max(0.0) as u64).min(MAX_ORDERS))
+            .map(|n| {
+                let (f, b) = sheet.wave(n as f64);
+                WaveRow {
+                    order: n as f64,
+                    mech_order: None,
+                    forward: f / amplitude,
+                    backward: b / amplitude,
+                }
+            })
+            .filter(keep)
+            .collect(),
+    }
+}
+
+/// Crest position (slot pitches) of the working wave at ωt = `theta` radians.
+fn crest(sheet: &CurrentSheet, dir: Direction, theta: f64) -> f64 {
+    // Forward part of Re{F̃e^{jωt}} at order 1 is Re{c·e^{j(ωt − κx')}} with
+    // c = j·S+·k_o/(π·2p) and x' = x − 0.5; backward: Re{c'·e^{j(ωt + κx')}}, c' = −j·S−·k_o/(..).
+    let (plus, minus) = sheet.slot_sums(1.0);
+    let kappa = PI / sheet.pole_pitch_slots;
+    let ko = sheet.opening_factor(1.0);
+    let x = match dir {
+        Direction::Forward => (theta + (Complex64::i() * plus * ko).arg()) / kappa,
+        Direction::Backward => -(theta + (-Complex64::i() * minus * ko).arg()) / kappa,
+    };
+    let period = 2.0 * sheet.pole_pitch_slots;
+    (x + 0.5).rem_euclid(period)
+}
+
+/// The MMF snapshot at electrical time angle `at_deg`.
+pub fn snapshot(sheet: &CurrentSheet, dir: Direction, at_deg: f64) -> Snapshot {
+    let th = at_deg.to_radians();
+    Snapshot {
+        at_deg,
+        points: sheet.snapshot(th),
+        crest_x: crest(sheet, dir, th),
+    }
+}
+
+/// Travelling-field analysis of a winding.
+pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError> {
+    let sheet = CurrentSheet::new(w, &opts.currents, opts.opening)?;
+    let (dir, amp) = working(&sheet)?;
+    let rows = rows_of(&sheet, opts.upto, amp);
+    let sigma = sigma_of(&sheet)?;
+    let g = &w.geometry;
+    let figures = linear::figures(
+        w,
+        Operating {
+            slip: opts.slip,
+            airgap_power_w: None,
+        },
+    );
+    let linear = (g.topology == Topology::Linear).then(|| {
+        let (f, b) = sheet.wave(1.0);
+        LinearField {
+            synchronous_wavenumber_rad_m: g.pole_pitch_m().map(|t| PI / t),
+            synchronous_wavenumber_rad_slot: PI / g.pole_pitch_slots,
+            forward_wave: f / amp,
+            backward_wave: b / amp,
+            pulsating: sheet.pulsating() / amp,
+            field_speed_m_s: figures.synchronous_speed_m_s,
+            secondary_speed_m_s: figures.speed_m_s,
+        }
+    });
+    Ok(FieldReport {
+        title: w.title.clone(),
+        topology: g.topology,
+        slots: g.slots,
+        poles: g.poles,
+        phases: g.phases,
+        layers: g.layers,
+        pitch: w.pitch,
+        winding_factor: factors::fundamental(w).winding,
+        currents: opts
+            .currents
+            .iter()
+            .enumerate()
+            .map(|(k, c)| CurrentRow {
+                phase: w.label(k).to_string(),
+                magnitude: c.norm(),
+                angle_deg: tidy(c.arg().to_degrees()),
+            })
+            .collect(),
+        slot_opening: opts.opening,
+        working_wave: dir,
+        working_wave_amplitude: amp,
+        upto: opts.upto,
+        rows,
+        differential_leakage: sigma,
+        thd: sigma.sqrt(),
+        snapshot: snapshot(&sheet, dir, opts.at_deg),
+        linear,
+        figures,
+        caution: CAUTION,
+    })
+}
+
+/// Snapshots at `count` instants evenly spread over one period, for drawing.
+pub fn snapshots(
+    w: &Winding,
+    opts: &FieldOptions,
+    count: usize,
+) -> Result<Vec<Snapshot>, FieldError> {
+    let sheet = CurrentSheet::new(w, &opts.currents, opts.opening)?;
+    let (dir, _) = working(&sheet)?;
+    Ok((0..count)
+        .map(|i| snapshot(&sheet, dir, 360.0 * i as f64 / count.max(1) as f64))
+        .collect())
+}
+
+/// Angle in (−180, 180] degrees with rounding dust removed.
+fn tidy(a: f64) -> f64 {
+    let r = (a * 1e9).round() / 1e9;
+    if r <= -180.0 { r + 360.0 } else { r + 0.0 }
+}

@@ -1,0 +1,390 @@
+//! How the audit and rewind reports read as text and CSV.
+
+use super::reports::{ranges, wrap};
+use super::{Align, Report, Section, Table, num};
+use crate::audit::{AuditReport, Sequence};
+use crate::rewind::{DesignSide, RewindReport};
+
+impl Report for AuditReport {
+    fn sections(&self) -> Vec<Section> {
+        let mut s = Vec::new();
+        s.push(Section::Heading(
+            self.title.clone().unwrap_or_else(|| "Winding audit".into()),
+        ));
+        let verdict = if self.sound {
+            "SOUND: no findings".to_string()
+        } else {
+            format!("NOT SOUND: {} finding(s)", self.findings.len())
+        };
+        let mut head = vec![
+            format!(
+                "{} slots, {} poles, {} layer(s), {} path(s); {verdict}",
+                self.slots, self.poles, self.layers, self.parallel_paths
+            ),
+            format!(
+                "phases balanced: {}; phase sequence {}",
+                if self.balanced { "yes" } else { "NO" },
+                match self.sequence {
+                    Sequence::Positive => "positive",
+                    Sequence::Negative => "NEGATIVE",
+                },
+            ),
+        ];
+        head.extend(wrap(&self.travel, 78));
+        head.extend(wrap(
+            &format!(
+                "backward field {}% of forward, zero sequence {}%, magnitudes spread {}%, \
+                 largest angle error {} deg",
+                num(self.backward_percent, 2),
+                num(self.zero_sequence_percent, 2),
+                num(self.magnitude_spread_percent, 2),
+                num(self.max_angle_error_deg, 2)
+            ),
+            78,
+        ));
+        if self.fix_edits > 0 {
+            head.push(format!(
+                "smallest fix: {} edit(s){}",
+                self.fix_edits,
+                if self.other_fixes > 0 {
+                    format!(
+                        " ({} other fix(es) of that size; the most regular is shown)",
+                        self.other_fixes
+                    )
+                } else {
+                    String::new()
+                }
+            ));
+        }
+        s.push(Section::Lines(head));
+        s.push(Section::Lines(wrap(self.caution, 78)));
+
+        s.push(Section::Heading("Findings".into()));
+        if self.findings.is_empty() {
+            s.push(Section::Lines(vec!["none".into()]));
+        } else {
+            let mut lines = Vec::new();
+            for (n, f) in self.findings.iter().enumerate() {
+                let kind = serde_json::to_value(f.kind)
+                    .ok()
+                    .and_then(|v| v.as_str().map(|s| s.replace('_', " ")))
+                    .unwrap_or_default();
+                let text = format!("{}. [{kind}] {}", n + 1, f.message);
+                for (i, l) in wrap(&text, 78).into_iter().enumerate() {
+                    lines.push(if i == 0 { l } else { format!("   {l}") });
+                }
+            }
+            s.push(Section::Lines(lines));
+        }
+
+        s.push(Section::Heading(
+            "Phase EMFs (effective turns N_ph*k_w; angle error from 360/m spacing)".into(),
+        ));
+        let orders: Vec<f64> = self
+            .phases
+            .first()
+            .map(|p| p.harmonics.iter().map(|h| h.order).collect())
+            .unwrap_or_default();
+        let mut cols: Vec<(String, Align)> = vec![
+            ("phase".into(), Align::Left),
+            ("coils".into(), Align::Right),
+            ("N_ph".into(), Align::Right),
+            ("magnitude".into(), Align::Right),
+            ("angle deg".into(), Align::Right),
+            ("error deg".into(), Align::Right),
+        ];
+        cols.extend(
+            orders
+                .iter()
+                .map(|o| (format!("order {}", num(*o, 3)), Align::Right)),
+        );
+        let refs: Vec<(&str, Align)> = cols.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+        let mut t = Table::new(&refs);
+        for p in &self.phases {
+            let mut row = vec![
+                p.phase.clone(),
+                p.coils.to_string(),
+                num(p.series_turns, 2),
+                num(p.magnitude, 3),
+                num(p.angle_deg, 2),
+                num(p.angle_error_deg, 2),
+            ];
+            row.extend(p.harmonics.iter().map(|h| num(h.magnitude, 3)));
+            t.push(row);
+        }
+        s.push(Section::Table(t));
+
+        if !self.paths.is_empty() {
+            s.push(Section::Heading(
+                "Parallel paths (circulating EMF against the mean of the phase's paths)".into(),
+            ));
+            let mut t = Table::new(&[
+                ("phase", Align::Left),
+                ("path", Align::Right),
+                ("turns", Align::Right),
+                ("magnitude", Align::Right),
+                ("angle deg", Align::Right),
+                ("circulating", Align::Right),
+                ("%", Align::Right),
+                ("coils", Align::Left),
+            ]);
+            for p in &self.paths {
+                t.push(vec![
+                    p.phase.clone(),
+                    p.path.to_string(),
+                    p.turns.to_string(),
+                    num(p.magnitude, 3),
+                    num(p.angle_deg, 2),
+                    num(p.circulating_emf, 3),
+                    num(p.circulating_percent, 2),
+                    ranges(&p.coils),
+                ]);
+            }
+            s.push(Section::Table(t));
+        }
+
+        let sc = &self.slot_check;
+        let mut lines = Vec::new();
+        for (what, v) in [
+            ("empty slots", &sc.empty),
+            ("slots with a layer empty", &sc.partly_filled),
+            ("overfilled slots", &sc.overfilled),
+            (
+                "half-filled end slots (by design)",
+                &sc.half_filled_by_design,
+            ),
+        ] {
+            if !v.is_empty() {
+                lines.push(format!("{what}: {}", ranges(v)));
+            }
+        }
+        if lines.is_empty() {
+            lines.push("every slot holds its full number of coil sides".into());
+        }
+        s.push(Section::Heading("Slot fill".into()));
+        s.push(Section::Lines(lines));
+
+        if let Some(c) = &self.intended {
+            s.push(Section::Heading(
+                "Slots that differ from the intended design".into(),
+            ));
+            if c.slot_differences.is_empty() {
+                s.push(Section::Lines(vec!["none".into()]));
+            } else {
+                let mut t = Table::new(&[
+                    ("slot", Align::Right),
+                    ("found", Align::Left),
+                    ("intended", Align::Left),
+                ]);
+                for d in &c.slot_differences {
+                    t.push(vec![
+                        d.slot.to_string(),
+                        d.found.join(" "),
+                        d.intended.join(" "),
+                    ]);
+                }
+                s.push(Section::Table(t));
+            }
+        }
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("finding", Align::Right),
+            ("kind", Align::Left),
+            ("coils", Align::Left),
+            ("slots", Align::Left),
+            ("phases", Align::Left),
+            ("message", Align::Left),
+        ]);
+        for (n, f) in self.findings.iter().enumerate() {
+            let kind = serde_json::to_value(f.kind)
+                .ok()
+                .and_then(|v| v.as_str().map(String::from))
+                .unwrap_or_default();
+            t.push(vec![
+                (n + 1).to_string(),
+                kind,
+                f.coils
+                    .iter()
+                    .map(|c| c.to_string())
+                    .collect::<Vec<_>>()
+                    .join(" "),
+                f.slots
+                    .iter()
+                    .map(|c| c.to_string())
+                    .collect::<Vec<_>>()
+                    .join(" "),
+                f.phases.join(" "),
+                f.message.clone(),
+            ]);
+        }
+        t
+    }
+}
+
+fn opt(x: Option<f64>, digits: usize, unit: &str) -> String {
+    x.map(|v| format!("{} {unit}", num(v, digits)))
+        .unwrap_or_else(|| "-".into())
+}
+
+fn design_rows(t: &mut Table, o: &DesignSide, n: &DesignSide) {
+    let row = |t: &mut Table, what: &str, a: String, b: String| t.push(vec![what.into(), a, b]);
+    row(t, "poles", o.poles.to_string(), n.poles.to_string());
+    row(t, "layers", o.layers.to_string(), n.layers.to_string());
+    row(
+        t,
+        "span (slot pitches)",
+        o.span.to_string(),
+        n.span.to_string(),
+    );
+    row(
+        t,
+        "connection",
+        o.connection.to_string(),
+        n.connection.to_string(),
+    );
+    row(
+        t,
+        "parallel paths",
+        o.parallel_paths.to_string(),
+        n.parallel_paths.to_string(),
+    );
+    row(
+        t,
+        "coils per phase",
+        o.coils_per_phase.to_string(),
+        n.coils_per_phase.to_string(),
+    );
+    row(
+        t,
+        "turns per coil",
+        num(o.turns_per_coil, 3),
+        num(n.turns_per_coil, 3),
+    );
+    row(
+        t,
+        "series turns per phase",
+        num(o.series_turns, 3),
+        num(n.series_turns, 3),
+    );
+    row(
+        t,
+        "conductors per slot",
+        num(o.conductors_per_slot, 3),
+        num(n.conductors_per_slot, 3),
+    );
+    row(
+        t,
+        "winding factor k_w1",
+        num(o.winding_factor, 4),
+        num(n.winding_factor, 4),
+    );
+    row(
+        t,
+        "line voltage",
+        opt(o.line_voltage_v, 1, "V"),
+        opt(n.line_voltage_v, 1, "V"),
+    );
+    row(
+        t,
+        "phase voltage",
+        opt(o.phase_voltage_v, 1, "V"),
+        opt(n.phase_voltage_v, 1, "V"),
+    );
+    row(
+        t,
+        "frequency",
+        opt(o.frequency_hz, 2, "Hz"),
+        opt(n.frequency_hz, 2, "Hz"),
+    );
+}
+
+impl Report for RewindReport {
+    fn sections(&self) -> Vec<Section> {
+        let mut s = vec![Section::Heading(
+            "Rewind: turns for the same flux density".into(),
+        )];
+        let mut head = vec![
+            format!(
+                "turns per coil: {} exact, wind {} (flux {}{}% from rounding)",
+                num(self.turns_per_coil_exact, 3),
+                self.turns_per_coil,
+                if self.flux_change_percent >= 0.0 {
+                    "+"
+                } else {
+                    ""
+                },
+                num(self.flux_change_percent, 2)
+            ),
+            format!(
+                "ratios new/old: phase voltage {}, frequency {}, k_w1 {}, pole pitch {}",
+                num(self.voltage_ratio, 4),
+                num(self.frequency_ratio, 4),
+                num(self.winding_factor_ratio, 4),
+                num(self.pole_pitch_ratio, 4)
+            ),
+        ];
+        if let Some(phi) = self.flux_per_pole_wb {
+            head.push(format!(
+                "old flux per pole {} mWb{}",
+                num(phi * 1e3, 3),
+                self.peak_flux_density_t
+                    .map(|b| format!(", peak air-gap flux density {} T", num(b, 3)))
+                    .unwrap_or_default()
+            ));
+        }
+        for a in &self.assumptions {
+            head.push(format!("assumed: {a}"));
+        }
+        s.push(Section::Lines(head));
+        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(Section::Heading("Old and new design".into()));
+        s.push(Section::Table(self.main_table()));
+        if let Some(c) = &self.conductor {
+            s.push(Section::Heading(
+                "Conductor (same copper per slot, so the same current density)".into(),
+            ));
+            let mut lines = vec![
+                format!(
+                    "old: {} x {} mm2{}",
+                    c.wires_in_hand,
+                    num(c.old_area_mm2, 4),
+                    c.old_diameter_mm
+                        .map(|d| format!(" ({} mm bare diameter)", num(d, 3)))
+                        .unwrap_or_default()
+                ),
+                format!(
+                    "new: {} mm2 copper per conductor; current per conductor x{}, phase \
+                     current x{}{}",
+                    num(c.new_conductor_area_mm2, 4),
+                    num(c.conductor_current_ratio, 4),
+                    num(c.phase_current_ratio, 4),
+                    c.power_ratio
+                        .map(|p| format!(", rating x{}", num(p, 4)))
+                        .unwrap_or_default()
+                ),
+            ];
+            lines.push(
+                c.options
+                    .iter()
+                    .map(|o| format!("{} in hand: {} mm", o.wires_in_hand, num(o.diameter_mm, 3)))
+                    .collect::<Vec<_>>()
+                    .join("; "),
+            );
+            s.push(Section::Lines(lines));
+        }
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("quantity", Align::Left),
+            ("old", Align::Right),
+            ("new", Align::Right),
+        ]);
+        design_rows(&mut t, &self.old, &self.new);
+        t
+    }
+}

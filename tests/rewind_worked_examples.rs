@@ -1,0 +1,180 @@
+//! Rewind worked examples: turns per coil for a changed span, connection, frequency or path
+//! count on the same core, from the EMF equation E_ph = 4.44·f·N_ph·k_w1·Φ (M. G. Say,
+//! *Alternating Current Machines*, 5th ed. 1983, §4.3; Pyrhönen, Jokinen, Hrabovcová, *Design
+//! of Rotating Electrical Machines*, 2014, eq. 2.59).
+
+use beltwright::factors::closed;
+use beltwright::layout::{Connection, Spec, Supply, Topology};
+use beltwright::rewind::{OldConductor, RewindError, area_of_diameter, rewind};
+use beltwright::winding::{self, Winding};
+use std::f64::consts::PI;
+
+fn design(slots: usize, poles: usize, pitch: usize, connection: Connection, f_hz: f64) -> Spec {
+    Spec {
+        pitch: Some(pitch),
+        turns_per_coil: 20,
+        connection,
+        supply: Supply {
+            frequency_hz: Some(f_hz),
+            line_voltage_v: Some(400.0),
+        },
+        ..Spec::basic(Topology::Rotary, slots, poles, 2)
+    }
+}
+
+fn build(s: &Spec) -> Winding {
+    winding::build(s).unwrap_or_else(|e| panic!("design refused: {e}"))
+}
+
+// 36 slots, 4 poles, q = 3, α = 20° electrical. Closed-form factors (Say 1983 §4.4;
+// Pyrhönen et al. 2014 eqs. 2.29, 2.32): k_d = sin(30°)/(3·sin 10°) = 0.960,
+// k_p(9/9) = 1, k_p(7/9) = sin 70° = 0.940, so k_w1 goes from 0.960 to 0.902 and the turns
+// rise by 0.960/0.902.
+#[test]
+fn shortening_full_pitch_to_seven_ninths_raises_turns_by_the_winding_factor_ratio() {
+    let old = build(&design(36, 4, 9, Connection::Star, 50.0));
+    let new = build(&design(36, 4, 7, Connection::Star, 50.0));
+    let r = rewind(&old, &new, None, 1).expect("same core");
+    let kd = closed::distribution(3, 1.0, PI / 9.0);
+    let kw_full = kd * closed::pitch(1.0, 1.0);
+    let kw_short = kd * closed::pitch(7.0 / 9.0, 1.0);
+    assert!((kw_full - 0.960).abs() < 5e-4 && (kw_short - 0.902).abs() < 5e-4);
+    let want = 20.0 * kw_full / kw_short;
+    assert!(
+        (r.turns_per_coil_exact - want).abs() < 1e-9,
+        "{}",
+        r.turns_per_coil_exact
+    );
+    assert!((r.turns_per_coil_exact / 20.0 - 0.960 / 0.902).abs() < 2e-3);
+    assert_eq!(r.turns_per_coil, 21);
+    // Rounding 21.28 down to 21 turns raises the flux by 21.28/21 − 1.
+    assert!((r.flux_change_percent - 100.0 * (want / 21.0 - 1.0)).abs() < 1e-9);
+}
+
+// Star to delta at the same line voltage: V_ph goes from V_L/√3 to V_L, so N_ph (and the
+// turns per coil) rise by √3 (standard star/delta relation).
+#[test]
+fn star_to_delta_at_the_same_line_voltage_multiplies_turns_by_root_three() {
+    let old = build(&design(36, 4, 7, Connection::Star, 50.0));
+    let new = build(&design(36, 4, 7, Connection::Delta, 50.0));
+    let r = rewind(&old, &new, Some(OldConductor::DiameterMm(1.0)), 1).expect("same core");
+    assert!((r.series_turns_exact / r.old.series_turns - 3f64.sqrt()).abs() < 1e-12);
+    assert!((r.turns_per_coil_exact - 20.0 * 3f64.sqrt()).abs() < 1e-9);
+    assert_eq!(r.turns_per_coil, 35);
+    // Conductor: with the exact turns, the same copper per slot gives the area of the same
+    // output in delta, where the phase current is the line current over √3 (standard), so
+    // the conductor shrinks by √3.
+    let c = r.conductor.expect("conductor asked for");
+    let exact_area = c.new_conductor_area_mm2 * 35.0 / r.turns_per_coil_exact;
+    assert!((exact_area - area_of_diameter(1.0) / 3f64.sqrt()).abs() < 1e-12);
+    // Area of a 1 mm wire is π/4 mm² (geometry).
+    assert!((c.old_area_mm2 - PI / 4.0).abs() < 1e-15);
+    let two = c
+        .options
+        .iter()
+        .find(|o| o.wires_in_hand == 2)
+        .expect("two in hand");
+    assert!((2.0 * area_of_diameter(two.diameter_mm) - c.new_conductor_area_mm2).abs() < 1e-12);
+}
+
+// 50 Hz to 60 Hz at the same voltage: N_ph ∝ 1/f at constant flux (EMF equation).
+#[test]
+fn fifty_to_sixty_hertz_scales_turns_by_five_sixths() {
+    let old = build(&design(36, 4, 7, Connection::Star, 50.0));
+    let new = build(&design(36, 4, 7, Connection::Star, 60.0));
+    let r = rewind(&old, &new, None, 1).expect("same core");
+    assert!((r.turns_per_coil_exact - 20.0 * 50.0 / 60.0).abs() < 1e-9);
+    assert_eq!(r.turns_per_coil, 17);
+    assert!((r.frequency_ratio - 1.2).abs() < 1e-15);
+}
+
+// Two parallel paths: N_ph = coils per phase × turns / paths, so the turns per coil double
+// for the same series turns (definition of N_ph; Say 1983 §4.3).
+#[test]
+fn two_parallel_paths_double_the_turns_per_coil_and_halve_the_wire() {
+    let old = build(&design(36, 4, 7, Connection::Star, 50.0));
+    let mut s = design(36, 4, 7, Connection::Star, 50.0);
+    s.parallel_paths = 2;
+    let new = build(&s);
+    let r = rewind(&old, &new, Some(OldConductor::AreaMm2(1.2)), 1).expect("same core");
+    assert!((r.turns_per_coil_exact - 40.0).abs() < 1e-9);
+    assert!((r.series_turns_exact - r.old.series_turns).abs() < 1e-9);
+    let c = r.conductor.expect("conductor");
+    assert!((c.new_conductor_area_mm2 - 0.6).abs() < 1e-12);
+    assert!((c.phase_current_ratio - 1.0).abs() < 1e-12);
+}
+
+// Flux per pole from the EMF equation Φ = V_ph / (4.44·f·N_ph·k_w1) (Say 1983 §4.3).
+#[test]
+fn old_flux_per_pole_follows_the_emf_equation() {
+    let old = build(&design(36, 4, 9, Connection::Star, 50.0));
+    let r = rewind(&old, &old, None, 1).expect("same core");
+    let kd = closed::distribution(3, 1.0, PI / 9.0);
+    let phi = (400.0 / 3f64.sqrt()) / (4.44 * 50.0 * 240.0 * kd);
+    assert!((r.flux_per_pole_wb.expect("supply given") - phi).abs() < 1e-12);
+    assert!((r.turns_per_coil_exact - 20.0).abs() < 1e-9);
+    assert!(r.flux_change_percent.abs() < 1e-9);
+}
+
+#[test]
+fn a_different_core_is_refused() {
+    let old = build(&design(36, 4, 9, Connection::Star, 50.0));
+    let new = build(&design(48, 4, 11, Connection::Star, 50.0));
+    assert!(matches!(
+        rewind(&old, &new, None, 1),
+        Err(RewindError::DifferentCore(_))
+    ));
+}
+
+#[test]
+fn rewind_cli_gives_the_json_contract_and_refuses_bad_flags() {
+    use assert_cmd::Command;
+    let out = Command::cargo_bin("beltwright")
+        .expect("binary")
+        .args([
+            "rewind",
+            "layouts/hoist-rewind-sound.toml",
+            "layouts/hoist-rewind-new.toml",
+            "--wire-diameter-mm",
+            "1.12",
+            "--format",
+            "json",
+        ])
+        .output()
+        .expect("runs");
+    assert_eq!(out.status.code(), Some(0));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).expect("json");
+    let exact = v["turns_per_coil_exact"].as_f64().expect("exact turns");
+    assert_eq!(v["turns_per_coil"].as_f64(), Some(exact.round()));
+    assert!(v["conductor"]["new_conductor_area_mm2"].as_f64().is_some());
+
+    for bad in [
+        vec!["--wire-diameter-mm", "-1"],
+        vec!["--wire-diameter-mm", "1", "--conductor-mm2", "1"],
+        vec!["--wires-in-hand", "0"],
+    ] {
+        let mut args = vec![
+            "rewind",
+            "layouts/hoist-rewind-sound.toml",
+            "layouts/hoist-rewind-new.toml",
+        ];
+        args.extend(bad.iter().copied());
+        let out = Command::cargo_bin("beltwright")
+            .expect("binary")
+            .args(&args)
+            .output()
+            .expect("runs");
+        assert_eq!(out.status.code(), Some(2), "{args:?}");
+    }
+    let out = Command::cargo_bin("beltwright")
+        .expect("binary")
+        .args([
+            "rewind",
+            "layouts/hoist-rewind-sound.toml",
+            "layouts/pallet-shuttle.toml",
+        ])
+        .output()
+        .expect("runs");
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("keeps the core"));
+}
