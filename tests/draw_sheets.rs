@@ -646,3 +646,44 @@ fn the_page_checks_catch_overlap_and_overflow() {
     assert_eq!(overlaps(&r.texts).len(), 1, "{:?}", r.texts);
     assert_eq!(r.outside.len(), 1, "{:?}", r.outside);
 }
+
+#[test]
+fn hostile_phase_labels_and_own_colours_come_through_safely() {
+    // Phase labels are user text too; the layout's [drawing] colours replace the defaults.
+    let src = "[machine]\ntopology = \"rotary\"\nslots = 12\npoles = 2\n\
+               phase_labels = [\"<a>\", \"B&\", \"C\\\"\"]\n[winding]\nlayers = 1\n\
+               [drawing]\ncolours = [\"#112233\", \"#445566\", \"#778899\"]\n";
+    let w = build(src, "labels");
+    for sheet in SHEETS {
+        for svg in draw::draw(&w, sheet, &Page::default()) {
+            let doc = roxmltree::Document::parse(&svg).expect("well-formed XML");
+            let texts: Vec<&str> = doc
+                .descendants()
+                .filter_map(|n| n.text())
+                .map(str::trim)
+                .collect();
+            assert!(texts.contains(&"<a>"), "{sheet:?}: label lost");
+            assert!(texts.iter().any(|t| t.contains("C\"")), "{sheet:?}");
+            export::parse(&svg).expect("usvg parses");
+            for own in ["#112233", "#445566", "#778899"] {
+                assert!(svg.contains(own), "{sheet:?}: colour {own} unused");
+            }
+            assert!(
+                !svg.contains("#D55E00"),
+                "{sheet:?}: default colour despite override"
+            );
+        }
+    }
+    // Without an override the Okabe–Ito vermillion, blue and bluish green are used.
+    let plain = build(
+        &src.replace(
+            "[drawing]\ncolours = [\"#112233\", \"#445566\", \"#778899\"]\n",
+            "",
+        ),
+        "plain",
+    );
+    let svg = &draw::draw(&plain, Sheet::Slots, &Page::default())[0];
+    for c in ["#D55E00", "#0072B2", "#009E73"] {
+        assert!(svg.contains(c), "default {c} missing");
+    }
+}
