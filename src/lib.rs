@@ -6,6 +6,7 @@
 //! `Winding`; only the binary touches the file system.
 
 pub mod audit;
+pub mod draw;
 pub mod factors;
 pub mod field;
 pub mod layout;

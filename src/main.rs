@@ -10,6 +10,7 @@ use clap::{Args, Parser, Subcommand};
 use indicatif::ProgressBar;
 
 use beltwright::audit;
+use beltwright::draw::{self, FileKind, Orientation, Page, PaperSize, Sheet};
 use beltwright::factors;
 use beltwright::field::{self, FieldOptions, Sequence};
 use beltwright::layout;
@@ -33,6 +34,9 @@ Examples:
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
   beltwright rewind layouts/hoist-rewind-sound.toml layouts/hoist-rewind-new.toml --wire-diameter-mm 1.12
+  beltwright draw layouts/pallet-shuttle.toml --sheet slots -o shuttle-slots.pdf
+  beltwright draw layouts/pump-rewind.toml --sheet connections --page a3 -o pump.svg
+  beltwright plan layouts/pump-rewind.toml --out pump-pack
 
 Caution: windings run at mains voltage. Work on them de-energised, test insulation
 before energising, and follow local electrical codes and qualified practice.";
@@ -69,6 +73,9 @@ enum Command {
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EXAMPLES)]
     Rewind(RewindArgs),
+    /// Draw a shop-floor sheet as SVG, PDF or PNG (format from the output file's extension).
+    #[command(after_help = EXAMPLES)]
+    Draw(DrawArgs),
 }
 
 #[derive(Args)]
@@ -90,6 +97,31 @@ struct PlanArgs {
     /// Air-gap power in watts, for thrust (linear) or torque (rotary).
     #[arg(long = "airgap-power-w")]
     airgap_power_w: Option<f64>,
+    /// Also write the shop pack into this folder: slot and connection sheets (SVG and PDF)
+    /// and the plan as JSON. The folder is made if absent.
+    #[arg(long)]
+    out: Option<PathBuf>,
+}
+
+#[derive(Args)]
+struct DrawArgs {
+    /// Layout file (TOML).
+    file: PathBuf,
+    /// Which sheet to draw.
+    #[arg(long, value_enum)]
+    sheet: Sheet,
+    /// Paper size.
+    #[arg(long, value_enum, default_value_t = PaperSize::A4)]
+    page: PaperSize,
+    /// Portrait instead of landscape.
+    #[arg(long)]
+    portrait: bool,
+    /// Output file: .svg, .pdf or .png. Sheets of several pages write NAME-2.svg... (PDF: one file).
+    #[arg(short = 'o', long = "output")]
+    output: PathBuf,
+    /// Resolution of PNG output, dots per inch.
+    #[arg(long, default_value_t = 150.0)]
+    dpi: f64,
 }
 
 #[derive(Args)]
@@ -290,7 +322,40 @@ fn run(cli: Cli) -> Result<String, Failure> {
                 slip: a.slip,
                 airgap_power_w: a.airgap_power_w,
             };
-            present(&plan::plan(&w, op), a.common.format)
+            let report = plan::plan(&w, op);
+            if let Some(dir) = &a.out {
+                write_pack(&w, &a.common.file, dir, &report)?;
+            }
+            present(&report, a.common.format)
+        }
+        Command::Draw(a) => {
+            let kind = FileKind::of_path(&a.output).ok_or_else(|| {
+                Failure::input(format!(
+                    "-o {}: give a file name ending in .svg, .pdf or .png",
+                    a.output.display()
+                ))
+            })?;
+            if !(a.dpi.is_finite() && (10.0..=1200.0).contains(&a.dpi)) {
+                return Err(Failure::input(format!(
+                    "--dpi {} is not valid; give a resolution from 10 to 1200",
+                    a.dpi
+                )));
+            }
+            let w = load(&a.file)?;
+            let page = Page {
+                size: a.page,
+                orientation: if a.portrait {
+                    Orientation::Portrait
+                } else {
+                    Orientation::Landscape
+                },
+            };
+            let pages = draw::draw(&w, a.sheet, &page);
+            let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
+            Ok(written
+                .iter()
+                .map(|p| format!("wrote {}\n", p.display()))
+                .collect())
         }
         Command::Factors(a) => {
             if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
@@ -554,6 +619,14 @@ fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> 
     let fail = |e: std::io::Error| Failure::input(format!("{name}: cannot write: {e}"));
     let mut tmp = tempfile::NamedTempFile::new_in(&dir).map_err(fail)?;
     tmp.write_all(bytes).map_err(fail)?;
+    // Temporary files are private (0600); an output file is an ordinary one.
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::PermissionsExt;
+        tmp.as_file()
+            .set_permissions(std::fs::Permissions::from_mode(0o644))
+            .map_err(fail)?;
+    }
     tmp.as_file().sync_all().map_err(fail)?;
     tmp.persist(path).map_err(|e| fail(e.error))?;
     Ok(())
@@ -588,4 +661,80 @@ fn read_spec(path: &Path) -> Result<(layout::Spec, String), Failure> {
         .map_err(|e| Failure::input(format!("{name}: cannot read the layout file: {e}")))?;
     let spec = layout::parse(&source, &name).map_err(|e| Failure::input(e.to_string()))?;
     Ok((spec, name))
+}
+
+/// Write one sheet's pages in `kind` to `path` (and `NAME-2.ext`... for SVG/PNG pages).
+fn write_sheet(
+    pages: &[String],
+    kind: FileKind,
+    path: &Path,
+    input: &Path,
+    dpi: f64,
+) -> Result<Vec<PathBuf>, Failure> {
+    let export = |e: draw::ExportError| Failure {
+        message: format!("{}: {e}", path.display()),
+        status: 1,
+        report: None,
+    };
+    let files: Vec<(PathBuf, Vec<u8>)> = match kind {
+        FileKind::Pdf => vec![(
+            path.to_path_buf(),
+            draw::export::to_pdf(pages).map_err(export)?,
+        )],
+        FileKind::Svg | FileKind::Png => {
+            let names = draw::export::page_paths(path, pages.len());
+            let mut v = Vec::with_capacity(pages.len());
+            for (name, svg) in names.into_iter().zip(pages) {
+                let bytes = match kind {
+                    FileKind::Png => draw::export::to_png(svg, dpi).map_err(export)?,
+                    _ => svg.clone().into_bytes(),
+                };
+                v.push((name, bytes));
+            }
+            v
+        }
+    };
+    for (name, bytes) in &files {
+        write_atomic(name, input, bytes)?;
+    }
+    Ok(files.into_iter().map(|(n, _)| n).collect())
+}
+
+/// `plan --out DIR`: slot and connection sheets (SVG and PDF) and the plan JSON.
+fn write_pack(
+    w: &Winding,
+    input: &Path,
+    dir: &Path,
+    report: &plan::PlanReport,
+) -> Result<(), Failure> {
+    std::fs::create_dir_all(dir).map_err(|e| {
+        Failure::input(format!(
+            "--out {}: cannot make the folder: {e}",
+            dir.display()
+        ))
+    })?;
+    let stem = input
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "winding".into());
+    let page = Page::default();
+    for sheet in [Sheet::Slots, Sheet::Connections] {
+        let pages = draw::draw(w, sheet, &page);
+        for kind in [FileKind::Svg, FileKind::Pdf] {
+            let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };
+            let path = dir.join(format!("{stem}-{}.{ext}", sheet.name()));
+            for p in write_sheet(&pages, kind, &path, input, 150.0)? {
+                eprintln!("wrote {}", p.display());
+            }
+        }
+    }
+    let json = render(report, Format::Json).map_err(|e| Failure {
+        message: format!("could not write the plan JSON: {e}"),
+        status: 1,
+        report: None,
+    })?;
+    let path = dir.join(format!("{stem}-plan.json"));
+    write_atomic(&path, input, json.as_bytes())?;
+    eprintln!("wrote {}", path.display());
+    Ok(())
 }

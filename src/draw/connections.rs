@@ -1,0 +1,667 @@
+//! The connection sheet: each phase's coil groups in connection order with the jumpers
+//! between them, parallel paths, the terminal board with star or delta links and the IEC
+//! 60034-8 lead markings (U1/U2, V1/V2, W1/W2), and beside it the winding schedule.
+//!
+//! Conventions (common practice): every group is wound the same way, start S at its left
+//! slot and finish F at its right; a reversed group (coils reaching backwards from their go
+//! sides) is connected finish first, so current enters at F and leaves at S. Groups of one
+//! path are joined in slot order. The terminal board has the 2-ends in the upper row shifted
+//! by one place (W2 U2 V2 over U1 V1 W1), so star links run across the upper row and delta
+//! links straight down (IEC 60034-8 marking; board layout common practice).
+
+use svg::node::element::path::Data;
+use svg::node::element::{Circle, Group, Line, Path, Rectangle};
+
+use super::page::{Canvas, Page, Rect};
+use super::palette::Palette;
+use super::text::{self, Anchor, label, r};
+use super::title::TitleBlock;
+use crate::winding::{CoilGroup, Connection, Winding, coil_groups};
+
+const BOX_W: f64 = 17.0;
+const BOX_H: f64 = 8.0;
+const BOX_GAP: f64 = 6.0;
+const LINE_H: f64 = 13.0;
+const LEAD_W: f64 = 11.0;
+const BOARD_H: f64 = 30.0;
+const SCHED_SIZE: f64 = 1.9;
+const SCHED_ROW: f64 = 2.75;
+const SCHED_HEAD: f64 = 8.0;
+const DIAGRAM_MIN_W: f64 = 120.0;
+
+/// Terminal marking of phase `k` end `end` (1 or 2): IEC 60034-8 letters for U, V, W.
+pub fn terminal(w: &Winding, k: usize, end: u8) -> String {
+    format!("{}{end}", w.label(k))
+}
+
+/// One coil of the schedule, in connection order.
+#[derive(Debug, Clone, PartialEq)]
+struct Entry {
+    coil: usize,
+    go: usize,
+    back: usize,
+    turns: u32,
+    phase: usize,
+    path: usize,
+    group: usize,
+    finish_to: String,
+}
+
+/// Groups of one phase and path, in connection (slot) order.
+fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<(usize, usize, Vec<usize>)> {
+    let mut out = Vec::new();
+    for k in 0..w.geometry.phases {
+        for p in 0..w.parallel_paths.max(1) {
+            let gs: Vec<usize> = groups
+                .iter()
+                .enumerate()
+                .filter(|(_, g)| g.phase == k && w.coils[g.coils[0]].path == p)
+                .map(|(i, _)| i)
+                .collect();
+            out.push((k, p, gs));
+        }
+    }
+    out
+}
+
+/// Coils of a group in the order current flows through them.
+fn current_order(g: &CoilGroup) -> Vec<usize> {
+    if g.polarity > 0 {
+        g.coils.clone()
+    } else {
+        g.coils.iter().rev().copied().collect()
+    }
+}
+
+fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<Entry> {
+    let mut out = Vec::new();
+    for (k, p, gs) in lanes(w, groups) {
+        for (n, &gi) in gs.iter().enumerate() {
+            let order = current_order(&groups[gi]);
+            for (j, &c) in order.iter().enumerate() {
+                let finish_to = if j + 1 < order.len() {
+                    format!("{}", order[j + 1] + 1)
+                } else if let Some(&next) = gs.get(n + 1) {
+                    let first = current_order(&groups[next])[0];
+                    format!("G{}: {}", next + 1, first + 1)
+                } else {
+                    terminal(w, k, 2)
+                };
+                let coil = &w.coils[c];
+                out.push(Entry {
+                    coil: c + 1,
+                    go: coil.go + 1,
+                    back: coil.back + 1,
+                    turns: coil.turns,
+                    phase: k,
+                    path: p + 1,
+                    group: gi + 1,
+                    finish_to,
+                });
+            }
+        }
+    }
+    out
+}
+
+/// Schedule column headings and widths (mm).
+fn columns(w: &Winding) -> Vec<(&'static str, f64)> {
+    let mut c = vec![
+        ("Coil", 8.5),
+        ("Go", 7.5),
+        ("Back", 8.0),
+        ("Turns", 8.5),
+        ("Phase", 8.5),
+        ("Group", 8.5),
+    ];
+    if w.parallel_paths > 1 {
+        c.push(("Path", 7.0));
+    }
+    c.push(("Finish to", 15.0));
+    c
+}
+
+/// Draw the connection sheet; the schedule continues on further pages when needed.
+pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
+    let groups = coil_groups(w);
+    let entries = schedule(w, &groups);
+    let cols = columns(w);
+    let col_w: f64 = cols.iter().map(|c| c.1).sum::<f64>() + 4.0;
+    let probe = Canvas::new(page, &TitleBlock::of(w, "Connections")).area;
+    let rows_per_col = (((probe.h - SCHED_HEAD - SCHED_ROW) / SCHED_ROW).floor() as usize).max(1);
+    let needed = entries.len().div_ceil(rows_per_col).max(1);
+    let most = (((probe.w - DIAGRAM_MIN_W) / col_w).floor() as usize).min(needed);
+    // The diagram comes first: give page 1 only as many schedule columns as leave the
+    // diagram near full size (none at all when even one would shrink it much).
+    let dscale = |c: usize| diagram_scale(w, &groups, probe.w - c as f64 * col_w - 4.0, probe.h);
+    let first_cols = (0..=most)
+        .rev()
+        .find(|&c| dscale(c) >= 0.85)
+        .unwrap_or_else(|| {
+            (0..=most)
+                .max_by(|&a, &b| dscale(a).total_cmp(&dscale(b)))
+                .unwrap_or(0)
+        });
+    let more_cols = ((probe.w / col_w).floor() as usize).max(1);
+    // On a narrow sheet the diagram takes the full width; the schedule then starts below
+    // it when there is room for a useful number of rows.
+    let diagram_h = diagram_height(w, &groups, probe.w);
+    let below_rows = ((probe.h - diagram_h - 6.0 - SCHED_HEAD - SCHED_ROW) / SCHED_ROW).floor();
+    let stacked = first_cols == 0 && diagram_h <= probe.h && below_rows >= 8.0;
+    let (first_n, first_rows) = if stacked {
+        let rows = below_rows as usize;
+        ((more_cols * rows).min(entries.len()), rows)
+    } else {
+        ((first_cols * rows_per_col).min(entries.len()), rows_per_col)
+    };
+    let rest = entries.len() - first_n;
+    let pages = 1 + rest.div_ceil(more_cols * rows_per_col);
+    let mut out = Vec::with_capacity(pages);
+    let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
+    let mut block = TitleBlock::of(w, "Connections");
+    block.page = (1, pages);
+    let mut canvas = Canvas::new(page, &block);
+    let a = canvas.area;
+    let sched_w = first_cols as f64 * col_w;
+    let diagram = Rect {
+        x: a.x,
+        y: a.y,
+        w: if first_cols == 0 {
+            a.w
+        } else {
+            a.w - sched_w - 4.0
+        },
+        h: if stacked { diagram_h } else { a.h },
+    };
+    canvas.add(connection_diagram(w, &pal, &groups, diagram));
+    let sched_box = if stacked {
+        Rect {
+            x: a.x,
+            y: a.y + diagram_h + 6.0,
+            w: a.w,
+            h: a.h - diagram_h - 6.0,
+        }
+    } else {
+        Rect {
+            x: a.right() - sched_w,
+            y: a.y,
+            w: sched_w,
+            h: a.h,
+        }
+    };
+    if first_n > 0 {
+        canvas.add(schedule_table(
+            w,
+            &cols,
+            &entries[..first_n],
+            sched_box,
+            first_rows,
+            pages > 1,
+        ));
+    } else {
+        canvas.add(Group::new().add(label(
+            a.right(),
+            a.bottom() - 0.5,
+            1.9,
+            Anchor::End,
+            "Winding schedule on the next sheet.",
+        )));
+    }
+    out.push(canvas.finish());
+    let mut done = first_n;
+    for n in 2..=pages {
+        let mut block = TitleBlock::of(w, "Connections");
+        block.page = (n, pages);
+        let mut canvas = Canvas::new(page, &block);
+        let a = canvas.area;
+        let take = (more_cols * rows_per_col).min(entries.len() - done);
+        canvas.add(schedule_table(
+            w,
+            &cols,
+            &entries[done..done + take],
+            a,
+            rows_per_col,
+            n < pages,
+        ));
+        done += take;
+        out.push(canvas.finish());
+    }
+    out
+}
+
+fn schedule_table(
+    w: &Winding,
+    cols: &[(&'static str, f64)],
+    entries: &[Entry],
+    b: Rect,
+    rows_per_col: usize,
+    continues: bool,
+) -> Group {
+    let col_w: f64 = cols.iter().map(|c| c.1).sum::<f64>() + 4.0;
+    let mut g = Group::new().set("class", "schedule");
+    for (ci, chunk) in entries.chunks(rows_per_col).enumerate() {
+        let x0 = b.x + ci as f64 * col_w;
+        let mut x = x0;
+        let y_head = b.y + 3.2;
+        if ci == 0 {
+            g = g.add(label(
+                x0,
+                b.y + 2.8,
+                2.6,
+                Anchor::Start,
+                "Winding schedule (connection order)",
+            ));
+        }
+        for (name, cw) in cols {
+            g = g.add(label(x, y_head + 3.0, 1.8, Anchor::Start, name).set("fill", "#333333"));
+            x += cw;
+        }
+        g = g.add(rule(x0, y_head + 4.0, x0 + col_w - 4.0, y_head + 4.0, 0.3));
+        let mut y = b.y + SCHED_HEAD + SCHED_ROW;
+        for (ri, e) in chunk.iter().enumerate() {
+            if ri % 2 == 1 {
+                g = g.add(
+                    Rectangle::new()
+                        .set("x", r(x0))
+                        .set("y", r(y - SCHED_ROW + 0.7))
+                        .set("width", r(col_w - 4.0))
+                        .set("height", r(SCHED_ROW))
+                        .set("fill", "#F0F0F0"),
+                );
+            }
+            let cells = [
+                e.coil.to_string(),
+                e.go.to_string(),
+                e.back.to_string(),
+                e.turns.to_string(),
+                w.label(e.phase).to_string(),
+                e.group.to_string(),
+            ];
+            let mut row = Group::new()
+                .set("class", "schedule-row")
+                .set("data-coil", e.coil);
+            let mut x = x0;
+            for (i, c) in cells.iter().enumerate() {
+                row = row.add(label(
+                    x,
+                    y,
+                    SCHED_SIZE,
+                    Anchor::Start,
+                    &text::fit(c, SCHED_SIZE, cols[i].1 - 0.8),
+                ));
+                x += cols[i].1;
+            }
+            if w.parallel_paths > 1 {
+                row = row.add(label(x, y, SCHED_SIZE, Anchor::Start, &e.path.to_string()));
+                x += cols[6].1;
+            }
+            let last = cols.last().map_or(15.0, |c| c.1);
+            row = row.add(label(
+                x,
+                y,
+                SCHED_SIZE,
+                Anchor::Start,
+                &text::fit(&e.finish_to, SCHED_SIZE, last),
+            ));
+            g = g.add(row);
+            y += SCHED_ROW;
+        }
+    }
+    if continues {
+        g = g.add(label(
+            b.right(),
+            b.bottom() - 0.5,
+            1.9,
+            Anchor::End,
+            "Schedule continues on the next sheet.",
+        ));
+    }
+    g
+}
+
+fn rule(x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {
+    Line::new()
+        .set("x1", r(x1))
+        .set("y1", r(y1))
+        .set("x2", r(x2))
+        .set("y2", r(y2))
+        .set("stroke", "#000000")
+        .set("stroke-width", width)
+}
+
+fn wire(pal: &Palette, k: usize, d: Data) -> Path {
+    let p = Path::new()
+        .set("d", d)
+        .set("fill", "none")
+        .set("stroke", pal.stroke(k))
+        .set("stroke-width", 0.45);
+    match pal.dash(k) {
+        "none" => p,
+        dash => p.set("stroke-dasharray", dash),
+    }
+}
+
+fn coil_list(g: &CoilGroup) -> String {
+    let mut n: Vec<usize> = g.coils.iter().map(|c| c + 1).collect();
+    n.sort_unstable();
+    let consecutive = n.windows(2).all(|p| p[1] == p[0] + 1);
+    match (n.first(), n.last()) {
+        (Some(a), Some(b)) if a == b => format!("coil {a}"),
+        (Some(a), Some(b)) if consecutive => format!("coils {a}\u{2013}{b}"),
+        _ => format!(
+            "coils {}",
+            n.iter()
+                .map(|x| x.to_string())
+                .collect::<Vec<_>>()
+                .join(",")
+        ),
+    }
+}
+
+/// Groups per line of a lane in a diagram `width` wide.
+fn per_line(width: f64) -> usize {
+    (((width - 2.0 * LEAD_W - 8.0 + BOX_GAP) / (BOX_W + BOX_GAP)).floor() as usize).max(1)
+}
+
+/// Height of the diagram drawn `width` wide at full size, mm.
+fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
+    let lanes = lanes(w, groups);
+    let n = per_line(width);
+    let lines: usize = lanes
+        .iter()
+        .map(|(_, _, gs)| gs.len().div_ceil(n).max(1))
+        .sum();
+    let note = if w.parallel_paths > 1 { 4.0 } else { 0.0 };
+    BOARD_H + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 3.0 + 4.0 + note
+}
+
+/// Scale at which the diagram fits `width` × `height` (1 when it fits at full size).
+fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
+    if width < 40.0 {
+        return 0.0;
+    }
+    (height / diagram_height(w, groups, width)).min(1.0)
+}
+
+/// Terminal board, then one lane per phase and path with the groups in connection order.
+fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect) -> Group {
+    let scale = diagram_scale(w, groups, b.w, b.h);
+    let lanes = lanes(w, groups);
+    let per_line = per_line(b.w);
+    let mut inner = Group::new();
+    inner = inner.add(label(0.0, 2.8, 2.6, Anchor::Start, "Connection diagram"));
+    inner = inner.add(board(w, pal, b.w / scale));
+    let mut y = BOARD_H + 8.0;
+    for (k, p, gs) in &lanes {
+        let mut lane = Group::new()
+            .set("class", "lane")
+            .set("data-phase", *k)
+            .set("data-path", p + 1);
+        let name = if w.parallel_paths > 1 {
+            format!("Phase {}, path {}", w.label(*k), p + 1)
+        } else {
+            format!("Phase {}", w.label(*k))
+        };
+        lane = lane.add(label(0.0, y, 2.0, Anchor::Start, &name).set("fill", "#333333"));
+        let chunks: Vec<&[usize]> = if gs.is_empty() {
+            vec![&[][..]]
+        } else {
+            gs.chunks(per_line).collect()
+        };
+        let nlines = chunks.len();
+        for (li, chunk) in chunks.iter().enumerate() {
+            let yc = y + 2.5 + BOX_H / 2.0 + li as f64 * LINE_H;
+            let mut x = LEAD_W;
+            // Lead in.
+            if li == 0 {
+                lane = lane.add(lead(&terminal(w, *k, 1), 0.0, yc));
+            } else {
+                lane = lane.add(label(LEAD_W - 1.0, yc + 0.7, 2.0, Anchor::End, "\u{2192}"));
+            }
+            let mut prev_x = if li == 0 { 2.2 } else { LEAD_W - 1.0 };
+            for &gi in chunk.iter() {
+                let grp = &groups[gi];
+                lane = lane.add(wire(
+                    pal,
+                    *k,
+                    Data::new()
+                        .move_to((r(prev_x), r(yc)))
+                        .line_to((r(x), r(yc))),
+                ));
+                lane = lane.add(group_box(w, pal, gi, grp, x, yc));
+                prev_x = x + BOX_W;
+                x += BOX_W + BOX_GAP;
+            }
+            let end_x = prev_x + 3.0;
+            lane = lane.add(wire(
+                pal,
+                *k,
+                Data::new()
+                    .move_to((r(prev_x), r(yc)))
+                    .line_to((r(end_x), r(yc))),
+            ));
+            if li + 1 == nlines {
+                lane = lane.add(lead(&terminal(w, *k, 2), end_x, yc));
+            } else {
+                lane = lane.add(label(end_x + 0.5, yc + 0.7, 2.0, Anchor::Start, "\u{2192}"));
+            }
+        }
+        inner = inner.add(lane);
+        y += nlines as f64 * LINE_H + 3.0;
+    }
+    if w.parallel_paths > 1 {
+        inner = inner.add(label(
+            0.0,
+            y + 1.0,
+            1.9,
+            Anchor::Start,
+            &format!(
+                "{} parallel paths per phase: join the path starts at the 1-lead and the path ends at the 2-lead.",
+                w.parallel_paths
+            ),
+        ));
+    }
+    Group::new()
+        .set("class", "connection-diagram")
+        .set(
+            "transform",
+            format!(
+                "translate({} {}) scale({})",
+                r(b.x),
+                r(b.y),
+                r(scale * 1000.0) / 1000.0
+            ),
+        )
+        .add(inner)
+}
+
+/// A lead end: open terminal circle with its marking above right.
+fn lead(name: &str, x: f64, y: f64) -> Group {
+    let (cx, tx, anchor) = (x + 1.2, x + 2.8, Anchor::Start);
+    Group::new()
+        .set("class", "lead")
+        .add(
+            Circle::new()
+                .set("cx", r(cx))
+                .set("cy", r(y))
+                .set("r", 1.0)
+                .set("fill", "#FFFFFF")
+                .set("stroke", "#000000")
+                .set("stroke-width", 0.35),
+        )
+        .add(label(tx, y - 1.6, 2.2, anchor, name))
+}
+
+fn group_box(w: &Winding, pal: &Palette, gi: usize, g: &CoilGroup, x: f64, yc: f64) -> Group {
+    let reversed = g.polarity < 0;
+    let (entry, exit) = if reversed { ("F", "S") } else { ("S", "F") };
+    let mut out = Group::new()
+        .set("class", "coil-group")
+        .set("data-group", gi + 1)
+        .set("data-phase", g.phase)
+        .set("data-reversed", if reversed { 1 } else { 0 })
+        .add(
+            Rectangle::new()
+                .set("x", r(x))
+                .set("y", r(yc - BOX_H / 2.0))
+                .set("width", BOX_W)
+                .set("height", BOX_H)
+                .set("rx", 0.8)
+                .set("fill", pal.tint(g.phase))
+                .set("stroke", pal.stroke(g.phase))
+                .set("stroke-width", 0.4),
+        )
+        .add(label(
+            x + BOX_W / 2.0,
+            yc - 0.6,
+            2.2,
+            Anchor::Middle,
+            &format!(
+                "G{} {}{}",
+                gi + 1,
+                w.label(g.phase),
+                if reversed { "\u{2212}" } else { "+" }
+            ),
+        ))
+        .add(label(
+            x + BOX_W / 2.0,
+            yc + 2.7,
+            1.6,
+            Anchor::Middle,
+            &text::fit(&coil_list(g), 1.6, BOX_W - 1.0),
+        ))
+        .add(label(x - 0.4, yc - 1.2, 1.6, Anchor::End, entry))
+        .add(label(x + BOX_W + 0.4, yc - 1.2, 1.6, Anchor::Start, exit));
+    if reversed {
+        out = out.add(label(
+            x + BOX_W / 2.0,
+            yc - BOX_H / 2.0 - 0.6,
+            1.6,
+            Anchor::Middle,
+            "reversed: F in, S out",
+        ));
+    }
+    out
+}
+
+/// The terminal board: 2-ends above (shifted one place), 1-ends below, with star or delta
+/// links and the supply lines.
+fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
+    let m = w.geometry.phases;
+    let pitch = 16.0;
+    let x0 = 6.0;
+    let y_top = 9.0;
+    let y_bot = 21.0;
+    let mut g = Group::new().set("class", "terminal-board");
+    let bw = (m as f64) * pitch + 4.0;
+    g = g.add(
+        Rectangle::new()
+            .set("x", r(x0 - 6.0))
+            .set("y", r(y_top - 5.0))
+            .set("width", r(bw))
+            .set("height", r(y_bot - y_top + 9.0))
+            .set("fill", "none")
+            .set("stroke", "#000000")
+            .set("stroke-width", 0.35),
+    );
+    let tx = |j: usize| x0 + j as f64 * pitch;
+    // Links first, so the terminals sit on top.
+    match w.connection {
+        Connection::Star => {
+            g = g.add(
+                Rectangle::new()
+                    .set("class", "link")
+                    .set("x", r(tx(0) - 1.0))
+                    .set("y", r(y_top - 0.7))
+                    .set("width", r(tx(m - 1) - tx(0) + 2.0))
+                    .set("height", 1.4)
+                    .set("fill", "#555555"),
+            );
+        }
+        Connection::Delta => {
+            for j in 0..m {
+                g = g.add(
+                    Rectangle::new()
+                        .set("class", "link")
+                        .set("x", r(tx(j) - 0.7))
+                        .set("y", r(y_top))
+                        .set("width", 1.4)
+                        .set("height", r(y_bot - y_top))
+                        .set("fill", "#555555"),
+                );
+            }
+        }
+    }
+    for j in 0..m {
+        let upper = (j + m - 1) % m;
+        for (k, end, y) in [(upper, 2u8, y_top), (j, 1u8, y_bot)] {
+            let name = terminal(w, k, end);
+            g = g.add(
+                Group::new()
+                    .set("class", "terminal")
+                    .set("data-phase", k)
+                    .set("data-end", end)
+                    .add(
+                        Circle::new()
+                            .set("cx", r(tx(j)))
+                            .set("cy", r(y))
+                            .set("r", 1.6)
+                            .set("fill", "#FFFFFF")
+                            .set("stroke", pal.stroke(k))
+                            .set("stroke-width", 0.5),
+                    )
+                    .add(label(tx(j) + 2.2, y - 1.6, 2.2, Anchor::Start, &name)),
+            );
+        }
+        // Supply line to the 1-end.
+        g = g.add(rule(tx(j), y_bot + 1.6, tx(j), y_bot + 5.5, 0.35));
+        g = g.add(label(
+            tx(j) + 1.0,
+            y_bot + 6.5,
+            1.8,
+            Anchor::Start,
+            &format!("L{}", j + 1),
+        ));
+    }
+    let how = match w.connection {
+        Connection::Star => format!(
+            "Star: {} linked to make the star point; supply to {}.",
+            (0..m)
+                .map(|k| terminal(w, k, 2))
+                .collect::<Vec<_>>()
+                .join(", "),
+            (0..m)
+                .map(|k| terminal(w, k, 1))
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
+        Connection::Delta => format!(
+            "Delta: {} linked; supply to {}.",
+            (0..m)
+                .map(|j| format!(
+                    "{}\u{2013}{}",
+                    terminal(w, (j + m - 1) % m, 2),
+                    terminal(w, j, 1)
+                ))
+                .collect::<Vec<_>>()
+                .join(", "),
+            (0..m)
+                .map(|k| terminal(w, k, 1))
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
+    };
+    let tx0 = bw + 2.0;
+    let room = (width - tx0).max(30.0);
+    let mut y = y_top - 2.0;
+    for line in text::wrap(&how, 2.0, room) {
+        g = g.add(label(tx0, y, 2.0, Anchor::Start, &line));
+        y += 2.7;
+    }
+    let note = "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to IEC 60034-8.";
+    for line in text::wrap(note, 1.8, room) {
+        g = g.add(label(tx0, y + 0.6, 1.8, Anchor::Start, &line).set("fill", "#333333"));
+        y += 2.5;
+    }
+    g
+}

@@ -1,0 +1,164 @@
+//! Exporters: SVG text as drawn, PDF through `svg2pdf` (text kept as text, fonts embedded)
+//! and PNG through `resvg`. Fonts: the bundled DejaVu Sans first, then the system's fonts
+//! as fallback for characters it lacks, so sheets look the same on every machine.
+
+use std::collections::HashMap;
+use std::path::Path;
+use std::sync::{Arc, OnceLock};
+
+use pdf_writer::{Content, Finish, Name, Pdf, Rect as PdfRect, Ref};
+use resvg::tiny_skia;
+use thiserror::Error;
+use usvg::fontdb;
+
+use super::text::BUNDLED_FONT;
+
+/// Why a sheet could not be exported.
+#[derive(Debug, Error, Clone, PartialEq)]
+pub enum ExportError {
+    /// The SVG we drew did not parse (a bug, reported rather than hidden).
+    #[error("the drawn SVG does not parse: {0}")]
+    Svg(String),
+    /// PDF conversion failed.
+    #[error("PDF conversion failed: {0}")]
+    Pdf(String),
+    /// PNG rendering failed.
+    #[error("PNG rendering failed: {0}")]
+    Png(String),
+}
+
+/// Output file kinds, chosen from the file name's extension.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FileKind {
+    /// Scalable vector graphics, one file per page.
+    Svg,
+    /// Portable document format, all pages in one file.
+    Pdf,
+    /// Raster image, one file per page.
+    Png,
+}
+
+impl FileKind {
+    /// The kind a path's extension names, if any (case-insensitive).
+    pub fn of_path(path: &Path) -> Option<FileKind> {
+        let ext = path.extension()?.to_str()?.to_ascii_lowercase();
+        match ext.as_str() {
+            "svg" => Some(FileKind::Svg),
+            "pdf" => Some(FileKind::Pdf),
+            "png" => Some(FileKind::Png),
+            _ => None,
+        }
+    }
+}
+
+/// Font database shared by every export: bundled font first, then system fonts.
+pub fn fonts() -> Arc<fontdb::Database> {
+    static DB: OnceLock<Arc<fontdb::Database>> = OnceLock::new();
+    DB.get_or_init(|| {
+        let mut db = fontdb::Database::new();
+        db.load_font_data(BUNDLED_FONT.to_vec());
+        db.load_system_fonts();
+        db.set_sans_serif_family("DejaVu Sans");
+        Arc::new(db)
+    })
+    .clone()
+}
+
+/// Parse a drawn sheet with `usvg`, fonts resolved against [`fonts`].
+pub fn parse(svg: &str) -> Result<usvg::Tree, ExportError> {
+    let opt = usvg::Options {
+        font_family: "DejaVu Sans".into(),
+        fontdb: fonts(),
+        ..usvg::Options::default()
+    };
+    usvg::Tree::from_str(svg, &opt).map_err(|e| ExportError::Svg(e.to_string()))
+}
+
+/// Render one sheet to PNG at `dpi` dots per inch (the sheet is drawn in millimetres).
+pub fn to_png(svg: &str, dpi: f64) -> Result<Vec<u8>, ExportError> {
+    let tree = parse(svg)?;
+    // usvg sizes a "mm" document at 96 user px per inch.
+    let scale = (dpi / 96.0) as f32;
+    let size = tree.size();
+    let w = (size.width() * scale).ceil() as u32;
+    let h = (size.height() * scale).ceil() as u32;
+    let mut pixmap = tiny_skia::Pixmap::new(w, h)
+        .ok_or_else(|| ExportError::Png(format!("cannot make a {w} × {h} image")))?;
+    pixmap.fill(tiny_skia::Color::WHITE);
+    resvg::render(
+        &tree,
+        tiny_skia::Transform::from_scale(scale, scale),
+        &mut pixmap.as_mut(),
+    );
+    pixmap
+        .encode_png()
+        .map_err(|e| ExportError::Png(e.to_string()))
+}
+
+/// Convert sheets to one PDF, a page per sheet, text embedded as text.
+pub fn to_pdf(pages: &[String]) -> Result<Vec<u8>, ExportError> {
+    let mut alloc = Ref::new(1);
+    let catalog = alloc.bump();
+    let tree_ref = alloc.bump();
+    let mut pdf = Pdf::new();
+    let mut kids = Vec::new();
+    let mut chunks = Vec::new();
+    for svg in pages {
+        let tree = parse(svg)?;
+        let (chunk, root) = svg2pdf::to_chunk(&tree, svg2pdf::ConversionOptions::default())
+            .map_err(|e| ExportError::Pdf(e.to_string()))?;
+        let mut map = HashMap::new();
+        let chunk = chunk.renumber(|old| *map.entry(old).or_insert_with(|| alloc.bump()));
+        let xobject = *map
+            .get(&root)
+            .ok_or_else(|| ExportError::Pdf("the sheet's drawing went missing".into()))?;
+        // usvg sizes are CSS px (96 per inch); PDF points are 72 per inch.
+        let w = tree.size().width() * 0.75;
+        let h = tree.size().height() * 0.75;
+        let page_ref = alloc.bump();
+        let content_ref = alloc.bump();
+        let mut page = pdf.page(page_ref);
+        page.media_box(PdfRect::new(0.0, 0.0, w, h));
+        page.parent(tree_ref);
+        page.contents(content_ref);
+        page.resources().x_objects().pair(Name(b"S1"), xobject);
+        page.finish();
+        let mut content = Content::new();
+        content
+            .transform([w, 0.0, 0.0, h, 0.0, 0.0])
+            .x_object(Name(b"S1"));
+        pdf.stream(content_ref, &content.finish());
+        kids.push(page_ref);
+        chunks.push(chunk);
+    }
+    pdf.catalog(catalog).pages(tree_ref);
+    pdf.pages(tree_ref)
+        .kids(kids.iter().copied())
+        .count(kids.len() as i32);
+    for c in &chunks {
+        pdf.extend(c);
+    }
+    Ok(pdf.finish())
+}
+
+/// File names for the pages of one output: the given name for the first page, `NAME-2.ext`,
+/// `NAME-3.ext`... for the rest (SVG and PNG hold one page each).
+pub fn page_paths(path: &Path, pages: usize) -> Vec<std::path::PathBuf> {
+    let stem = path
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let ext = path
+        .extension()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    (0..pages)
+        .map(|i| {
+            if i == 0 {
+                path.to_path_buf()
+            } else {
+                path.with_file_name(format!("{stem}-{}.{ext}", i + 1))
+            }
+        })
+        .collect()
+}

@@ -1,0 +1,60 @@
+//! Shop-floor drawings: the developed slot layout, the coil-connection diagram with its
+//! winding schedule, and the star of slots, as SVG pages (exported to PDF and PNG by
+//! [`export`]).
+//!
+//! Every sheet is a pure function of a [`Winding`] and a [`Page`] returning SVG text; shared
+//! helpers give the paper ([`page`]), the title block and caution ([`title`]) and the phase
+//! colours and dash patterns ([`palette`]). Elements a test (or a person) may want to count
+//! carry a `class` and `data-` attributes; user text only ever appears in text nodes, which
+//! the `svg` crate escapes.
+
+pub mod connections;
+pub mod export;
+pub mod page;
+pub mod palette;
+pub mod slots;
+pub mod star;
+mod text;
+pub mod title;
+
+pub use export::{ExportError, FileKind};
+pub use page::{Orientation, Page, PaperSize};
+pub use text::BUNDLED_FONT;
+
+use crate::winding::Winding;
+
+/// The sheets beltwright draws.
+///
+/// Extension point: the travelling-field plot gets a `Field` variant here, a `field.rs`
+/// beside the others with `pub fn draw(w: &Winding, page: &Page) -> Vec<String>`, and one
+/// arm in [`draw`]; the CLI, exporters and `plan --out` need no other change.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum Sheet {
+    /// The core unrolled flat: slots, coil sides, spans, groups and phase belts.
+    Slots,
+    /// Coil groups in connection order, jumpers, leads and the winding schedule.
+    Connections,
+    /// The star of slots with phase sectors and phase EMF phasors.
+    Star,
+}
+
+impl Sheet {
+    /// Name used in file names and the title block.
+    pub fn name(self) -> &'static str {
+        match self {
+            Sheet::Slots => "slots",
+            Sheet::Connections => "connections",
+            Sheet::Star => "star",
+        }
+    }
+}
+
+/// Draw one sheet of a winding: one SVG document per page (the connection sheet continues
+/// its schedule on further pages when a winding has many coils).
+pub fn draw(w: &Winding, sheet: Sheet, page: &Page) -> Vec<String> {
+    match sheet {
+        Sheet::Slots => vec![slots::draw(w, page)],
+        Sheet::Connections => connections::draw(w, page),
+        Sheet::Star => vec![star::draw(w, page)],
+    }
+}

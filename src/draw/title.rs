@@ -1,0 +1,172 @@
+//! The title block and the safety caution along the foot of every sheet.
+//!
+//! Placed bottom right as ISO 7200 places title blocks; the caution (`plan::CAUTION`) sits
+//! to its left on wide sheets and above it on narrow ones.
+
+use svg::node::element::{Group, Line, Rectangle};
+
+use super::page::Rect;
+use super::text::{self, Anchor, label, r};
+use crate::factors;
+use crate::output::num;
+use crate::plan::CAUTION;
+use crate::winding::{Style, Winding};
+
+/// Everything the title block shows.
+#[derive(Debug, Clone, PartialEq)]
+pub struct TitleBlock {
+    /// Free text title of the layout (user text).
+    pub title: String,
+    /// Sheet name, e.g. "Slot layout".
+    pub sheet: String,
+    /// Page number and page count of this sheet, from 1.
+    pub page: (usize, usize),
+    /// Labelled values: slots, poles, span, layers, turns, paths, connection, k_w1, tool.
+    pub fields: Vec<(&'static str, String)>,
+}
+
+const LABEL: f64 = 1.7;
+const VALUE: f64 = 2.8;
+const ROW: f64 = 9.0;
+const BLOCK_W: f64 = 180.0;
+const CAUTION_SIZE: f64 = 2.0;
+const CAUTION_LINE: f64 = 2.6;
+
+impl TitleBlock {
+    /// The block of a winding's sheet.
+    pub fn of(w: &Winding, sheet: &str) -> Self {
+        let g = &w.geometry;
+        let span = match w.style {
+            Style::Concentric => format!("{} (mean)", w.pitch),
+            Style::Lap => format!("{}", w.pitch),
+        };
+        TitleBlock {
+            title: w.title.clone().unwrap_or_else(|| {
+                format!("{} core, {} slots, {} poles", g.topology, g.slots, g.poles)
+            }),
+            sheet: sheet.to_string(),
+            page: (1, 1),
+            fields: vec![
+                ("Slots Z", g.slots.to_string()),
+                ("Poles 2p", g.poles.to_string()),
+                ("Span y", span),
+                ("Layers", g.layers.to_string()),
+                ("Turns/coil", w.turns_per_coil.to_string()),
+                ("Paths a", w.parallel_paths.to_string()),
+                ("Connection", w.connection.to_string()),
+                ("k_w1", num(factors::fundamental(w).winding, 4)),
+                ("Tool", format!("beltwright {}", env!("CARGO_PKG_VERSION"))),
+            ],
+        }
+    }
+
+    /// The SVG document title: layout title and sheet.
+    pub fn document_title(&self) -> String {
+        format!("{} - {}", self.title, self.sheet)
+    }
+
+    /// Draw the block and caution inside `frame`, along its foot. Returns the group and the
+    /// height taken from the frame.
+    pub fn draw(&self, frame: Rect) -> (Group, f64) {
+        let bw = BLOCK_W.min(frame.w);
+        let bx = frame.right() - bw;
+        let block_h = 2.0 * ROW;
+        let beside = frame.w - bw >= 80.0;
+        let caution_w = if beside { frame.w - bw } else { frame.w };
+        let lines = text::wrap(CAUTION, CAUTION_SIZE, caution_w - 4.0);
+        let caution_h = if beside {
+            block_h
+        } else {
+            lines.len() as f64 * CAUTION_LINE + 2.4
+        };
+        let total = if beside { block_h } else { block_h + caution_h };
+        let top = frame.bottom() - total;
+        let by = frame.bottom() - block_h;
+        let mut g = Group::new().set("class", "title-block");
+        g = g.add(rule(frame.x, top, frame.right(), top, 0.5));
+        // Row 1: title and sheet.
+        let sheet_w = bw * 0.3;
+        let title_w = bw - sheet_w;
+        g = g.add(rule(bx, by, bx, frame.bottom(), 0.5));
+        g = g.add(rule(bx, by + ROW, frame.right(), by + ROW, 0.25));
+        g = g.add(rule(bx + title_w, by, bx + title_w, by + ROW, 0.25));
+        if !beside {
+            g = g.add(rule(frame.x, by, frame.right(), by, 0.5));
+        }
+        g = g.add(cell(bx, by, title_w, "Title", &self.title, "title"));
+        let sheet = if self.page.1 > 1 {
+            format!("{} ({} of {})", self.sheet, self.page.0, self.page.1)
+        } else {
+            self.sheet.clone()
+        };
+        g = g.add(cell(bx + title_w, by, sheet_w, "Sheet", &sheet, "sheet"));
+        // Row 2: the figures, the tool cell twice as wide.
+        let n = self.fields.len() as f64 + 1.0;
+        let unit = bw / n;
+        let mut x = bx;
+        for (i, (name, value)) in self.fields.iter().enumerate() {
+            let cw = if i + 1 == self.fields.len() {
+                2.0 * unit
+            } else {
+                unit
+            };
+            if i > 0 {
+                g = g.add(rule(x, by + ROW, x, frame.bottom(), 0.25));
+            }
+            g = g.add(cell(x, by + ROW, cw, name, value, "field"));
+            x += cw;
+        }
+        // Caution.
+        let (cx, cy) = if beside {
+            (frame.x, by)
+        } else {
+            (frame.x, top)
+        };
+        let mut c = Group::new().set("class", "caution").add(
+            Rectangle::new()
+                .set("x", r(cx + 0.8))
+                .set("y", r(cy + 0.8))
+                .set("width", r(caution_w - 1.6))
+                .set("height", r(caution_h - 1.6))
+                .set("fill", "none")
+                .set("stroke", "#000000")
+                .set("stroke-width", 0.6),
+        );
+        let text_h = lines.len() as f64 * CAUTION_LINE;
+        let mut y = cy + (caution_h - text_h) / 2.0 + CAUTION_SIZE;
+        for line in &lines {
+            c = c.add(label(cx + 2.0, y, CAUTION_SIZE, Anchor::Start, line));
+            y += CAUTION_LINE;
+        }
+        (g.add(c), total)
+    }
+}
+
+fn rule(x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {
+    Line::new()
+        .set("x1", r(x1))
+        .set("y1", r(y1))
+        .set("x2", r(x2))
+        .set("y2", r(y2))
+        .set("stroke", "#000000")
+        .set("stroke-width", width)
+}
+
+/// A labelled cell: small caption on top, value below, both cut to the cell width.
+fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str) -> Group {
+    let inner = w - 2.0;
+    let mut size = VALUE;
+    while text::width(value, size) > inner && size > 2.0 {
+        size -= 0.2;
+    }
+    Group::new()
+        .set("class", class)
+        .add(label(x + 1.0, y + 2.4, LABEL, Anchor::Start, name).set("fill", "#444444"))
+        .add(label(
+            x + 1.0,
+            y + 7.4,
+            size,
+            Anchor::Start,
+            &text::fit(value, size, inner),
+        ))
+}

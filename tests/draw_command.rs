@@ -1,0 +1,138 @@
+//! The `draw` command and `plan --out`: what a user types to get sheets on disk.
+
+use std::path::{Path, PathBuf};
+
+use assert_cmd::Command;
+
+fn layout(name: &str) -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+        .join("layouts")
+        .join(name)
+}
+
+fn any_layout() -> PathBuf {
+    let mut all: Vec<PathBuf> =
+        std::fs::read_dir(PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("layouts"))
+            .expect("layouts/")
+            .filter_map(|e| e.ok().map(|e| e.path()))
+            .filter(|p| p.extension().and_then(|e| e.to_str()) == Some("toml"))
+            .collect();
+    all.sort();
+    all.remove(0)
+}
+
+fn bw() -> Command {
+    Command::cargo_bin("beltwright").expect("binary built")
+}
+
+#[test]
+fn draw_writes_svg_pdf_and_png_by_extension() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    for (sheet, ext, magic) in [
+        ("slots", "svg", &b"<svg"[..]),
+        ("connections", "pdf", &b"%PDF-"[..]),
+        ("star", "png", &b"\x89PNG"[..]),
+    ] {
+        let out = dir.path().join(format!("sheet.{ext}"));
+        bw().args(["draw"])
+            .arg(any_layout())
+            .args(["--sheet", sheet, "--page", "a3", "--portrait", "-o"])
+            .arg(&out)
+            .assert()
+            .success();
+        let bytes = std::fs::read(&out).expect("written");
+        assert!(bytes.starts_with(magic), "{sheet}.{ext}");
+    }
+}
+
+#[test]
+fn draw_refuses_an_unknown_extension_and_names_the_flag() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    let out = bw()
+        .arg("draw")
+        .arg(any_layout())
+        .args(["--sheet", "slots", "-o"])
+        .arg(dir.path().join("sheet.jpg"))
+        .assert()
+        .code(2);
+    let err = String::from_utf8_lossy(&out.get_output().stderr).to_string();
+    assert!(err.contains("-o") && err.contains(".svg"), "{err}");
+}
+
+#[test]
+fn draw_never_overwrites_the_layout_it_reads() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    let copy = dir.path().join("design.svg");
+    let source = std::fs::read_to_string(any_layout()).expect("layout");
+    std::fs::write(&copy, &source).expect("copy");
+    bw().arg("draw")
+        .arg(&copy)
+        .args(["--sheet", "slots", "-o"])
+        .arg(&copy)
+        .assert()
+        .code(2);
+    assert_eq!(std::fs::read_to_string(&copy).expect("still there"), source);
+}
+
+#[test]
+fn draw_continues_a_long_schedule_on_numbered_files() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    let big = dir.path().join("mill.toml");
+    std::fs::write(
+        &big,
+        "[machine]\ntopology = \"rotary\"\nslots = 360\npoles = 24\n[winding]\nlayers = 2\npitch = 13\n",
+    )
+    .expect("write");
+    bw().arg("draw")
+        .arg(&big)
+        .args(["--sheet", "connections", "-o"])
+        .arg(dir.path().join("mill.svg"))
+        .assert()
+        .success();
+    assert!(dir.path().join("mill.svg").exists());
+    assert!(dir.path().join("mill-2.svg").exists());
+}
+
+fn files_in(dir: &Path) -> Vec<String> {
+    let mut v: Vec<String> = std::fs::read_dir(dir)
+        .expect("dir")
+        .filter_map(|e| e.ok().map(|e| e.file_name().to_string_lossy().into_owned()))
+        .collect();
+    v.sort();
+    v
+}
+
+#[test]
+fn plan_out_writes_the_shop_pack_into_a_new_folder() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    let pack = dir.path().join("pack").join("shuttle");
+    let src = layout("pallet-shuttle.toml");
+    let input = if src.exists() { src } else { any_layout() };
+    let stem = input
+        .file_stem()
+        .and_then(|s| s.to_str())
+        .unwrap_or("")
+        .to_string();
+    bw().arg("plan")
+        .arg(&input)
+        .arg("--out")
+        .arg(&pack)
+        .assert()
+        .success();
+    let want: Vec<String> = [
+        "connections.pdf",
+        "connections.svg",
+        "plan.json",
+        "slots.pdf",
+        "slots.svg",
+    ]
+    .iter()
+    .map(|s| format!("{stem}-{s}"))
+    .collect();
+    assert_eq!(files_in(&pack), want);
+    let json: serde_json::Value = serde_json::from_str(
+        &std::fs::read_to_string(pack.join(format!("{stem}-plan.json"))).expect("json"),
+    )
+    .expect("valid JSON");
+    assert!(json["coils"].as_array().is_some_and(|c| !c.is_empty()));
+}
