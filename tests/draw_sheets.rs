@@ -9,7 +9,7 @@ use beltwright::layout;
 use beltwright::winding::{self, Topology, Winding, coil_groups};
 use resvg::tiny_skia;
 
-const SHEETS: [Sheet; 3] = [Sheet::Slots, Sheet::Connections, Sheet::Star];
+const SHEETS: [Sheet; 4] = [Sheet::Slots, Sheet::Connections, Sheet::Star, Sheet::Field];
 
 fn build(source: &str, name: &str) -> Winding {
     let spec = layout::parse(source, name).unwrap_or_else(|e| panic!("{name}: {e}"));
@@ -662,9 +662,18 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
                 .filter_map(|n| n.text())
                 .map(str::trim)
                 .collect();
+            export::parse(&svg).expect("usvg parses");
+            if sheet == Sheet::Field {
+                // The field plot names phases in its current line and keeps its own
+                // palette (it does not take [drawing] colours yet); it must still parse.
+                assert!(
+                    texts.iter().any(|t| t.contains("<a>")),
+                    "{sheet:?}: label lost"
+                );
+                continue;
+            }
             assert!(texts.contains(&"<a>"), "{sheet:?}: label lost");
             assert!(texts.iter().any(|t| t.contains("C\"")), "{sheet:?}");
-            export::parse(&svg).expect("usvg parses");
             for own in ["#112233", "#445566", "#778899"] {
                 assert!(svg.contains(own), "{sheet:?}: colour {own} unused");
             }

@@ -10,6 +10,7 @@
 
 pub mod connections;
 pub mod export;
+pub mod field;
 pub mod page;
 pub mod palette;
 pub mod slots;
@@ -25,9 +26,9 @@ use crate::winding::Winding;
 
 /// The sheets beltwright draws.
 ///
-/// Extension point: the travelling-field plot gets a `Field` variant here, a `field.rs`
-/// beside the others with `pub fn draw(w: &Winding, page: &Page) -> Vec<String>`, and one
-/// arm in [`draw`]; the CLI, exporters and `plan --out` need no other change.
+/// A new sheet is a variant here, a file beside the others with
+/// `pub fn draw(w: &Winding, page: &Page)`, and one arm in [`draw`]; the CLI, exporters and
+/// `plan --out` need no other change.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
 pub enum Sheet {
     /// The core unrolled flat: slots, coil sides, spans, groups and phase belts.
@@ -36,6 +37,8 @@ pub enum Sheet {
     Connections,
     /// The star of slots with phase sectors and phase EMF phasors.
     Star,
+    /// The travelling field: MMF snapshots over a period, its travel, and its spectrum.
+    Field,
 }
 
 impl Sheet {
@@ -45,6 +48,7 @@ impl Sheet {
             Sheet::Slots => "slots",
             Sheet::Connections => "connections",
             Sheet::Star => "star",
+            Sheet::Field => "field",
         }
     }
 }
@@ -56,5 +60,6 @@ pub fn draw(w: &Winding, sheet: Sheet, page: &Page) -> Vec<String> {
         Sheet::Slots => vec![slots::draw(w, page)],
         Sheet::Connections => connections::draw(w, page),
         Sheet::Star => vec![star::draw(w, page)],
+        Sheet::Field => vec![field::draw(w, page)],
     }
 }

@@ -448,12 +448,16 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
             ),
         ));
     if rep.rows.len() > rows.len() {
-        chart = chart.add(text(
-            RIGHT - 300.0,
-            lg,
-            11.0,
-            &format!("lowest {} of {} orders shown", rows.len(), rep.rows.len()),
-        ));
+        // Under the legend, right-aligned, so it never runs into the σ_d figure.
+        chart = chart.add(
+            text(
+                RIGHT,
+                lg + 16.0,
+                11.0,
+                &format!("lowest {} of {} orders shown", rows.len(), rep.rows.len()),
+            )
+            .set("text-anchor", "end"),
+        );
     }
     doc = doc.add(chart);
 
@@ -471,8 +475,15 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
         Topology::Rotary => "rotary core",
         Topology::Linear => "linear primary",
     };
+    // The block's left cell is 430 px wide: a long title is shortened there (it is given
+    // in full above the plot).
+    let short = if heading.chars().count() > 52 {
+        format!("{}…", heading.chars().take(51).collect::<String>())
+    } else {
+        heading.clone()
+    };
     let mut cells = vec![
-        heading.clone(),
+        short,
         format!(
             "{kind}: {} slots, {} poles, {} phases",
             rep.slots, rep.poles, rep.phases
