@@ -664,8 +664,8 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
                 .collect();
             export::parse(&svg).expect("usvg parses");
             if sheet == Sheet::Field {
-                // The field plot names phases in its current line and keeps its own
-                // palette (it does not take [drawing] colours yet); it must still parse.
+                // The field plot names phases only in its current line and colours its
+                // snapshots by instant, not by phase, so phase colours do not apply.
                 assert!(
                     texts.iter().any(|t| t.contains("<a>")),
                     "{sheet:?}: label lost"

@@ -93,9 +93,10 @@ impl Report for SurveyReport {
                 self.phases
             )),
             Section::Lines(vec![
-                "t = gcd(Z, p); lcm = lcm(Z, 2p), higher means less cogging; pull: \
-                 unbalanced radial pull"
+                "Z slots, 2p poles, L layers; ok: feasible; t = gcd(Z, p); lcm = lcm(Z, 2p),"
                     .into(),
+                "higher means less cogging; pull: unbalanced radial pull; sub: lowest".into(),
+                "sub-harmonic order; reasons for refusals are in the JSON and CSV.".into(),
             ]),
             Section::Table(self.text_table()),
         ]
@@ -157,6 +158,13 @@ impl SurveyReport {
         let mut t = self.main_table();
         t.headers.pop();
         t.align.pop();
+        for (h, short) in t
+            .headers
+            .iter_mut()
+            .zip(["Z", "2p", "L", "ok", "q", "span"])
+        {
+            *h = short.to_string();
+        }
         for r in &mut t.rows {
             r.pop();
         }
