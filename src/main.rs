@@ -30,6 +30,7 @@ Examples:
   beltwright factors layouts/fan-concentric.toml --upto 31 --format csv
   beltwright field layouts/pump-rewind.toml --upto 49 --svg pump-field.svg
   beltwright field layouts/pallet-shuttle.toml --slip 0.1 --format json
+  beltwright report layouts/pump-rewind.toml -o pump-rewind.pdf
   beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
@@ -76,6 +77,9 @@ enum Command {
     /// Draw a shop-floor sheet as SVG, PDF or PNG (format from the output file's extension).
     #[command(after_help = EXAMPLES)]
     Draw(DrawArgs),
+    /// The whole design in one go: every sheet in one PDF, or every report as text.
+    #[command(after_help = EXAMPLES)]
+    Report(ReportArgs),
 }
 
 #[derive(Args)]
@@ -119,6 +123,26 @@ struct DrawArgs {
     /// Output file: .svg, .pdf or .png. Sheets of several pages write NAME-2.svg... (PDF: one file).
     #[arg(short = 'o', long = "output")]
     output: PathBuf,
+    /// Resolution of PNG output, dots per inch.
+    #[arg(long, default_value_t = 150.0)]
+    dpi: f64,
+}
+
+#[derive(Args)]
+struct ReportArgs {
+    /// Layout file (TOML).
+    file: PathBuf,
+    /// Write every sheet (slots, connections, star, field) to this file: .pdf gives one
+    /// document; .svg or .png give NAME.svg, NAME-2.svg, ... Without it, the plan, factors
+    /// and field reports are printed one after the other as text.
+    #[arg(short = 'o', long = "output")]
+    output: Option<PathBuf>,
+    /// Paper size.
+    #[arg(long, value_enum, default_value_t = PaperSize::A4)]
+    page: PaperSize,
+    /// Portrait instead of landscape.
+    #[arg(long)]
+    portrait: bool,
     /// Resolution of PNG output, dots per inch.
     #[arg(long, default_value_t = 150.0)]
     dpi: f64,
@@ -329,33 +353,33 @@ fn run(cli: Cli) -> Result<String, Failure> {
             present(&report, a.common.format)
         }
         Command::Draw(a) => {
-            let kind = FileKind::of_path(&a.output).ok_or_else(|| {
-                Failure::input(format!(
-                    "-o {}: give a file name ending in .svg, .pdf or .png",
-                    a.output.display()
-                ))
-            })?;
-            if !(a.dpi.is_finite() && (10.0..=1200.0).contains(&a.dpi)) {
-                return Err(Failure::input(format!(
-                    "--dpi {} is not valid; give a resolution from 10 to 1200",
-                    a.dpi
-                )));
-            }
+            let kind = sheet_kind(&a.output, a.dpi)?;
             let w = load(&a.file)?;
-            let page = Page {
-                size: a.page,
-                orientation: if a.portrait {
-                    Orientation::Portrait
-                } else {
-                    Orientation::Landscape
-                },
-            };
-            let pages = draw::draw(&w, a.sheet, &page);
+            let pages = draw::draw(&w, a.sheet, &page_of(a.page, a.portrait));
             let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
-            Ok(written
-                .iter()
-                .map(|p| format!("wrote {}\n", p.display()))
-                .collect())
+            Ok(wrote(&written))
+        }
+        Command::Report(a) => {
+            let Some(out) = &a.output else {
+                let w = load(&a.file)?;
+                let mut text = present(&plan::plan(&w, Operating::default()), Format::Text)?;
+                text += "\n";
+                text += &present(&factors::factor_table(&w, 25.0), Format::Text)?;
+                if let Ok(f) = field::field(&w, &FieldOptions::balanced(&w)) {
+                    text += "\n";
+                    text += &present(&f, Format::Text)?;
+                }
+                return Ok(text);
+            };
+            let kind = sheet_kind(out, a.dpi)?;
+            let w = load(&a.file)?;
+            let page = page_of(a.page, a.portrait);
+            let pages: Vec<String> = [Sheet::Slots, Sheet::Connections, Sheet::Star, Sheet::Field]
+                .into_iter()
+                .flat_map(|sheet| draw::draw(&w, sheet, &page))
+                .collect();
+            let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
+            Ok(wrote(&written))
         }
         Command::Factors(a) => {
             if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
@@ -698,6 +722,40 @@ fn write_sheet(
         write_atomic(name, input, bytes)?;
     }
     Ok(files.into_iter().map(|(n, _)| n).collect())
+}
+
+/// The output kind named by a sheet file's extension, with the PNG resolution checked.
+fn sheet_kind(output: &Path, dpi: f64) -> Result<FileKind, Failure> {
+    let kind = FileKind::of_path(output).ok_or_else(|| {
+        Failure::input(format!(
+            "-o {}: give a file name ending in .svg, .pdf or .png",
+            output.display()
+        ))
+    })?;
+    if !(dpi.is_finite() && (10.0..=1200.0).contains(&dpi)) {
+        return Err(Failure::input(format!(
+            "--dpi {dpi} is not valid; give a resolution from 10 to 1200"
+        )));
+    }
+    Ok(kind)
+}
+
+fn page_of(size: PaperSize, portrait: bool) -> Page {
+    Page {
+        size,
+        orientation: if portrait {
+            Orientation::Portrait
+        } else {
+            Orientation::Landscape
+        },
+    }
+}
+
+fn wrote(paths: &[PathBuf]) -> String {
+    paths
+        .iter()
+        .map(|p| format!("wrote {}\n", p.display()))
+        .collect()
 }
 
 /// `plan --out DIR`: slot and connection sheets (SVG and PDF) and the plan JSON.

@@ -1,0 +1,61 @@
+//! `beltwright report`: the whole design in one document or one text.
+
+use assert_cmd::Command;
+
+fn run(args: &[&str]) -> std::process::Output {
+    Command::cargo_bin("beltwright")
+        .expect("binary")
+        .args(args)
+        .output()
+        .expect("runs")
+}
+
+#[test]
+fn report_writes_every_sheet_into_one_pdf() {
+    let dir = tempfile::tempdir().expect("dir");
+    let pdf = dir.path().join("pack.pdf");
+    let out = run(&[
+        "report",
+        "layouts/servo-tooth-coil.toml",
+        "-o",
+        pdf.to_str().expect("utf-8"),
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let bytes = std::fs::read(&pdf).expect("written");
+    assert!(bytes.starts_with(b"%PDF"));
+    // Slots, connections, star and field: one page each for a 12-coil winding.
+    assert!(String::from_utf8_lossy(&bytes).contains("/Count 4"));
+}
+
+#[test]
+fn report_without_a_file_prints_plan_factors_and_field() {
+    let out = run(&["report", "layouts/pump-rewind.toml"]);
+    assert!(out.status.success());
+    let text = String::from_utf8_lossy(&out.stdout);
+    for part in [
+        "Coils",
+        "Winding factors of phase U",
+        "Travelling field",
+        "CAUTION",
+    ] {
+        assert!(text.contains(part), "{part}");
+    }
+}
+
+#[test]
+fn report_refuses_an_unknown_output_kind() {
+    let dir = tempfile::tempdir().expect("dir");
+    let txt = dir.path().join("pack.txt");
+    let out = run(&[
+        "report",
+        "layouts/pump-rewind.toml",
+        "-o",
+        txt.to_str().expect("utf-8"),
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(!txt.exists());
+}
