@@ -5,6 +5,7 @@
 //! Say 1983, ch. 4, from memory); the end winding grows with the span, so its length is
 //! taken relative to a full-pitch coil, ∝ y/τ (common practice for a first estimate).
 
+use itertools::Itertools;
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -167,18 +168,12 @@ fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
         a.pitch.cmp(&b.pitch)
     };
     let keep: Vec<&PitchRow> = rows.iter().filter(|r| r.meets_floor).collect();
-    let named = goal
-        .suppress
-        .iter()
-        .map(|o| num(*o, 3))
-        .collect::<Vec<_>>()
-        .join(", ");
+    let named = goal.suppress.iter().map(|o| num(*o, 3)).join(", ");
     if let Some(best) = keep.iter().copied().min_by(|a, b| better(a, b)) {
         let cuts = best
             .harmonics
             .iter()
             .map(|h| format!("k_w{} to {}", num(h.order, 3), num(h.winding, 3)))
-            .collect::<Vec<_>>()
             .join(", ");
         let reason = format!(
             "Span {} ({} of a pole pitch) keeps k_w1 = {} at or above {} and brings {cuts}, \

@@ -9,6 +9,7 @@
 //! by one place (W2 U2 V2 over U1 V1 W1), so star links run across the upper row and delta
 //! links straight down (IEC 60034-8 marking; board layout common practice).
 
+use itertools::Itertools;
 use svg::node::element::path::Data;
 use svg::node::element::{Circle, Group, Line, Path, Rectangle};
 
@@ -348,13 +349,7 @@ fn coil_list(g: &CoilGroup) -> String {
     match (n.first(), n.last()) {
         (Some(a), Some(b)) if a == b => format!("coil {a}"),
         (Some(a), Some(b)) if consecutive => format!("coils {a}\u{2013}{b}"),
-        _ => format!(
-            "coils {}",
-            n.iter()
-                .map(|x| x.to_string())
-                .collect::<Vec<_>>()
-                .join(",")
-        ),
+        _ => format!("coils {}", n.iter().join(",")),
     }
 }
 
@@ -626,14 +621,8 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
     let how = match w.connection {
         Connection::Star => format!(
             "Star: {} linked to make the star point; supply to {}.",
-            (0..m)
-                .map(|k| terminal(w, k, 2))
-                .collect::<Vec<_>>()
-                .join(", "),
-            (0..m)
-                .map(|k| terminal(w, k, 1))
-                .collect::<Vec<_>>()
-                .join(", ")
+            (0..m).map(|k| terminal(w, k, 2)).join(", "),
+            (0..m).map(|k| terminal(w, k, 1)).join(", ")
         ),
         Connection::Delta => format!(
             "Delta: {} linked; supply to {}.",
@@ -643,12 +632,8 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
                     terminal(w, (j + m - 1) % m, 2),
                     terminal(w, j, 1)
                 ))
-                .collect::<Vec<_>>()
                 .join(", "),
-            (0..m)
-                .map(|k| terminal(w, k, 1))
-                .collect::<Vec<_>>()
-                .join(", ")
+            (0..m).map(|k| terminal(w, k, 1)).join(", ")
         ),
     };
     let tx0 = bw + 2.0;

@@ -5,6 +5,7 @@
 //! e^{−jθ_k}, drawn counter-clockwise positive from the right, so slots further along lag
 //! (Pyrhönen, Jokinen, Hrabovcová, *Design of Rotating Electrical Machines*, 2014, §2.4).
 
+use itertools::Itertools;
 use std::f64::consts::PI;
 
 use svg::node::element::path::Data;
@@ -213,11 +214,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
                 .set("class", "ray")
                 .set(
                     "data-slots",
-                    slots
-                        .iter()
-                        .map(|k| (k + 1).to_string())
-                        .collect::<Vec<_>>()
-                        .join(" "),
+                    slots.iter().map(|k| (k + 1).to_string()).join(" "),
                 )
                 .add(line)
                 .add(

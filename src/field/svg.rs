@@ -8,6 +8,7 @@
 //! reads in black and white. Helpers are local to this file; the shared drawing helpers
 //! (`src/draw/`) are built separately and the two will be reconciled.
 
+use itertools::Itertools;
 use svg::Document;
 use svg::node::element::path::Data;
 use svg::node::element::{
@@ -504,7 +505,6 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
                     num(c.magnitude, 3),
                     num(c.angle_deg, 1)
                 ))
-                .collect::<Vec<_>>()
                 .join(", ")
         ),
     ];

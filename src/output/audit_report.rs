@@ -4,6 +4,7 @@ use super::reports::{ranges, wrap};
 use super::{Align, Report, Section, Table, num};
 use crate::audit::{AuditReport, Sequence};
 use crate::rewind::{DesignSide, RewindReport};
+use itertools::Itertools;
 
 impl Report for AuditReport {
     fn sections(&self) -> Vec<Section> {
@@ -206,16 +207,8 @@ impl Report for AuditReport {
             t.push(vec![
                 (n + 1).to_string(),
                 kind,
-                f.coils
-                    .iter()
-                    .map(|c| c.to_string())
-                    .collect::<Vec<_>>()
-                    .join(" "),
-                f.slots
-                    .iter()
-                    .map(|c| c.to_string())
-                    .collect::<Vec<_>>()
-                    .join(" "),
+                f.coils.iter().join(" "),
+                f.slots.iter().join(" "),
                 f.phases.join(" "),
                 f.message.clone(),
             ]);
@@ -370,7 +363,6 @@ impl Report for RewindReport {
                 c.options
                     .iter()
                     .map(|o| format!("{} in hand: {} mm", o.wires_in_hand, num(o.diameter_mm, 3)))
-                    .collect::<Vec<_>>()
                     .join("; "),
             );
             s.push(Section::Lines(lines));

@@ -3,6 +3,7 @@
 use super::{Align, Report, Section, Table, num};
 use crate::pitch::PitchReport;
 use crate::survey::SurveyReport;
+use itertools::Itertools;
 
 fn opt(x: Option<f64>, digits: usize) -> String {
     x.map(|v| format!("{v:.digits$}"))
@@ -138,11 +139,7 @@ impl Report for SurveyReport {
                     Some(false) => "no".into(),
                     None => String::new(),
                 },
-                r.parallel_paths
-                    .iter()
-                    .map(|a| a.to_string())
-                    .collect::<Vec<_>>()
-                    .join(" "),
+                r.parallel_paths.iter().join(" "),
                 r.lowest_subharmonic.map(|s| num(s, 4)).unwrap_or_default(),
                 r.reason.clone().unwrap_or_default(),
             ]);

@@ -4,6 +4,7 @@ use super::reports::wrap;
 use super::{Align, Report, Section, Table, num};
 use crate::field::{Direction, FieldReport};
 use crate::winding::Topology;
+use itertools::Itertools;
 
 fn travels(forward: f64, backward: f64) -> &'static str {
     let (hi, lo) = (forward.max(backward), forward.min(backward));
@@ -38,7 +39,6 @@ impl Report for FieldReport {
                     num(c.angle_deg, 2)
                 )
             })
-            .collect::<Vec<_>>()
             .join(", ");
         let dir = match self.working_wave {
             Direction::Forward => "forward (toward higher slot numbers)",

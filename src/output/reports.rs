@@ -4,6 +4,7 @@ use super::{Align, Report, Section, Table, num};
 use crate::factors::FactorTable;
 use crate::plan::PlanReport;
 use crate::winding::{Style, Topology};
+use itertools::Itertools;
 
 /// Wrap text at `width` columns on word boundaries.
 pub fn wrap(text: &str, width: usize) -> Vec<String> {
@@ -174,11 +175,7 @@ impl Report for PlanReport {
         s.push(Section::Table(p));
         s.push(Section::Lines(vec![format!(
             "parallel path counts with equal EMFs: {}",
-            self.possible_parallel_paths
-                .iter()
-                .map(|a| a.to_string())
-                .collect::<Vec<_>>()
-                .join(", ")
+            self.possible_parallel_paths.iter().join(", ")
         )]));
 
         let f = &self.figures;

@@ -5,6 +5,7 @@ mod feasible;
 mod groups;
 mod synth;
 
+use itertools::Itertools;
 use num_complex::Complex64;
 use std::f64::consts::PI;
 use thiserror::Error;
@@ -23,7 +24,7 @@ pub enum PlanError {
     /// A slot holds more coil sides than it has layers.
     #[error(
         "slot {slot} holds {sides} coil sides but the winding has {layers} layer(s): coils {}",
-        coils.iter().map(|c| c.to_string()).collect::<Vec<_>>().join(", ")
+        coils.iter().join(", ")
     )]
     Overfilled {
         /// Slot number, 1-based.
@@ -39,7 +40,7 @@ pub enum PlanError {
     #[error(
         "{requested} parallel paths would carry unequal EMFs and drive circulating currents; \
          this winding allows {}",
-        possible.iter().map(|c| c.to_string()).collect::<Vec<_>>().join(", ")
+        possible.iter().join(", ")
     )]
     Paths {
         /// What the layout asked for.

@@ -12,6 +12,7 @@ use super::{
     double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity,
 };
 use crate::layout::{CoilEntry, Spec};
+use itertools::Itertools;
 
 /// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
 pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
@@ -337,11 +338,7 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
                 if spans.is_empty() {
                     "none (try style = \"concentric\")".to_string()
                 } else {
-                    spans
-                        .iter()
-                        .map(|s| s.to_string())
-                        .collect::<Vec<_>>()
-                        .join(", ")
+                    spans.iter().join(", ")
                 }
             ))
         })?;
