@@ -11,9 +11,9 @@
 
 use itertools::Itertools;
 use svg::node::element::path::Data;
-use svg::node::element::{Circle, Group, Line, Path, Rectangle};
+use svg::node::element::{Circle, Group, Path, Rectangle};
 
-use super::page::{Canvas, Page, Rect};
+use super::page::{Canvas, Page, Rect, rule};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
@@ -318,16 +318,6 @@ fn schedule_table(
         ));
     }
     g
-}
-
-fn rule(x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {
-    Line::new()
-        .set("x1", r(x1))
-        .set("y1", r(y1))
-        .set("x2", r(x2))
-        .set("y2", r(y2))
-        .set("stroke", "#000000")
-        .set("stroke-width", width)
 }
 
 fn wire(pal: &Palette, k: usize, d: Data) -> Path {

@@ -4,7 +4,7 @@
 //! has the text heights we chose. Sizes: ISO 216 A4 210 × 297 mm and A3 297 × 420 mm;
 //! US Letter 8.5 × 11 in = 215.9 × 279.4 mm (ANSI/ASME Y14.1).
 
-use svg::node::element::{Group, Rectangle};
+use svg::node::element::{Group, Line, Rectangle};
 use svg::{Document, Node};
 
 use super::text::{FONT_FAMILY, r};
@@ -148,4 +148,15 @@ impl Canvas {
     pub fn finish(self) -> String {
         self.doc.to_string()
     }
+}
+
+/// A black straight line of the given width (mm): frames, rules and table lines.
+pub(super) fn rule(x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {
+    Line::new()
+        .set("x1", r(x1))
+        .set("y1", r(y1))
+        .set("x2", r(x2))
+        .set("y2", r(y2))
+        .set("stroke", "#000000")
+        .set("stroke-width", width)
 }

@@ -3,9 +3,9 @@
 //! Placed bottom right as ISO 7200 places title blocks; the caution (`plan::CAUTION`) sits
 //! to its left on wide sheets and above it on narrow ones.
 
-use svg::node::element::{Group, Line, Rectangle};
+use svg::node::element::{Group, Rectangle};
 
-use super::page::Rect;
+use super::page::{Rect, rule};
 use super::text::{self, Anchor, label, r};
 use crate::factors;
 use crate::output::num;
@@ -140,16 +140,6 @@ impl TitleBlock {
         }
         (g.add(c), total)
     }
-}
-
-fn rule(x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {
-    Line::new()
-        .set("x1", r(x1))
-        .set("y1", r(y1))
-        .set("x2", r(x2))
-        .set("y2", r(y2))
-        .set("stroke", "#000000")
-        .set("stroke-width", width)
 }
 
 /// A labelled cell: small caption on top, value below, both cut to the cell width.
