@@ -64,12 +64,13 @@ pub struct GroupRow {
     pub path: usize,
 }
 
-/// A phase EMF phasor: magnitude in effective series turns N_ph·k_w, angle in degrees.
+/// One phase's phasor as reported: a phase EMF here (magnitude in effective series turns
+/// N_ph·k_w, i.e. |E| / (4.44·f·Φ)), a phase current in the field report.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct PhasorRow {
     /// Phase label.
     pub phase: String,
-    /// |E| / (4.44·f·Φ), i.e. N_ph·k_w1.
+    /// Magnitude, in the unit of the report it belongs to.
     pub magnitude: f64,
     /// Angle of the phasor, degrees (V lags U by 120° in positive sequence).
     pub angle_deg: f64,

@@ -29,7 +29,7 @@ use thiserror::Error;
 
 use crate::factors;
 use crate::linear::{self, Figures, Operating};
-use crate::plan::CAUTION;
+use crate::plan::{CAUTION, PhasorRow};
 use crate::winding::{Topology, Winding};
 
 /// Relative amplitude below which a wave is taken as absent.
@@ -478,17 +478,6 @@ pub struct LinearField {
     pub secondary_speed_m_s: Option<f64>,
 }
 
-/// Current phasor of one phase as used.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct CurrentRow {
-    /// Phase label.
-    pub phase: String,
-    /// Peak magnitude (amperes, or any unit: the spectrum is relative).
-    pub magnitude: f64,
-    /// Angle in degrees (V at −120° in positive sequence).
-    pub angle_deg: f64,
-}
-
 /// Inputs of the field analysis besides the winding.
 #[derive(Debug, Clone, PartialEq)]
 pub struct FieldOptions {
@@ -537,7 +526,7 @@ pub struct FieldReport {
     /// Fundamental winding factor of the first phase.
     pub winding_factor: f64,
     /// Phase currents used.
-    pub currents: Vec<CurrentRow>,
+    pub currents: Vec<PhasorRow>,
     /// Slot-opening width, slot pitches.
     pub slot_opening: f64,
     /// Which way the working wave (the stronger fundamental) travels.
@@ -756,7 +745,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
             .currents
             .iter()
             .enumerate()
-            .map(|(k, c)| CurrentRow {
+            .map(|(k, c)| PhasorRow {
                 phase: w.label(k).to_string(),
                 magnitude: c.norm(),
                 angle_deg: tidy(c.arg().to_degrees()),
