@@ -1,13 +1,11 @@
 //! What a rewinder does at the command line: audit a record, read the JSON, rely on the exit
 //! status (0 sound, 1 faults found, 2 bad input; contract in the design brief).
 
-use assert_cmd::Command;
+mod common;
+use common::beltwright;
+
 use serde_json::Value;
 use std::io::Write;
-
-fn beltwright() -> Command {
-    Command::cargo_bin("beltwright").expect("binary builds")
-}
 
 fn json(args: &[&str]) -> (Value, i32) {
     let out = beltwright().args(args).output().expect("runs");

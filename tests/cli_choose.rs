@@ -1,25 +1,7 @@
 //! The pitch and survey commands as a user runs them.
 
-use assert_cmd::Command;
-use serde_json::Value;
-
-fn run(args: &[&str]) -> std::process::Output {
-    Command::cargo_bin("beltwright")
-        .expect("binary")
-        .args(args)
-        .output()
-        .expect("runs")
-}
-
-fn json(args: &[&str]) -> Value {
-    let out = run(args);
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    serde_json::from_slice(&out.stdout).expect("one JSON object")
-}
+mod common;
+use common::{json, run};
 
 #[test]
 fn pitch_json_has_rows_and_a_recommendation() {

@@ -1,29 +1,18 @@
 //! The plan and factors commands as a user runs them: contract JSON, CSV and text.
 
-use assert_cmd::Command;
+mod common;
+use common::{beltwright, json};
+
+/// `json` with `--format json` added, as the plan and factors calls here want.
+fn json_of(args: &[&str]) -> Value {
+    json(&[args, &["--format", "json"]].concat())
+}
+
 use serde_json::Value;
-
-fn beltwright() -> Command {
-    Command::cargo_bin("beltwright").expect("binary built")
-}
-
-fn json(args: &[&str]) -> Value {
-    let out = beltwright()
-        .args(args)
-        .args(["--format", "json"])
-        .output()
-        .expect("runs");
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    serde_json::from_slice(&out.stdout).expect("one JSON object")
-}
 
 #[test]
 fn plan_json_has_the_contract_fields() {
-    let v = json(&["plan", "layouts/pump-rewind.toml"]);
+    let v = json_of(&["plan", "layouts/pump-rewind.toml"]);
     let coils = v["coils"].as_array().expect("coils array");
     assert_eq!(coils.len(), 36);
     let c = &coils[0];
@@ -46,7 +35,7 @@ fn plan_json_has_the_contract_fields() {
 #[test]
 fn plan_flat_primary_has_half_filled_ends() {
     // 24 coils at span 5 in 29 slots: 5 half-filled slots at each end (design brief).
-    let v = json(&["plan", "layouts/pallet-shuttle.toml"]);
+    let v = json_of(&["plan", "layouts/pallet-shuttle.toml"]);
     let half: Vec<u64> = v["half_filled_slots"]
         .as_array()
         .expect("half_filled_slots")
@@ -62,7 +51,7 @@ fn plan_gives_the_field_speed_of_a_flat_primary() {
     // v_s = 2·f·τ with τ = 6 slots × 12 mm = 72 mm at 50 Hz: 7.2 m/s; at slip 0.1 the
     // secondary runs at 6.48 m/s; 1.5 kW across the gap pushes 1500/7.2 N (Boldea and
     // Nasar, Linear Electric Motors, 1987, ch. 2).
-    let v = json(&[
+    let v = json_of(&[
         "plan",
         "layouts/pallet-shuttle.toml",
         "--slip",
@@ -79,7 +68,7 @@ fn plan_gives_the_field_speed_of_a_flat_primary() {
 
 #[test]
 fn factors_json_rows_have_the_contract_fields() {
-    let v = json(&["factors", "layouts/pump-rewind.toml", "--upto", "13"]);
+    let v = json_of(&["factors", "layouts/pump-rewind.toml", "--upto", "13"]);
     let rows = v["rows"].as_array().expect("rows");
     let orders: Vec<f64> = rows.iter().filter_map(|r| r["order"].as_f64()).collect();
     // A balanced integer-slot phase winding has odd orders only (Say 1983, §4.4).
@@ -95,7 +84,7 @@ fn factors_json_rows_have_the_contract_fields() {
 fn factors_list_sub_harmonics_of_a_fractional_slot_winding() {
     // 27 slots, 6 poles (q = 3/2): orders ν = n/3; the even electrical orders 2 and 4 are
     // present because q has an even denominator (fractional-slot theory, common practice).
-    let v = json(&["factors", "layouts/mill-fractional.toml", "--upto", "4"]);
+    let v = json_of(&["factors", "layouts/mill-fractional.toml", "--upto", "4"]);
     let orders: Vec<f64> = v["rows"]
         .as_array()
         .expect("rows")

@@ -1,8 +1,9 @@
 //! The `draw` command and `plan --out`: what a user types to get sheets on disk.
 
-use std::path::{Path, PathBuf};
+mod common;
+use common::beltwright;
 
-use assert_cmd::Command;
+use std::path::{Path, PathBuf};
 
 fn layout(name: &str) -> PathBuf {
     PathBuf::from(env!("CARGO_MANIFEST_DIR"))
@@ -21,10 +22,6 @@ fn any_layout() -> PathBuf {
     all.remove(0)
 }
 
-fn bw() -> Command {
-    Command::cargo_bin("beltwright").expect("binary built")
-}
-
 #[test]
 fn draw_writes_svg_pdf_and_png_by_extension() {
     let dir = tempfile::tempdir().expect("tempdir");
@@ -34,7 +31,8 @@ fn draw_writes_svg_pdf_and_png_by_extension() {
         ("star", "png", &b"\x89PNG"[..]),
     ] {
         let out = dir.path().join(format!("sheet.{ext}"));
-        bw().args(["draw"])
+        beltwright()
+            .args(["draw"])
             .arg(any_layout())
             .args(["--sheet", sheet, "--page", "a3", "--portrait", "-o"])
             .arg(&out)
@@ -48,7 +46,7 @@ fn draw_writes_svg_pdf_and_png_by_extension() {
 #[test]
 fn draw_refuses_an_unknown_extension_and_names_the_flag() {
     let dir = tempfile::tempdir().expect("tempdir");
-    let out = bw()
+    let out = beltwright()
         .arg("draw")
         .arg(any_layout())
         .args(["--sheet", "slots", "-o"])
@@ -65,7 +63,8 @@ fn draw_never_overwrites_the_layout_it_reads() {
     let copy = dir.path().join("design.svg");
     let source = std::fs::read_to_string(any_layout()).expect("layout");
     std::fs::write(&copy, &source).expect("copy");
-    bw().arg("draw")
+    beltwright()
+        .arg("draw")
         .arg(&copy)
         .args(["--sheet", "slots", "-o"])
         .arg(&copy)
@@ -83,7 +82,8 @@ fn draw_continues_a_long_schedule_on_numbered_files() {
         "[machine]\ntopology = \"rotary\"\nslots = 360\npoles = 24\n[winding]\nlayers = 2\npitch = 13\n",
     )
     .expect("write");
-    bw().arg("draw")
+    beltwright()
+        .arg("draw")
         .arg(&big)
         .args(["--sheet", "connections", "-o"])
         .arg(dir.path().join("mill.svg"))
@@ -113,7 +113,8 @@ fn plan_out_writes_the_shop_pack_into_a_new_folder() {
         .and_then(|s| s.to_str())
         .unwrap_or("")
         .to_string();
-    bw().arg("plan")
+    beltwright()
+        .arg("plan")
         .arg(&input)
         .arg("--out")
         .arg(&pack)

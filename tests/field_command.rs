@@ -1,22 +1,8 @@
 //! What a user does with `beltwright field`: read the spectrum as JSON/CSV, draw the field
 //! sheet, and get exit status 2 with a clear message for bad flags.
 
-use assert_cmd::Command;
-use serde_json::Value;
-
-fn beltwright() -> Command {
-    Command::cargo_bin("beltwright").expect("binary builds")
-}
-
-fn json(args: &[&str]) -> Value {
-    let out = beltwright().args(args).output().expect("runs");
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    serde_json::from_slice(&out.stdout).expect("one JSON object")
-}
+mod common;
+use common::{beltwright, json};
 
 #[test]
 fn field_json_lists_rows_leakage_and_thd() {

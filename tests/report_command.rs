@@ -1,14 +1,7 @@
 //! `beltwright report`: the whole design in one document or one text.
 
-use assert_cmd::Command;
-
-fn run(args: &[&str]) -> std::process::Output {
-    Command::cargo_bin("beltwright")
-        .expect("binary")
-        .args(args)
-        .output()
-        .expect("runs")
-}
+mod common;
+use common::run;
 
 #[test]
 fn report_writes_every_sheet_into_one_pdf() {
