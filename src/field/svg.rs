@@ -203,6 +203,18 @@ fn unwrapped_crests(rep: &FieldReport, snaps: &[Snapshot]) -> Vec<f64> {
     out.iter().map(|x| x + shift).collect()
 }
 
+/// Axis titles of a chart spanning `top..bottom`: the x title centred at `x_title_y`, the
+/// y title turned upright along the left edge.
+fn axis_titles(g: Group, (top, bottom, x_title_y): (f64, f64, f64), x: &str, y: &str) -> Group {
+    let mid = (top + bottom) / 2.0;
+    g.add(text((LEFT + RIGHT) / 2.0, x_title_y, 12.0, x).set("text-anchor", "middle"))
+        .add(
+            text(22.0, mid, 12.0, y)
+                .set("text-anchor", "middle")
+                .set("transform", format!("rotate(-90 22 {})", r(mid))),
+        )
+}
+
 /// The field sheet of `rep`, with `snaps` the MMF at several instants of one period.
 pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     let z = rep.slots as f64;
@@ -276,24 +288,12 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
                 .add(text(x, bottom + 18.0, 11.0, &s.to_string()).set("text-anchor", "middle"));
         }
     }
-    panel = panel
-        .add(
-            text(
-                (LEFT + RIGHT) / 2.0,
-                bottom + 34.0,
-                12.0,
-                "slot number along the gap",
-            )
-            .set("text-anchor", "middle"),
-        )
-        .add(
-            text(22.0, (top + bottom) / 2.0, 12.0, "MMF, ampere-turns")
-                .set("text-anchor", "middle")
-                .set(
-                    "transform",
-                    format!("rotate(-90 22 {})", r((top + bottom) / 2.0)),
-                ),
-        );
+    panel = axis_titles(
+        panel,
+        (top, bottom, bottom + 34.0),
+        "slot number along the gap",
+        "MMF, ampere-turns",
+    );
     let crests = unwrapped_crests(rep, snaps);
     for (i, s) in snaps.iter().enumerate() {
         let colour = PALETTE[i % PALETTE.len()];
@@ -400,24 +400,12 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
                 .add(text(cx, sbot + 16.0, 10.0, &num(row.order, 3)).set("text-anchor", "middle"));
         }
     }
-    chart = chart
-        .add(
-            text(
-                (LEFT + RIGHT) / 2.0,
-                sbot + 32.0,
-                12.0,
-                "electrical order ν (working wave = 1)",
-            )
-            .set("text-anchor", "middle"),
-        )
-        .add(
-            text(22.0, (stop + sbot) / 2.0, 12.0, "amplitude / working wave")
-                .set("text-anchor", "middle")
-                .set(
-                    "transform",
-                    format!("rotate(-90 22 {})", r((stop + sbot) / 2.0)),
-                ),
-        );
+    chart = axis_titles(
+        chart,
+        (stop, sbot, sbot + 32.0),
+        "electrical order ν (working wave = 1)",
+        "amplitude / working wave",
+    );
     // Legend.
     let lg = stop - 22.0;
     chart = chart
