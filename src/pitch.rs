@@ -104,6 +104,8 @@ pub fn compare(w: &Winding, goal: &PitchGoal) -> PitchReport {
     let rows: Vec<PitchRow> = (1..=top.max(1))
         .into_par_iter()
         .filter_map(|y| with_span(w, y).ok().map(|v| (y, v)))
+        // A concentric winding has one shape whatever span is asked: keep it once, at its
+        // mean span.
         .filter(|(y, v)| v.pitch == *y)
         .map(|(y, v)| row(&v, y, tau, goal))
         .collect();
