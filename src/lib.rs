@@ -6,6 +6,8 @@
 //! `Winding`; only the binary touches the file system.
 
 pub mod audit;
+pub mod card;
+pub mod design;
 pub mod draw;
 pub mod factors;
 pub mod field;

@@ -34,6 +34,7 @@ Examples:
   beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
+  beltwright card layouts/hoist-rewind-new.toml
   beltwright rewind layouts/hoist-rewind-sound.toml layouts/hoist-rewind-new.toml --wire-diameter-mm 1.12
   beltwright draw layouts/pallet-shuttle.toml --sheet slots -o shuttle-slots.pdf
   beltwright draw layouts/pump-rewind.toml --sheet connections --page a3 -o pump.svg
@@ -71,6 +72,10 @@ enum Command {
     /// and the coils to fix (exit status 1 when anything is wrong).
     #[command(after_help = EXAMPLES)]
     Audit(AuditArgs),
+    /// The winding data card: wire, mean turn, resistances, copper mass, slot fill, lead
+    /// markings with connection tables, and acceptance figures.
+    #[command(after_help = EXAMPLES)]
+    Card(Common),
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EXAMPLES)]
     Rewind(RewindArgs),
@@ -390,6 +395,10 @@ fn run(cli: Cli) -> Result<String, Failure> {
             }
             let w = load(&a.common.file)?;
             present(&factors::factor_table(&w, a.upto), a.common.format)
+        }
+        Command::Card(a) => {
+            let w = load(&a.file)?;
+            present(&beltwright::card::card(&w), a.format)
         }
         Command::Field(a) => run_field(a),
         Command::Pitch(a) => pitch(a),

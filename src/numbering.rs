@@ -25,6 +25,23 @@ pub fn ranges(ns: &[usize]) -> String {
     parts.join(", ")
 }
 
+/// A number as a message shows it: plain when it is of ordinary size, in short scientific
+/// form (`1.8e308`, `5e-324`) when it would need many digits, so no message prints a
+/// 309-digit number.
+pub fn short(x: f64) -> String {
+    let a = x.abs();
+    if x == 0.0 || (1e-4..1e9).contains(&a) {
+        let s = format!("{x:.6}");
+        let s = s.trim_end_matches('0').trim_end_matches('.');
+        if s == "-0" { "0".into() } else { s.to_string() }
+    } else {
+        format!("{x:.3e}")
+            .replace(".000e", "e")
+            .replace("00e", "e")
+            .replace("0e", "e")
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -34,5 +51,15 @@ mod tests {
         assert_eq!(ranges(&[1, 2, 3, 7, 9, 10]), "1-3, 7, 9-10");
         assert_eq!(ranges(&[]), "");
         assert_eq!(shown(0), 1);
+    }
+
+    #[test]
+    fn short_keeps_messages_short() {
+        assert_eq!(short(400.0), "400");
+        assert_eq!(short(0.85), "0.85");
+        assert_eq!(short(5e-324), "4.941e-324");
+        assert_eq!(short(f64::MAX), "1.798e308");
+        assert_eq!(short(2e12), "2e12");
+        assert!(short(-1e300).len() < 12);
     }
 }

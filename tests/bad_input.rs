@@ -80,11 +80,18 @@ fn zero_negative_and_huge_values_are_refused_with_the_valid_range() {
         assert!(err.contains(key), "{to}: {err}");
         assert!(err.contains("line"), "{to}: {err}");
     }
-    let err = refuse(&format!("{GOOD}[core]\nslot_pitch_mm = -3.0\n"));
-    assert!(
-        err.contains("core.slot_pitch_mm") && err.contains("positive"),
-        "{err}"
-    );
+    // The message names the valid range (it said only "positive" before the ranges per
+    // key; a denormal 5e-324 mm is positive but meaningless, and is refused too).
+    for bad in ["-3.0", "5e-324", "1e300"] {
+        let err = refuse(&format!("{GOOD}[core]\nslot_pitch_mm = {bad}\n"));
+        assert!(
+            err.contains("core.slot_pitch_mm") && err.contains("from 0.1 to 10000"),
+            "{err}"
+        );
+        assert!(err.len() < 200, "short numbers in messages: {err}");
+    }
+    let err = refuse(&format!("{GOOD}[supply]\nfrequency_hz = 5e-324\n"));
+    assert!(err.contains("supply.frequency_hz"), "{err}");
     let err = refuse(&format!("{GOOD}[supply]\nfrequency_hz = 0.0\n"));
     assert!(err.contains("supply.frequency_hz"), "{err}");
 }

@@ -58,6 +58,8 @@ pub enum FindingKind {
     Unbalanced,
     /// The record differs from the intended design.
     DiffersFromIntended,
+    /// Measured line-to-line resistances unbalanced or far from the data card.
+    MeasuredResistance,
 }
 
 /// One thing wrong with the winding, and what to do about it.
@@ -175,6 +177,8 @@ pub struct AuditReport {
     pub intended: Option<Comparison>,
     /// What is wrong.
     pub findings: Vec<Finding>,
+    /// Measured resistances against the data card, when `[measured]` is given.
+    pub resistance: Option<crate::card::measured::ResistanceCheck>,
     /// The safety caution.
     pub caution: &'static str,
 }
@@ -639,6 +643,36 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     let (_, path_findings) = paths(&fixed);
     let (path_rows, _) = paths(w);
     findings.extend(path_findings);
+    let resistance = crate::card::measured::check(w);
+    if let Some(r) = resistance.as_ref().filter(|r| !r.sound) {
+        findings.push(Finding {
+            kind: FindingKind::MeasuredResistance,
+            coils: Vec::new(),
+            slots: Vec::new(),
+            phases: match &r.suggestion {
+                crate::card::measured::Suggestion::PathOpen { phase, .. }
+                | crate::card::measured::Suggestion::PhaseDiffers { phase, .. } => {
+                    vec![phase.clone()]
+                }
+                _ => Vec::new(),
+            },
+            message: format!(
+                "measured line-to-line resistances {} ohm at {} C deviate up to {}% from \
+                 their mean (tolerance {}%){}; {}",
+                r.measured_ohm.map(|x| crate::output::num(x, 4)).join(", "),
+                crate::output::num(r.temperature_c, 1),
+                crate::output::num(r.deviation_percent, 2),
+                crate::output::num(r.tolerance_percent, 1),
+                r.ratio_to_expected
+                    .map(|q| format!(
+                        ", their mean is {}% of the card's",
+                        crate::output::num(q * 100.0, 1)
+                    ))
+                    .unwrap_or_default(),
+                r.suggestion.message()
+            ),
+        });
+    }
     let intended = intended.map(|d| compare(w, d));
     if let Some(c) = &intended {
         findings.extend(c.findings.iter().cloned());
@@ -685,6 +719,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         other_fixes: found.alternatives,
         intended,
         findings,
+        resistance,
         caution: CAUTION,
     }
 }

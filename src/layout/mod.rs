@@ -143,6 +143,8 @@ pub struct Spec {
     pub coils: Vec<CoilEntry>,
     /// Optional drawing colours, one per phase, as given.
     pub colours: Option<Vec<String>>,
+    /// Wire, copper rule, gap, secondary, leads and measured values.
+    pub design: crate::design::Design,
 }
 
 impl Spec {
@@ -168,6 +170,7 @@ impl Spec {
             supply: Supply::default(),
             coils: Vec::new(),
             colours: None,
+            design: crate::design::Design::default(),
         }
     }
 }

@@ -2,6 +2,10 @@
 
 use serde::Deserialize;
 
+use crate::design::{
+    Design, Insulation, Leads, Marking, Material, Measured, Secondary, TurnRule, WireSize, WireSpec,
+};
+
 use super::{
     CoilEntry, Connection, Core, LayoutError, MAX_COILS, MAX_PHASES, MAX_POLES, MAX_SLOTS,
     MAX_TURNS, Spec, Style, Supply, Topology, locate,
@@ -16,6 +20,9 @@ pub struct RawLayout {
     winding: RawWinding,
     core: Option<RawCore>,
     supply: Option<RawSupply>,
+    wire: Option<RawWire>,
+    measured: Option<RawMeasured>,
+    secondary: Option<RawSecondary>,
     drawing: Option<RawDrawing>,
     #[serde(default)]
     coil: Vec<RawCoil>,
@@ -41,6 +48,9 @@ struct RawWinding {
     parallel_paths: Option<i64>,
     connection: Option<Connection>,
     skew: Option<f64>,
+    leads: Option<i64>,
+    marking: Option<Marking>,
+    phase_resistance_ohm: Option<f64>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -49,6 +59,51 @@ struct RawCore {
     slot_pitch_mm: Option<f64>,
     bore_mm: Option<f64>,
     stack_mm: Option<f64>,
+    airgap_mm: Option<f64>,
+    slot_opening_mm: Option<f64>,
+    slot_area_mm2: Option<f64>,
+    slot_width_mm: Option<f64>,
+    slot_depth_mm: Option<f64>,
+    mean_turn_mm: Option<f64>,
+    end_allowance_mm: Option<f64>,
+    end_factor: Option<f64>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawWire {
+    diameter_mm: Option<f64>,
+    awg: Option<i64>,
+    strands_in_hand: Option<i64>,
+    grade: Option<i64>,
+    insulated_diameter_mm: Option<f64>,
+    material: Option<Material>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawMeasured {
+    line_resistance_ohm: Vec<f64>,
+    temperature_c: Option<f64>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawSecondary {
+    material: Option<PlateMaterial>,
+    conductivity_ms_m: Option<f64>,
+    thickness_mm: f64,
+    width_mm: Option<f64>,
+    back_iron: Option<bool>,
+}
+
+/// Plate metals with a tabulated conductivity.
+#[derive(Debug, Clone, Copy, Deserialize)]
+#[serde(rename_all = "lowercase")]
+enum PlateMaterial {
+    #[serde(alias = "aluminum")]
+    Aluminium,
+    Copper,
 }
 
 #[derive(Debug, Deserialize)]
@@ -116,22 +171,27 @@ impl Checker<'_> {
         Ok(value as usize)
     }
 
-    /// A finite positive size in millimetres or a supply figure.
-    fn positive(
+    /// A finite number in `lo..=hi` (a physically meaningful size or supply figure), else
+    /// an error that names the valid range.
+    fn within(
         &self,
         table: &str,
         key: &str,
         value: Option<f64>,
+        lo: f64,
         hi: f64,
     ) -> Result<Option<f64>, LayoutError> {
         match value {
             None => Ok(None),
-            Some(v) if v.is_finite() && v > 0.0 && v <= hi => Ok(Some(v)),
+            Some(v) if v.is_finite() && v >= lo && v <= hi => Ok(Some(v)),
             Some(v) => Err(self.err(
                 table,
                 0,
                 key,
-                format!("{v} is not valid; give a positive number up to {hi}"),
+                format!(
+                    "{} is not valid; give a number from {lo} to {hi}",
+                    crate::numbering::short(v)
+                ),
             )),
         }
     }
@@ -282,23 +342,24 @@ impl RawLayout {
             None => Core::default(),
             Some(k) => Core {
                 slot_pitch_m: c
-                    .positive("core", "slot_pitch_mm", k.slot_pitch_mm, 10_000.0)?
+                    .within("core", "slot_pitch_mm", k.slot_pitch_mm, 0.1, 10_000.0)?
                     .map(|v| v * 1e-3),
                 bore_m: c
-                    .positive("core", "bore_mm", k.bore_mm, 100_000.0)?
+                    .within("core", "bore_mm", k.bore_mm, 1.0, 100_000.0)?
                     .map(|v| v * 1e-3),
                 stack_m: c
-                    .positive("core", "stack_mm", k.stack_mm, 100_000.0)?
+                    .within("core", "stack_mm", k.stack_mm, 1.0, 100_000.0)?
                     .map(|v| v * 1e-3),
             },
         };
         let supply = match &self.supply {
             None => Supply::default(),
             Some(s) => Supply {
-                frequency_hz: c.positive("supply", "frequency_hz", s.frequency_hz, 1e6)?,
-                line_voltage_v: c.positive("supply", "line_voltage_v", s.line_voltage_v, 1e6)?,
+                frequency_hz: c.within("supply", "frequency_hz", s.frequency_hz, 0.01, 1e6)?,
+                line_voltage_v: c.within("supply", "line_voltage_v", s.line_voltage_v, 1.0, 1e6)?,
             },
         };
+        let design = self.design(&c, parallel_paths)?;
 
         if self.coil.len() > MAX_COILS {
             return Err(c.err(
@@ -432,7 +493,240 @@ impl RawLayout {
             supply,
             coils,
             colours,
+            design,
         })
+    }
+
+    /// The optional design tables: wire, copper rule, slot area, gap, secondary, leads and
+    /// measured values, each checked against its physical range.
+    fn design(&self, c: &Checker, parallel_paths: usize) -> Result<Design, LayoutError> {
+        let mm = |v: Option<f64>| v.map(|x| x * 1e-3);
+        let mut d = Design::default();
+        if let Some(k) = &self.core {
+            d.airgap_m = mm(c.within("core", "airgap_mm", k.airgap_mm, 0.01, 1000.0)?);
+            d.slot_opening_m =
+                mm(c.within("core", "slot_opening_mm", k.slot_opening_mm, 0.0, 1000.0)?);
+            let area = c.within("core", "slot_area_mm2", k.slot_area_mm2, 0.01, 1e6)?;
+            let width = c.within("core", "slot_width_mm", k.slot_width_mm, 0.1, 1000.0)?;
+            let depth = c.within("core", "slot_depth_mm", k.slot_depth_mm, 0.1, 1000.0)?;
+            d.slot_area_m2 = match (area, width, depth) {
+                (Some(_), Some(_), _) | (Some(_), _, Some(_)) => {
+                    return Err(c.err(
+                        "core",
+                        0,
+                        "slot_area_mm2",
+                        "give the slot's usable area or its width and depth, not both".into(),
+                    ));
+                }
+                (Some(a), None, None) => Some(a * 1e-6),
+                (None, Some(w), Some(h)) => Some(w * h * 1e-6),
+                (None, Some(_), None) | (None, None, Some(_)) => {
+                    let key = if width.is_some() {
+                        "slot_width_mm"
+                    } else {
+                        "slot_depth_mm"
+                    };
+                    return Err(c.err(
+                        "core",
+                        0,
+                        key,
+                        "give both slot_width_mm and slot_depth_mm (the usable rectangle), \
+                         or slot_area_mm2"
+                            .into(),
+                    ));
+                }
+                (None, None, None) => None,
+            };
+            let rule = TurnRule::default();
+            d.turn = TurnRule {
+                mean_turn_m: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
+                end_allowance_m: mm(c.within(
+                    "core",
+                    "end_allowance_mm",
+                    k.end_allowance_mm,
+                    0.0,
+                    10_000.0,
+                )?)
+                .unwrap_or(rule.end_allowance_m),
+                end_factor: c
+                    .within("core", "end_factor", k.end_factor, 0.0, 10.0)?
+                    .unwrap_or(rule.end_factor),
+            };
+        }
+        if let Some(wr) = &self.wire {
+            let size = match (wr.diameter_mm, wr.awg) {
+                (Some(_), Some(_)) => {
+                    return Err(c.err(
+                        "wire",
+                        0,
+                        "awg",
+                        "give the bare size once: diameter_mm or awg, not both".into(),
+                    ));
+                }
+                (Some(dm), None) => WireSize::Diameter(
+                    c.within("wire", "diameter_mm", Some(dm), 0.01, 20.0)?
+                        .unwrap_or(dm)
+                        * 1e-3,
+                ),
+                (None, Some(n)) if (-3..=56).contains(&n) => WireSize::Awg(n as i32),
+                (None, Some(n)) => {
+                    return Err(c.err(
+                        "wire",
+                        0,
+                        "awg",
+                        format!(
+                            "{n} is not a gauge; give a whole number from -3 (0000) to 56, \
+                             e.g. 18"
+                        ),
+                    ));
+                }
+                (None, None) => {
+                    return Err(c.err(
+                        "wire",
+                        0,
+                        "diameter_mm",
+                        "give the bare wire size as diameter_mm (e.g. 0.85) or awg (e.g. 18)"
+                            .into(),
+                    ));
+                }
+            };
+            let strands = c.range(
+                "wire",
+                "strands_in_hand",
+                wr.strands_in_hand.unwrap_or(1),
+                1,
+                100,
+                "number of strands in hand",
+            )? as u32;
+            let insulation = match (wr.grade, wr.insulated_diameter_mm) {
+                (Some(_), Some(_)) => {
+                    return Err(c.err(
+                        "wire",
+                        0,
+                        "insulated_diameter_mm",
+                        "give the enamel once: grade or insulated_diameter_mm, not both".into(),
+                    ));
+                }
+                (Some(g), None) => {
+                    Insulation::Grade(c.range("wire", "grade", g, 1, 3, "IEC 60317 grade")? as u8)
+                }
+                (None, Some(o)) => Insulation::Diameter(
+                    c.within("wire", "insulated_diameter_mm", Some(o), 0.01, 25.0)?
+                        .unwrap_or(o)
+                        * 1e-3,
+                ),
+                (None, None) => Insulation::Grade(2),
+            };
+            d.wire = Some(WireSpec {
+                size,
+                strands_in_hand: strands,
+                insulation,
+                material: wr.material.unwrap_or_default(),
+            });
+        }
+        let w = &self.winding;
+        d.phase_resistance_ohm = c.within(
+            "winding",
+            "phase_resistance_ohm",
+            w.phase_resistance_ohm,
+            1e-6,
+            1e6,
+        )?;
+        let count = c.range(
+            "winding",
+            "leads",
+            w.leads.unwrap_or(6),
+            3,
+            12,
+            "lead count",
+        )?;
+        if ![3, 6, 9, 12].contains(&count) {
+            return Err(c.err(
+                "winding",
+                0,
+                "leads",
+                format!("{count} leads is not a scheme; give 3, 6, 9 or 12"),
+            ));
+        }
+        if count >= 9 && parallel_paths != 2 {
+            return Err(c.err(
+                "winding",
+                0,
+                "leads",
+                format!(
+                    "{count} leads bring out two sections per phase for a dual-voltage \
+                     connection, so the winding needs parallel_paths = 2 (it has \
+                     {parallel_paths}); give leads = 3 or 6, or parallel_paths = 2"
+                ),
+            ));
+        }
+        d.leads = Leads {
+            count: count as u8,
+            marking: w.marking.unwrap_or_default(),
+        };
+        if let Some(m) = &self.measured {
+            if m.line_resistance_ohm.len() != 3 {
+                return Err(c.err(
+                    "measured",
+                    0,
+                    "line_resistance_ohm",
+                    format!(
+                        "{} values given; give three, between terminals 1-2, 2-3 and 3-1",
+                        m.line_resistance_ohm.len()
+                    ),
+                ));
+            }
+            for v in &m.line_resistance_ohm {
+                c.within("measured", "line_resistance_ohm", Some(*v), 1e-6, 1e6)?;
+            }
+            d.measured = Some(Measured {
+                line_resistance_ohm: [
+                    m.line_resistance_ohm[0],
+                    m.line_resistance_ohm[1],
+                    m.line_resistance_ohm[2],
+                ],
+                temperature_c: c
+                    .within("measured", "temperature_c", m.temperature_c, -60.0, 250.0)?
+                    .unwrap_or(20.0),
+            });
+        }
+        if let Some(s) = &self.secondary {
+            let conductivity = match (s.material, s.conductivity_ms_m) {
+                (Some(_), Some(_)) => {
+                    return Err(c.err(
+                        "secondary",
+                        0,
+                        "conductivity_ms_m",
+                        "give material or conductivity_ms_m, not both".into(),
+                    ));
+                }
+                (None, Some(v)) => {
+                    c.within("secondary", "conductivity_ms_m", Some(v), 0.1, 100.0)?
+                        .unwrap_or(v)
+                        * 1e6
+                }
+                (Some(PlateMaterial::Copper), None) => crate::card::wire::COPPER.conductivity_s_m(),
+                (Some(PlateMaterial::Aluminium), None) | (None, None) => {
+                    crate::card::wire::PLATE_ALUMINIUM_S_M
+                }
+            };
+            d.secondary = Some(Secondary {
+                conductivity_s_m: conductivity,
+                thickness_m: c
+                    .within(
+                        "secondary",
+                        "thickness_mm",
+                        Some(s.thickness_mm),
+                        0.05,
+                        200.0,
+                    )?
+                    .unwrap_or(s.thickness_mm)
+                    * 1e-3,
+                width_m: mm(c.within("secondary", "width_mm", s.width_mm, 1.0, 100_000.0)?),
+                back_iron: s.back_iron.unwrap_or(true),
+            });
+        }
+        Ok(d)
     }
 }
 

@@ -78,6 +78,30 @@ impl Report for AuditReport {
             s.push(Section::Lines(lines));
         }
 
+        if let Some(r) = &self.resistance {
+            s.push(Section::Heading(format!(
+                "Measured resistance at {} C against the data card",
+                num(r.temperature_c, 1)
+            )));
+            let mut t = Table::new(&[
+                ("terminals", Align::Left),
+                ("measured ohm", Align::Right),
+                ("expected ohm", Align::Right),
+                ("from mean %", Align::Right),
+            ]);
+            let mean = r.measured_ohm.iter().sum::<f64>() / 3.0;
+            for (k, pair) in ["1-2", "2-3", "3-1"].iter().enumerate() {
+                t.push(vec![
+                    pair.to_string(),
+                    num(r.measured_ohm[k], 5),
+                    r.expected_ohm.map_or("-".into(), |e| num(e[k], 5)),
+                    num((r.measured_ohm[k] / mean - 1.0) * 100.0, 2),
+                ]);
+            }
+            s.push(Section::Table(t));
+            s.push(Section::Lines(wrap(&r.suggestion.message(), 78)));
+        }
+
         s.push(Section::Heading(
             "Phase EMFs (effective turns N_ph*k_w; angle error from 360/m spacing)".into(),
         ));

@@ -2,6 +2,7 @@
 //! a new format never touches an analysis (one exporter per format behind [`Exporter`]).
 
 mod audit_report;
+mod card_report;
 mod choose_report;
 mod csv;
 mod field_report;
@@ -11,6 +12,7 @@ pub(crate) mod reports;
 mod table;
 mod text;
 
+pub use card_report::configuration_name;
 pub use csv::Csv;
 pub use json::Json;
 pub use pitch_svg::pitch_chart;

@@ -201,6 +201,8 @@ pub struct Winding {
     pub from_coil_list: bool,
     /// Drawing colours per phase, when the layout overrides the defaults.
     pub colours: Option<Vec<String>>,
+    /// Wire, copper rule, gap, secondary, leads and measured values.
+    pub design: crate::design::Design,
 }
 
 /// Relative tolerance used for "equal" phasors throughout.

@@ -79,6 +79,7 @@ fn blank_winding(spec: &Spec, geometry: Geometry, pitch: usize, coils: Vec<Coil>
         supply: spec.supply,
         from_coil_list: false,
         colours: spec.colours.clone(),
+        design: spec.design,
     }
 }
 
@@ -628,6 +629,7 @@ pub fn with_span(w: &Winding, pitch: usize) -> Result<Winding, PlanError> {
         supply: w.supply,
         coils: Vec::new(),
         colours: w.colours.clone(),
+        design: w.design,
     };
     build(&spec)
 }

@@ -1,0 +1,442 @@
+//! The winding data card: what a rewind shop orders, winds and measures by. Wire and strands,
+//! mean turn, resistances between the leads, copper mass, slot fill, lead markings and
+//! connection tables, and the acceptance figures a finished winding is checked against.
+//!
+//! Mean turn (when not given as `core.mean_turn_mm`): per coil
+//!   l_mt = 2·L + 2·k_e·W + l_a,
+//! with L the stack, W the coil's span width (span × slot pitch at the gap), k_e = 1.2 and
+//! l_a = 0.1 m by default (both adjustable). This is the rule for random-wound low-voltage
+//! machines quoted by Pyrhönen, Jokinen and Hrabovcová, *Design of Rotating Electrical
+//! Machines*, 2nd ed. 2014, in the chapter on resistance (l_av ≈ 2l + 2.4W + 0.1 m; from
+//! memory), and common practice as a first estimate; shops that measure a turn of the old
+//! winding give it instead.
+
+pub mod leads;
+pub mod measured;
+pub mod wire;
+
+use serde::Serialize;
+
+use crate::design::Measured;
+use crate::plan::CAUTION;
+use crate::winding::{Topology, Winding, coil_groups};
+use leads::{LeadScheme, SectionResistance};
+use wire::{Wire, metal};
+
+/// Usual upper limit of the slot fill by insulated wire area, for hand-inserted random
+/// windings: 0.75 (common practice, from memory). Above it the last coils do not go in.
+pub const FILL_LIMIT: f64 = 0.75;
+
+/// Balance tolerance of line-to-line resistances: largest deviation from the mean ±2 % for
+/// random-wound windings (ANSI/EASA AR100, recommended practice for the repair of
+/// rotating electrical apparatus; from memory).
+pub const BALANCE_TOLERANCE_PERCENT: f64 = 2.0;
+
+/// Temperature at which expected resistances are quoted when nothing was measured, °C.
+pub const SHOP_TEMPERATURE_C: f64 = 25.0;
+
+/// Something on the card a shop should look at before winding.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum CardWarning {
+    /// The wire does not fit the slot comfortably.
+    FillAboveLimit {
+        /// Fill by insulated wire area.
+        fill: f64,
+        /// The limit.
+        limit: f64,
+    },
+    /// No stack length or slot pitch, so no mean turn, resistance or mass.
+    NoMeanTurn,
+    /// No wire data and no phase resistance key.
+    NoWire,
+    /// Lead schemes and line resistances are for three-phase windings only.
+    NotThreePhase,
+}
+
+impl CardWarning {
+    /// The warning in words.
+    pub fn message(&self) -> String {
+        match self {
+            CardWarning::FillAboveLimit { fill, limit } => format!(
+                "slot fill {:.0}% by insulated wire is above the usual {:.0}% for hand \
+                 insertion: choose a smaller wire with more strands, or check the slot area",
+                fill * 100.0,
+                limit * 100.0
+            ),
+            CardWarning::NoMeanTurn => "no mean turn: give core.stack_mm and the slot pitch (or \
+                 bore), or core.mean_turn_mm, for resistance and copper mass"
+                .into(),
+            CardWarning::NoWire => "no wire: give [wire] diameter_mm or awg for resistance, \
+                 copper mass and fill"
+                .into(),
+            CardWarning::NotThreePhase => {
+                "lead markings and line resistances are given for three-phase windings only".into()
+            }
+        }
+    }
+}
+
+/// Resistances at one temperature.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct AtTemperature {
+    /// Winding temperature, °C.
+    pub temperature_c: f64,
+    /// Phase resistance, ohms.
+    pub phase_ohm: f64,
+    /// Between two line terminals in the planned connection, ohms.
+    pub line_ohm: f64,
+}
+
+/// The figures a finished winding is checked against.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Acceptance {
+    /// Expected line-to-line resistance at the measuring temperature (planned connection).
+    pub line_resistance: Option<AtTemperature>,
+    /// Largest deviation of the three readings from their mean, per cent (EASA AR100).
+    pub balance_tolerance_percent: f64,
+    /// High-potential test voltage of a new winding, r.m.s. volts for one minute:
+    /// 1000 V + 2·U_N, at least 1500 V (IEC 60034-1, clause 9.2, machines below 10 MW).
+    pub hipot_new_v: Option<f64>,
+    /// A repeat test after acceptance, 80 % of the above (IEC 60034-1, clause 9.2).
+    pub hipot_repeat_v: Option<f64>,
+    /// Minimum insulation resistance at 40 °C, megohms: 5 MΩ for random-wound windings
+    /// below 2 kV (IEEE 43-2013, Table 3).
+    pub insulation_resistance_min_mohm: f64,
+    /// Minimum polarization index for class B, F and H insulation (IEEE 43-2013, Table 4).
+    pub polarization_index_min: f64,
+    /// Whose procedures govern.
+    pub note: &'static str,
+}
+
+/// The data card.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct DataCard {
+    /// Title of the layout.
+    pub title: Option<String>,
+    /// Closed core or flat primary.
+    pub topology: Topology,
+    /// Slots.
+    pub slots: usize,
+    /// Poles.
+    pub poles: usize,
+    /// Layers.
+    pub layers: usize,
+    /// Coils in the winding.
+    pub coils: usize,
+    /// Coil groups.
+    pub groups: usize,
+    /// Coils per group (each distinct count, smallest first).
+    pub coils_per_group: Vec<usize>,
+    /// Spans as the shop writes them: "1-8" for a coil from slot 1 to slot 8.
+    pub spans: Vec<String>,
+    /// Turns per coil (each distinct count).
+    pub turns_per_coil: Vec<u32>,
+    /// Series turns per phase N_ph (all coils of a phase over the paths).
+    pub series_turns_per_phase: f64,
+    /// Star or delta, as planned.
+    pub connection: crate::winding::Connection,
+    /// Parallel paths per phase.
+    pub parallel_paths: usize,
+    /// Turn-weighted mean turn length, mm.
+    pub mean_turn_mm: Option<f64>,
+    /// How the mean turn was found.
+    pub mean_turn_rule: String,
+    /// The wire, resolved.
+    pub wire: Option<Wire>,
+    /// Phase resistance at 20 °C (mean of the phases), ohms.
+    pub phase_resistance_20c_ohm: Option<f64>,
+    /// Between two line terminals at 20 °C in the planned connection, ohms.
+    pub line_resistance_20c_ohm: Option<f64>,
+    /// Phase resistances at 20 °C, one per phase, ohms.
+    pub phase_resistances_20c_ohm: Vec<f64>,
+    /// Conductor mass of the whole winding, kg (end connections and leads not included).
+    pub copper_mass_kg: Option<f64>,
+    /// Conductor mass per phase, kg.
+    pub copper_mass_per_phase_kg: Option<f64>,
+    /// Conductor mass of one coil of the design's turns, kg (mean over the coils).
+    pub copper_mass_per_coil_kg: Option<f64>,
+    /// Fill of the fullest slot by insulated wire area (π/4·d_ins² per wire) over the usable
+    /// slot area; null without a slot area.
+    pub slot_fill: Option<f64>,
+    /// Bare conductor area over the slot area in the fullest slot.
+    pub copper_fill: Option<f64>,
+    /// Wires (strands) in the fullest slot.
+    pub wires_per_slot: u64,
+    /// Lead markings and connection tables (three-phase windings).
+    pub leads: Option<LeadScheme>,
+    /// Acceptance figures.
+    pub acceptance: Acceptance,
+    /// Things to look at.
+    pub warnings: Vec<CardWarning>,
+    /// Safety caution.
+    pub caution: &'static str,
+}
+
+/// Mean length of one turn of `coil` (metres), or `None` without the sizes.
+pub fn mean_turn_m(w: &Winding, span_slots: f64) -> Option<f64> {
+    let rule = &w.design.turn;
+    if let Some(l) = rule.mean_turn_m {
+        return Some(l);
+    }
+    let stack = w.geometry.core.stack_m?;
+    let pitch = w.geometry.slot_pitch_m()?;
+    Some(2.0 * stack + 2.0 * rule.end_factor * span_slots * pitch + rule.end_allowance_m)
+}
+
+/// Resistances at 20 °C of every path of every phase: `r[phase][path]`, ohms. From the wire
+/// (ρ·N·l_mt/A summed over the coils of the path) or from `winding.phase_resistance_ohm`
+/// (every phase that value, shared equally by its paths in parallel).
+pub fn path_resistances(w: &Winding) -> Option<Vec<Vec<f64>>> {
+    let m = w.geometry.phases;
+    let a = w.parallel_paths.max(1);
+    if let Some(wire) = w.design.wire.as_ref().map(Wire::of) {
+        let rho = metal(wire.material).resistivity_ohm_m;
+        let area = wire.conductor_area_m2();
+        let mut r = vec![vec![0.0; a]; m];
+        for c in &w.coils {
+            let l = mean_turn_m(w, w.span(c).unsigned_abs() as f64)?;
+            r[c.phase][c.path.min(a - 1)] += rho * c.turns as f64 * l / area;
+        }
+        return Some(r);
+    }
+    w.design
+        .phase_resistance_ohm
+        .map(|rp| vec![vec![rp * a as f64; a]; m])
+}
+
+/// Parallel combination of a phase's paths (a path with no coils is left out).
+fn parallel(paths: &[f64]) -> f64 {
+    let g: f64 = paths.iter().filter(|r| **r > 0.0).map(|r| 1.0 / r).sum();
+    if g > 0.0 { 1.0 / g } else { f64::INFINITY }
+}
+
+/// Section resistances for the lead scheme: the two paths of a 9/12-lead winding, or each
+/// whole phase.
+pub fn sections(w: &Winding, r: &[Vec<f64>]) -> Option<SectionResistance> {
+    if w.geometry.phases != 3 {
+        return None;
+    }
+    let mut s = SectionResistance { r: [[0.0; 2]; 3] };
+    for (p, paths) in r.iter().enumerate().take(3) {
+        s.r[p] = if w.design.leads.count >= 9 && paths.len() == 2 {
+            [paths[0], paths[1]]
+        } else {
+            [parallel(paths), 0.0]
+        };
+    }
+    Some(s)
+}
+
+/// Expected line-to-line resistance at 20 °C in the planned connection, between terminals
+/// 1-2, 2-3 and 3-1.
+pub fn planned_line_resistances(w: &Winding) -> Option<[f64; 3]> {
+    let r = path_resistances(w)?;
+    let s = sections(w, &r)?;
+    let sec = if w.design.leads.count >= 9 {
+        leads::Sections::Parallel
+    } else {
+        leads::Sections::Single
+    };
+    Some([0, 1, 2].map(|k| s.line_to_line(k, w.connection, sec)))
+}
+
+/// "towards rising slot numbers (slot 1 towards slot Z)" for positive sequence.
+fn rising(w: &Winding) -> String {
+    format!(
+        "towards rising slot numbers (slot 1 towards slot {}) in this winding's numbering",
+        w.geometry.slots
+    )
+}
+
+/// Work out the data card of a winding.
+pub fn card(w: &Winding) -> DataCard {
+    let g = &w.geometry;
+    let mut warnings = Vec::new();
+    let groups = coil_groups(w);
+    let mut per_group: Vec<usize> = groups.iter().map(|g| g.coils.len()).collect();
+    per_group.sort_unstable();
+    per_group.dedup();
+    let mut spans: Vec<u64> = w.coils.iter().map(|c| w.span(c).unsigned_abs()).collect();
+    spans.sort_unstable();
+    spans.dedup();
+    let mut turns: Vec<u32> = w.coils.iter().map(|c| c.turns).collect();
+    turns.sort_unstable();
+    turns.dedup();
+
+    let wire = w.design.wire.as_ref().map(Wire::of);
+    let lengths: Option<Vec<f64>> = w
+        .coils
+        .iter()
+        .map(|c| mean_turn_m(w, w.span(c).unsigned_abs() as f64))
+        .collect();
+    let total_turns: f64 = w.coils.iter().map(|c| c.turns as f64).sum();
+    let mean_turn = lengths.as_ref().filter(|_| total_turns > 0.0).map(|ls| {
+        ls.iter()
+            .zip(&w.coils)
+            .map(|(l, c)| l * c.turns as f64)
+            .sum::<f64>()
+            / total_turns
+    });
+    if mean_turn.is_none() {
+        warnings.push(CardWarning::NoMeanTurn);
+    }
+    if wire.is_none() && w.design.phase_resistance_ohm.is_none() {
+        warnings.push(CardWarning::NoWire);
+    }
+    let rule = &w.design.turn;
+    let mean_turn_rule = match rule.mean_turn_m {
+        Some(_) => "as given (core.mean_turn_mm)".to_string(),
+        None => format!(
+            "2 x stack + 2 x {} x span width + {} mm",
+            crate::output::num(rule.end_factor, 3),
+            crate::output::num(rule.end_allowance_m * 1e3, 1)
+        ),
+    };
+
+    let paths = path_resistances(w);
+    let phase_r: Vec<f64> = paths
+        .as_ref()
+        .map(|r| r.iter().map(|p| parallel(p)).collect())
+        .unwrap_or_default();
+    let phase_mean =
+        (!phase_r.is_empty()).then(|| phase_r.iter().sum::<f64>() / phase_r.len() as f64);
+    let three = g.phases == 3;
+    if !three {
+        warnings.push(CardWarning::NotThreePhase);
+    }
+    let line = planned_line_resistances(w).map(|l| (l[0] + l[1] + l[2]) / 3.0);
+
+    let (mass, mass_phase, mass_coil) = match (&wire, &lengths) {
+        (Some(wr), Some(ls)) => {
+            let rho_m = metal(wr.material).density_kg_m3;
+            let per: Vec<f64> = ls
+                .iter()
+                .zip(&w.coils)
+                .map(|(l, c)| rho_m * c.turns as f64 * l * wr.conductor_area_m2())
+                .collect();
+            let total: f64 = per.iter().sum();
+            (
+                Some(total),
+                Some(total / g.phases as f64),
+                (!per.is_empty()).then(|| total / per.len() as f64),
+            )
+        }
+        _ => (None, None, None),
+    };
+
+    // Wires in the fullest slot: turns × strands of every coil side in it.
+    let strands = wire.as_ref().map_or(1, |x| x.strands_in_hand) as u64;
+    let mut per_slot = vec![0u64; g.slots];
+    for c in &w.coils {
+        per_slot[c.go] += c.turns as u64 * strands;
+        per_slot[c.back] += c.turns as u64 * strands;
+    }
+    let wires_per_slot = per_slot.iter().copied().max().unwrap_or(0);
+    let (fill, copper_fill) = match (&wire, w.design.slot_area_m2) {
+        (Some(wr), Some(area)) => {
+            let d = wr.insulated_diameter_mm * 1e-3;
+            let ins = wires_per_slot as f64 * std::f64::consts::PI / 4.0 * d * d / area;
+            let cu = wires_per_slot as f64 * wr.area_mm2 * 1e-6 / area;
+            (Some(ins), Some(cu))
+        }
+        _ => (None, None),
+    };
+    if let Some(f) = fill
+        && f > FILL_LIMIT
+    {
+        warnings.push(CardWarning::FillAboveLimit {
+            fill: f,
+            limit: FILL_LIMIT,
+        });
+    }
+
+    let lead_scheme = three.then(|| {
+        let sec = paths.as_ref().and_then(|r| sections(w, r));
+        leads::scheme(
+            w.design.leads,
+            w.connection,
+            w.supply.line_voltage_v,
+            sec.as_ref(),
+            &w.phase_labels,
+            &rising(w),
+        )
+    });
+
+    let t_meas = w
+        .design
+        .measured
+        .map_or(SHOP_TEMPERATURE_C, |m: Measured| m.temperature_c);
+    let material = wire
+        .as_ref()
+        .map_or(crate::design::Material::Copper, |x| x.material);
+    let at = match (phase_mean, line) {
+        (Some(p), Some(l)) => Some(AtTemperature {
+            temperature_c: t_meas,
+            phase_ohm: metal(material).at_temperature(p, t_meas),
+            line_ohm: metal(material).at_temperature(l, t_meas),
+        }),
+        _ => None,
+    };
+    // Rated voltage: the supply's, or for a dual-voltage winding the series (higher) voltage
+    // of the planned connection.
+    let rated = lead_scheme
+        .as_ref()
+        .and_then(|s| {
+            s.configurations
+                .iter()
+                .filter(|c| c.connection == w.connection)
+                .filter_map(|c| c.line_voltage_v)
+                .reduce(f64::max)
+        })
+        .or(w.supply.line_voltage_v);
+    let hipot = rated.map(hipot_new_v);
+
+    DataCard {
+        title: w.title.clone(),
+        topology: g.topology,
+        slots: g.slots,
+        poles: g.poles,
+        layers: g.layers,
+        coils: w.coils.len(),
+        groups: groups.len(),
+        coils_per_group: per_group,
+        spans: spans.iter().map(|y| format!("1-{}", y + 1)).collect(),
+        turns_per_coil: turns,
+        series_turns_per_phase: w.series_turns(0),
+        connection: w.connection,
+        parallel_paths: w.parallel_paths,
+        mean_turn_mm: mean_turn.map(|l| l * 1e3),
+        mean_turn_rule,
+        wire,
+        phase_resistance_20c_ohm: phase_mean,
+        line_resistance_20c_ohm: line,
+        phase_resistances_20c_ohm: phase_r,
+        copper_mass_kg: mass,
+        copper_mass_per_phase_kg: mass_phase,
+        copper_mass_per_coil_kg: mass_coil,
+        slot_fill: fill,
+        copper_fill,
+        wires_per_slot,
+        leads: lead_scheme,
+        acceptance: Acceptance {
+            line_resistance: at,
+            balance_tolerance_percent: BALANCE_TOLERANCE_PERCENT,
+            hipot_new_v: hipot,
+            hipot_repeat_v: hipot.map(|v| 0.8 * v),
+            insulation_resistance_min_mohm: 5.0,
+            polarization_index_min: 2.0,
+            note: "acceptance figures to compare against; the shop's own procedures, the \
+                   machine maker's data and local codes govern",
+        },
+        warnings,
+        caution: CAUTION,
+    }
+}
+
+/// High-potential test voltage of a new winding for rated line voltage `u` (volts):
+/// 1000 V + 2·U_N, at least 1500 V (IEC 60034-1, clause 9.2, Table 16 item for machines
+/// below 10 MW; from memory).
+pub fn hipot_new_v(u: f64) -> f64 {
+    (1000.0 + 2.0 * u).max(1500.0)
+}
