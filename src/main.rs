@@ -189,6 +189,9 @@ struct RewindArgs {
     /// Wires in hand (wound in parallel as one conductor) in the old winding.
     #[arg(long = "wires-in-hand", default_value_t = 1)]
     wires_in_hand: u32,
+    /// Rated line current of the old winding, amperes (nameplate), for the new rating.
+    #[arg(long = "line-current-a")]
+    line_current_a: Option<f64>,
 }
 
 #[derive(Args)]
@@ -379,7 +382,7 @@ fn run(cli: Cli) -> Result<String, Failure> {
             let kind = sheet_kind(out, a.dpi)?;
             let w = load(&a.file)?;
             let page = page_of(a.page, a.portrait);
-            let pages: Vec<String> = [Sheet::Slots, Sheet::Connections, Sheet::Star, Sheet::Field]
+            let pages: Vec<String> = Sheet::ALL
                 .into_iter()
                 .flat_map(|sheet| draw::draw(&w, sheet, &page))
                 .collect();
@@ -465,9 +468,17 @@ fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
             a.wires_in_hand
         )));
     }
+    if let Some(i) = a.line_current_a
+        && !(i.is_finite() && (1e-3..=1e5).contains(&i))
+    {
+        return Err(Failure::input(format!(
+            "--line-current-a {} is not valid; give a current from 0.001 to 100000 A",
+            beltwright::numbering::short(i)
+        )));
+    }
     let old = load(&a.from)?;
     let new = load(&a.to)?;
-    let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand)
+    let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a)
         .map_err(|e| Failure::input(format!("{} -> {}: {e}", a.from.display(), a.to.display())))?;
     present(&report, a.format)
 }

@@ -16,6 +16,7 @@ use serde::Serialize;
 use std::f64::consts::PI;
 use thiserror::Error;
 
+use crate::card::wire::{self as wires, StandardWire};
 use crate::factors;
 use crate::plan::CAUTION;
 use crate::winding::{Connection, Winding};
@@ -38,6 +39,19 @@ pub enum RewindError {
     /// A design has no turns in its first phase.
     #[error("{0}")]
     NoTurns(String),
+    /// The old winding is unbalanced: turns worked out from it would be wrong.
+    #[error(
+        "the old winding is not a balanced winding (a coil or group reversed, or coils in the \
+         wrong phase), so turns worked out from it would be wrong; run `beltwright audit` on \
+         it and rewind from the sound design"
+    )]
+    OldUnbalanced,
+    /// The old design gives no supply.
+    #[error(
+        "the old design gives no [supply] {0}; give the supply the old winding was built for \
+         (from its nameplate), so the turns are not worked out from a guess"
+    )]
+    OldSupplyMissing(&'static str),
 }
 
 /// One design as the rewind sees it.
@@ -93,6 +107,25 @@ pub struct ConductorResult {
     pub phase_current_ratio: f64,
     /// Output (phase voltage × phase current × phases), new over old.
     pub power_ratio: Option<f64>,
+    /// Standard wires nearest the new conductor: IEC 60317 metric sizes, 1 to 4 in hand.
+    pub standard_metric: Vec<StandardOption>,
+    /// The same from the AWG series.
+    pub standard_awg: Vec<StandardOption>,
+    /// Rated line current of the new winding for the same current density, amperes, when
+    /// the old one is given (`--line-current-a`).
+    pub new_line_current_a: Option<f64>,
+}
+
+/// A standard wire for the new conductor, with its slot fill when the slot area is known.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct StandardOption {
+    /// Strands, size and how near the wanted copper.
+    #[serde(flatten)]
+    pub wire: StandardWire,
+    /// Fill of a full slot by insulated wire (grade 2) over the usable slot area.
+    pub slot_fill: Option<f64>,
+    /// True when the fill is within the usual limit (or unknown).
+    pub fits: bool,
 }
 
 /// A way to make up the new conductor.
@@ -182,6 +215,7 @@ pub fn rewind(
     new: &Winding,
     conductor: Option<OldConductor>,
     wires_in_hand: u32,
+    old_line_current_a: Option<f64>,
 ) -> Result<RewindReport, RewindError> {
     let (go, gn) = (&old.geometry, &new.geometry);
     if go.slots != gn.slots || go.topology != gn.topology {
@@ -191,8 +225,17 @@ pub fn rewind(
             go.topology, go.slots, gn.topology, gn.slots
         )));
     }
+    if !old.is_balanced() {
+        return Err(RewindError::OldUnbalanced);
+    }
     let mut assumptions = Vec::new();
     let (so, sn) = (old.supply, new.supply);
+    if so.line_voltage_v.is_none() && sn.line_voltage_v.is_some() {
+        return Err(RewindError::OldSupplyMissing("line_voltage_v"));
+    }
+    if so.frequency_hz.is_none() && sn.frequency_hz.is_some() {
+        return Err(RewindError::OldSupplyMissing("frequency_hz"));
+    }
     let line_old = so.line_voltage_v.or(sn.line_voltage_v);
     let line_new = sn.line_voltage_v.or(so.line_voltage_v);
     if so.line_voltage_v.is_none() || sn.line_voltage_v.is_none() {
@@ -250,6 +293,21 @@ pub fn rewind(
         .zip(go.pole_pitch_m())
         .zip(go.core.stack_m)
         .map(|((phi, tau), l)| phi * PI / (2.0 * tau * l));
+    // The old wire from the flag, or from the old layout's [wire] table.
+    let from_layout = old.design.wire.as_ref().map(wires::Wire::of);
+    let (conductor, wires_in_hand) = match (conductor, &from_layout) {
+        (Some(c), _) => (Some(c), wires_in_hand),
+        (None, Some(wr)) => (
+            Some(OldConductor::DiameterMm(wr.diameter_mm)),
+            wr.strands_in_hand,
+        ),
+        (None, None) => (None, wires_in_hand),
+    };
+    let slot_area = new.design.slot_area_m2.or(old.design.slot_area_m2);
+    let line_factor = |c: Connection| match c {
+        Connection::Star => 1.0,
+        Connection::Delta => 3f64.sqrt(),
+    };
     let conductor = conductor.map(|c| {
         let (wire, diameter) = match c {
             OldConductor::AreaMm2(a) => (a, None),
@@ -273,6 +331,11 @@ pub fn rewind(
             conductor_current_ratio: current,
             phase_current_ratio: phase_current,
             power_ratio: Some(voltage_ratio * phase_current),
+            standard_metric: standard(new_area, n.conductors_per_slot, slot_area, false),
+            standard_awg: standard(new_area, n.conductors_per_slot, slot_area, true),
+            new_line_current_a: old_line_current_a.map(|i| {
+                i / line_factor(old.connection) * phase_current * line_factor(new.connection)
+            }),
         }
     });
     Ok(RewindReport {
@@ -292,4 +355,27 @@ pub fn rewind(
         assumptions,
         caution: CAUTION,
     })
+}
+
+/// Standard wires for a conductor of `area_mm2`, with the fill of a slot of
+/// `conductors_per_slot` conductors (grade 2 enamel) when the slot area is known.
+fn standard(
+    area_mm2: f64,
+    conductors_per_slot: f64,
+    slot_area_m2: Option<f64>,
+    awg: bool,
+) -> Vec<StandardOption> {
+    wires::standard_choices(area_mm2 * 1e-6, 4, awg)
+        .into_iter()
+        .map(|wire| {
+            let d = wires::grade_overall_diameter_m(wire.diameter_mm * 1e-3, 2);
+            let fill = slot_area_m2
+                .map(|a| conductors_per_slot * wire.strands_in_hand as f64 * PI / 4.0 * d * d / a);
+            StandardOption {
+                wire,
+                slot_fill: fill,
+                fits: fill.is_none_or(|f| f <= crate::card::FILL_LIMIT),
+            }
+        })
+        .collect()
 }

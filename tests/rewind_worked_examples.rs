@@ -34,7 +34,7 @@ fn build(s: &Spec) -> Winding {
 fn shortening_full_pitch_to_seven_ninths_raises_turns_by_the_winding_factor_ratio() {
     let old = build(&design(36, 4, 9, Connection::Star, 50.0));
     let new = build(&design(36, 4, 7, Connection::Star, 50.0));
-    let r = rewind(&old, &new, None, 1).expect("same core");
+    let r = rewind(&old, &new, None, 1, None).expect("same core");
     let kd = closed::distribution(3, 1.0, PI / 9.0);
     let kw_full = kd * closed::pitch(1.0, 1.0);
     let kw_short = kd * closed::pitch(7.0 / 9.0, 1.0);
@@ -57,7 +57,7 @@ fn shortening_full_pitch_to_seven_ninths_raises_turns_by_the_winding_factor_rati
 fn star_to_delta_at_the_same_line_voltage_multiplies_turns_by_root_three() {
     let old = build(&design(36, 4, 7, Connection::Star, 50.0));
     let new = build(&design(36, 4, 7, Connection::Delta, 50.0));
-    let r = rewind(&old, &new, Some(OldConductor::DiameterMm(1.0)), 1).expect("same core");
+    let r = rewind(&old, &new, Some(OldConductor::DiameterMm(1.0)), 1, None).expect("same core");
     assert!((r.series_turns_exact / r.old.series_turns - 3f64.sqrt()).abs() < 1e-12);
     assert!((r.turns_per_coil_exact - 20.0 * 3f64.sqrt()).abs() < 1e-9);
     assert_eq!(r.turns_per_coil, 35);
@@ -82,7 +82,7 @@ fn star_to_delta_at_the_same_line_voltage_multiplies_turns_by_root_three() {
 fn fifty_to_sixty_hertz_scales_turns_by_five_sixths() {
     let old = build(&design(36, 4, 7, Connection::Star, 50.0));
     let new = build(&design(36, 4, 7, Connection::Star, 60.0));
-    let r = rewind(&old, &new, None, 1).expect("same core");
+    let r = rewind(&old, &new, None, 1, None).expect("same core");
     assert!((r.turns_per_coil_exact - 20.0 * 50.0 / 60.0).abs() < 1e-9);
     assert_eq!(r.turns_per_coil, 17);
     assert!((r.frequency_ratio - 1.2).abs() < 1e-15);
@@ -96,7 +96,7 @@ fn two_parallel_paths_double_the_turns_per_coil_and_halve_the_wire() {
     let mut s = design(36, 4, 7, Connection::Star, 50.0);
     s.parallel_paths = 2;
     let new = build(&s);
-    let r = rewind(&old, &new, Some(OldConductor::AreaMm2(1.2)), 1).expect("same core");
+    let r = rewind(&old, &new, Some(OldConductor::AreaMm2(1.2)), 1, None).expect("same core");
     assert!((r.turns_per_coil_exact - 40.0).abs() < 1e-9);
     assert!((r.series_turns_exact - r.old.series_turns).abs() < 1e-9);
     let c = r.conductor.expect("conductor");
@@ -108,7 +108,7 @@ fn two_parallel_paths_double_the_turns_per_coil_and_halve_the_wire() {
 #[test]
 fn old_flux_per_pole_follows_the_emf_equation() {
     let old = build(&design(36, 4, 9, Connection::Star, 50.0));
-    let r = rewind(&old, &old, None, 1).expect("same core");
+    let r = rewind(&old, &old, None, 1, None).expect("same core");
     let kd = closed::distribution(3, 1.0, PI / 9.0);
     let phi = (400.0 / 3f64.sqrt()) / (4.44 * 50.0 * 240.0 * kd);
     assert!((r.flux_per_pole_wb.expect("supply given") - phi).abs() < 1e-12);
@@ -121,7 +121,7 @@ fn a_different_core_is_refused() {
     let old = build(&design(36, 4, 9, Connection::Star, 50.0));
     let new = build(&design(48, 4, 11, Connection::Star, 50.0));
     assert!(matches!(
-        rewind(&old, &new, None, 1),
+        rewind(&old, &new, None, 1, None),
         Err(RewindError::DifferentCore(_))
     ));
 }
@@ -177,4 +177,69 @@ fn rewind_cli_gives_the_json_contract_and_refuses_bad_flags() {
         .expect("runs");
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("keeps the core"));
+}
+
+// A record with one coil reversed is unbalanced: turns worked out from it would be wrong
+// (the old k_w1 is too low), so the rewind refuses and points to the audit.
+#[test]
+fn rewind_refuses_a_faulty_record_and_points_to_audit() {
+    let out = assert_cmd::Command::cargo_bin("beltwright")
+        .expect("binary")
+        .args([
+            "rewind",
+            "layouts/hoist-rewind-faulty.toml",
+            "layouts/hoist-rewind-new.toml",
+        ])
+        .output()
+        .expect("runs");
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("beltwright audit"));
+}
+
+// Without the old supply the turns would rest on a guess: refused, naming the key.
+#[test]
+fn rewind_refuses_an_old_design_without_its_supply() {
+    let old = build(&Spec {
+        supply: Supply::default(),
+        ..design(36, 4, 9, Connection::Star, 50.0)
+    });
+    let new = build(&design(36, 4, 7, Connection::Star, 50.0));
+    let e = rewind(&old, &new, None, 1, None).expect_err("no old supply");
+    assert!(
+        matches!(e, RewindError::OldSupplyMissing("line_voltage_v")),
+        "{e}"
+    );
+}
+
+// Star to delta with the old wire 1.0 mm: the new conductor is π/4/√3·(20√3/35) mm²
+// (see above) = 0.4488 mm², nearest R40 size 0.75 mm (0.4418 mm², −1.6 %) for one strand.
+// The new line current for the same current density: the phase current scales by the
+// conductor area ratio (one path each), star line = phase, delta line = √3·phase, so a
+// 10 A star winding becomes 10·(0.4488/0.7854)·√3 = 9.897 A (hand calculation).
+#[test]
+fn rewind_proposes_standard_wire_and_the_new_line_current() {
+    let old = build(&design(36, 4, 7, Connection::Star, 50.0));
+    let new = build(&design(36, 4, 7, Connection::Delta, 50.0));
+    let r = rewind(
+        &old,
+        &new,
+        Some(OldConductor::DiameterMm(1.0)),
+        1,
+        Some(10.0),
+    )
+    .expect("same core");
+    let c = r.conductor.expect("conductor");
+    let want_area = PI / 4.0 / 3f64.sqrt() * (20.0 * 3f64.sqrt() / 35.0);
+    assert!((c.new_conductor_area_mm2 - want_area).abs() < 1e-12);
+    let one = &c.standard_metric[0];
+    assert_eq!(one.wire.strands_in_hand, 1);
+    assert_eq!(one.wire.diameter_mm, 0.75);
+    let i = c.new_line_current_a.expect("old current given");
+    assert!(
+        (i - 10.0 * want_area / (PI / 4.0) * 3f64.sqrt()).abs() < 1e-9,
+        "{i}"
+    );
+    // AWG: 0.4488 mm² lies nearest AWG 21 (0.7229 mm, 0.4105 mm²) or 20 (0.8128 mm,
+    // 0.5189 mm²) on the ratio scale: 21 (−8.5 %) against 20 (+15.6 %).
+    assert_eq!(c.standard_awg[0].wire.awg, Some(21));
 }

@@ -86,6 +86,19 @@ pub struct Terminal {
     pub end: &'static str,
 }
 
+/// Marking of the lead at the start (`finish` false) or finish of section `s` (the parallel
+/// path, 0-based) of phase `p` of a three-phase winding, and whether that end stays inside
+/// the machine (the star point of a three-lead machine, the internal joints of nine leads).
+pub fn section_lead(leads: Leads, p: usize, s: usize, finish: bool) -> (String, bool) {
+    let e = if finish { End::Finish } else { End::Start };
+    let s = if leads.count >= 9 { s.min(1) } else { 0 };
+    let inside = matches!(
+        (leads.count, s, e),
+        (3, _, End::Finish) | (9, 1, End::Finish)
+    );
+    (name(leads.marking, leads.count, p % 3, s, e), inside)
+}
+
 /// Name of the end of section `s` (0 or 1) of phase `p` (0..3).
 fn name(marking: Marking, count: u8, p: usize, s: usize, e: End) -> String {
     match marking {
@@ -163,7 +176,7 @@ pub fn scheme(
     for s in 0..sections {
         for p in 0..3 {
             for e in [End::Start, End::Finish] {
-                let inside = matches!((n, s, e), (3, _, End::Finish) | (9, 1, End::Finish));
+                let inside = section_lead(leads, p, s, e == End::Finish).1;
                 if !inside {
                     terminals.push(Terminal {
                         name: nm(p, s, e),

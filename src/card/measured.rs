@@ -9,7 +9,7 @@
 
 use serde::Serialize;
 
-use super::wire::{IEC_60317_MM, metal};
+use super::wire::{iec_60317_mm, metal};
 use super::{BALANCE_TOLERANCE_PERCENT, Wire, planned_line_resistances};
 use crate::winding::{Connection, Winding};
 
@@ -221,9 +221,8 @@ fn uniform(r: f64, wire: Option<&Wire>) -> Suggestion {
         // The diameter that gives this reading, and whether it is a neighbouring standard
         // size (IEC 60317 series, or one AWG gauge: area ratio 92^(2/39) ≈ 1.261).
         let d = wr.diameter_mm / r.sqrt();
-        let iec_step = IEC_60317_MM
-            .iter()
-            .any(|&x| (x / d - 1.0).abs() < 0.01 && (x / wr.diameter_mm - 1.0).abs() > 0.01);
+        let iec_step = iec_60317_mm()
+            .any(|x| (x / d - 1.0).abs() < 0.01 && (x / wr.diameter_mm - 1.0).abs() > 0.01);
         let awg_step = wr.awg.is_some() && {
             let step = 92f64.powf(2.0 / 39.0);
             (r / step - 1.0).abs() < 0.02 || (r * step - 1.0).abs() < 0.02

@@ -73,14 +73,21 @@ pub fn nearest_awg(d: f64) -> (i32, bool) {
     (n, close)
 }
 
-/// Nominal bare diameters of round enamelled winding wire, mm (IEC 60317-0-1, the R20
-/// series with its R40 intermediate sizes, 0.10 to 5.00 mm; from memory).
-pub const IEC_60317_MM: [f64; 52] = [
-    0.10, 0.112, 0.125, 0.14, 0.16, 0.18, 0.20, 0.224, 0.25, 0.28, 0.315, 0.355, 0.40, 0.45, 0.50,
-    0.56, 0.63, 0.71, 0.75, 0.80, 0.85, 0.90, 0.95, 1.00, 1.06, 1.12, 1.18, 1.25, 1.32, 1.40, 1.50,
-    1.60, 1.70, 1.80, 1.90, 2.00, 2.12, 2.24, 2.36, 2.50, 2.65, 2.80, 3.00, 3.15, 3.35, 3.55, 3.75,
-    4.00, 4.25, 4.50, 4.75, 5.00,
+/// The R40 preferred numbers of one decade (ISO 3).
+const R40: [f64; 40] = [
+    1.00, 1.06, 1.12, 1.18, 1.25, 1.32, 1.40, 1.50, 1.60, 1.70, 1.80, 1.90, 2.00, 2.12, 2.24, 2.36,
+    2.50, 2.65, 2.80, 3.00, 3.15, 3.35, 3.55, 3.75, 4.00, 4.25, 4.50, 4.75, 5.00, 5.30, 5.60, 6.00,
+    6.30, 6.70, 7.10, 7.50, 8.00, 8.50, 9.00, 9.50,
 ];
+
+/// Nominal bare diameters of round enamelled winding wire from 0.100 to 5.00 mm: the R20
+/// series with its R40 intermediate sizes (ISO 3 preferred numbers), on which the nominal
+/// diameters of IEC 60317-0-1 are based (from memory).
+pub fn iec_60317_mm() -> impl Iterator<Item = f64> {
+    R40.iter()
+        .map(|x| x / 10.0)
+        .chain(R40.iter().copied().filter(|x| *x <= 5.0))
+}
 
 /// Overall diameter over the enamel of a grade 1, 2 or 3 wire of bare diameter `d` (m):
 /// d + 0.031 mm·(grade + 1)·√(d/mm). An approximation to the maximum overall diameters
@@ -171,7 +178,7 @@ pub fn standard_choices(area_m2: f64, max_strands: u32, awg: bool) -> Vec<Standa
             .map(|n| (awg_diameter_m(n) * 1e3, Some(n)))
             .collect()
     } else {
-        IEC_60317_MM.iter().map(|&d| (d, None)).collect()
+        iec_60317_mm().map(|d| (d, None)).collect()
     };
     (1..=max_strands)
         .filter_map(|s| {

@@ -17,6 +17,7 @@ use super::page::{Canvas, Page, Rect, rule};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
+use crate::design::Marking;
 use crate::winding::{CoilGroup, Connection, Winding, coil_groups};
 
 const BOX_W: f64 = 17.0;
@@ -30,8 +31,27 @@ const SCHED_ROW: f64 = 2.75;
 const SCHED_HEAD: f64 = 8.0;
 const DIAGRAM_MIN_W: f64 = 120.0;
 
-/// Terminal marking of phase `k` end `end` (1 or 2): IEC 60034-8 letters for U, V, W.
+/// Terminal marking of phase `k` end `end` (1 or 2): the phase label and end number
+/// (IEC 60034-8 letters U1, U2 ... by default), or NEMA MG 1 T-leads T1...T6 of the first
+/// section when the layout asks for NEMA marking on a three-phase winding.
 pub fn terminal(w: &Winding, k: usize, end: u8) -> String {
+    path_terminal(w, k, 0, end)
+}
+
+/// Terminal marking of the start (1) or finish (2) of path `p` of phase `k`: on a three-phase
+/// winding the lead scheme's name (the path is a section of a 9- or 12-lead winding), marked
+/// "(inside)" where the end is joined inside the machine; otherwise the phase label and end.
+pub fn path_terminal(w: &Winding, k: usize, p: usize, end: u8) -> String {
+    if w.geometry.phases == 3
+        && (w.design.leads.marking == Marking::Nema || w.design.leads.count >= 9)
+    {
+        let (name, inside) = crate::card::leads::section_lead(w.design.leads, k, p, end == 2);
+        return if inside && w.design.leads.count == 9 {
+            format!("{name} (inside)")
+        } else {
+            name
+        };
+    }
     format!("{}{end}", w.label(k))
 }
 
@@ -81,12 +101,12 @@ fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<Entry> {
             let order = current_order(&groups[gi]);
             for (j, &c) in order.iter().enumerate() {
                 let finish_to = if j + 1 < order.len() {
-                    format!("{}", order[j + 1] + 1)
+                    format!("coil {}", order[j + 1] + 1)
                 } else if let Some(&next) = gs.get(n + 1) {
                     let first = current_order(&groups[next])[0];
-                    format!("G{}: {}", next + 1, first + 1)
+                    format!("G{} coil {}", next + 1, first + 1)
                 } else {
-                    terminal(w, k, 2)
+                    format!("lead {}", path_terminal(w, k, p, 2))
                 };
                 let coil = &w.coils[c];
                 out.push(Entry {
@@ -399,7 +419,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
             let mut x = LEAD_W;
             // Lead in.
             if li == 0 {
-                lane = lane.add(lead(&terminal(w, *k, 1), 0.0, yc));
+                lane = lane.add(lead(&path_terminal(w, *k, *p, 1), 0.0, yc));
             } else {
                 lane = lane.add(label(LEAD_W - 1.0, yc + 0.7, 2.0, Anchor::End, "\u{2192}"));
             }
@@ -426,7 +446,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
                     .line_to((r(end_x), r(yc))),
             ));
             if li + 1 == nlines {
-                lane = lane.add(lead(&terminal(w, *k, 2), end_x, yc));
+                lane = lane.add(lead(&path_terminal(w, *k, *p, 2), end_x, yc));
             } else {
                 lane = lane.add(label(end_x + 0.5, yc + 0.7, 2.0, Anchor::Start, "\u{2192}"));
             }
@@ -633,7 +653,43 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
         g = g.add(label(tx0, y, 2.0, Anchor::Start, &line));
         y += 2.7;
     }
-    let note = "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to IEC 60034-8.";
+    if w.geometry.phases == 3 && w.design.leads.count > 3 {
+        let scheme = crate::card::leads::scheme(
+            w.design.leads,
+            w.connection,
+            w.supply.line_voltage_v,
+            None,
+            &w.phase_labels,
+            "",
+        );
+        for c in &scheme.configurations {
+            let line = format!(
+                "{}{}: L1 {}, L2 {}, L3 {}{}",
+                crate::output::configuration_name(c),
+                if c.as_planned { " (as planned)" } else { "" },
+                c.lines[0].join("+"),
+                c.lines[1].join("+"),
+                c.lines[2].join("+"),
+                if c.joined.is_empty() {
+                    String::new()
+                } else {
+                    format!("; join {}", c.joined.iter().map(|j| j.join("-")).join(", "))
+                }
+            );
+            for l in text::wrap(&line, 2.0, room) {
+                g = g.add(label(tx0, y, 2.0, Anchor::Start, &l).set("class", "lead-table"));
+                y += 2.7;
+            }
+        }
+    }
+    let note = match w.design.leads.marking {
+        Marking::Iec => {
+            "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to IEC 60034-8."
+        }
+        Marking::Nema => {
+            "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to NEMA MG 1."
+        }
+    };
     for line in text::wrap(note, 1.8, room) {
         g = g.add(label(tx0, y + 0.6, 1.8, Anchor::Start, &line).set("fill", "#333333"));
         y += 2.5;

@@ -8,6 +8,7 @@
 //! carry a `class` and `data-` attributes; user text only ever appears in text nodes, which
 //! the `svg` crate escapes.
 
+pub mod card;
 pub mod connections;
 pub mod export;
 pub mod field;
@@ -15,6 +16,7 @@ pub mod page;
 pub mod palette;
 pub mod slots;
 pub mod star;
+pub mod tables;
 mod text;
 pub mod title;
 
@@ -39,6 +41,19 @@ pub enum Sheet {
     Star,
     /// The travelling field: MMF snapshots over a period, its travel, and its spectrum.
     Field,
+    /// The winding data card: wire, copper, resistances, leads and acceptance figures.
+    Card,
+}
+
+impl Sheet {
+    /// Every sheet, in the order a report prints them.
+    pub const ALL: [Sheet; 5] = [
+        Sheet::Slots,
+        Sheet::Connections,
+        Sheet::Star,
+        Sheet::Field,
+        Sheet::Card,
+    ];
 }
 
 impl Sheet {
@@ -49,6 +64,7 @@ impl Sheet {
             Sheet::Connections => "connections",
             Sheet::Star => "star",
             Sheet::Field => "field",
+            Sheet::Card => "card",
         }
     }
 }
@@ -61,5 +77,6 @@ pub fn draw(w: &Winding, sheet: Sheet, page: &Page) -> Vec<String> {
         Sheet::Connections => connections::draw(w, page),
         Sheet::Star => vec![star::draw(w, page)],
         Sheet::Field => vec![field::draw(w, page)],
+        Sheet::Card => card::draw(w, page),
     }
 }

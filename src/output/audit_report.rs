@@ -389,7 +389,38 @@ impl Report for RewindReport {
                     .map(|o| format!("{} in hand: {} mm", o.wires_in_hand, num(o.diameter_mm, 3)))
                     .join("; "),
             );
-            s.push(Section::Lines(lines));
+            if let Some(i) = c.new_line_current_a {
+                lines.push(format!("new rated line current: {} A", num(i, 2)));
+            }
+            s.push(Section::Lines(
+                lines.iter().flat_map(|l| wrap(l, 78)).collect(),
+            ));
+            let mut t = Table::new(&[
+                ("series", Align::Left),
+                ("in hand", Align::Right),
+                ("bare mm", Align::Right),
+                ("AWG", Align::Right),
+                ("copper vs wanted %", Align::Right),
+                ("slot fill %", Align::Right),
+                ("fits", Align::Left),
+            ]);
+            for (series, list) in [("IEC 60317", &c.standard_metric), ("AWG", &c.standard_awg)] {
+                for o in list.iter() {
+                    t.push(vec![
+                        series.into(),
+                        o.wire.strands_in_hand.to_string(),
+                        num(o.wire.diameter_mm, 4),
+                        o.wire.awg.map_or("-".into(), |n| n.to_string()),
+                        num((o.wire.area_ratio - 1.0) * 100.0, 1),
+                        o.slot_fill.map_or("-".into(), |f| num(f * 100.0, 1)),
+                        if o.fits { "yes".into() } else { "NO".into() },
+                    ]);
+                }
+            }
+            s.push(Section::Heading(
+                "Standard wire for the new conductor".into(),
+            ));
+            s.push(Section::Table(t));
         }
         s
     }
