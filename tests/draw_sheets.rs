@@ -689,7 +689,10 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
         }
     }
     let card = draw::draw(&w, Sheet::Card, &Page::default()).concat();
-    assert!(card.contains("(&lt;a&gt; 1 start)"), "card: label lost or unescaped");
+    assert!(
+        card.contains("(&lt;a&gt; 1 start)"),
+        "card: label lost or unescaped"
+    );
     // Without an override the Okabe–Ito vermillion, blue and bluish green are used.
     let plain = build(
         &src.replace(

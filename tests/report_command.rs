@@ -20,8 +20,18 @@ fn report_writes_every_sheet_into_one_pdf() {
     );
     let bytes = std::fs::read(&pdf).expect("written");
     assert!(bytes.starts_with(b"%PDF"));
-    // Slots, connections, star and field: one page each for a 12-coil winding.
-    assert!(String::from_utf8_lossy(&bytes).contains("/Count 4"));
+    // Every sheet (slots, connections, star, field, data card), each with the pages the
+    // library draws for it: one each for this 12-coil winding, the card over its pages.
+    let src = std::fs::read_to_string("layouts/servo-tooth-coil.toml").expect("layout");
+    let spec = beltwright::layout::parse(&src, "servo").expect("valid");
+    let w = beltwright::winding::build(&spec).expect("builds");
+    let page = beltwright::draw::Page::default();
+    let pages: usize = beltwright::draw::Sheet::ALL
+        .iter()
+        .map(|s| beltwright::draw::draw(&w, *s, &page).len())
+        .sum();
+    assert!(pages >= 5);
+    assert!(String::from_utf8_lossy(&bytes).contains(&format!("/Count {pages}")));
 }
 
 #[test]
