@@ -141,6 +141,8 @@ pub struct Design {
     pub turn: TurnRule,
     /// Usable slot area for the wire, m².
     pub slot_area_m2: Option<f64>,
+    /// Slot width and depth of a rectangular slot, m, when given as dimensions.
+    pub slot_size_m: Option<(f64, f64)>,
     /// Mechanical clearance between primary and secondary, metres.
     pub airgap_m: Option<f64>,
     /// Slot opening width at the gap, metres.

@@ -34,7 +34,9 @@ Examples:
   beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
-  beltwright card layouts/hoist-rewind-new.toml
+  beltwright card layouts/pump-rewind.toml
+  beltwright thrust layouts/pallet-shuttle.toml --slip 0..=1 --steps 10
+  beltwright inductance layouts/pallet-shuttle.toml
   beltwright rewind layouts/hoist-rewind-sound.toml layouts/hoist-rewind-new.toml --wire-diameter-mm 1.12
   beltwright draw layouts/pallet-shuttle.toml --sheet slots -o shuttle-slots.pdf
   beltwright draw layouts/pump-rewind.toml --sheet connections --page a3 -o pump.svg
@@ -76,6 +78,14 @@ enum Command {
     /// markings with connection tables, and acceptance figures.
     #[command(after_help = EXAMPLES)]
     Card(Common),
+    /// A flat primary's thrust, normal force, current, power factor and efficiency against
+    /// slip, from the winding and the secondary plate (edge and end effects included).
+    #[command(after_help = EXAMPLES)]
+    Thrust(ThrustArgs),
+    /// Phase (and coil) inductances by winding functions; a flat primary's unbalance under
+    /// balanced voltages, and its other layouts ranked by it.
+    #[command(after_help = EXAMPLES)]
+    Inductance(InductanceArgs),
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EXAMPLES)]
     Rewind(RewindArgs),
@@ -151,6 +161,33 @@ struct ReportArgs {
     /// Resolution of PNG output, dots per inch.
     #[arg(long, default_value_t = 150.0)]
     dpi: f64,
+}
+
+#[derive(Args)]
+struct ThrustArgs {
+    #[command(flatten)]
+    common: Common,
+    /// Feed a fixed r.m.s. phase current, amperes, instead of the supply voltage.
+    #[arg(long)]
+    current: Option<f64>,
+    /// Slip range, e.g. 0..=1 or -0.2..=1.2 (below 0 generating, above 1 plugging).
+    #[arg(long, default_value = "0..=1", allow_hyphen_values = true)]
+    slip: String,
+    /// Intervals between the first and last slip of the table.
+    #[arg(long, default_value_t = 20)]
+    steps: usize,
+    /// Leave out the longitudinal end effect, to see what the ends cost.
+    #[arg(long = "no-end-effect")]
+    no_end_effect: bool,
+}
+
+#[derive(Args)]
+struct InductanceArgs {
+    #[command(flatten)]
+    common: Common,
+    /// Also give the coil-by-coil matrix (windings of up to 200 coils).
+    #[arg(long)]
+    coils: bool,
 }
 
 #[derive(Args)]
@@ -384,6 +421,7 @@ fn run(cli: Cli) -> Result<String, Failure> {
             let page = page_of(a.page, a.portrait);
             let pages: Vec<String> = Sheet::ALL
                 .into_iter()
+                .filter(|s| s.applies(&w))
                 .flat_map(|sheet| draw::draw(&w, sheet, &page))
                 .collect();
             let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
@@ -403,12 +441,74 @@ fn run(cli: Cli) -> Result<String, Failure> {
             let w = load(&a.file)?;
             present(&beltwright::card::card(&w), a.format)
         }
+        Command::Thrust(a) => run_thrust(a),
+        Command::Inductance(a) => {
+            let w = load(&a.common.file)?;
+            let r = beltwright::inductance::inductance(&w, a.coils)
+                .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
+            present(&r, a.common.format)
+        }
         Command::Field(a) => run_field(a),
         Command::Pitch(a) => pitch(a),
         Command::Survey(a) => survey(a),
         Command::Audit(a) => run_audit(a),
         Command::Rewind(a) => run_rewind(a),
     }
+}
+
+/// `A..=B` of slips (may be negative), or one slip.
+fn parse_slip_range(s: &str) -> Result<(f64, f64), String> {
+    let bad = || format!("--slip {s:?} is not a range; write A..=B, e.g. 0..=1 or -0.2..=1.2");
+    let num = |t: &str| t.trim().parse::<f64>().map_err(|_| bad());
+    let (a, b) = match s.split_once("..=") {
+        Some((a, b)) => (num(a)?, num(b)?),
+        None => {
+            let v = num(s)?;
+            (v, v)
+        }
+    };
+    if !(a.is_finite()
+        && b.is_finite()
+        && (-10.0..=10.0).contains(&a)
+        && (-10.0..=10.0).contains(&b))
+    {
+        return Err(format!("--slip {s:?}: give slips from -10 to 10"));
+    }
+    if a > b {
+        return Err(format!(
+            "--slip {s:?} is empty; the first slip must not exceed the last"
+        ));
+    }
+    Ok((a, b))
+}
+
+fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
+    let (from, to) = parse_slip_range(&a.slip).map_err(Failure::input)?;
+    if !(1..=10_000).contains(&a.steps) {
+        return Err(Failure::input(format!(
+            "--steps {} is not valid; give 1 to 10000",
+            a.steps
+        )));
+    }
+    if let Some(i) = a.current
+        && !(i.is_finite() && (1e-3..=1e5).contains(&i))
+    {
+        return Err(Failure::input(format!(
+            "--current {} is not valid; give a phase current from 0.001 to 100000 A",
+            beltwright::numbering::short(i)
+        )));
+    }
+    let w = load(&a.common.file)?;
+    let q = beltwright::thrust::ThrustQuery {
+        current_a: a.current,
+        slip_from: from,
+        slip_to: to,
+        steps: if from == to { 1 } else { a.steps },
+        end_effect: !a.no_end_effect,
+    };
+    let r = beltwright::thrust::thrust(&w, &q)
+        .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
+    present(&r, a.common.format)
 }
 
 fn run_audit(a: AuditArgs) -> Result<String, Failure> {

@@ -205,6 +205,11 @@ pub fn path_resistances(w: &Winding) -> Option<Vec<Vec<f64>>> {
         .map(|rp| vec![vec![rp * a as f64; a]; m])
 }
 
+/// Phase resistances at 20 °C (each phase's paths in parallel), ohms.
+pub fn phase_resistances_20c(w: &Winding) -> Option<Vec<f64>> {
+    path_resistances(w).map(|r| r.iter().map(|p| parallel(p)).collect())
+}
+
 /// Parallel combination of a phase's paths (a path with no coils is left out).
 fn parallel(paths: &[f64]) -> f64 {
     let g: f64 = paths.iter().filter(|r| **r > 0.0).map(|r| 1.0 / r).sum();
@@ -295,10 +300,7 @@ pub fn card(w: &Winding) -> DataCard {
     };
 
     let paths = path_resistances(w);
-    let phase_r: Vec<f64> = paths
-        .as_ref()
-        .map(|r| r.iter().map(|p| parallel(p)).collect())
-        .unwrap_or_default();
+    let phase_r: Vec<f64> = phase_resistances_20c(w).unwrap_or_default();
     let phase_mean =
         (!phase_r.is_empty()).then(|| phase_r.iter().sum::<f64>() / phase_r.len() as f64);
     let three = g.phases == 3;

@@ -9,6 +9,7 @@
 //! the `svg` crate escapes.
 
 pub mod card;
+pub mod chart;
 pub mod connections;
 pub mod export;
 pub mod field;
@@ -18,6 +19,7 @@ pub mod slots;
 pub mod star;
 pub mod tables;
 mod text;
+pub mod thrust;
 pub mod title;
 
 pub use export::{ExportError, FileKind};
@@ -43,17 +45,29 @@ pub enum Sheet {
     Field,
     /// The winding data card: wire, copper, resistances, leads and acceptance figures.
     Card,
+    /// A flat primary's thrust, normal force and current against speed.
+    Thrust,
 }
 
 impl Sheet {
     /// Every sheet, in the order a report prints them.
-    pub const ALL: [Sheet; 5] = [
+    pub const ALL: [Sheet; 6] = [
         Sheet::Slots,
         Sheet::Connections,
         Sheet::Star,
         Sheet::Field,
         Sheet::Card,
+        Sheet::Thrust,
     ];
+
+    /// Whether the sheet has something to show for this winding (the performance sheet
+    /// needs a flat primary with its plate and gap); a report leaves out those that do not.
+    pub fn applies(self, w: &Winding) -> bool {
+        match self {
+            Sheet::Thrust => thrust::applies(w),
+            _ => true,
+        }
+    }
 }
 
 impl Sheet {
@@ -65,6 +79,7 @@ impl Sheet {
             Sheet::Star => "star",
             Sheet::Field => "field",
             Sheet::Card => "card",
+            Sheet::Thrust => "thrust",
         }
     }
 }
@@ -78,5 +93,6 @@ pub fn draw(w: &Winding, sheet: Sheet, page: &Page) -> Vec<String> {
         Sheet::Star => vec![star::draw(w, page)],
         Sheet::Field => vec![field::draw(w, page)],
         Sheet::Card => card::draw(w, page),
+        Sheet::Thrust => vec![thrust::draw(w, page)],
     }
 }

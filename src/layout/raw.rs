@@ -519,7 +519,10 @@ impl RawLayout {
                     ));
                 }
                 (Some(a), None, None) => Some(a * 1e-6),
-                (None, Some(w), Some(h)) => Some(w * h * 1e-6),
+                (None, Some(w), Some(h)) => {
+                    d.slot_size_m = Some((w * 1e-3, h * 1e-3));
+                    Some(w * h * 1e-6)
+                }
                 (None, Some(_), None) | (None, None, Some(_)) => {
                     let key = if width.is_some() {
                         "slot_width_mm"

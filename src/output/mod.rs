@@ -11,6 +11,7 @@ mod pitch_svg;
 pub(crate) mod reports;
 mod table;
 mod text;
+mod thrust_report;
 
 pub use card_report::configuration_name;
 pub use csv::Csv;

@@ -1,0 +1,186 @@
+//! A flat primary's performance: the model's pieces against their closed forms and limits.
+
+mod common;
+
+use beltwright::thrust::{
+    self, MU0, ThrustQuery, carter_coefficient, carter_gamma, duncan_f, edge_factor,
+};
+use beltwright::winding::{self, Winding};
+use beltwright::{factors, layout};
+use std::f64::consts::PI;
+
+fn wind(src: &str) -> Winding {
+    let spec = layout::parse(src, "test.toml").unwrap_or_else(|e| panic!("{e}"));
+    winding::build(&spec).unwrap_or_else(|e| panic!("{e}"))
+}
+
+/// A four-pole flat primary, 24 coils at span 5, 3 mm clearance over a 4 mm aluminium plate
+/// on back iron.
+fn shuttle(extra_core: &str) -> Winding {
+    wind(&format!(
+        "[machine]\ntopology = \"linear\"\nslots = 29\npoles = 4\n\
+         [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+         [core]\nslot_pitch_mm = 12.0\nstack_mm = 80.0\nairgap_mm = 3.0\n{extra_core}\n\
+         [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+         [secondary]\nmaterial = \"aluminium\"\nthickness_mm = 4.0\nwidth_mm = 120.0\n"
+    ))
+}
+
+fn query(current: Option<f64>, end: bool) -> ThrustQuery {
+    ThrustQuery {
+        current_a: current,
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 20,
+        end_effect: end,
+    }
+}
+
+// Current-fed, without the end effect, secondary leakage neglected: the textbook circuit
+// F = 3·I²·X_m·sG/(v_s·(1 + s²G²)) has its maximum 3·I²·X_m/(2·v_s) at s = 1/G (E. R.
+// Laithwaite 1965; Boldea and Nasar, *Linear Electric Motors*, 1987, ch. 2).
+#[test]
+fn current_fed_thrust_peaks_at_one_over_g() {
+    let w = shuttle("slot_opening_mm = 3.0");
+    let r = thrust::thrust(&w, &query(Some(10.0), false)).expect("model");
+    let g = r.goodness_factor;
+    let xm = r.circuit.xm_ohm;
+    let vs = r.synchronous_speed_m_s;
+    assert!(
+        (r.max_thrust_slip - 1.0 / g).abs() < 1e-6,
+        "{} vs {}",
+        r.max_thrust_slip,
+        1.0 / g
+    );
+    let peak = 3.0 * 100.0 * xm / (2.0 * vs);
+    assert!((r.max_thrust_n - peak).abs() < 1e-9 * peak);
+    for row in &r.rows {
+        let sg = row.slip * g;
+        let f = 3.0 * 100.0 * xm * sg / (vs * (1.0 + sg * sg));
+        assert!((row.thrust_n - f).abs() < 1e-9 * peak, "{row:?}");
+    }
+}
+
+// L_m = 6·μ0·τ·W·(N·k_w1)²/(π²·p·g_e) (Boldea and Nasar 1987, ch. 2), by hand from the
+// report's own gap and the winding's factors; v_s = 2·f·τ.
+#[test]
+fn magnetising_inductance_follows_the_closed_form() {
+    let w = shuttle("");
+    let r = thrust::thrust(&w, &query(Some(1.0), false)).expect("model");
+    let tau = 0.012 * 6.0;
+    let nkw = w.series_turns(0) * factors::fundamental(&w).winding;
+    let ge = r.effective_gap_mm * 1e-3;
+    let want = 6.0 * MU0 * tau * 0.080 * nkw * nkw / (PI * PI * 2.0 * ge);
+    assert!((r.magnetizing_inductance_h - want).abs() < 1e-12 * want);
+    assert!((r.synchronous_speed_m_s - 2.0 * 50.0 * tau).abs() < 1e-12);
+    // No slot opening: Carter 1, g_e = clearance + plate = 7 mm.
+    assert_eq!(r.carter_coefficient, 1.0);
+    assert!((r.effective_gap_mm - 7.0).abs() < 1e-12);
+    // G = μ0·ω·τ²·σ_e·d/(π²·g_e) with σ_e = K·σ (Laithwaite 1965), σ = 1/0.028264 MS/m.
+    let sigma = 1.0 / 0.028264e-6 * r.edge_factor;
+    let g = MU0 * 2.0 * PI * 50.0 * tau * tau * sigma * 0.004 / (PI * PI * 0.007);
+    assert!((r.goodness_factor - g).abs() < 1e-9 * g);
+}
+
+// Carter (1901) against the approximation γ ≈ (b0/g)²/(5 + b0/g) quoted with it (Pyrhönen
+// et al. 2014, eq. 3.1-3.2): within 3 % for openings of two gaps and more, where the
+// correction matters; below that the approximation runs high, but the coefficients differ
+// by under 0.2 % at a slot pitch of ten gaps. And a hand value:
+// τ_s = 12, b0 = 3, g = 7 gives x = 3/14, γ = 0.029013, γ·g = 0.203090,
+// k_C = 12/11.796910 = 1.017216.
+#[test]
+fn carter_coefficient_matches_its_closed_form_and_approximation() {
+    for ratio in [0.5f64, 1.0, 2.0, 5.0, 10.0, 20.0] {
+        let exact = carter_gamma(ratio, 1.0);
+        let approx = ratio * ratio / (5.0 + ratio);
+        if ratio >= 2.0 {
+            assert!(
+                (exact / approx - 1.0).abs() < 0.03,
+                "{ratio}: {exact} {approx}"
+            );
+        }
+        let (kc, ka) = (10.0 / (10.0 - exact), 10.0 / (10.0 - approx));
+        if ratio < 2.0 {
+            assert!((kc / ka - 1.0).abs() < 0.002, "{ratio}: {kc} {ka}");
+        }
+    }
+    assert!((carter_gamma(3.0, 7.0) - 0.029013).abs() < 1e-6);
+    assert!((carter_coefficient(12.0, 3.0, 7.0) - 1.017216).abs() < 1e-6);
+    // No opening: no correction.
+    assert!((carter_coefficient(12.0, 0.0, 1.0) - 1.0).abs() < 1e-15);
+}
+
+// Russell and Norsworthy (1958): K → 1 for a stack wide against the pole pitch, K → 0 for a
+// narrow one, 1 − tanh(x)/x with no overhang, more overhang raises K; and the formula's
+// value for a = 40 mm, c = 60 mm, τ = 72 mm by hand: x = 1.74533, tanh x = 0.94110,
+// tanh(π·20/72) = 0.70249, K = 1 − 0.94110/(1.74533·1.66112) = 0.67540.
+#[test]
+fn edge_factor_limits_and_value() {
+    assert!((edge_factor(100.0, 150.0, 0.072) - 1.0).abs() < 1e-3);
+    assert!(edge_factor(1e-6, 1e-6, 1.0) < 1e-6);
+    let x = PI * 40.0 / 72.0;
+    assert!((edge_factor(40.0, 40.0, 72.0) - (1.0 - x.tanh() / x)).abs() < 1e-15);
+    assert!(edge_factor(40.0, 80.0, 72.0) > edge_factor(40.0, 50.0, 72.0));
+    assert!((edge_factor(40.0, 60.0, 72.0) - 0.67540).abs() < 1e-4);
+}
+
+// Duncan (1983): f → 1 as Q → 0, f ≈ 1/Q for large Q; with the end effect the thrust lies
+// below the thrust without it at low slip (high speed), where Q is small.
+#[test]
+fn end_effect_costs_thrust_at_high_speed() {
+    assert!((duncan_f(1e-9) - 1.0).abs() < 1e-9);
+    assert!((duncan_f(200.0) * 200.0 - 1.0).abs() < 1e-12);
+    let w = shuttle("slot_opening_mm = 3.0");
+    let with = thrust::thrust(&w, &query(Some(10.0), true)).expect("model");
+    let without = thrust::thrust(&w, &query(Some(10.0), false)).expect("model");
+    for (a, b) in with.rows.iter().zip(&without.rows) {
+        if a.slip > 0.0 && a.slip <= 0.3 {
+            assert!(a.thrust_n < b.thrust_n, "{a:?} {b:?}");
+        }
+    }
+}
+
+// Slip outside 0..1 is accepted and labelled: below 0 the thrust brakes (generating), above
+// 1 the secondary runs against the field.
+#[test]
+fn thrust_cli_takes_negative_slip_and_gives_the_contract() {
+    let v = common::json(&[
+        "thrust",
+        "layouts/pallet-shuttle.toml",
+        "--slip",
+        "-0.2..=1.2",
+        "--steps",
+        "7",
+        "--format",
+        "json",
+    ]);
+    for key in [
+        "goodness_factor",
+        "carter_coefficient",
+        "edge_factor",
+        "effective_gap_mm",
+        "magnetizing_inductance_h",
+        "secondary_resistance_ohm",
+        "synchronous_speed_m_s",
+    ] {
+        assert!(v[key].as_f64().is_some_and(f64::is_finite), "{key}");
+    }
+    let rows = v["rows"].as_array().expect("rows");
+    assert_eq!(rows.len(), 8);
+    for key in [
+        "slip",
+        "speed_m_s",
+        "thrust_n",
+        "normal_force_n",
+        "current_a",
+        "power_factor",
+        "efficiency",
+    ] {
+        assert!(rows[0].get(key).is_some(), "{key}");
+    }
+    assert!(rows[0]["thrust_n"].as_f64().expect("thrust") < 0.0);
+    // A rotary core is refused with exit status 2.
+    let out = common::run(&["thrust", "layouts/pump-rewind.toml"]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("flat primaries"));
+}
