@@ -7,6 +7,10 @@ use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 use clap::{Args, Parser, Subcommand};
+
+mod cli;
+use cli::files::{self, check_output, write_set};
+use cli::{EXIT_FAILURE, Failure};
 use indicatif::ProgressBar;
 
 use beltwright::audit;
@@ -334,36 +338,41 @@ fn parse_range(s: &str) -> Result<RangeInclusive<usize>, String> {
     Ok(a..=b)
 }
 
-/// A failure at the edge: what to print, and the exit status.
-struct Failure {
-    message: String,
-    status: u8,
-    /// A report still printed on stdout (an audit that found faults).
-    report: Option<String>,
+/// Write the report to stdout. A closed pipe (`beltwright survey ... | head -1`) ends
+/// quietly as Unix tools do; any other write error (a full device) is a failure.
+fn emit(out: &str) -> Result<(), std::io::Error> {
+    let mut stdout = std::io::stdout().lock();
+    match stdout
+        .write_all(out.as_bytes())
+        .and_then(|()| stdout.flush())
+    {
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        other => other,
+    }
 }
 
-impl Failure {
-    fn input(message: impl Into<String>) -> Self {
-        Failure {
-            message: message.into(),
-            status: 2,
-            report: None,
-        }
-    }
+/// A line on stderr for the user; a closed stderr is not worth failing over.
+fn note(message: &str) {
+    let _ = writeln!(std::io::stderr().lock(), "{message}");
 }
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
-    match run(cli) {
-        Ok(out) => {
-            print!("{out}");
-            ExitCode::SUCCESS
-        }
-        Err(f) => {
-            if let Some(out) = &f.report {
-                print!("{out}");
-            }
-            eprintln!("beltwright: {}", f.message);
+    files::clean_up_on_signals();
+    let (out, failure) = match run(cli) {
+        Ok(out) => (Some(out), None),
+        Err(mut f) => (f.report.take(), Some(f)),
+    };
+    if let Some(out) = out
+        && let Err(e) = emit(&out)
+    {
+        note(&format!("beltwright: cannot write the output: {e}"));
+        return ExitCode::from(EXIT_FAILURE);
+    }
+    match failure {
+        None => ExitCode::SUCCESS,
+        Some(f) => {
+            note(&format!("beltwright: {}", f.message));
             ExitCode::from(f.status)
         }
     }
@@ -512,8 +521,8 @@ fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
 }
 
 fn run_audit(a: AuditArgs) -> Result<String, Failure> {
-    let (spec, name) = read_spec(&a.common.file)?;
-    let w = winding::build_lenient(&spec).map_err(|e| Failure::input(format!("{name}: {e}")))?;
+    let (spec, name, source) = read_spec_source(&a.common.file)?;
+    let w = winding::build_lenient(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))?;
     let design = match &a.intended {
         Some(p) => {
             let d = load(p)?;
@@ -610,13 +619,8 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
             "--slip {s} is not valid; give a slip from 0 to 1"
         )));
     }
-    if let Some(out) = &a.svg
-        && same_file(out, &a.common.file)
-    {
-        return Err(Failure::input(format!(
-            "--svg {}: that is the layout file; give another file name for the sheet",
-            out.display()
-        )));
+    if let Some(out) = &a.svg {
+        check_output(out, &[&a.common.file], "--svg")?;
     }
     let w = load(&a.common.file)?;
     let orders = (a.upto * w.geometry.poles as f64 / 2.0).floor();
@@ -649,6 +653,7 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
             out,
             &a.common.file,
             field::svg::field_sheet(&report, &snaps).as_bytes(),
+            "--svg",
         )?;
     }
     present(&report, a.common.format)
@@ -670,6 +675,9 @@ fn pitch(a: PitchArgs) -> Result<String, Failure> {
             "--suppress {o} is not valid; give harmonic orders above 0, e.g. 5,7"
         )));
     }
+    if let Some(path) = &a.svg {
+        check_output(path, &[&a.common.file], "--svg")?;
+    }
     let w = load(&a.common.file)?;
     let goal = PitchGoal {
         suppress: a.suppress,
@@ -677,7 +685,12 @@ fn pitch(a: PitchArgs) -> Result<String, Failure> {
     };
     let report = pitch::compare(&w, &goal);
     if let Some(path) = &a.svg {
-        write_atomic(path, &a.common.file, pitch_chart(&report).as_bytes())?;
+        write_atomic(
+            path,
+            &a.common.file,
+            pitch_chart(&report).as_bytes(),
+            "--svg",
+        )?;
     }
     present(&report, a.common.format)
 }
@@ -737,74 +750,49 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
     present(&report, a.format)
 }
 
-/// True when two paths name the same existing file.
-fn same_file(a: &Path, b: &Path) -> bool {
-    match (a.canonicalize(), b.canonicalize()) {
-        (Ok(x), Ok(y)) => x == y,
-        _ => false,
-    }
-}
-
-/// Write `bytes` to `path` through a temporary file in the same folder and a rename, so a
-/// reader never sees half a file; refuse to write over the layout being read.
-fn write_atomic(path: &Path, input: &Path, bytes: &[u8]) -> Result<(), Failure> {
-    let name = path.display().to_string();
-    if let (Ok(a), Ok(b)) = (path.canonicalize(), input.canonicalize())
-        && a == b
-    {
-        return Err(Failure::input(format!(
-            "{name}: refusing to write over the layout file being read"
-        )));
-    }
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
-        _ => PathBuf::from("."),
-    };
-    let fail = |e: std::io::Error| Failure::input(format!("{name}: cannot write: {e}"));
-    let mut tmp = tempfile::NamedTempFile::new_in(&dir).map_err(fail)?;
-    tmp.write_all(bytes).map_err(fail)?;
-    // Temporary files are private (0600); an output file is an ordinary one.
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::PermissionsExt;
-        tmp.as_file()
-            .set_permissions(std::fs::Permissions::from_mode(0o644))
-            .map_err(fail)?;
-    }
-    tmp.as_file().sync_all().map_err(fail)?;
-    tmp.persist(path).map_err(|e| fail(e.error))?;
-    Ok(())
+/// Write one output file (as a set of one), never over an input.
+fn write_atomic(path: &Path, input: &Path, bytes: &[u8], flag: &str) -> Result<(), Failure> {
+    write_set(&[(path.to_path_buf(), bytes.to_vec())], &[], &[input], flag)
 }
 
 fn present<R: Report>(report: &R, format: Format) -> Result<String, Failure> {
-    render(report, format).map_err(|e| Failure {
-        message: format!("could not write the report: {e}"),
-        status: 1,
-        report: None,
-    })
+    render(report, format).map_err(|e| Failure::output(format!("could not write the report: {e}")))
 }
 
 /// Read and validate a layout file and build its winding.
 fn load(path: &Path) -> Result<Winding, Failure> {
-    let (spec, name) = read_spec(path)?;
-    winding::build(&spec).map_err(|e| Failure::input(format!("{name}: {e}")))
+    let (spec, name, source) = read_spec_source(path)?;
+    winding::build(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))
 }
 
-/// Read and validate a layout file.
-fn read_spec(path: &Path) -> Result<(layout::Spec, String), Failure> {
+/// A winding refused after parsing, with the key (and its line) the refusal is about.
+fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::PlanError) -> Failure {
+    use winding::PlanError;
+    let (table, index, key) = match e {
+        PlanError::Paths { .. } => ("winding", 0, "parallel_paths"),
+        PlanError::Overfilled { coils, .. } => ("coil", coils.first().map_or(0, |c| c - 1), "go"),
+        PlanError::Infeasible(_) if spec.pitch.is_some() && spec.coils.is_empty() => {
+            ("winding", 0, "pitch")
+        }
+        PlanError::Infeasible(_) => ("machine", 0, "slots"),
+    };
+    let dotted = if table == "coil" {
+        format!("coil[{}].{key}", index + 1)
+    } else {
+        format!("{table}.{key}")
+    };
+    let line = layout::locate(source, table, index, key)
+        .map(|l| format!(", line {l}"))
+        .unwrap_or_default();
+    Failure::input(format!("{name}{line}: {dotted}: {e}"))
+}
+
+/// Read and validate a layout file, keeping its text for line numbers.
+fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, String), Failure> {
     let name = path.display().to_string();
-    let meta = std::fs::metadata(path)
-        .map_err(|e| Failure::input(format!("{name}: cannot read the layout file: {e}")))?;
-    if meta.len() > 16 * 1024 * 1024 {
-        return Err(Failure::input(format!(
-            "{name}: {} bytes is too large for a layout file (at most 16 MiB)",
-            meta.len()
-        )));
-    }
-    let source = std::fs::read_to_string(path)
-        .map_err(|e| Failure::input(format!("{name}: cannot read the layout file: {e}")))?;
+    let source = files::read_layout(path)?;
     let spec = layout::parse(&source, &name).map_err(|e| Failure::input(e.to_string()))?;
-    Ok((spec, name))
+    Ok((spec, name, source))
 }
 
 /// Write one sheet's pages in `kind` to `path` (and `NAME-2.ext`... for SVG/PNG pages).
@@ -815,11 +803,7 @@ fn write_sheet(
     input: &Path,
     dpi: f64,
 ) -> Result<Vec<PathBuf>, Failure> {
-    let export = |e: draw::ExportError| Failure {
-        message: format!("{}: {e}", path.display()),
-        status: 1,
-        report: None,
-    };
+    let export = |e: draw::ExportError| Failure::output(format!("{}: {e}", path.display()));
     let files: Vec<(PathBuf, Vec<u8>)> = match kind {
         FileKind::Pdf => vec![(
             path.to_path_buf(),
@@ -838,9 +822,15 @@ fn write_sheet(
             v
         }
     };
-    for (name, bytes) in &files {
-        write_atomic(name, input, bytes)?;
-    }
+    // Pages of an earlier, longer set under this name (NAME-k.ext beyond this set's last).
+    let stale = match kind {
+        FileKind::Pdf => Vec::new(),
+        _ => draw::export::page_names(path, files.len()..files.len() + 4096)
+            .into_iter()
+            .take_while(|p| p.exists())
+            .collect(),
+    };
+    write_set(&files, &stale, &[input], "-o")?;
     Ok(files.into_iter().map(|(n, _)| n).collect())
 }
 
@@ -902,17 +892,14 @@ fn write_pack(
             let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };
             let path = dir.join(format!("{stem}-{}.{ext}", sheet.name()));
             for p in write_sheet(&pages, kind, &path, input, 150.0)? {
-                eprintln!("wrote {}", p.display());
+                note(&format!("wrote {}", p.display()));
             }
         }
     }
-    let json = render(report, Format::Json).map_err(|e| Failure {
-        message: format!("could not write the plan JSON: {e}"),
-        status: 1,
-        report: None,
-    })?;
+    let json = render(report, Format::Json)
+        .map_err(|e| Failure::output(format!("could not write the plan JSON: {e}")))?;
     let path = dir.join(format!("{stem}-plan.json"));
-    write_atomic(&path, input, json.as_bytes())?;
-    eprintln!("wrote {}", path.display());
+    write_atomic(&path, input, json.as_bytes(), "--out")?;
+    note(&format!("wrote {}", path.display()));
     Ok(())
 }

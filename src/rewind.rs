@@ -46,6 +46,13 @@ pub enum RewindError {
          it and rewind from the sound design"
     )]
     OldUnbalanced,
+    /// The new design would need more turns per coil than any winding has.
+    #[error(
+        "the new design would need {0} turns per coil, more than the {max} a coil may have; \
+         check the voltages, frequencies and connections of the two designs",
+        max = crate::layout::MAX_TURNS
+    )]
+    TooManyTurns(String),
     /// The old design gives no supply.
     #[error(
         "the old design gives no [supply] {0}; give the supply the old winding was built for \
@@ -283,6 +290,9 @@ pub fn rewind(
     let a_new = new.parallel_paths as f64;
     let exact = series_exact * a_new / n_probe.coils_per_phase as f64;
     let rounded = exact.round().max(1.0);
+    if !rounded.is_finite() || rounded > crate::layout::MAX_TURNS as f64 {
+        return Err(RewindError::TooManyTurns(crate::numbering::short(exact)));
+    }
     let turns = rounded as u32;
     let n = side(new, line_new, f_new, Some(rounded));
     let flux_change_percent = 100.0 * (exact / rounded - 1.0);

@@ -65,7 +65,7 @@ pub fn chart(b: Rect, title: &str, x_title: &str, y_title: &str, series: &[Serie
     let px = |x: f64| left + (x - x0) / (x1 - x0) * (right - left);
     let py = |y: f64| bottom - (y - y0) / (y1 - y0) * (bottom - top);
     let mut g = Group::new().set("class", "chart");
-    g = g.add(label(b.x, b.y + TITLE, TITLE, Anchor::Start, title).set("font-weight", "bold"));
+    g = g.add(label(b.x, b.y + TITLE, TITLE, Anchor::Start, title));
     // Grid and y ticks.
     let mut y = y0;
     while y <= y1 + ys * 1e-9 {

@@ -138,12 +138,72 @@ pub fn to_pdf(pages: &[String]) -> Result<Vec<u8>, ExportError> {
     for c in &chunks {
         pdf.extend(c);
     }
-    Ok(pdf.finish())
+    let mut bytes = pdf.finish();
+    sort_resource_entries(&mut bytes);
+    Ok(bytes)
+}
+
+/// Put the entries of every resource dictionary in name order. The converter fills some of
+/// them from hash maps, so the same sheets came out in a different byte order from run to
+/// run; sorting whole lines in place keeps every length and so every cross-reference
+/// offset, and makes the PDF byte-for-byte the same for the same input.
+fn sort_resource_entries(pdf: &mut [u8]) {
+    let mut i = 0;
+    while let Some(pos) = find(&pdf[i..], b"<<\n").map(|p| p + i) {
+        let start = pos + 3;
+        // The entry lines: "  /name N 0 R\n" up to a line holding only ">>".
+        let mut lines: Vec<(usize, usize)> = Vec::new();
+        let mut at = start;
+        let mut closed = false;
+        while at < pdf.len() {
+            let end = find(&pdf[at..], b"\n").map_or(pdf.len(), |e| at + e);
+            let line = &pdf[at..end];
+            let t = line.trim_ascii();
+            if t == b">>" {
+                closed = true;
+                break;
+            }
+            if !is_reference_entry(t) {
+                break;
+            }
+            lines.push((at, end));
+            at = end + 1;
+        }
+        if closed && lines.len() > 1 {
+            let mut sorted: Vec<Vec<u8>> = lines.iter().map(|&(a, b)| pdf[a..b].to_vec()).collect();
+            sorted.sort_by(|a, b| a.trim_ascii().cmp(b.trim_ascii()));
+            let (first, last) = (lines[0].0, lines[lines.len() - 1].1);
+            let joined = sorted.join(&b'\n');
+            if joined.len() == last - first {
+                pdf[first..last].copy_from_slice(&joined);
+            }
+        }
+        i = start;
+    }
+}
+
+/// "/Name 12 0 R": one entry of a resource dictionary.
+fn is_reference_entry(t: &[u8]) -> bool {
+    let mut parts = t.split(|b| *b == b' ');
+    matches!(
+        (parts.next(), parts.next(), parts.next(), parts.next(), parts.next()),
+        (Some(n), Some(num), Some(b"0"), Some(b"R"), None)
+            if n.first() == Some(&b'/') && !num.is_empty() && num.iter().all(u8::is_ascii_digit)
+    )
+}
+
+fn find(hay: &[u8], needle: &[u8]) -> Option<usize> {
+    hay.windows(needle.len()).position(|w| w == needle)
 }
 
 /// File names for the pages of one output: the given name for the first page, `NAME-2.ext`,
 /// `NAME-3.ext`... for the rest (SVG and PNG hold one page each).
 pub fn page_paths(path: &Path, pages: usize) -> Vec<std::path::PathBuf> {
+    page_names(path, 0..pages)
+}
+
+/// Pages numbered `range` (from 0) of the set named `path`: `NAME.ext`, `NAME-2.ext`, ...
+pub fn page_names(path: &Path, range: std::ops::Range<usize>) -> Vec<std::path::PathBuf> {
     let stem = path
         .file_stem()
         .map(|s| s.to_string_lossy().into_owned())
@@ -152,7 +212,7 @@ pub fn page_paths(path: &Path, pages: usize) -> Vec<std::path::PathBuf> {
         .extension()
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_default();
-    (0..pages)
+    range
         .map(|i| {
             if i == 0 {
                 path.to_path_buf()

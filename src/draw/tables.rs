@@ -109,16 +109,13 @@ fn layout(sections: &[Section], width: f64) -> Vec<Item> {
 fn heading(s: &str, width: f64) -> Group {
     Group::new()
         .set("class", "heading")
-        .add(
-            label(
-                0.0,
-                HEAD + 0.8,
-                HEAD,
-                Anchor::Start,
-                &text::fit(s, HEAD, width),
-            )
-            .set("font-weight", "bold"),
-        )
+        .add(label(
+            0.0,
+            HEAD + 0.8,
+            HEAD,
+            Anchor::Start,
+            &text::fit(s, HEAD, width),
+        ))
         .add(rule(0.0, HEAD + 2.0, width, HEAD + 2.0, 0.3))
 }
 
@@ -160,7 +157,9 @@ fn table_rows(t: &Table, size: f64, width: f64) -> Vec<(f64, Group)> {
         }
     }
     let pitch = size * 1.55;
-    let row = |cells: &[String], bold: bool, class: &str| {
+    // One typeface throughout (no bold): a second face would make the PDF's font
+    // resources come out in a different order from run to run.
+    let row = |cells: &[String], class: &str| {
         let mut g = Group::new().set("class", class.to_string());
         let mut x = 0.0;
         for (j, (c, cw)) in cells.iter().zip(&widths).enumerate() {
@@ -171,11 +170,7 @@ fn table_rows(t: &Table, size: f64, width: f64) -> Vec<(f64, Group)> {
             } else {
                 label(x, size + 0.3, size, Anchor::Start, &s)
             };
-            g = g.add(if bold {
-                node.set("font-weight", "bold")
-            } else {
-                node
-            });
+            g = g.add(node);
             x += cw + GAP;
         }
         g
@@ -183,10 +178,10 @@ fn table_rows(t: &Table, size: f64, width: f64) -> Vec<(f64, Group)> {
     let span = natural_width(t, size).min(width);
     let mut out = vec![(
         pitch + 0.8,
-        row(&t.headers, true, "table-head").add(rule(0.0, pitch, span, pitch, 0.3)),
+        row(&t.headers, "table-head").add(rule(0.0, pitch, span, pitch, 0.3)),
     )];
     for r in &t.rows {
-        out.push((pitch, row(r, false, "table-row")));
+        out.push((pitch, row(r, "table-row")));
     }
     if let Some(last) = out.last_mut() {
         last.0 += 2.0;

@@ -38,12 +38,10 @@ pub fn width(s: &str, size: f64) -> f64 {
     units / upem * size
 }
 
-/// User text made safe for XML: control characters (not allowed in XML 1.0) become spaces.
-/// `<`, `>` and `&` are escaped by the `svg` crate when the text node is written.
+/// User text made safe for XML ([`crate::sanitize::clean`]); `<`, `>` and `&` are escaped
+/// by the `svg` crate when the text node is written.
 pub fn clean(s: &str) -> String {
-    s.chars()
-        .map(|c| if c.is_control() { ' ' } else { c })
-        .collect()
+    crate::sanitize::clean(s).into_owned()
 }
 
 /// Horizontal anchoring of a text node.

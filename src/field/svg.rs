@@ -36,7 +36,7 @@ const RIGHT: f64 = 960.0;
 const MAX_BARS: usize = 40;
 
 fn text(x: f64, y: f64, size: f64, s: &str) -> Text {
-    Text::new(s)
+    Text::new(crate::sanitize::short(s, 110))
         .set("x", r(x))
         .set("y", r(y))
         .set("font-family", "DejaVu Sans, Arial, Helvetica, sans-serif")
@@ -252,7 +252,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
         Some(t) => format!("Travelling field: {t}"),
         None => heading.clone(),
     };
-    doc = doc.add(text(LEFT, 32.0, 20.0, &banner).set("font-weight", "bold"));
+    doc = doc.add(text(LEFT, 32.0, 20.0, &banner));
 
     // Panel 1: MMF snapshots.
     let (top, bottom) = (90.0, 330.0);
@@ -505,18 +505,10 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     }
     for (i, c) in cells.iter().enumerate() {
         let size = if i == 0 { 13.0 } else { 11.5 };
-        let mut t = text(LEFT + 10.0, ty + 20.0 + i as f64 * 18.0, size, c);
-        if i == 0 {
-            t = t.set("font-weight", "bold");
-        }
-        block = block.add(t);
+        block = block.add(text(LEFT + 10.0, ty + 20.0 + i as f64 * 18.0, size, c));
     }
     for (i, l) in wrap(rep.caution, 68).iter().enumerate() {
-        let mut t = text(split + 10.0, ty + 20.0 + i as f64 * 16.0, 11.5, l);
-        if i == 0 {
-            t = t.set("font-weight", "bold");
-        }
-        block = block.add(t);
+        block = block.add(text(split + 10.0, ty + 20.0 + i as f64 * 16.0, 11.5, l));
     }
     doc = doc.add(block);
     let mut s = doc.to_string();

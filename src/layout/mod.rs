@@ -240,7 +240,7 @@ fn line_of_offset(source: &str, offset: usize) -> usize {
 
 /// Find the 1-based line on which `key` is set inside `[table]` (or `[[table]]` number
 /// `index`, counting from 0). Used to put a line number on validation errors.
-pub(crate) fn locate(source: &str, table: &str, index: usize, key: &str) -> Option<usize> {
+pub fn locate(source: &str, table: &str, index: usize, key: &str) -> Option<usize> {
     let mut array_seen: usize = 0;
     let mut in_wanted = table.is_empty();
     for (n, line) in source.lines().enumerate() {

@@ -201,6 +201,20 @@ impl RawLayout {
     /// Check every value and produce a [`Spec`].
     pub fn validate(self, source: &str, file: &str) -> Result<Spec, LayoutError> {
         let c = Checker { source, file };
+        if let Some(t) = &self.title
+            && t.chars().count() > crate::sanitize::MAX_TITLE_CHARS
+        {
+            return Err(c.err(
+                "",
+                0,
+                "title",
+                format!(
+                    "{} characters is too long for a title; give at most {}",
+                    t.chars().count(),
+                    crate::sanitize::MAX_TITLE_CHARS
+                ),
+            ));
+        }
         let m = &self.machine;
         let slots = c.range(
             "machine",

@@ -241,9 +241,9 @@ impl Report for AuditReport {
     }
 }
 
-fn opt(x: Option<f64>, digits: usize, unit: &str) -> String {
-    x.map(|v| format!("{} {unit}", num(v, digits)))
-        .unwrap_or_else(|| "-".into())
+/// A bare number (its unit is in the row's label, so spreadsheets get numbers), or "-".
+fn opt(x: Option<f64>, digits: usize) -> String {
+    x.map(|v| num(v, digits)).unwrap_or_else(|| "-".into())
 }
 
 fn design_rows(t: &mut Table, o: &DesignSide, n: &DesignSide) {
@@ -300,21 +300,21 @@ fn design_rows(t: &mut Table, o: &DesignSide, n: &DesignSide) {
     );
     row(
         t,
-        "line voltage",
-        opt(o.line_voltage_v, 1, "V"),
-        opt(n.line_voltage_v, 1, "V"),
+        "line voltage, V",
+        opt(o.line_voltage_v, 1),
+        opt(n.line_voltage_v, 1),
     );
     row(
         t,
-        "phase voltage",
-        opt(o.phase_voltage_v, 1, "V"),
-        opt(n.phase_voltage_v, 1, "V"),
+        "phase voltage, V",
+        opt(o.phase_voltage_v, 1),
+        opt(n.phase_voltage_v, 1),
     );
     row(
         t,
-        "frequency",
-        opt(o.frequency_hz, 2, "Hz"),
-        opt(n.frequency_hz, 2, "Hz"),
+        "frequency, Hz",
+        opt(o.frequency_hz, 2),
+        opt(n.frequency_hz, 2),
     );
 }
 

@@ -35,7 +35,7 @@ impl Report for PitchReport {
 
     fn main_table(&self) -> Table {
         let mut cols: Vec<(String, Align)> = vec![
-            ("".into(), Align::Left),
+            ("mark".into(), Align::Left),
             ("span".into(), Align::Right),
             ("y/tau".into(), Align::Right),
             ("k_w1".into(), Align::Right),

@@ -6,6 +6,7 @@ use super::{Exporter, Report};
 pub struct Csv;
 
 fn field(s: &str) -> String {
+    let s = crate::sanitize::csv_cell(s);
     if s.contains([',', '"', '\n', '\r']) {
         format!("\"{}\"", s.replace('"', "\"\""))
     } else {

@@ -15,7 +15,7 @@ const INK: [&str; 5] = ["#000000", "#D55E00", "#0072B2", "#009E73", "#CC79A7"];
 const DASH: [&str; 5] = ["", "8 4", "2 3", "10 3 2 3", "4 4"];
 
 fn text(x: f64, y: f64, size: f64, s: &str) -> SvgText {
-    SvgText::new(s)
+    SvgText::new(crate::sanitize::short(s, 90))
         .set("x", x)
         .set("y", y)
         .set("font-family", "DejaVu Sans, Arial, sans-serif")

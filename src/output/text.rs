@@ -14,12 +14,12 @@ impl Exporter for Text {
                     if i > 0 {
                         out.push('\n');
                     }
-                    out.push_str(h);
+                    out.push_str(&crate::sanitize::clean(h));
                     out.push('\n');
                 }
                 Section::Lines(lines) => {
                     for l in lines {
-                        out.push_str(l);
+                        out.push_str(&crate::sanitize::clean(l));
                         out.push('\n');
                     }
                 }
@@ -30,42 +30,55 @@ impl Exporter for Text {
     }
 }
 
-/// Render a table with columns padded to their widest cell, two spaces apart.
+/// Render a table with columns padded to their widest cell, two spaces apart, written
+/// straight into one buffer; cells are cleaned for the terminal (no copy unless needed).
 pub fn table(t: &Table) -> String {
+    use crate::sanitize::clean;
+    use std::borrow::Cow;
     let n = t.headers.len();
-    let mut width: Vec<usize> = t.headers.iter().map(|h| h.chars().count()).collect();
-    for row in &t.rows {
+    let headers: Vec<Cow<str>> = t.headers.iter().map(|h| clean(h)).collect();
+    let rows: Vec<Vec<Cow<str>>> = t
+        .rows
+        .iter()
+        .map(|r| r.iter().map(|c| clean(c)).collect())
+        .collect();
+    let mut width: Vec<usize> = headers.iter().map(|h| h.chars().count()).collect();
+    for row in &rows {
         for (w, cell) in width.iter_mut().zip(row) {
             *w = (*w).max(cell.chars().count());
         }
     }
-    let line = |cells: &[String]| {
-        let mut s = String::new();
-        for (j, cell) in cells.iter().enumerate().take(n) {
+    let total: usize = width.iter().sum::<usize>() + 2 * n + 1;
+    let mut out = String::with_capacity(total * (rows.len() + 2));
+    let line = |out: &mut String, cells: &mut dyn Iterator<Item = &str>| {
+        let start = out.len();
+        for (j, cell) in cells.enumerate().take(n) {
             let pad = width[j].saturating_sub(cell.chars().count());
             if j > 0 {
-                s.push_str("  ");
+                out.push_str("  ");
             }
             match t.align.get(j).copied().unwrap_or(Align::Left) {
                 Align::Left => {
-                    s.push_str(cell);
+                    out.push_str(cell);
                     if j + 1 < n {
-                        s.push_str(&" ".repeat(pad));
+                        out.extend(std::iter::repeat_n(' ', pad));
                     }
                 }
                 Align::Right => {
-                    s.push_str(&" ".repeat(pad));
-                    s.push_str(cell);
+                    out.extend(std::iter::repeat_n(' ', pad));
+                    out.push_str(cell);
                 }
             }
         }
-        s.trim_end().to_string() + "\n"
+        let trimmed = out[start..].trim_end().len();
+        out.truncate(start + trimmed);
+        out.push('\n');
     };
-    let mut out = line(&t.headers);
+    line(&mut out, &mut headers.iter().map(|h| h.as_ref()));
     let rule: Vec<String> = width.iter().map(|&w| "-".repeat(w)).collect();
-    out.push_str(&line(&rule));
-    for row in &t.rows {
-        out.push_str(&line(row));
+    line(&mut out, &mut rule.iter().map(String::as_str));
+    for row in &rows {
+        line(&mut out, &mut row.iter().map(|c| c.as_ref()));
     }
     out
 }

@@ -16,8 +16,14 @@ use itertools::Itertools;
 
 /// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
 pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
+    build_explained(spec, true)
+}
+
+/// [`build`], with refusal texts worked out (`explain`) or left empty: probes that try many
+/// spans only need to know whether one works, and some texts search every span.
+fn build_explained(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
     let mut w = if spec.coils.is_empty() {
-        synthesize(spec)?
+        synthesize(spec, explain)?
     } else {
         return from_coil_list(spec, true);
     };
@@ -83,11 +89,11 @@ fn blank_winding(spec: &Spec, geometry: Geometry, pitch: usize, coils: Vec<Coil>
     }
 }
 
-fn synthesize(spec: &Spec) -> Result<Winding, PlanError> {
+fn synthesize(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
     match (spec.topology, spec.layers) {
         (Topology::Rotary, 2) => rotary_double(spec),
         (Topology::Linear, 2) => linear_double(spec),
-        (_, _) => single_layer(spec, true),
+        (_, _) => single_layer(spec, explain),
     }
 }
 
@@ -331,6 +337,9 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
             }
         };
         let pairs = pairs.ok_or_else(|| {
+            if !explain {
+                return PlanError::Infeasible(String::new());
+            }
             let spans = single_layer_spans(&geom, &plus, &minus);
             PlanError::Infeasible(format!(
                 "span {y} cannot pair the single-layer slots of phase {} in lap coils; \
@@ -425,55 +434,103 @@ fn pair_at_span(
             p
         })
         .collect();
+    // Every slot has at most two partners, so the graph is a union of paths and cycles and
+    // degree-one forcing (Karp and Sipser 1981) finds a perfect matching in linear time
+    // whenever one exists: a slot with one free partner must take it; when none is left,
+    // only cycles remain, and on a cycle any one edge starts a matching (we take the
+    // lowest free positive slot's first partner, the one ahead of it).
+    let mut back_partners: Vec<Vec<usize>> = vec![Vec::new(); minus.len()];
+    for (i, ps) in partners.iter().enumerate() {
+        for &j in ps {
+            back_partners[j].push(i);
+        }
+    }
     let mut owner: Vec<Option<usize>> = vec![None; minus.len()];
     let mut mate: Vec<Option<usize>> = vec![None; plus.len()];
-    let mut via = vec![0usize; minus.len()];
-    let mut seen = vec![false; minus.len()];
-    let mut stack: Vec<(usize, usize)> = Vec::new();
-    for first in 0..plus.len() {
-        seen.iter_mut().for_each(|x| *x = false);
-        stack.clear();
-        stack.push((first, 0));
-        let mut found = None;
-        // Depth-first search for an augmenting path, iteratively (long belts are deep).
-        while let Some(&mut (i, ref mut k)) = stack.last_mut() {
-            let Some(&j) = partners[i].get(*k) else {
-                stack.pop();
-                continue;
-            };
-            *k += 1;
-            if seen[j] {
-                continue;
-            }
-            seen[j] = true;
-            via[j] = i;
-            match owner[j] {
-                None => {
-                    found = Some(j);
-                    break;
+    let free_of =
+        |ps: &[usize], taken: &dyn Fn(usize) -> bool| ps.iter().filter(|&&x| !taken(x)).count();
+    // A queue of vertices to look at: (side, index), side false = positive slot.
+    let mut queue: std::collections::VecDeque<(bool, usize)> = (0..plus.len())
+        .map(|i| (false, i))
+        .chain((0..minus.len()).map(|j| (true, j)))
+        .collect();
+    let mut next_cycle = 0usize;
+    let mut matched = 0usize;
+    loop {
+        while let Some((side, v)) = queue.pop_front() {
+            let (pick_i, pick_j) = if side {
+                if owner[v].is_some() {
+                    continue;
                 }
-                Some(o) => stack.push((o, 0)),
+                match free_of(&back_partners[v], &|i| mate[i].is_some()) {
+                    0 => return None,
+                    1 => {
+                        let i = back_partners[v]
+                            .iter()
+                            .copied()
+                            .find(|&i| mate[i].is_none())?;
+                        (i, v)
+                    }
+                    _ => continue,
+                }
+            } else {
+                if mate[v].is_some() {
+                    continue;
+                }
+                match free_of(&partners[v], &|j| owner[j].is_some()) {
+                    0 => return None,
+                    1 => {
+                        let j = partners[v].iter().copied().find(|&j| owner[j].is_none())?;
+                        (v, j)
+                    }
+                    _ => continue,
+                }
+            };
+            mate[pick_i] = Some(pick_j);
+            owner[pick_j] = Some(pick_i);
+            matched += 1;
+            // Their other partners may now be forced.
+            for &j in &partners[pick_i] {
+                if owner[j].is_none() {
+                    queue.push_back((true, j));
+                }
+            }
+            for &i in &back_partners[pick_j] {
+                if mate[i].is_none() {
+                    queue.push_back((false, i));
+                }
             }
         }
-        let mut j = found?;
-        loop {
-            let i = via[j];
-            let previous = mate[i];
-            owner[j] = Some(i);
-            mate[i] = Some(j);
-            match previous {
-                Some(pj) => j = pj,
-                None => break,
+        if matched == plus.len() {
+            break;
+        }
+        // Only cycles are left: break the lowest one open.
+        while next_cycle < plus.len() && mate[next_cycle].is_some() {
+            next_cycle += 1;
+        }
+        let i = next_cycle;
+        let j = *partners.get(i)?.iter().find(|&&j| owner[j].is_none())?;
+        mate[i] = Some(j);
+        owner[j] = Some(i);
+        matched += 1;
+        for &k in &back_partners[j] {
+            if mate[k].is_none() {
+                queue.push_back((false, k));
+            }
+        }
+        for &k in &partners[i] {
+            if owner[k].is_none() {
+                queue.push_back((true, k));
             }
         }
     }
-    Some(
+    (matched == minus.len()).then(|| {
         owner
             .iter()
             .enumerate()
             .filter_map(|(j, o)| o.map(|i| (plus[i], minus[j])))
-            .collect(),
-    )
+            .collect()
+    })
 }
 
 /// Concentric coils: each negative slot closes the nearest open positive slot before it
@@ -631,5 +688,5 @@ pub fn with_span(w: &Winding, pitch: usize) -> Result<Winding, PlanError> {
         colours: w.colours.clone(),
         design: w.design,
     };
-    build(&spec)
+    build_explained(&spec, false)
 }

@@ -1,0 +1,37 @@
+//! The command line's own parts: failures with their exit status, and files.
+
+pub mod files;
+
+/// Exit status for output that could not be made or written, or a failure inside the tool:
+/// apart from 1 (an audit found faults) and 2 (bad input or usage).
+pub const EXIT_FAILURE: u8 = 3;
+
+/// A failure at the edge: what to print, and the exit status.
+pub struct Failure {
+    /// What went wrong and what would be valid.
+    pub message: String,
+    /// 1 faults found, 2 bad input or usage, 3 output or internal failure.
+    pub status: u8,
+    /// A report still printed on stdout (an audit that found faults).
+    pub report: Option<String>,
+}
+
+impl Failure {
+    /// Bad input or usage: exit status 2.
+    pub fn input(message: impl Into<String>) -> Self {
+        Failure {
+            message: message.into(),
+            status: 2,
+            report: None,
+        }
+    }
+
+    /// Output that could not be made or written: exit status 3.
+    pub fn output(message: impl Into<String>) -> Self {
+        Failure {
+            message: message.into(),
+            status: EXIT_FAILURE,
+            report: None,
+        }
+    }
+}
