@@ -145,7 +145,9 @@ fn span_angle(w: &Winding, y: usize, order: f64) -> f64 {
     }
 }
 
-/// Factors of the first phase at every order up to `upto` whose winding factor is present
+/// Factors of the first phase at every order up to `upto` that the distribution lets
+/// through (k_d present), including the orders the span or the skew removes, which are the
+/// ones a designer chose them to kill: those rows carry k_p or k_s (and k_w) of 0
 /// (rotary: every mechanical order n ≤ upto·p; linear: whole orders 1..=upto).
 pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
     let g = &w.geometry;
@@ -162,7 +164,7 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
     let rows = orders
         .into_iter()
         .map(|nu| factors_at(w, 0, nu))
-        .filter(|r| r.distribution * r.pitch > PRESENT)
+        .filter(|r| r.distribution > PRESENT)
         .collect();
     FactorTable {
         phase: w.phase_labels[0].clone(),

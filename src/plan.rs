@@ -144,18 +144,29 @@ fn layer_name(layers: usize, l: usize) -> &'static str {
     }
 }
 
-/// Phase EMF phasors at electrical order `order`, angles relative to the first phase.
+/// Phase EMF phasors at electrical order `order`: magnitudes in effective series turns
+/// N_ph·k_w with the skew factor included (k_w = k_d·k_p·k_s, as `winding_factor`), angles
+/// relative to the first phase at that order (the one reference of every command).
 pub fn phasors(w: &Winding, order: f64) -> Vec<PhasorRow> {
     let e: Vec<_> = (0..w.geometry.phases)
         .map(|k| w.phase_emf(k, order))
         .collect();
-    let reference = e.first().map(|r| r.arg()).unwrap_or(0.0);
+    let ks = factors::closed::skew(order, w.skew_slots * w.geometry.slot_angle_elec());
+    let reference = e
+        .first()
+        .filter(|r| r.norm() > 1e-9)
+        .map(|r| r.arg())
+        .unwrap_or(0.0);
     e.iter()
         .enumerate()
         .map(|(k, e)| PhasorRow {
             phase: w.label(k).to_string(),
-            magnitude: e.norm(),
-            angle_deg: tidy_angle((e.arg() - reference).to_degrees()),
+            magnitude: e.norm() * ks,
+            angle_deg: if e.norm() > 1e-9 {
+                tidy_angle((e.arg() - reference).to_degrees())
+            } else {
+                0.0
+            },
         })
         .collect()
 }

@@ -60,6 +60,8 @@ pub enum FindingKind {
     DiffersFromIntended,
     /// Measured line-to-line resistances unbalanced or far from the data card.
     MeasuredResistance,
+    /// The phases have no fundamental EMF: the coil groups are not connected alternately.
+    NoFundamental,
 }
 
 /// One thing wrong with the winding, and what to do about it.
@@ -154,10 +156,14 @@ pub struct AuditReport {
     pub forward: f64,
     /// Backward (negative-sequence) component, effective turns.
     pub backward: f64,
-    /// Backward as a percentage of forward.
+    /// Backward component as a percentage of the larger of forward and backward (100 when
+    /// the field runs backwards), so the figure stays meaningful when a wave vanishes.
     pub backward_percent: f64,
-    /// Zero-sequence component as a percentage of forward.
+    /// Zero-sequence component as a percentage of the larger of forward and backward.
     pub zero_sequence_percent: f64,
+    /// True when the phase EMFs have no fundamental at all (every coil group connected the
+    /// same way round): no angles or ratios mean anything then.
+    pub no_fundamental: bool,
     /// (max − min) / mean of the phase magnitudes, per cent.
     pub magnitude_spread_percent: f64,
     /// Largest angle error of a phase, degrees.
@@ -396,7 +402,19 @@ fn balance(w: &Winding) -> Balance {
         -1.0
     };
     let orders = harmonic_orders(w);
-    let a0 = e[0].arg().to_degrees();
+    // One angle reference in every command: phase U's EMF at each order is 0° (as in plan).
+    let a0 = if e[0].norm() > 0.0 {
+        e[0].arg().to_degrees()
+    } else {
+        0.0
+    };
+    let reference: Vec<f64> = orders
+        .iter()
+        .map(|&nu| {
+            let h = w.phase_emf(0, nu);
+            if h.norm() < 1e-9 { 0.0 } else { h.arg().to_degrees() }
+        })
+        .collect();
     let phases: Vec<PhaseRow> = (0..m)
         .map(|k| {
             let ideal = a0 - s * 360.0 * k as f64 / m as f64;
@@ -409,18 +427,27 @@ fn balance(w: &Winding) -> Balance {
             PhaseRow {
                 phase: w.label(k).to_string(),
                 magnitude: e[k].norm(),
-                angle_deg: tidy_deg(ang),
+                angle_deg: if e[k].norm() < 1e-9 {
+                    0.0
+                } else {
+                    tidy_deg(ang - a0)
+                },
                 angle_error_deg: err,
                 coils: w.coils.iter().filter(|c| c.phase == k).count(),
                 series_turns: w.series_turns(k),
                 harmonics: orders
                     .iter()
-                    .map(|&nu| {
+                    .zip(&reference)
+                    .map(|(&nu, r)| {
                         let h = w.phase_emf(k, nu);
                         HarmonicRow {
                             order: nu,
                             magnitude: h.norm(),
-                            angle_deg: angle_of(h),
+                            angle_deg: if h.norm() < 1e-9 {
+                                0.0
+                            } else {
+                                tidy_deg(angle_of(h) - r)
+                            },
                         }
                     })
                     .collect(),
@@ -617,7 +644,20 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     findings.extend(odd_turns(w));
     let fix = found.fix.clone().unwrap_or_default();
     findings.extend(fix.iter().map(|e| finding_for(w, e)));
-    if !found.balanced && found.fix.is_none() {
+    let total_turns: f64 = w.coils.iter().map(|c| c.turns as f64).sum();
+    let no_fundamental = bal.forward.max(bal.backward).max(bal.zero) <= 1e-9 * total_turns.max(1.0);
+    if no_fundamental && found.fix.is_none() {
+        findings.push(Finding {
+            kind: FindingKind::NoFundamental,
+            coils: Vec::new(),
+            slots: Vec::new(),
+            phases: Vec::new(),
+            message: "no fundamental EMF: the coil groups are not connected alternately (every \
+                      other group must be reversed), or the coils were recorded in one \
+                      direction; check the group connections against the connection sheet"
+                .into(),
+        });
+    } else if !found.balanced && found.fix.is_none() {
         findings.push(Finding {
             kind: FindingKind::Unbalanced,
             coils: Vec::new(),
@@ -628,7 +668,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
                  {}%) and no change of up to two edits (reversing a coil, a group or a phase, \
                  moving a coil to another phase, swapping two leads) balances them{}; compare \
                  the record with the design slot by slot",
-                crate::output::num(pct(bal.backward, bal.forward), 2),
+                crate::output::num(pct(bal.backward, bal.forward.max(bal.backward)), 2),
                 crate::output::num(bal.spread, 2),
                 if found.truncated {
                     " (the search of pairs of edits was cut short on this record)"
@@ -708,8 +748,9 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         ),
         forward: bal.forward,
         backward: bal.backward,
-        backward_percent: pct(bal.backward, bal.forward),
-        zero_sequence_percent: pct(bal.zero, bal.forward),
+        backward_percent: pct(bal.backward, bal.forward.max(bal.backward)),
+        zero_sequence_percent: pct(bal.zero, bal.forward.max(bal.backward)),
+        no_fundamental,
         magnitude_spread_percent: bal.spread,
         max_angle_error_deg: bal.max_err,
         phases: bal.phases,

@@ -32,17 +32,29 @@ impl Report for AuditReport {
             ),
         ];
         head.extend(wrap(&self.travel, 78));
-        head.extend(wrap(
-            &format!(
+        let waves = if self.no_fundamental {
+            "no fundamental EMF: the phases make no working wave, so no ratio or angle \
+             applies"
+                .to_string()
+        } else if self.sequence == Sequence::Negative {
+            format!(
+                "the field runs backwards (the phase sequence is reversed): the forward wave is \
+                 {}% of the backward one, zero sequence {}% of it, magnitudes spread {}%",
+                num(100.0 * self.forward / self.backward.max(1e-300), 2),
+                num(self.zero_sequence_percent, 2),
+                num(self.magnitude_spread_percent, 2)
+            )
+        } else {
+            format!(
                 "backward field {}% of forward, zero sequence {}%, magnitudes spread {}%, \
                  largest angle error {} deg",
                 num(self.backward_percent, 2),
                 num(self.zero_sequence_percent, 2),
                 num(self.magnitude_spread_percent, 2),
                 num(self.max_angle_error_deg, 2)
-            ),
-            78,
-        ));
+            )
+        };
+        head.extend(wrap(&waves, 78));
         if self.fix_edits > 0 {
             head.push(format!(
                 "smallest fix: {} edit(s){}",
