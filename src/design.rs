@@ -155,4 +155,6 @@ pub struct Design {
     pub measured: Option<Measured>,
     /// Secondary plate of a flat primary.
     pub secondary: Option<Secondary>,
+    /// True when `winding.turns_per_coil` was not given and one turn is assumed.
+    pub turns_assumed: bool,
 }

@@ -23,4 +23,5 @@ pub mod rewind;
 pub mod sanitize;
 pub mod survey;
 pub mod thrust;
+pub mod warnings;
 pub mod winding;

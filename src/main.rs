@@ -27,24 +27,23 @@ use beltwright::survey::{self, SortKey, SurveyQuery};
 use beltwright::winding::{self, Topology, Winding};
 
 const EXAMPLES: &str = "\
-Examples:
-  beltwright plan layouts/pallet-shuttle.toml
-  beltwright plan layouts/pump-rewind.toml --format json
-  beltwright plan layouts/pallet-shuttle.toml --slip 0.08 --airgap-power-w 1500
-  beltwright factors layouts/fan-concentric.toml --upto 31 --format csv
-  beltwright field layouts/pump-rewind.toml --upto 49 --svg pump-field.svg
-  beltwright field layouts/pallet-shuttle.toml --slip 0.1 --format json
-  beltwright report layouts/pump-rewind.toml -o pump-rewind.pdf
-  beltwright pitch layouts/pump-rewind.toml --suppress 5,7 --svg span.svg
+Examples (stator.toml, primary.toml and the others stand for your own layout files):
+  beltwright plan stator.toml
+  beltwright plan stator.toml --format json
+  beltwright plan primary.toml --slip 0.08 --airgap-power-w 1500
+  beltwright factors stator.toml --upto 31 --format csv
+  beltwright field stator.toml --upto 49 --svg field.svg
+  beltwright field primary.toml --slip -0.1 --format json
+  beltwright pitch stator.toml --suppress 5,7 --svg span.svg
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
-  beltwright audit layouts/hoist-rewind-faulty.toml --intended layouts/hoist-rewind-sound.toml
-  beltwright card layouts/pump-rewind.toml
-  beltwright thrust layouts/pallet-shuttle.toml --slip 0..=1 --steps 10
-  beltwright inductance layouts/pallet-shuttle.toml
-  beltwright rewind layouts/hoist-rewind-sound.toml layouts/hoist-rewind-new.toml --wire-diameter-mm 1.12
-  beltwright draw layouts/pallet-shuttle.toml --sheet slots -o shuttle-slots.pdf
-  beltwright draw layouts/pump-rewind.toml --sheet connections --page a3 -o pump.svg
-  beltwright plan layouts/pump-rewind.toml --out pump-pack
+  beltwright audit as-found.toml --intended design.toml
+  beltwright rewind old.toml new.toml --wire-diameter-mm 1.12
+  beltwright card stator.toml
+  beltwright thrust primary.toml --slip 0..=1 --steps 10
+  beltwright inductance primary.toml
+  beltwright draw stator.toml --sheet connections --page a3 -o connections.pdf
+  beltwright report stator.toml -o stator.html
+  beltwright plan stator.toml --out shop-pack
 
 Caution: windings run at mains voltage. Work on them de-energised, test insulation
 before energising, and follow local electrical codes and qualified practice.";
@@ -114,8 +113,8 @@ struct Common {
 struct PlanArgs {
     #[command(flatten)]
     common: Common,
-    /// Slip of the secondary for the speed figures (0 to 1).
-    #[arg(long)]
+    /// Slip of the secondary for the speed figures (below 0 generating, above 1 plugging).
+    #[arg(long, allow_negative_numbers = true)]
     slip: Option<f64>,
     /// Air-gap power in watts, for thrust (linear) or torque (rotary).
     #[arg(long = "airgap-power-w")]
@@ -258,7 +257,7 @@ struct FieldArgs {
         allow_negative_numbers = true
     )]
     slot_opening: f64,
-    /// Slip of the secondary for its speed (0 to 1).
+    /// Slip of the secondary for its speed (below 0 generating, above 1 plugging).
     #[arg(long, allow_negative_numbers = true)]
     slip: Option<f64>,
     /// Also write the field sheet (SVG) to this file.
@@ -381,13 +380,7 @@ fn main() -> ExitCode {
 fn run(cli: Cli) -> Result<String, Failure> {
     match cli.command {
         Command::Plan(a) => {
-            if let Some(s) = a.slip
-                && !(0.0..=1.0).contains(&s)
-            {
-                return Err(Failure::input(format!(
-                    "--slip {s} is not valid; give a slip from 0 to 1"
-                )));
-            }
+            check_slip(a.slip)?;
             if let Some(p) = a.airgap_power_w
                 && !(p.is_finite() && p >= 0.0)
             {
@@ -462,6 +455,19 @@ fn run(cli: Cli) -> Result<String, Failure> {
         Command::Survey(a) => survey(a),
         Command::Audit(a) => run_audit(a),
         Command::Rewind(a) => run_rewind(a),
+    }
+}
+
+/// A slip from -10 to 10: below 0 the secondary overtakes the field (generating), above 1
+/// it runs against it (plugging).
+fn check_slip(slip: Option<f64>) -> Result<(), Failure> {
+    match slip {
+        Some(s) if !(s.is_finite() && (-10.0..=10.0).contains(&s)) => Err(Failure::input(format!(
+            "--slip {} is not valid; give a slip from -10 to 10 (below 0 generating, above 1 \
+             plugging)",
+            beltwright::numbering::short(s)
+        ))),
+        _ => Ok(()),
     }
 }
 
@@ -612,13 +618,7 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
             a.slot_opening
         )));
     }
-    if let Some(s) = a.slip
-        && !(0.0..=1.0).contains(&s)
-    {
-        return Err(Failure::input(format!(
-            "--slip {s} is not valid; give a slip from 0 to 1"
-        )));
-    }
+    check_slip(a.slip)?;
     if let Some(out) = &a.svg {
         check_output(out, &[&a.common.file], "--svg")?;
     }
@@ -669,10 +669,12 @@ fn pitch(a: PitchArgs) -> Result<String, Failure> {
     if let Some(o) = a
         .suppress
         .iter()
-        .find(|o| !(o.is_finite() && **o > 0.0 && **o <= 10_000.0))
+        .find(|o| !(o.is_finite() && **o > 0.0 && **o <= 10_000.0) || **o == 1.0)
     {
         return Err(Failure::input(format!(
-            "--suppress {o} is not valid; give harmonic orders above 0, e.g. 5,7"
+            "--suppress {} is not valid; give harmonic orders other than 1 (the working wave), \
+             e.g. 5,7",
+            beltwright::numbering::short(*o)
         )));
     }
     if let Some(path) = &a.svg {

@@ -91,6 +91,8 @@ pub struct PitchReport {
     pub recommended: Option<usize>,
     /// One sentence saying why.
     pub reason: String,
+    /// Warnings about the design as given (contract: a `warnings` array).
+    pub warnings: Vec<crate::warnings::DesignWarning>,
 }
 
 /// Compare every feasible span of the winding's core against the goal.
@@ -122,6 +124,7 @@ pub fn compare(w: &Winding, goal: &PitchGoal) -> PitchReport {
         rows,
         recommended,
         reason,
+        warnings: crate::warnings::design_warnings(w),
     }
 }
 

@@ -132,6 +132,10 @@ pub struct PlanReport {
     pub possible_parallel_paths: Vec<usize>,
     /// Speeds, lengths, forces.
     pub figures: Figures,
+    /// True when the layout gave no turns per coil and one turn is assumed.
+    pub turns_assumed: bool,
+    /// Designs a winder should not build (contract: a `warnings` array).
+    pub warnings: Vec<crate::warnings::DesignWarning>,
     /// The safety caution.
     pub caution: &'static str,
 }
@@ -267,6 +271,8 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         empty_slots: w.empty_slots().iter().map(|k| k + 1).collect(),
         possible_parallel_paths: possible_path_counts(w),
         figures: linear::figures(w, op),
+        turns_assumed: w.design.turns_assumed,
+        warnings: crate::warnings::design_warnings(w),
         caution: CAUTION,
     }
 }

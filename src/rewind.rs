@@ -175,6 +175,8 @@ pub struct RewindReport {
     pub conductor: Option<ConductorResult>,
     /// Values assumed because a layout left them out.
     pub assumptions: Vec<String>,
+    /// Warnings about the new design (contract: a `warnings` array).
+    pub warnings: Vec<crate::warnings::DesignWarning>,
     /// The safety caution.
     pub caution: &'static str,
 }
@@ -363,6 +365,7 @@ pub fn rewind(
         peak_flux_density_t,
         conductor,
         assumptions,
+        warnings: crate::warnings::design_warnings(new),
         caution: CAUTION,
     })
 }

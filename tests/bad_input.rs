@@ -185,7 +185,9 @@ fn a_missing_file_is_named() {
 #[test]
 fn bad_flags_exit_two() {
     for args in [
-        vec!["plan", "layouts/pump-rewind.toml", "--slip", "1.5"],
+        // Slips outside 0..1 are generating or plugging (accepted); beyond ±10 is refused.
+        vec!["plan", "layouts/pump-rewind.toml", "--slip", "11"],
+        vec!["plan", "layouts/pump-rewind.toml", "--slip", "-1e300"],
         vec!["plan", "layouts/pump-rewind.toml", "--format", "xml"],
         vec!["factors", "layouts/pump-rewind.toml", "--upto", "0"],
         vec!["frobnicate"],

@@ -117,8 +117,9 @@ fn field_bad_flags_exit_2_naming_the_flag() {
         (vec!["--upto", "0"], "--upto"),
         (vec!["--slot-opening", "1.5"], "--slot-opening"),
         (vec!["--slot-opening", "-0.1"], "--slot-opening"),
-        (vec!["--slip", "2"], "--slip"),
-        (vec!["--slip", "-0.5"], "--slip"),
+        // Slips outside 0..1 are generating or plugging and accepted; beyond ±10 refused.
+        (vec!["--slip", "12"], "--slip"),
+        (vec!["--slip", "-10.5"], "--slip"),
         (vec!["--at-deg", "inf"], "--at-deg"),
         (vec!["--currents", "1@0,1@-120"], "--currents"),
         (vec!["--currents", "1@0,one@-120,1@120"], "--currents"),

@@ -412,7 +412,11 @@ fn balance(w: &Winding) -> Balance {
         .iter()
         .map(|&nu| {
             let h = w.phase_emf(0, nu);
-            if h.norm() < 1e-9 { 0.0 } else { h.arg().to_degrees() }
+            if h.norm() < 1e-9 {
+                0.0
+            } else {
+                h.arg().to_degrees()
+            }
         })
         .collect();
     let phases: Vec<PhaseRow> = (0..m)

@@ -548,6 +548,8 @@ pub struct FieldReport {
     pub linear: Option<LinearField>,
     /// Speeds from the core sizes and supply.
     pub figures: Figures,
+    /// Designs a winder should not build (contract: a `warnings` array).
+    pub warnings: Vec<crate::warnings::DesignWarning>,
     /// The safety caution.
     pub caution: &'static str,
 }
@@ -759,6 +761,18 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         differential_leakage: sigma,
         thd: sigma.sqrt(),
         snapshot: snapshot(&sheet, dir, opts.at_deg),
+        warnings: {
+            let mut v = crate::warnings::design_warnings(w);
+            if let Some(l) = &linear
+                && g.layers == 1
+                && l.pulsating > 1.0
+            {
+                v.push(crate::warnings::DesignWarning::PulsatingExceedsWorking {
+                    ratio: l.pulsating,
+                });
+            }
+            v
+        },
         linear,
         figures,
         caution: CAUTION,

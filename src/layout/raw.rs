@@ -642,6 +642,7 @@ impl RawLayout {
             });
         }
         let w = &self.winding;
+        d.turns_assumed = w.turns_per_coil.is_none() && self.coil.is_empty();
         d.phase_resistance_ohm = c.within(
             "winding",
             "phase_resistance_ohm",

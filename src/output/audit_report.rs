@@ -434,7 +434,7 @@ impl Report for RewindReport {
             ));
             s.push(Section::Table(t));
         }
-        s
+        super::with_warnings(s, &self.warnings)
     }
 
     fn main_table(&self) -> Table {

@@ -30,7 +30,7 @@ impl Report for PitchReport {
             Section::Table(self.main_table()),
         ];
         s.push(Section::Lines(super::reports::wrap(&self.reason, 78)));
-        s
+        super::with_warnings(s, &self.warnings)
     }
 
     fn main_table(&self) -> Table {

@@ -83,7 +83,14 @@ impl Report for FieldReport {
                 let sec = l
                     .secondary_speed_m_s
                     .zip(self.figures.slip)
-                    .map(|(u, s)| format!("; secondary at slip {}: {} m/s", num(s, 4), num(u, 4)))
+                    .map(|(u, s)| {
+                        format!(
+                            "; secondary at slip {}{}: {} m/s",
+                            num(s, 4),
+                            crate::linear::slip_regime(s),
+                            num(u, 4)
+                        )
+                    })
                     .unwrap_or_default();
                 head.push(format!(
                     "field speed v_s = 2 f tau = {} m/s{sec}",
@@ -148,7 +155,7 @@ impl Report for FieldReport {
             t.push(row);
         }
         s.push(Section::Table(t));
-        s
+        super::with_warnings(s, &self.warnings)
     }
 
     fn main_table(&self) -> Table {

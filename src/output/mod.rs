@@ -67,6 +67,24 @@ pub fn render<R: Report>(report: &R, format: Format) -> Result<String, serde_jso
     }
 }
 
+/// The report's sections with its design warnings placed right after the heading, so a
+/// winder reads them first.
+pub fn with_warnings(
+    mut sections: Vec<Section>,
+    warnings: &[crate::warnings::DesignWarning],
+) -> Vec<Section> {
+    if warnings.is_empty() {
+        return sections;
+    }
+    let lines = warnings
+        .iter()
+        .flat_map(|w| reports::wrap(&format!("WARNING: {}", w.message()), 78))
+        .collect();
+    let at = sections.len().min(1);
+    sections.insert(at, Section::Lines(lines));
+    sections
+}
+
 /// A number with at most `digits` decimals, trailing zeros trimmed ("1", "0.933").
 pub fn num(x: f64, digits: usize) -> String {
     let s = format!("{x:.digits$}");

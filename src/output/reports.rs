@@ -60,8 +60,14 @@ impl Report for PlanReport {
                 self.slots_per_pole_phase_fraction
             ),
             format!(
-                "{} turns per coil, {} path(s), {} connection{}",
-                self.turns_per_coil,
+                "{}, {} path(s), {} connection{}",
+                if self.turns_assumed {
+                    "1 turn per coil (assumed: winding.turns_per_coil not given)".to_string()
+                } else if self.turns_per_coil == 1 {
+                    "1 turn per coil".to_string()
+                } else {
+                    format!("{} turns per coil", self.turns_per_coil)
+                },
                 self.parallel_paths,
                 self.connection,
                 self.periodicity
@@ -183,9 +189,10 @@ impl Report for PlanReport {
             opt(f.pole_pitch_m.map(|t| t * 1e3), 2, "mm").map(|v| format!("pole pitch: {v}")),
             opt(f.synchronous_speed_m_s, 3, "m/s").map(|v| format!("synchronous speed: {v}")),
             opt(f.synchronous_speed_rpm, 1, "rpm").map(|v| format!("synchronous speed: {v}")),
-            f.slip
-                .and(f.speed_m_s.or(f.speed_rpm))
-                .map(|_| format!("at slip {}:", num(f.slip.unwrap_or(0.0), 4))),
+            f.slip.and(f.speed_m_s.or(f.speed_rpm)).map(|_| {
+                let s = f.slip.unwrap_or(0.0);
+                format!("at slip {}{}:", num(s, 4), crate::linear::slip_regime(s))
+            }),
             opt(f.speed_m_s, 3, "m/s").map(|v| format!("  secondary speed: {v}")),
             opt(f.speed_rpm, 1, "rpm").map(|v| format!("  rotor speed: {v}")),
             opt(f.thrust_n, 1, "N").map(|v| format!("thrust from air-gap power: {v}")),
@@ -202,7 +209,7 @@ impl Report for PlanReport {
             s.push(Section::Heading("Speeds and sizes".into()));
             s.push(Section::Lines(figs));
         }
-        s
+        super::with_warnings(s, &self.warnings)
     }
 
     fn main_table(&self) -> Table {

@@ -253,13 +253,17 @@ fn linear_refusal(spec: &Spec, y: usize) -> String {
          ({z} slots − {y}), which do not make a balanced {m}-phase winding"
     );
     let q_lo = (n / unit).max(1);
+    // Each suggestion names a span that fits its own pole pitch: the span asked for where
+    // it is within the pole pitch τ = q·m, else full pitch.
     let options: Vec<String> = [q_lo, q_lo + 1]
         .iter()
         .map(|&q| {
             let tau = q * m;
+            let yq = if y <= tau { y } else { tau };
             format!(
-                "q = {q} needs {} slots ({poles}·{m}·{q} + {y}; full pitch is span {tau})",
-                unit * q + y
+                "q = {q} needs {} slots with span {yq} ({poles}·{m}·{q} coil positions + {yq}; \
+                 full pitch is span {tau})",
+                unit * q + yq
             )
         })
         .collect();

@@ -1,0 +1,99 @@
+//! Designs a winder should not build, as typed facts: a span far from the pole pitch, a low
+//! fundamental winding factor, an open primary whose pulsating end component outweighs the
+//! working wave. Analyses return these; presenters put them into words.
+
+use serde::Serialize;
+
+use crate::factors;
+use crate::winding::{Style, Winding};
+
+/// Lowest fundamental winding factor worth winding: 0.7 (common practice, from memory:
+/// below it most of the copper does no useful work).
+pub const KW1_FLOOR: f64 = 0.7;
+
+/// Span over pole pitch outside this band is far from the pole pitch.
+pub const SPAN_BAND: (f64, f64) = (0.5, 1.5);
+
+/// A reason not to build a design.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum DesignWarning {
+    /// Coil span far from the pole pitch.
+    SpanFarFromPolePitch {
+        /// Span in slot pitches.
+        span: usize,
+        /// Pole pitch in slot pitches.
+        pole_pitch: f64,
+        /// Resulting k_w1.
+        winding_factor: f64,
+    },
+    /// Fundamental winding factor below [`KW1_FLOOR`].
+    LowWindingFactor {
+        /// k_w1.
+        winding_factor: f64,
+        /// The floor.
+        floor: f64,
+    },
+    /// An open single-layer primary whose uniform pulsating component exceeds the working
+    /// wave.
+    PulsatingExceedsWorking {
+        /// Pulsating over working amplitude.
+        ratio: f64,
+    },
+}
+
+impl DesignWarning {
+    /// The warning in words.
+    pub fn message(&self) -> String {
+        use crate::output::num;
+        match self {
+            DesignWarning::SpanFarFromPolePitch {
+                span,
+                pole_pitch,
+                winding_factor,
+            } => format!(
+                "span {span} is far from the pole pitch of {} slots (k_w1 = {}): choose a span \
+                 near the pole pitch",
+                num(*pole_pitch, 3),
+                num(*winding_factor, 3)
+            ),
+            DesignWarning::LowWindingFactor {
+                winding_factor,
+                floor,
+            } => format!(
+                "k_w1 = {} is below {}: most of the copper does no useful work",
+                num(*winding_factor, 3),
+                num(*floor, 2)
+            ),
+            DesignWarning::PulsatingExceedsWorking { ratio } => format!(
+                "the open ends' pulsating field is {} times the working wave: use a double \
+                 layer (half-filled end slots) or more poles",
+                num(*ratio, 3)
+            ),
+        }
+    }
+}
+
+/// The warnings that follow from the winding alone (the field analysis adds the pulsating
+/// one).
+pub fn design_warnings(w: &Winding) -> Vec<DesignWarning> {
+    let mut out = Vec::new();
+    let kw = factors::fundamental(w).winding;
+    let tau = w.geometry.pole_pitch_slots;
+    let ratio = w.pitch as f64 / tau;
+    let tooth = w.pitch == 1 && w.style == Style::Lap;
+    if !tooth && !(SPAN_BAND.0..=SPAN_BAND.1).contains(&ratio) {
+        out.push(DesignWarning::SpanFarFromPolePitch {
+            span: w.pitch,
+            pole_pitch: tau,
+            winding_factor: kw,
+        });
+    }
+    if kw < KW1_FLOOR {
+        out.push(DesignWarning::LowWindingFactor {
+            winding_factor: kw,
+            floor: KW1_FLOOR,
+        });
+    }
+    out
+}

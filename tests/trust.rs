@@ -1,0 +1,280 @@
+//! Every figure right and every statement true at the edges: factors the span removes,
+//! skew in the phase EMF, audit figures when a wave vanishes, one angle reference,
+//! warnings, slips outside 0..1, small truths.
+
+mod common;
+use common::{json, run};
+
+use beltwright::output::{Format, render};
+use beltwright::winding::{self, Winding};
+use beltwright::{audit, factors, layout, plan};
+use proptest::prelude::*;
+
+fn wind(src: &str) -> Winding {
+    let spec = layout::parse(src, "t.toml").unwrap_or_else(|e| panic!("{e}"));
+    winding::build_lenient(&spec).unwrap_or_else(|e| panic!("{e}"))
+}
+
+fn tmp(text: &str) -> tempfile::NamedTempFile {
+    let f = tempfile::Builder::new()
+        .suffix(".toml")
+        .tempfile()
+        .expect("temp");
+    std::fs::write(f.path(), text).expect("write");
+    f
+}
+
+const CORE_36_4: &str =
+    "[machine]\ntopology = \"rotary\"\nslots = 36\npoles = 4\n[winding]\nlayers = 2\n";
+
+// Span 6 of a pole pitch of 9: k_p(3) = sin(3·(6/9)·90°) = sin 180° = 0 (Say 1983, §4.4),
+// while k_d(3) = sin(3·3·10°)/(3·sin(3·10°)) = 1/1.5 = 0.6667. The row stays, with 0.
+#[test]
+fn factors_keep_the_orders_the_span_removes() {
+    let v = json(&[
+        "factors",
+        tmp(&format!("{CORE_36_4}pitch = 6\n"))
+            .path()
+            .to_str()
+            .expect("utf-8"),
+        "--format",
+        "json",
+        "--upto",
+        "9",
+    ]);
+    let rows = v["rows"].as_array().expect("rows");
+    let third = rows
+        .iter()
+        .find(|r| r["order"] == 3.0)
+        .expect("order 3 listed");
+    assert_eq!(third["pitch"].as_f64(), Some(0.0));
+    assert_eq!(third["winding"].as_f64(), Some(0.0));
+    assert!((third["distribution"].as_f64().expect("k_d") - 2.0 / 3.0).abs() < 1e-9);
+}
+
+// Skew of one slot pitch, σ = 20° electrical: k_s = sin 10°/(10° in rad) = 0.99493
+// (Pyrhönen et al. 2014, eq. 2.34). The phase EMF, labelled N_ph·k_w1, includes it.
+#[test]
+fn phase_emf_includes_skew() {
+    let w = wind(&format!(
+        "{CORE_36_4}pitch = 7\nturns_per_coil = 10\nskew = 1.0\n"
+    ));
+    let p = plan::plan(&w, Default::default());
+    let ks = (10f64.to_radians()).sin() / 10f64.to_radians();
+    assert!((p.fundamental.skew - ks).abs() < 1e-12);
+    let n_ph = w.series_turns(0);
+    for e in &p.phases_emf {
+        assert!(
+            (e.magnitude - n_ph * p.winding_factor).abs() < 1e-9 * n_ph,
+            "{e:?}"
+        );
+    }
+}
+
+fn record(coils: &[(&str, usize, usize)]) -> String {
+    let mut s = String::from(
+        "[machine]\ntopology = \"rotary\"\nslots = 12\npoles = 2\n[winding]\nlayers = 1\n",
+    );
+    for (p, g, b) in coils {
+        s += &format!("[[coil]]\nphase = \"{p}\"\ngo = {g}\nback = {b}\n");
+    }
+    s
+}
+
+// 12 slots, 2 poles, single layer q = 2, slot angle 30°: belts U+ 1-2, W- 3-4, V+ 5-6,
+// U- 7-8, W+ 9-10, V- 11-12, so U 1-7, 2-8; V 5-11, 6-12; W 9-3, 10-4 (a balanced record,
+// built by hand from the 60° belts).
+const SOUND: [(&str, usize, usize); 6] = [
+    ("U", 1, 7),
+    ("U", 2, 8),
+    ("W", 9, 3),
+    ("W", 10, 4),
+    ("V", 5, 11),
+    ("V", 6, 12),
+];
+
+// A pure negative-sequence set has no zero sequence, and the backward wave is the larger:
+// the figures are per cent of it, never 10^17 per cent (Fortescue 1918).
+#[test]
+fn a_reversed_sequence_reads_as_a_backward_field() {
+    let swapped: Vec<(&str, usize, usize)> = SOUND
+        .iter()
+        .map(|&(p, g, b)| {
+            (
+                if p == "V" {
+                    "W"
+                } else if p == "W" {
+                    "V"
+                } else {
+                    p
+                },
+                g,
+                b,
+            )
+        })
+        .collect();
+    assert!(audit::audit(&wind(&record(&SOUND)), None).sound);
+    let w = wind(&record(&swapped));
+    let r = audit::audit(&w, None);
+    assert_eq!(r.sequence, audit::Sequence::Negative);
+    assert!((r.backward_percent - 100.0).abs() < 1e-9);
+    assert!(
+        r.zero_sequence_percent < 1e-9,
+        "{}",
+        r.zero_sequence_percent
+    );
+    let text = render(&r, Format::Text).expect("text");
+    assert!(text.contains("runs backwards"), "{text}");
+    assert!(!text.contains("e+") && text.lines().all(|l| !l.contains("0000000%")));
+}
+
+// A double-layer record whose coils were all written with go at the left side: the groups
+// under alternate poles (180° apart) are then not reversed, and each phase's EMF sums to
+// zero (the coils of the U+ and U- belts cancel pairwise).
+#[test]
+fn no_fundamental_emf_is_a_finding() {
+    let mut w = wind(
+        "[machine]\ntopology = \"rotary\"\nslots = 24\npoles = 4\n[winding]\nlayers = 2\npitch = 6\n",
+    );
+    let spans: Vec<i64> = w.coils.iter().map(|c| w.span(c)).collect();
+    for (c, s) in w.coils.iter_mut().zip(spans) {
+        if s < 0 {
+            std::mem::swap(&mut c.go, &mut c.back);
+            std::mem::swap(&mut c.go_layer, &mut c.back_layer);
+        }
+    }
+    w.from_coil_list = true;
+    let r = audit::audit(&w, None);
+    assert!(r.no_fundamental, "{:?}", r.phases);
+    assert!(!r.sound);
+    assert!(
+        r.findings
+            .iter()
+            .any(|f| f.kind == audit::FindingKind::NoFundamental)
+    );
+    assert!(r.phases.iter().all(|p| p.angle_deg == 0.0));
+    let text = render(&r, Format::Text).expect("text");
+    assert!(text.contains("no fundamental EMF"), "{text}");
+}
+
+// One angle reference: phase U at 0° in plan and audit alike.
+#[test]
+fn plan_and_audit_share_the_angle_reference() {
+    for (z, p2) in [(48usize, 4usize), (36, 4), (27, 6)] {
+        let src = format!(
+            "[machine]\ntopology = \"rotary\"\nslots = {z}\npoles = {p2}\n[winding]\nlayers = 2\n"
+        );
+        let w = wind(&src);
+        let p = plan::plan(&w, Default::default());
+        let a = audit::audit(&w, None);
+        for (x, y) in p.phases_emf.iter().zip(&a.phases) {
+            assert!(
+                (x.angle_deg - y.angle_deg).abs() < 1e-6,
+                "{z}/{p2}: {x:?} {y:?}"
+            );
+        }
+        assert_eq!(a.phases[0].angle_deg, 0.0);
+    }
+}
+
+// Span 17 on a pole pitch of 9: k_w1 = 0.167 (k_p = sin(17/9·90°) = 0.1736). Flagged in the
+// JSON of plan, pitch, field and rewind.
+#[test]
+fn designs_not_to_build_carry_warnings() {
+    let f = tmp(&format!(
+        "{CORE_36_4}pitch = 17\nturns_per_coil = 10\n[supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n"
+    ));
+    let path = f.path().to_str().expect("utf-8");
+    for cmd in ["plan", "pitch", "field"] {
+        let v = json(&[cmd, path, "--format", "json"]);
+        let kinds: Vec<&str> = v["warnings"]
+            .as_array()
+            .expect("warnings")
+            .iter()
+            .filter_map(|w| w["kind"].as_str())
+            .collect();
+        assert!(
+            kinds.contains(&"span_far_from_pole_pitch"),
+            "{cmd}: {kinds:?}"
+        );
+        assert!(kinds.contains(&"low_winding_factor"), "{cmd}");
+    }
+    let v = json(&[
+        "rewind",
+        "layouts/hoist-rewind-sound.toml",
+        path,
+        "--format",
+        "json",
+    ]);
+    assert!(!v["warnings"].as_array().expect("warnings").is_empty());
+    // A sound design has none.
+    let v = json(&["plan", "layouts/pump-rewind.toml", "--format", "json"]);
+    assert_eq!(v["warnings"].as_array().map(Vec::len), Some(0));
+}
+
+// A suggestion's span fits its own pole pitch: q = 1 on 4 poles means τ = 3, so span 3.
+#[test]
+fn slot_suggestions_fit_the_span_they_name() {
+    let f = tmp(
+        "[machine]\ntopology = \"linear\"\nslots = 22\npoles = 4\n[winding]\nlayers = 2\npitch = 5\n",
+    );
+    let out = run(&["plan", f.path().to_str().expect("utf-8")]);
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("q = 1 needs 15 slots with span 3"), "{err}");
+}
+
+#[test]
+fn small_truths() {
+    let out = run(&["pitch", "layouts/pump-rewind.toml", "--suppress", "1,5"]);
+    assert_eq!(out.status.code(), Some(2));
+    let f = tmp(CORE_36_4);
+    let out = run(&["plan", f.path().to_str().expect("utf-8")]);
+    assert!(String::from_utf8_lossy(&out.stdout).contains("1 turn per coil (assumed"));
+    let out = run(&["plan", "layouts/pallet-shuttle.toml", "--slip", "-0.1"]);
+    assert!(out.status.success());
+    assert!(String::from_utf8_lossy(&out.stdout).contains("(generating)"));
+    let out = run(&["field", "layouts/pallet-shuttle.toml", "--slip", "1.2"]);
+    assert!(String::from_utf8_lossy(&out.stdout).contains("plugging"));
+}
+
+fn all_finite(v: &serde_json::Value) -> bool {
+    match v {
+        serde_json::Value::Number(n) => n.as_f64().is_some_and(f64::is_finite),
+        serde_json::Value::Array(a) => a.iter().all(all_finite),
+        serde_json::Value::Object(o) => o.values().all(all_finite),
+        _ => true,
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(48))]
+    // Every number in every report of a planned or recorded winding is finite.
+    #[test]
+    fn every_output_number_is_finite(
+        z in 6usize..60, p2 in 1usize..12, layers in 1usize..=2, linear in any::<bool>(),
+        reverse in 0usize..8,
+    ) {
+        let topo = if linear { "linear" } else { "rotary" };
+        let p2 = if linear { p2 } else { 2 * p2.div_ceil(2) };
+        let src = format!("[machine]\ntopology = \"{topo}\"\nslots = {z}\npoles = {p2}\n[winding]\nlayers = {layers}\nturns_per_coil = 5\n[core]\nslot_pitch_mm = 10.0\nstack_mm = 50.0\nairgap_mm = 1.0\n[supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n[wire]\ndiameter_mm = 0.5\n[secondary]\nthickness_mm = 3.0\n");
+        let Ok(spec) = layout::parse(&src, "p.toml") else { return Ok(()); };
+        let Ok(mut w) = winding::build(&spec) else { return Ok(()); };
+        // A faulty record too: one coil reversed.
+        if let Some(c) = w.coils.get_mut(reverse) { std::mem::swap(&mut c.go, &mut c.back); }
+        let check = |v: serde_json::Value| all_finite(&v);
+        let j = |s: String| serde_json::from_str::<serde_json::Value>(&s).expect("json");
+        prop_assert!(check(j(render(&audit::audit(&w, None), Format::Json).expect("json"))));
+        prop_assert!(check(j(render(&plan::plan(&w, Default::default()), Format::Json).expect("json"))));
+        prop_assert!(check(j(render(&factors::factor_table(&w, 13.0), Format::Json).expect("json"))));
+        prop_assert!(check(j(render(&beltwright::card::card(&w), Format::Json).expect("json"))));
+        if let Ok(i) = beltwright::inductance::inductance(&w, false) {
+            prop_assert!(check(j(render(&i, Format::Json).expect("json"))));
+        }
+        let q = beltwright::thrust::ThrustQuery { current_a: None, slip_from: -0.5, slip_to: 1.5, steps: 8, end_effect: true };
+        if let Ok(t) = beltwright::thrust::thrust(&w, &q) {
+            prop_assert!(check(j(render(&t, Format::Json).expect("json"))));
+        }
+
+    }
+}
