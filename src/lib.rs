@@ -20,6 +20,7 @@ pub mod output;
 pub mod pitch;
 pub mod plan;
 pub mod rewind;
+pub mod safety;
 pub mod sanitize;
 pub mod survey;
 pub mod thrust;

@@ -14,12 +14,13 @@ use cli::{EXIT_FAILURE, Failure};
 use indicatif::ProgressBar;
 
 use beltwright::audit;
+use beltwright::draw::span_chart::pitch_chart;
 use beltwright::draw::{self, FileKind, Orientation, Page, PaperSize, Sheet};
 use beltwright::factors;
 use beltwright::field::{self, FieldOptions, Sequence};
 use beltwright::layout;
 use beltwright::linear::Operating;
-use beltwright::output::{Format, Report, pitch_chart, render};
+use beltwright::output::{Format, Report, render};
 use beltwright::pitch::{self, PitchGoal};
 use beltwright::plan;
 use beltwright::rewind::{self, OldConductor};
@@ -89,6 +90,15 @@ enum Command {
     /// balanced voltages, and its other layouts ranked by it.
     #[command(after_help = EXAMPLES)]
     Inductance(InductanceArgs),
+    /// Print shell completions for bash, zsh, fish, elvish or PowerShell.
+    Completions {
+        /// The shell.
+        #[arg(value_enum)]
+        shell: clap_complete::Shell,
+    },
+    /// Print the manual page (roff), made from the same definitions as --help.
+    #[command(hide = true)]
+    Man,
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EXAMPLES)]
     Rewind(RewindArgs),
@@ -150,11 +160,14 @@ struct DrawArgs {
 struct ReportArgs {
     /// Layout file (TOML).
     file: PathBuf,
-    /// Write every sheet (slots, connections, star, field) to this file: .pdf gives one
-    /// document; .svg or .png give NAME.svg, NAME-2.svg, ... Without it, the plan, factors
-    /// and field reports are printed one after the other as text.
+    /// Write the whole design to this file: .html gives one self-contained page with every
+    /// table and sheet; .pdf every sheet in one document; .svg or .png give NAME.svg,
+    /// NAME-2.svg, ... Without it, the plan, factors and field reports are printed as text.
     #[arg(short = 'o', long = "output")]
     output: Option<PathBuf>,
+    /// For a coil list: the intended design to audit it against (HTML report).
+    #[arg(long)]
+    intended: Option<PathBuf>,
     /// Paper size.
     #[arg(long, value_enum, default_value_t = PaperSize::A4)]
     page: PaperSize,
@@ -418,6 +431,21 @@ fn run(cli: Cli) -> Result<String, Failure> {
                 }
                 return Ok(text);
             };
+            if out
+                .extension()
+                .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
+            {
+                let (spec, name, source) = read_spec_source(&a.file)?;
+                let w = winding::build_lenient(&spec)
+                    .map_err(|e| plan_failure(&name, &source, &spec, &e))?;
+                let intended = match &a.intended {
+                    Some(p) => Some(load(p)?),
+                    None => None,
+                };
+                let html = beltwright::output::html::document(&w, intended.as_ref());
+                write_atomic(out, &a.file, html.as_bytes(), "-o")?;
+                return Ok(wrote(std::slice::from_ref(out)));
+            }
             let kind = sheet_kind(out, a.dpi)?;
             let w = load(&a.file)?;
             let page = page_of(a.page, a.portrait);
@@ -442,6 +470,20 @@ fn run(cli: Cli) -> Result<String, Failure> {
         Command::Card(a) => {
             let w = load(&a.file)?;
             present(&beltwright::card::card(&w), a.format)
+        }
+        Command::Completions { shell } => {
+            let mut cmd = <Cli as clap::CommandFactory>::command();
+            let mut buf = Vec::new();
+            clap_complete::generate(shell, &mut cmd, "beltwright", &mut buf);
+            String::from_utf8(buf).map_err(|e| Failure::output(e.to_string()))
+        }
+        Command::Man => {
+            let cmd = <Cli as clap::CommandFactory>::command();
+            let mut buf = Vec::new();
+            clap_mangen::Man::new(cmd)
+                .render(&mut buf)
+                .map_err(|e| Failure::output(e.to_string()))?;
+            String::from_utf8(buf).map_err(|e| Failure::output(e.to_string()))
         }
         Command::Thrust(a) => run_thrust(a),
         Command::Inductance(a) => {
@@ -652,7 +694,7 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
         write_atomic(
             out,
             &a.common.file,
-            field::svg::field_sheet(&report, &snaps).as_bytes(),
+            draw::field_chart::field_sheet(&report, &snaps).as_bytes(),
             "--svg",
         )?;
     }
@@ -741,7 +783,8 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
         },
     };
     let n = survey::combinations(&query).len() as u64;
-    let bar = if std::io::stderr().is_terminal() && n > 2_000 {
+    // On a terminal any survey that may take a second shows its progress.
+    let bar = if std::io::stderr().is_terminal() && n > 200 {
         ProgressBar::new(n)
     } else {
         ProgressBar::hidden()
@@ -840,7 +883,7 @@ fn write_sheet(
 fn sheet_kind(output: &Path, dpi: f64) -> Result<FileKind, Failure> {
     let kind = FileKind::of_path(output).ok_or_else(|| {
         Failure::input(format!(
-            "-o {}: give a file name ending in .svg, .pdf or .png",
+            "-o {}: give a file name ending in .svg, .pdf or .png (report also takes .html)",
             output.display()
         ))
     })?;

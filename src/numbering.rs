@@ -25,6 +25,18 @@ pub fn ranges(ns: &[usize]) -> String {
     parts.join(", ")
 }
 
+/// A number with at most `digits` decimals, trailing zeros trimmed ("1", "0.933"): how
+/// every report and message writes a figure.
+pub fn num(x: f64, digits: usize) -> String {
+    let s = format!("{x:.digits$}");
+    let s = if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    };
+    if s == "-0" { "0".into() } else { s }
+}
+
 /// A number as a message shows it: plain when it is of ordinary size, in short scientific
 /// form (`1.8e308`, `5e-324`) when it would need many digits, so no message prints a
 /// 309-digit number.

@@ -11,7 +11,7 @@ use serde::Serialize;
 
 use crate::factors::factors_at;
 use crate::leakage;
-use crate::output::num;
+use crate::numbering::num;
 use crate::winding::{Topology, Winding, with_span};
 
 /// What the designer wants from the span.

@@ -8,10 +8,7 @@ use crate::winding::{
     Connection, Style, Topology, Winding, coil_groups, possible_path_counts, rotary_periodicity,
 };
 
-/// Caution printed on every report and sheet.
-pub const CAUTION: &str = "CAUTION: windings run at mains voltage. Work on them only \
-de-energised and isolated; test insulation before energising; follow local electrical codes \
-and have the work done or checked by qualified persons. beltwright plans, it does not certify.";
+pub use crate::safety::CAUTION;
 
 /// One coil as the shop sees it (slots from 1).
 #[derive(Debug, Clone, PartialEq, Serialize)]

@@ -18,7 +18,7 @@ use thiserror::Error;
 
 use crate::card::wire::{self as wires, StandardWire};
 use crate::factors;
-use crate::plan::CAUTION;
+use crate::safety::CAUTION;
 use crate::winding::{Connection, Winding};
 
 /// The old conductor as the rewinder measured it.

@@ -494,11 +494,11 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
             let mut a = md.assumptions;
             a.push(format!(
                 "magnetic gap {} mm",
-                crate::output::num(md.g * 1e3, 3)
+                crate::numbering::num(md.g * 1e3, 3)
             ));
             a
         },
-        caution: crate::plan::CAUTION,
+        caution: crate::safety::CAUTION,
     })
 }
 

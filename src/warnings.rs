@@ -45,7 +45,7 @@ pub enum DesignWarning {
 impl DesignWarning {
     /// The warning in words.
     pub fn message(&self) -> String {
-        use crate::output::num;
+        use crate::numbering::num;
         match self {
             DesignWarning::SpanFarFromPolePitch {
                 span,

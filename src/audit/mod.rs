@@ -15,7 +15,7 @@ use num_complex::Complex64;
 use serde::Serialize;
 use std::f64::consts::PI;
 
-use crate::plan::CAUTION;
+use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding, coil_groups};
 
 pub use compare::{Comparison, SlotDifference, compare};
@@ -597,9 +597,9 @@ fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                              current around the parallel loop; check the coils of this path",
                             p + 1,
                             row.turns,
-                            crate::output::num(row.magnitude, 3),
-                            crate::output::num(row.angle_deg, 1),
-                            crate::output::num(row.circulating_percent, 2)
+                            crate::numbering::num(row.magnitude, 3),
+                            crate::numbering::num(row.angle_deg, 1),
+                            crate::numbering::num(row.circulating_percent, 2)
                         ),
                     });
                 }
@@ -672,8 +672,8 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
                  {}%) and no change of up to two edits (reversing a coil, a group or a phase, \
                  moving a coil to another phase, swapping two leads) balances them{}; compare \
                  the record with the design slot by slot",
-                crate::output::num(pct(bal.backward, bal.forward.max(bal.backward)), 2),
-                crate::output::num(bal.spread, 2),
+                crate::numbering::num(pct(bal.backward, bal.forward.max(bal.backward)), 2),
+                crate::numbering::num(bal.spread, 2),
                 if found.truncated {
                     " (the search of pairs of edits was cut short on this record)"
                 } else {
@@ -703,14 +703,16 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             message: format!(
                 "measured line-to-line resistances {} ohm at {} C deviate up to {}% from \
                  their mean (tolerance {}%){}; {}",
-                r.measured_ohm.map(|x| crate::output::num(x, 4)).join(", "),
-                crate::output::num(r.temperature_c, 1),
-                crate::output::num(r.deviation_percent, 2),
-                crate::output::num(r.tolerance_percent, 1),
+                r.measured_ohm
+                    .map(|x| crate::numbering::num(x, 4))
+                    .join(", "),
+                crate::numbering::num(r.temperature_c, 1),
+                crate::numbering::num(r.deviation_percent, 2),
+                crate::numbering::num(r.tolerance_percent, 1),
                 r.ratio_to_expected
                     .map(|q| format!(
                         ", their mean is {}% of the card's",
-                        crate::output::num(q * 100.0, 1)
+                        crate::numbering::num(q * 100.0, 1)
                     ))
                     .unwrap_or_default(),
                 r.suggestion.message()

@@ -66,7 +66,7 @@ impl Suggestion {
                 "all phases read {} against the card, as a wire of {} mm would: check the \
                  wire size on the spool",
                 pct(*ratio),
-                crate::output::num(*diameter_mm, 3)
+                crate::numbering::num(*diameter_mm, 3)
             ),
             Suggestion::StrandMissing { ratio, strands } => format!(
                 "all phases read {}, as {} strands in hand instead of {strands} would: check \

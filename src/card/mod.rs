@@ -18,7 +18,7 @@ pub mod wire;
 use serde::Serialize;
 
 use crate::design::Measured;
-use crate::plan::CAUTION;
+use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding, coil_groups};
 use leads::{LeadScheme, SectionResistance};
 use wire::{Wire, metal};
@@ -294,8 +294,8 @@ pub fn card(w: &Winding) -> DataCard {
         Some(_) => "as given (core.mean_turn_mm)".to_string(),
         None => format!(
             "2 x stack + 2 x {} x span width + {} mm",
-            crate::output::num(rule.end_factor, 3),
-            crate::output::num(rule.end_allowance_m * 1e3, 1)
+            crate::numbering::num(rule.end_factor, 3),
+            crate::numbering::num(rule.end_allowance_m * 1e3, 1)
         ),
     };
 

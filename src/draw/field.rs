@@ -28,7 +28,7 @@ pub fn draw(w: &Winding, page: &Page) -> String {
             for c in &mut rep.currents {
                 c.phase = clean(&c.phase);
             }
-            let sheet = field::svg::field_sheet(&rep, &snaps);
+            let sheet = super::field_chart::field_sheet(&rep, &snaps);
             Group::new()
                 .set("class", "field-plot")
                 .add(Blob::new(nest(&sheet, a.x, a.y, a.w, a.h)))

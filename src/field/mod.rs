@@ -17,8 +17,6 @@
 //! gap are in slot pitches, slot `k` (0-based) centred at `k + 0.5`, so the core spans
 //! `[0, Z]`.
 
-pub mod svg;
-
 #[cfg(test)]
 mod tests;
 
@@ -29,7 +27,8 @@ use thiserror::Error;
 
 use crate::factors;
 use crate::linear::{self, Figures, Operating};
-use crate::plan::{CAUTION, PhasorRow};
+use crate::plan::PhasorRow;
+use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding};
 
 /// Relative amplitude below which a wave is taken as absent.

@@ -509,7 +509,7 @@ fn sheet_draws_with_patterns_and_caution() {
     let mut o = FieldOptions::balanced(&w);
     o.slip = Some(0.1);
     let r = field(&w, &o).unwrap();
-    let s = svg::field_sheet(&r, &snapshots(&w, &o, 6).unwrap());
+    let s = crate::draw::field_chart::field_sheet(&r, &snapshots(&w, &o, 6).unwrap());
     assert!(s.starts_with("<svg"));
     assert!(s.contains("fwd-hatch") && s.contains("bwd-hatch"));
     assert!(s.contains("CAUTION"));

@@ -6,8 +6,8 @@ mod card_report;
 mod choose_report;
 mod csv;
 mod field_report;
+pub mod html;
 mod json;
-mod pitch_svg;
 pub(crate) mod reports;
 mod table;
 mod text;
@@ -16,7 +16,6 @@ mod thrust_report;
 pub use card_report::configuration_name;
 pub use csv::Csv;
 pub use json::Json;
-pub use pitch_svg::pitch_chart;
 pub use table::{Align, Table};
 pub use text::Text;
 
@@ -85,13 +84,5 @@ pub fn with_warnings(
     sections
 }
 
-/// A number with at most `digits` decimals, trailing zeros trimmed ("1", "0.933").
-pub fn num(x: f64, digits: usize) -> String {
-    let s = format!("{x:.digits$}");
-    let s = if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
-    };
-    if s == "-0" { "0".into() } else { s }
-}
+pub use crate::numbering::num;
+pub use reports::wrap;

@@ -137,7 +137,7 @@ fn rotary_double(spec: &Spec) -> Result<Winding, PlanError> {
         return Err(PlanError::Infeasible(format!(
             "span {y} spans a whole number of pole pairs, so its coils link no working flux; \
              choose a span near the pole pitch of {} slots",
-            crate::output::num(geom.pole_pitch_slots, 3)
+            crate::numbering::num(geom.pole_pitch_slots, 3)
         )));
     }
     let coils = double_layer_coils(&geom, z, y, spec.turns_per_coil);

@@ -15,7 +15,7 @@ use svg::node::element::{
     Definitions, Group, Line, Marker, Path, Pattern, Polyline, Rectangle, Text,
 };
 
-use super::{Direction, FieldReport, Snapshot};
+use crate::field::{Direction, FieldReport, Snapshot};
 use crate::output::num;
 use crate::winding::Topology;
 

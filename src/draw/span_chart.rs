@@ -7,7 +7,7 @@
 use svg::Document;
 use svg::node::element::{Circle, Line, Polyline, Rectangle, Text as SvgText};
 
-use super::num;
+use crate::output::num;
 use crate::pitch::PitchReport;
 use crate::plan::CAUTION;
 
@@ -177,7 +177,7 @@ pub fn pitch_chart(r: &PitchReport) -> String {
             .add(marker(i, left + pw + 36.0, ly, ink))
             .add(text(left + pw + 62.0, ly + 4.0, 12.0, name));
     }
-    for (i, line) in super::reports::wrap(CAUTION, 120).iter().enumerate() {
+    for (i, line) in crate::output::wrap(CAUTION, 120).iter().enumerate() {
         doc = doc.add(text(left, h - 40.0 + 14.0 * i as f64, 10.0, line));
     }
     doc.to_string()

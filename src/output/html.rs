@@ -1,0 +1,295 @@
+//! The whole design as one self-contained HTML file: inline CSS and SVG, no script, nothing
+//! fetched. Every table is a real table with headers, every sheet a figure with a caption,
+//! all user text escaped; a print stylesheet puts one sheet on a page and never splits a
+//! table row. The reports' own sections are rendered, so the page says what the text does.
+
+use std::fmt::Write;
+
+use super::{Report, Section};
+use crate::draw::{self, Page, Sheet};
+use crate::plan::CAUTION;
+use crate::winding::Winding;
+use crate::{audit, card, factors, field, pitch, plan, thrust};
+
+/// `s` with `&`, `<`, `>`, `"` and `'` escaped, after [`crate::sanitize::clean`].
+pub fn escape(s: &str) -> String {
+    let s = crate::sanitize::clean(s);
+    let mut out = String::with_capacity(s.len());
+    for c in s.chars() {
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&#39;"),
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+const STYLE: &str = r#"
+:root { color-scheme: light; }
+body { font-family: "DejaVu Sans", Verdana, sans-serif; color: #111; background: #fff;
+  max-width: 72rem; margin: 1.5rem auto; padding: 0 1rem; line-height: 1.45; }
+h1 { font-size: 1.6rem; margin-bottom: 0.3rem; }
+h2 { font-size: 1.3rem; border-bottom: 2px solid #111; margin-top: 2.2rem; }
+h3 { font-size: 1.05rem; margin-top: 1.4rem; }
+p.line { margin: 0.15rem 0; }
+.caution { border: 3px solid #111; padding: 0.6rem 0.9rem; font-weight: bold;
+  background: #fff8d6; margin: 1rem 0; }
+.warning { border-left: 6px solid #8a1c00; padding-left: 0.6rem; color: #5a1200; }
+table { border-collapse: collapse; margin: 0.5rem 0 1rem; font-size: 0.9rem; }
+th, td { border: 1px solid #777; padding: 0.15rem 0.45rem; text-align: right; }
+th { background: #e8e8e8; }
+td.text, th.text { text-align: left; }
+figure { margin: 1.2rem 0; }
+figure svg { width: 100%; height: auto; border: 1px solid #999; }
+figcaption { font-size: 0.95rem; margin-top: 0.3rem; }
+nav ul { columns: 2; }
+a { color: #0b3d91; }
+@page { margin: 10mm; }
+@media print {
+  body { max-width: none; margin: 0; }
+  nav { display: none; }
+  figure.sheet { break-before: page; break-inside: avoid; }
+  figure.sheet svg { border: none; max-height: 180mm; }
+  tr, .caution { break-inside: avoid; }
+  thead { display: table-header-group; }
+  h2, h3 { break-after: avoid; }
+  .caution { background: #fff; }
+}
+"#;
+
+fn id_of(title: &str) -> String {
+    title
+        .chars()
+        .map(|c| {
+            if c.is_ascii_alphanumeric() {
+                c.to_ascii_lowercase()
+            } else {
+                '-'
+            }
+        })
+        .collect()
+}
+
+/// A report's sections as HTML: headings (h3), lines (paragraphs; warnings marked) and
+/// tables with a header row.
+fn sections(out: &mut String, secs: &[Section]) {
+    for s in secs {
+        match s {
+            Section::Heading(h) => {
+                let _ = writeln!(out, "<h3>{}</h3>", escape(h));
+            }
+            Section::Lines(lines) => {
+                // The caution stands at the top and foot of the page already.
+                let mut in_caution = false;
+                for l in lines {
+                    if l.starts_with("CAUTION:") {
+                        in_caution = true;
+                    }
+                    if in_caution {
+                        in_caution = !l.contains("certify");
+                        continue;
+                    }
+                    let class = if l.starts_with("WARNING") || l.starts_with("CAUTION") {
+                        "line warning"
+                    } else {
+                        "line"
+                    };
+                    let _ = writeln!(out, "<p class=\"{class}\">{}</p>", escape(l));
+                }
+            }
+            Section::Table(t) => {
+                out.push_str("<table>\n<thead><tr>");
+                for (j, h) in t.headers.iter().enumerate() {
+                    let class = align_class(t, j);
+                    let _ = write!(out, "<th scope=\"col\"{class}>{}</th>", escape(h));
+                }
+                out.push_str("</tr></thead>\n<tbody>\n");
+                for row in &t.rows {
+                    out.push_str("<tr>");
+                    for (j, c) in row.iter().enumerate() {
+                        let _ = write!(out, "<td{}>{}</td>", align_class(t, j), escape(c));
+                    }
+                    out.push_str("</tr>\n");
+                }
+                out.push_str("</tbody>\n</table>\n");
+            }
+        }
+    }
+}
+
+fn align_class(t: &super::Table, j: usize) -> &'static str {
+    match t.align.get(j) {
+        Some(super::Align::Right) => "",
+        _ => " class=\"text\"",
+    }
+}
+
+/// One report as a titled section of the page.
+fn part<R: Report>(out: &mut String, toc: &mut Vec<(String, String)>, title: &str, r: &R) {
+    let id = id_of(title);
+    toc.push((id.clone(), title.to_string()));
+    let _ = writeln!(out, "<section id=\"{id}\">\n<h2>{}</h2>", escape(title));
+    sections(out, &r.sections());
+    out.push_str("</section>\n");
+}
+
+/// An SVG sheet made fit to sit in a page: its XML prolog dropped, its ids prefixed so two
+/// sheets' patterns never clash, its size left to the stylesheet, labelled for readers.
+fn inline_svg(svg: &str, prefix: &str, label: &str) -> String {
+    let body = svg.trim_start_matches(|c| c != '<');
+    let body = match body.strip_prefix("<?xml") {
+        Some(rest) => rest.split_once("?>").map_or(rest, |(_, r)| r),
+        None => body,
+    };
+    let body = body
+        .replace("id=\"", &format!("id=\"{prefix}-"))
+        .replace("url(#", &format!("url(#{prefix}-"))
+        .replace("href=\"#", &format!("href=\"#{prefix}-"));
+    body.replacen(
+        "<svg ",
+        &format!("<svg role=\"img\" aria-label=\"{}\" ", escape(label)),
+        1,
+    )
+}
+
+/// What each sheet shows, for its caption.
+fn caption(sheet: Sheet) -> &'static str {
+    match sheet {
+        Sheet::Slots => {
+            "Slot layout: the core unrolled flat, every coil side with its phase letter and \
+             current direction, spans, groups and phase belts."
+        }
+        Sheet::Connections => {
+            "Connection diagram: coil groups in connection order with jumpers and leads, the \
+             terminal board and the winding schedule."
+        }
+        Sheet::Star => "Star of slots: slot EMF phasors, the phase sectors and phase EMFs.",
+        Sheet::Field => {
+            "Travelling field: the MMF along the gap and its spectrum split into forward and \
+             backward waves."
+        }
+        Sheet::Card => "Data card: wire, copper, resistances, leads and acceptance figures.",
+        Sheet::Thrust => {
+            "Performance: thrust, normal force and phase current against speed, with and \
+             without the end effect."
+        }
+    }
+}
+
+/// The HTML report of a winding (and, for a coil list, its audit against `intended`).
+pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
+    let title = w.title.clone().unwrap_or_else(|| {
+        format!(
+            "{} core, {} slots, {} poles",
+            w.geometry.topology, w.geometry.slots, w.geometry.poles
+        )
+    });
+    let mut body = String::new();
+    let mut toc: Vec<(String, String)> = Vec::new();
+    let p = plan::plan(w, Default::default());
+    part(&mut body, &mut toc, "Plan", &p);
+    if w.from_coil_list {
+        part(
+            &mut body,
+            &mut toc,
+            "Audit of the coil list",
+            &audit::audit(w, intended),
+        );
+    }
+    part(&mut body, &mut toc, "Data card", &card::card(w));
+    let q = thrust::ThrustQuery {
+        current_a: None,
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 20,
+        end_effect: true,
+    };
+    if let Ok(t) = thrust::thrust(w, &q) {
+        part(&mut body, &mut toc, "Performance of the flat primary", &t);
+    }
+    part(
+        &mut body,
+        &mut toc,
+        "Winding factors",
+        &factors::factor_table(w, 25.0),
+    );
+    if let Ok(f) = field::field(w, &field::FieldOptions::balanced(w)) {
+        part(&mut body, &mut toc, "Travelling field", &f);
+    }
+    let goal = pitch::PitchGoal {
+        suppress: vec![5.0, 7.0, 11.0, 13.0],
+        min_fundamental: 0.9,
+    };
+    part(
+        &mut body,
+        &mut toc,
+        "Span comparison",
+        &pitch::compare(w, &goal),
+    );
+    // Every sheet, one figure per page.
+    toc.push(("sheets".into(), "Sheets".into()));
+    body.push_str("<section id=\"sheets\">\n<h2>Sheets</h2>\n");
+    let page = Page::default();
+    let mut n = 0;
+    for sheet in Sheet::ALL.into_iter().filter(|s| s.applies(w)) {
+        let pages = draw::draw(w, sheet, &page);
+        let count = pages.len();
+        for (k, svg) in pages.iter().enumerate() {
+            n += 1;
+            let label = if count > 1 {
+                format!("{} (page {} of {count})", caption(sheet), k + 1)
+            } else {
+                caption(sheet).to_string()
+            };
+            let _ = writeln!(
+                body,
+                "<figure class=\"sheet\" id=\"sheet-{n}\">\n{}\n<figcaption>Figure {n}. {}</figcaption>\n</figure>",
+                inline_svg(svg, &format!("s{n}"), &label),
+                escape(&label)
+            );
+        }
+    }
+    body.push_str("</section>\n");
+
+    let mut out = String::with_capacity(body.len() + 4096);
+    out.push_str("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
+    out.push_str("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
+    let _ = writeln!(out, "<title>{}</title>", escape(&title));
+    let _ = writeln!(out, "<style>{STYLE}</style>\n</head>\n<body>");
+    let _ = writeln!(out, "<header>\n<h1>{}</h1>", escape(&title));
+    let _ = writeln!(
+        out,
+        "<p class=\"caution\" role=\"note\">{}</p>",
+        escape(CAUTION)
+    );
+    let _ = writeln!(
+        out,
+        "<p class=\"line\" id=\"summary\">{} core: <span id=\"slots\">{}</span> slots, {} poles, {} \
+         layer(s), span {}, k_w1 = <span id=\"kw1\">{}</span></p>\n</header>",
+        w.geometry.topology,
+        w.geometry.slots,
+        w.geometry.poles,
+        w.geometry.layers,
+        w.pitch,
+        super::num(p.winding_factor, 4)
+    );
+    out.push_str("<nav aria-label=\"Contents\">\n<ul>\n");
+    for (id, t) in &toc {
+        let _ = writeln!(out, "<li><a href=\"#{id}\">{}</a></li>", escape(t));
+    }
+    out.push_str("</ul>\n</nav>\n<main>\n");
+    out.push_str(&body);
+    out.push_str("</main>\n<footer>\n");
+    let _ = writeln!(
+        out,
+        "<p class=\"caution\" role=\"note\">{}</p>\n<p class=\"line\">Made by beltwright {}.</p>",
+        escape(CAUTION),
+        env!("CARGO_PKG_VERSION")
+    );
+    out.push_str("</footer>\n</body>\n</html>\n");
+    out
+}

@@ -1,0 +1,7 @@
+//! The safety caution every report, sheet and page carries: windings run at mains voltage;
+//! the tool plans and checks, it does not certify.
+
+/// Caution printed on every report and sheet.
+pub const CAUTION: &str = "CAUTION: windings run at mains voltage. Work on them only \
+de-energised and isolated; test insulation before energising; follow local electrical codes \
+and have the work done or checked by qualified persons. beltwright plans, it does not certify.";
