@@ -9,22 +9,23 @@ use std::process::ExitCode;
 use clap::{Args, Parser, Subcommand};
 
 mod cli;
+use cli::args::{FormatArg, PaperArg, SequenceArg, SheetArg, SortArg};
 use cli::files::{self, check_output, write_set};
 use cli::{EXIT_FAILURE, Failure};
 use indicatif::ProgressBar;
 
 use beltwright::audit;
 use beltwright::draw::span_chart::pitch_chart;
-use beltwright::draw::{self, FileKind, Orientation, Page, PaperSize, Sheet};
+use beltwright::draw::{self, FileKind, Orientation, Page, Sheet};
 use beltwright::factors;
-use beltwright::field::{self, FieldOptions, Sequence};
+use beltwright::field::{self, FieldOptions};
 use beltwright::layout;
 use beltwright::linear::Operating;
 use beltwright::output::{Format, Report, render};
 use beltwright::pitch::{self, PitchGoal};
 use beltwright::plan;
 use beltwright::rewind::{self, OldConductor};
-use beltwright::survey::{self, SortKey, SurveyQuery};
+use beltwright::survey::{self, SurveyQuery};
 use beltwright::winding::{self, Topology, Winding};
 
 const EXAMPLES: &str = "\
@@ -115,8 +116,8 @@ struct Common {
     /// Layout file (TOML).
     file: PathBuf,
     /// Output format.
-    #[arg(long, value_enum, default_value_t = Format::Text)]
-    format: Format,
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    format: FormatArg,
 }
 
 #[derive(Args)]
@@ -141,10 +142,10 @@ struct DrawArgs {
     file: PathBuf,
     /// Which sheet to draw.
     #[arg(long, value_enum)]
-    sheet: Sheet,
+    sheet: SheetArg,
     /// Paper size.
-    #[arg(long, value_enum, default_value_t = PaperSize::A4)]
-    page: PaperSize,
+    #[arg(long, value_enum, default_value_t = PaperArg::A4)]
+    page: PaperArg,
     /// Portrait instead of landscape.
     #[arg(long)]
     portrait: bool,
@@ -169,8 +170,8 @@ struct ReportArgs {
     #[arg(long)]
     intended: Option<PathBuf>,
     /// Paper size.
-    #[arg(long, value_enum, default_value_t = PaperSize::A4)]
-    page: PaperSize,
+    #[arg(long, value_enum, default_value_t = PaperArg::A4)]
+    page: PaperArg,
     /// Portrait instead of landscape.
     #[arg(long)]
     portrait: bool,
@@ -231,8 +232,8 @@ struct RewindArgs {
     /// New design (layout file: changed span, layers, connection, paths, voltage or frequency).
     to: PathBuf,
     /// Output format.
-    #[arg(long, value_enum, default_value_t = Format::Text)]
-    format: Format,
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    format: FormatArg,
     /// Bare copper diameter of one old wire, in mm (as measured with a micrometer).
     #[arg(long = "wire-diameter-mm", conflicts_with = "conductor_mm2")]
     wire_diameter_mm: Option<f64>,
@@ -258,8 +259,8 @@ struct FieldArgs {
     #[arg(long = "at-deg", default_value_t = 0.0, allow_negative_numbers = true)]
     at_deg: f64,
     /// Balanced phase currents in this sequence.
-    #[arg(long, value_enum, default_value_t = Sequence::Positive, conflicts_with = "currents")]
-    sequence: Sequence,
+    #[arg(long, value_enum, default_value_t = SequenceArg::Positive, conflicts_with = "currents")]
+    sequence: SequenceArg,
     /// Phase-current phasors, one per phase: "magnitude@angle_deg,..." e.g. "1@0,1@-120,1@120".
     #[arg(long)]
     currents: Option<String>,
@@ -317,11 +318,11 @@ struct SurveyArgs {
     #[arg(long)]
     feasible: bool,
     /// Sort order.
-    #[arg(long, value_enum, default_value_t = SortKey::Slots)]
-    sort: SortKey,
+    #[arg(long, value_enum, default_value_t = SortArg::Slots)]
+    sort: SortArg,
     /// Output format.
-    #[arg(long, value_enum, default_value_t = Format::Text)]
-    format: Format,
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    format: FormatArg,
 }
 
 #[derive(Clone, Copy, clap::ValueEnum)]
@@ -415,7 +416,7 @@ fn run(cli: Cli) -> Result<String, Failure> {
         Command::Draw(a) => {
             let kind = sheet_kind(&a.output, a.dpi)?;
             let w = load(&a.file)?;
-            let pages = draw::draw(&w, a.sheet, &page_of(a.page, a.portrait));
+            let pages = draw::draw(&w, a.sheet.into(), &page_of(a.page, a.portrait));
             let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
             Ok(wrote(&written))
         }
@@ -677,7 +678,7 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
     let currents = match &a.currents {
         Some(text) => field::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,
-        None => field::balanced_currents(w.geometry.phases, a.sequence),
+        None => field::balanced_currents(w.geometry.phases, a.sequence.into()),
     };
     let opts = FieldOptions {
         currents,
@@ -791,7 +792,7 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
     };
     let mut report = survey::survey(&query, &|| bar.inc(1));
     bar.finish_and_clear();
-    survey::filter_and_sort(&mut report, a.min_kw, a.feasible, a.sort);
+    survey::filter_and_sort(&mut report, a.min_kw, a.feasible, a.sort.into());
     present(&report, a.format)
 }
 
@@ -800,8 +801,9 @@ fn write_atomic(path: &Path, input: &Path, bytes: &[u8], flag: &str) -> Result<(
     write_set(&[(path.to_path_buf(), bytes.to_vec())], &[], &[input], flag)
 }
 
-fn present<R: Report>(report: &R, format: Format) -> Result<String, Failure> {
-    render(report, format).map_err(|e| Failure::output(format!("could not write the report: {e}")))
+fn present<R: Report>(report: &R, format: impl Into<Format>) -> Result<String, Failure> {
+    render(report, format.into())
+        .map_err(|e| Failure::output(format!("could not write the report: {e}")))
 }
 
 /// Read and validate a layout file and build its winding.
@@ -895,9 +897,9 @@ fn sheet_kind(output: &Path, dpi: f64) -> Result<FileKind, Failure> {
     Ok(kind)
 }
 
-fn page_of(size: PaperSize, portrait: bool) -> Page {
+fn page_of(size: PaperArg, portrait: bool) -> Page {
     Page {
-        size,
+        size: size.into(),
         orientation: if portrait {
             Orientation::Portrait
         } else {

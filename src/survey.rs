@@ -83,7 +83,7 @@ pub struct SurveyReport {
 }
 
 /// Sort keys for the survey.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum SortKey {
     /// Slots, then poles (the natural order).
     Slots,

@@ -1,5 +1,6 @@
 //! The command line's own parts: failures with their exit status, and files.
 
+pub mod args;
 pub mod files;
 
 /// Exit status for output that could not be made or written, or a failure inside the tool:

@@ -35,7 +35,7 @@ use crate::winding::Winding;
 /// A new sheet is a variant here, a file beside the others with
 /// `pub fn draw(w: &Winding, page: &Page)`, and one arm in [`draw`]; the CLI, exporters and
 /// `plan --out` need no other change.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Sheet {
     /// The core unrolled flat: slots, coil sides, spans, groups and phase belts.
     Slots,

@@ -11,7 +11,7 @@ use super::text::{FONT_FAMILY, r};
 use super::title::TitleBlock;
 
 /// Paper size.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum PaperSize {
     /// ISO 216 A4, 210 × 297 mm.
     #[default]

@@ -41,7 +41,7 @@ pub const MAX_ORDERS: u64 = 1_000_000;
 pub const MAX_OPENING: f64 = 1.0;
 
 /// Order of the phase currents in time.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "lowercase")]
 pub enum Sequence {
     /// Each phase lags the one before it by 2π/m (V lags U).

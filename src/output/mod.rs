@@ -22,7 +22,7 @@ pub use text::Text;
 use serde::Serialize;
 
 /// Output formats of every analysis command.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Format {
     /// Aligned tables for a person (80 columns).
     Text,
