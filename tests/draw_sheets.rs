@@ -130,6 +130,8 @@ fn num_attr(n: &roxmltree::Node, name: &str) -> usize {
 struct Rendered {
     texts: Vec<(String, tiny_skia::Rect)>,
     outside: Vec<String>,
+    /// Every text's height as printed, mm, with whether it is a title-block caption.
+    sizes: Vec<(String, f32, bool)>,
 }
 
 fn walk(group: &usvg::Group, clipped: bool, frame: tiny_skia::Rect, out: &mut Rendered) {
@@ -149,7 +151,18 @@ fn walk(group: &usvg::Group, clipped: bool, frame: tiny_skia::Rect, out: &mut Re
                 }
                 let tr = t.abs_transform();
                 if tr.kx.abs() < 1e-6 && tr.ky.abs() < 1e-6 {
-                    out.texts.push((content, bbox));
+                    out.texts.push((content.clone(), bbox));
+                }
+                // Font size as printed: the span's size through the text's transform, in
+                // mm (the sheets' user unit is 1 mm; usvg works in CSS px, 96 per inch).
+                let scale = (tr.sx * tr.sy - tr.kx * tr.ky).abs().sqrt();
+                let px_per_mm = 96.0 / 25.4;
+                for chunk in t.chunks() {
+                    for span in chunk.spans() {
+                        let mm = span.font_size().get() * scale / px_per_mm;
+                        out.sizes
+                            .push((content.clone(), mm, t.id().starts_with("caption")));
+                    }
                 }
             }
             usvg::Node::Path(p) => {
@@ -187,6 +200,7 @@ fn rendered(svg: &str, page: &Page) -> Rendered {
     let mut out = Rendered {
         texts: Vec::new(),
         outside: Vec::new(),
+        sizes: Vec::new(),
     };
     walk(tree.root(), false, frame, &mut out);
     // The first path is the white paper itself, which fills the page edge to edge.
@@ -248,6 +262,20 @@ fn check_sheet_renders(name: &str, w: &Winding, sheet: Sheet, page: &Page) {
             n + 1,
             &o[..o.len().min(8)]
         );
+        // ISO 3098 / common drafting practice: text at least 2.5 mm high as printed; the
+        // title block's small captions at least 1.8 mm.
+        let small: Vec<String> = r
+            .sizes
+            .iter()
+            .filter(|(_, mm, caption)| *mm < if *caption { 1.8 - 1e-3 } else { 2.5 - 1e-3 })
+            .map(|(t, mm, _)| format!("{t:?} {mm:.2} mm"))
+            .collect();
+        assert!(
+            small.is_empty(),
+            "{name} {sheet:?} page {}: text under 2.5 mm: {:?}",
+            n + 1,
+            &small[..small.len().min(8)]
+        );
         let png = export::to_png(svg, 40.0).expect("renders");
         let ink = ink_fraction(&png);
         assert!(ink > 0.01, "{name} {sheet:?}: only {ink} of the page inked");
@@ -289,17 +317,20 @@ fn a_360_slot_core_wraps_onto_rows_and_stays_legible() {
         for sheet in SHEETS {
             check_sheet_renders("big", &w, sheet, &page);
         }
-        let svg = &draw::draw(&w, Sheet::Slots, &page)[0];
+        let pages = draw::draw(&w, Sheet::Slots, &page);
+        let svg = &pages[0];
         let doc = roxmltree::Document::parse(svg).expect("XML");
-        // Not shrunk as a whole, several rows, and slot numbers no smaller than 1.2 mm.
+        // Never shrunk as a whole (more pages instead), several rows a page, and slot
+        // numbers no smaller than 2.5 mm (ISO 3098 lettering).
         let core = &elements(&doc, "core")[0];
         assert!(
-            core.attribute("transform")
-                .unwrap_or("")
-                .ends_with("scale(1)"),
+            !core.attribute("transform").unwrap_or("").contains("scale"),
             "{:?}",
             core.attribute("transform")
         );
+        let all = format!("<pages>{}</pages>", pages.concat());
+        let all = roxmltree::Document::parse(&all).expect("XML");
+        assert_eq!(elements(&all, "slot-no").len(), 360);
         let rows: BTreeSet<String> = elements(&doc, "slot")
             .iter()
             .map(|n| n.attribute("y").unwrap_or("").to_string())
@@ -311,7 +342,7 @@ fn a_360_slot_core_wraps_onto_rows_and_stays_legible() {
                 .unwrap_or("0")
                 .parse()
                 .unwrap_or(0.0);
-            assert!(size >= 1.2, "slot number at {size} mm");
+            assert!(size >= 2.5, "slot number at {size} mm");
         }
     }
 }
@@ -325,15 +356,21 @@ fn small_cores_are_not_blown_up() {
     assert_eq!(slots.len(), 6);
     for s in slots {
         let width: f64 = s.attribute("width").unwrap_or("0").parse().unwrap_or(0.0);
-        assert!(width > 0.0 && width <= 9.0, "slot drawn {width} mm wide");
+        // The drawing uses the page (issue: sheets a trainee can wind from), but a slot is
+        // never drawn wider than 0.9 of the 18 mm largest pitch.
+        assert!(width > 0.0 && width <= 16.2, "slot drawn {width} mm wide");
     }
 }
 
 /// The slot sheet shows exactly the model: one marked side per filled slot layer with its
 /// direction, one span per coil, every group, slots 1..Z, and the empty layers.
 fn check_slot_counts(name: &str, w: &Winding) {
-    let svg = &draw::draw(w, Sheet::Slots, &Page::default())[0];
-    let doc = roxmltree::Document::parse(svg).expect("XML");
+    // A large core runs over several pages: count over all of them.
+    let svg = format!(
+        "<pages>{}</pages>",
+        draw::draw(w, Sheet::Slots, &Page::default()).concat()
+    );
+    let doc = roxmltree::Document::parse(&svg).expect("XML");
     let mut drawn = BTreeMap::new();
     for n in elements(&doc, "side") {
         let key = (num_attr(&n, "data-slot"), num_attr(&n, "data-layer"));
@@ -663,10 +700,10 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
                 .map(str::trim)
                 .collect();
             export::parse(&svg).expect("usvg parses");
-            if sheet == Sheet::Card || sheet == Sheet::Thrust {
+            if sheet == Sheet::Card || sheet == Sheet::Thrust || sheet == Sheet::Field {
                 // The data card is tables in black over pages; its leads name the phase
                 // inside a longer text (checked below, over all its pages). The performance
-                // sheet plots whole-machine figures and names no phase.
+                // and field sheets plot whole-winding figures and name no phase.
                 continue;
             }
             if sheet == Sheet::Field {

@@ -26,8 +26,8 @@ const BOX_GAP: f64 = 6.0;
 const LINE_H: f64 = 13.0;
 const LEAD_W: f64 = 11.0;
 const BOARD_H: f64 = 30.0;
-const SCHED_SIZE: f64 = 1.9;
-const SCHED_ROW: f64 = 2.75;
+const SCHED_SIZE: f64 = 2.5;
+const SCHED_ROW: f64 = 3.4;
 const SCHED_HEAD: f64 = 8.0;
 const DIAGRAM_MIN_W: f64 = 120.0;
 
@@ -80,6 +80,25 @@ fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<(usize, usize, Vec<usize>)> {
                 .map(|(i, _)| i)
                 .collect();
             out.push((k, p, gs));
+        }
+    }
+    out
+}
+
+/// Where each path's leads leave the core: (lead marking, slot from 1, start?) for the start
+/// of the first group and the finish of the last, in connection order.
+pub fn lead_slots(w: &Winding) -> Vec<(String, usize, bool)> {
+    let groups = coil_groups(w);
+    let mut out = Vec::new();
+    for (k, p, gs) in lanes(w, &groups) {
+        let (Some(&first), Some(&last)) = (gs.first(), gs.last()) else {
+            continue;
+        };
+        if let Some(&c) = current_order(&groups[first]).first() {
+            out.push((path_terminal(w, k, p, 1), w.coils[c].go + 1, true));
+        }
+        if let Some(&c) = current_order(&groups[last]).last() {
+            out.push((path_terminal(w, k, p, 2), w.coils[c].back + 1, false));
         }
     }
     out
@@ -223,7 +242,7 @@ pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
         canvas.add(Group::new().add(label(
             a.right(),
             a.bottom() - 0.5,
-            1.9,
+            2.6,
             Anchor::End,
             "Winding schedule on the next sheet.",
         )));
@@ -274,7 +293,7 @@ fn schedule_table(
             ));
         }
         for (name, cw) in cols {
-            g = g.add(label(x, y_head + 3.0, 1.8, Anchor::Start, name).set("fill", "#333333"));
+            g = g.add(label(x, y_head + 3.0, 2.6, Anchor::Start, name).set("fill", "#333333"));
             x += cw;
         }
         g = g.add(rule(x0, y_head + 4.0, x0 + col_w - 4.0, y_head + 4.0, 0.3));
@@ -332,7 +351,7 @@ fn schedule_table(
         g = g.add(label(
             b.right(),
             b.bottom() - 0.5,
-            1.9,
+            2.6,
             Anchor::End,
             "Schedule continues on the next sheet.",
         ));
@@ -377,7 +396,9 @@ fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
         .map(|(_, _, gs)| gs.len().div_ceil(n).max(1))
         .sum();
     let note = if w.parallel_paths > 1 { 4.0 } else { 0.0 };
-    BOARD_H + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 3.0 + 4.0 + note
+    let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
+    let board_h = board(w, &pal, width, 1.0).1;
+    board_h + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 5.0 + 4.0 + note
 }
 
 /// Scale at which the diagram fits `width` × `height` (1 when it fits at full size).
@@ -391,12 +412,25 @@ fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> 
 /// Terminal board, then one lane per phase and path with the groups in connection order.
 fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect) -> Group {
     let scale = diagram_scale(w, groups, b.w, b.h);
+    // Text keeps its printed size (2.6 mm) however much the diagram is scaled to fit.
+    let ts = if scale > 0.0 {
+        (1.0 / scale).max(1.0)
+    } else {
+        1.0
+    };
     let lanes = lanes(w, groups);
     let per_line = per_line(b.w);
     let mut inner = Group::new();
-    inner = inner.add(label(0.0, 2.8, 2.6, Anchor::Start, "Connection diagram"));
-    inner = inner.add(board(w, pal, b.w / scale));
-    let mut y = BOARD_H + 8.0;
+    inner = inner.add(label(
+        0.0,
+        2.8,
+        2.6 * ts,
+        Anchor::Start,
+        "Connection diagram",
+    ));
+    let (board_g, board_h) = board(w, pal, b.w / scale, ts);
+    inner = inner.add(board_g);
+    let mut y = board_h + 8.0;
     for (k, p, gs) in &lanes {
         let mut lane = Group::new()
             .set("class", "lane")
@@ -407,7 +441,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         } else {
             format!("Phase {}", w.label(*k))
         };
-        lane = lane.add(label(0.0, y, 2.0, Anchor::Start, &name).set("fill", "#333333"));
+        lane = lane.add(label(0.0, y, 2.6 * ts, Anchor::Start, &name).set("fill", "#333333"));
         let chunks: Vec<&[usize]> = if gs.is_empty() {
             vec![&[][..]]
         } else {
@@ -415,13 +449,19 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         };
         let nlines = chunks.len();
         for (li, chunk) in chunks.iter().enumerate() {
-            let yc = y + 2.5 + BOX_H / 2.0 + li as f64 * LINE_H;
+            let yc = y + 4.5 + BOX_H / 2.0 + li as f64 * LINE_H;
             let mut x = LEAD_W;
             // Lead in.
             if li == 0 {
-                lane = lane.add(lead(&path_terminal(w, *k, *p, 1), 0.0, yc));
+                lane = lane.add(lead(&path_terminal(w, *k, *p, 1), 0.0, yc, ts));
             } else {
-                lane = lane.add(label(LEAD_W - 1.0, yc + 0.7, 2.0, Anchor::End, "\u{2192}"));
+                lane = lane.add(label(
+                    LEAD_W - 1.0,
+                    yc + 0.7,
+                    2.6 * ts,
+                    Anchor::End,
+                    "\u{2192}",
+                ));
             }
             let mut prev_x = if li == 0 { 2.2 } else { LEAD_W - 1.0 };
             for &gi in chunk.iter() {
@@ -433,7 +473,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
                         .move_to((r(prev_x), r(yc)))
                         .line_to((r(x), r(yc))),
                 ));
-                lane = lane.add(group_box(w, pal, gi, grp, x, yc));
+                lane = lane.add(group_box(w, pal, gi, grp, x, yc, ts));
                 prev_x = x + BOX_W;
                 x += BOX_W + BOX_GAP;
             }
@@ -446,19 +486,25 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
                     .line_to((r(end_x), r(yc))),
             ));
             if li + 1 == nlines {
-                lane = lane.add(lead(&path_terminal(w, *k, *p, 2), end_x, yc));
+                lane = lane.add(lead(&path_terminal(w, *k, *p, 2), end_x, yc, ts));
             } else {
-                lane = lane.add(label(end_x + 0.5, yc + 0.7, 2.0, Anchor::Start, "\u{2192}"));
+                lane = lane.add(label(
+                    end_x + 0.5,
+                    yc + 0.7,
+                    2.6 * ts,
+                    Anchor::Start,
+                    "\u{2192}",
+                ));
             }
         }
         inner = inner.add(lane);
-        y += nlines as f64 * LINE_H + 3.0;
+        y += nlines as f64 * LINE_H + 5.0;
     }
     if w.parallel_paths > 1 {
         inner = inner.add(label(
             0.0,
             y + 1.0,
-            1.9,
+            2.6 * ts,
             Anchor::Start,
             &format!(
                 "{} parallel paths per phase: join the path starts at the 1-lead and the path ends at the 2-lead.",
@@ -481,7 +527,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
 }
 
 /// A lead end: open terminal circle with its marking above right.
-fn lead(name: &str, x: f64, y: f64) -> Group {
+fn lead(name: &str, x: f64, y: f64, ts: f64) -> Group {
     let (cx, tx, anchor) = (x + 1.2, x + 2.8, Anchor::Start);
     Group::new()
         .set("class", "lead")
@@ -494,10 +540,18 @@ fn lead(name: &str, x: f64, y: f64) -> Group {
                 .set("stroke", "#000000")
                 .set("stroke-width", 0.35),
         )
-        .add(label(tx, y - 1.6, 2.2, anchor, name))
+        .add(label(tx, y - 1.6, 2.6 * ts, anchor, name))
 }
 
-fn group_box(w: &Winding, pal: &Palette, gi: usize, g: &CoilGroup, x: f64, yc: f64) -> Group {
+fn group_box(
+    w: &Winding,
+    pal: &Palette,
+    gi: usize,
+    g: &CoilGroup,
+    x: f64,
+    yc: f64,
+    ts: f64,
+) -> Group {
     let reversed = g.polarity < 0;
     let (entry, exit) = if reversed { ("F", "S") } else { ("S", "F") };
     let mut out = Group::new()
@@ -519,7 +573,7 @@ fn group_box(w: &Winding, pal: &Palette, gi: usize, g: &CoilGroup, x: f64, yc: f
         .add(label(
             x + BOX_W / 2.0,
             yc - 0.6,
-            2.2,
+            2.6 * ts,
             Anchor::Middle,
             &format!(
                 "G{} {}{}",
@@ -531,19 +585,25 @@ fn group_box(w: &Winding, pal: &Palette, gi: usize, g: &CoilGroup, x: f64, yc: f
         .add(label(
             x + BOX_W / 2.0,
             yc + 2.7,
-            1.6,
+            2.6 * ts,
             Anchor::Middle,
-            &text::fit(&coil_list(g), 1.6, BOX_W - 1.0),
+            &text::fit(&coil_list(g), 2.6 * ts, BOX_W - 1.0),
         ))
-        .add(label(x - 0.4, yc - 1.2, 1.6, Anchor::End, entry))
-        .add(label(x + BOX_W + 0.4, yc - 1.2, 1.6, Anchor::Start, exit));
+        .add(label(x - 0.4, yc - 1.2, 2.6 * ts, Anchor::End, entry))
+        .add(label(
+            x + BOX_W + 0.4,
+            yc - 1.2,
+            2.6 * ts,
+            Anchor::Start,
+            exit,
+        ));
     if reversed {
         out = out.add(label(
             x + BOX_W / 2.0,
             yc - BOX_H / 2.0 - 0.6,
-            1.6,
+            2.6 * ts,
             Anchor::Middle,
-            "reversed: F in, S out",
+            "reversed",
         ));
     }
     out
@@ -551,7 +611,8 @@ fn group_box(w: &Winding, pal: &Palette, gi: usize, g: &CoilGroup, x: f64, yc: f
 
 /// The terminal board: 2-ends above (shifted one place), 1-ends below, with star or delta
 /// links and the supply lines.
-fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
+/// The terminal board and its notes, and the height they take (mm).
+fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
     let m = w.geometry.phases;
     let pitch = 16.0;
     let x0 = 6.0;
@@ -615,7 +676,7 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
                             .set("stroke", pal.stroke(k))
                             .set("stroke-width", 0.5),
                     )
-                    .add(label(tx(j) + 2.2, y - 1.6, 2.2, Anchor::Start, &name)),
+                    .add(label(tx(j) + 2.2, y - 1.6, 2.6 * ts, Anchor::Start, &name)),
             );
         }
         // Supply line to the 1-end.
@@ -623,7 +684,7 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
         g = g.add(label(
             tx(j) + 1.0,
             y_bot + 6.5,
-            1.8,
+            2.6 * ts,
             Anchor::Start,
             &format!("L{}", j + 1),
         ));
@@ -649,9 +710,9 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
     let tx0 = bw + 2.0;
     let room = (width - tx0).max(30.0);
     let mut y = y_top - 2.0;
-    for line in text::wrap(&how, 2.0, room) {
-        g = g.add(label(tx0, y, 2.0, Anchor::Start, &line));
-        y += 2.7;
+    for line in text::wrap(&how, 2.5 * ts, room) {
+        g = g.add(label(tx0, y, 2.6 * ts, Anchor::Start, &line));
+        y += 3.3;
     }
     if w.geometry.phases == 3 && w.design.leads.count > 3 {
         let scheme = crate::card::leads::scheme(
@@ -676,9 +737,9 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
                     format!("; join {}", c.joined.iter().map(|j| j.join("-")).join(", "))
                 }
             );
-            for l in text::wrap(&line, 2.0, room) {
-                g = g.add(label(tx0, y, 2.0, Anchor::Start, &l).set("class", "lead-table"));
-                y += 2.7;
+            for l in text::wrap(&line, 2.5 * ts, room) {
+                g = g.add(label(tx0, y, 2.6 * ts, Anchor::Start, &l).set("class", "lead-table"));
+                y += 3.3;
             }
         }
     }
@@ -690,9 +751,9 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> Group {
             "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to NEMA MG 1."
         }
     };
-    for line in text::wrap(note, 1.8, room) {
-        g = g.add(label(tx0, y + 0.6, 1.8, Anchor::Start, &line).set("fill", "#333333"));
-        y += 2.5;
+    for line in text::wrap(note, 2.5 * ts, room) {
+        g = g.add(label(tx0, y + 0.6, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
+        y += 3.3;
     }
-    g
+    (g, (y + 2.0).max(BOARD_H))
 }

@@ -90,7 +90,7 @@ impl Sheet {
 /// its schedule on further pages when a winding has many coils).
 pub fn draw(w: &Winding, sheet: Sheet, page: &Page) -> Vec<String> {
     match sheet {
-        Sheet::Slots => vec![slots::draw(w, page)],
+        Sheet::Slots => slots::draw(w, page),
         Sheet::Connections => connections::draw(w, page),
         Sheet::Star => vec![star::draw(w, page)],
         Sheet::Field => vec![field::draw(w, page)],

@@ -130,12 +130,43 @@ impl Canvas {
                     .set("stroke-width", 0.5),
             )
             .add(band);
-        let area = Rect {
+        let mut area = Rect {
             x: frame.x + PAD,
             y: frame.y + PAD,
             w: frame.w - 2.0 * PAD,
             h: frame.h - band_h - 2.0 * PAD,
         };
+        let mut doc = doc;
+        if let Some(why) = &block.unsound {
+            // A banner across the top of every sheet drawn from an unsound winding.
+            let size = 3.5;
+            let lines = super::text::wrap(why, size, area.w - 6.0);
+            let h = lines.len() as f64 * (size + 1.2) + 3.0;
+            let mut g = svg::node::element::Group::new()
+                .set("class", "unsound-banner")
+                .add(
+                    Rectangle::new()
+                        .set("x", r(area.x))
+                        .set("y", r(area.y))
+                        .set("width", r(area.w))
+                        .set("height", r(h))
+                        .set("fill", "#FFFFFF")
+                        .set("stroke", "#000000")
+                        .set("stroke-width", 1.0),
+                );
+            for (i, l) in lines.iter().enumerate() {
+                g = g.add(super::text::label(
+                    area.x + 3.0,
+                    area.y + 1.5 + size + i as f64 * (size + 1.2),
+                    size,
+                    super::text::Anchor::Start,
+                    l,
+                ));
+            }
+            doc = doc.add(g);
+            area.y += h + 2.0;
+            area.h -= h + 2.0;
+        }
         Canvas { doc, area }
     }
 

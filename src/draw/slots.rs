@@ -22,13 +22,17 @@ use crate::linear::{self, Operating};
 use crate::output::num;
 use crate::winding::{Topology, Winding, coil_groups};
 
-/// Largest slot pitch on paper, mm: a 12-slot core stays a modest drawing.
-const MAX_PITCH: f64 = 10.0;
+/// Largest slot pitch on paper, mm: a small core spreads over the page without its
+/// slots turning into boxes.
+const MAX_PITCH: f64 = 18.0;
 /// Slot pitch on paper we try first to keep, mm.
 const GOOD_PITCH: f64 = 6.0;
-/// Smallest slot pitch tried before the whole drawing is scaled down, mm.
-const MIN_PITCH: f64 = 2.0;
-const HEADER: f64 = 15.0;
+/// Smallest slot pitch on paper, mm: below it the letters and numbers no longer fit at
+/// 2.5 mm, so a larger core goes on more pages instead of shrinking.
+const MIN_PITCH: f64 = 4.0;
+/// Smallest text on the sheet, mm (ISO 3098 lettering; common drafting practice).
+const MIN_TEXT: f64 = 2.5;
+const HEADER: f64 = 19.0;
 const BRACKET: f64 = 5.2;
 const ROW_GAP: f64 = 3.0;
 
@@ -45,10 +49,18 @@ struct Grid {
     span_max: f64,
     coil_labels: bool,
     coil_size: f64,
+    /// Height of the lead-end band (jumpers and leads above the slots), mm; 0 when the core
+    /// takes more than one row.
+    lead_band: f64,
 }
 
+/// Height of one jumper lane at the lead end, mm.
+const LANE: f64 = 3.2;
+
 impl Grid {
-    fn choose(w: &Winding, area: Rect) -> (Grid, f64) {
+    /// The layout of the slots: a pitch no smaller than [`MIN_PITCH`], rows of it, and the
+    /// rows a page holds (more pages for a large core; text never shrinks below 2.5 mm).
+    fn choose(w: &Winding, area: Rect) -> (Grid, usize) {
         let z = w.geometry.slots;
         let span_max = w
             .coils
@@ -60,13 +72,18 @@ impl Grid {
         let make = |rows: usize, p: f64| {
             let per_row = z.div_ceil(rows);
             let mut g = Grid::at(p, per_row, rows, z, span_max);
+            if rows == 1 {
+                let lanes = w.geometry.phases * w.parallel_paths.max(1);
+                g.lead_band = lanes as f64 * LANE + 3.0 * MIN_TEXT + 5.0;
+            }
             // Spend spare height on steeper overhangs and taller slots, within limits.
             let spare = avail_h / rows as f64 - g.row_h();
             if spare > 0.0 {
-                let want = (0.3 * span_max * p).clamp(3.0, 16.0);
+                // Use the page: deeper far-end overhangs (easier to trace) and taller slots.
+                let want = (0.6 * span_max * p).clamp(3.0, 40.0);
                 let extra = (want - g.depth_max).clamp(0.0, spare * 0.6);
                 g.depth_max += extra;
-                g.slot_h = (g.slot_h + (spare - extra) * 0.3).min(18.0);
+                g.slot_h = (g.slot_h + (spare - extra) * 0.4).min(30.0);
             }
             g
         };
@@ -78,13 +95,14 @@ impl Grid {
             }
             let g = make(rows, p);
             if g.height() <= avail_h {
-                return (g, 1.0);
+                return (g, rows);
             }
             if rows > 1 && p >= MAX_PITCH {
                 break;
             }
         }
-        // Otherwise the largest pitch that fits the height.
+        // Otherwise the largest pitch that fits the height, down to the smallest pitch;
+        // what still does not fit goes on further pages.
         let mut p = GOOD_PITCH;
         loop {
             let fit_row = ((area.w / p).floor() as usize).max(1);
@@ -92,16 +110,15 @@ impl Grid {
             // Balanced rows may leave width over: widen the pitch if the height allows.
             let wide = make(rows, (area.w / z.div_ceil(rows) as f64).min(GOOD_PITCH));
             if wide.height() <= avail_h {
-                return (wide, 1.0);
+                return (wide, rows);
             }
             let g = make(rows, p);
-            if g.height() <= avail_h || p <= MIN_PITCH {
-                let scale = if g.height() <= avail_h {
-                    1.0
-                } else {
-                    avail_h / g.height()
-                };
-                return (g, scale);
+            if g.height() <= avail_h {
+                return (g, rows);
+            }
+            if p <= MIN_PITCH {
+                let per_page = ((avail_h / g.row_h()).floor() as usize).max(1);
+                return (g, per_page);
             }
             p -= 0.25;
         }
@@ -109,15 +126,9 @@ impl Grid {
 
     fn at(pitch: f64, per_row: usize, rows: usize, z: usize, span_max: f64) -> Grid {
         let digits = z.to_string();
-        let mut num_size = (0.5 * pitch).clamp(1.4, 2.6);
-        let mut stagger = false;
-        if text::width(&digits, num_size) > 0.92 * pitch {
-            stagger = true;
-            num_size = num_size.min(1.9);
-            while num_size > 1.2 && text::width(&digits, num_size) > 1.85 * pitch {
-                num_size -= 0.1;
-            }
-        }
+        let num_size = (0.5 * pitch).clamp(MIN_TEXT, 3.0);
+        // Numbers too wide for one pitch alternate between two lines.
+        let stagger = text::width(&digits, num_size) > 0.8 * pitch;
         let coil_digits = (2 * z).to_string();
         Grid {
             pitch,
@@ -128,8 +139,9 @@ impl Grid {
             slot_h: (2.4 * pitch).clamp(8.0, 14.0),
             depth_max: (0.3 * span_max * pitch).clamp(3.0, 8.0),
             span_max: span_max.max(1.0),
-            coil_labels: pitch >= 3.5 && text::width(&coil_digits, 1.5) < 0.95 * pitch,
-            coil_size: (0.3 * pitch).clamp(1.5, 2.2),
+            coil_labels: text::width(&coil_digits, MIN_TEXT) < 0.8 * pitch,
+            coil_size: MIN_TEXT,
+            lead_band: 0.0,
         }
     }
 
@@ -138,7 +150,8 @@ impl Grid {
     }
 
     fn row_h(&self) -> f64 {
-        BRACKET
+        self.lead_band
+            + BRACKET
             + self.num_band()
             + self.slot_h
             + self.depth_max
@@ -155,10 +168,10 @@ impl Grid {
     }
 }
 
-/// Draw the slot sheet.
-pub fn draw(w: &Winding, page: &Page) -> String {
-    let mut canvas = Canvas::new(page, &TitleBlock::of(w, "Slot layout"));
-    let area = canvas.area;
+/// Draw the slot sheet: one page, or as many as a large core needs at 2.5 mm text.
+pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
+    let probe = Canvas::new(page, &TitleBlock::of(w, "Slot layout"));
+    let area = probe.area;
     let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
     // A closed core keeps room at the right for the "→ 1" that says slot Z meets slot 1.
     let room = if w.geometry.topology == Topology::Rotary {
@@ -166,31 +179,41 @@ pub fn draw(w: &Winding, page: &Page) -> String {
     } else {
         0.0
     };
-    let (grid, scale) = Grid::choose(
+    let (grid, per_page) = Grid::choose(
         w,
         Rect {
             w: area.w - room,
             ..area
         },
     );
-    canvas.add(header(w, &pal, area));
-    let body = Group::new()
-        .set("class", "core")
-        .set(
-            "transform",
-            format!(
-                "translate({} {}) scale({})",
-                r(area.x),
-                r(area.y + HEADER),
-                r(scale * 1000.0) / 1000.0
-            ),
-        )
-        .add(rows(w, &pal, &grid));
-    canvas.add(body);
-    canvas.finish()
+    let pages = grid.rows.div_ceil(per_page).max(1);
+    (0..pages)
+        .map(|k| {
+            let mut block = TitleBlock::of(w, "Slot layout");
+            block.page = (k + 1, pages);
+            let mut canvas = Canvas::new(page, &block);
+            canvas.add(header(w, &pal, area));
+            let first = k * per_page;
+            let body = Group::new()
+                .set("class", "core")
+                .set(
+                    "transform",
+                    format!("translate({} {})", r(area.x), r(area.y + HEADER)),
+                )
+                .add(rows(
+                    w,
+                    &pal,
+                    &grid,
+                    first..(first + per_page).min(grid.rows),
+                ));
+            canvas.add(body);
+            canvas.finish()
+        })
+        .collect()
 }
 
-/// Legend and travelling-field arrow across the top of the sheet.
+/// Legend, travelling-field arrow, counts and leads across the top of the sheet; a banner
+/// when the winding is not sound.
 fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
     let mut g = Group::new().set("class", "legend");
     let mut x = area.x;
@@ -198,8 +221,8 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
     for k in 0..w.geometry.phases {
         g = g.add(phase_line(pal, k, x, y - 0.8, x + 9.0, y - 0.8, 0.45));
         let name = w.label(k);
-        g = g.add(label(x + 10.0, y, 2.4, Anchor::Start, name));
-        x += 12.0 + text::width(name, 2.4);
+        g = g.add(label(x + 10.0, y, MIN_TEXT, Anchor::Start, name));
+        x += 12.0 + text::width(name, MIN_TEXT);
     }
     let empty = if w.half_filled_slots().is_empty() {
         ""
@@ -207,11 +230,11 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
         "  Crossed column: empty layer (half-filled end slot)."
     };
     let notes = if tooth_coils(w) {
-        "Tooth coils: each coil surrounds one tooth; its two sides face that tooth.  \
-         \u{2193} go side: current enters.  \u{2191} back side.  Top: lead end; bottom: far end."
+        "Tooth coils: each coil surrounds one tooth.  \u{2193} go side: current enters.  \
+         \u{2191} back side.  Top: lead end; bottom: far end."
     } else if w.geometry.layers == 2 {
-        "Each slot: left column top layer (at the gap), right column bottom layer.  \
-         \u{2193} go side: current enters.  \u{2191} back side.  Top: lead end; bottom: far end."
+        "Left column: top layer (at the gap); right: bottom layer.  \u{2193} go side: current \
+         enters.  \u{2191} back side.  Top: lead end; bottom: far end."
     } else {
         "\u{2193} go side: current enters.  \u{2191} back side.  Top: lead end; bottom: far end."
     };
@@ -219,12 +242,12 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
     g = g.add(label(
         x + 2.0,
         y,
-        2.0,
+        MIN_TEXT,
         Anchor::Start,
-        &text::fit(&notes, 2.0, area.right() - x - 2.0),
+        &text::fit(&notes, MIN_TEXT, area.right() - x - 2.0),
     ));
     // Travelling field.
-    let y2 = area.y + 9.5;
+    let y2 = area.y + 8.5;
     let dir = field_direction(w);
     let sequence: Vec<&str> = (0..w.geometry.phases).map(|k| w.label(k)).collect();
     let what = match w.geometry.topology {
@@ -292,13 +315,50 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
                 )),
         );
     }
-    g.add(label(
+    g = g.add(label(
         ax + 25.0,
         y2,
-        2.2,
+        MIN_TEXT,
         Anchor::Start,
-        &text::fit(&caption, 2.2, area.w - 25.0),
-    ))
+        &text::fit(&caption, MIN_TEXT, area.w - 25.0),
+    ));
+    // Counts and where the leads leave the core (at the lead end, top of the drawing).
+    let groups = coil_groups(w);
+    let mut sizes: Vec<usize> = groups.iter().map(|g| g.coils.len()).collect();
+    sizes.sort_unstable();
+    sizes.dedup();
+    let leads = super::connections::lead_slots(w)
+        .iter()
+        .map(|(name, slot, start)| {
+            format!(
+                "{name} {} slot {slot}",
+                if *start { "in at" } else { "out at" }
+            )
+        })
+        .collect::<Vec<_>>()
+        .join(", ");
+    let counts = format!(
+        "{} coils in {} groups of {} coil(s). Leads: {leads}",
+        w.coils.len(),
+        groups.len(),
+        sizes
+            .iter()
+            .map(|s| s.to_string())
+            .collect::<Vec<_>>()
+            .join(" or ")
+    );
+    let y3 = area.y + 14.0;
+    g = g.add(
+        label(
+            ax,
+            y3,
+            MIN_TEXT,
+            Anchor::Start,
+            &text::fit(&counts, MIN_TEXT, area.w),
+        )
+        .set("class", "counts"),
+    );
+    g
 }
 
 /// True when the field travels towards higher slot numbers with the phases supplied in
@@ -346,7 +406,7 @@ fn phase_line(pal: &Palette, k: usize, x1: f64, y1: f64, x2: f64, y2: f64, width
 }
 
 /// All rows of slots, coils and groups, in the body's own coordinates (origin top left).
-fn rows(w: &Winding, pal: &Palette, g: &Grid) -> Group {
+fn rows(w: &Winding, pal: &Palette, g: &Grid, range: std::ops::Range<usize>) -> Group {
     let z = w.geometry.slots;
     let fill = w.slot_fill();
     let groups = coil_groups(w);
@@ -357,13 +417,15 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid) -> Group {
     let cols = w.geometry.layers.clamp(1, 2);
     let col_w = if cols == 2 { 0.4 * p } else { 0.6 * p };
     let col_x = |layer: usize| layer_offset(w, layer, p);
-    for row in 0..g.rows {
+    let first_row = range.start;
+    for row in range {
         let first = row * g.per_row;
         if first >= z {
             break;
         }
         let n = g.per_row.min(z - first);
-        let top = row as f64 * g.row_h();
+        let band_top = (row - first_row) as f64 * g.row_h();
+        let top = band_top + g.lead_band;
         let num_y = top + BRACKET;
         let slot_top = num_y + g.num_band();
         let slot_bot = slot_top + g.slot_h;
@@ -501,6 +563,12 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid) -> Group {
                 ));
             }
         }
+        let jumpers = if g.lead_band > 0.0 {
+            lead_end(w, pal, &x_of, band_top, top)
+        } else {
+            Group::new()
+        };
+        out = out.add(jumpers);
         out = out
             .add(slots_g)
             .add(coils_g)
@@ -512,7 +580,7 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid) -> Group {
                 label(
                     x_of((z - 1) as f64) + 0.6 * p,
                     slot_bot - 1.0,
-                    1.8,
+                    MIN_TEXT,
                     Anchor::Start,
                     "\u{2192} 1",
                 )
@@ -521,6 +589,84 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid) -> Group {
         }
     }
     Group::new().add(defs).add(out)
+}
+
+/// The lead end above the slots: for every phase and path, a jumper from each group's finish
+/// to the next group's start on a lane of its own, and the two leads rising to their
+/// markings at the top.
+fn lead_end(
+    w: &Winding,
+    pal: &Palette,
+    x_of: &dyn Fn(f64) -> f64,
+    band_top: f64,
+    top: f64,
+) -> Group {
+    let groups = coil_groups(w);
+    let mut out = Group::new().set("class", "lead-end");
+    let label_y = band_top + MIN_TEXT + 0.5;
+    let mut lane = 0usize;
+    let mut leads: Vec<(f64, usize, String)> = Vec::new();
+    for k in 0..w.geometry.phases {
+        for p in 0..w.parallel_paths.max(1) {
+            let gs: Vec<usize> = groups
+                .iter()
+                .enumerate()
+                .filter(|(_, grp)| grp.phase == k && w.coils[grp.coils[0]].path == p)
+                .map(|(i, _)| i)
+                .collect();
+            let y = band_top + 3.0 * MIN_TEXT + 3.0 + lane as f64 * LANE + LANE / 2.0;
+            lane += 1;
+            let start_of = |gi: usize| {
+                let grp = &groups[gi];
+                let c = if grp.polarity > 0 {
+                    grp.coils[0]
+                } else {
+                    grp.coils[grp.coils.len() - 1]
+                };
+                w.coils[c].go
+            };
+            let finish_of = |gi: usize| {
+                let grp = &groups[gi];
+                let c = if grp.polarity > 0 {
+                    grp.coils[grp.coils.len() - 1]
+                } else {
+                    grp.coils[0]
+                };
+                w.coils[c].back
+            };
+            let drop = |x: f64| phase_line(pal, k, x, y, x, top + 0.6, 0.3);
+            for pair in gs.windows(2) {
+                let (a, b) = (
+                    x_of(finish_of(pair[0]) as f64),
+                    x_of(start_of(pair[1]) as f64),
+                );
+                out = out
+                    .add(phase_line(pal, k, a, y, b, y, 0.35).set("class", "jumper"))
+                    .add(drop(a))
+                    .add(drop(b));
+            }
+            if let (Some(&first), Some(&last)) = (gs.first(), gs.last()) {
+                for (slot, end) in [(start_of(first), 1u8), (finish_of(last), 2u8)] {
+                    let x = x_of(slot as f64);
+                    let name = super::connections::path_terminal(w, k, p, end);
+                    leads.push((x, k, name));
+                }
+            }
+        }
+    }
+    // Lead names in slot order, on two lines where neighbours would touch.
+    leads.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let mut last_end = [f64::MIN; 2];
+    for (x, k, name) in leads {
+        let half = text::width(&name, MIN_TEXT) / 2.0 + 0.6;
+        let line = if x - half >= last_end[0] { 0 } else { 1 };
+        last_end[line] = x + half;
+        let y = label_y + line as f64 * (MIN_TEXT + 0.8);
+        out = out
+            .add(phase_line(pal, k, x, y + 0.8, x, top + 0.6, 0.45).set("class", "lead"))
+            .add(label(x, y, MIN_TEXT, Anchor::Middle, &name).set("class", "lead-name"));
+    }
+    out
 }
 
 /// One coil side in one slot layer: tinted cell, phase letter, current arrow.
@@ -539,10 +685,10 @@ fn side(
 ) -> Group {
     let phase = w.coils[coil].phase;
     let name = w.label(phase);
-    let mut size = (0.8 * cw + 0.4).clamp(1.1, 2.4);
-    while size > 0.8 && text::width(name, size) > cw * 1.15 {
-        size -= 0.1;
-    }
+    // The phase letter at 2.5 mm or more where it fits the column; where it does not (a
+    // long label on a narrow slot) the cell's colour and the coil's dash pattern say it.
+    let size = (0.8 * cw + 0.4).clamp(MIN_TEXT, 3.0);
+    let show_letter = text::width(name, size) <= cw * 1.15;
     let mid = top + g.slot_h * 0.62;
     let a = (0.45 * cw).min(1.3);
     let (tip, base) = if go {
@@ -550,7 +696,7 @@ fn side(
     } else {
         (mid - a, mid + a)
     };
-    Group::new()
+    let mut cell = Group::new()
         .set("class", "side")
         .set("data-slot", slot + 1)
         .set("data-layer", layer)
@@ -564,20 +710,23 @@ fn side(
                 .set("width", r(cw))
                 .set("height", r(g.slot_h - 0.6))
                 .set("fill", pal.tint(phase)),
-        )
-        .add(label(x, top + 0.6 + size, size, Anchor::Middle, name).set("fill", "#000000"))
-        .add(Polygon::new().set("fill", "#000000").set(
-            "points",
-            format!(
-                "{},{} {},{} {},{}",
-                r(x),
-                r(tip),
-                r(x - a * 0.7),
-                r(base),
-                r(x + a * 0.7),
-                r(base)
-            ),
-        ))
+        );
+    if show_letter {
+        cell =
+            cell.add(label(x, top + 0.6 + size, size, Anchor::Middle, name).set("fill", "#000000"));
+    }
+    cell.add(Polygon::new().set("fill", "#000000").set(
+        "points",
+        format!(
+            "{},{} {},{} {},{}",
+            r(x),
+            r(tip),
+            r(x - a * 0.7),
+            r(base),
+            r(x + a * 0.7),
+            r(base)
+        ),
+    ))
 }
 
 /// An empty layer (half-filled end slot of a linear primary): blank with a cross.
@@ -728,10 +877,7 @@ fn bracket(
     let sign = if polarity > 0 { "+" } else { "\u{2212}" };
     let full = format!("{} {}{}", number + 1, w.label(phase), sign);
     let room = (x1 - x0).max(p) + 0.6 * p;
-    let mut size = 1.9;
-    while size > 1.2 && text::width(&full, size) > room {
-        size -= 0.1;
-    }
+    let size = MIN_TEXT;
     let text_s = if text::width(&full, size) <= room {
         full
     } else {

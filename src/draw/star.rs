@@ -91,7 +91,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
     let half = b.w.min(b.h - top_note) / 2.0;
     // Ray numbers as large as their spacing round the circle allows (at most 3 mm), and
     // the circle as large as leaves room for the longest of them outside it.
-    let size_at = |rad: f64| (2.0 * PI * rad / rays.len() as f64 * 0.55).clamp(1.4, 3.0);
+    let size_at = |rad: f64| (2.0 * PI * rad / rays.len() as f64 * 0.55).clamp(2.5, 3.0);
     let longest = |size: f64| {
         rays.iter()
             .map(|(_, s)| text::width(&ray_label(s), size))
@@ -99,7 +99,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
     };
     let mut rad = (half - 9.0).max(15.0);
     // Long labels (many slots per ray) are kept to a quarter of the star's half-width.
-    let mut ray_size = size_at(rad).min((0.25 * half / longest(1.0).max(1e-9)).max(1.4));
+    let mut ray_size = size_at(rad).min((0.25 * half / longest(1.0).max(1e-9)).max(2.5));
     for _ in 0..4 {
         rad = (half - longest(ray_size) - 9.0).max(15.0);
         ray_size = size_at(rad).min(ray_size);
@@ -116,24 +116,28 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
     g = g.add(label(
         b.x,
         b.y + 6.2,
-        1.8,
+        2.5,
         Anchor::Start,
         &text::fit(
             "Angles counter-clockwise from the right; slot k has EMF e^(\u{2212}j\u{3b8}k), so slots further along lag. Rays carry the top-layer phase.",
-            1.8,
+            2.5,
             b.w,
         ),
     ));
     let mut names = Group::new().set("class", "sector-names");
-    // Phase sectors: sector s covers slot angles s·π/m .. (s+1)·π/m (the synthesis belts).
+    // Phase sectors: sector s covers slot angles s·π/m .. (s+1)·π/m (the synthesis belts),
+    // a ray on a boundary belonging to the sector it starts. The drawn edges sit half a ray
+    // spacing back, between two rays, so no ray ever lies on an edge.
+    let spacing = 2.0 * PI / rays.len().max(1) as f64;
+    let edge = if rays.len() > 1 { spacing / 2.0 } else { 0.0 };
     for s in 0..2 * m {
         let (phase, positive) = if s % 2 == 0 {
             (s / 2, true)
         } else {
             (((s + m) / 2) % m, false)
         };
-        let a0 = -(s as f64) * PI / m as f64;
-        let a1 = -((s + 1) as f64) * PI / m as f64;
+        let a0 = -(s as f64) * PI / m as f64 + edge;
+        let a1 = -((s + 1) as f64) * PI / m as f64 + edge;
         let rr = rad + 4.0;
         let (x0, y0) = pt(cx, cy, rr, a0);
         let (x1, y1) = pt(cx, cy, rr, a1);
@@ -322,25 +326,25 @@ fn phase_phasors(w: &Winding, pal: &Palette, b: Rect) -> Group {
     let mut y = cy + size / 2.0 + 4.0;
     let cols = [b.x, b.x + 22.0, b.x + 52.0];
     for (i, h) in ["Phase", "N_ph\u{b7}k_w1", "Angle"].iter().enumerate() {
-        g = g.add(label(cols[i], y, 2.0, Anchor::Start, h).set("fill", "#444444"));
+        g = g.add(label(cols[i], y, 2.5, Anchor::Start, h).set("fill", "#444444"));
     }
     y += 3.4;
     for p in &rows {
-        g = g.add(label(cols[0], y, 2.2, Anchor::Start, &p.phase));
-        g = g.add(label(cols[1], y, 2.2, Anchor::Start, &num(p.magnitude, 3)));
+        g = g.add(label(cols[0], y, 2.6, Anchor::Start, &p.phase));
+        g = g.add(label(cols[1], y, 2.6, Anchor::Start, &num(p.magnitude, 3)));
         g = g.add(label(
             cols[2],
             y,
-            2.2,
+            2.6,
             Anchor::Start,
             &format!("{}\u{b0}", num(p.angle_deg, 2)),
         ));
-        y += 3.4;
+        y += 3.6;
     }
     let verdict = if w.is_balanced() {
         "Phases equal and evenly spaced: balanced."
     } else {
         "Phases NOT balanced: check the coil list before winding."
     };
-    g.add(label(b.x, y + 1.0, 2.0, Anchor::Start, verdict))
+    g.add(label(b.x, y + 1.0, 2.5, Anchor::Start, verdict))
 }

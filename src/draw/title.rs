@@ -23,14 +23,16 @@ pub struct TitleBlock {
     pub page: (usize, usize),
     /// Labelled values: slots, poles, span, layers, turns, paths, connection, k_w1, tool.
     pub fields: Vec<(&'static str, String)>,
+    /// Why the winding is not sound, for a banner across the sheet; `None` when it is.
+    pub unsound: Option<String>,
 }
 
-const LABEL: f64 = 1.7;
+const LABEL: f64 = 1.8;
 const VALUE: f64 = 2.8;
 const ROW: f64 = 9.0;
 const BLOCK_W: f64 = 180.0;
-const CAUTION_SIZE: f64 = 2.0;
-const CAUTION_LINE: f64 = 2.6;
+const CAUTION_SIZE: f64 = 2.5;
+const CAUTION_LINE: f64 = 3.1;
 
 impl TitleBlock {
     /// The block of a winding's sheet.
@@ -40,7 +42,23 @@ impl TitleBlock {
             Style::Concentric => format!("{} (mean)", w.pitch),
             Style::Lap => format!("{}", w.pitch),
         };
+        let unsound = if !w.is_balanced() {
+            Some(
+                "NOT A SOUND WINDING: the phases are unbalanced. Do not wind or connect from this \
+                 sheet; run beltwright audit on the record first."
+                    .to_string(),
+            )
+        } else if w.from_coil_list && !crate::audit::audit(w, None).sound {
+            Some(
+                "NOT A SOUND WINDING: the audit of this coil list has findings. Do not wind or \
+                 connect from this sheet; see beltwright audit."
+                    .to_string(),
+            )
+        } else {
+            None
+        };
         TitleBlock {
+            unsound,
             title: w.title.clone().unwrap_or_else(|| {
                 format!("{} core, {} slots, {} poles", g.topology, g.slots, g.poles)
             }),
@@ -142,6 +160,21 @@ impl TitleBlock {
     }
 }
 
+/// Id of a caption text (the one kind of text allowed under 2.5 mm, at 1.8 mm).
+fn caption_id(name: &str) -> String {
+    let slug: String = name
+        .chars()
+        .map(|c| {
+            if c.is_ascii_alphanumeric() {
+                c.to_ascii_lowercase()
+            } else {
+                '-'
+            }
+        })
+        .collect();
+    format!("caption-{slug}")
+}
+
 /// A labelled cell: small caption on top, value below, both cut to the cell width.
 fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str) -> Group {
     let inner = w - 2.0;
@@ -151,7 +184,11 @@ fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str) -> Group {
     }
     Group::new()
         .set("class", class)
-        .add(label(x + 1.0, y + 2.4, LABEL, Anchor::Start, name).set("fill", "#444444"))
+        .add(
+            label(x + 1.0, y + 2.4, LABEL, Anchor::Start, name)
+                .set("fill", "#444444")
+                .set("id", caption_id(name)),
+        )
         .add(label(
             x + 1.0,
             y + 7.4,
