@@ -319,22 +319,30 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
         }
     }
     if (0..m).any(|p| plus[p].len() != minus[p].len() || plus[p].is_empty()) {
-        return Err(PlanError::Infeasible(refuse()));
+        return alternate_coils(spec, &geom, y).ok_or_else(|| PlanError::Infeasible(refuse()));
     }
     let mut coils = Vec::with_capacity(z / 2);
+    // The span the pairs were found at (a default span may move to the nearest that pairs).
+    let mut built_span: Option<usize> = None;
     for p in 0..m {
         let pairs = match spec.style {
             Style::Concentric => nest(&geom, &plus[p], &minus[p]),
             Style::Lap => {
-                match pair_at_span(&geom, &plus[p], &minus[p], y) {
-                    Some(pairs) => Some(pairs),
-                    None if spec.pitch.is_none() => {
+                match pair_at_span(&geom, &plus[p], &minus[p], built_span.unwrap_or(y)) {
+                    Some(pairs) => {
+                        built_span.get_or_insert(y);
+                        Some(pairs)
+                    }
+                    None if spec.pitch.is_none() && built_span.is_none() => {
                         // Default span: the nearest span that pairs every slot.
                         (1..z)
                             .flat_map(|d| [y.checked_sub(d), Some(y + d)])
                             .flatten()
                             .filter(|&s| s >= 1 && s < z)
-                            .find_map(|s| pair_at_span(&geom, &plus[p], &minus[p], s))
+                            .find_map(|s| {
+                                pair_at_span(&geom, &plus[p], &minus[p], s)
+                                    .inspect(|_| built_span = Some(s))
+                            })
                     }
                     None => None,
                 }
@@ -366,15 +374,76 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
             back_layer: 0,
         }));
     }
-    let mut w = blank_winding(spec, geom, y, coils);
+    let mut w = blank_winding(spec, geom, built_span.unwrap_or(y), coils);
     let mut coils = std::mem::take(&mut w.coils);
     coils.sort_by_key(|c| (w.left_slot(c), c.go));
     w.coils = coils;
+    // The span reported is the span built: the most common coil span.
+    if spec.style == Style::Lap && !w.coils.is_empty() {
+        let mut spans: Vec<usize> = w
+            .coils
+            .iter()
+            .map(|c| w.span(c).unsigned_abs() as usize)
+            .collect();
+        spans.sort_unstable();
+        w.pitch = spans[spans.len() / 2];
+    }
     if spec.style == Style::Concentric {
         let total: i64 = w.coils.iter().map(|c| w.span(c).abs()).sum();
         w.pitch = (total as f64 / w.coils.len() as f64).round() as usize;
     }
     ensure_balanced(w, refuse)
+}
+
+/// A single-layer winding from alternate coils of the double-layer winding at an odd span:
+/// coils whose left side lies in an even slot. Their left sides fill the even slots and, the
+/// span being odd, their right sides the odd ones, one side per slot. This builds the
+/// balanced single-layer windings whose belts do not split into equal positive and negative
+/// halves (e.g. 18 slots, 4 poles; fractional-slot winding theory: Z even and
+/// Z/(m·gcd(Z, p)) whole). Spans are tried nearest the pole pitch first, the one asked for
+/// only when given; `None` when no odd span gives a balanced winding.
+fn alternate_coils(spec: &Spec, geom: &Geometry, y: usize) -> Option<Winding> {
+    let z = geom.slots;
+    if geom.topology != Topology::Rotary || !z.is_multiple_of(2) || spec.style != Style::Lap {
+        return None;
+    }
+    let double = Geometry::rotary(z, geom.poles, geom.phases, 2, geom.core);
+    let candidates: Vec<usize> = match spec.pitch {
+        Some(y) => vec![y],
+        None => (0..z)
+            .flat_map(|d| [y.checked_sub(d), Some(y + d)])
+            .flatten()
+            .filter(|&s| s >= 1 && 2 * s <= z)
+            .collect(),
+    };
+    let build = |s: usize| {
+        let coils: Vec<Coil> = double_layer_coils(&double, z, s, spec.turns_per_coil)
+            .into_iter()
+            .filter(|c| {
+                let left = if c.go_layer == 0 { c.go } else { c.back };
+                left.is_multiple_of(2)
+            })
+            .map(|c| Coil {
+                go_layer: 0,
+                back_layer: 0,
+                ..c
+            })
+            .collect();
+        let w = blank_winding(spec, geom.clone(), s, coils);
+        (w.is_balanced() && w.empty_slots().is_empty()).then_some(w)
+    };
+    // Of the odd spans that work, the one of highest k_w1 (the nearer the pole pitch on a
+    // tie, as the candidates come in that order).
+    let mut best: Option<(f64, Winding)> = None;
+    for s in candidates.into_iter().filter(|s| s % 2 == 1) {
+        if let Some(w) = build(s) {
+            let kw = crate::factors::fundamental(&w).winding;
+            if best.as_ref().is_none_or(|(k, _)| kw > k + 1e-12) {
+                best = Some((kw, w));
+            }
+        }
+    }
+    best.map(|(_, w)| w)
 }
 
 /// Tooth coils on teeth 0, 2, 4, …: coil i from slot 2i to slot 2i + 1, phase by the belt
