@@ -92,7 +92,15 @@ pub fn pitch_chart(r: &PitchReport) -> String {
             12.0,
             "coil span (slot pitches)",
         ))
-        .add(text(14.0, top - 10.0, 12.0, "winding factor"))
+        // The axis title stands along the axis, clear of the subtitle above the plot.
+        .add(
+            text(0.0, 0.0, 12.0, "winding factor")
+                .set("text-anchor", "middle")
+                .set(
+                    "transform",
+                    format!("translate(24 {}) rotate(-90)", top + ph / 2.0),
+                ),
+        )
         .add(
             Rectangle::new()
                 .set("x", left)
@@ -177,8 +185,9 @@ pub fn pitch_chart(r: &PitchReport) -> String {
             .add(marker(i, left + pw + 36.0, ly, ink))
             .add(text(left + pw + 62.0, ly + 4.0, 12.0, name));
     }
-    for (i, line) in crate::output::wrap(CAUTION, 120).iter().enumerate() {
-        doc = doc.add(text(left, h - 40.0 + 14.0 * i as f64, 10.0, line));
+    // Wrapped short enough that no line is cut.
+    for (i, line) in crate::output::wrap(CAUTION, 88).iter().enumerate() {
+        doc = doc.add(text(left, h - 46.0 + 13.0 * i as f64, 10.0, line));
     }
     doc.to_string()
 }
