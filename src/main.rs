@@ -331,6 +331,9 @@ enum TopologyArg {
     Linear,
 }
 
+/// Largest Σ(slots) × poles × planned layers a survey plans row by row.
+const SURVEY_PLANNED_WORK: f64 = 2.5e7;
+
 /// `A..=B`, `A..B` or a single number.
 fn parse_range(s: &str) -> Result<RangeInclusive<usize>, String> {
     let bad = || format!("{s:?} is not a range; write A..=B (e.g. 12..=48) or one number");
@@ -771,6 +774,24 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
     if combos > 2_000_000 {
         return Err(Failure::input(format!(
             "{combos} combinations is too many for one survey; narrow --slots or --poles"
+        )));
+    }
+    // Rows the star-of-slots kernel cannot score (single layer, flat primaries) are planned
+    // one by one at a cost that grows with the slot count: bound their total so a survey
+    // finishes in seconds (about 11 s at the bound on a 2-core machine).
+    let planned_layers = a
+        .layers
+        .iter()
+        .filter(|&&l| l == 1 || matches!(a.topology, TopologyArg::Linear))
+        .count();
+    let slot_sum: usize = (lo..=hi).sum();
+    let work = slot_sum as f64 * (phi - plo + 1) as f64 * planned_layers as f64;
+    if work > SURVEY_PLANNED_WORK {
+        return Err(Failure::input(format!(
+            "this survey would plan {} slot-rows one by one (single-layer or flat-primary \
+             rows); at most {} are planned in one survey; narrow --slots or --poles",
+            beltwright::numbering::short(work),
+            beltwright::numbering::short(SURVEY_PLANNED_WORK)
         )));
     }
     let query = SurveyQuery {

@@ -18,7 +18,8 @@ use serde::Serialize;
 use crate::layout::Spec;
 use crate::leakage::staircase_leakage;
 use crate::winding::{
-    Topology, build, double_layer_rotary_feasible, gcd, possible_path_counts, rotary_periodicity,
+    Topology, build_brief, double_layer_rotary_feasible, gcd, possible_path_counts,
+    rotary_periodicity,
 };
 
 /// What to survey.
@@ -309,7 +310,7 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
         phase_labels: (1..=m).map(|i| format!("P{i}")).collect(),
         ..Spec::basic(topology, z, poles, r.layers)
     };
-    match build(&spec) {
+    match build_brief(&spec) {
         Err(e) => {
             r.reason = Some(e.to_string());
         }

@@ -13,7 +13,7 @@ use thiserror::Error;
 pub use crate::layout::{Connection, Core, Style, Supply, Topology};
 pub use feasible::{double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity};
 pub use groups::{CoilGroup, assign_paths, coil_groups, possible_path_counts};
-pub use synth::{build, build_lenient, single_layer_rotary_feasible, with_span};
+pub use synth::{build, build_brief, build_lenient, single_layer_rotary_feasible, with_span};
 
 /// Why a spec could not become a winding.
 #[derive(Debug, Error, Clone, PartialEq)]

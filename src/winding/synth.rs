@@ -19,6 +19,12 @@ pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
     build_explained(spec, true)
 }
 
+/// [`build`] whose refusals give the reason without searching nearby slot counts: for
+/// surveys, which ask about every combination anyway.
+pub fn build_brief(spec: &Spec) -> Result<Winding, PlanError> {
+    build_explained(spec, false)
+}
+
 /// [`build`], with refusal texts worked out (`explain`) or left empty: probes that try many
 /// spans only need to know whether one works, and some texts search every span.
 fn build_explained(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
@@ -281,7 +287,10 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
         Topology::Linear => Geometry::linear(z, z, poles, m, 1, spec.core),
     };
     let refuse = || match spec.topology {
-        _ if !explain => String::new(),
+        // Probes and surveys get the reason without the search for nearby slot counts.
+        _ if !explain => format!(
+            "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles"
+        ),
         Topology::Rotary => rotary_refusal(z, poles, m, 1),
         Topology::Linear => format!(
             "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles \
@@ -350,7 +359,10 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
         };
         let pairs = pairs.ok_or_else(|| {
             if !explain {
-                return PlanError::Infeasible(String::new());
+                return PlanError::Infeasible(format!(
+                    "span {y} cannot pair the single-layer slots of phase {} in lap coils",
+                    spec.phase_labels[p]
+                ));
             }
             let spans = single_layer_spans(&geom, &plus, &minus);
             PlanError::Infeasible(format!(
@@ -407,13 +419,20 @@ fn alternate_coils(spec: &Spec, geom: &Geometry, y: usize) -> Option<Winding> {
     if geom.topology != Topology::Rotary || !z.is_multiple_of(2) || spec.style != Style::Lap {
         return None;
     }
+    // The double layer must exist first (Z/(m·gcd(Z, p)) whole): otherwise no span can work.
+    if !double_layer_rotary_feasible(z, geom.poles, geom.phases) {
+        return None;
+    }
     let double = Geometry::rotary(z, geom.poles, geom.phases, 2, geom.core);
+    // The four odd spans nearest the pole pitch: k_w1 falls away from it, so the best lies
+    // among them, and the work stays linear in the slot count.
     let candidates: Vec<usize> = match spec.pitch {
         Some(y) => vec![y],
         None => (0..z)
             .flat_map(|d| [y.checked_sub(d), Some(y + d)])
             .flatten()
-            .filter(|&s| s >= 1 && 2 * s <= z)
+            .filter(|&s| s >= 1 && 2 * s <= z && s % 2 == 1)
+            .take(4)
             .collect(),
     };
     let build = |s: usize| {
