@@ -172,6 +172,15 @@ fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
         }
         a.pitch.cmp(&b.pitch)
     };
+    // Only spans a winder would build are recommended: within the band around the pole
+    // pitch that `warnings` accepts, or tooth coils (span 1). Every span is still listed.
+    let buildable = |r: &&PitchRow| {
+        r.pitch == 1
+            || (crate::warnings::SPAN_BAND.0..=crate::warnings::SPAN_BAND.1)
+                .contains(&r.span_over_pole_pitch)
+    };
+    let rows: Vec<PitchRow> = rows.iter().filter(buildable).cloned().collect();
+    let rows = &rows[..];
     let keep: Vec<&PitchRow> = rows.iter().filter(|r| r.meets_floor).collect();
     let named = goal.suppress.iter().map(|o| num(*o, 3)).join(", ");
     if let Some(best) = keep.iter().copied().min_by(|a, b| better(a, b)) {
@@ -191,7 +200,12 @@ fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
         );
         return (Some(best.pitch), reason);
     }
-    match rows.iter().max_by(|a, b| a.winding.total_cmp(&b.winding)) {
+    // The highest k_w1; on a tie (within rounding) the shorter span, as above.
+    let highest = rows.iter().fold(None::<&PitchRow>, |best, r| match best {
+        Some(b) if r.winding <= b.winding + 1e-12 => Some(b),
+        _ => Some(r),
+    });
+    match highest {
         Some(best) => (
             Some(best.pitch),
             format!(

@@ -56,6 +56,10 @@ pub struct SurveyRow {
     pub pitch: Option<usize>,
     /// k_w1 at the best span.
     pub winding: Option<f64>,
+    /// The span of highest k_w1 (often full pitch), and its k_w1.
+    pub max_winding_pitch: Option<usize>,
+    /// k_w1 at `max_winding_pitch`.
+    pub max_winding: Option<f64>,
     /// Differential leakage σ_d at the best span (exact).
     pub differential_leakage: Option<f64>,
     /// Machine periodicity gcd(Z, p) (rotary).
@@ -197,6 +201,8 @@ fn row(
         q_fraction,
         pitch: None,
         winding: None,
+        max_winding_pitch: None,
+        max_winding: None,
         differential_leakage: None,
         periodicity: None,
         lcm: None,
@@ -226,28 +232,96 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, buf: &mut Vec<f64>) -> SurveyRo
         ));
         return r;
     }
-    // Best span by the pitch factor |sin(y·x)|, x = π·p/Z, by recurrence, among spans up
-    // to the next whole number above the pole pitch (longer coils only alias shorter ones).
-    let x = PI * p as f64 / z as f64;
-    let two_cos = 2.0 * x.cos();
-    let (mut prev, mut cur) = (0.0f64, x.sin());
-    let (mut best_y, mut best_kp) = (0, -1.0);
-    let longest = (z / 2).min(z.div_ceil(poles)).max(1);
-    for y in 1..=longest {
-        let kp = cur.abs();
-        if kp > best_kp + 1e-12 {
-            (best_y, best_kp) = (y, kp);
+    // k_d of the 60° belts at the fundamental and at the orders the span comparison names,
+    // exactly, from the belt sum over phase 1's coil left sides (a uniform span splits the
+    // coil EMF into belt sum and chord): one table of the Z roots of unity, stepped by
+    // integer index, no trigonometry per slot.
+    let roots = roots_of_unity(z);
+    let coils_per_phase = (z / m) as f64;
+    let kd_at = |nu: usize| {
+        let (mut re, mut im) = (0.0, 0.0);
+        for k in 0..z {
+            let a = (k * p) % z;
+            let belt = (2 * m * a / z).min(2 * m - 1);
+            let sign = match belt {
+                0 => 1.0,
+                _ if belt == m => -1.0,
+                _ => continue,
+            };
+            let (c, s) = roots[(nu * a) % z];
+            re += sign * c;
+            im -= sign * s;
         }
-        (prev, cur) = (cur, two_cos * cur - prev);
+        (re * re + im * im).sqrt() / coils_per_phase
+    };
+    let orders = [5usize, 7, 11, 13];
+    let kd1 = kd_at(1);
+    let kds = orders.map(kd_at);
+    // Every span up to the next whole number above the pole pitch (longer coils only alias
+    // shorter ones), scored as `pitch` recommends: the least content Σ(k_wν/k_w1)² of orders
+    // 5, 7, 11, 13 among spans keeping k_w1 ≥ 0.9; ties to the higher k_w1, then the shorter
+    // span; if none keeps the floor, the highest k_w1. Pitch factors |sin(ν·y·x)| by
+    // recurrence in y, x = π·p/Z.
+    let x = PI * p as f64 / z as f64;
+    let mut rec: Vec<(f64, f64, f64)> = std::iter::once(1usize)
+        .chain(orders)
+        .map(|nu| {
+            let a = nu as f64 * x;
+            (2.0 * a.cos(), 0.0, a.sin())
+        })
+        .collect();
+    // The spans `pitch` would recommend: within 0.5..1.5 pole pitches, or tooth coils.
+    let tau = z as f64 / poles as f64;
+    let (lo, hi) = crate::warnings::SPAN_BAND;
+    let longest = (z / 2).min((hi * tau + 1e-9).floor() as usize).max(1);
+    let buildable = |y: usize| y == 1 || y as f64 / tau >= lo - 1e-12;
+    let floor = 0.9;
+    let mut best: Option<(usize, f64, f64)> = None; // (span, content, k_w1)
+    let mut highest = (0usize, -1.0f64);
+    for y in 1..=longest {
+        let kw1 = kd1 * rec[0].2.abs();
+        if !buildable(y) {
+            for r in &mut rec {
+                (r.1, r.2) = (r.2, r.0 * r.2 - r.1);
+            }
+            continue;
+        }
+        if kw1 > highest.1 + 1e-12 {
+            highest = (y, kw1);
+        }
+        if kw1 >= floor - 1e-12 && kw1 > 0.0 {
+            let content: f64 = kds
+                .iter()
+                .zip(&rec[1..])
+                .map(|(kd, r)| (kd * r.2.abs() / kw1).powi(2))
+                .sum();
+            let better = match best {
+                None => true,
+                Some((_, c, k)) => {
+                    if (content - c).abs() > 1e-9 {
+                        content < c
+                    } else {
+                        kw1 > k + 1e-12
+                    }
+                }
+            };
+            if better {
+                best = Some((y, content, kw1));
+            }
+        }
+        for r in &mut rec {
+            (r.1, r.2) = (r.2, r.0 * r.2 - r.1);
+        }
     }
-    // k_d1 of 60° belts on a fractional-slot star: b phasors 60°/b apart.
-    let (b, _, _) = fraction(z as u64, (m * poles) as u64);
-    let b = b as f64;
-    let half_belt = PI / (2.0 * m as f64);
-    let kd = half_belt.sin() / (b * (half_belt / b).sin());
+    let (best_y, best_kw) = match best {
+        Some((y, _, k)) => (y, k),
+        None => highest,
+    };
     r.feasible = true;
     r.pitch = Some(best_y);
-    r.winding = Some(kd * best_kp);
+    r.winding = Some(best_kw);
+    r.max_winding_pitch = Some(highest.0);
+    r.max_winding = Some(highest.1);
     belt_currents(z, p, m, buf);
     slot_currents(buf, best_y);
     r.differential_leakage = staircase_leakage(&buf[z..], p as u64);
@@ -258,6 +332,23 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, buf: &mut Vec<f64>) -> SurveyRo
         .find(|&n| order_amplitude(&buf[z..], n) > 1e-9 * order_amplitude(&buf[z..], p))
         .map(|n| n as f64 / p as f64);
     r
+}
+
+/// cos and sin of 2πk/Z for k in 0..Z, by complex multiplication with a fresh exact value
+/// every 64 steps (no rounding build-up on large cores).
+fn roots_of_unity(z: usize) -> Vec<(f64, f64)> {
+    let step = 2.0 * PI / z as f64;
+    let (ss, sc) = step.sin_cos();
+    let mut out = Vec::with_capacity(z);
+    let (mut c, mut s) = (1.0f64, 0.0f64);
+    for k in 0..z {
+        if k % 64 == 0 {
+            (s, c) = (step * k as f64).sin_cos();
+        }
+        out.push((c, s));
+        (c, s) = (c * sc - s * ss, s * sc + c * ss);
+    }
+    out
 }
 
 /// c_k = s_k·cos(2πφ_k/m) for the 60° belt (φ_k, s_k) of slot k, into `buf[..z]`.
@@ -322,6 +413,8 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
             r.feasible = true;
             r.pitch = Some(w.pitch);
             r.winding = Some(crate::factors::fundamental(&w).winding);
+            r.max_winding_pitch = r.pitch;
+            r.max_winding = r.winding;
             r.differential_leakage = crate::leakage::differential_leakage(&w);
             r.parallel_paths = possible_path_counts(&w);
             if topology == Topology::Rotary {

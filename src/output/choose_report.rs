@@ -112,6 +112,8 @@ impl Report for SurveyReport {
             ("q", Align::Left),
             ("pitch", Align::Right),
             ("k_w1", Align::Right),
+            ("kw1 max", Align::Right),
+            ("at", Align::Right),
             ("sigma_d", Align::Right),
             ("t", Align::Right),
             ("lcm", Align::Right),
@@ -129,6 +131,10 @@ impl Report for SurveyReport {
                 r.q_fraction.clone(),
                 r.pitch.map(|p| p.to_string()).unwrap_or_default(),
                 r.winding.map(|w| format!("{w:.4}")).unwrap_or_default(),
+                r.max_winding.map(|w| format!("{w:.4}")).unwrap_or_default(),
+                r.max_winding_pitch
+                    .map(|p| p.to_string())
+                    .unwrap_or_default(),
                 r.differential_leakage
                     .map(|w| format!("{w:.5}"))
                     .unwrap_or_default(),
