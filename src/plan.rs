@@ -4,9 +4,7 @@ use serde::Serialize;
 
 use crate::factors::{self, FactorRow};
 use crate::linear::{self, Figures, Operating};
-use crate::winding::{
-    Connection, Style, Topology, Winding, coil_groups, possible_path_counts, rotary_periodicity,
-};
+use crate::winding::{Connection, Style, Topology, Winding, coil_groups, possible_path_counts};
 
 pub use crate::safety::CAUTION;
 
@@ -104,8 +102,10 @@ pub struct PlanReport {
     pub slots_per_pole_phase: f64,
     /// q as a reduced fraction, e.g. "5/4".
     pub slots_per_pole_phase_fraction: String,
-    /// Machine periodicity gcd(Z, p) of a rotary core.
+    /// How many times the winding repeats round a rotary core, from its coils.
     pub periodicity: Option<usize>,
+    /// True when the winding has no half-turn symmetry: unbalanced magnetic pull.
+    pub unbalanced_pull: Option<bool>,
     /// Phases equal and 2π/m apart at the fundamental.
     pub balanced: bool,
     /// Fundamental winding factor k_w1.
@@ -255,7 +255,8 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         } else {
             format!("{qn}/{qd}")
         },
-        periodicity: (g.topology == Topology::Rotary).then(|| rotary_periodicity(g.slots, g.poles)),
+        periodicity: (g.topology == Topology::Rotary).then(|| w.periodicity()),
+        unbalanced_pull: (g.topology == Topology::Rotary).then(|| !w.balanced_pull()),
         balanced: w.is_balanced(),
         winding_factor: fundamental.winding,
         fundamental,

@@ -391,10 +391,7 @@ fn order_amplitude(currents: &[f64], n: usize) -> f64 {
 fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
     let (z, poles) = (r.slots, r.poles);
     if topology == Topology::Rotary {
-        let t = rotary_periodicity(z, poles);
-        r.periodicity = Some(t);
         r.lcm = Some(lcm(z, poles));
-        r.unbalanced_pull = Some(t == 1 && z % 2 == 1);
     }
     let spec = Spec {
         phases: m,
@@ -418,8 +415,11 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
             r.differential_leakage = crate::leakage::differential_leakage(&w);
             r.parallel_paths = possible_path_counts(&w);
             if topology == Topology::Rotary {
+                // Symmetry from the coils themselves, as plan reports it.
                 let p = poles / 2;
-                let t = rotary_periodicity(z, poles);
+                let t = w.periodicity();
+                r.periodicity = Some(t);
+                r.unbalanced_pull = Some(!w.balanced_pull());
                 let mut cur = Vec::new();
                 crate::leakage::slot_currents_into(&w, &mut cur);
                 r.lowest_subharmonic = (1..p)

@@ -346,10 +346,46 @@ fn plan_survey_and_audit_agree_on_what_exists() {
             let kw = factors::fundamental(&at).winding;
             let k = row.winding.expect("k_w1");
             assert!((kw - k).abs() < 1e-9, "{z}/{p2}/{layers}: {kw} vs {k}");
+            // Symmetry from the coils: the survey's periodicity and pull are the plan's.
+            let pl = plan::plan(&at, Default::default());
+            assert_eq!(
+                row.periodicity, pl.periodicity,
+                "{z}/{p2}/{layers}: periodicity"
+            );
+            assert_eq!(
+                row.unbalanced_pull, pl.unbalanced_pull,
+                "{z}/{p2}/{layers}: pull"
+            );
             checked += 1;
         }
     }
     // 319 feasible combinations in this range today; the check guards against a survey
     // that silently stops reporting rows.
     assert!(checked >= 300, "{checked}");
+}
+
+// Single-layer tooth coils wind every other tooth, so they repeat gcd(Z/2, p) times, not
+// gcd(Z, p): 12 slots, 8 poles gives 2 against the double layer's gcd(12, 4) = 4 (counted
+// from the coil list, as the symmetry of the winding itself).
+#[test]
+fn periodicity_comes_from_the_coils() {
+    let src = |layers: usize| {
+        format!(
+            "[machine]\ntopology = \"rotary\"\nslots = 12\npoles = 8\n[winding]\nlayers = {layers}\npitch = 1\n"
+        )
+    };
+    let single = plan::plan(&wind(&src(1)), Default::default());
+    let double = plan::plan(&wind(&src(2)), Default::default());
+    assert_eq!(single.periodicity, Some(2));
+    assert_eq!(double.periodicity, Some(4));
+    // 9 slots, 8 poles: no symmetry at all, so unbalanced pull (common practice for odd
+    // slot counts with t = 1).
+    let nine = plan::plan(
+        &wind(
+            "[machine]\ntopology = \"rotary\"\nslots = 9\npoles = 8\n[winding]\nlayers = 2\npitch = 1\n",
+        ),
+        Default::default(),
+    );
+    assert_eq!(nine.periodicity, Some(1));
+    assert_eq!(nine.unbalanced_pull, Some(true));
 }

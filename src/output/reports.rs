@@ -71,7 +71,14 @@ impl Report for PlanReport {
                 self.parallel_paths,
                 self.connection,
                 self.periodicity
-                    .map(|t| format!(", periodicity {t}"))
+                    .map(|t| format!(
+                        ", periodicity {t}{}",
+                        if self.unbalanced_pull == Some(true) {
+                            " (no half-turn symmetry: unbalanced pull)"
+                        } else {
+                            ""
+                        }
+                    ))
                     .unwrap_or_default()
             ),
             format!(

@@ -344,6 +344,76 @@ impl Winding {
         (active / g, den / g)
     }
 
+    /// What each slot holds, as a canonical list of (phase, current sign, layer, turns),
+    /// for symmetry tests.
+    fn contents(&self) -> Vec<Vec<(usize, i8, usize, u32)>> {
+        let mut c = vec![Vec::new(); self.geometry.slots];
+        for coil in &self.coils {
+            c[coil.go].push((coil.phase, 1, coil.go_layer, coil.turns));
+            c[coil.back].push((coil.phase, -1, coil.back_layer, coil.turns));
+        }
+        for v in &mut c {
+            v.sort_unstable();
+        }
+        c
+    }
+
+    /// True when shifting every coil by `k` slots gives the same winding (with every
+    /// current reversed when `flip`).
+    fn shifted_equal(contents: &[Vec<(usize, i8, usize, u32)>], k: usize, flip: bool) -> bool {
+        let z = contents.len();
+        let mut flipped = Vec::new();
+        (0..z).all(|s| {
+            let a = &contents[s];
+            let b = &contents[(s + k) % z];
+            if !flip {
+                return a == b;
+            }
+            // Compare as multisets: reversing the currents changes the sorted order.
+            flipped.clear();
+            flipped.extend(
+                b.iter()
+                    .map(|&(ph, sign, layer, turns)| (ph, -sign, layer, turns)),
+            );
+            flipped.sort_unstable();
+            *a == flipped
+        })
+    }
+
+    /// Periodicity of a closed core from its coils: how many times the winding repeats
+    /// round the core (shifts by whole electrical periods that map every coil onto a coil of
+    /// the same phase, polarity, layer and turns). A double-layer lap winding repeats
+    /// gcd(Z, p) times; single-layer tooth coils only gcd(Z/2, p). 1 for a flat primary.
+    pub fn periodicity(&self) -> usize {
+        let g = &self.geometry;
+        if g.topology != Topology::Rotary || g.slots == 0 {
+            return 1;
+        }
+        let z = g.slots;
+        let p = g.poles / 2;
+        let contents = self.contents();
+        // Shifts by whole electrical periods are the multiples of Z/gcd(Z, p).
+        let step = z / gcd(z as u64, p as u64).max(1) as usize;
+        (0..z)
+            .step_by(step.max(1))
+            .filter(|&k| Self::shifted_equal(&contents, k, false))
+            .count()
+    }
+
+    /// True when the winding's MMF has a half-turn symmetry (the winding repeats at least
+    /// twice round the core, or half a turn maps it onto itself with every current
+    /// reversed): then the radial forces balance and there is no unbalanced magnetic pull.
+    pub fn balanced_pull(&self) -> bool {
+        let z = self.geometry.slots;
+        if self.geometry.topology != Topology::Rotary {
+            return true;
+        }
+        if self.periodicity() >= 2 {
+            return true;
+        }
+        z.is_multiple_of(2) && Self::shifted_equal(&self.contents(), z / 2, true)
+    }
+
     /// Label of a phase.
     pub fn label(&self, phase: usize) -> &str {
         &self.phase_labels[phase]
