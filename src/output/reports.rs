@@ -74,7 +74,7 @@ impl Report for PlanReport {
                     .map(|t| format!(
                         ", periodicity {t}{}",
                         if self.unbalanced_pull == Some(true) {
-                            " (no half-turn symmetry: unbalanced pull)"
+                            ", unbalanced pull"
                         } else {
                             ""
                         }
