@@ -38,6 +38,9 @@ pub struct FactorTable {
     pub phase: String,
     /// Rows in increasing order.
     pub rows: Vec<FactorRow>,
+    /// True for a single-layer winding (tooth coils aside), whose factors are reported as
+    /// distribution with k_p = 1: its slot contents fix the field whatever the span.
+    pub single_layer: bool,
 }
 
 /// Textbook closed forms, valid for integer-slot lap windings of uniform span.
@@ -75,7 +78,9 @@ pub mod closed {
     }
 }
 
-/// Factors of `phase` at electrical order `order`, by phasor sums over its coils.
+/// Factors of `phase` at electrical order `order`, by phasor sums over its coils. Coils of
+/// one span split exactly into belt sum (k_d) and chord (k_p); double-layer coils of
+/// different spans use the mean span for k_p; single-layer windings report k_p = 1.
 pub fn factors_at(w: &Winding, phase: usize, order: f64) -> FactorRow {
     let g = &w.geometry;
     let coils: Vec<_> = w.coils.iter().filter(|c| c.phase == phase).collect();
@@ -96,6 +101,22 @@ pub fn factors_at(w: &Winding, phase: usize, order: f64) -> FactorRow {
         };
     }
     let spans: Vec<i64> = coils.iter().map(|c| w.span(c).abs()).collect();
+    // One convention for single-layer windings (tooth coils aside): each slot holds one
+    // side, so the slot contents alone fix the EMF and the MMF whatever the coil span or
+    // shape (lap, concentric, short-pitched): the whole factor is reported as distribution,
+    // with k_p = 1. A shortened single-layer span changes the end connections, not the field.
+    if g.layers == 1 && spans.iter().any(|&y| y != 1) {
+        let sum: Complex64 = coils.iter().map(|c| w.coil_emf(c, order)).sum();
+        let kd = sum.norm() / turns;
+        return FactorRow {
+            order,
+            mech_order,
+            distribution: kd,
+            pitch: 1.0,
+            skew,
+            winding: kd * skew,
+        };
+    }
     let uniform = spans.windows(2).all(|s| s[0] == s[1]);
     let (distribution, pitch) = if uniform {
         // Coil EMF = s·N·e^{−jνθ_left}·(1 − e^{−jνθ_y})/2: the belt sum and the chord split
@@ -169,6 +190,7 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
     FactorTable {
         phase: w.phase_labels[0].clone(),
         rows,
+        single_layer: g.layers == 1 && w.coils.iter().any(|c| w.span(c).abs() != 1),
     }
 }
 

@@ -389,3 +389,31 @@ fn periodicity_comes_from_the_coils() {
     assert_eq!(nine.periodicity, Some(1));
     assert_eq!(nine.unbalanced_pull, Some(true));
 }
+
+// A single-layer lap winding shortened from full pitch keeps every slot's contents, so its
+// EMF and MMF are those of full pitch (the coil EMFs sum over the same slot sides): no
+// pitch factor below 1 is shown, and the factors table says why. 24 slots, 4 poles, q = 2:
+// k_w1 = k_d1 = sin(30°)/(2·sin 15°) = 0.9659 (Say 1983, §4.4).
+#[test]
+fn a_short_single_layer_span_suppresses_nothing_and_says_so() {
+    let at = |y: usize| {
+        wind(&format!(
+            "[machine]\ntopology = \"rotary\"\nslots = 24\npoles = 4\n[winding]\nlayers = 1\npitch = {y}\n"
+        ))
+    };
+    for y in [5, 6] {
+        let w = at(y);
+        let t = factors::factor_table(&w, 13.0);
+        let first = t.rows[0];
+        assert_eq!(first.pitch, 1.0);
+        let kd = 30f64.to_radians().sin() / (2.0 * 15f64.to_radians().sin());
+        assert!(
+            (first.winding - kd).abs() < 1e-12,
+            "span {y}: {}",
+            first.winding
+        );
+        assert!(t.single_layer);
+        let text = render(&t, Format::Text).expect("text");
+        assert!(text.contains("suppresses nothing"));
+    }
+}

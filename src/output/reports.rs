@@ -252,10 +252,21 @@ impl Report for PlanReport {
 
 impl Report for FactorTable {
     fn sections(&self) -> Vec<Section> {
-        vec![
-            Section::Heading(format!("Winding factors of phase {}", self.phase)),
-            Section::Table(self.main_table()),
-        ]
+        let mut s = vec![Section::Heading(format!(
+            "Winding factors of phase {}",
+            self.phase
+        ))];
+        if self.single_layer {
+            s.push(Section::Lines(wrap(
+                "Single layer: each slot holds one coil side, so the slot contents fix the \
+                 field whatever the coil span or shape; a shorter span changes only the end \
+                 connections and suppresses nothing. The whole factor is shown as k_d, with \
+                 k_p = 1.",
+                78,
+            )));
+        }
+        s.push(Section::Table(self.main_table()));
+        s
     }
 
     fn main_table(&self) -> Table {
