@@ -417,3 +417,56 @@ fn a_short_single_layer_span_suppresses_nothing_and_says_so() {
         assert!(text.contains("suppresses nothing"));
     }
 }
+
+fn hoist(name: &str) -> Winding {
+    let src = std::fs::read_to_string(format!("layouts/{name}.toml")).expect("layout");
+    wind(&src)
+}
+
+// Audit against the intended design gives one finding per fault: one reversed coil is one
+// finding; leads swapped plus a reversed coil are two (they gave 2 and 27 before).
+#[test]
+fn audit_with_the_design_gives_one_finding_per_fault() {
+    let design = hoist("hoist-rewind-sound");
+    let mut one = design.clone();
+    one.from_coil_list = true;
+    let c = &mut one.coils[4];
+    (c.go, c.back, c.go_layer, c.back_layer) = (c.back, c.go, c.back_layer, c.go_layer);
+    let r = audit::audit(&one, Some(&design));
+    assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
+    assert_eq!(r.findings[0].coils, vec![5]);
+
+    let mut two = one.clone();
+    for c in &mut two.coils {
+        c.phase = match c.phase {
+            1 => 2,
+            2 => 1,
+            p => p,
+        };
+    }
+    let r = audit::audit(&two, Some(&design));
+    assert_eq!(r.findings.len(), 2, "{:#?}", r.findings);
+}
+
+// A coil recorded with one slot number wrong spans one more than its group: named.
+#[test]
+fn audit_pinpoints_a_coil_whose_span_differs_from_its_group() {
+    let mut w = hoist("hoist-rewind-sound");
+    w.from_coil_list = true;
+    let z = w.geometry.slots;
+    let c = &mut w.coils[7];
+    // Move the back side one slot further along (its layer stays): span + 1 or − 1.
+    c.back = if c.back > c.go {
+        (c.back + 1) % z
+    } else {
+        (c.back + z - 1) % z
+    };
+    let r = audit::audit(&w, None);
+    assert!(
+        r.findings
+            .iter()
+            .any(|f| f.kind == audit::FindingKind::SpanDiffers && f.coils == vec![8]),
+        "{:#?}",
+        r.findings
+    );
+}

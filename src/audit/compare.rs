@@ -26,17 +26,20 @@ pub struct Comparison {
     pub findings: Vec<Finding>,
 }
 
+/// What each slot holds, top layer first, then bottom: one order for record and design.
 fn sides(w: &Winding) -> Vec<Vec<String>> {
-    let mut s = vec![Vec::new(); w.geometry.slots];
+    let mut s: Vec<Vec<(usize, String)>> = vec![Vec::new(); w.geometry.slots];
     for c in &w.coils {
         let l = w.label(c.phase);
-        s[c.go].push(format!("+{l}"));
-        s[c.back].push(format!("-{l}"));
+        s[c.go].push((c.go_layer, format!("+{l}")));
+        s[c.back].push((c.back_layer, format!("-{l}")));
     }
-    for v in &mut s {
-        v.sort();
-    }
-    s
+    s.into_iter()
+        .map(|mut v| {
+            v.sort();
+            v.into_iter().map(|(_, t)| t).collect()
+        })
+        .collect()
 }
 
 /// Compare `found` with `design` slot by slot and coil by coil.

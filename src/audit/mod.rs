@@ -62,6 +62,8 @@ pub enum FindingKind {
     MeasuredResistance,
     /// The phases have no fundamental EMF: the coil groups are not connected alternately.
     NoFundamental,
+    /// A coil's span differs from the rest of its group.
+    SpanDiffers,
 }
 
 /// One thing wrong with the winding, and what to do about it.
@@ -638,6 +640,52 @@ fn odd_turns(w: &Winding) -> Option<Finding> {
     })
 }
 
+/// Coils whose span differs from the rest of their group (and that the fix does not
+/// explain): most often a slot number written down wrong.
+fn odd_spans(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
+    let mut out = Vec::new();
+    let explained: Vec<usize> = fix.iter().flat_map(|e| e.coils()).collect();
+    for g in coil_groups(w) {
+        if g.coils.len() < 3 {
+            continue;
+        }
+        let spans: Vec<u64> = g
+            .coils
+            .iter()
+            .map(|&c| w.span(&w.coils[c]).unsigned_abs())
+            .collect();
+        let mut sorted = spans.clone();
+        sorted.sort_unstable();
+        let usual = sorted[sorted.len() / 2];
+        let odd: Vec<usize> = g
+            .coils
+            .iter()
+            .zip(&spans)
+            .filter(|(c, s)| **s != usual && !explained.contains(c))
+            .map(|(c, _)| *c)
+            .collect();
+        if odd.len() == 1 {
+            let c = odd[0];
+            let coil = &w.coils[c];
+            out.push(Finding {
+                kind: FindingKind::SpanDiffers,
+                coils: vec![c + 1],
+                slots: vec![coil.go + 1, coil.back + 1],
+                phases: vec![w.label(coil.phase).to_string()],
+                message: format!(
+                    "coil {} spans {} where the others of its group span {usual}: a slot \
+                     number was probably recorded wrong (in at slot {}, out at slot {})",
+                    c + 1,
+                    w.span(coil).unsigned_abs(),
+                    coil.go + 1,
+                    coil.back + 1
+                ),
+            });
+        }
+    }
+    out
+}
+
 /// Audit a recorded winding, optionally against the intended design.
 pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     let bal = balance(w);
@@ -719,10 +767,17 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             ),
         });
     }
-    let intended = intended.map(|d| compare(w, d));
+    // One finding per fault: the slot table compares the record as found, but the coil
+    // findings only what the smallest fix leaves different from the design.
+    let intended = intended.map(|d| {
+        let mut c = compare(w, d);
+        c.findings = compare(&fixed, d).findings;
+        c
+    });
     if let Some(c) = &intended {
         findings.extend(c.findings.iter().cloned());
     }
+    findings.extend(odd_spans(w, &fix));
     let g = &w.geometry;
     let labels: Vec<String> = w.phase_labels.iter().map(|l| format!("{l}1")).collect();
     let towards = match bal.sequence {

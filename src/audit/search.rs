@@ -71,6 +71,15 @@ pub enum Edit {
 }
 
 impl Edit {
+    /// The coils an edit touches (0-based); none for a whole-phase edit.
+    pub fn coils(&self) -> Vec<usize> {
+        match self {
+            Edit::ReverseCoil { coil } | Edit::MoveCoil { coil, .. } => vec![*coil],
+            Edit::ReverseGroup { coils } => coils.clone(),
+            _ => Vec::new(),
+        }
+    }
+
     /// How many shop edits this counts as.
     pub fn cost(&self) -> usize {
         match self {
