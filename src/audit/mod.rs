@@ -644,6 +644,10 @@ fn odd_turns(w: &Winding) -> Option<Finding> {
 /// explain): most often a slot number written down wrong.
 fn odd_spans(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
     let mut out = Vec::new();
+    // Concentric groups nest coils of different spans by design.
+    if w.style == crate::winding::Style::Concentric {
+        return out;
+    }
     let explained: Vec<usize> = fix.iter().flat_map(|e| e.coils()).collect();
     for g in coil_groups(w) {
         if g.coils.len() < 3 {
