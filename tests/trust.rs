@@ -470,3 +470,48 @@ fn audit_pinpoints_a_coil_whose_span_differs_from_its_group() {
         r.findings
     );
 }
+
+// A flat primary's current sheet has finite length, so its wavenumber transform is
+// continuous (a finite sinusoid's transform is a sinc; Fourier theory): the field report
+// samples it finely, agrees with the whole-order rows where they meet, and shows the
+// components between whole orders that sampling at whole orders missed.
+#[test]
+fn a_flat_primary_has_a_continuous_spectrum() {
+    let v = json(&[
+        "field",
+        "layouts/pallet-shuttle.toml",
+        "--format",
+        "json",
+        "--upto",
+        "13",
+    ]);
+    let lin = &v["linear"];
+    let cont = lin["continuous"].as_array().expect("continuous spectrum");
+    assert!(cont.len() > 100);
+    for row in v["rows"].as_array().expect("rows") {
+        let nu = row["order"].as_f64().expect("order");
+        if let Some(p) = cont
+            .iter()
+            .find(|p| (p["order"].as_f64().unwrap_or(-1.0) - nu).abs() < 1e-9)
+        {
+            let (f, b) = (
+                p["forward"].as_f64().unwrap_or(-1.0),
+                p["backward"].as_f64().unwrap_or(-1.0),
+            );
+            assert!(
+                (f - row["forward"].as_f64().unwrap_or(-2.0)).abs() < 1e-9,
+                "order {nu}"
+            );
+            assert!(
+                (b - row["backward"].as_f64().unwrap_or(-2.0)).abs() < 1e-9,
+                "order {nu}"
+            );
+        }
+    }
+    let between = &lin["strongest_between_orders"];
+    let amp = between["forward"]
+        .as_f64()
+        .unwrap_or(0.0)
+        .max(between["backward"].as_f64().unwrap_or(0.0));
+    assert!(amp > 1e-3, "{between}");
+}

@@ -153,6 +153,7 @@ fn sheet(rep: &FieldReport, snaps: &[Snapshot], a: Rect) -> Group {
         num(rep.thd * 100.0, 2),
         num(rep.winding_factor, 4),
         rep.linear
+            .as_ref()
             .map(|l| format!(
                 " Open primary: backward fundamental {} and pulsating part {} of the working wave.",
                 num(l.backward_wave, 4),

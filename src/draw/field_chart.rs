@@ -132,21 +132,26 @@ fn speed_text(rep: &FieldReport) -> String {
     };
     let tau = rep.slots as f64 / rep.poles as f64;
     let speed = match rep.topology {
-        Topology::Linear => rep.linear.and_then(|l| l.field_speed_m_s).map(|v| {
-            let sec = rep
-                .linear
-                .and_then(|l| l.secondary_speed_m_s)
-                .zip(rep.figures.slip)
-                .map(|(s, slip)| {
-                    format!(
-                        "; secondary {}\u{a0}m/s at slip {}",
-                        num(s, 3),
-                        num(slip, 3)
-                    )
-                })
-                .unwrap_or_default();
-            format!("v_s = 2·f·τ = {}\u{a0}m/s{sec}", num(v, 3))
-        }),
+        Topology::Linear => rep
+            .linear
+            .as_ref()
+            .and_then(|l| l.field_speed_m_s)
+            .map(|v| {
+                let sec = rep
+                    .linear
+                    .as_ref()
+                    .and_then(|l| l.secondary_speed_m_s)
+                    .zip(rep.figures.slip)
+                    .map(|(s, slip)| {
+                        format!(
+                            "; secondary {}\u{a0}m/s at slip {}",
+                            num(s, 3),
+                            num(slip, 3)
+                        )
+                    })
+                    .unwrap_or_default();
+                format!("v_s = 2·f·τ = {}\u{a0}m/s{sec}", num(v, 3))
+            }),
         Topology::Rotary => rep.figures.synchronous_speed_rpm.map(|n| {
             let v = rep
                 .figures
@@ -159,6 +164,7 @@ fn speed_text(rep: &FieldReport) -> String {
     let pitch = match rep.topology {
         Topology::Linear => rep
             .linear
+            .as_ref()
             .map(|l| std::f64::consts::PI / l.synchronous_wavenumber_rad_slot)
             .unwrap_or(tau),
         Topology::Rotary => tau,
@@ -175,7 +181,7 @@ fn speed_text(rep: &FieldReport) -> String {
 fn unwrapped_crests(rep: &FieldReport, snaps: &[Snapshot]) -> Vec<f64> {
     let z = rep.slots as f64;
     let period = 2.0 * z / rep.poles.max(1) as f64;
-    let period = match rep.linear {
+    let period = match &rep.linear {
         Some(l) => 2.0 * std::f64::consts::PI / l.synchronous_wavenumber_rad_slot,
         None => period,
     };
@@ -496,7 +502,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
                 .join(", ")
         ),
     ];
-    if let Some(l) = rep.linear {
+    if let Some(l) = &rep.linear {
         cells.push(format!(
             "at π/τ: backward {}, pulsating {} (of forward)",
             num(l.backward_wave, 4),

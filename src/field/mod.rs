@@ -458,7 +458,7 @@ pub struct WaveRow {
 }
 
 /// Figures only a linear primary has.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LinearField {
     /// Synchronous wavenumber π/τ, radians per metre (None without a slot pitch).
     pub synchronous_wavenumber_rad_m: Option<f64>,
@@ -475,7 +475,30 @@ pub struct LinearField {
     pub field_speed_m_s: Option<f64>,
     /// Secondary speed (1 − s)·v_s at the given slip, m/s.
     pub secondary_speed_m_s: Option<f64>,
+    /// The finite current sheet's continuous wavenumber spectrum, sampled finely (a quarter
+    /// of the lobe width 1/(2p) in order) from 0 to the highest order listed: forward and
+    /// backward amplitudes relative to the working wave. A finite primary has components
+    /// between the whole orders, which its ends (entry and exit) put there.
+    pub continuous: Vec<ContinuumPoint>,
+    /// The largest component at least a quarter order from every whole order: a primary of
+    /// finite length spreads each wave over neighbouring wavenumbers (its transform is a
+    /// sinc-like lobe 1/p wide in order), or `None`.
+    pub strongest_between_orders: Option<ContinuumPoint>,
 }
+
+/// One sample of a flat primary's continuous spectrum.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ContinuumPoint {
+    /// Electrical order ν = κ/(π/τ), any real value.
+    pub order: f64,
+    /// Forward amplitude relative to the working wave.
+    pub forward: f64,
+    /// Backward amplitude relative to the working wave.
+    pub backward: f64,
+}
+
+/// Most samples of a continuous spectrum given.
+pub const MAX_CONTINUUM: usize = 4000;
 
 /// Inputs of the field analysis besides the winding.
 #[derive(Debug, Clone, PartialEq)]
@@ -723,7 +746,32 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
     );
     let linear = (g.topology == Topology::Linear).then(|| {
         let (f, b) = sheet.wave(1.0);
+        // Samples at a quarter of the lobe width 1/(2p), capped in number.
+        let step = (1.0 / (8.0 * g.poles.max(1) as f64)).max(opts.upto / MAX_CONTINUUM as f64);
+        let n = (opts.upto / step).floor() as usize;
+        let continuous: Vec<ContinuumPoint> = (1..=n)
+            .map(|k| {
+                let order = k as f64 * step;
+                let (cf, cb) = sheet.wave(order);
+                ContinuumPoint {
+                    order,
+                    forward: cf / amp,
+                    backward: cb / amp,
+                }
+            })
+            .collect();
+        let strongest_between_orders = continuous
+            .iter()
+            .filter(|p| (p.order - p.order.round()).abs() >= 0.25 - 1e-9)
+            .copied()
+            .max_by(|a, b| {
+                a.forward
+                    .max(a.backward)
+                    .total_cmp(&b.forward.max(b.backward))
+            });
         LinearField {
+            continuous,
+            strongest_between_orders,
             synchronous_wavenumber_rad_m: g.pole_pitch_m().map(|t| PI / t),
             synchronous_wavenumber_rad_slot: PI / g.pole_pitch_slots,
             forward_wave: f / amp,

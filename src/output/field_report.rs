@@ -79,6 +79,19 @@ impl Report for FieldReport {
                 num(l.backward_wave, 4),
                 num(l.pulsating, 4)
             ));
+            if let Some(c) = &l.strongest_between_orders {
+                head.extend(super::reports::wrap(
+                    &format!(
+                        "a primary of finite length spreads each wave over nearby wavenumbers: \
+                     between whole orders its spectrum reaches forward {}, backward {} at order \
+                     {} (JSON: continuous)",
+                        num(c.forward, 4),
+                        num(c.backward, 4),
+                        num(c.order, 3)
+                    ),
+                    78,
+                ));
+            }
             if let Some(v) = l.field_speed_m_s {
                 let sec = l
                     .secondary_speed_m_s
