@@ -52,6 +52,20 @@ pub fn short(s: &str, max: usize) -> String {
     out
 }
 
+/// `s` as an identifier for markup: ASCII letters and digits in lower case, everything else
+/// a hyphen ("Slots Z" → "slots-z").
+pub fn slug(s: &str) -> String {
+    s.chars()
+        .map(|c| {
+            if c.is_ascii_alphanumeric() {
+                c.to_ascii_lowercase()
+            } else {
+                '-'
+            }
+        })
+        .collect()
+}
+
 /// A spreadsheet cell: numbers stay numbers; text that a spreadsheet would run as a
 /// formula (starting with `=`, `+`, `-`, `@`, tab or carriage return) gets a leading `'`
 /// (the OWASP recommendation for CSV injection).

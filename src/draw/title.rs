@@ -162,16 +162,7 @@ impl TitleBlock {
 
 /// Id of a caption text (the one kind of text allowed under 2.5 mm, at 1.8 mm).
 fn caption_id(name: &str) -> String {
-    let slug: String = name
-        .chars()
-        .map(|c| {
-            if c.is_ascii_alphanumeric() {
-                c.to_ascii_lowercase()
-            } else {
-                '-'
-            }
-        })
-        .collect();
+    let slug = crate::sanitize::slug(name);
     format!("caption-{slug}")
 }
 

@@ -62,16 +62,7 @@ a { color: #0b3d91; }
 "#;
 
 fn id_of(title: &str) -> String {
-    title
-        .chars()
-        .map(|c| {
-            if c.is_ascii_alphanumeric() {
-                c.to_ascii_lowercase()
-            } else {
-                '-'
-            }
-        })
-        .collect()
+    crate::sanitize::slug(title)
 }
 
 /// A report's sections as HTML: headings (h3), lines (paragraphs; warnings marked) and
