@@ -125,3 +125,27 @@ fn long_primary_unbalance_tends_to_zero() {
     let r = inductance(&flat(40, ""), false).expect("sizes");
     assert!(r.negative_sequence_current_percent < 1.0);
 }
+
+// Under a symmetric supply the unbalance does not depend on the phase order along the
+// primary: a cyclic relabelling permutes the sequence components, a swap of two phases
+// conjugates them (Fortescue 1918), so the negative-sequence share is the same.
+#[test]
+fn unbalance_does_not_depend_on_phase_order() {
+    let w = flat(4, "");
+    let base = inductance(&w, false)
+        .expect("sizes")
+        .negative_sequence_current_percent;
+    for map in [[1usize, 2, 0], [0, 2, 1]] {
+        let mut v = w.clone();
+        for c in &mut v.coils {
+            c.phase = map[c.phase];
+        }
+        let r = inductance(&v, false)
+            .expect("sizes")
+            .negative_sequence_current_percent;
+        assert!(
+            (r - base).abs() < 1e-9 * base.max(1.0),
+            "{map:?}: {r} vs {base}"
+        );
+    }
+}
