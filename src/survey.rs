@@ -107,7 +107,7 @@ pub fn survey(query: &SurveyQuery, tick: &(dyn Fn() + Sync)) -> SurveyReport {
     let combos = combinations(query);
     let rows = combos
         .par_iter()
-        .map_init(Vec::new, |buf, &(z, poles, layers)| {
+        .map_init(Buffers::default, |buf, &(z, poles, layers)| {
             let r = row(query, z, poles, layers, buf);
             tick();
             r
@@ -182,13 +182,16 @@ fn divisors(n: usize) -> Vec<usize> {
     (1..=n).filter(|d| n.is_multiple_of(*d)).collect()
 }
 
-fn row(
-    query: &SurveyQuery,
-    z: usize,
-    poles: usize,
-    layers: usize,
-    buf: &mut Vec<f64>,
-) -> SurveyRow {
+/// Per-thread scratch space, reused from one combination to the next.
+#[derive(Default)]
+struct Buffers {
+    /// Belt currents and slot currents, 2Z values.
+    currents: Vec<f64>,
+    /// The Z roots of unity.
+    roots: Vec<(f64, f64)>,
+}
+
+fn row(query: &SurveyQuery, z: usize, poles: usize, layers: usize, buf: &mut Buffers) -> SurveyRow {
     let m = query.phases;
     // Flat primaries refine q from the planner's coil positions.
     let (_, _, q_fraction) = fraction(z as u64, (m * poles) as u64);
@@ -219,7 +222,7 @@ fn row(
 
 /// Double-layer rotary row from the star of slots, allocation-free but for the reused
 /// current buffer and the short list of path counts.
-fn rotary_double_row(mut r: SurveyRow, m: usize, buf: &mut Vec<f64>) -> SurveyRow {
+fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRow {
     let (z, poles) = (r.slots, r.poles);
     let p = poles / 2;
     let t = rotary_periodicity(z, poles);
@@ -236,7 +239,8 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, buf: &mut Vec<f64>) -> SurveyRo
     // exactly, from the belt sum over phase 1's coil left sides (a uniform span splits the
     // coil EMF into belt sum and chord): one table of the Z roots of unity, stepped by
     // integer index, no trigonometry per slot.
-    let roots = roots_of_unity(z);
+    roots_of_unity(z, &mut bufs.roots);
+    let roots = &bufs.roots;
     let coils_per_phase = (z / m) as f64;
     let kd_at = |nu: usize| {
         let (mut re, mut im) = (0.0, 0.0);
@@ -322,6 +326,7 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, buf: &mut Vec<f64>) -> SurveyRo
     r.winding = Some(best_kw);
     r.max_winding_pitch = Some(highest.0);
     r.max_winding = Some(highest.1);
+    let buf = &mut bufs.currents;
     belt_currents(z, p, m, buf);
     slot_currents(buf, best_y);
     r.differential_leakage = staircase_leakage(&buf[z..], p as u64);
@@ -336,10 +341,10 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, buf: &mut Vec<f64>) -> SurveyRo
 
 /// cos and sin of 2πk/Z for k in 0..Z, by complex multiplication with a fresh exact value
 /// every 64 steps (no rounding build-up on large cores).
-fn roots_of_unity(z: usize) -> Vec<(f64, f64)> {
+fn roots_of_unity(z: usize, out: &mut Vec<(f64, f64)>) {
     let step = 2.0 * PI / z as f64;
     let (ss, sc) = step.sin_cos();
-    let mut out = Vec::with_capacity(z);
+    out.clear();
     let (mut c, mut s) = (1.0f64, 0.0f64);
     for k in 0..z {
         if k % 64 == 0 {
@@ -348,7 +353,6 @@ fn roots_of_unity(z: usize) -> Vec<(f64, f64)> {
         out.push((c, s));
         (c, s) = (c * sc - s * ss, s * sc + c * ss);
     }
-    out
 }
 
 /// c_k = s_k·cos(2πφ_k/m) for the 60° belt (φ_k, s_k) of slot k, into `buf[..z]`.
