@@ -213,3 +213,17 @@ fn reports_render_in_a_real_browser() {
         );
     }
 }
+
+// A report of a faulty record says so at the top, not only on its sheets.
+#[test]
+fn a_faulty_record_is_flagged_at_the_top_of_its_report() {
+    let dir = tempfile::tempdir().expect("dir");
+    let html = std::fs::read_to_string(report("layouts/hoist-rewind-faulty.toml", dir.path()))
+        .expect("html");
+    let doc = scraper::Html::parse_document(&html);
+    let sel = scraper::Selector::parse("header #unsound").expect("selector");
+    assert!(doc.select(&sel).next().is_some());
+    let sound = std::fs::read_to_string(report("layouts/hoist-rewind-sound.toml", dir.path()))
+        .expect("html");
+    assert!(!sound.contains("id=\"unsound\""));
+}

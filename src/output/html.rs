@@ -257,6 +257,14 @@ pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
         "<p class=\"caution\" role=\"note\">{}</p>",
         escape(CAUTION)
     );
+    let unsound = !w.is_balanced() || (w.from_coil_list && !audit::audit(w, intended).sound);
+    if unsound {
+        out.push_str(
+            "<p class=\"caution\" role=\"alert\" id=\"unsound\">NOT A SOUND WINDING: the \
+             audit below has findings. Do not wind or connect from this report until they are \
+             cleared.</p>\n",
+        );
+    }
     let _ = writeln!(
         out,
         "<p class=\"line\" id=\"summary\">{} core: <span id=\"slots\">{}</span> slots, {} poles, {} \
