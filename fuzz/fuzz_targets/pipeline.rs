@@ -53,8 +53,20 @@ fuzz_target!(|data: &[u8]| {
     if let Ok(f) = field::field(&w, &field::FieldOptions::balanced(&w)) {
         check(&f);
     }
-    check(&pitch::compare(&w, &pitch::PitchGoal { suppress: vec![5.0, 7.0], min_fundamental: 0.9 }));
-    let q = thrust::ThrustQuery { current_a: Some(5.0), slip_from: -0.2, slip_to: 1.2, steps: 7, end_effect: true };
+    check(&pitch::compare(
+        &w,
+        &pitch::PitchGoal {
+            suppress: vec![5.0, 7.0],
+            min_fundamental: 0.9,
+        },
+    ));
+    let q = thrust::ThrustQuery {
+        current_a: Some(5.0),
+        slip_from: -0.2,
+        slip_to: 1.2,
+        steps: 7,
+        end_effect: true,
+    };
     if let Ok(t) = thrust::thrust(&w, &q) {
         check(&t);
     }
