@@ -256,10 +256,7 @@ fn unbalance(w: &Winding, r1: f64, leak: f64) -> Option<(Vec<Complex64>, f64)> {
                 .collect()
         })
         .collect();
-    let v = match w.connection {
-        Connection::Star => w.supply.line_voltage_v.unwrap_or(400.0) / 3f64.sqrt(),
-        Connection::Delta => w.supply.line_voltage_v.unwrap_or(400.0),
-    };
+    let v = crate::rewind::phase_voltage(w.supply.line_voltage_v.unwrap_or(400.0), w.connection);
     let i = balanced_voltage_currents(&z, v, w.connection)?;
     let pct = negative_percent(&i);
     Some((i, pct))

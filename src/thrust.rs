@@ -35,7 +35,8 @@ use thiserror::Error;
 
 use crate::card::phase_resistances_20c;
 use crate::factors;
-use crate::winding::{Connection, Topology, Winding};
+use crate::rewind::phase_voltage;
+use crate::winding::{Topology, Winding};
 
 /// Permeability of free space, H/m (CODATA 2018, μ0 = 1.25663706212e-6).
 pub const MU0: f64 = 1.256_637_062_12e-6;
@@ -204,14 +205,6 @@ pub fn duncan_f(q: f64) -> f64 {
         1.0 - q / 2.0
     } else {
         -(-q).exp_m1() / q
-    }
-}
-
-/// Phase voltage from the supply's line voltage: V_L/√3 in star, V_L in delta.
-fn phase_voltage(line: f64, c: Connection) -> f64 {
-    match c {
-        Connection::Star => line / 3f64.sqrt(),
-        Connection::Delta => line,
     }
 }
 

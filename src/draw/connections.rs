@@ -94,14 +94,26 @@ pub fn lead_slots(w: &Winding) -> Vec<(String, usize, bool)> {
         let (Some(&first), Some(&last)) = (gs.first(), gs.last()) else {
             continue;
         };
-        if let Some(&c) = current_order(&groups[first]).first() {
-            out.push((path_terminal(w, k, p, 1), w.coils[c].go + 1, true));
-        }
-        if let Some(&c) = current_order(&groups[last]).last() {
-            out.push((path_terminal(w, k, p, 2), w.coils[c].back + 1, false));
-        }
+        out.push((
+            path_terminal(w, k, p, 1),
+            group_ends(w, &groups[first]).0 + 1,
+            true,
+        ));
+        out.push((
+            path_terminal(w, k, p, 2),
+            group_ends(w, &groups[last]).1 + 1,
+            false,
+        ));
     }
     out
+}
+
+/// Slots (0-based) where current enters a group and where it leaves it.
+pub fn group_ends(w: &Winding, g: &CoilGroup) -> (usize, usize) {
+    let order = current_order(g);
+    let first = order.first().map_or(0, |&c| w.coils[c].go);
+    let last = order.last().map_or(0, |&c| w.coils[c].back);
+    (first, last)
 }
 
 /// Coils of a group in the order current flows through them.

@@ -616,24 +616,8 @@ fn lead_end(
                 .collect();
             let y = band_top + 3.0 * MIN_TEXT + 3.0 + lane as f64 * LANE + LANE / 2.0;
             lane += 1;
-            let start_of = |gi: usize| {
-                let grp = &groups[gi];
-                let c = if grp.polarity > 0 {
-                    grp.coils[0]
-                } else {
-                    grp.coils[grp.coils.len() - 1]
-                };
-                w.coils[c].go
-            };
-            let finish_of = |gi: usize| {
-                let grp = &groups[gi];
-                let c = if grp.polarity > 0 {
-                    grp.coils[grp.coils.len() - 1]
-                } else {
-                    grp.coils[0]
-                };
-                w.coils[c].back
-            };
+            let start_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).0;
+            let finish_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).1;
             let drop = |x: f64| phase_line(pal, k, x, y, x, top + 0.6, 0.3);
             for pair in gs.windows(2) {
                 let (a, b) = (
