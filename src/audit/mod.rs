@@ -722,8 +722,10 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             message: format!(
                 "the phases are unbalanced (backward field {}% of forward, magnitudes spread \
                  {}%) and no change of up to two edits (reversing a coil, a group or a phase, \
-                 moving a coil to another phase, swapping two leads) balances them{}; compare \
-                 the record with the design slot by slot",
+                 moving a coil to another phase, swapping two leads) balances them{}. Not \
+                 searched: three or more edits, a whole group moved to another phase, a coil \
+                 laid in the wrong slots, faults spread over several coils of a path. Compare \
+                 the record with the design slot by slot (audit --intended)",
                 crate::numbering::num(pct(bal.backward, bal.forward.max(bal.backward)), 2),
                 crate::numbering::num(bal.spread, 2),
                 if found.truncated {
