@@ -6,7 +6,9 @@
 use serde::Serialize;
 
 /// Conductor metal of the magnet wire.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, serde::Deserialize, Default)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize, Default,
+)]
 #[serde(rename_all = "lowercase")]
 pub enum Material {
     /// Annealed copper (IEC 60028).
@@ -27,7 +29,7 @@ impl std::fmt::Display for Material {
 }
 
 /// How the wire's bare size was given.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "snake_case")]
 pub enum WireSize {
     /// Bare diameter, metres.
@@ -37,7 +39,7 @@ pub enum WireSize {
 }
 
 /// How the insulated diameter is found.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "snake_case")]
 pub enum Insulation {
     /// IEC 60317 enamel grade 1, 2 or 3.
@@ -47,7 +49,7 @@ pub enum Insulation {
 }
 
 /// The `[wire]` table.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct WireSpec {
     /// Bare size of one strand.
     pub size: WireSize,
@@ -60,7 +62,7 @@ pub struct WireSpec {
 }
 
 /// Rule for the mean length of one turn.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct TurnRule {
     /// Mean turn as given (`core.mean_turn_mm`), metres: overrides the rule.
     pub mean_turn_m: Option<f64>,
@@ -82,7 +84,7 @@ impl Default for TurnRule {
 }
 
 /// The `[measured]` table: line-to-line resistances as measured at the terminals.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Measured {
     /// Between line terminals 1-2, 2-3 and 3-1, ohms.
     pub line_resistance_ohm: [f64; 3],
@@ -91,7 +93,7 @@ pub struct Measured {
 }
 
 /// Conductor of a flat primary's secondary plate.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Secondary {
     /// Electrical conductivity, S/m.
     pub conductivity_s_m: f64,
@@ -104,7 +106,9 @@ pub struct Secondary {
 }
 
 /// Lead-marking scheme on the terminal box.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, serde::Deserialize, Default)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize, Default,
+)]
 #[serde(rename_all = "lowercase")]
 pub enum Marking {
     /// IEC 60034-8 letters: U1, U2, V1, ...
@@ -115,7 +119,7 @@ pub enum Marking {
 }
 
 /// Leads brought out and how they are marked.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 pub struct Leads {
     /// Leads brought out: 3, 6, 9 or 12.
     pub count: u8,
@@ -133,7 +137,7 @@ impl Default for Leads {
 }
 
 /// Design data besides the coils. Every field is optional in the layout file.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema, Default)]
 pub struct Design {
     /// Magnet wire.
     pub wire: Option<WireSpec>,

@@ -14,7 +14,7 @@ use crate::winding::{Topology, Winding};
 pub const PRESENT: f64 = 1e-9;
 
 /// Factors of one order.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct FactorRow {
     /// Electrical order ν.
     pub order: f64,
@@ -32,7 +32,7 @@ pub struct FactorRow {
 }
 
 /// Factors of one phase at every present order up to a limit.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct FactorTable {
     /// Phase the factors belong to (the first phase; all are equal when balanced).
     pub phase: String,

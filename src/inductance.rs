@@ -26,7 +26,7 @@ use crate::winding::{self, Connection, Topology, Winding};
 pub const MAX_COIL_MATRIX: usize = 200;
 
 /// One layout of the same primary, ranked by unbalance.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct LayoutRank {
     /// Poles.
     pub poles: usize,
@@ -41,7 +41,7 @@ pub struct LayoutRank {
 }
 
 /// The inductance report.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct InductanceReport {
     /// Title.
     pub title: Option<String>,

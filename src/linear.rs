@@ -20,7 +20,7 @@ pub struct Operating {
 }
 
 /// Figures the core sizes and supply allow; absent ones are `None`.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, Default, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Figures {
     /// Pole pitch τ in metres.
     pub pole_pitch_m: Option<f64>,

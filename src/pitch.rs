@@ -33,7 +33,7 @@ impl Default for PitchGoal {
 }
 
 /// Winding factor of one named harmonic.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct HarmonicFactor {
     /// Electrical order ν.
     pub order: f64,
@@ -42,7 +42,7 @@ pub struct HarmonicFactor {
 }
 
 /// One span.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PitchRow {
     /// Coil span in slot pitches.
     pub pitch: usize,
@@ -67,7 +67,7 @@ pub struct PitchRow {
 }
 
 /// Every feasible span with the recommendation.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PitchReport {
     /// Title of the design.
     pub title: Option<String>,

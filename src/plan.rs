@@ -9,7 +9,7 @@ use crate::winding::{Connection, Style, Topology, Winding, coil_groups, possible
 pub use crate::safety::CAUTION;
 
 /// One coil as the shop sees it (slots from 1).
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct CoilRow {
     /// Coil number from 1.
     pub number: usize,
@@ -34,7 +34,7 @@ pub struct CoilRow {
 }
 
 /// What lies in one slot.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SlotRow {
     /// Slot number from 1.
     pub slot: usize,
@@ -45,7 +45,7 @@ pub struct SlotRow {
 }
 
 /// One coil group in connection order.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct GroupRow {
     /// Group number from 1, in slot order.
     pub number: usize,
@@ -61,7 +61,7 @@ pub struct GroupRow {
 
 /// One phase's phasor as reported: a phase EMF here (magnitude in effective series turns
 /// N_ph·k_w, i.e. |E| / (4.44·f·Φ)), a phase current in the field report.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PhasorRow {
     /// Phase label.
     pub phase: String,
@@ -72,7 +72,7 @@ pub struct PhasorRow {
 }
 
 /// The complete plan of a winding.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PlanReport {
     /// Free text title.
     pub title: Option<String>,

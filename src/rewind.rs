@@ -62,7 +62,7 @@ pub enum RewindError {
 }
 
 /// One design as the rewind sees it.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct DesignSide {
     /// Title of the layout.
     pub title: Option<String>,
@@ -95,7 +95,7 @@ pub struct DesignSide {
 }
 
 /// Wire size for the new winding.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ConductorResult {
     /// Old copper area of one wire, mm².
     pub old_area_mm2: f64,
@@ -124,7 +124,7 @@ pub struct ConductorResult {
 }
 
 /// A standard wire for the new conductor, with its slot fill when the slot area is known.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct StandardOption {
     /// Strands, size and how near the wanted copper.
     #[serde(flatten)]
@@ -136,7 +136,7 @@ pub struct StandardOption {
 }
 
 /// A way to make up the new conductor.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct WireOption {
     /// Wires in hand.
     pub wires_in_hand: u32,
@@ -145,7 +145,7 @@ pub struct WireOption {
 }
 
 /// The recalculated turns and conductor.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct RewindReport {
     /// The old design.
     pub old: DesignSide,

@@ -38,7 +38,7 @@ pub struct SurveyQuery {
 }
 
 /// One slot/pole/layer combination.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SurveyRow {
     /// Slots Z.
     pub slots: usize,
@@ -77,7 +77,7 @@ pub struct SurveyRow {
 }
 
 /// All rows, in slot, pole, layer order.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SurveyReport {
     /// Core kind surveyed.
     pub topology: Topology,

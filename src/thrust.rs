@@ -56,7 +56,7 @@ pub enum ThrustError {
 }
 
 /// How the primary is fed.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "snake_case", tag = "kind")]
 pub enum Feed {
     /// From the supply's line voltage in the winding's connection.
@@ -87,7 +87,7 @@ pub struct ThrustQuery {
 }
 
 /// The per-phase equivalent circuit and the figures behind it.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Circuit {
     /// Pole pitch, m.
     pub pole_pitch_m: f64,
@@ -120,7 +120,7 @@ pub struct Circuit {
 }
 
 /// One operating point.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Row {
     /// Slip s (below 0 generating, above 1 braking by plugging).
     pub slip: f64,
@@ -143,7 +143,7 @@ pub struct Row {
 }
 
 /// The performance report.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ThrustReport {
     /// Title of the layout.
     pub title: Option<String>,

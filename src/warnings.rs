@@ -15,7 +15,7 @@ pub const KW1_FLOOR: f64 = 0.7;
 pub const SPAN_BAND: (f64, f64) = (0.5, 1.5);
 
 /// A reason not to build a design.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum DesignWarning {
     /// Coil span far from the pole pitch.

@@ -6,7 +6,7 @@ use super::{Finding, FindingKind};
 use crate::winding::Winding;
 
 /// What one slot holds in the record and in the design: "+U" for current in, "-U" out.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SlotDifference {
     /// Slot number from 1.
     pub slot: usize,
@@ -17,7 +17,7 @@ pub struct SlotDifference {
 }
 
 /// The comparison with the intended design.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Comparison {
     /// Slots whose contents differ.
     pub slot_differences: Vec<SlotDifference>,

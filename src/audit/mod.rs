@@ -23,7 +23,7 @@ pub use search::{BALANCE_TOL, Edit, Search, apply_fix, search};
 pub use slots::{SlotCheck, check_slots};
 
 /// Direction of the phase sequence at the fundamental.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "lowercase")]
 pub enum Sequence {
     /// V lags U by 360°/m: the field travels towards rising slot numbers.
@@ -33,7 +33,7 @@ pub enum Sequence {
 }
 
 /// What a finding is about, in shop terms.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "snake_case")]
 pub enum FindingKind {
     /// One coil connected the wrong way round.
@@ -67,7 +67,7 @@ pub enum FindingKind {
 }
 
 /// One thing wrong with the winding, and what to do about it.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Finding {
     /// What is wrong.
     pub kind: FindingKind,
@@ -82,7 +82,7 @@ pub struct Finding {
 }
 
 /// A phasor at one harmonic order.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct HarmonicRow {
     /// Electrical order ν (fractional for a sub-harmonic).
     pub order: f64,
@@ -93,7 +93,7 @@ pub struct HarmonicRow {
 }
 
 /// One phase at the fundamental, with its main harmonics.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PhaseRow {
     /// Phase label.
     pub phase: String,
@@ -112,7 +112,7 @@ pub struct PhaseRow {
 }
 
 /// One parallel path of one phase.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PathRow {
     /// Phase label.
     pub phase: String,
@@ -134,7 +134,7 @@ pub struct PathRow {
 }
 
 /// The complete audit.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct AuditReport {
     /// Title of the record.
     pub title: Option<String>,

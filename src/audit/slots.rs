@@ -6,7 +6,7 @@ use super::{Finding, FindingKind, runs};
 use crate::winding::{Topology, Winding};
 
 /// How the slots of a record are filled (slot numbers from 1).
-#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
 pub struct SlotCheck {
     /// Slots with no coil side at all.
     pub empty: Vec<usize>,

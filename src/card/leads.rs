@@ -26,7 +26,7 @@ enum End {
 }
 
 /// How the two sections of a phase are joined.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "lowercase")]
 pub enum Sections {
     /// One section per phase (3 or 6 leads).
@@ -38,7 +38,7 @@ pub enum Sections {
 }
 
 /// One way to wire the terminal box.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Configuration {
     /// Star or delta.
     pub connection: Connection,
@@ -57,7 +57,7 @@ pub struct Configuration {
 }
 
 /// The lead scheme of a winding.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct LeadScheme {
     /// Marking scheme.
     pub marking: Marking,
@@ -74,7 +74,7 @@ pub struct LeadScheme {
 }
 
 /// One lead.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Terminal {
     /// Marking on the lead.
     pub name: String,

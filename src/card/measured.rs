@@ -14,7 +14,7 @@ use super::{BALANCE_TOLERANCE_PERCENT, Wire, planned_line_resistances};
 use crate::winding::{Connection, Winding};
 
 /// What the readings suggest, in shop terms.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum Suggestion {
     /// All phases read alike and as expected.
@@ -99,7 +99,7 @@ impl Suggestion {
 }
 
 /// The measured resistances set against the card.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ResistanceCheck {
     /// Readings between terminals 1-2, 2-3, 3-1, ohms.
     pub measured_ohm: [f64; 3],

@@ -36,7 +36,7 @@ pub const BALANCE_TOLERANCE_PERCENT: f64 = 2.0;
 pub const SHOP_TEMPERATURE_C: f64 = 25.0;
 
 /// Something on the card a shop should look at before winding.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum CardWarning {
     /// The wire does not fit the slot comfortably.
@@ -78,7 +78,7 @@ impl CardWarning {
 }
 
 /// Resistances at one temperature.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct AtTemperature {
     /// Winding temperature, °C.
     pub temperature_c: f64,
@@ -89,7 +89,7 @@ pub struct AtTemperature {
 }
 
 /// The figures a finished winding is checked against.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Acceptance {
     /// Expected line-to-line resistance at the measuring temperature (planned connection).
     pub line_resistance: Option<AtTemperature>,
@@ -110,7 +110,7 @@ pub struct Acceptance {
 }
 
 /// The data card.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct DataCard {
     /// Title of the layout.
     pub title: Option<String>,

@@ -99,7 +99,7 @@ pub fn grade_overall_diameter_m(d: f64, grade: u8) -> f64 {
 }
 
 /// A design's wire with every size resolved.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Wire {
     /// Bare diameter of one strand, mm.
     pub diameter_mm: f64,
@@ -156,7 +156,7 @@ impl Wire {
 }
 
 /// One way to make up a conductor of a wanted area from standard wire.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct StandardWire {
     /// Strands in hand.
     pub strands_in_hand: u32,

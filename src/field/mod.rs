@@ -41,7 +41,7 @@ pub const MAX_ORDERS: u64 = 1_000_000;
 pub const MAX_OPENING: f64 = 1.0;
 
 /// Order of the phase currents in time.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "lowercase")]
 pub enum Sequence {
     /// Each phase lags the one before it by 2π/m (V lags U).
@@ -51,7 +51,7 @@ pub enum Sequence {
 }
 
 /// Direction a wave moves along the gap.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 #[serde(rename_all = "lowercase")]
 pub enum Direction {
     /// Toward higher slot numbers.
@@ -424,7 +424,7 @@ impl CurrentSheet {
 }
 
 /// One corner of the MMF staircase.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct MmfPoint {
     /// Position along the gap in slot pitches (slot n, counted from 1, centred at n − 0.5).
     pub x: f64,
@@ -433,7 +433,7 @@ pub struct MmfPoint {
 }
 
 /// The MMF at one instant.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Snapshot {
     /// Electrical time angle ωt in degrees.
     pub at_deg: f64,
@@ -444,7 +444,7 @@ pub struct Snapshot {
 }
 
 /// One harmonic order of the spectrum.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct WaveRow {
     /// Electrical order ν (ν = n/p on a rotary core; κ/(π/τ) on a linear primary).
     pub order: f64,
@@ -458,7 +458,7 @@ pub struct WaveRow {
 }
 
 /// Figures only a linear primary has.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct LinearField {
     /// Synchronous wavenumber π/τ, radians per metre (None without a slot pitch).
     pub synchronous_wavenumber_rad_m: Option<f64>,
@@ -487,7 +487,7 @@ pub struct LinearField {
 }
 
 /// One sample of a flat primary's continuous spectrum.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ContinuumPoint {
     /// Electrical order ν = κ/(π/τ), any real value.
     pub order: f64,
@@ -529,7 +529,7 @@ impl FieldOptions {
 }
 
 /// The travelling-field report.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct FieldReport {
     /// Free text title.
     pub title: Option<String>,

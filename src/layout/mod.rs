@@ -24,7 +24,9 @@ pub const MAX_TURNS: u32 = 100_000;
 pub const MAX_COILS: usize = 2 * MAX_SLOTS;
 
 /// Closed rotary core or open, flat linear primary.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
 #[serde(rename_all = "lowercase")]
 pub enum Topology {
     /// A closed core: slot Z is followed by slot 1 again.
@@ -43,7 +45,9 @@ impl fmt::Display for Topology {
 }
 
 /// How the coils of a single-layer winding are shaped.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
 #[serde(rename_all = "lowercase")]
 pub enum Style {
     /// Coils of one span, laid like roof tiles.
@@ -53,7 +57,9 @@ pub enum Style {
 }
 
 /// How the three phases are joined.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
 #[serde(rename_all = "lowercase")]
 pub enum Connection {
     /// Phase ends U2, V2, W2 joined in a star point.
@@ -72,7 +78,7 @@ impl fmt::Display for Connection {
 }
 
 /// Core sizes, in SI units inside the program.
-#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize, schemars::JsonSchema)]
 pub struct Core {
     /// Slot pitch along the gap, metres.
     pub slot_pitch_m: Option<f64>,
@@ -83,7 +89,7 @@ pub struct Core {
 }
 
 /// Supply the winding is designed for.
-#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize, schemars::JsonSchema)]
 pub struct Supply {
     /// Supply frequency, hertz.
     pub frequency_hz: Option<f64>,

@@ -9,6 +9,7 @@ mod field_report;
 pub mod html;
 mod json;
 pub(crate) mod reports;
+pub mod schema;
 mod table;
 mod text;
 mod thrust_report;

@@ -10,7 +10,7 @@ use num_complex::Complex64;
 use super::{PHASOR_TOL, PlanError, Topology, Winding};
 
 /// A run of adjacent coils of one phase and one polarity.
-#[derive(Debug, Clone, PartialEq, Eq, serde::Serialize)]
+#[derive(Debug, Clone, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
 pub struct CoilGroup {
     /// Phase index.
     pub phase: usize,

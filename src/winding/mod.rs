@@ -51,7 +51,7 @@ pub enum PlanError {
 }
 
 /// Geometry of the core and the electrical angle of every slot.
-#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize, schemars::JsonSchema)]
 pub struct Geometry {
     /// Closed rotary core or open linear primary.
     pub topology: Topology,
@@ -153,7 +153,7 @@ impl Geometry {
 }
 
 /// One coil: current enters at `go` and leaves at `back` (0-based slots inside the program).
-#[derive(Debug, Clone, PartialEq, Eq, serde::Serialize)]
+#[derive(Debug, Clone, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
 pub struct Coil {
     /// Index into the phase labels.
     pub phase: usize,
@@ -173,7 +173,7 @@ pub struct Coil {
 }
 
 /// A planned or recorded winding.
-#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize, schemars::JsonSchema)]
 pub struct Winding {
     /// Free text for drawings and reports.
     pub title: Option<String>,

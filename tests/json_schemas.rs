@@ -1,0 +1,174 @@
+//! The JSON output of every command is documented by a JSON Schema in `docs/schemas/`, made
+//! from the report types (schemars); the files must match the types, and the tool's actual
+//! output on the examples must validate against them.
+//! Set BELTWRIGHT_WRITE_SCHEMAS=1 to write the files anew after a deliberate change.
+
+mod common;
+use common::json;
+
+use serde_json::Value;
+
+fn path(cmd: &str) -> String {
+    format!("docs/schemas/{cmd}.schema.json")
+}
+
+#[test]
+fn schema_files_match_the_report_types() {
+    let write = std::env::var_os("BELTWRIGHT_WRITE_SCHEMAS").is_some();
+    for (cmd, schema) in beltwright::output::schema::all() {
+        let text = serde_json::to_string_pretty(&schema).expect("schema") + "\n";
+        if write {
+            std::fs::create_dir_all("docs/schemas").expect("folder");
+            std::fs::write(path(cmd), &text).expect("write");
+        }
+        let on_disk = std::fs::read_to_string(path(cmd)).unwrap_or_else(|_| {
+            panic!("{} missing: run with BELTWRIGHT_WRITE_SCHEMAS=1", path(cmd))
+        });
+        assert_eq!(on_disk, text, "{cmd}: docs/schemas is out of date");
+    }
+}
+
+/// A small validator for what schemars writes: $ref into $defs, type (one or several),
+/// properties and required, items, anyOf/oneOf/allOf, enum and const. Extra properties are
+/// allowed (the contract may grow).
+fn check(v: &Value, s: &Value, root: &Value, at: &str) -> Result<(), String> {
+    if let Some(r) = s.get("$ref").and_then(Value::as_str) {
+        let name = r.trim_start_matches("#/$defs/");
+        return check(v, &root["$defs"][name], root, at);
+    }
+    if let Some(alts) = s
+        .get("anyOf")
+        .or_else(|| s.get("oneOf"))
+        .and_then(Value::as_array)
+    {
+        if !alts.iter().any(|a| check(v, a, root, at).is_ok()) {
+            return Err(format!("{at}: matches no alternative: {v}"));
+        }
+    }
+    if let Some(all) = s.get("allOf").and_then(Value::as_array) {
+        for a in all {
+            check(v, a, root, at)?;
+        }
+    }
+    if let Some(e) = s.get("enum").and_then(Value::as_array)
+        && !e.contains(v)
+    {
+        return Err(format!("{at}: {v} not in {e:?}"));
+    }
+    if let Some(c) = s.get("const")
+        && c != v
+    {
+        return Err(format!("{at}: {v} is not {c}"));
+    }
+    if let Some(t) = s.get("type") {
+        let types: Vec<&str> = match t {
+            Value::String(x) => vec![x.as_str()],
+            Value::Array(a) => a.iter().filter_map(Value::as_str).collect(),
+            _ => Vec::new(),
+        };
+        let ok = types.iter().any(|t| match *t {
+            "null" => v.is_null(),
+            "boolean" => v.is_boolean(),
+            "integer" => v.as_i64().is_some() || v.as_u64().is_some(),
+            "number" => v.is_number(),
+            "string" => v.is_string(),
+            "array" => v.is_array(),
+            "object" => v.is_object(),
+            _ => true,
+        });
+        if !ok {
+            return Err(format!("{at}: {v} is not of type {types:?}"));
+        }
+    }
+    if let (Some(obj), Some(props)) = (
+        v.as_object(),
+        s.get("properties").and_then(Value::as_object),
+    ) {
+        for (k, ps) in props {
+            if let Some(x) = obj.get(k) {
+                check(x, ps, root, &format!("{at}.{k}"))?;
+            }
+        }
+        for r in s
+            .get("required")
+            .and_then(Value::as_array)
+            .into_iter()
+            .flatten()
+        {
+            let k = r.as_str().unwrap_or_default();
+            if !obj.contains_key(k) {
+                return Err(format!("{at}: required {k} missing"));
+            }
+        }
+    }
+    if let (Some(arr), Some(items)) = (v.as_array(), s.get("items")) {
+        for (i, x) in arr.iter().enumerate() {
+            check(x, items, root, &format!("{at}[{i}]"))?;
+        }
+    }
+    Ok(())
+}
+
+fn schema(cmd: &str) -> Value {
+    serde_json::from_str(&std::fs::read_to_string(path(cmd)).expect("schema file")).expect("json")
+}
+
+fn validates(cmd: &str, args: &[&str]) {
+    let mut all = vec![cmd];
+    all.extend_from_slice(args);
+    all.extend_from_slice(&["--format", "json"]);
+    let out = common::run(&all);
+    let v: Value = serde_json::from_slice(&out.stdout).unwrap_or_else(|e| panic!("{all:?}: {e}"));
+    let s = schema(cmd);
+    if let Err(e) = check(&v, &s, &s, cmd) {
+        panic!("{all:?}: {e}");
+    }
+}
+
+#[test]
+fn actual_output_validates_against_the_schemas() {
+    let _ = json;
+    for l in [
+        "layouts/pump-rewind.toml",
+        "layouts/pallet-shuttle.toml",
+        "layouts/fan-concentric.toml",
+        "layouts/servo-tooth-coil.toml",
+    ] {
+        for cmd in ["plan", "factors", "field", "pitch", "card"] {
+            validates(cmd, &[l]);
+        }
+    }
+    validates("audit", &["layouts/hoist-rewind-faulty.toml"]);
+    validates("audit", &["layouts/pump-rewind.toml"]);
+    validates(
+        "rewind",
+        &[
+            "layouts/hoist-rewind-sound.toml",
+            "layouts/hoist-rewind-new.toml",
+            "--wire-diameter-mm",
+            "1.12",
+        ],
+    );
+    validates(
+        "survey",
+        &["--slots", "6..=30", "--poles", "2..=8", "--layers", "1,2"],
+    );
+    validates(
+        "thrust",
+        &["layouts/pallet-shuttle.toml", "--slip", "-0.2..=1.2"],
+    );
+    validates("inductance", &["layouts/pallet-shuttle.toml", "--coils"]);
+}
+
+// The validator itself rejects what it should (a negative control).
+#[test]
+fn the_validator_rejects_a_wrong_output() {
+    let s = schema("plan");
+    let mut v: Value = json(&["plan", "layouts/pump-rewind.toml", "--format", "json"]);
+    assert!(check(&v, &s, &s, "plan").is_ok());
+    v["winding_factor"] = Value::String("high".into());
+    assert!(check(&v, &s, &s, "plan").is_err());
+    let mut v: Value = json(&["plan", "layouts/pump-rewind.toml", "--format", "json"]);
+    v.as_object_mut().expect("object").remove("coils");
+    assert!(check(&v, &s, &s, "plan").is_err());
+}
