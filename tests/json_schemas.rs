@@ -40,10 +40,9 @@ fn check(v: &Value, s: &Value, root: &Value, at: &str) -> Result<(), String> {
         .get("anyOf")
         .or_else(|| s.get("oneOf"))
         .and_then(Value::as_array)
+        && !alts.iter().any(|a| check(v, a, root, at).is_ok())
     {
-        if !alts.iter().any(|a| check(v, a, root, at).is_ok()) {
-            return Err(format!("{at}: matches no alternative: {v}"));
-        }
+        return Err(format!("{at}: matches no alternative: {v}"));
     }
     if let Some(all) = s.get("allOf").and_then(Value::as_array) {
         for a in all {
