@@ -515,3 +515,23 @@ fn a_flat_primary_has_a_continuous_spectrum() {
         .max(between["backward"].as_f64().unwrap_or(0.0));
     assert!(amp > 1e-3, "{between}");
 }
+
+// Two coils laid into each other's phase are one fault, named once with both coils.
+#[test]
+fn two_coils_swapped_between_phases_are_one_finding() {
+    let mut w = hoist("hoist-rewind-sound");
+    w.from_coil_list = true;
+    let (i, j) = (
+        w.coils.iter().position(|c| c.phase == 1).expect("a V coil"),
+        w.coils.iter().position(|c| c.phase == 2).expect("a W coil"),
+    );
+    w.coils[i].phase = 2;
+    w.coils[j].phase = 1;
+    let r = audit::audit(&w, None);
+    assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
+    assert_eq!(r.findings[0].kind, audit::FindingKind::CoilsSwapped);
+    let mut both = vec![i + 1, j + 1];
+    both.sort_unstable();
+    assert_eq!(r.findings[0].coils, both);
+    assert_eq!(r.fix_edits, 1);
+}

@@ -64,6 +64,8 @@ pub enum FindingKind {
     NoFundamental,
     /// A coil's span differs from the rest of its group.
     SpanDiffers,
+    /// Two coils swapped between two phases (one fault).
+    CoilsSwapped,
 }
 
 /// One thing wrong with the winding, and what to do about it.
@@ -640,6 +642,45 @@ fn odd_turns(w: &Winding) -> Option<Finding> {
     })
 }
 
+/// The findings of a fix, one per fault: two coils each moved into the other's phase are
+/// one fault, a pair swapped between phases (as a winder would lay them, one mistake).
+fn fix_findings(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
+    if let [
+        Edit::MoveCoil {
+            coil: i,
+            from: a,
+            to: b,
+            reversed: false,
+        },
+        Edit::MoveCoil {
+            coil: j,
+            from: c,
+            to: d,
+            reversed: false,
+        },
+    ] = fix
+        && a == d
+        && b == c
+    {
+        let mut coils = vec![*i + 1, *j + 1];
+        coils.sort_unstable();
+        return vec![Finding {
+            kind: FindingKind::CoilsSwapped,
+            coils,
+            slots: slots_of(w, &[*i, *j]),
+            phases: vec![w.label(*a).to_string(), w.label(*b).to_string()],
+            message: format!(
+                "{} and {} are swapped between phases {} and {}: exchange their connections",
+                coil_words(w, *i),
+                coil_words(w, *j),
+                w.label(*a),
+                w.label(*b)
+            ),
+        }];
+    }
+    fix.iter().map(|e| finding_for(w, e)).collect()
+}
+
 /// Coils whose span differs from the rest of their group (and that the fix does not
 /// explain): most often a slot number written down wrong.
 fn odd_spans(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
@@ -699,7 +740,12 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     findings.extend(slot_check.findings(w));
     findings.extend(odd_turns(w));
     let fix = found.fix.clone().unwrap_or_default();
-    findings.extend(fix.iter().map(|e| finding_for(w, e)));
+    let fix_found = fix_findings(w, &fix);
+    // A pair swapped between phases is one shop edit.
+    let swapped = fix_found
+        .first()
+        .is_some_and(|f| f.kind == FindingKind::CoilsSwapped);
+    findings.extend(fix_found);
     let total_turns: f64 = w.coils.iter().map(|c| c.turns as f64).sum();
     let no_fundamental = bal.forward.max(bal.backward).max(bal.zero) <= 1e-9 * total_turns.max(1.0);
     if no_fundamental && found.fix.is_none() {
@@ -823,7 +869,11 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         phases: bal.phases,
         paths: path_rows,
         slot_check,
-        fix_edits: fix.iter().map(Edit::cost).sum(),
+        fix_edits: if swapped {
+            1
+        } else {
+            fix.iter().map(Edit::cost).sum()
+        },
         other_fixes: found.alternatives,
         intended,
         findings,
