@@ -190,6 +190,9 @@ struct ThrustArgs {
     /// Slip range, e.g. 0..=1 or -0.2..=1.2 (below 0 generating, above 1 plugging).
     #[arg(long, default_value = "0..=1", allow_hyphen_values = true)]
     slip: String,
+    /// Speed range of the secondary instead, m/s, e.g. 0..=6 (turned into slips).
+    #[arg(long, allow_hyphen_values = true, conflicts_with = "slip")]
+    speed: Option<String>,
     /// Intervals between the first and last slip of the table.
     #[arg(long, default_value_t = 20)]
     steps: usize,
@@ -504,6 +507,29 @@ fn run(cli: Cli) -> Result<String, Failure> {
     }
 }
 
+/// `A..=B` of real numbers within ±`limit`, or one number, for the flag `flag`.
+fn parse_range_f64(s: &str, flag: &str, limit: f64) -> Result<(f64, f64), Failure> {
+    let bad = || {
+        Failure::input(format!(
+            "{flag} {s:?} is not a range; write A..=B, e.g. 0..=6"
+        ))
+    };
+    let num = |t: &str| t.trim().parse::<f64>().map_err(|_| bad());
+    let (a, b) = match s.split_once("..=") {
+        Some((a, b)) => (num(a)?, num(b)?),
+        None => {
+            let v = num(s)?;
+            (v, v)
+        }
+    };
+    if !(a.is_finite() && b.is_finite() && a.abs() <= limit && b.abs() <= limit) || a > b {
+        return Err(Failure::input(format!(
+            "{flag} {s:?}: give A..=B with A no more than B, within ±{limit}"
+        )));
+    }
+    Ok((a, b))
+}
+
 /// A slip from -10 to 10: below 0 the secondary overtakes the field (generating), above 1
 /// it runs against it (plugging).
 fn check_slip(slip: Option<f64>) -> Result<(), Failure> {
@@ -544,7 +570,7 @@ fn parse_slip_range(s: &str) -> Result<(f64, f64), String> {
 }
 
 fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
-    let (from, to) = parse_slip_range(&a.slip).map_err(Failure::input)?;
+    let slips = parse_slip_range(&a.slip).map_err(Failure::input)?;
     if !(1..=10_000).contains(&a.steps) {
         return Err(Failure::input(format!(
             "--steps {} is not valid; give 1 to 10000",
@@ -560,6 +586,33 @@ fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
         )));
     }
     let w = load(&a.common.file)?;
+    // A speed range becomes the slips s = 1 − v/v_s, fastest first.
+    let (from, to) = match &a.speed {
+        None => slips,
+        Some(text) => {
+            let (v0, v1) = parse_range_f64(text, "--speed", 1e4)?;
+            let vs = beltwright::linear::figures(&w, Default::default())
+                .synchronous_speed_m_s
+                .filter(|v| *v > 0.0)
+                .ok_or_else(|| {
+                    Failure::input(
+                        "--speed needs the synchronous speed: give core.slot_pitch_mm and \
+                         supply.frequency_hz",
+                    )
+                })?;
+            // Rounding dust at synchronism and standstill would read as a tiny slip.
+            let snap = |s: f64| {
+                if s.abs() < 1e-12 {
+                    0.0
+                } else if (s - 1.0).abs() < 1e-12 {
+                    1.0
+                } else {
+                    s
+                }
+            };
+            (snap(1.0 - v1 / vs), snap(1.0 - v0 / vs))
+        }
+    };
     let q = beltwright::thrust::ThrustQuery {
         current_a: a.current,
         slip_from: from,

@@ -184,3 +184,29 @@ fn thrust_cli_takes_negative_slip_and_gives_the_contract() {
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("flat primaries"));
 }
+
+// A speed range is the same table as its slips: v = (1 − s)·v_s (the definition of slip).
+#[test]
+fn a_speed_range_gives_the_rows_of_its_slips() {
+    let by_speed = common::json(&[
+        "thrust",
+        "layouts/pallet-shuttle.toml",
+        "--speed",
+        "0..=7.2",
+        "--steps",
+        "4",
+        "--format",
+        "json",
+    ]);
+    let by_slip = common::json(&[
+        "thrust",
+        "layouts/pallet-shuttle.toml",
+        "--slip",
+        "0..=1",
+        "--steps",
+        "4",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(by_speed["rows"], by_slip["rows"]);
+}
