@@ -507,6 +507,17 @@ fn run(cli: Cli) -> Result<String, Failure> {
     }
 }
 
+/// A current flag, when given: 0.001 to 100 000 A.
+fn check_current(flag: &str, current: Option<f64>) -> Result<(), Failure> {
+    match current {
+        Some(i) if !(i.is_finite() && (1e-3..=1e5).contains(&i)) => Err(Failure::input(format!(
+            "{flag} {} is not valid; give a current from 0.001 to 100000 A",
+            beltwright::numbering::short(i)
+        ))),
+        _ => Ok(()),
+    }
+}
+
 /// `A..=B` of real numbers within ±`limit`, or one number, for the flag `flag`.
 fn parse_range_f64(s: &str, flag: &str, limit: f64) -> Result<(f64, f64), Failure> {
     let bad = || {
@@ -543,48 +554,15 @@ fn check_slip(slip: Option<f64>) -> Result<(), Failure> {
     }
 }
 
-/// `A..=B` of slips (may be negative), or one slip.
-fn parse_slip_range(s: &str) -> Result<(f64, f64), String> {
-    let bad = || format!("--slip {s:?} is not a range; write A..=B, e.g. 0..=1 or -0.2..=1.2");
-    let num = |t: &str| t.trim().parse::<f64>().map_err(|_| bad());
-    let (a, b) = match s.split_once("..=") {
-        Some((a, b)) => (num(a)?, num(b)?),
-        None => {
-            let v = num(s)?;
-            (v, v)
-        }
-    };
-    if !(a.is_finite()
-        && b.is_finite()
-        && (-10.0..=10.0).contains(&a)
-        && (-10.0..=10.0).contains(&b))
-    {
-        return Err(format!("--slip {s:?}: give slips from -10 to 10"));
-    }
-    if a > b {
-        return Err(format!(
-            "--slip {s:?} is empty; the first slip must not exceed the last"
-        ));
-    }
-    Ok((a, b))
-}
-
 fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
-    let slips = parse_slip_range(&a.slip).map_err(Failure::input)?;
+    let slips = parse_range_f64(&a.slip, "--slip", 10.0)?;
     if !(1..=10_000).contains(&a.steps) {
         return Err(Failure::input(format!(
             "--steps {} is not valid; give 1 to 10000",
             a.steps
         )));
     }
-    if let Some(i) = a.current
-        && !(i.is_finite() && (1e-3..=1e5).contains(&i))
-    {
-        return Err(Failure::input(format!(
-            "--current {} is not valid; give a phase current from 0.001 to 100000 A",
-            beltwright::numbering::short(i)
-        )));
-    }
+    check_current("--current", a.current)?;
     let w = load(&a.common.file)?;
     // A speed range becomes the slips s = 1 − v/v_s, fastest first.
     let (from, to) = match &a.speed {
@@ -682,14 +660,7 @@ fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
             a.wires_in_hand
         )));
     }
-    if let Some(i) = a.line_current_a
-        && !(i.is_finite() && (1e-3..=1e5).contains(&i))
-    {
-        return Err(Failure::input(format!(
-            "--line-current-a {} is not valid; give a current from 0.001 to 100000 A",
-            beltwright::numbering::short(i)
-        )));
-    }
+    check_current("--line-current-a", a.line_current_a)?;
     let old = load(&a.from)?;
     let new = load(&a.to)?;
     let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a)
