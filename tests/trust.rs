@@ -462,12 +462,24 @@ fn audit_pinpoints_a_coil_whose_span_differs_from_its_group() {
         (c.back + z - 1) % z
     };
     let r = audit::audit(&w, None);
+    // The moved side overfills one slot and leaves another short, so the finding also says
+    // where the coil belongs: one finding for the one fault.
+    assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
+    let f = &r.findings[0];
+    assert_eq!(f.kind, audit::FindingKind::CoilWrongSlots);
+    assert_eq!(f.coils, vec![8]);
+    let sound = hoist("hoist-rewind-sound");
+    let (go, back) = (sound.coils[7].go + 1, sound.coils[7].back + 1);
     assert!(
-        r.findings
-            .iter()
-            .any(|f| f.kind == audit::FindingKind::SpanDiffers && f.coils == vec![8]),
-        "{:#?}",
-        r.findings
+        f.message.contains(&format!(
+            "spans {} where it should span {}",
+            sound.pitch + 1,
+            sound.pitch
+        )) && f
+            .message
+            .contains(&format!("in at slot {go}, out at slot {back}")),
+        "{}",
+        f.message
     );
 }
 
@@ -534,4 +546,104 @@ fn two_coils_swapped_between_phases_are_one_finding() {
     both.sort_unstable();
     assert_eq!(r.findings[0].coils, both);
     assert_eq!(r.fix_edits, 1);
+}
+
+// The faults a shop makes (common practice): a coil reversed, two coils laid into each
+// other's phase, a whole coil group connected into another phase, coils of one phase
+// exchanged between its parallel paths. Each planted fault is one finding naming exactly
+// the planted coils, and the edits counted are the shop's mistakes.
+#[test]
+fn audit_names_the_faults_shops_make_one_finding_each() {
+    let sound = hoist("hoist-rewind-sound");
+    let groups = winding::coil_groups(&sound);
+    let in_phase = |k: usize| groups.iter().filter(move |g| g.phase == k);
+    let u = in_phase(0).next().expect("a U group").coils.clone();
+    let v = in_phase(1).next().expect("a V group").coils.clone();
+
+    // A reversed coil plus a pair swapped between phases: two mistakes, two findings.
+    let mut w = sound.clone();
+    w.from_coil_list = true;
+    let c = &mut w.coils[v[1]];
+    (c.go, c.back, c.go_layer, c.back_layer) = (c.back, c.go, c.back_layer, c.go_layer);
+    let (a, b) = (u[0], v[0]);
+    (w.coils[a].phase, w.coils[b].phase) = (w.coils[b].phase, w.coils[a].phase);
+    let r = audit::audit(&w, None);
+    let mut kinds: Vec<_> = r.findings.iter().map(|f| f.kind).collect();
+    kinds.sort_by_key(|k| format!("{k:?}"));
+    assert_eq!(
+        kinds,
+        vec![
+            audit::FindingKind::CoilsSwapped,
+            audit::FindingKind::ReversedCoil
+        ],
+        "{:#?}",
+        r.findings
+    );
+    assert_eq!(r.fix_edits, 2);
+    let swap = r
+        .findings
+        .iter()
+        .find(|f| f.kind == audit::FindingKind::CoilsSwapped)
+        .expect("swap");
+    let mut pair = vec![a + 1, b + 1];
+    pair.sort_unstable();
+    assert_eq!(swap.coils, pair);
+
+    // A whole group connected into the next phase: one finding naming the group.
+    let mut w = sound.clone();
+    w.from_coil_list = true;
+    for &i in &u {
+        w.coils[i].phase = 1;
+    }
+    let r = audit::audit(&w, None);
+    assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
+    assert_eq!(r.findings[0].kind, audit::FindingKind::GroupWrongPhase);
+    let mut named: Vec<usize> = u.iter().map(|i| i + 1).collect();
+    named.sort_unstable();
+    assert_eq!(r.findings[0].coils, named);
+    assert_eq!(r.fix_edits, 1);
+    let fix = audit::search(&w).fix.expect("a fix");
+    assert!(audit::apply_fix(&w, &fix).is_balanced());
+}
+
+// Parallel paths (common practice: each path of a phase must carry the same EMF, or a
+// current circulates): two coils exchanged between the paths, and a whole coil group in
+// the wrong path, are each one finding naming exactly those coils.
+#[test]
+fn audit_finds_coils_and_groups_in_the_wrong_parallel_path() {
+    let sound = hoist("hoist-rewind-sound");
+    assert_eq!(sound.parallel_paths, 2);
+    let groups = winding::coil_groups(&sound);
+    let u: Vec<_> = groups.iter().filter(|g| g.phase == 0).collect();
+    // Two U coils in different paths and at different positions under their poles.
+    let a = u[0].coils[0];
+    let b = u
+        .iter()
+        .find(|g| sound.coils[g.coils[0]].path != sound.coils[a].path)
+        .map(|g| g.coils[1])
+        .expect("a U group in the other path");
+    let mut w = sound.clone();
+    w.from_coil_list = true;
+    (w.coils[a].path, w.coils[b].path) = (w.coils[b].path, w.coils[a].path);
+    let r = audit::audit(&w, None);
+    assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
+    assert_eq!(r.findings[0].kind, audit::FindingKind::PathMismatch);
+    let mut pair = vec![a + 1, b + 1];
+    pair.sort_unstable();
+    assert_eq!(r.findings[0].coils, pair, "{}", r.findings[0].message);
+
+    // A whole group in the other path: the paths differ in turns; one finding, the group.
+    let g = u[0];
+    let to = 1 - sound.coils[g.coils[0]].path;
+    let mut w = sound.clone();
+    w.from_coil_list = true;
+    for &i in &g.coils {
+        w.coils[i].path = to;
+    }
+    let r = audit::audit(&w, None);
+    assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
+    let mut named: Vec<usize> = g.coils.iter().map(|i| i + 1).collect();
+    named.sort_unstable();
+    assert_eq!(r.findings[0].coils, named, "{}", r.findings[0].message);
+    assert!(r.findings[0].message.contains("coil group"));
 }

@@ -8,6 +8,7 @@
 //! a balanced positive-sequence winding.
 
 mod compare;
+mod paths;
 pub mod search;
 mod slots;
 
@@ -19,6 +20,7 @@ use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding, coil_groups};
 
 pub use compare::{Comparison, SlotDifference, compare};
+use paths::paths;
 pub use search::{BALANCE_TOL, Edit, Search, apply_fix, search};
 pub use slots::{SlotCheck, check_slots};
 
@@ -66,6 +68,10 @@ pub enum FindingKind {
     SpanDiffers,
     /// Two coils swapped between two phases (one fault).
     CoilsSwapped,
+    /// A whole coil group (or part of one) connected into the wrong phase.
+    GroupWrongPhase,
+    /// A coil laid in (or recorded with) the wrong slots.
+    CoilWrongSlots,
 }
 
 /// One thing wrong with the winding, and what to do about it.
@@ -344,6 +350,90 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
                 }
             ),
         },
+        Edit::SwapCoils {
+            a,
+            b,
+            phase_a,
+            phase_b,
+        } => swapped_pair(w, *a, *b, *phase_a, *phase_b),
+        Edit::MoveGroup {
+            coils,
+            from,
+            to,
+            reversed,
+        } => {
+            let mut sorted = coils.clone();
+            sorted.sort_unstable();
+            let slots = slots_of(w, coils);
+            Finding {
+                kind: FindingKind::GroupWrongPhase,
+                coils: sorted.iter().map(|c| c + 1).collect(),
+                message: format!(
+                    "the coil group of coils {} (slots {}) is connected into phase {} but \
+                     belongs in phase {}{}: move its two jumpers to phase {}",
+                    label_list(&sorted),
+                    runs(&slots),
+                    w.label(*from),
+                    w.label(*to),
+                    if *reversed {
+                        ", the other way round"
+                    } else {
+                        ""
+                    },
+                    w.label(*to),
+                ),
+                slots,
+                phases: vec![w.label(*from).to_string(), w.label(*to).to_string()],
+            }
+        }
+        Edit::RelayCoil { coil, go, back, .. } => {
+            let c = &w.coils[*coil];
+            let mut slots = vec![c.go + 1, c.back + 1, go + 1, back + 1];
+            slots.sort_unstable();
+            slots.dedup();
+            let from: Vec<usize> = [(c.go, *go), (c.back, *back)]
+                .iter()
+                .filter(|(a, b)| a != b)
+                .map(|(a, _)| a + 1)
+                .collect();
+            let to: Vec<usize> = [(c.go, *go), (c.back, *back)]
+                .iter()
+                .filter(|(a, b)| a != b)
+                .map(|(_, b)| b + 1)
+                .collect();
+            let relaid = crate::winding::Coil {
+                go: *go,
+                back: *back,
+                ..c.clone()
+            };
+            let (old, new) = (w.span(c).unsigned_abs(), w.span(&relaid).unsigned_abs());
+            Finding {
+                kind: FindingKind::CoilWrongSlots,
+                coils: vec![coil + 1],
+                slots,
+                phases: vec![w.label(c.phase).to_string()],
+                message: format!(
+                    "{}{} lies in the wrong slots: slots {} hold too many coil sides while \
+                     slots {} are short. It belongs in at slot {}, out at slot {}{}; check the \
+                     record, then the coil",
+                    coil_words(w, *coil),
+                    if old != new {
+                        format!(" spans {old} where it should span {new}, so it")
+                    } else {
+                        String::new()
+                    },
+                    runs(&from),
+                    runs(&to),
+                    go + 1,
+                    back + 1,
+                    if old != new {
+                        " (a slot number was probably recorded wrong)"
+                    } else {
+                        ""
+                    },
+                ),
+            }
+        }
         Edit::ReversePhase { phase } => {
             let coils: Vec<usize> = (0..w.coils.len())
                 .filter(|&i| w.coils[i].phase == *phase)
@@ -484,135 +574,6 @@ fn balance(w: &Winding) -> Balance {
     }
 }
 
-/// Paths of every phase, and findings for paths that do not match their siblings.
-fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
-    let a = w.parallel_paths;
-    let mut rows = Vec::new();
-    let mut findings = Vec::new();
-    if a < 2 {
-        return (rows, findings);
-    }
-    let groups = coil_groups(w);
-    for k in 0..w.geometry.phases {
-        let mut emf = vec![Complex64::new(0.0, 0.0); a];
-        let mut turns = vec![0u64; a];
-        let mut coils: Vec<Vec<usize>> = vec![Vec::new(); a];
-        for (i, c) in w.coils.iter().enumerate().filter(|(_, c)| c.phase == k) {
-            let p = c.path.min(a - 1);
-            emf[p] += w.coil_emf(c, 1.0);
-            turns[p] += c.turns as u64;
-            coils[p].push(i);
-        }
-        let mean: Complex64 = emf.iter().sum::<Complex64>() / a as f64;
-        let mean_mag = emf.iter().map(|e| e.norm()).sum::<f64>() / a as f64;
-        let tol = BALANCE_TOL * mean_mag.max(1e-12);
-        let mut bad = Vec::new();
-        for p in 0..a {
-            let circ = (emf[p] - mean).norm();
-            if circ > tol || turns[p] * a as u64 != turns.iter().sum::<u64>() {
-                bad.push(p);
-            }
-            rows.push(PathRow {
-                phase: w.label(k).to_string(),
-                path: p + 1,
-                coils: coils[p].iter().map(|c| c + 1).collect(),
-                turns: turns[p],
-                magnitude: emf[p].norm(),
-                angle_deg: angle_of(emf[p]),
-                circulating_emf: circ,
-                circulating_percent: if mean_mag > 0.0 {
-                    100.0 * circ / mean_mag
-                } else {
-                    0.0
-                },
-            });
-        }
-        if bad.is_empty() {
-            continue;
-        }
-        // A single coil in the wrong path explains it? Of several such coils, the one whose
-        // coil-group neighbours lie in the path it moves to.
-        let mut hint: Option<(usize, usize, usize)> = None;
-        let mut best = 0usize;
-        let neighbours_in = |i: usize, q: usize| {
-            groups
-                .iter()
-                .find(|g| g.coils.contains(&i))
-                .map(|g| {
-                    g.coils
-                        .iter()
-                        .filter(|&&j| j != i && w.coils[j].path == q)
-                        .count()
-                })
-                .unwrap_or(0)
-        };
-        for (p, cs) in coils.iter().enumerate() {
-            for &i in cs {
-                let ce = w.coil_emf(&w.coils[i], 1.0);
-                let t = w.coils[i].turns as u64;
-                for q in (0..a).filter(|&q| q != p) {
-                    let ok = (0..a).all(|r| {
-                        let mut e = emf[r];
-                        let mut n = turns[r];
-                        if r == p {
-                            e -= ce;
-                            n -= t;
-                        }
-                        if r == q {
-                            e += ce;
-                            n += t;
-                        }
-                        (e - mean).norm() <= tol && n * a as u64 == turns.iter().sum::<u64>()
-                    });
-                    let score = neighbours_in(i, q) + 1;
-                    if ok && score > best {
-                        best = score;
-                        hint = Some((i, p, q));
-                    }
-                }
-            }
-        }
-        let l = w.label(k).to_string();
-        match hint {
-            Some((i, p, q)) => findings.push(Finding {
-                kind: FindingKind::PathMismatch,
-                coils: vec![i + 1],
-                slots: slots_of(w, &[i]),
-                phases: vec![l.clone()],
-                message: format!(
-                    "the parallel paths of phase {l} do not match, so a current circulates \
-                     between them: {} is in path {} but belongs in path {}",
-                    coil_words(w, i),
-                    p + 1,
-                    q + 1
-                ),
-            }),
-            None => {
-                for p in bad {
-                    let row = &rows[rows.len() - a + p];
-                    findings.push(Finding {
-                        kind: FindingKind::PathMismatch,
-                        coils: row.coils.clone(),
-                        slots: slots_of(w, &coils[p]),
-                        phases: vec![l.clone()],
-                        message: format!(
-                            "path {} of phase {l} does not match its siblings ({} turns, EMF {} \
-                             at {}°): a circulating EMF of {}% of the path EMF drives a \
-                             current around the parallel loop; check the coils of this path",
-                            p + 1,
-                            row.turns,
-                            crate::numbering::num(row.magnitude, 3),
-                            crate::numbering::num(row.angle_deg, 1),
-                            crate::numbering::num(row.circulating_percent, 2)
-                        ),
-                    });
-                }
-            }
-        }
-    }
-    (rows, findings)
-}
-
 /// Coils whose turns differ from the most common turn count.
 fn odd_turns(w: &Winding) -> Option<Finding> {
     let mut counts: Vec<(u32, usize)> = Vec::new();
@@ -662,23 +623,49 @@ fn fix_findings(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
         && a == d
         && b == c
     {
-        let mut coils = vec![*i + 1, *j + 1];
-        coils.sort_unstable();
-        return vec![Finding {
-            kind: FindingKind::CoilsSwapped,
-            coils,
-            slots: slots_of(w, &[*i, *j]),
-            phases: vec![w.label(*a).to_string(), w.label(*b).to_string()],
-            message: format!(
-                "{} and {} are swapped between phases {} and {}: exchange their connections",
-                coil_words(w, *i),
-                coil_words(w, *j),
-                w.label(*a),
-                w.label(*b)
-            ),
-        }];
+        return vec![swapped_pair(w, *i, *j, *a, *b)];
     }
     fix.iter().map(|e| finding_for(w, e)).collect()
+}
+
+/// Coils `i` (now in phase `a`) and `j` (now in `b`) laid into each other's phase.
+fn swapped_pair(w: &Winding, i: usize, j: usize, a: usize, b: usize) -> Finding {
+    let mut coils = vec![i + 1, j + 1];
+    coils.sort_unstable();
+    Finding {
+        kind: FindingKind::CoilsSwapped,
+        coils,
+        slots: slots_of(w, &[i, j]),
+        phases: vec![w.label(a).to_string(), w.label(b).to_string()],
+        message: format!(
+            "{} and {} are swapped between phases {} and {}: exchange their connections",
+            coil_words(w, i),
+            coil_words(w, j),
+            w.label(a),
+            w.label(b)
+        ),
+    }
+}
+
+/// Shop edits of a fix: a pair of coils each moved into the other's phase is one.
+fn fix_cost(fix: &[Edit]) -> usize {
+    match fix {
+        [
+            Edit::MoveCoil {
+                from: a,
+                to: b,
+                reversed: false,
+                ..
+            },
+            Edit::MoveCoil {
+                from: c,
+                to: d,
+                reversed: false,
+                ..
+            },
+        ] if a == d && b == c => 1,
+        _ => fix.iter().map(Edit::cost).sum(),
+    }
 }
 
 /// Coils whose span differs from the rest of their group (and that the fix does not
@@ -737,15 +724,18 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     let found = search(w);
     let mut findings = Vec::new();
     let slot_check = check_slots(w);
-    findings.extend(slot_check.findings(w));
-    findings.extend(odd_turns(w));
     let fix = found.fix.clone().unwrap_or_default();
-    let fix_found = fix_findings(w, &fix);
-    // A pair swapped between phases is one shop edit.
-    let swapped = fix_found
-        .first()
-        .is_some_and(|f| f.kind == FindingKind::CoilsSwapped);
-    findings.extend(fix_found);
+    // Paths are judged once the fix is applied, so one reversed coil is not reported twice.
+    let fixed = apply_fix(w, &fix);
+    // A coil the fix lays in other slots explains the slot fill: one finding, not two.
+    let relaid = fix.iter().any(|e| matches!(e, Edit::RelayCoil { .. }));
+    if relaid {
+        findings.extend(check_slots(&fixed).findings(&fixed));
+    } else {
+        findings.extend(slot_check.findings(w));
+    }
+    findings.extend(odd_turns(w));
+    findings.extend(fix_findings(w, &fix));
     let total_turns: f64 = w.coils.iter().map(|c| c.turns as f64).sum();
     let no_fundamental = bal.forward.max(bal.backward).max(bal.zero) <= 1e-9 * total_turns.max(1.0);
     if no_fundamental && found.fix.is_none() {
@@ -767,23 +757,26 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             phases: Vec::new(),
             message: format!(
                 "the phases are unbalanced (backward field {}% of forward, magnitudes spread \
-                 {}%) and no change of up to two edits (reversing a coil, a group or a phase, \
-                 moving a coil to another phase, swapping two leads) balances them{}. Not \
-                 searched: three or more edits, a whole group moved to another phase, a coil \
-                 laid in the wrong slots, faults spread over several coils of a path. Compare \
-                 the record with the design slot by slot (audit --intended)",
+                 {}%) and no change of up to two edits balances them. Searched: reversing a \
+                 coil, a group or a phase; moving a coil or a group to another phase; two \
+                 coils swapped between phases{}; a coil from an overfilled slot laid in a slot \
+                 with room; two leads exchanged{}. Not searched: {}. Compare the record with \
+                 the design slot by slot (audit --intended)",
                 crate::numbering::num(pct(bal.backward, bal.forward.max(bal.backward)), 2),
                 crate::numbering::num(bal.spread, 2),
+                found
+                    .swap_reach
+                    .map(|r| format!(" (up to {r} slots apart)"))
+                    .unwrap_or_default(),
                 if found.truncated {
                     " (the search of pairs of edits was cut short on this record)"
                 } else {
                     ""
-                }
+                },
+                search::NOT_SEARCHED
             ),
         });
     }
-    // Paths are judged once the fix is applied, so one reversed coil is not reported twice.
-    let fixed = apply_fix(w, &fix);
     let (_, path_findings) = paths(&fixed);
     let (path_rows, _) = paths(w);
     findings.extend(path_findings);
@@ -869,11 +862,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         phases: bal.phases,
         paths: path_rows,
         slot_check,
-        fix_edits: if swapped {
-            1
-        } else {
-            fix.iter().map(Edit::cost).sum()
-        },
+        fix_edits: fix_cost(&fix),
         other_fixes: found.alternatives,
         intended,
         findings,

@@ -32,6 +32,18 @@ const MAX_PAIR_CHECKS: usize = 20_000_000;
 /// Most fixes of the smallest size kept for ranking.
 const MAX_FIXES: usize = 256;
 
+/// Most coil pairs tried as a swap between phases: every pair of any real record (a
+/// 360-slot double layer has about 43,000), a bound on memory for a pathological one.
+const MAX_SWAPS: usize = 2_000_000;
+
+/// Most slots with room left that a coil from an overfilled slot is tried in.
+const MAX_SHORT_SLOTS: usize = 16;
+
+/// What the search does not try, for the finding that says where it stopped.
+pub const NOT_SEARCHED: &str = "three or more edits; parts of coil runs longer than 24 coils \
+     (only their polarity runs and the whole run); a coil laid in wrong slots when no slot is \
+     overfilled; turns miscounted";
+
 /// One change to a coil list. Coil and phase indices are 0-based.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub enum Edit {
@@ -56,6 +68,41 @@ pub enum Edit {
         /// Also swap its ends.
         reversed: bool,
     },
+    /// Exchange the phases of two coils: a pair laid into each other's phase, one mistake.
+    SwapCoils {
+        /// One coil, in phase `phase_a` now.
+        a: usize,
+        /// The other, in phase `phase_b` now.
+        b: usize,
+        /// Phase of `a` now (it belongs in `phase_b`).
+        phase_a: usize,
+        /// Phase of `b` now (it belongs in `phase_a`).
+        phase_b: usize,
+    },
+    /// Connect a run of adjacent coils (a group) into another phase, optionally reversed.
+    MoveGroup {
+        /// The coils, in slot order.
+        coils: Vec<usize>,
+        /// Phase they are in now.
+        from: usize,
+        /// Phase they belong in.
+        to: usize,
+        /// Also swap the group's ends.
+        reversed: bool,
+    },
+    /// Lay a coil in other slots: it sits where slots are overfilled while others are short.
+    RelayCoil {
+        /// The coil.
+        coil: usize,
+        /// Slot where current should enter (0-based).
+        go: usize,
+        /// Slot where current should leave (0-based).
+        back: usize,
+        /// Layer of the go side there.
+        go_layer: usize,
+        /// Layer of the back side there.
+        back_layer: usize,
+    },
     /// Swap the two leads of a whole phase.
     ReversePhase {
         /// The phase.
@@ -74,16 +121,19 @@ impl Edit {
     /// The coils an edit touches (0-based); none for a whole-phase edit.
     pub fn coils(&self) -> Vec<usize> {
         match self {
-            Edit::ReverseCoil { coil } | Edit::MoveCoil { coil, .. } => vec![*coil],
-            Edit::ReverseGroup { coils } => coils.clone(),
-            _ => Vec::new(),
+            Edit::ReverseCoil { coil }
+            | Edit::MoveCoil { coil, .. }
+            | Edit::RelayCoil { coil, .. } => vec![*coil],
+            Edit::SwapCoils { a, b, .. } => vec![*a, *b],
+            Edit::ReverseGroup { coils } | Edit::MoveGroup { coils, .. } => coils.clone(),
+            Edit::ReversePhase { .. } | Edit::SwapPhases { .. } => Vec::new(),
         }
     }
 
     /// How many shop edits this counts as.
     pub fn cost(&self) -> usize {
         match self {
-            Edit::MoveCoil { reversed: true, .. } => 2,
+            Edit::MoveCoil { reversed: true, .. } | Edit::MoveGroup { reversed: true, .. } => 2,
             _ => 1,
         }
     }
@@ -100,6 +150,9 @@ pub struct Search {
     pub alternatives: usize,
     /// The pair stage hit its work limit (a pathological record): the search is incomplete.
     pub truncated: bool,
+    /// Coils swapped between phases were only tried this many slots apart or closer (a very
+    /// large record); `None` when every pair was tried.
+    pub swap_reach: Option<usize>,
 }
 
 /// An additive edit: phasor deltas on at most two phases.
@@ -313,6 +366,7 @@ pub fn search(w: &Winding) -> Search {
             fix: None,
             alternatives: 0,
             truncated: false,
+            swap_reach: None,
         };
     }
 
@@ -380,6 +434,7 @@ pub fn search(w: &Winding) -> Search {
             continue;
         }
         let sum: C = g.iter().map(|&i| emf[i]).sum();
+        let turns: f64 = g.iter().map(|&i| w.coils[i].turns as f64).sum();
         push(
             Edit::ReverseGroup { coils: g.clone() },
             p,
@@ -388,6 +443,82 @@ pub fn search(w: &Winding) -> Search {
             zero,
             0.0,
             &g,
+        );
+        for to in (0..m).filter(|&t| t != p) {
+            for reversed in [false, true] {
+                push(
+                    Edit::MoveGroup {
+                        coils: g.clone(),
+                        from: p,
+                        to,
+                        reversed,
+                    },
+                    p,
+                    -sum,
+                    to,
+                    if reversed { -sum } else { sum },
+                    turns,
+                    &g,
+                );
+            }
+        }
+    }
+    // Pairs swapped between phases, nearest first when a huge record needs a bound.
+    let z = w.geometry.slots;
+    let n = w.coils.len();
+    let reach = (MAX_SWAPS / n.max(1)).max(1);
+    let swap_reach = (reach < z).then_some(reach);
+    let left: Vec<usize> = w.coils.iter().map(|c| w.left_slot(c)).collect();
+    let rotary = w.geometry.topology == Topology::Rotary;
+    for a in 0..n {
+        for b in a + 1..n {
+            let (pa, pb) = (w.coils[a].phase.min(m - 1), w.coils[b].phase.min(m - 1));
+            if pa == pb {
+                continue;
+            }
+            let d = left[a].abs_diff(left[b]);
+            let d = if rotary { d.min(z - d) } else { d };
+            if d > reach {
+                continue;
+            }
+            let de = emf[b] - emf[a];
+            let dt = w.coils[a].turns as f64 - w.coils[b].turns as f64;
+            if de.norm() <= 1e-12 * scale.max(1.0) && dt == 0.0 {
+                continue;
+            }
+            push(
+                Edit::SwapCoils {
+                    a,
+                    b,
+                    phase_a: pa,
+                    phase_b: pb,
+                },
+                pa,
+                de,
+                pb,
+                -de,
+                dt,
+                &[a, b],
+            );
+        }
+    }
+    // A coil laid in the wrong slots: a side in an overfilled slot moved to a slot with room.
+    for (i, moved) in relay_candidates(w) {
+        let p = moved.phase.min(m - 1);
+        push(
+            Edit::RelayCoil {
+                coil: i,
+                go: moved.go,
+                back: moved.back,
+                go_layer: moved.go_layer,
+                back_layer: moved.back_layer,
+            },
+            p,
+            w.coil_emf(&moved, 1.0) - emf[i],
+            p,
+            zero,
+            0.0,
+            &[i],
         );
     }
     let mut maps: Vec<Map> = Vec::new();
@@ -530,11 +661,14 @@ pub fn search(w: &Winding) -> Search {
             fix: None,
             alternatives: 0,
             truncated,
+            swap_reach,
         };
     }
-    // Rank: fewest shop edits, then most coils agreeing with the standard belt layout, then
-    // fewest coils touched, then the earliest edits.
+    // Rank: fewest shop edits, then most coils agreeing with the standard belt layout, most
+    // coils whose span is the record's usual span, then fewest coils touched, then the
+    // earliest edits.
     let reference = belt_reference(w);
+    let usual = usual_span(w);
     let ranked = found
         .into_iter()
         .map(|f| {
@@ -542,22 +676,111 @@ pub fn search(w: &Winding) -> Search {
             let cost: usize = fix.iter().map(Edit::cost).sum();
             let touched: usize = fix.iter().map(|e| touched(w, e)).sum();
             let agree = agreement(w, &fix, &reference);
-            (cost, std::cmp::Reverse(agree), touched, f, fix)
+            let regular = apply_fix(w, &fix)
+                .coils
+                .iter()
+                .filter(|c| Some(w.span(c).unsigned_abs()) == usual)
+                .count();
+            (cost, (agree, regular), touched, f, fix)
         })
-        .min_by(|x, y| (x.0, x.1, x.2, &x.3).cmp(&(y.0, y.1, y.2, &y.3)));
+        .min_by(|x, y| {
+            (x.0, std::cmp::Reverse(x.1), x.2, &x.3).cmp(&(y.0, std::cmp::Reverse(y.1), y.2, &y.3))
+        });
     Search {
         balanced: false,
         fix: ranked.map(|r| r.4),
         alternatives: total - 1,
         truncated,
+        swap_reach,
     }
+}
+
+/// Where a coil with a side in an overfilled slot could lie instead: each such side moved
+/// to a slot with room, alone or with the other side, as (coil index, the coil relaid).
+fn relay_candidates(w: &Winding) -> Vec<(usize, crate::winding::Coil)> {
+    let layers = w.geometry.layers;
+    let z = w.geometry.slots;
+    let mut sides = vec![0usize; z];
+    for c in &w.coils {
+        sides[c.go] += 1;
+        sides[c.back] += 1;
+    }
+    let fill = w.slot_fill();
+    let short: Vec<usize> = (0..z)
+        .filter(|&k| sides[k] < super::slots::expected(w, k))
+        .take(MAX_SHORT_SLOTS)
+        .collect();
+    if short.is_empty() {
+        return Vec::new();
+    }
+    // The layer a side would take in slot k: its own if free there, else the other.
+    let layer_in = |k: usize, own: usize| -> usize {
+        if layers < 2 || fill[k][own.min(1)].is_none() {
+            own.min(layers - 1)
+        } else {
+            1 - own.min(1)
+        }
+    };
+    let mut out = Vec::new();
+    for (i, c) in w.coils.iter().enumerate() {
+        let go_over = sides[c.go] > layers;
+        let back_over = sides[c.back] > layers;
+        if !go_over && !back_over {
+            continue;
+        }
+        let gos: Vec<usize> = std::iter::once(c.go)
+            .chain(short.iter().copied().filter(|_| go_over))
+            .collect();
+        let backs: Vec<usize> = std::iter::once(c.back)
+            .chain(short.iter().copied().filter(|_| back_over))
+            .collect();
+        for &g in &gos {
+            for &b in &backs {
+                if (g, b) == (c.go, c.back) || g == b {
+                    continue;
+                }
+                let gl = if g == c.go {
+                    c.go_layer
+                } else {
+                    layer_in(g, c.go_layer)
+                };
+                let bl = if b == c.back {
+                    c.back_layer
+                } else {
+                    layer_in(b, c.back_layer)
+                };
+                out.push((
+                    i,
+                    crate::winding::Coil {
+                        go: g,
+                        back: b,
+                        go_layer: gl,
+                        back_layer: bl,
+                        ..c.clone()
+                    },
+                ));
+            }
+        }
+    }
+    out
+}
+
+/// The most common coil span of the record (the larger on a tie), if it has coils.
+fn usual_span(w: &Winding) -> Option<u64> {
+    let mut spans: Vec<u64> = w.coils.iter().map(|c| w.span(c).unsigned_abs()).collect();
+    spans.sort_unstable();
+    spans
+        .chunk_by(|a, b| a == b)
+        .max_by_key(|run| (run.len(), run[0]))
+        .map(|run| run[0])
 }
 
 /// Coils an edit touches.
 fn touched(w: &Winding, e: &Edit) -> usize {
     match e {
-        Edit::ReverseCoil { .. } | Edit::MoveCoil { .. } => 1,
-        Edit::ReverseGroup { coils } => coils.len(),
+        Edit::ReverseCoil { .. } | Edit::MoveCoil { .. } | Edit::RelayCoil { .. } => 1,
+        Edit::SwapCoils { .. } => 2,
+        Edit::ReverseGroup { coils } | Edit::MoveGroup { coils, .. } => coils.len(),
         Edit::ReversePhase { phase } => w.coils.iter().filter(|c| c.phase == *phase).count(),
         Edit::SwapPhases { a, b } => w
             .coils
@@ -586,6 +809,30 @@ fn agreement(w: &Winding, fix: &[Edit], reference: &[(usize, bool)]) -> usize {
                     state[*coil].1 = !state[*coil].1;
                 }
             }
+            Edit::MoveGroup {
+                coils,
+                to,
+                reversed,
+                ..
+            } => {
+                for &c in coils {
+                    state[c].0 = *to;
+                    if *reversed {
+                        state[c].1 = !state[c].1;
+                    }
+                }
+            }
+            Edit::SwapCoils {
+                a,
+                b,
+                phase_a,
+                phase_b,
+            } => {
+                state[*a].0 = *phase_b;
+                state[*b].0 = *phase_a;
+            }
+            // The reference is by left slot, which a relaid coil changes: judged as it lies.
+            Edit::RelayCoil { .. } => {}
             Edit::ReversePhase { phase } => {
                 for s in state.iter_mut().filter(|s| s.0 == *phase) {
                     s.1 = !s.1;
@@ -627,6 +874,38 @@ pub fn apply_fix(w: &Winding, fix: &[Edit]) -> Winding {
                 if *reversed {
                     flip(&mut out.coils[*coil]);
                 }
+            }
+            Edit::MoveGroup {
+                coils,
+                to,
+                reversed,
+                ..
+            } => {
+                for &c in coils {
+                    out.coils[c].phase = *to;
+                    if *reversed {
+                        flip(&mut out.coils[c]);
+                    }
+                }
+            }
+            Edit::SwapCoils {
+                a,
+                b,
+                phase_a,
+                phase_b,
+            } => {
+                out.coils[*a].phase = *phase_b;
+                out.coils[*b].phase = *phase_a;
+            }
+            Edit::RelayCoil {
+                coil,
+                go,
+                back,
+                go_layer,
+                back_layer,
+            } => {
+                let c = &mut out.coils[*coil];
+                (c.go, c.back, c.go_layer, c.back_layer) = (*go, *back, *go_layer, *back_layer);
             }
             Edit::ReversePhase { phase } => {
                 for c in out.coils.iter_mut().filter(|c| c.phase == *phase) {
@@ -679,13 +958,38 @@ mod tests {
             }
         }
         for g in group_candidates(w) {
-            let n = w
-                .coils
-                .iter()
-                .filter(|c| c.phase == w.coils[g[0]].phase)
-                .count();
+            let from = w.coils[g[0]].phase;
+            let n = w.coils.iter().filter(|c| c.phase == from).count();
             if g.len() < n {
-                out.push(Edit::ReverseGroup { coils: g });
+                out.push(Edit::ReverseGroup { coils: g.clone() });
+                for to in (0..m).filter(|&t| t != from) {
+                    for reversed in [false, true] {
+                        out.push(Edit::MoveGroup {
+                            coils: g.clone(),
+                            from,
+                            to,
+                            reversed,
+                        });
+                    }
+                }
+            }
+        }
+        // Every pair in different phases that changes something (these records are small
+        // enough for the search to try them all).
+        let scale: f64 = w.coils.iter().map(|c| w.coil_emf(c, 1.0).norm()).sum();
+        for a in 0..w.coils.len() {
+            for b in a + 1..w.coils.len() {
+                let (ca, cb) = (&w.coils[a], &w.coils[b]);
+                let same = (w.coil_emf(ca, 1.0) - w.coil_emf(cb, 1.0)).norm() <= 1e-12 * scale
+                    && ca.turns == cb.turns;
+                if ca.phase != cb.phase && !same {
+                    out.push(Edit::SwapCoils {
+                        a,
+                        b,
+                        phase_a: ca.phase,
+                        phase_b: cb.phase,
+                    });
+                }
             }
         }
         for k in 0..m {
@@ -700,11 +1004,7 @@ mod tests {
     }
 
     fn coils_of(e: &Edit) -> Vec<usize> {
-        match e {
-            Edit::ReverseCoil { coil } | Edit::MoveCoil { coil, .. } => vec![*coil],
-            Edit::ReverseGroup { coils } => coils.clone(),
-            _ => Vec::new(),
-        }
+        e.coils()
     }
 
     fn additive(e: &Edit) -> bool {

@@ -22,7 +22,7 @@ pub struct SlotCheck {
 
 /// Sides each slot should hold: the layer count, one at the ends of a double-layer linear
 /// primary (its span's worth of slots at each end).
-fn expected(w: &Winding, k: usize) -> usize {
+pub(super) fn expected(w: &Winding, k: usize) -> usize {
     let g = &w.geometry;
     if g.topology == Topology::Linear && g.layers == 2 {
         let y = w.pitch.min(g.slots / 2);
