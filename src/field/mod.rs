@@ -20,6 +20,9 @@
 #[cfg(test)]
 mod tests;
 
+mod ends;
+pub use ends::EndCurrents;
+
 use num_complex::Complex64;
 use serde::Serialize;
 use std::f64::consts::PI;
@@ -484,6 +487,9 @@ pub struct LinearField {
     /// finite length spreads each wave over neighbouring wavenumbers (its transform is a
     /// sinc-like lobe 1/p wide in order), or `None`.
     pub strongest_between_orders: Option<ContinuumPoint>,
+    /// The entry and exit ends' own components (`None` for a primary shorter than one
+    /// period of its slot pattern).
+    pub ends: Option<EndComponents>,
 }
 
 /// One sample of a flat primary's continuous spectrum.
@@ -495,6 +501,39 @@ pub struct ContinuumPoint {
     pub forward: f64,
     /// Backward amplitude relative to the working wave.
     pub backward: f64,
+    /// Forward amplitude of the entry end's component alone (see [`EndComponents`]).
+    pub entry_forward: f64,
+    /// Backward amplitude of the entry end's component alone.
+    pub entry_backward: f64,
+    /// Forward amplitude of the exit end's component alone.
+    pub exit_forward: f64,
+    /// Backward amplitude of the exit end's component alone.
+    pub exit_backward: f64,
+}
+
+/// What a flat primary's two ends add to its field: the slot currents by which each end
+/// differs from the winding's periodic pattern, and each end's own waves at π/τ (every
+/// sample of them is in [`ContinuumPoint`]). The spectrum is the body's (the working waves
+/// cut off at the ends) plus these two. Near zero wavenumber each end's net current makes an
+/// MMF step whose transform grows as 1/ν; the two steps cancel in the sum, whose remainder
+/// the `pulsating` figure gives.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct EndComponents {
+    /// Slots (from 1) whose current differs from the pattern, at the entry end: the end the
+    /// secondary enters under (slot 1's end for a field towards rising slot numbers).
+    pub entry_slots: Vec<usize>,
+    /// Such slots at the exit end.
+    pub exit_slots: Vec<usize>,
+    /// Entry end's forward component at the synchronous wavenumber π/τ, relative to the
+    /// working wave.
+    pub entry_forward_at_1: f64,
+    /// Entry end's backward component at π/τ: where the sheet's backward wave is nil, the
+    /// two ends' backward components cancel there.
+    pub entry_backward_at_1: f64,
+    /// Exit end's forward component at π/τ.
+    pub exit_forward_at_1: f64,
+    /// Exit end's backward component at π/τ.
+    pub exit_backward_at_1: f64,
 }
 
 /// Most samples of a continuous spectrum given.
@@ -749,17 +788,40 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         // Samples at a quarter of the lobe width 1/(2p), capped in number.
         let step = (1.0 / (8.0 * g.poles.max(1) as f64)).max(opts.upto / MAX_CONTINUUM as f64);
         let n = (opts.upto / step).floor() as usize;
+        let sides = w.slot_sides();
+        let full: Vec<bool> = sides.iter().map(|&n| n >= g.layers).collect();
+        let end_currents = sheet.end_currents(&full, dir);
+        let none = EndCurrents::default();
+        let parts = end_currents.as_ref().unwrap_or(&none);
         let continuous: Vec<ContinuumPoint> = (1..=n)
             .map(|k| {
                 let order = k as f64 * step;
                 let (cf, cb) = sheet.wave(order);
+                let (ef, eb) = sheet.wave_of(&parts.entry, order);
+                let (xf, xb) = sheet.wave_of(&parts.exit, order);
                 ContinuumPoint {
                     order,
                     forward: cf / amp,
                     backward: cb / amp,
+                    entry_forward: ef / amp,
+                    entry_backward: eb / amp,
+                    exit_forward: xf / amp,
+                    exit_backward: xb / amp,
                 }
             })
             .collect();
+        let ends = end_currents.as_ref().map(|e| {
+            let (ef, eb) = sheet.wave_of(&e.entry, 1.0);
+            let (xf, xb) = sheet.wave_of(&e.exit, 1.0);
+            EndComponents {
+                entry_forward_at_1: ef / amp,
+                entry_backward_at_1: eb / amp,
+                exit_forward_at_1: xf / amp,
+                exit_backward_at_1: xb / amp,
+                entry_slots: e.entry.iter().map(|(k, _)| k + 1).collect(),
+                exit_slots: e.exit.iter().map(|(k, _)| k + 1).collect(),
+            }
+        });
         let strongest_between_orders = continuous
             .iter()
             .filter(|p| (p.order - p.order.round()).abs() >= 0.25 - 1e-9)
@@ -772,6 +834,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         LinearField {
             continuous,
             strongest_between_orders,
+            ends,
             synchronous_wavenumber_rad_m: g.pole_pitch_m().map(|t| PI / t),
             synchronous_wavenumber_rad_slot: PI / g.pole_pitch_slots,
             forward_wave: f / amp,

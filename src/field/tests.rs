@@ -614,3 +614,64 @@ fn linear_transform_agrees_with_fft_of_padded_primary() {
         );
     }
 }
+
+// The end slots of a double-layer flat primary hold one coil side each, span-many at each
+// end (common practice): so the ends differ from the winding's pattern in exactly those
+// slots, each by one coil side's ampere-turns N·I. A single-layer primary of whole
+// wavelengths has full slots throughout: its ends only cut the waves off.
+#[test]
+fn a_flat_primary_s_ends_are_the_coil_sides_its_end_slots_lack() {
+    for (slots, poles, pitch, turns) in [
+        (29usize, 4usize, 5usize, 7u32),
+        (23, 3, 5, 3),
+        (41, 6, 5, 4),
+    ] {
+        let w = wind(&format!(
+            "[machine]\ntopology=\"linear\"\nslots={slots}\npoles={poles}\n[winding]\n\
+             layers=2\npitch={pitch}\nturns_per_coil={turns}\n"
+        ));
+        let sheet = CurrentSheet::new(&w, &FieldOptions::balanced(&w).currents, 0.0).unwrap();
+        let full: Vec<bool> = w.slot_sides().iter().map(|&n| n == 2).collect();
+        let ends = sheet
+            .end_currents(&full, Direction::Forward)
+            .expect("a body to compare with");
+        let entry: Vec<usize> = ends.entry.iter().map(|e| e.0).collect();
+        let exit: Vec<usize> = ends.exit.iter().map(|e| e.0).collect();
+        assert_eq!(entry, (0..pitch).collect::<Vec<_>>(), "Z={slots}");
+        assert_eq!(
+            exit,
+            (slots - pitch..slots).collect::<Vec<_>>(),
+            "Z={slots}"
+        );
+        for (k, r) in ends.entry.iter().chain(&ends.exit) {
+            assert!((r.norm() - turns as f64).abs() < 1e-9, "slot {k}: {r}");
+        }
+        // Reversing the travel swaps which end the secondary enters at.
+        let back = sheet
+            .end_currents(&full, Direction::Backward)
+            .expect("body");
+        assert_eq!(back.entry, ends.exit);
+        // The report names the same slots (from 1) and gives finite samples.
+        let report = report(&w, 3.0);
+        let l = report.linear.as_ref().expect("linear");
+        let e = l.ends.as_ref().expect("ends");
+        assert_eq!(
+            e.entry_slots,
+            entry.iter().map(|k| k + 1).collect::<Vec<_>>()
+        );
+        assert!(l.continuous.iter().all(|p| p.entry_forward.is_finite()));
+    }
+    let w = wind("[machine]\ntopology=\"linear\"\nslots=24\npoles=4\n[winding]\nlayers=1\n");
+    let sheet = CurrentSheet::new(&w, &FieldOptions::balanced(&w).currents, 0.0).unwrap();
+    let ends = sheet
+        .end_currents(&vec![true; 24], Direction::Forward)
+        .expect("body");
+    assert!(ends.entry.is_empty() && ends.exit.is_empty());
+    // 17 slots, 2 poles, q = 2, span 5: the 7 full slots do not hold a whole period of 12,
+    // so there is no body to compare the ends with.
+    let w =
+        wind("[machine]\ntopology=\"linear\"\nslots=17\npoles=2\n[winding]\nlayers=2\npitch=5\n");
+    let sheet = CurrentSheet::new(&w, &FieldOptions::balanced(&w).currents, 0.0).unwrap();
+    let full: Vec<bool> = w.slot_sides().iter().map(|&n| n == 2).collect();
+    assert_eq!(sheet.end_currents(&full, Direction::Forward), None);
+}

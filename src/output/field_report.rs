@@ -92,6 +92,34 @@ impl Report for FieldReport {
                     78,
                 ));
             }
+            if let Some(e) = &l.ends {
+                let text = if e.entry_slots.is_empty() && e.exit_slots.is_empty() {
+                    "every slot carries the winding's periodic pattern: the ends only cut the \
+                     waves off"
+                        .to_string()
+                } else {
+                    let slots = |s: &[usize]| {
+                        if s.is_empty() {
+                            "none".to_string()
+                        } else {
+                            crate::numbering::ranges(s)
+                        }
+                    };
+                    format!(
+                        "the ends differ from the winding's periodic pattern in slots {} \
+                         (entry) and {} (exit). At pi/tau the entry end alone gives forward {}, \
+                         backward {}; the exit end forward {}, backward {} (every wavenumber: \
+                         JSON continuous)",
+                        slots(&e.entry_slots),
+                        slots(&e.exit_slots),
+                        num(e.entry_forward_at_1, 4),
+                        num(e.entry_backward_at_1, 4),
+                        num(e.exit_forward_at_1, 4),
+                        num(e.exit_backward_at_1, 4),
+                    )
+                };
+                head.extend(super::reports::wrap(&text, 78));
+            }
             if let Some(v) = l.field_speed_m_s {
                 let sec = l
                     .secondary_speed_m_s

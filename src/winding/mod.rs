@@ -312,6 +312,16 @@ impl Winding {
         fill
     }
 
+    /// Coil sides in every slot (0-based index).
+    pub fn slot_sides(&self) -> Vec<usize> {
+        let mut sides = vec![0usize; self.geometry.slots];
+        for c in &self.coils {
+            sides[c.go] += 1;
+            sides[c.back] += 1;
+        }
+        sides
+    }
+
     /// Slots (0-based) with one layer empty: the end slots of a linear double-layer primary,
     /// or any gap left in a double-layer record.
     pub fn half_filled_slots(&self) -> Vec<usize> {
