@@ -664,7 +664,7 @@ fn a_flat_primary_s_ends_are_the_coil_sides_its_end_slots_lack() {
     let w = wind("[machine]\ntopology=\"linear\"\nslots=24\npoles=4\n[winding]\nlayers=1\n");
     let sheet = CurrentSheet::new(&w, &FieldOptions::balanced(&w).currents, 0.0).unwrap();
     let ends = sheet
-        .end_currents(&vec![true; 24], Direction::Forward)
+        .end_currents(&[true; 24], Direction::Forward)
         .expect("body");
     assert!(ends.entry.is_empty() && ends.exit.is_empty());
     // 17 slots, 2 poles, q = 2, span 5: the 7 full slots do not hold a whole period of 12,
