@@ -14,19 +14,6 @@ use std::f64::consts::PI;
 
 use crate::winding::{Topology, Winding};
 
-/// Slot currents at ωt = 0 for balanced positive-sequence phase currents
-/// i_k = cos(2πk/m), written into `out` (one entry per slot; go sides +N·i, back −N·i).
-pub fn slot_currents_into(w: &Winding, out: &mut Vec<f64>) {
-    let m = w.geometry.phases as f64;
-    out.clear();
-    out.resize(w.geometry.slots, 0.0);
-    for c in &w.coils {
-        let i = c.turns as f64 * (2.0 * PI * c.phase as f64 / m).cos();
-        out[c.go] += i;
-        out[c.back] -= i;
-    }
-}
-
 /// σ_d of a periodic staircase of slot currents whose working wave has `order` periods
 /// around the `currents.len()` slots. Returns `None` when there is no working wave.
 /// Allocation-free: one pass for the staircase and one recurrence for the working wave.
@@ -69,7 +56,7 @@ pub fn differential_leakage(w: &Winding) -> Option<f64> {
     match g.topology {
         Topology::Rotary => {
             let mut buf = Vec::with_capacity(g.slots);
-            slot_currents_into(w, &mut buf);
+            crate::winding::star::balanced_slot_currents(w, &mut buf);
             staircase_leakage(&buf, (g.poles / 2) as u64)
         }
         Topology::Linear => {

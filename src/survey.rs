@@ -17,6 +17,7 @@ use serde::Serialize;
 
 use crate::layout::Spec;
 use crate::leakage::staircase_leakage;
+use crate::winding::star::{belt_of_index, roots_of_unity};
 use crate::winding::{
     Topology, build_brief, double_layer_rotary_feasible, gcd, possible_path_counts,
     rotary_periodicity,
@@ -246,10 +247,9 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRo
         let (mut re, mut im) = (0.0, 0.0);
         for k in 0..z {
             let a = (k * p) % z;
-            let belt = (2 * m * a / z).min(2 * m - 1);
-            let sign = match belt {
-                0 => 1.0,
-                _ if belt == m => -1.0,
+            let sign = match belt_of_index(a as u64, z as u64, m) {
+                (0, true) => 1.0,
+                (0, false) => -1.0,
                 _ => continue,
             };
             let (c, s) = roots[(nu * a) % z];
@@ -339,34 +339,13 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRo
     r
 }
 
-/// cos and sin of 2πk/Z for k in 0..Z, by complex multiplication with a fresh exact value
-/// every 64 steps (no rounding build-up on large cores).
-fn roots_of_unity(z: usize, out: &mut Vec<(f64, f64)>) {
-    let step = 2.0 * PI / z as f64;
-    let (ss, sc) = step.sin_cos();
-    out.clear();
-    let (mut c, mut s) = (1.0f64, 0.0f64);
-    for k in 0..z {
-        if k % 64 == 0 {
-            (s, c) = (step * k as f64).sin_cos();
-        }
-        out.push((c, s));
-        (c, s) = (c * sc - s * ss, s * sc + c * ss);
-    }
-}
-
 /// c_k = s_k·cos(2πφ_k/m) for the 60° belt (φ_k, s_k) of slot k, into `buf[..z]`.
 fn belt_currents(z: usize, p: usize, m: usize, buf: &mut Vec<f64>) {
     buf.clear();
     buf.resize(2 * z, 0.0);
     for (k, c) in buf[..z].iter_mut().enumerate() {
-        let a = (k * p) % z;
-        let belt = (2 * m * a / z).min(2 * m - 1);
-        let (phase, sign) = if belt.is_multiple_of(2) {
-            (belt / 2, 1.0)
-        } else {
-            (((belt + m) / 2) % m, -1.0)
-        };
+        let (phase, positive) = belt_of_index(((k * p) % z) as u64, z as u64, m);
+        let sign = if positive { 1.0 } else { -1.0 };
         *c = sign * (2.0 * PI * phase as f64 / m as f64).cos();
     }
 }
@@ -425,7 +404,7 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
                 r.periodicity = Some(t);
                 r.unbalanced_pull = Some(!w.balanced_pull());
                 let mut cur = Vec::new();
-                crate::leakage::slot_currents_into(&w, &mut cur);
+                crate::winding::star::balanced_slot_currents(&w, &mut cur);
                 r.lowest_subharmonic = (1..p)
                     .filter(|n| n % t == 0)
                     .find(|&n| order_amplitude(&cur, n) > 1e-9 * order_amplitude(&cur, p))

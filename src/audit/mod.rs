@@ -14,7 +14,6 @@ mod slots;
 
 use num_complex::Complex64;
 use serde::Serialize;
-use std::f64::consts::PI;
 
 use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding, coil_groups};
@@ -221,22 +220,7 @@ fn angle_of(e: Complex64) -> f64 {
     }
 }
 
-/// Symmetrical components of m phasors (Fortescue 1918): (forward, backward, zero) with
-/// forward = (1/m) Σ E_k e^{+j2πk/m}, backward = (1/m) Σ E_k e^{−j2πk/m}, zero = (1/m) Σ E_k,
-/// for the convention that phase k lags phase 0 by 2πk/m in positive sequence.
-pub fn symmetrical_components(e: &[Complex64]) -> (Complex64, Complex64, Complex64) {
-    let m = e.len().max(1) as f64;
-    let mut f = Complex64::new(0.0, 0.0);
-    let mut b = f;
-    let mut z = f;
-    for (k, x) in e.iter().enumerate() {
-        let w = Complex64::from_polar(1.0, 2.0 * PI * k as f64 / m);
-        f += x * w;
-        b += x * w.conj();
-        z += x;
-    }
-    (f / m, b / m, z / m)
-}
+pub use crate::winding::star::symmetrical_components;
 
 /// Orders listed beside the fundamental: 5, 7, and for a fractional-slot rotary winding the
 /// sub-harmonic (ν = n/p, n < p) with the largest EMF.
@@ -878,6 +862,7 @@ fn pct(x: f64, of: f64) -> f64 {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use std::f64::consts::PI;
 
     // Symmetrical components of a single-phase set (1, 0, 0): each component is 1/3
     // (Fortescue 1918; J. J. Grainger, W. D. Stevenson, *Power System Analysis*, 1994, §11.1).

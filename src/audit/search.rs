@@ -17,10 +17,7 @@ use std::f64::consts::PI;
 use crate::layout::MAX_PHASES;
 use crate::winding::{Topology, Winding};
 
-/// Relative imbalance below which a winding counts as balanced. Coil turns are whole numbers,
-/// so a real fault leaves an imbalance of a few per cent; rounding in the phasor sums stays
-/// near 1e-13.
-pub const BALANCE_TOL: f64 = 1e-7;
+pub use crate::winding::star::BALANCE_TOL;
 
 /// Longest run of same-phase coils whose every contiguous part is tried as a group.
 const MAX_RUN: usize = 24;
@@ -274,20 +271,9 @@ impl Balance {
 /// Phase of each coil's left slot in the standard 60° belt layout (star of slots, slot 1 at
 /// the start of +U), with its polarity: the reference for breaking ties between fixes.
 fn belt_reference(w: &Winding) -> Vec<(usize, bool)> {
-    let g = &w.geometry;
-    let m = g.phases as u64;
     w.coils
         .iter()
-        .map(|c| {
-            let k = w.left_slot(c) as u64;
-            let a = (k * g.angle_num) % g.angle_den;
-            let b = ((2 * m * a / g.angle_den) as usize).min(2 * g.phases - 1);
-            if b.is_multiple_of(2) {
-                (b / 2, true)
-            } else {
-                ((b + g.phases) / 2 % g.phases, false)
-            }
-        })
+        .map(|c| crate::winding::star::belt_of_slot(&w.geometry, w.left_slot(c)))
         .collect()
 }
 

@@ -17,7 +17,7 @@ use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::output::num;
 use crate::plan::phasors;
-use crate::winding::Winding;
+use crate::winding::{Winding, star};
 
 /// Draw the star sheet.
 pub fn draw(w: &Winding, page: &Page) -> String {
@@ -63,19 +63,14 @@ pub fn draw(w: &Winding, page: &Page) -> String {
     canvas.finish()
 }
 
-/// Slots sharing one ray of the star, and the ray's drawing angle.
+/// Slots sharing one ray of the star (exact angle index, [`star::rays`]), and the ray's
+/// drawing angle −θ.
 fn rays(w: &Winding) -> Vec<(f64, Vec<usize>)> {
-    let mut out: Vec<(f64, Vec<usize>)> = Vec::new();
-    for k in 0..w.geometry.slots {
-        let phi = -w.geometry.slot_angle(k, 1.0);
-        match out.iter_mut().find(|(a, _)| {
-            ((a - phi).rem_euclid(2.0 * PI)).min((phi - a).rem_euclid(2.0 * PI)) < 1e-9
-        }) {
-            Some((_, v)) => v.push(k),
-            None => out.push((phi, vec![k])),
-        }
-    }
-    out
+    let den = w.geometry.angle_den.max(1) as f64;
+    star::rays(&w.geometry)
+        .into_iter()
+        .map(|(a, slots)| (-2.0 * PI * a as f64 / den, slots))
+        .collect()
 }
 
 fn pt(cx: f64, cy: f64, rad: f64, phi: f64) -> (f64, f64) {
@@ -131,11 +126,7 @@ fn star(w: &Winding, pal: &Palette, b: Rect) -> Group {
     let spacing = 2.0 * PI / rays.len().max(1) as f64;
     let edge = if rays.len() > 1 { spacing / 2.0 } else { 0.0 };
     for s in 0..2 * m {
-        let (phase, positive) = if s % 2 == 0 {
-            (s / 2, true)
-        } else {
-            (((s + m) / 2) % m, false)
-        };
+        let (phase, positive) = star::belt(s, m);
         let a0 = -(s as f64) * PI / m as f64 + edge;
         let a1 = -((s + 1) as f64) * PI / m as f64 + edge;
         let rr = rad + 4.0;

@@ -180,13 +180,7 @@ impl CurrentSheet {
             return Err(FieldError::SlotOpening(opening));
         }
         let z = w.geometry.slots;
-        let a = w.parallel_paths.max(1) as f64;
-        let mut c = vec![Complex64::new(0.0, 0.0); z];
-        for coil in &w.coils {
-            let i = currents[coil.phase] * (coil.turns as f64 / a);
-            c[coil.go] += i;
-            c[coil.back] -= i;
-        }
+        let c = crate::winding::star::slot_currents(w, currents);
         let mut level = Vec::with_capacity(z);
         let mut run = Complex64::new(0.0, 0.0);
         for ck in &c {

@@ -7,7 +7,8 @@
 
 use num_complex::Complex64;
 
-use super::{PHASOR_TOL, PlanError, Topology, Winding};
+use super::star::BALANCE_TOL;
+use super::{PlanError, Topology, Winding};
 
 /// A run of adjacent coils of one phase and one polarity.
 #[derive(Debug, Clone, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
@@ -79,7 +80,7 @@ fn split_phase(w: &Winding, groups: &[&CoilGroup], a: usize) -> Option<Vec<usize
         return None;
     }
     let target = total / a as f64;
-    let tol = PHASOR_TOL * total.norm().max(1.0) * 10.0;
+    let tol = BALANCE_TOL * (total.norm() / a as f64).max(1e-300);
     let balanced = |assign: &[usize]| {
         let mut e = vec![Complex64::new(0.0, 0.0); a];
         let mut n = vec![0u64; a];

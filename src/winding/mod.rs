@@ -3,6 +3,7 @@
 
 mod feasible;
 mod groups;
+pub mod star;
 mod synth;
 
 use itertools::Itertools;
@@ -205,9 +206,6 @@ pub struct Winding {
     pub design: crate::design::Design,
 }
 
-/// Relative tolerance used for "equal" phasors throughout.
-pub const PHASOR_TOL: f64 = 1e-9;
-
 impl Winding {
     /// Signed span of a coil in slot pitches: positive when current enters at the left side
     /// (the side from which the coil reaches forward), negative for a coil reversed. A span
@@ -289,16 +287,7 @@ impl Winding {
     /// True when every phase EMF at the fundamental has the same magnitude and the phases
     /// follow each other by 2π/m in sequence order (positive sequence).
     pub fn is_balanced(&self) -> bool {
-        let m = self.geometry.phases;
-        let e = self.phase_emfs(1.0);
-        let r = e[0].norm();
-        if r < 1e-12 {
-            return false;
-        }
-        (0..m).all(|k| {
-            let ideal = e[0] * Complex64::from_polar(1.0, -2.0 * PI * k as f64 / m as f64);
-            (e[k] - ideal).norm() <= PHASOR_TOL * r.max(1.0)
-        })
+        star::is_positive_sequence(&self.phase_emfs(1.0))
     }
 
     /// Occupancy of every slot layer: `fill[slot][layer]` is the coil index (0-based) whose

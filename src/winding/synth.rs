@@ -1,12 +1,10 @@
 //! Synthesis of balanced windings by the star of slots with 60° phase belts, and the
 //! building of a [`Winding`] from an explicit coil list.
 //!
-//! Method: the star of slots (slot k at electrical angle k·p·2π/Z on a rotary core, π·k/τ
-//! along a linear primary) is cut into 2m sectors of π/m; sector b belongs to phase b/2
-//! (b even, positive) or to phase (b − m)/2 (b odd, negative), giving the belt order
-//! +U −W +V −U +W −V for m = 3 (Pyrhönen, Jokinen, Hrabovcová, *Design of Rotating Electrical
-//! Machines*, 2nd ed. 2014, §2.4; K. Vogt, *Berechnung elektrischer Maschinen*, 1996).
+//! Method: every slot takes the phase and polarity of its 60° belt in the star of slots
+//! ([`super::star`], where the belt rule lives).
 
+use super::star::belt_of_slot;
 use super::{
     Coil, Geometry, PlanError, Style, Topology, Winding, assign_paths,
     double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity,
@@ -50,25 +48,6 @@ pub fn build_lenient(spec: &Spec) -> Result<Winding, PlanError> {
     }
 }
 
-/// Phase and polarity of belt `b` of 2m belts (see the module note).
-fn belt(b: usize, m: usize) -> (usize, bool) {
-    if b.is_multiple_of(2) {
-        (b / 2, true)
-    } else {
-        (((b + m) / 2) % m, false)
-    }
-}
-
-/// Belt of an angle index `a` (of `den` per electrical turn) for m phases.
-fn belt_of(a: u64, den: u64, m: usize) -> (usize, bool) {
-    let b = (2 * m as u64 * a / den) as usize;
-    belt(b.min(2 * m - 1), m)
-}
-
-fn angle_index(geom: &Geometry, k: usize) -> u64 {
-    (k as u64 * geom.angle_num) % geom.angle_den
-}
-
 /// Nearest whole span to a pole pitch, halves rounded down (the shorter coil).
 fn nearest_full_pitch(tau: f64) -> usize {
     let f = tau.floor();
@@ -110,7 +89,7 @@ fn double_layer_coils(geom: &Geometry, positions: usize, y: usize, turns: u32) -
     (0..positions)
         .map(|i| {
             let right = (i + y) % z;
-            let (phase, positive) = belt_of(angle_index(geom, i), geom.angle_den, geom.phases);
+            let (phase, positive) = belt_of_slot(geom, i);
             let (go, back, go_layer, back_layer) = if positive {
                 (i, right, 0, 1)
             } else {
@@ -320,7 +299,7 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
     let mut plus: Vec<Vec<usize>> = vec![Vec::new(); m];
     let mut minus: Vec<Vec<usize>> = vec![Vec::new(); m];
     for k in 0..z {
-        let (phase, positive) = belt_of(angle_index(&geom, k), geom.angle_den, m);
+        let (phase, positive) = belt_of_slot(&geom, k);
         if positive {
             plus[phase].push(k)
         } else {
@@ -476,7 +455,7 @@ fn tooth_coils(geom: &Geometry, turns: u32) -> Option<Vec<Coil>> {
         (0..z / 2)
             .map(|i| {
                 let (l, r) = (2 * i, (2 * i + 1) % z);
-                let (phase, positive) = belt_of(angle_index(geom, l), geom.angle_den, geom.phases);
+                let (phase, positive) = belt_of_slot(geom, l);
                 let (go, back) = if positive { (l, r) } else { (r, l) };
                 Coil {
                     phase,
