@@ -118,6 +118,9 @@ pub struct PlanReport {
     pub slot_table: Vec<SlotRow>,
     /// Coil groups in slot order.
     pub groups: Vec<GroupRow>,
+    /// The winding schedule: every coil in connection order, phase by phase and path by
+    /// path, with where its finish is joined (the connection sheet's table).
+    pub schedule: Vec<crate::winding::schedule::ScheduleRow>,
     /// Phase EMF phasors at the fundamental.
     pub phases_emf: Vec<PhasorRow>,
     /// Half-filled end slots of a linear primary (slot numbers from 1).
@@ -263,6 +266,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         coils,
         slot_table,
         groups: group_rows,
+        schedule: crate::winding::schedule::schedule(w, &groups),
         phases_emf: phasors(w, 1.0),
         half_filled_slots: (g.topology == Topology::Linear)
             .then(|| w.half_filled_slots().iter().map(|k| k + 1).collect()),

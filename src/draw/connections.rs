@@ -18,7 +18,10 @@ use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::design::Marking;
+use crate::winding::schedule::{FinishTo, Lane, ScheduleRow, lanes, schedule};
 use crate::winding::{CoilGroup, Connection, Winding, coil_groups};
+
+pub use crate::winding::schedule::group_ends;
 
 const BOX_W: f64 = 17.0;
 const BOX_H: f64 = 8.0;
@@ -55,42 +58,17 @@ pub fn path_terminal(w: &Winding, k: usize, p: usize, end: u8) -> String {
     format!("{}{end}", w.label(k))
 }
 
-/// One coil of the schedule, in connection order.
-#[derive(Debug, Clone, PartialEq)]
-struct Entry {
-    coil: usize,
-    go: usize,
-    back: usize,
-    turns: u32,
-    phase: usize,
-    path: usize,
-    group: usize,
-    finish_to: String,
-}
-
-/// Groups of one phase and path, in connection (slot) order.
-fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<(usize, usize, Vec<usize>)> {
-    let mut out = Vec::new();
-    for k in 0..w.geometry.phases {
-        for p in 0..w.parallel_paths.max(1) {
-            let gs: Vec<usize> = groups
-                .iter()
-                .enumerate()
-                .filter(|(_, g)| g.phase == k && w.coils[g.coils[0]].path == p)
-                .map(|(i, _)| i)
-                .collect();
-            out.push((k, p, gs));
-        }
-    }
-    out
-}
-
 /// Where each path's leads leave the core: (lead marking, slot from 1, start?) for the start
 /// of the first group and the finish of the last, in connection order.
 pub fn lead_slots(w: &Winding) -> Vec<(String, usize, bool)> {
     let groups = coil_groups(w);
     let mut out = Vec::new();
-    for (k, p, gs) in lanes(w, &groups) {
+    for Lane {
+        phase: k,
+        path: p,
+        groups: gs,
+    } in lanes(w, &groups)
+    {
         let (Some(&first), Some(&last)) = (gs.first(), gs.last()) else {
             continue;
         };
@@ -108,52 +86,13 @@ pub fn lead_slots(w: &Winding) -> Vec<(String, usize, bool)> {
     out
 }
 
-/// Slots (0-based) where current enters a group and where it leaves it.
-pub fn group_ends(w: &Winding, g: &CoilGroup) -> (usize, usize) {
-    let order = current_order(g);
-    let first = order.first().map_or(0, |&c| w.coils[c].go);
-    let last = order.last().map_or(0, |&c| w.coils[c].back);
-    (first, last)
-}
-
-/// Coils of a group in the order current flows through them.
-fn current_order(g: &CoilGroup) -> Vec<usize> {
-    if g.polarity > 0 {
-        g.coils.clone()
-    } else {
-        g.coils.iter().rev().copied().collect()
+/// The schedule's "finish to" cell in shop words.
+fn finish_words(w: &Winding, e: &ScheduleRow) -> String {
+    match e.finish_to {
+        FinishTo::Coil { coil } => format!("coil {coil}"),
+        FinishTo::Group { group, coil } => format!("G{group} coil {coil}"),
+        FinishTo::Lead => format!("lead {}", path_terminal(w, e.phase_index, e.path - 1, 2)),
     }
-}
-
-fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<Entry> {
-    let mut out = Vec::new();
-    for (k, p, gs) in lanes(w, groups) {
-        for (n, &gi) in gs.iter().enumerate() {
-            let order = current_order(&groups[gi]);
-            for (j, &c) in order.iter().enumerate() {
-                let finish_to = if j + 1 < order.len() {
-                    format!("coil {}", order[j + 1] + 1)
-                } else if let Some(&next) = gs.get(n + 1) {
-                    let first = current_order(&groups[next])[0];
-                    format!("G{} coil {}", next + 1, first + 1)
-                } else {
-                    format!("lead {}", path_terminal(w, k, p, 2))
-                };
-                let coil = &w.coils[c];
-                out.push(Entry {
-                    coil: c + 1,
-                    go: coil.go + 1,
-                    back: coil.back + 1,
-                    turns: coil.turns,
-                    phase: k,
-                    path: p + 1,
-                    group: gi + 1,
-                    finish_to,
-                });
-            }
-        }
-    }
-    out
 }
 
 /// Schedule column headings and widths (mm).
@@ -284,7 +223,7 @@ pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
 fn schedule_table(
     w: &Winding,
     cols: &[(&'static str, f64)],
-    entries: &[Entry],
+    entries: &[ScheduleRow],
     b: Rect,
     rows_per_col: usize,
     continues: bool,
@@ -326,7 +265,7 @@ fn schedule_table(
                 e.go.to_string(),
                 e.back.to_string(),
                 e.turns.to_string(),
-                w.label(e.phase).to_string(),
+                e.phase.clone(),
                 e.group.to_string(),
             ];
             let mut row = Group::new()
@@ -353,7 +292,7 @@ fn schedule_table(
                 y,
                 SCHED_SIZE,
                 Anchor::Start,
-                &text::fit(&e.finish_to, SCHED_SIZE, last),
+                &text::fit(&finish_words(w, e), SCHED_SIZE, last),
             ));
             g = g.add(row);
             y += SCHED_ROW;
@@ -405,7 +344,7 @@ fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
     let n = per_line(width);
     let lines: usize = lanes
         .iter()
-        .map(|(_, _, gs)| gs.len().div_ceil(n).max(1))
+        .map(|l| l.groups.len().div_ceil(n).max(1))
         .sum();
     let note = if w.parallel_paths > 1 { 4.0 } else { 0.0 };
     let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
@@ -443,7 +382,12 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
     let (board_g, board_h) = board(w, pal, b.w / scale, ts);
     inner = inner.add(board_g);
     let mut y = board_h + 8.0;
-    for (k, p, gs) in &lanes {
+    for Lane {
+        phase: k,
+        path: p,
+        groups: gs,
+    } in &lanes
+    {
         let mut lane = Group::new()
             .set("class", "lane")
             .set("data-phase", *k)

@@ -3,6 +3,7 @@
 
 mod feasible;
 mod groups;
+pub mod schedule;
 pub mod star;
 mod synth;
 
