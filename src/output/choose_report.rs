@@ -121,6 +121,10 @@ impl Report for SurveyReport {
             ("paths", Align::Left),
             ("sub", Align::Right),
             ("reason", Align::Left),
+            ("k_w5", Align::Right),
+            ("k_w7", Align::Right),
+            ("min sigma_d at", Align::Right),
+            ("min sigma_d", Align::Right),
         ]);
         for r in &self.rows {
             t.push(vec![
@@ -148,6 +152,12 @@ impl Report for SurveyReport {
                 r.parallel_paths.iter().join(" "),
                 r.lowest_subharmonic.map(|s| num(s, 4)).unwrap_or_default(),
                 r.reason.clone().unwrap_or_default(),
+                r.winding_5.map(|w| format!("{w:.4}")).unwrap_or_default(),
+                r.winding_7.map(|w| format!("{w:.4}")).unwrap_or_default(),
+                r.min_leakage_pitch
+                    .map(|p| p.to_string())
+                    .unwrap_or_default(),
+                r.min_leakage.map(|w| format!("{w:.5}")).unwrap_or_default(),
             ]);
         }
         t

@@ -1,27 +1,26 @@
 //! Survey of slot/pole combinations: feasibility (and why not), q, the best span and its
-//! k_w1, exact harmonic leakage, periodicity, cogging indicator, radial pull, possible
-//! parallel paths and the lowest sub-harmonic, in parallel over combinations.
+//! k_w1, k_w5, k_w7, exact harmonic leakage, the span of least leakage, periodicity, cogging
+//! indicator, radial pull, possible parallel paths and the lowest sub-harmonic, in parallel
+//! over combinations.
 //!
-//! The double-layer rotary kernel works on the star of slots directly, without building a
-//! `Winding`: belt currents c_k from the 60° belts, slot currents c_k − c_(k−y), factors by
-//! closed forms (distribution of a fractional-slot belt, sin(π/2m)/(b·sin(π/(2mb))) with
-//! q = b/c; pitch by the Chebyshev recurrence sin((y+1)x) = 2cos x·sin(yx) − sin((y−1)x)),
-//! and σ_d by Parseval ([`crate::leakage::staircase_leakage`]). Tests hold every figure
-//! against the planner. Single-layer and linear rows come from the planner itself.
+//! Double-layer rotary rows score every span 1..=Z/2 in the star-of-slots kernel
+//! ([`spans`]) without building a `Winding`. Tests hold every figure against the planner.
+//! Single-layer and linear rows come from the planner itself.
 
-use std::f64::consts::PI;
 use std::ops::RangeInclusive;
 
 use rayon::prelude::*;
 use serde::Serialize;
 
 use crate::layout::Spec;
-use crate::leakage::staircase_leakage;
-use crate::winding::star::{belt_of_index, roots_of_unity};
+mod spans;
+
+use crate::winding::star::roots_of_unity;
 use crate::winding::{
     Topology, build_brief, double_layer_rotary_feasible, gcd, possible_path_counts,
     rotary_periodicity,
 };
+use spans::SpanScore;
 
 /// What to survey.
 #[derive(Debug, Clone, PartialEq)]
@@ -57,12 +56,22 @@ pub struct SurveyRow {
     pub pitch: Option<usize>,
     /// k_w1 at the best span.
     pub winding: Option<f64>,
+    /// k_w5 at the best span.
+    pub winding_5: Option<f64>,
+    /// k_w7 at the best span.
+    pub winding_7: Option<f64>,
     /// The span of highest k_w1 (often full pitch), and its k_w1.
     pub max_winding_pitch: Option<usize>,
     /// k_w1 at `max_winding_pitch`.
     pub max_winding: Option<f64>,
     /// Differential leakage σ_d at the best span (exact).
     pub differential_leakage: Option<f64>,
+    /// The buildable span (0.5 to 1.5 pole pitches, or tooth coils) of lowest σ_d.
+    pub min_leakage_pitch: Option<usize>,
+    /// σ_d at `min_leakage_pitch`.
+    pub min_leakage: Option<f64>,
+    /// How many spans were scored (k_w1, k_w5, k_w7 and exact σ_d for each).
+    pub spans_scored: usize,
     /// Machine periodicity gcd(Z, p) (rotary).
     pub periodicity: Option<usize>,
     /// lcm(Z, 2p): the higher, the smaller the cogging torque of a PM rotor.
@@ -186,7 +195,9 @@ fn divisors(n: usize) -> Vec<usize> {
 /// Per-thread scratch space, reused from one combination to the next.
 #[derive(Default)]
 struct Buffers {
-    /// Belt currents and slot currents, 2Z values.
+    /// The double-layer kernel's scratch space.
+    spans: spans::Scratch,
+    /// Slot currents of a planned winding.
     currents: Vec<f64>,
     /// The Z roots of unity.
     roots: Vec<(f64, f64)>,
@@ -205,9 +216,14 @@ fn row(query: &SurveyQuery, z: usize, poles: usize, layers: usize, buf: &mut Buf
         q_fraction,
         pitch: None,
         winding: None,
+        winding_5: None,
+        winding_7: None,
         max_winding_pitch: None,
         max_winding: None,
         differential_leakage: None,
+        min_leakage_pitch: None,
+        min_leakage: None,
+        spans_scored: 0,
         periodicity: None,
         lcm: None,
         unbalanced_pull: None,
@@ -217,7 +233,7 @@ fn row(query: &SurveyQuery, z: usize, poles: usize, layers: usize, buf: &mut Buf
     };
     match (query.topology, layers) {
         (Topology::Rotary, 2) => rotary_double_row(base, m, buf),
-        _ => planner_row(base, query.topology, m),
+        _ => planner_row(base, query.topology, m, buf),
     }
 }
 
@@ -236,142 +252,93 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRo
         ));
         return r;
     }
-    // k_d of the 60° belts at the fundamental and at the orders the span comparison names,
-    // exactly, from the belt sum over phase 1's coil left sides (a uniform span splits the
-    // coil EMF into belt sum and chord): one table of the Z roots of unity, stepped by
-    // integer index, no trigonometry per slot.
-    roots_of_unity(z, &mut bufs.roots);
-    let roots = &bufs.roots;
-    let coils_per_phase = (z / m) as f64;
-    let kd_at = |nu: usize| {
-        let (mut re, mut im) = (0.0, 0.0);
-        for k in 0..z {
-            let a = (k * p) % z;
-            let sign = match belt_of_index(a as u64, z as u64, m) {
-                (0, true) => 1.0,
-                (0, false) => -1.0,
-                _ => continue,
-            };
-            let (c, s) = roots[(nu * a) % z];
-            re += sign * c;
-            im -= sign * s;
-        }
-        (re * re + im * im).sqrt() / coils_per_phase
-    };
-    let orders = [5usize, 7, 11, 13];
-    let kd1 = kd_at(1);
-    let kds = orders.map(kd_at);
-    // Every span up to the next whole number above the pole pitch (longer coils only alias
-    // shorter ones), scored as `pitch` recommends: the least content Σ(k_wν/k_w1)² of orders
-    // 5, 7, 11, 13 among spans keeping k_w1 ≥ 0.9; ties to the higher k_w1, then the shorter
-    // span; if none keeps the floor, the highest k_w1. Pitch factors |sin(ν·y·x)| by
-    // recurrence in y, x = π·p/Z.
-    let x = PI * p as f64 / z as f64;
-    let mut rec: Vec<(f64, f64, f64)> = std::iter::once(1usize)
-        .chain(orders)
-        .map(|nu| {
-            let a = nu as f64 * x;
-            (2.0 * a.cos(), 0.0, a.sin())
-        })
-        .collect();
-    // The spans `pitch` would recommend: within 0.5..1.5 pole pitches, or tooth coils.
+    // Every span 1..=Z/2 is scored by the star-of-slots kernel ([`spans`]); the choice is
+    // among the spans `pitch` would recommend: within 0.5..1.5 pole pitches, or tooth coils.
     let tau = z as f64 / poles as f64;
     let (lo, hi) = crate::warnings::SPAN_BAND;
-    let longest = (z / 2).min((hi * tau + 1e-9).floor() as usize).max(1);
-    let buildable = |y: usize| y == 1 || y as f64 / tau >= lo - 1e-12;
+    let longest = (z / 2).max(1);
+    let buildable =
+        |y: usize| y == 1 || (y as f64 / tau >= lo - 1e-12 && y as f64 / tau <= hi + 1e-12);
+    let scratch = &mut bufs.spans;
+    spans::score(z, p, m, longest, scratch);
+    // As `pitch` recommends: the least content Σ(k_wν/k_w1)² of orders 5, 7, 11, 13 among
+    // spans keeping k_w1 ≥ 0.9; ties to the higher k_w1, then the shorter span; if none
+    // keeps the floor, the highest k_w1.
     let floor = 0.9;
-    let mut best: Option<(usize, f64, f64)> = None; // (span, content, k_w1)
-    let mut highest = (0usize, -1.0f64);
-    for y in 1..=longest {
-        let kw1 = kd1 * rec[0].2.abs();
-        if !buildable(y) {
-            for r in &mut rec {
-                (r.1, r.2) = (r.2, r.0 * r.2 - r.1);
-            }
-            continue;
+    let mut best: Option<SpanScore> = None;
+    let mut highest: Option<SpanScore> = None;
+    let mut calmest: Option<SpanScore> = None;
+    for sc in scratch.spans.iter().filter(|sc| buildable(sc.span)) {
+        if highest.is_none_or(|h| sc.kw1 > h.kw1 + 1e-12) {
+            highest = Some(*sc);
         }
-        if kw1 > highest.1 + 1e-12 {
-            highest = (y, kw1);
+        if let Some(sd) = sc.sigma_d
+            && calmest.is_none_or(|c| c.sigma_d.is_none_or(|cs| sd < cs - 1e-12))
+        {
+            calmest = Some(*sc);
         }
-        if kw1 >= floor - 1e-12 && kw1 > 0.0 {
-            let content: f64 = kds
-                .iter()
-                .zip(&rec[1..])
-                .map(|(kd, r)| (kd * r.2.abs() / kw1).powi(2))
-                .sum();
+        if sc.kw1 >= floor - 1e-12 && sc.kw1 > 0.0 {
             let better = match best {
                 None => true,
-                Some((_, c, k)) => {
-                    if (content - c).abs() > 1e-9 {
-                        content < c
+                Some(b) => {
+                    if (sc.content - b.content).abs() > 1e-9 {
+                        sc.content < b.content
                     } else {
-                        kw1 > k + 1e-12
+                        sc.kw1 > b.kw1 + 1e-12
                     }
                 }
             };
             if better {
-                best = Some((y, content, kw1));
+                best = Some(*sc);
             }
         }
-        for r in &mut rec {
-            (r.1, r.2) = (r.2, r.0 * r.2 - r.1);
-        }
     }
-    let (best_y, best_kw) = match best {
-        Some((y, _, k)) => (y, k),
-        None => highest,
+    let Some(chosen) = best.or(highest) else {
+        r.reason = Some("no span links the working flux".into());
+        return r;
     };
     r.feasible = true;
-    r.pitch = Some(best_y);
-    r.winding = Some(best_kw);
-    r.max_winding_pitch = Some(highest.0);
-    r.max_winding = Some(highest.1);
-    let buf = &mut bufs.currents;
-    belt_currents(z, p, m, buf);
-    slot_currents(buf, best_y);
-    r.differential_leakage = staircase_leakage(&buf[z..], p as u64);
+    r.pitch = Some(chosen.span);
+    r.winding = Some(chosen.kw1);
+    r.winding_5 = Some(chosen.kw5);
+    r.winding_7 = Some(chosen.kw7);
+    r.max_winding_pitch = highest.map(|h| h.span);
+    r.max_winding = highest.map(|h| h.kw1);
+    r.differential_leakage = chosen.sigma_d;
+    r.min_leakage_pitch = calmest.map(|c| c.span);
+    r.min_leakage = calmest.and_then(|c| c.sigma_d);
+    r.spans_scored = scratch.spans.len();
     let units = if (z / t).is_multiple_of(2) { 2 * t } else { t };
     r.parallel_paths = divisors(units);
+    let reference = spans::order_amplitude(scratch, p, chosen.span);
     r.lowest_subharmonic = (1..p)
         .filter(|n| n % t == 0)
-        .find(|&n| order_amplitude(&buf[z..], n) > 1e-9 * order_amplitude(&buf[z..], p))
+        .find(|&n| spans::order_amplitude(scratch, n, chosen.span) > 1e-9 * reference)
         .map(|n| n as f64 / p as f64);
     r
 }
 
-/// c_k = s_k·cos(2πφ_k/m) for the 60° belt (φ_k, s_k) of slot k, into `buf[..z]`.
-fn belt_currents(z: usize, p: usize, m: usize, buf: &mut Vec<f64>) {
-    buf.clear();
-    buf.resize(2 * z, 0.0);
-    for (k, c) in buf[..z].iter_mut().enumerate() {
-        let (phase, positive) = belt_of_index(((k * p) % z) as u64, z as u64, m);
-        let sign = if positive { 1.0 } else { -1.0 };
-        *c = sign * (2.0 * PI * phase as f64 / m as f64).cos();
-    }
-}
-
-/// Slot currents I_k = c_k − c_(k−y) of double-layer coils of span y, into `buf[z..]`.
-fn slot_currents(buf: &mut [f64], y: usize) {
-    let z = buf.len() / 2;
-    for k in 0..z {
-        buf[z + k] = buf[k] - buf[(k + z - y % z) % z];
-    }
-}
-
-/// |Σ I_k e^(−j·n·2πk/Z)| / n: the MMF amplitude of mechanical order n, up to a constant.
-fn order_amplitude(currents: &[f64], n: usize) -> f64 {
+/// |Σ I_k e^(−j·n·2πk/Z)| / n with a table of the Z roots of unity: the MMF amplitude of
+/// mechanical order n, up to a constant.
+fn order_amplitude(currents: &[f64], roots: &[(f64, f64)], n: usize) -> f64 {
     let z = currents.len();
     let (mut re, mut im) = (0.0, 0.0);
-    for (k, &i) in currents.iter().enumerate() {
-        let a = 2.0 * PI * ((n * k) % z) as f64 / z as f64;
-        re += i * a.cos();
-        im -= i * a.sin();
+    let step = n % z.max(1);
+    let mut a = 0usize;
+    for &i in currents {
+        let (c, s) = roots[a];
+        re += i * c;
+        im -= i * s;
+        a += step;
+        if a >= z {
+            a -= z;
+        }
     }
     (re * re + im * im).sqrt() / n as f64
 }
 
 /// Rows the planner decides: single layer, and every flat primary.
-fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
+fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffers) -> SurveyRow {
     let (z, poles) = (r.slots, r.poles);
     if topology == Topology::Rotary {
         r.lcm = Some(lcm(z, poles));
@@ -393,9 +360,14 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
             r.feasible = true;
             r.pitch = Some(w.pitch);
             r.winding = Some(crate::factors::fundamental(&w).winding);
+            r.winding_5 = Some(crate::factors::factors_at(&w, 0, 5.0).winding);
+            r.winding_7 = Some(crate::factors::factors_at(&w, 0, 7.0).winding);
+            r.spans_scored = 1;
             r.max_winding_pitch = r.pitch;
             r.max_winding = r.winding;
             r.differential_leakage = crate::leakage::differential_leakage(&w);
+            r.min_leakage_pitch = r.pitch;
+            r.min_leakage = r.differential_leakage;
             r.parallel_paths = possible_path_counts(&w);
             if topology == Topology::Rotary {
                 // Symmetry from the coils themselves, as plan reports it.
@@ -403,11 +375,13 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize) -> SurveyRow {
                 let t = w.periodicity();
                 r.periodicity = Some(t);
                 r.unbalanced_pull = Some(!w.balanced_pull());
-                let mut cur = Vec::new();
-                crate::winding::star::balanced_slot_currents(&w, &mut cur);
+                let cur = &mut bufs.currents;
+                crate::winding::star::balanced_slot_currents(&w, cur);
+                roots_of_unity(z, &mut bufs.roots);
+                let reference = order_amplitude(cur, &bufs.roots, p);
                 r.lowest_subharmonic = (1..p)
                     .filter(|n| n % t == 0)
-                    .find(|&n| order_amplitude(&cur, n) > 1e-9 * order_amplitude(&cur, p))
+                    .find(|&n| order_amplitude(cur, &bufs.roots, n) > 1e-9 * reference)
                     .map(|n| n as f64 / p as f64);
             }
         }
