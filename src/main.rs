@@ -830,13 +830,16 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
     };
     let n = survey::combinations(&query).len() as u64;
     // On a terminal any survey that may take a second shows its progress.
-    let bar = if std::io::stderr().is_terminal() && n > 200 {
-        ProgressBar::new(n)
+    // Off a terminal nothing is shown and nothing is counted: a hidden bar's inc() still
+    // takes its lock, once per combination.
+    let mut report = if std::io::stderr().is_terminal() && n > 200 {
+        let bar = ProgressBar::new(n);
+        let report = survey::survey(&query, &|| bar.inc(1));
+        bar.finish_and_clear();
+        report
     } else {
-        ProgressBar::hidden()
+        survey::survey(&query, &|| {})
     };
-    let mut report = survey::survey(&query, &|| bar.inc(1));
-    bar.finish_and_clear();
     survey::filter_and_sort(&mut report, a.min_kw, a.feasible, a.sort.into());
     present(&report, a.format)
 }

@@ -12,9 +12,11 @@
 //!   Σ_k W_y² = Σ_k W_(y−1)² + R(0) + 2·Σ_(d=1..y−1) R(d). The working wave is
 //!   |Ĉ_p|·2|sin(πpy/Z)|/(2πp) with Ĉ_p = Σ c_k e^(−j2πpk/Z), and Parseval gives
 //!   σ_d = mean square / (2·F_p²) − 1 (as in [`crate::leakage::staircase_leakage`]).
-//!   c repeats every Z/t slots (t = gcd(Z, p)), so R is summed over one period.
+//!   Slot k lies on ray k·p mod Z of the star; each of the Z/t rays (t = gcd(Z, p)) holds t
+//!   slots, so R(d) = t·A((d·p mod Z)/t) with A the rays' autocorrelation, which the belts'
+//!   runs give from prefix sums in O(m) per lag.
 
-use crate::winding::star::{belt_of_index, roots_of_unity};
+use crate::winding::star::{belt, roots_of_unity};
 
 /// The fundamental and the orders whose content the span objective weighs (as `pitch`
 /// recommends).
@@ -41,7 +43,14 @@ pub struct SpanScore {
 #[derive(Debug, Default)]
 pub struct Scratch {
     roots: Vec<(f64, f64)>,
+    /// Belt current of each slot.
     belt: Vec<f64>,
+    /// Belt current of each ray, in angle order.
+    ray: Vec<f64>,
+    /// Prefix sums of `ray` over the doubled ring.
+    prefix: Vec<f64>,
+    /// Runs of equal belt current along the rays: (start, end, value).
+    runs: Vec<(usize, usize, f64)>,
     /// Scores of the last combination, span 1 first.
     pub spans: Vec<SpanScore>,
 }
@@ -49,80 +58,147 @@ pub struct Scratch {
 /// Score spans 1..=`longest` of a feasible double-layer winding of Z slots, p pole pairs
 /// and m phases into `s.spans`.
 pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
-    roots_of_unity(z, &mut s.roots);
+    // Combinations come in slot order, so the roots table usually carries over.
+    if s.roots.len() != z {
+        roots_of_unity(z, &mut s.roots);
+    }
     let cos: Vec<f64> = (0..m)
         .map(|k| (2.0 * std::f64::consts::PI * k as f64 / m as f64).cos())
         .collect();
-    s.belt.clear();
-    let step = p % z;
-    let mut a = 0usize;
-    let orders = ORDERS;
-    let mut kd = [(0.0f64, 0.0f64); 5];
+    // The rays of the star in angle order: ray j at angle index j·t, each the angle of t
+    // slots. Every sum over slots is t times the sum over rays. Indices advance by integer
+    // steps: no division or trigonometry per ray.
+    let t = crate::winding::gcd(z as u64, p as u64) as usize;
+    let l = z / t;
+    let tf = t as f64;
+    s.ray.clear();
     let (mut cre, mut cim) = (0.0, 0.0);
-    for _ in 0..z {
-        let (phase, positive) = belt_of_index(a as u64, z as u64, m);
+    // Belt b of angle index a: b·z ≤ 2m·a < (b + 1)·z. Phase 1's belts (+U is belt 0, −U
+    // belt m) are runs of rays, kept for the distribution factors below.
+    let (mut belt_no, mut twice) = (0usize, 0usize);
+    let (mut plus, mut minus) = ((0usize, 0usize), (l, l));
+    for j in 0..l {
+        let a = j * t;
+        while belt_no + 1 < 2 * m && twice >= (belt_no + 1) * z {
+            belt_no += 1;
+        }
+        let (phase, positive) = belt(belt_no, m);
         let sign = if positive { 1.0 } else { -1.0 };
         let c = sign * cos[phase];
-        s.belt.push(c);
+        s.ray.push(c);
         let (rc, rs) = s.roots[a];
         cre += c * rc;
         cim -= c * rs;
-        if phase == 0 {
-            for (acc, nu) in kd.iter_mut().zip(orders) {
-                let (rc, rs) = s.roots[(nu * a) % z];
-                acc.0 += sign * rc;
-                acc.1 -= sign * rs;
-            }
+        if belt_no == 0 {
+            plus.1 = j + 1;
+        } else if belt_no == m {
+            minus.0 = minus.0.min(j);
+            minus.1 = j + 1;
         }
-        a += step;
-        if a >= z {
-            a -= z;
+        twice += 2 * m * t;
+    }
+    // k_dν: phase 1's belt sum Σ_(+U) w^j − Σ_(−U) w^j over its rays, w = e^(−j2πνt/Z), each a
+    // geometric series (w^(j0) − w^(j1))/(1 − w), or the ray count where w = 1.
+    let roots = &s.roots;
+    let power = |nu: usize, j: usize| {
+        let (c, s) = roots[(nu * t % z) * j % z];
+        (c, -s)
+    };
+    let series = |nu: usize, (j0, j1): (usize, usize)| -> (f64, f64) {
+        if j1 <= j0 {
+            return (0.0, 0.0);
+        }
+        if (nu * t).is_multiple_of(z) {
+            return ((j1 - j0) as f64, 0.0);
+        }
+        let (a, b) = power(nu, j0);
+        let (c, d) = power(nu, j1);
+        let (w, v) = power(nu, 1);
+        let (nr, ni) = (a - c, b - d);
+        let (dr, di) = (1.0 - w, -v);
+        let den = dr * dr + di * di;
+        ((nr * dr + ni * di) / den, (ni * dr - nr * di) / den)
+    };
+    let kd = ORDERS.map(|nu| {
+        let (pr, pi) = series(nu, plus);
+        let (mr, mi) = series(nu, minus);
+        ((pr - mr), (pi - mi))
+    });
+    let per_phase = (z / m) as f64;
+    let kd: [f64; 5] = kd.map(|(re, im)| tf * (re * re + im * im).sqrt() / per_phase);
+    let working_sum = tf * (cre * cre + cim * cim).sqrt();
+    // Belt currents slot by slot (for the sub-harmonic search): slot k is on ray k·p/t.
+    s.belt.clear();
+    let ray_step = (p % z) / t;
+    let mut r = 0usize;
+    for _ in 0..z {
+        s.belt.push(s.ray[r]);
+        r += ray_step;
+        if r >= l {
+            r -= l;
         }
     }
-    let per_phase = (z / m) as f64;
-    let kd: [f64; 5] = kd.map(|(re, im)| (re * re + im * im).sqrt() / per_phase);
-    let working_sum = (cre * cre + cim * cim).sqrt();
 
-    // Autocorrelation over one period of the belt pattern.
-    let t = crate::winding::gcd(z as u64, p as u64) as usize;
-    let period = z / t;
-    let mean: f64 = s.belt.iter().sum::<f64>() / z as f64;
+    // Autocorrelation R(d) = t·A((d·p mod Z)/t), A the rays' cyclic autocorrelation. The
+    // belt currents are constant along each belt, so A(σ) = Σ_runs v·(P[end+σ] − P[start+σ])
+    // with P the prefix sums over the doubled ring: O(m) per lag instead of O(Z).
+    s.prefix.clear();
+    let mut run = 0.0;
+    s.prefix.push(run);
+    for &c in s.ray.iter().chain(s.ray.iter()) {
+        run += c;
+        s.prefix.push(run);
+    }
+    s.runs.clear();
+    let mut start = 0;
+    for j in 1..=l {
+        if j == l || s.ray[j] != s.ray[start] {
+            s.runs.push((start, j, s.ray[start]));
+            start = j;
+        }
+    }
+    let autocorrelation = |sigma: usize| -> f64 {
+        s.runs
+            .iter()
+            .map(|&(a, b, v)| v * (s.prefix[b + sigma] - s.prefix[a + sigma]))
+            .sum::<f64>()
+            * tf
+    };
+    let mean: f64 = s.ray.iter().sum::<f64>() / l as f64;
     let x = std::f64::consts::PI * p as f64 / z as f64;
-    let mut rec = orders.map(|nu| {
+    let mut rec = ORDERS.map(|nu| {
         let a = nu as f64 * x;
         (2.0 * a.cos(), 0.0, a.sin())
     });
-    s.spans.clear();
+    let mut spans = std::mem::take(&mut s.spans);
+    spans.clear();
+    let r0 = autocorrelation(0);
     let (mut q, mut prefix) = (0.0f64, 0.0f64);
-    let mut r0 = 0.0;
+    let mut lag = 0usize; // (d·p mod Z)/t for d = y − 1
+    let lag_step = (p % z) / t;
     for y in 1..=longest {
-        let d = y - 1;
-        let belt = &s.belt[..period];
-        let shift = d % period;
-        let mut acc = 0.0;
-        for (k, &ck) in belt.iter().enumerate() {
-            let j = k + shift;
-            acc += ck * belt[if j >= period { j - period } else { j }];
+        if y > 1 {
+            lag += lag_step;
+            if lag >= l {
+                lag -= l;
+            }
+            prefix += autocorrelation(lag);
         }
-        let r = acc * t as f64;
-        if d == 0 {
-            r0 = r;
-        } else {
-            prefix += r;
-        }
-        q += r0 + 2.0 * if d == 0 { 0.0 } else { prefix };
+        // Σ_k W_y² = Σ_k W_(y−1)² + R(0) + 2·Σ_(d=1..y−1) R(d).
+        q += r0 + 2.0 * prefix;
         let ms = q / z as f64 - (y as f64 * mean).powi(2);
         let pf = |i: usize| rec[i].2.abs();
         let kw1 = kd[0] * pf(0);
         let content = if kw1 > 0.0 {
-            (1..5).map(|i| (kd[i] * pf(i) / kw1).powi(2)).sum()
+            let inv = 1.0 / kw1;
+            (1..5).map(|i| (kd[i] * pf(i) * inv).powi(2)).sum()
         } else {
             f64::INFINITY
         };
         let f = working_sum * pf(0) / (std::f64::consts::PI * p as f64);
         let working = 2.0 * f * f;
         let sigma_d = (working > 1e-300 * ms.abs().max(1.0)).then(|| (ms / working - 1.0).max(0.0));
-        s.spans.push(SpanScore {
+        spans.push(SpanScore {
             span: y,
             kw1,
             kw5: kd[1] * pf(1),
@@ -134,6 +210,7 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
             (r.1, r.2) = (r.2, r.0 * r.2 - r.1);
         }
     }
+    s.spans = spans;
 }
 
 /// MMF amplitude (up to a constant) of mechanical order n for double-layer coils of span y
