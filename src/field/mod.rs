@@ -675,23 +675,17 @@ pub fn rotary_spectrum(sheet: &CurrentSheet, top: u64) -> Vec<(u64, f64, f64)> {
         return Vec::new();
     }
     let p = sheet.poles as f64 / 2.0;
-    let roots: Vec<Complex64> = (0..z)
-        .map(|r| Complex64::from_polar(1.0, 2.0 * PI * r as f64 / z as f64))
+    // e[m] = Σ_k C_k·e^{+j2πmk/Z} = S+(n) for n ≡ m (mod Z); S−(n) = e[(−n) mod Z]: one
+    // unnormalised inverse DFT of the slot currents, by FFT in O(Z log Z).
+    let mut e: Vec<rustfft::num_complex::Complex<f64>> = sheet
+        .slot_current
+        .iter()
+        .map(|c| rustfft::num_complex::Complex::new(c.re, c.im))
         .collect();
-    // e[m] = Σ_k C_k·e^{+j2πmk/Z} = S+(n) for n ≡ m (mod Z); S−(n) = e[(−n) mod Z].
-    let mut e = vec![Complex64::new(0.0, 0.0); z];
-    for (m, em) in e.iter_mut().enumerate() {
-        let mut idx = 0usize;
-        let mut acc = Complex64::new(0.0, 0.0);
-        for ck in &sheet.slot_current {
-            acc += ck * roots[idx];
-            idx += m;
-            if idx >= z {
-                idx -= z;
-            }
-        }
-        *em = acc;
-    }
+    rustfft::FftPlanner::new()
+        .plan_fft_inverse(z)
+        .process(&mut e);
+    let e: Vec<Complex64> = e.iter().map(|c| Complex64::new(c.re, c.im)).collect();
     let mut out = Vec::with_capacity(top as usize);
     for n in 1..=top {
         let nu = n as f64 / p;
@@ -712,7 +706,16 @@ fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
         Topology::Rotary => {
             let p = sheet.poles as f64 / 2.0;
             let top = ((upto * p + 1e-9).floor().max(0.0) as u64).min(MAX_ORDERS);
-            rotary_spectrum(sheet, top)
+            let spectrum = rotary_spectrum(sheet, top);
+            // Refer every row to the working wave as this same transform gives it, so the
+            // working row reads exactly 1 (the direct slot sum differs in the last bits).
+            let amplitude = spectrum
+                .iter()
+                .find(|r| r.0 as f64 == p)
+                .map(|r| r.1.max(r.2))
+                .filter(|a| *a > 0.0)
+                .unwrap_or(amplitude);
+            spectrum
                 .into_iter()
                 .map(|(n, f, b)| WaveRow {
                     order: n as f64 / p,

@@ -66,14 +66,19 @@ fn turns_of(w: &Winding, coils: &[usize]) -> u64 {
 /// equal turns: first as runs of consecutive groups, then round-robin. Returns the path of
 /// each group, or `None` if neither split balances.
 fn split_phase(w: &Winding, groups: &[&CoilGroup], a: usize) -> Option<Vec<usize>> {
-    if a == 1 {
-        return Some(vec![0; groups.len()]);
-    }
-    if groups.len() < a {
-        return None;
-    }
     let emfs: Vec<Complex64> = groups.iter().map(|g| emf_of(w, &g.coils)).collect();
     let turns: Vec<u64> = groups.iter().map(|g| turns_of(w, &g.coils)).collect();
+    split(&emfs, &turns, a)
+}
+
+/// [`split_phase`] on the groups' EMF phasors and turns, worked out once per phase.
+fn split(emfs: &[Complex64], turns: &[u64], a: usize) -> Option<Vec<usize>> {
+    if a == 1 {
+        return Some(vec![0; emfs.len()]);
+    }
+    if emfs.len() < a {
+        return None;
+    }
     let total: Complex64 = emfs.iter().sum();
     let total_turns: u64 = turns.iter().sum();
     if !total_turns.is_multiple_of(a as u64) {
@@ -93,10 +98,10 @@ fn split_phase(w: &Winding, groups: &[&CoilGroup], a: usize) -> Option<Vec<usize
             .all(|(e, &n)| (e - target).norm() <= tol && n * a as u64 == total_turns)
     };
     // Runs of consecutive groups: cut where the running sum reaches k·target.
-    let mut assign = Vec::with_capacity(groups.len());
+    let mut assign = Vec::with_capacity(emfs.len());
     let mut run = Complex64::new(0.0, 0.0);
     let mut path = 0;
-    for e in &emfs {
+    for e in emfs {
         assign.push(path);
         run += e;
         if path + 1 < a && (run - target * (path + 1) as f64).norm() <= tol {
@@ -106,7 +111,7 @@ fn split_phase(w: &Winding, groups: &[&CoilGroup], a: usize) -> Option<Vec<usize
     if balanced(&assign) {
         return Some(assign);
     }
-    let robin: Vec<usize> = (0..groups.len()).map(|g| g % a).collect();
+    let robin: Vec<usize> = (0..emfs.len()).map(|g| g % a).collect();
     balanced(&robin).then_some(robin)
 }
 
@@ -116,9 +121,19 @@ pub fn possible_path_counts(w: &Winding) -> Vec<usize> {
     let per_phase: Vec<Vec<&CoilGroup>> = (0..w.geometry.phases)
         .map(|k| groups.iter().filter(|g| g.phase == k).collect())
         .collect();
+    // Each group's EMF and turns once; every path count then costs O(groups).
+    let sums: Vec<(Vec<Complex64>, Vec<u64>)> = per_phase
+        .iter()
+        .map(|gs| {
+            (
+                gs.iter().map(|g| emf_of(w, &g.coils)).collect(),
+                gs.iter().map(|g| turns_of(w, &g.coils)).collect(),
+            )
+        })
+        .collect();
     let most = per_phase.iter().map(|g| g.len()).min().unwrap_or(0);
     (1..=most.max(1))
-        .filter(|&a| per_phase.iter().all(|g| split_phase(w, g, a).is_some()))
+        .filter(|&a| sums.iter().all(|(e, t)| split(e, t, a).is_some()))
         .collect()
 }
 
