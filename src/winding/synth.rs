@@ -12,6 +12,62 @@ use super::{
 use crate::layout::{CoilEntry, Spec};
 use itertools::Itertools;
 
+/// What synthesis reads: the core and the designer's choices for the coils, and the winding
+/// every result starts from (labels, connection, supply, design data, title), so that a
+/// span change copies those whole instead of field by field.
+struct Blueprint {
+    topology: Topology,
+    slots: usize,
+    poles: usize,
+    phases: usize,
+    layers: usize,
+    pitch: Option<usize>,
+    style: Style,
+    turns_per_coil: u32,
+    core: crate::layout::Core,
+    /// Everything else a synthesized winding carries, with no coils yet.
+    base: Winding,
+}
+
+impl Blueprint {
+    fn of_spec(spec: &Spec) -> Self {
+        let geometry = Geometry::rotary(
+            spec.slots,
+            spec.poles.max(2),
+            spec.phases,
+            spec.layers,
+            spec.core,
+        );
+        Blueprint {
+            topology: spec.topology,
+            slots: spec.slots,
+            poles: spec.poles,
+            phases: spec.phases,
+            layers: spec.layers,
+            pitch: spec.pitch,
+            style: spec.style,
+            turns_per_coil: spec.turns_per_coil,
+            core: spec.core,
+            base: Winding {
+                title: spec.title.clone(),
+                geometry,
+                phase_labels: spec.phase_labels.clone(),
+                coils: Vec::new(),
+                pitch: 0,
+                style: spec.style,
+                turns_per_coil: spec.turns_per_coil,
+                parallel_paths: 1,
+                connection: spec.connection,
+                skew_slots: spec.skew_slots,
+                supply: spec.supply,
+                from_coil_list: false,
+                colours: spec.colours.clone(),
+                design: spec.design,
+            },
+        }
+    }
+}
+
 /// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
 pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
     build_explained(spec, true)
@@ -27,7 +83,7 @@ pub fn build_brief(spec: &Spec) -> Result<Winding, PlanError> {
 /// spans only need to know whether one works, and some texts search every span.
 fn build_explained(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
     let mut w = if spec.coils.is_empty() {
-        synthesize(spec, explain)?
+        synthesize(&Blueprint::of_spec(spec), explain)?
     } else {
         return from_coil_list(spec, true);
     };
@@ -55,30 +111,22 @@ fn nearest_full_pitch(tau: f64) -> usize {
     (y as usize).max(1)
 }
 
-fn blank_winding(spec: &Spec, geometry: Geometry, pitch: usize, coils: Vec<Coil>) -> Winding {
+fn blank_winding(bp: &Blueprint, geometry: Geometry, pitch: usize, coils: Vec<Coil>) -> Winding {
     Winding {
-        title: spec.title.clone(),
         geometry,
-        phase_labels: spec.phase_labels.clone(),
-        coils,
         pitch,
-        style: spec.style,
-        turns_per_coil: spec.turns_per_coil,
+        coils,
         parallel_paths: 1,
-        connection: spec.connection,
-        skew_slots: spec.skew_slots,
-        supply: spec.supply,
         from_coil_list: false,
-        colours: spec.colours.clone(),
-        design: spec.design,
+        ..bp.base.clone()
     }
 }
 
-fn synthesize(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
-    match (spec.topology, spec.layers) {
-        (Topology::Rotary, 2) => rotary_double(spec),
-        (Topology::Linear, 2) => linear_double(spec),
-        (_, _) => single_layer(spec, explain),
+fn synthesize(bp: &Blueprint, explain: bool) -> Result<Winding, PlanError> {
+    match (bp.topology, bp.layers) {
+        (Topology::Rotary, 2) => rotary_double(bp),
+        (Topology::Linear, 2) => linear_double(bp),
+        (_, _) => single_layer(bp, explain),
     }
 }
 
@@ -108,13 +156,13 @@ fn double_layer_coils(geom: &Geometry, positions: usize, y: usize, turns: u32) -
         .collect()
 }
 
-fn rotary_double(spec: &Spec) -> Result<Winding, PlanError> {
-    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+fn rotary_double(bp: &Blueprint) -> Result<Winding, PlanError> {
+    let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     if !double_layer_rotary_feasible(z, poles, m) {
         return Err(PlanError::Infeasible(rotary_refusal(z, poles, m, 2)));
     }
-    let geom = Geometry::rotary(z, poles, m, 2, spec.core);
-    let y = match spec.pitch {
+    let geom = Geometry::rotary(z, poles, m, 2, bp.core);
+    let y = match bp.pitch {
         Some(y) => check_rotary_span(z, y)?,
         None => nearest_full_pitch(geom.pole_pitch_slots),
     };
@@ -125,8 +173,8 @@ fn rotary_double(spec: &Spec) -> Result<Winding, PlanError> {
             crate::numbering::num(geom.pole_pitch_slots, 3)
         )));
     }
-    let coils = double_layer_coils(&geom, z, y, spec.turns_per_coil);
-    let w = blank_winding(spec, geom, y, coils);
+    let coils = double_layer_coils(&geom, z, y, bp.turns_per_coil);
+    let w = blank_winding(bp, geom, y, coils);
     ensure_balanced(w, || rotary_refusal(z, poles, m, 2))
 }
 
@@ -193,21 +241,21 @@ pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
         phase_labels: (0..m).map(|i| i.to_string()).collect(),
         ..Spec::basic(Topology::Rotary, z, poles, 1)
     };
-    single_layer(&spec, false).is_ok()
+    single_layer(&Blueprint::of_spec(&spec), false).is_ok()
 }
 
 /// Linear double layer: N = Z − y coils, y half-filled slots at each end.
-fn linear_double(spec: &Spec) -> Result<Winding, PlanError> {
-    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+fn linear_double(bp: &Blueprint) -> Result<Winding, PlanError> {
+    let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     let attempt = |y: usize| -> Option<Winding> {
         let n = z.checked_sub(y).filter(|&n| n >= m)?;
-        let geom = Geometry::linear(z, n, poles, m, 2, spec.core);
-        let coils = double_layer_coils(&geom, n, y, spec.turns_per_coil);
-        let w = blank_winding(spec, geom, y, coils);
+        let geom = Geometry::linear(z, n, poles, m, 2, bp.core);
+        let coils = double_layer_coils(&geom, n, y, bp.turns_per_coil);
+        let w = blank_winding(bp, geom, y, coils);
         w.is_balanced().then_some(w)
     };
-    match spec.pitch {
-        Some(y) => attempt(y).ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, y))),
+    match bp.pitch {
+        Some(y) => attempt(y).ok_or_else(|| PlanError::Infeasible(linear_refusal(bp, y))),
         None => {
             // The balanced span closest to the pole pitch it produces, τ = (Z − y)/2p; a span
             // more than a third of a pole pitch away from full pitch is no default.
@@ -223,14 +271,14 @@ fn linear_double(spec: &Spec) -> Result<Winding, PlanError> {
                 .into_iter()
                 .take_while(|&y| (y as f64 - tau(y)).abs() <= tau(y) / 3.0)
                 .find_map(attempt)
-                .ok_or_else(|| PlanError::Infeasible(linear_refusal(spec, nearest)))
+                .ok_or_else(|| PlanError::Infeasible(linear_refusal(bp, nearest)))
         }
     }
 }
 
 /// Refusal text for a linear primary: how many slots q and the span need.
-fn linear_refusal(spec: &Spec, y: usize) -> String {
-    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
+fn linear_refusal(bp: &Blueprint, y: usize) -> String {
+    let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     let unit = poles * m;
     let n = z.saturating_sub(y);
     let mut msg = format!(
@@ -259,13 +307,13 @@ fn linear_refusal(spec: &Spec, y: usize) -> String {
 /// Single-layer windings: tooth coils on every other tooth (span 1), or lap/concentric coils
 /// pairing the positive and negative belt slots of each phase. `explain` builds refusal
 /// texts (which search nearby slot counts); feasibility probes pass `false`.
-fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
-    let (z, poles, m) = (spec.slots, spec.poles, spec.phases);
-    let geom = match spec.topology {
-        Topology::Rotary => Geometry::rotary(z, poles, m, 1, spec.core),
-        Topology::Linear => Geometry::linear(z, z, poles, m, 1, spec.core),
+fn single_layer(bp: &Blueprint, explain: bool) -> Result<Winding, PlanError> {
+    let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
+    let geom = match bp.topology {
+        Topology::Rotary => Geometry::rotary(z, poles, m, 1, bp.core),
+        Topology::Linear => Geometry::linear(z, z, poles, m, 1, bp.core),
     };
-    let refuse = || match spec.topology {
+    let refuse = || match bp.topology {
         // Probes and surveys get the reason without the search for nearby slot counts.
         _ if !explain => format!(
             "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles"
@@ -280,19 +328,19 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
         ),
     };
     let y_default = nearest_full_pitch(geom.pole_pitch_slots);
-    let y = match spec.pitch {
-        Some(y) if spec.topology == Topology::Rotary => check_rotary_span(z, y)?,
+    let y = match bp.pitch {
+        Some(y) if bp.topology == Topology::Rotary => check_rotary_span(z, y)?,
         Some(y) => y,
         None => y_default,
     };
-    if y == 1 && spec.style == Style::Lap {
-        let coils = tooth_coils(&geom, spec.turns_per_coil).ok_or_else(|| {
+    if y == 1 && bp.style == Style::Lap {
+        let coils = tooth_coils(&geom, bp.turns_per_coil).ok_or_else(|| {
             PlanError::Infeasible(format!(
                 "single-layer tooth coils wind every other tooth and need an even slot count, \
                  not {z}"
             ))
         })?;
-        let w = blank_winding(spec, geom, 1, coils);
+        let w = blank_winding(bp, geom, 1, coils);
         return ensure_balanced(w, refuse);
     }
     // Each slot takes one coil side, its belt from the star of slots.
@@ -307,13 +355,13 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
         }
     }
     if (0..m).any(|p| plus[p].len() != minus[p].len() || plus[p].is_empty()) {
-        return alternate_coils(spec, &geom, y).ok_or_else(|| PlanError::Infeasible(refuse()));
+        return alternate_coils(bp, &geom, y).ok_or_else(|| PlanError::Infeasible(refuse()));
     }
     let mut coils = Vec::with_capacity(z / 2);
     // The span the pairs were found at (a default span may move to the nearest that pairs).
     let mut built_span: Option<usize> = None;
     for p in 0..m {
-        let pairs = match spec.style {
+        let pairs = match bp.style {
             Style::Concentric => nest(&geom, &plus[p], &minus[p]),
             Style::Lap => {
                 match pair_at_span(&geom, &plus[p], &minus[p], built_span.unwrap_or(y)) {
@@ -321,7 +369,7 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
                         built_span.get_or_insert(y);
                         Some(pairs)
                     }
-                    None if spec.pitch.is_none() && built_span.is_none() => {
+                    None if bp.pitch.is_none() && built_span.is_none() => {
                         // Default span: the nearest span that pairs every slot.
                         (1..z)
                             .flat_map(|d| [y.checked_sub(d), Some(y + d)])
@@ -340,14 +388,14 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
             if !explain {
                 return PlanError::Infeasible(format!(
                     "span {y} cannot pair the single-layer slots of phase {} in lap coils",
-                    spec.phase_labels[p]
+                    bp.base.phase_labels[p]
                 ));
             }
             let spans = single_layer_spans(&geom, &plus, &minus);
             PlanError::Infeasible(format!(
                 "span {y} cannot pair the single-layer slots of phase {} in lap coils; \
                  spans that can: {}",
-                spec.phase_labels[p],
+                bp.base.phase_labels[p],
                 if spans.is_empty() {
                     "none (try style = \"concentric\")".to_string()
                 } else {
@@ -359,18 +407,18 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
             phase: p,
             go,
             back,
-            turns: spec.turns_per_coil,
+            turns: bp.turns_per_coil,
             path: 0,
             go_layer: 0,
             back_layer: 0,
         }));
     }
-    let mut w = blank_winding(spec, geom, built_span.unwrap_or(y), coils);
+    let mut w = blank_winding(bp, geom, built_span.unwrap_or(y), coils);
     let mut coils = std::mem::take(&mut w.coils);
     coils.sort_by_key(|c| (w.left_slot(c), c.go));
     w.coils = coils;
     // The span reported is the span built: the most common coil span.
-    if spec.style == Style::Lap && !w.coils.is_empty() {
+    if bp.style == Style::Lap && !w.coils.is_empty() {
         let mut spans: Vec<usize> = w
             .coils
             .iter()
@@ -379,7 +427,7 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
         spans.sort_unstable();
         w.pitch = spans[spans.len() / 2];
     }
-    if spec.style == Style::Concentric {
+    if bp.style == Style::Concentric {
         let total: i64 = w.coils.iter().map(|c| w.span(c).abs()).sum();
         w.pitch = (total as f64 / w.coils.len() as f64).round() as usize;
     }
@@ -393,9 +441,9 @@ fn single_layer(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
 /// halves (e.g. 18 slots, 4 poles; fractional-slot winding theory: Z even and
 /// Z/(m·gcd(Z, p)) whole). Spans are tried nearest the pole pitch first, the one asked for
 /// only when given; `None` when no odd span gives a balanced winding.
-fn alternate_coils(spec: &Spec, geom: &Geometry, y: usize) -> Option<Winding> {
+fn alternate_coils(bp: &Blueprint, geom: &Geometry, y: usize) -> Option<Winding> {
     let z = geom.slots;
-    if geom.topology != Topology::Rotary || !z.is_multiple_of(2) || spec.style != Style::Lap {
+    if geom.topology != Topology::Rotary || !z.is_multiple_of(2) || bp.style != Style::Lap {
         return None;
     }
     // The double layer must exist first (Z/(m·gcd(Z, p)) whole): otherwise no span can work.
@@ -405,7 +453,7 @@ fn alternate_coils(spec: &Spec, geom: &Geometry, y: usize) -> Option<Winding> {
     let double = Geometry::rotary(z, geom.poles, geom.phases, 2, geom.core);
     // The four odd spans nearest the pole pitch: k_w1 falls away from it, so the best lies
     // among them, and the work stays linear in the slot count.
-    let candidates: Vec<usize> = match spec.pitch {
+    let candidates: Vec<usize> = match bp.pitch {
         Some(y) => vec![y],
         None => (0..z)
             .flat_map(|d| [y.checked_sub(d), Some(y + d)])
@@ -415,7 +463,7 @@ fn alternate_coils(spec: &Spec, geom: &Geometry, y: usize) -> Option<Winding> {
             .collect(),
     };
     let build = |s: usize| {
-        let coils: Vec<Coil> = double_layer_coils(&double, z, s, spec.turns_per_coil)
+        let coils: Vec<Coil> = double_layer_coils(&double, z, s, bp.turns_per_coil)
             .into_iter()
             .filter(|c| {
                 let left = if c.go_layer == 0 { c.go } else { c.back };
@@ -427,7 +475,7 @@ fn alternate_coils(spec: &Spec, geom: &Geometry, y: usize) -> Option<Winding> {
                 ..c
             })
             .collect();
-        let w = blank_winding(spec, geom.clone(), s, coils);
+        let w = blank_winding(bp, geom.clone(), s, coils);
         (w.is_balanced() && w.empty_slots().is_empty()).then_some(w)
     };
     // Of the odd spans that work, the one of highest k_w1 (the nearer the pole pitch on a
@@ -697,7 +745,12 @@ fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
             coils,
         });
     }
-    let mut w = blank_winding(spec, geom, pitch, Vec::with_capacity(spec.coils.len()));
+    let mut w = blank_winding(
+        &Blueprint::of_spec(spec),
+        geom,
+        pitch,
+        Vec::with_capacity(spec.coils.len()),
+    );
     w.from_coil_list = true;
     w.parallel_paths = spec.parallel_paths;
     let mut used = vec![[false; 2]; z];
@@ -739,25 +792,20 @@ pub fn with_span(w: &Winding, pitch: usize) -> Result<Winding, PlanError> {
         (Topology::Linear, 2) => (g.pole_pitch_slots * g.poles as f64).round() as usize + pitch,
         _ => g.slots,
     };
-    let spec = Spec {
-        title: w.title.clone(),
+    let bp = Blueprint {
         topology: g.topology,
         slots,
         poles: g.poles,
         phases: g.phases,
-        phase_labels: w.phase_labels.clone(),
         layers: g.layers,
         pitch: Some(pitch),
         style: w.style,
         turns_per_coil: w.turns_per_coil,
-        parallel_paths: 1,
-        connection: w.connection,
-        skew_slots: w.skew_slots,
         core: g.core,
-        supply: w.supply,
-        coils: Vec::new(),
-        colours: w.colours.clone(),
-        design: w.design,
+        base: Winding {
+            coils: Vec::new(),
+            ..w.clone()
+        },
     };
-    build_explained(&spec, false)
+    synthesize(&bp, false)
 }
