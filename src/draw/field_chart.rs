@@ -521,3 +521,28 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     s.push('\n');
     s
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::field::{FieldOptions, field, snapshots};
+
+    fn wind(src: &str) -> crate::winding::Winding {
+        let spec = crate::layout::parse(src, "test").expect("test layout parses");
+        crate::winding::build(&spec).expect("test winding builds")
+    }
+
+    #[test]
+    fn sheet_draws_with_patterns_and_caution() {
+        let w = wind(include_str!("../../layouts/pallet-shuttle.toml"));
+        let mut o = FieldOptions::balanced(&w);
+        o.slip = Some(0.1);
+        let r = field(&w, &o).unwrap();
+        let s = field_sheet(&r, &snapshots(&w, &o, 6).unwrap());
+        assert!(s.starts_with("<svg"));
+        assert!(s.contains("fwd-hatch") && s.contains("bwd-hatch"));
+        assert!(s.contains("CAUTION"));
+        assert!(s.contains("7.2\u{a0}m/s; secondary 6.48\u{a0}m/s at slip 0.1"));
+        assert_eq!(s.matches("<polyline").count(), 6);
+    }
+}

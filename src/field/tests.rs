@@ -503,20 +503,6 @@ fn currents_parse_and_refuse_clearly() {
     assert_eq!(field(&w, &o), Err(FieldError::SlotOpening(1.0)));
 }
 
-#[test]
-fn sheet_draws_with_patterns_and_caution() {
-    let w = wind(include_str!("../../layouts/pallet-shuttle.toml"));
-    let mut o = FieldOptions::balanced(&w);
-    o.slip = Some(0.1);
-    let r = field(&w, &o).unwrap();
-    let s = crate::draw::field_chart::field_sheet(&r, &snapshots(&w, &o, 6).unwrap());
-    assert!(s.starts_with("<svg"));
-    assert!(s.contains("fwd-hatch") && s.contains("bwd-hatch"));
-    assert!(s.contains("CAUTION"));
-    assert!(s.contains("7.2\u{a0}m/s; secondary 6.48\u{a0}m/s at slip 0.1"));
-    assert_eq!(s.matches("<polyline").count(), 6);
-}
-
 // Closed form for full-pitch three-phase integer-slot windings,
 // σ_d = π²·(5q² + 1)/(54·q²·k_d1²) − 1 (from memory; it reproduces the textbook table values
 // 0.0966, 0.0284, 0.0141, 0.0089 for q = 1…4, also from memory), against Parseval.
