@@ -29,9 +29,10 @@ const MAX_PAIR_CHECKS: usize = 20_000_000;
 /// Most fixes of the smallest size kept for ranking.
 const MAX_FIXES: usize = 256;
 
-/// Most coil pairs tried as a swap between phases: every pair of any real record (a
-/// 360-slot double layer has about 43,000), a bound on memory for a pathological one.
-const MAX_SWAPS: usize = 2_000_000;
+/// Most coil pairs tried as a swap between phases: every pair of a 360-slot double layer
+/// (about 43,000); on larger records pairs up to MAX_SWAPS/n slots apart, which still spans
+/// a pole pair (every electrical position) on any core of ordinary pole count.
+const MAX_SWAPS: usize = 400_000;
 
 /// Most slots with room left that a coil from an overfilled slot is tried in.
 const MAX_SHORT_SLOTS: usize = 16;
