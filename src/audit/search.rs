@@ -269,15 +269,6 @@ impl Balance {
     }
 }
 
-/// Phase of each coil's left slot in the standard 60° belt layout (star of slots, slot 1 at
-/// the start of +U), with its polarity: the reference for breaking ties between fixes.
-fn belt_reference(w: &Winding) -> Vec<(usize, bool)> {
-    w.coils
-        .iter()
-        .map(|c| crate::winding::star::belt_of_slot(&w.geometry, w.left_slot(c)))
-        .collect()
-}
-
 /// Runs of adjacent coils (in slot order) of one phase, polarity ignored.
 pub fn phase_runs(w: &Winding) -> Vec<Vec<usize>> {
     let mut order: Vec<usize> = (0..w.coils.len()).collect();
@@ -654,7 +645,6 @@ pub fn search(w: &Winding) -> Search {
     // Rank: fewest shop edits, then most coils agreeing with the standard belt layout, most
     // coils whose span is the record's usual span, then fewest coils touched, then the
     // earliest edits.
-    let reference = belt_reference(w);
     let usual = usual_span(w);
     let ranked = found
         .into_iter()
@@ -662,11 +652,21 @@ pub fn search(w: &Winding) -> Search {
             let fix: Vec<Edit> = f.iter().map(|&e| edits[e as usize].clone()).collect();
             let cost: usize = fix.iter().map(Edit::cost).sum();
             let touched: usize = fix.iter().map(|e| touched(w, e)).sum();
-            let agree = agreement(w, &fix, &reference);
-            let regular = apply_fix(w, &fix)
+            let fixed = apply_fix(w, &fix);
+            // Coils that, after the fix, have the phase and polarity of the standard belt
+            // layout, and coils with the record's usual span.
+            let agree = fixed
                 .coils
                 .iter()
-                .filter(|c| Some(w.span(c).unsigned_abs()) == usual)
+                .filter(|c| {
+                    (c.phase, fixed.span(c) >= 0)
+                        == crate::winding::star::belt_of_slot(&fixed.geometry, fixed.left_slot(c))
+                })
+                .count();
+            let regular = fixed
+                .coils
+                .iter()
+                .filter(|c| Some(fixed.span(c).unsigned_abs()) == usual)
                 .count();
             (cost, (agree, regular), touched, f, fix)
         })
@@ -775,68 +775,6 @@ fn touched(w: &Winding, e: &Edit) -> usize {
             .filter(|c| c.phase == *a || c.phase == *b)
             .count(),
     }
-}
-
-/// How many coils, after the fix, have the phase and polarity of the standard belt layout.
-fn agreement(w: &Winding, fix: &[Edit], reference: &[(usize, bool)]) -> usize {
-    let mut state: Vec<(usize, bool)> = w.coils.iter().map(|c| (c.phase, w.span(c) >= 0)).collect();
-    for e in fix {
-        match e {
-            Edit::ReverseCoil { coil } => state[*coil].1 = !state[*coil].1,
-            Edit::ReverseGroup { coils } => {
-                for &c in coils {
-                    state[c].1 = !state[c].1;
-                }
-            }
-            Edit::MoveCoil {
-                coil, to, reversed, ..
-            } => {
-                state[*coil].0 = *to;
-                if *reversed {
-                    state[*coil].1 = !state[*coil].1;
-                }
-            }
-            Edit::MoveGroup {
-                coils,
-                to,
-                reversed,
-                ..
-            } => {
-                for &c in coils {
-                    state[c].0 = *to;
-                    if *reversed {
-                        state[c].1 = !state[c].1;
-                    }
-                }
-            }
-            Edit::SwapCoils {
-                a,
-                b,
-                phase_a,
-                phase_b,
-            } => {
-                state[*a].0 = *phase_b;
-                state[*b].0 = *phase_a;
-            }
-            // The reference is by left slot, which a relaid coil changes: judged as it lies.
-            Edit::RelayCoil { .. } => {}
-            Edit::ReversePhase { phase } => {
-                for s in state.iter_mut().filter(|s| s.0 == *phase) {
-                    s.1 = !s.1;
-                }
-            }
-            Edit::SwapPhases { a, b } => {
-                for s in state.iter_mut() {
-                    if s.0 == *a {
-                        s.0 = *b;
-                    } else if s.0 == *b {
-                        s.0 = *a;
-                    }
-                }
-            }
-        }
-    }
-    state.iter().zip(reference).filter(|(s, r)| s == r).count()
 }
 
 /// The winding with `fix` applied (coil ends swapped, phases relabelled).

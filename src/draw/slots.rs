@@ -604,37 +604,37 @@ fn lead_end(
     let groups = coil_groups(w);
     let mut out = Group::new().set("class", "lead-end");
     let label_y = band_top + MIN_TEXT + 0.5;
-    let mut lane = 0usize;
     let mut leads: Vec<(f64, usize, String)> = Vec::new();
-    for k in 0..w.geometry.phases {
-        for p in 0..w.parallel_paths.max(1) {
-            let gs: Vec<usize> = groups
-                .iter()
-                .enumerate()
-                .filter(|(_, grp)| grp.phase == k && w.coils[grp.coils[0]].path == p)
-                .map(|(i, _)| i)
-                .collect();
-            let y = band_top + 3.0 * MIN_TEXT + 3.0 + lane as f64 * LANE + LANE / 2.0;
-            lane += 1;
-            let start_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).0;
-            let finish_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).1;
-            let drop = |x: f64| phase_line(pal, k, x, y, x, top + 0.6, 0.3);
-            for pair in gs.windows(2) {
-                let (a, b) = (
-                    x_of(finish_of(pair[0]) as f64),
-                    x_of(start_of(pair[1]) as f64),
-                );
-                out = out
-                    .add(phase_line(pal, k, a, y, b, y, 0.35).set("class", "jumper"))
-                    .add(drop(a))
-                    .add(drop(b));
-            }
-            if let (Some(&first), Some(&last)) = (gs.first(), gs.last()) {
-                for (slot, end) in [(start_of(first), 1u8), (finish_of(last), 2u8)] {
-                    let x = x_of(slot as f64);
-                    let name = super::connections::path_terminal(w, k, p, end);
-                    leads.push((x, k, name));
-                }
+    for (
+        lane,
+        crate::winding::schedule::Lane {
+            phase: k,
+            path: p,
+            groups: gs,
+        },
+    ) in crate::winding::schedule::lanes(w, &groups)
+        .into_iter()
+        .enumerate()
+    {
+        let y = band_top + 3.0 * MIN_TEXT + 3.0 + lane as f64 * LANE + LANE / 2.0;
+        let start_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).0;
+        let finish_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).1;
+        let drop = |x: f64| phase_line(pal, k, x, y, x, top + 0.6, 0.3);
+        for pair in gs.windows(2) {
+            let (a, b) = (
+                x_of(finish_of(pair[0]) as f64),
+                x_of(start_of(pair[1]) as f64),
+            );
+            out = out
+                .add(phase_line(pal, k, a, y, b, y, 0.35).set("class", "jumper"))
+                .add(drop(a))
+                .add(drop(b));
+        }
+        if let (Some(&first), Some(&last)) = (gs.first(), gs.last()) {
+            for (slot, end) in [(start_of(first), 1u8), (finish_of(last), 2u8)] {
+                let x = x_of(slot as f64);
+                let name = super::connections::path_terminal(w, k, p, end);
+                leads.push((x, k, name));
             }
         }
     }

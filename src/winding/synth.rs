@@ -31,6 +31,8 @@ struct Blueprint {
 
 impl Blueprint {
     fn of_spec(spec: &Spec) -> Self {
+        // A stand-in: every winding built from the blueprint gets the geometry synthesis
+        // works out (`blank_winding`).
         let geometry = Geometry::rotary(
             spec.slots,
             spec.poles.max(2),
