@@ -23,15 +23,7 @@ use paths::paths;
 pub use search::{BALANCE_TOL, Edit, Search, apply_fix, search};
 pub use slots::{SlotCheck, check_slots};
 
-/// Direction of the phase sequence at the fundamental.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
-#[serde(rename_all = "lowercase")]
-pub enum Sequence {
-    /// V lags U by 360°/m: the field travels towards rising slot numbers.
-    Positive,
-    /// V leads U: the field travels towards falling slot numbers.
-    Negative,
-}
+pub use crate::winding::star::Sequence;
 
 /// What a finding is about, in shop terms.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]

@@ -43,15 +43,7 @@ pub const MAX_ORDERS: u64 = 1_000_000;
 /// Largest slot-opening width accepted, in slot pitches (openings must not overlap).
 pub const MAX_OPENING: f64 = 1.0;
 
-/// Order of the phase currents in time.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
-#[serde(rename_all = "lowercase")]
-pub enum Sequence {
-    /// Each phase lags the one before it by 2π/m (V lags U).
-    Positive,
-    /// Each phase leads the one before it by 2π/m: the field turns the other way.
-    Negative,
-}
+pub use crate::winding::star::Sequence;
 
 /// Direction a wave moves along the gap.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]

@@ -22,6 +22,17 @@ use super::{Geometry, Winding};
 /// rounding in the phasor sums stays near 1e-13.
 pub const BALANCE_TOL: f64 = 1e-7;
 
+/// Order of a set of phase quantities (currents in time, or EMFs found on a winding).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "lowercase")]
+pub enum Sequence {
+    /// Each phase lags the one before it by 2π/m (V lags U): on a winding in slot order,
+    /// the field travels towards rising slot numbers.
+    Positive,
+    /// Each phase leads the one before it by 2π/m: the field travels the other way.
+    Negative,
+}
+
 /// Phase and polarity (true: positive) of belt `b` of the 2m belts.
 pub fn belt(b: usize, m: usize) -> (usize, bool) {
     if b.is_multiple_of(2) {
