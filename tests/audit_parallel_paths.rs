@@ -50,7 +50,7 @@ fn a_coil_in_the_wrong_path_is_named_with_its_circulating_emf() {
         assert_eq!(finding.coils, vec![i + 1]);
         assert!(
             finding
-                .message
+                .message()
                 .contains(&format!("belongs in path {}", home + 1))
         );
         let phase = w.label(w.coils[i].phase);

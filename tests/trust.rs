@@ -471,15 +471,15 @@ fn audit_pinpoints_a_coil_whose_span_differs_from_its_group() {
     let sound = hoist("hoist-rewind-sound");
     let (go, back) = (sound.coils[7].go + 1, sound.coils[7].back + 1);
     assert!(
-        f.message.contains(&format!(
+        f.message().contains(&format!(
             "spans {} where it should span {}",
             sound.pitch + 1,
             sound.pitch
         )) && f
-            .message
+            .message()
             .contains(&format!("in at slot {go}, out at slot {back}")),
         "{}",
-        f.message
+        f.message()
     );
 }
 
@@ -630,7 +630,7 @@ fn audit_finds_coils_and_groups_in_the_wrong_parallel_path() {
     assert_eq!(r.findings[0].kind, audit::FindingKind::PathMismatch);
     let mut pair = vec![a + 1, b + 1];
     pair.sort_unstable();
-    assert_eq!(r.findings[0].coils, pair, "{}", r.findings[0].message);
+    assert_eq!(r.findings[0].coils, pair, "{}", r.findings[0].message());
 
     // A whole group in the other path: the paths differ in turns; one finding, the group.
     let g = u[0];
@@ -644,6 +644,6 @@ fn audit_finds_coils_and_groups_in_the_wrong_parallel_path() {
     assert_eq!(r.findings.len(), 1, "{:#?}", r.findings);
     let mut named: Vec<usize> = g.coils.iter().map(|i| i + 1).collect();
     named.sort_unstable();
-    assert_eq!(r.findings[0].coils, named, "{}", r.findings[0].message);
-    assert!(r.findings[0].message.contains("coil group"));
+    assert_eq!(r.findings[0].coils, named, "{}", r.findings[0].message());
+    assert!(r.findings[0].message().contains("coil group"));
 }

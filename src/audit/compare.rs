@@ -2,7 +2,7 @@
 
 use serde::Serialize;
 
-use super::{Finding, FindingKind};
+use super::{CoilAt, Fact, Finding, FindingKind};
 use crate::winding::Winding;
 
 /// What one slot holds in the record and in the design: "+U" for current in, "-U" out.
@@ -52,11 +52,10 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
                 coils: Vec::new(),
                 slots: Vec::new(),
                 phases: Vec::new(),
-                message: format!(
-                    "the intended design has {} slots and the record {}: they are not the same \
-                     core",
-                    design.geometry.slots, found.geometry.slots
-                ),
+                detail: Fact::CoresDiffer {
+                    design_slots: design.geometry.slots,
+                    record_slots: found.geometry.slots,
+                },
             }],
         };
     }
@@ -93,39 +92,36 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
         if partner[i].is_some() {
             continue;
         }
-        let here = format!(
-            "coil {} (phase {}, in at slot {}, out at slot {}, path {})",
-            i + 1,
-            found.label(c.phase),
-            c.go + 1,
-            c.back + 1,
-            c.path + 1
-        );
         let j = (0..design.coils.len()).find(|&j| {
             !used[j] && pair(design.coils[j].go, design.coils[j].back) == pair(c.go, c.back)
         });
-        let message = match j {
-            None => format!("{here} has no coil in the same slots in the intended design"),
+        let coil = CoilAt {
+            coil: i + 1,
+            phase: found.label(c.phase).to_string(),
+            go: c.go + 1,
+            back: c.back + 1,
+        };
+        let detail = match j {
+            None => Fact::DiffersFromDesign {
+                coil,
+                path: c.path + 1,
+                matched: false,
+                phase: None,
+                go: None,
+                belongs_in_path: None,
+            },
             Some(j) => {
                 used[j] = true;
                 let d = &design.coils[j];
-                let mut what = Vec::new();
-                if found.label(c.phase) != design.label(d.phase) {
-                    what.push(format!("it belongs in phase {}", design.label(d.phase)));
+                Fact::DiffersFromDesign {
+                    coil,
+                    path: c.path + 1,
+                    matched: true,
+                    phase: (found.label(c.phase) != design.label(d.phase))
+                        .then(|| design.label(d.phase).to_string()),
+                    go: (c.go != d.go).then_some(d.go + 1),
+                    belongs_in_path: (c.path != d.path).then_some(d.path + 1),
                 }
-                if c.go != d.go {
-                    what.push(format!(
-                        "it is reversed: current should enter at slot {}",
-                        d.go + 1
-                    ));
-                }
-                if c.path != d.path {
-                    what.push(format!("it belongs in path {}", d.path + 1));
-                }
-                format!(
-                    "{here} differs from the intended design: {}",
-                    what.join("; ")
-                )
             }
         };
         findings.push(Finding {
@@ -133,7 +129,7 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
             coils: vec![i + 1],
             slots: vec![c.go + 1, c.back + 1],
             phases: vec![found.label(c.phase).to_string()],
-            message,
+            detail,
         });
     }
     for (j, d) in design.coils.iter().enumerate().filter(|(j, _)| !used[*j]) {
@@ -143,13 +139,11 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
             coils: Vec::new(),
             slots: vec![d.go + 1, d.back + 1],
             phases: vec![design.label(d.phase).to_string()],
-            message: format!(
-                "the intended design has a coil of phase {} in at slot {} and out at slot {} \
-                 that the record lacks",
-                design.label(d.phase),
-                d.go + 1,
-                d.back + 1
-            ),
+            detail: Fact::MissingFromRecord {
+                phase: design.label(d.phase).to_string(),
+                go: d.go + 1,
+                back: d.back + 1,
+            },
         });
     }
     Comparison {

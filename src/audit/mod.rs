@@ -8,6 +8,7 @@
 //! a balanced positive-sequence winding.
 
 mod compare;
+mod facts;
 mod paths;
 pub mod search;
 mod slots;
@@ -19,6 +20,7 @@ use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding, coil_groups};
 
 pub use compare::{Comparison, SlotDifference, compare};
+pub use facts::{CoilAt, Fact, PathMove};
 use paths::paths;
 pub use search::{BALANCE_TOL, Edit, Search, apply_fix, search};
 pub use slots::{SlotCheck, check_slots};
@@ -65,8 +67,9 @@ pub enum FindingKind {
     CoilWrongSlots,
 }
 
-/// One thing wrong with the winding, and what to do about it.
-#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+/// One thing wrong with the winding, and what to do about it. Its words (`message()`, and
+/// `message` in JSON) come from the presenters (`output::audit_words`).
+#[derive(Debug, Clone, PartialEq)]
 pub struct Finding {
     /// What is wrong.
     pub kind: FindingKind,
@@ -76,8 +79,8 @@ pub struct Finding {
     pub slots: Vec<usize>,
     /// Phases involved (labels).
     pub phases: Vec<String>,
-    /// What is wrong and what to change, for the winder.
-    pub message: String,
+    /// What is wrong, with its numbers.
+    pub detail: Fact,
 }
 
 /// A phasor at one harmonic order.
@@ -236,13 +239,6 @@ fn harmonic_orders(w: &Winding) -> Vec<f64> {
     orders
 }
 
-pub(crate) use crate::numbering::ranges as runs;
-
-/// Coil numbers as a person reads them, from 0-based indices.
-fn label_list(coils: &[usize]) -> String {
-    runs(&coils.iter().map(|c| c + 1).collect::<Vec<_>>())
-}
-
 fn slots_of(w: &Winding, coils: &[usize]) -> Vec<usize> {
     let mut s: Vec<usize> = coils
         .iter()
@@ -253,50 +249,46 @@ fn slots_of(w: &Winding, coils: &[usize]) -> Vec<usize> {
     s
 }
 
-fn coil_words(w: &Winding, i: usize) -> String {
+/// Coil `i` (0-based) as a finding names it.
+fn coil_at(w: &Winding, i: usize) -> CoilAt {
     let c = &w.coils[i];
-    format!(
-        "coil {} (phase {}, in at slot {}, out at slot {})",
-        i + 1,
-        w.label(c.phase),
-        c.go + 1,
-        c.back + 1
-    )
+    CoilAt {
+        coil: i + 1,
+        phase: w.label(c.phase).to_string(),
+        go: c.go + 1,
+        back: c.back + 1,
+    }
 }
 
 /// A finding in shop terms for one edit of the fix.
 fn finding_for(w: &Winding, e: &Edit) -> Finding {
+    let label = |k: usize| w.label(k).to_string();
+    let sorted_from_one = |coils: &[usize]| {
+        let mut v: Vec<usize> = coils.iter().map(|c| c + 1).collect();
+        v.sort_unstable();
+        v
+    };
     match e {
-        Edit::ReverseCoil { coil } => {
-            let c = &w.coils[*coil];
-            Finding {
-                kind: FindingKind::ReversedCoil,
-                coils: vec![coil + 1],
-                slots: slots_of(w, &[*coil]),
-                phases: vec![w.label(c.phase).to_string()],
-                message: format!(
-                    "{} is connected backwards: reconnect it so that current enters at slot {} \
-                     and leaves at slot {}",
-                    coil_words(w, *coil),
-                    c.back + 1,
-                    c.go + 1
-                ),
-            }
-        }
+        Edit::ReverseCoil { coil } => Finding {
+            kind: FindingKind::ReversedCoil,
+            coils: vec![coil + 1],
+            slots: slots_of(w, &[*coil]),
+            phases: vec![label(w.coils[*coil].phase)],
+            detail: Fact::ReversedCoil {
+                coil: coil_at(w, *coil),
+            },
+        },
         Edit::ReverseGroup { coils } => {
-            let mut sorted = coils.clone();
-            sorted.sort_unstable();
-            let ph = w.label(w.coils[coils[0]].phase).to_string();
+            let ph = label(w.coils[coils[0]].phase);
             let slots = slots_of(w, coils);
             Finding {
                 kind: FindingKind::ReversedGroup,
-                coils: sorted.iter().map(|c| c + 1).collect(),
-                message: format!(
-                    "the coil group of coils {} (phase {ph}, slots {}) is connected backwards: \
-                     swap the two jumpers at the ends of the group",
-                    label_list(&sorted),
-                    runs(&slots)
-                ),
+                coils: sorted_from_one(coils),
+                detail: Fact::ReversedGroup {
+                    coils: sorted_from_one(coils),
+                    phase: ph.clone(),
+                    slots: slots.clone(),
+                },
                 slots,
                 phases: vec![ph],
             }
@@ -310,21 +302,13 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             kind: FindingKind::WrongPhase,
             coils: vec![coil + 1],
             slots: slots_of(w, &[*coil]),
-            phases: vec![w.label(*from).to_string(), w.label(*to).to_string()],
-            message: format!(
-                "{} is connected into phase {} but belongs in phase {}{}",
-                coil_words(w, *coil),
-                w.label(*from),
-                w.label(*to),
-                if *reversed {
-                    format!(
-                        ", the other way round (current in at slot {})",
-                        w.coils[*coil].back + 1
-                    )
-                } else {
-                    String::new()
-                }
-            ),
+            phases: vec![label(*from), label(*to)],
+            detail: Fact::WrongPhase {
+                coil: coil_at(w, *coil),
+                from: label(*from),
+                to: label(*to),
+                reversed: *reversed,
+            },
         },
         Edit::SwapCoils {
             a,
@@ -338,28 +322,19 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             to,
             reversed,
         } => {
-            let mut sorted = coils.clone();
-            sorted.sort_unstable();
             let slots = slots_of(w, coils);
             Finding {
                 kind: FindingKind::GroupWrongPhase,
-                coils: sorted.iter().map(|c| c + 1).collect(),
-                message: format!(
-                    "the coil group of coils {} (slots {}) is connected into phase {} but \
-                     belongs in phase {}{}: move its two jumpers to phase {}",
-                    label_list(&sorted),
-                    runs(&slots),
-                    w.label(*from),
-                    w.label(*to),
-                    if *reversed {
-                        ", the other way round"
-                    } else {
-                        ""
-                    },
-                    w.label(*to),
-                ),
+                coils: sorted_from_one(coils),
+                detail: Fact::GroupWrongPhase {
+                    coils: sorted_from_one(coils),
+                    slots: slots.clone(),
+                    from: label(*from),
+                    to: label(*to),
+                    reversed: *reversed,
+                },
                 slots,
-                phases: vec![w.label(*from).to_string(), w.label(*to).to_string()],
+                phases: vec![label(*from), label(*to)],
             }
         }
         Edit::RelayCoil { coil, go, back, .. } => {
@@ -367,82 +342,54 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             let mut slots = vec![c.go + 1, c.back + 1, go + 1, back + 1];
             slots.sort_unstable();
             slots.dedup();
-            let from: Vec<usize> = [(c.go, *go), (c.back, *back)]
-                .iter()
-                .filter(|(a, b)| a != b)
-                .map(|(a, _)| a + 1)
-                .collect();
-            let to: Vec<usize> = [(c.go, *go), (c.back, *back)]
-                .iter()
-                .filter(|(a, b)| a != b)
-                .map(|(_, b)| b + 1)
-                .collect();
+            let moved = [(c.go, *go), (c.back, *back)];
+            let moved = moved.iter().filter(|(a, b)| a != b);
             let relaid = crate::winding::Coil {
                 go: *go,
                 back: *back,
                 ..c.clone()
             };
-            let (old, new) = (w.span(c).unsigned_abs(), w.span(&relaid).unsigned_abs());
             Finding {
                 kind: FindingKind::CoilWrongSlots,
                 coils: vec![coil + 1],
                 slots,
-                phases: vec![w.label(c.phase).to_string()],
-                message: format!(
-                    "{}{} lies in the wrong slots: slots {} hold too many coil sides while \
-                     slots {} are short. It belongs in at slot {}, out at slot {}{}; check the \
-                     record, then the coil",
-                    coil_words(w, *coil),
-                    if old != new {
-                        format!(" spans {old} where it should span {new}, so it")
-                    } else {
-                        String::new()
-                    },
-                    runs(&from),
-                    runs(&to),
-                    go + 1,
-                    back + 1,
-                    if old != new {
-                        " (a slot number was probably recorded wrong)"
-                    } else {
-                        ""
-                    },
-                ),
+                phases: vec![label(c.phase)],
+                detail: Fact::CoilWrongSlots {
+                    coil: coil_at(w, *coil),
+                    span: w.span(c).unsigned_abs(),
+                    should_span: w.span(&relaid).unsigned_abs(),
+                    overfilled: moved.clone().map(|(a, _)| a + 1).collect(),
+                    short: moved.map(|(_, b)| b + 1).collect(),
+                    go: go + 1,
+                    back: back + 1,
+                },
             }
         }
-        Edit::ReversePhase { phase } => {
-            let coils: Vec<usize> = (0..w.coils.len())
+        Edit::ReversePhase { phase } => Finding {
+            kind: FindingKind::ReversedPhase,
+            coils: (0..w.coils.len())
                 .filter(|&i| w.coils[i].phase == *phase)
-                .collect();
-            let l = w.label(*phase);
-            Finding {
-                kind: FindingKind::ReversedPhase,
-                coils: coils.iter().map(|c| c + 1).collect(),
-                slots: Vec::new(),
-                phases: vec![l.to_string()],
-                message: format!(
-                    "phase {l} is wound or connected backwards (its EMF is 180° from where it \
-                     belongs): swap its leads {l}1 and {l}2"
-                ),
-            }
-        }
-        Edit::SwapPhases { a, b } => {
-            let coils: Vec<usize> = (0..w.coils.len())
+                .map(|i| i + 1)
+                .collect(),
+            slots: Vec::new(),
+            phases: vec![label(*phase)],
+            detail: Fact::ReversedPhase {
+                phase: label(*phase),
+            },
+        },
+        Edit::SwapPhases { a, b } => Finding {
+            kind: FindingKind::LeadsSwapped,
+            coils: (0..w.coils.len())
                 .filter(|&i| w.coils[i].phase == *a || w.coils[i].phase == *b)
                 .map(|i| i + 1)
-                .collect();
-            let (la, lb) = (w.label(*a), w.label(*b));
-            Finding {
-                kind: FindingKind::LeadsSwapped,
-                coils,
-                slots: Vec::new(),
-                phases: vec![la.to_string(), lb.to_string()],
-                message: format!(
-                    "the leads of phases {la} and {lb} are exchanged (phase sequence reversed): \
-                     exchange them back, {la}1 with {lb}1 and {la}2 with {lb}2"
-                ),
-            }
-        }
+                .collect(),
+            slots: Vec::new(),
+            phases: vec![label(*a), label(*b)],
+            detail: Fact::LeadsSwapped {
+                a: label(*a),
+                b: label(*b),
+            },
+        },
     }
 }
 
@@ -571,11 +518,10 @@ fn odd_turns(w: &Winding) -> Option<Finding> {
         coils: odd.iter().map(|i| i + 1).collect(),
         slots: slots_of(w, &odd),
         phases: Vec::new(),
-        message: format!(
-            "coils {} have a turn count other than the {common} turns of the rest; check the \
-             record or the coils",
-            label_list(&odd)
-        ),
+        detail: Fact::TurnsDiffer {
+            coils: odd.iter().map(|i| i + 1).collect(),
+            usual: common,
+        },
     })
 }
 
@@ -613,13 +559,12 @@ fn swapped_pair(w: &Winding, i: usize, j: usize, a: usize, b: usize) -> Finding 
         coils,
         slots: slots_of(w, &[i, j]),
         phases: vec![w.label(a).to_string(), w.label(b).to_string()],
-        message: format!(
-            "{} and {} are swapped between phases {} and {}: exchange their connections",
-            coil_words(w, i),
-            coil_words(w, j),
-            w.label(a),
-            w.label(b)
-        ),
+        detail: Fact::CoilsSwapped {
+            a: coil_at(w, i),
+            b: coil_at(w, j),
+            phase_a: w.label(a).to_string(),
+            phase_b: w.label(b).to_string(),
+        },
     }
 }
 
@@ -680,14 +625,13 @@ fn odd_spans(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
                 coils: vec![c + 1],
                 slots: vec![coil.go + 1, coil.back + 1],
                 phases: vec![w.label(coil.phase).to_string()],
-                message: format!(
-                    "coil {} spans {} where the others of its group span {usual}: a slot \
-                     number was probably recorded wrong (in at slot {}, out at slot {})",
-                    c + 1,
-                    w.span(coil).unsigned_abs(),
-                    coil.go + 1,
-                    coil.back + 1
-                ),
+                detail: Fact::SpanDiffers {
+                    coil: c + 1,
+                    span: w.span(coil).unsigned_abs(),
+                    usual,
+                    go: coil.go + 1,
+                    back: coil.back + 1,
+                },
             });
         }
     }
@@ -720,10 +664,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             coils: Vec::new(),
             slots: Vec::new(),
             phases: Vec::new(),
-            message: "no fundamental EMF: the coil groups are not connected alternately (every \
-                      other group must be reversed), or the coils were recorded in one \
-                      direction; check the group connections against the connection sheet"
-                .into(),
+            detail: Fact::NoFundamental,
         });
     } else if !found.balanced && found.fix.is_none() {
         findings.push(Finding {
@@ -731,26 +672,12 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             coils: Vec::new(),
             slots: Vec::new(),
             phases: Vec::new(),
-            message: format!(
-                "the phases are unbalanced (backward field {}% of forward, magnitudes spread \
-                 {}%) and no change of up to two edits balances them. Searched: reversing a \
-                 coil, a group or a phase; moving a coil or a group to another phase; two \
-                 coils swapped between phases{}; a coil from an overfilled slot laid in a slot \
-                 with room; two leads exchanged{}. Not searched: {}. Compare the record with \
-                 the design slot by slot (audit --intended)",
-                crate::numbering::num(pct(bal.backward, bal.forward.max(bal.backward)), 2),
-                crate::numbering::num(bal.spread, 2),
-                found
-                    .swap_reach
-                    .map(|r| format!(" (up to {r} slots apart)"))
-                    .unwrap_or_default(),
-                if found.truncated {
-                    " (the search of pairs of edits was cut short on this record)"
-                } else {
-                    ""
-                },
-                search::NOT_SEARCHED
-            ),
+            detail: Fact::Unbalanced {
+                backward_percent: pct(bal.backward, bal.forward.max(bal.backward)),
+                spread_percent: bal.spread,
+                swap_reach: found.swap_reach,
+                truncated: found.truncated,
+            },
         });
     }
     let (_, path_findings) = paths(&fixed);
@@ -769,23 +696,14 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
                 }
                 _ => Vec::new(),
             },
-            message: format!(
-                "measured line-to-line resistances {} ohm at {} C deviate up to {}% from \
-                 their mean (tolerance {}%){}; {}",
-                r.measured_ohm
-                    .map(|x| crate::numbering::num(x, 4))
-                    .join(", "),
-                crate::numbering::num(r.temperature_c, 1),
-                crate::numbering::num(r.deviation_percent, 2),
-                crate::numbering::num(r.tolerance_percent, 1),
-                r.ratio_to_expected
-                    .map(|q| format!(
-                        ", their mean is {}% of the card's",
-                        crate::numbering::num(q * 100.0, 1)
-                    ))
-                    .unwrap_or_default(),
-                r.suggestion.message()
-            ),
+            detail: Fact::MeasuredResistance {
+                measured_ohm: r.measured_ohm,
+                temperature_c: r.temperature_c,
+                deviation_percent: r.deviation_percent,
+                tolerance_percent: r.tolerance_percent,
+                ratio_to_expected: r.ratio_to_expected,
+                suggestion: r.suggestion.clone(),
+            },
         });
     }
     // One finding per fault: the slot table compares the record as found, but the coil

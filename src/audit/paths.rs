@@ -5,7 +5,7 @@
 use num_complex::Complex64;
 
 use super::{
-    BALANCE_TOL, Finding, FindingKind, PathRow, angle_of, coil_words, label_list, runs, slots_of,
+    BALANCE_TOL, Fact, Finding, FindingKind, PathMove, PathRow, angle_of, coil_at, slots_of,
 };
 use crate::winding::{CoilGroup, Winding, coil_groups};
 
@@ -67,23 +67,17 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
             Some(moves) => {
                 let mut all: Vec<usize> = moves.iter().flat_map(|m| m.0.clone()).collect();
                 all.sort_unstable();
-                let parts: Vec<String> = moves
+                let moved: Vec<PathMove> = moves
                     .iter()
-                    .map(|(cs, p, q)| match cs.as_slice() {
-                        [i] => format!(
-                            "{} is in path {} but belongs in path {}",
-                            coil_words(w, *i),
-                            p + 1,
-                            q + 1
-                        ),
-                        _ => format!(
-                            "the coil group of coils {} (slots {}) is in path {} but belongs \
-                             in path {}",
-                            label_list(cs),
-                            runs(&slots_of(w, cs)),
-                            p + 1,
-                            q + 1
-                        ),
+                    .map(|(cs, p, q)| PathMove {
+                        coil: match cs.as_slice() {
+                            [i] => Some(coil_at(w, *i)),
+                            _ => None,
+                        },
+                        coils: cs.iter().map(|c| c + 1).collect(),
+                        slots: slots_of(w, cs),
+                        from: p + 1,
+                        to: q + 1,
                     })
                     .collect();
                 findings.push(Finding {
@@ -91,11 +85,10 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                     coils: all.iter().map(|c| c + 1).collect(),
                     slots: slots_of(w, &all),
                     phases: vec![l.clone()],
-                    message: format!(
-                        "the parallel paths of phase {l} do not match, so a current circulates \
-                         between them: {}",
-                        parts.join("; ")
-                    ),
+                    detail: Fact::PathMoves {
+                        phase: l.clone(),
+                        moves: moved,
+                    },
                 })
             }
             None => {
@@ -106,16 +99,14 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                         coils: row.coils.clone(),
                         slots: slots_of(w, &coils[p]),
                         phases: vec![l.clone()],
-                        message: format!(
-                            "path {} of phase {l} does not match its siblings ({} turns, EMF {} \
-                             at {}°): a circulating EMF of {}% of the path EMF drives a \
-                             current around the parallel loop; check the coils of this path",
-                            p + 1,
-                            row.turns,
-                            crate::numbering::num(row.magnitude, 3),
-                            crate::numbering::num(row.angle_deg, 1),
-                            crate::numbering::num(row.circulating_percent, 2)
-                        ),
+                        detail: Fact::PathDiffers {
+                            phase: l.clone(),
+                            path: p + 1,
+                            turns: row.turns,
+                            magnitude: row.magnitude,
+                            angle_deg: row.angle_deg,
+                            circulating_percent: row.circulating_percent,
+                        },
                     });
                 }
             }

@@ -2,7 +2,7 @@
 
 use serde::Serialize;
 
-use super::{Finding, FindingKind, runs};
+use super::{Fact, Finding, FindingKind};
 use crate::winding::{Topology, Winding};
 
 /// How the slots of a record are filled (slot numbers from 1).
@@ -70,16 +70,6 @@ impl SlotCheck {
     pub fn findings(&self, w: &Winding) -> Vec<Finding> {
         let mut f = Vec::new();
         if !self.empty.is_empty() || !self.partly_filled.is_empty() {
-            let mut parts = Vec::new();
-            if !self.empty.is_empty() {
-                parts.push(format!("slots {} hold no coil side", runs(&self.empty)));
-            }
-            if !self.partly_filled.is_empty() {
-                parts.push(format!(
-                    "slots {} have a layer left empty",
-                    runs(&self.partly_filled)
-                ));
-            }
             let mut slots: Vec<usize> = self
                 .empty
                 .iter()
@@ -92,10 +82,10 @@ impl SlotCheck {
                 coils: Vec::new(),
                 slots,
                 phases: Vec::new(),
-                message: format!(
-                    "{}: a coil is missing from the record or was laid in another slot",
-                    parts.join("; ")
-                ),
+                detail: Fact::EmptySlots {
+                    empty: self.empty.clone(),
+                    partly_filled: self.partly_filled.clone(),
+                },
             });
         }
         if !self.overfilled.is_empty() {
@@ -104,13 +94,11 @@ impl SlotCheck {
                 coils: self.overfilled_coils.clone(),
                 slots: self.overfilled.clone(),
                 phases: Vec::new(),
-                message: format!(
-                    "slots {} hold more coil sides than the {} layer(s) of the winding; coils \
-                     {} have a side there: check their slot numbers",
-                    runs(&self.overfilled),
-                    w.geometry.layers,
-                    runs(&self.overfilled_coils)
-                ),
+                detail: Fact::OverfilledSlots {
+                    slots: self.overfilled.clone(),
+                    layers: w.geometry.layers,
+                    coils: self.overfilled_coils.clone(),
+                },
             });
         }
         f

@@ -82,7 +82,7 @@ impl Report for AuditReport {
                     .ok()
                     .and_then(|v| v.as_str().map(|s| s.replace('_', " ")))
                     .unwrap_or_default();
-                let text = format!("{}. [{kind}] {}", n + 1, f.message);
+                let text = format!("{}. [{kind}] {}", n + 1, f.message());
                 for (i, l) in wrap(&text, 78).into_iter().enumerate() {
                     lines.push(if i == 0 { l } else { format!("   {l}") });
                 }
@@ -246,7 +246,7 @@ impl Report for AuditReport {
                 f.coils.iter().join(" "),
                 f.slots.iter().join(" "),
                 f.phases.join(" "),
-                f.message.clone(),
+                f.message(),
             ]);
         }
         t

@@ -2,6 +2,7 @@
 //! a new format never touches an analysis (one exporter per format behind [`Exporter`]).
 
 mod audit_report;
+pub mod audit_words;
 mod card_report;
 mod choose_report;
 mod csv;
