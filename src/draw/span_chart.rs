@@ -186,7 +186,7 @@ pub fn pitch_chart(r: &PitchReport) -> String {
             .add(text(left + pw + 62.0, ly + 4.0, 12.0, name));
     }
     // Wrapped short enough that no line is cut.
-    for (i, line) in crate::output::wrap(CAUTION, 88).iter().enumerate() {
+    for (i, line) in crate::output::wrap_plain(CAUTION, 88).iter().enumerate() {
         doc = doc.add(text(left, h - 46.0 + 13.0 * i as f64, 10.0, line));
     }
     doc.to_string()

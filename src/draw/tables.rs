@@ -88,8 +88,8 @@ fn layout(sections: &[Section], width: f64) -> Vec<Item> {
         match s {
             Section::Heading(h) => items.push(Item::Heading(h.clone())),
             Section::Lines(lines) => {
-                for l in lines {
-                    for part in text::wrap(l, BODY, width) {
+                for l in crate::output::paragraphs(lines) {
+                    for part in text::wrap(&l, BODY, width) {
                         items.push(Item::Line(part));
                     }
                 }

@@ -74,17 +74,11 @@ fn sections(out: &mut String, secs: &[Section]) {
                 let _ = writeln!(out, "<h3>{}</h3>", escape(h));
             }
             Section::Lines(lines) => {
+                // A line the terminal wrapped joins the one before: the page reflows it.
+                let paragraphs = super::paragraphs(lines);
                 // The caution stands at the top and foot of the page already.
-                let mut in_caution = false;
-                for l in lines {
-                    if l.starts_with("CAUTION:") {
-                        in_caution = true;
-                    }
-                    if in_caution {
-                        in_caution = !l.contains("certify");
-                        continue;
-                    }
-                    let class = if l.starts_with("WARNING") || l.starts_with("CAUTION") {
+                for l in paragraphs.iter().filter(|l| !l.starts_with("CAUTION:")) {
+                    let class = if l.starts_with("WARNING") {
                         "line warning"
                     } else {
                         "line"

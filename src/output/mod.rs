@@ -87,4 +87,4 @@ pub fn with_warnings(
 }
 
 pub use crate::numbering::num;
-pub use reports::wrap;
+pub use reports::{CONTINUES, paragraphs, wrap, wrap_plain};

@@ -6,8 +6,39 @@ use crate::plan::PlanReport;
 use crate::winding::{Style, Topology};
 use itertools::Itertools;
 
-/// Wrap text at `width` columns on word boundaries.
+/// Marks a line that continues the sentence of the line before (the word joiner U+2060,
+/// which shows nothing): the text presenter drops it, the HTML page joins the two lines
+/// into one paragraph so a page reflows what a terminal wraps.
+pub const CONTINUES: char = '\u{2060}';
+
+/// Wrap text at `width` columns on word boundaries; lines after the first start with
+/// [`CONTINUES`].
 pub fn wrap(text: &str, width: usize) -> Vec<String> {
+    let mut lines = wrap_plain(text, width);
+    for l in lines.iter_mut().skip(1) {
+        l.insert(0, CONTINUES);
+    }
+    lines
+}
+
+/// Lines with each wrapped sentence joined back into one paragraph (see [`CONTINUES`]), for
+/// presenters that reflow text themselves (the HTML page, the sheets).
+pub fn paragraphs(lines: &[String]) -> Vec<String> {
+    let mut out: Vec<String> = Vec::new();
+    for l in lines {
+        match (l.trim_start().strip_prefix(CONTINUES), out.last_mut()) {
+            (Some(rest), Some(p)) => {
+                p.push(' ');
+                p.push_str(rest);
+            }
+            (rest, _) => out.push(rest.unwrap_or(l).to_string()),
+        }
+    }
+    out
+}
+
+/// Wrap text at `width` columns on word boundaries, with no marks (for sheets).
+pub fn wrap_plain(text: &str, width: usize) -> Vec<String> {
     let mut lines = Vec::new();
     let mut line = String::new();
     for word in text.split_whitespace() {
@@ -300,6 +331,31 @@ mod tests {
     fn wrap_keeps_lines_short() {
         let lines = wrap(crate::plan::CAUTION, 78);
         assert!(lines.len() > 1);
-        assert!(lines.iter().all(|l| l.chars().count() <= 78));
+        assert!(
+            lines
+                .iter()
+                .all(|l| l.chars().filter(|&c| c != CONTINUES).count() <= 78)
+        );
+    }
+
+    // What a terminal wraps, a page joins back: the paragraph is the sentence again, and
+    // lines that were never wrapped stay apart.
+    #[test]
+    fn paragraphs_join_what_wrap_split() {
+        let sentence = crate::plan::CAUTION
+            .split_whitespace()
+            .collect::<Vec<_>>()
+            .join(" ");
+        let mut lines = vec!["a line of its own".to_string()];
+        lines.extend(wrap(&sentence, 40));
+        lines.push("another line".to_string());
+        assert_eq!(
+            paragraphs(&lines),
+            vec![
+                "a line of its own".to_string(),
+                sentence,
+                "another line".to_string()
+            ]
+        );
     }
 }

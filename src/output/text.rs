@@ -19,7 +19,7 @@ impl Exporter for Text {
                 }
                 Section::Lines(lines) => {
                     for l in lines {
-                        out.push_str(&crate::sanitize::clean(l));
+                        out.push_str(&crate::sanitize::clean(l).replace(super::CONTINUES, ""));
                         out.push('\n');
                     }
                 }
