@@ -2,45 +2,15 @@
 //! status (0 sound, 1 faults found, 2 bad input; contract in the design brief).
 
 mod common;
-use common::beltwright;
+use common::{SOUND_12, beltwright, small_record, temp_layout};
 
 use serde_json::Value;
-use std::io::Write;
 
 fn json(args: &[&str]) -> (Value, i32) {
     let out = beltwright().args(args).output().expect("runs");
     let v: Value = serde_json::from_slice(&out.stdout).expect("stdout is one JSON object");
     (v, out.status.code().unwrap_or(-1))
 }
-
-fn temp_layout(text: &str) -> tempfile::NamedTempFile {
-    let mut f = tempfile::Builder::new()
-        .suffix(".toml")
-        .tempfile()
-        .expect("temp file");
-    f.write_all(text.as_bytes()).expect("write");
-    f
-}
-
-/// A 12-slot, 2-pole single-layer record, one coil per slot pair (q = 2).
-fn small_record(coils: &[(&str, i64, i64)]) -> String {
-    let mut s = String::from(
-        "[machine]\ntopology = \"rotary\"\nslots = 12\npoles = 2\n\n[winding]\nlayers = 1\n",
-    );
-    for (p, g, b) in coils {
-        s += &format!("\n[[coil]]\nphase = \"{p}\"\ngo = {g}\nback = {b}\n");
-    }
-    s
-}
-
-const SOUND_12: [(&str, i64, i64); 6] = [
-    ("U", 1, 7),
-    ("U", 2, 8),
-    ("W", 9, 3),
-    ("W", 10, 4),
-    ("V", 5, 11),
-    ("V", 6, 12),
-];
 
 #[test]
 fn audit_of_a_sound_record_exits_zero() {

@@ -3,7 +3,7 @@
 //! warnings, slips outside 0..1, small truths.
 
 mod common;
-use common::{json, run};
+use common::{SOUND_12, json, run, small_record, temp_layout};
 
 use beltwright::output::{Format, render};
 use beltwright::winding::{self, Winding};
@@ -15,15 +15,6 @@ fn wind(src: &str) -> Winding {
     winding::build_lenient(&spec).unwrap_or_else(|e| panic!("{e}"))
 }
 
-fn tmp(text: &str) -> tempfile::NamedTempFile {
-    let f = tempfile::Builder::new()
-        .suffix(".toml")
-        .tempfile()
-        .expect("temp");
-    std::fs::write(f.path(), text).expect("write");
-    f
-}
-
 const CORE_36_4: &str =
     "[machine]\ntopology = \"rotary\"\nslots = 36\npoles = 4\n[winding]\nlayers = 2\n";
 
@@ -33,7 +24,7 @@ const CORE_36_4: &str =
 fn factors_keep_the_orders_the_span_removes() {
     let v = json(&[
         "factors",
-        tmp(&format!("{CORE_36_4}pitch = 6\n"))
+        temp_layout(&format!("{CORE_36_4}pitch = 6\n"))
             .path()
             .to_str()
             .expect("utf-8"),
@@ -71,33 +62,11 @@ fn phase_emf_includes_skew() {
     }
 }
 
-fn record(coils: &[(&str, usize, usize)]) -> String {
-    let mut s = String::from(
-        "[machine]\ntopology = \"rotary\"\nslots = 12\npoles = 2\n[winding]\nlayers = 1\n",
-    );
-    for (p, g, b) in coils {
-        s += &format!("[[coil]]\nphase = \"{p}\"\ngo = {g}\nback = {b}\n");
-    }
-    s
-}
-
-// 12 slots, 2 poles, single layer q = 2, slot angle 30°: belts U+ 1-2, W- 3-4, V+ 5-6,
-// U- 7-8, W+ 9-10, V- 11-12, so U 1-7, 2-8; V 5-11, 6-12; W 9-3, 10-4 (a balanced record,
-// built by hand from the 60° belts).
-const SOUND: [(&str, usize, usize); 6] = [
-    ("U", 1, 7),
-    ("U", 2, 8),
-    ("W", 9, 3),
-    ("W", 10, 4),
-    ("V", 5, 11),
-    ("V", 6, 12),
-];
-
 // A pure negative-sequence set has no zero sequence, and the backward wave is the larger:
 // the figures are per cent of it, never 10^17 per cent (Fortescue 1918).
 #[test]
 fn a_reversed_sequence_reads_as_a_backward_field() {
-    let swapped: Vec<(&str, usize, usize)> = SOUND
+    let swapped: Vec<(&str, usize, usize)> = SOUND_12
         .iter()
         .map(|&(p, g, b)| {
             (
@@ -113,8 +82,8 @@ fn a_reversed_sequence_reads_as_a_backward_field() {
             )
         })
         .collect();
-    assert!(audit::audit(&wind(&record(&SOUND)), None).sound);
-    let w = wind(&record(&swapped));
+    assert!(audit::audit(&wind(&small_record(&SOUND_12)), None).sound);
+    let w = wind(&small_record(&swapped));
     let r = audit::audit(&w, None);
     assert_eq!(r.sequence, audit::Sequence::Negative);
     assert!((r.backward_percent - 100.0).abs() < 1e-9);
@@ -181,7 +150,7 @@ fn plan_and_audit_share_the_angle_reference() {
 // JSON of plan, pitch, field and rewind.
 #[test]
 fn designs_not_to_build_carry_warnings() {
-    let f = tmp(&format!(
+    let f = temp_layout(&format!(
         "{CORE_36_4}pitch = 17\nturns_per_coil = 10\n[supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n"
     ));
     let path = f.path().to_str().expect("utf-8");
@@ -215,7 +184,7 @@ fn designs_not_to_build_carry_warnings() {
 // A suggestion's span fits its own pole pitch: q = 1 on 4 poles means τ = 3, so span 3.
 #[test]
 fn slot_suggestions_fit_the_span_they_name() {
-    let f = tmp(
+    let f = temp_layout(
         "[machine]\ntopology = \"linear\"\nslots = 22\npoles = 4\n[winding]\nlayers = 2\npitch = 5\n",
     );
     let out = run(&["plan", f.path().to_str().expect("utf-8")]);
@@ -228,7 +197,7 @@ fn slot_suggestions_fit_the_span_they_name() {
 fn small_truths() {
     let out = run(&["pitch", "layouts/pump-rewind.toml", "--suppress", "1,5"]);
     assert_eq!(out.status.code(), Some(2));
-    let f = tmp(CORE_36_4);
+    let f = temp_layout(CORE_36_4);
     let out = run(&["plan", f.path().to_str().expect("utf-8")]);
     assert!(String::from_utf8_lossy(&out.stdout).contains("1 turn per coil (assumed"));
     let out = run(&["plan", "layouts/pallet-shuttle.toml", "--slip", "-0.1"]);
