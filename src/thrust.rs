@@ -244,7 +244,7 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
     let tau = ts * geo.pole_pitch_slots;
     let mut assumptions = vec![
         "thin plate, unsaturated iron, secondary leakage neglected, plate wider than the \
-         stack, sinusoidal fields (first estimate; see docs/theory.md)"
+         stack, sinusoidal fields (a first estimate, not a test result)"
             .to_string(),
     ];
     let g = if sec.back_iron {

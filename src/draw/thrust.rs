@@ -70,6 +70,27 @@ fn sheet(with: &ThrustReport, without: &ThrustReport, a: Rect) -> Group {
     let pts = |r: &ThrustReport, f: &dyn Fn(&crate::thrust::Row) -> f64| -> Vec<(f64, f64)> {
         r.rows.iter().map(|row| (row.speed_m_s, f(row))).collect()
     };
+    // One quantity with and without the end effect: solid and dashed, in the first two inks.
+    let both = |names: [&'static str; 2], f: &dyn Fn(&crate::thrust::Row) -> f64| {
+        [
+            Series {
+                name: names[0],
+                points: pts(with, f),
+                colour: INK[0],
+                dash: "",
+            },
+            Series {
+                name: names[1],
+                points: pts(without, f),
+                colour: INK[1],
+                dash: "3 1.5",
+            },
+        ]
+    };
+    let [thrust_with, thrust_without] =
+        both(["thrust, with end effect", "thrust, no end effect"], &|r| {
+            r.thrust_n
+        });
     let top = chart(
         Rect {
             x: a.x,
@@ -81,18 +102,8 @@ fn sheet(with: &ThrustReport, without: &ThrustReport, a: Rect) -> Group {
         "secondary speed, m/s",
         "force, N",
         &[
-            Series {
-                name: "thrust, with end effect",
-                points: pts(with, &|r| r.thrust_n),
-                colour: INK[0],
-                dash: "",
-            },
-            Series {
-                name: "thrust, no end effect",
-                points: pts(without, &|r| r.thrust_n),
-                colour: INK[1],
-                dash: "3 1.5",
-            },
+            thrust_with,
+            thrust_without,
             Series {
                 name: "normal force (attraction +)",
                 points: pts(with, &|r| r.normal_force_n),
@@ -111,20 +122,10 @@ fn sheet(with: &ThrustReport, without: &ThrustReport, a: Rect) -> Group {
         "Phase current against speed",
         "secondary speed, m/s",
         "current, A",
-        &[
-            Series {
-                name: "current, with end effect",
-                points: pts(with, &|r| r.current_a),
-                colour: INK[0],
-                dash: "",
-            },
-            Series {
-                name: "current, no end effect",
-                points: pts(without, &|r| r.current_a),
-                colour: INK[1],
-                dash: "3 1.5",
-            },
-        ],
+        &both(
+            ["current, with end effect", "current, no end effect"],
+            &|r| r.current_a,
+        ),
     );
     let mut g = Group::new()
         .set("class", "performance")
