@@ -49,6 +49,8 @@ pub struct Scratch {
     ray: Vec<f64>,
     /// Prefix sums of `ray` over the doubled ring.
     prefix: Vec<f64>,
+    /// cos(2πk/m) for the phases (the phase currents at ωt = 0).
+    cos: Vec<f64>,
     /// Runs of equal belt current along the rays: (start, end, value).
     runs: Vec<(usize, usize, f64)>,
     /// Scores of the last combination, span 1 first.
@@ -62,9 +64,11 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
     if s.roots.len() != z {
         roots_of_unity(z, &mut s.roots);
     }
-    let cos: Vec<f64> = (0..m)
-        .map(|k| (2.0 * std::f64::consts::PI * k as f64 / m as f64).cos())
-        .collect();
+    if s.cos.len() != m {
+        s.cos = (0..m)
+            .map(|k| (2.0 * std::f64::consts::PI * k as f64 / m as f64).cos())
+            .collect();
+    }
     // The rays of the star in angle order: ray j at angle index j·t, each the angle of t
     // slots. Every sum over slots is t times the sum over rays. Indices advance by integer
     // steps: no division or trigonometry per ray.
@@ -84,7 +88,7 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
         }
         let (phase, positive) = belt(belt_no, m);
         let sign = if positive { 1.0 } else { -1.0 };
-        let c = sign * cos[phase];
+        let c = sign * s.cos[phase];
         s.ray.push(c);
         let (rc, rs) = s.roots[a];
         cre += c * rc;
