@@ -687,11 +687,7 @@ pub fn search(w: &Winding) -> Search {
 fn relay_candidates(w: &Winding) -> Vec<(usize, crate::winding::Coil)> {
     let layers = w.geometry.layers;
     let z = w.geometry.slots;
-    let mut sides = vec![0usize; z];
-    for c in &w.coils {
-        sides[c.go] += 1;
-        sides[c.back] += 1;
-    }
+    let sides = w.slot_sides();
     let fill = w.slot_fill();
     let short: Vec<usize> = (0..z)
         .filter(|&k| sides[k] < super::slots::expected(w, k))

@@ -35,12 +35,7 @@ pub(super) fn expected(w: &Winding, k: usize) -> usize {
 
 /// Count the coil sides in every slot.
 pub fn check_slots(w: &Winding) -> SlotCheck {
-    let z = w.geometry.slots;
-    let mut sides = vec![0usize; z];
-    for c in &w.coils {
-        sides[c.go] += 1;
-        sides[c.back] += 1;
-    }
+    let sides = w.slot_sides();
     let mut out = SlotCheck::default();
     for (k, &n) in sides.iter().enumerate() {
         let want = expected(w, k);

@@ -15,7 +15,7 @@ use serde::Serialize;
 use crate::layout::Spec;
 mod spans;
 
-use crate::winding::star::roots_of_unity;
+use crate::winding::star::{order_amplitude, roots_of_unity};
 use crate::winding::{
     Topology, build_brief, double_layer_rotary_feasible, gcd, possible_path_counts,
     rotary_periodicity,
@@ -310,31 +310,19 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRo
     r.spans_scored = scratch.spans.len();
     let units = if (z / t).is_multiple_of(2) { 2 * t } else { t };
     r.parallel_paths = divisors(units);
-    let reference = spans::order_amplitude(scratch, p, chosen.span);
-    r.lowest_subharmonic = (1..p)
-        .filter(|n| n % t == 0)
-        .find(|&n| spans::order_amplitude(scratch, n, chosen.span) > 1e-9 * reference)
-        .map(|n| n as f64 / p as f64);
+    r.lowest_subharmonic =
+        lowest_subharmonic(p, t, |n| spans::order_amplitude(scratch, n, chosen.span));
     r
 }
 
-/// |Σ I_k e^(−j·n·2πk/Z)| / n with a table of the Z roots of unity: the MMF amplitude of
-/// mechanical order n, up to a constant.
-fn order_amplitude(currents: &[f64], roots: &[(f64, f64)], n: usize) -> f64 {
-    let z = currents.len();
-    let (mut re, mut im) = (0.0, 0.0);
-    let step = n % z.max(1);
-    let mut a = 0usize;
-    for &i in currents {
-        let (c, s) = roots[a];
-        re += i * c;
-        im -= i * s;
-        a += step;
-        if a >= z {
-            a -= z;
-        }
-    }
-    (re * re + im * im).sqrt() / n as f64
+/// The lowest sub-harmonic ν = n/p (n < p, a multiple of the periodicity t) whose MMF
+/// amplitude `amplitude(n)` is not nil against the working wave's `amplitude(p)`.
+fn lowest_subharmonic(p: usize, t: usize, amplitude: impl Fn(usize) -> f64) -> Option<f64> {
+    let reference = amplitude(p);
+    (1..p)
+        .filter(|n| n % t.max(1) == 0)
+        .find(|&n| amplitude(n) > 1e-9 * reference)
+        .map(|n| n as f64 / p as f64)
 }
 
 /// Rows the planner decides: single layer, and every flat primary.
@@ -378,11 +366,8 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffer
                 let cur = &mut bufs.currents;
                 crate::winding::star::balanced_slot_currents(&w, cur);
                 roots_of_unity(z, &mut bufs.roots);
-                let reference = order_amplitude(cur, &bufs.roots, p);
-                r.lowest_subharmonic = (1..p)
-                    .filter(|n| n % t == 0)
-                    .find(|&n| order_amplitude(cur, &bufs.roots, n) > 1e-9 * reference)
-                    .map(|n| n as f64 / p as f64);
+                let roots = &bufs.roots;
+                r.lowest_subharmonic = lowest_subharmonic(p, t, |n| order_amplitude(cur, roots, n));
             }
         }
     }

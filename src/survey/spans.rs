@@ -221,23 +221,11 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
 /// over the belt currents of the last [`score`]: |Ĉ_n|·2|sin(πny/Z)|/n.
 pub fn order_amplitude(s: &Scratch, n: usize, y: usize) -> f64 {
     let z = s.belt.len();
-    if z == 0 || n == 0 {
+    if z == 0 {
         return 0.0;
-    }
-    let (mut re, mut im) = (0.0, 0.0);
-    let step = n % z;
-    let mut a = 0usize;
-    for &c in &s.belt {
-        let (rc, rs) = s.roots[a];
-        re += c * rc;
-        im -= c * rs;
-        a += step;
-        if a >= z {
-            a -= z;
-        }
     }
     let chord = (std::f64::consts::PI * ((n * y) % (2 * z)) as f64 / z as f64)
         .sin()
         .abs();
-    (re * re + im * im).sqrt() * 2.0 * chord / n as f64
+    crate::winding::star::order_amplitude(&s.belt, &s.roots, n) * 2.0 * chord
 }

@@ -97,6 +97,29 @@ pub fn roots_of_unity(n: usize, out: &mut Vec<(f64, f64)>) {
     }
 }
 
+/// |Σ I_k e^(−j·n·2πk/Z)| / n over slot currents `currents`, with `roots` the table of the Z
+/// roots of unity ([`roots_of_unity`]) stepped by integer index: the MMF amplitude of
+/// mechanical order n on a closed core, up to a constant (0 for n = 0).
+pub fn order_amplitude(currents: &[f64], roots: &[(f64, f64)], n: usize) -> f64 {
+    let z = currents.len();
+    if z == 0 || n == 0 {
+        return 0.0;
+    }
+    let (mut re, mut im) = (0.0, 0.0);
+    let step = n % z;
+    let mut a = 0usize;
+    for &i in currents {
+        let (c, s) = roots[a];
+        re += i * c;
+        im -= i * s;
+        a += step;
+        if a >= z {
+            a -= z;
+        }
+    }
+    (re * re + im * im).sqrt() / n as f64
+}
+
 /// Slot currents at ωt = 0 under balanced positive-sequence phase currents
 /// i_k = cos(2πk/m), per unit path current: `out[slot]` (go sides +N·i, back −N·i).
 pub fn balanced_slot_currents(w: &Winding, out: &mut Vec<f64>) {
