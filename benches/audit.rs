@@ -1,18 +1,19 @@
 //! Audit of a 360-slot record, sound and with two faults (which needs the two-edit search).
 
 use beltwright::audit::{audit, search};
-use beltwright::layout::{Spec, Topology};
+use beltwright::design::{Design, Topology};
+use beltwright::layout::Spec;
 use beltwright::winding::{self, Winding};
 use criterion::{Criterion, criterion_group, criterion_main};
 use std::hint::black_box;
 
 /// 360 slots, 12 poles, q = 10, double layer, span 25 of 30: a large traction-motor stator.
 fn record() -> Winding {
-    let s = Spec {
+    let s = Spec::of(Design {
         pitch: Some(25),
         turns_per_coil: 4,
-        ..Spec::basic(Topology::Rotary, 360, 12, 2)
-    };
+        ..Design::basic(Topology::Rotary, 360, 12, 2)
+    });
     match winding::build(&s) {
         Ok(w) => w,
         Err(e) => panic!("benchmark winding refused: {e}"),

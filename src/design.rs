@@ -1,9 +1,90 @@
-//! What the shop and the physics need besides the coils: wire, copper rule, slot area, air
-//! gap, secondary plate, lead scheme and measured values. Parsed from the layout file once,
-//! carried by every [`crate::winding::Winding`], read by the data card and the thrust model;
-//! a new layout key touches the parser and this file only. SI units inside.
+//! The model's design: the core, the supply and the designer's intent (slots, poles,
+//! phases, layers, span, coil shape, turns, paths, connection, skew), and what the shop and
+//! the physics need besides the coils (wire, copper rule, slot area, air gap, secondary
+//! plate, lead scheme, measured values). A [`Design`] plus coils is a
+//! [`crate::winding::Winding`]; the layout parser produces one and nothing else knows the
+//! file. A new layout key touches the parser and this file only. SI units inside.
+//!
+//! Title and drawing colours are [`Labels`]: they name and paint a winding, never change
+//! its physics.
+
+use std::fmt;
 
 use serde::Serialize;
+
+/// Closed rotary core or open, flat linear primary.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Topology {
+    /// A closed core: slot Z is followed by slot 1 again.
+    Rotary,
+    /// A flat, open-ended primary: slot 1 and slot Z are the two ends.
+    Linear,
+}
+
+impl fmt::Display for Topology {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Topology::Rotary => "rotary",
+            Topology::Linear => "linear",
+        })
+    }
+}
+
+/// How the coils of a single-layer winding are shaped.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Style {
+    /// Coils of one span, laid like roof tiles.
+    Lap,
+    /// Nested coils of different spans around one centre (single layer only).
+    Concentric,
+}
+
+/// How the three phases are joined.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Connection {
+    /// Phase ends U2, V2, W2 joined in a star point.
+    Star,
+    /// Phases joined end to start in a ring.
+    Delta,
+}
+
+impl fmt::Display for Connection {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Connection::Star => "star",
+            Connection::Delta => "delta",
+        })
+    }
+}
+
+/// Core sizes, in SI units inside the program.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Core {
+    /// Slot pitch along the gap, metres.
+    pub slot_pitch_m: Option<f64>,
+    /// Bore diameter of a rotary core, metres.
+    pub bore_m: Option<f64>,
+    /// Stack length (core depth across the gap's direction of travel), metres.
+    pub stack_m: Option<f64>,
+}
+
+/// Supply the winding is designed for.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Supply {
+    /// Supply frequency, hertz.
+    pub frequency_hz: Option<f64>,
+    /// Line-to-line voltage, volts r.m.s.
+    pub line_voltage_v: Option<f64>,
+}
 
 /// Conductor metal of the magnet wire.
 #[derive(
@@ -136,9 +217,41 @@ impl Default for Leads {
     }
 }
 
-/// Design data besides the coils. Every field is optional in the layout file.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema, Default)]
+/// What a winding is asked to be: core, supply, the designer's choices for the coils, and
+/// the shop's data. Synthesis reads it and nothing else; a [`crate::winding::Winding`] keeps
+/// it beside the coils it was built with (or recorded as). Every shop field is optional in
+/// the layout file.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Design {
+    /// Closed or open core.
+    pub topology: Topology,
+    /// Slot count Z, end slots of a linear primary included.
+    pub slots: usize,
+    /// Pole count 2p.
+    pub poles: usize,
+    /// Phase count m.
+    pub phases: usize,
+    /// Labels of the phases, in sequence order.
+    pub phase_labels: Vec<String>,
+    /// Layers per slot, 1 or 2.
+    pub layers: usize,
+    /// Coil span asked for, in slot pitches; `None` means "nearest full pitch" (the span a
+    /// winding was built with is [`crate::winding::Winding::pitch`]).
+    pub pitch: Option<usize>,
+    /// Coil shape of single-layer windings.
+    pub style: Style,
+    /// Turns per coil.
+    pub turns_per_coil: u32,
+    /// Parallel paths per phase asked for.
+    pub parallel_paths: usize,
+    /// Star or delta.
+    pub connection: Connection,
+    /// Skew of slots against the field, in slot pitches.
+    pub skew_slots: f64,
+    /// Core sizes.
+    pub core: Core,
+    /// Supply.
+    pub supply: Supply,
     /// Magnet wire.
     pub wire: Option<WireSpec>,
     /// Mean-turn rule.
@@ -161,4 +274,67 @@ pub struct Design {
     pub secondary: Option<Secondary>,
     /// True when `winding.turns_per_coil` was not given and one turn is assumed.
     pub turns_assumed: bool,
+}
+
+impl Design {
+    /// A three-phase design of the given core with every optional key at its default (U, V,
+    /// W; lap; one turn per coil; one path; star; no skew; nearest full pitch; no shop
+    /// data): the start for feasibility probes, surveys and tests, changed with
+    /// struct-update syntax.
+    pub fn basic(topology: Topology, slots: usize, poles: usize, layers: usize) -> Design {
+        Design {
+            topology,
+            slots,
+            poles,
+            phases: 3,
+            phase_labels: vec!["U".into(), "V".into(), "W".into()],
+            layers,
+            pitch: None,
+            style: Style::Lap,
+            turns_per_coil: 1,
+            parallel_paths: 1,
+            connection: Connection::Star,
+            skew_slots: 0.0,
+            core: Core::default(),
+            supply: Supply::default(),
+            wire: None,
+            turn: TurnRule::default(),
+            slot_area_m2: None,
+            slot_size_m: None,
+            airgap_m: None,
+            slot_opening_m: None,
+            phase_resistance_ohm: None,
+            leads: Leads::default(),
+            measured: None,
+            secondary: None,
+            turns_assumed: false,
+        }
+    }
+
+    /// The same design asked for at span `y` (everything else whole).
+    pub fn with_span(&self, y: usize) -> Design {
+        Design {
+            pitch: Some(y),
+            ..self.clone()
+        }
+    }
+
+    /// Slot pitch in metres: given directly, or from the bore of a rotary core.
+    pub fn slot_pitch_m(&self) -> Option<f64> {
+        self.core.slot_pitch_m.or_else(|| {
+            self.core
+                .bore_m
+                .filter(|_| self.topology == Topology::Rotary)
+                .map(|d| std::f64::consts::PI * d / self.slots as f64)
+        })
+    }
+}
+
+/// What names and paints a winding on sheets and reports, apart from its physics.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Labels {
+    /// Free text for drawings and reports.
+    pub title: Option<String>,
+    /// Drawing colours per phase, when the layout overrides the defaults.
+    pub colours: Option<Vec<String>>,
 }

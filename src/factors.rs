@@ -153,7 +153,7 @@ fn factors_from(w: &Winding, ph: &PhaseCoils, order: f64, sums: Sums) -> FactorR
         let n = order * g.pole_pairs();
         n.round().max(0.0) as u64
     });
-    let skew = closed::skew(order, w.skew_slots * g.slot_angle_elec());
+    let skew = closed::skew(order, w.design.skew_slots * g.slot_angle_elec());
     if turns == 0.0 {
         return FactorRow {
             order,
@@ -316,7 +316,7 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
             .collect(),
     };
     FactorTable {
-        phase: w.phase_labels[0].clone(),
+        phase: w.design.phase_labels[0].clone(),
         rows,
         single_layer: g.layers == 1 && w.coils.iter().any(|c| w.span(c).abs() != 1),
     }
@@ -330,7 +330,8 @@ pub fn fundamental(w: &Winding) -> FactorRow {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::layout::{Spec, Style};
+    use crate::design::{Design, Style};
+    use crate::layout::Spec;
 
     // The table's FFT sums and the direct phasor sums feed the same rule: every order of
     // lap, concentric, single-layer, fractional-slot and tooth-coil windings agrees to
@@ -347,11 +348,11 @@ mod tests {
         ]
         .into_iter()
         .map(|(z, poles, layers, pitch, style)| {
-            let spec = Spec {
+            let spec = Spec::of(Design {
                 pitch,
                 style,
-                ..Spec::basic(Topology::Rotary, z, poles, layers)
-            };
+                ..Design::basic(Topology::Rotary, z, poles, layers)
+            });
             crate::winding::build(&spec).expect("builds")
         })
         .collect();

@@ -18,9 +18,8 @@ use num_complex::Complex64;
 use serde::Serialize;
 use std::f64::consts::PI;
 
-use crate::layout::Spec;
 use crate::thrust::{MU0, ThrustError, carter_coefficient};
-use crate::winding::{self, Connection, Topology, Winding};
+use crate::winding::{self, Connection, Design, Style, Topology, Winding};
 
 /// Largest coil count for which the coil matrix is given (its size grows with the square).
 pub const MAX_COIL_MATRIX: usize = 200;
@@ -126,7 +125,6 @@ pub fn effective_gap_m(w: &Winding) -> Result<f64, ThrustError> {
     let d = &w.design;
     let clearance = d.airgap_m.ok_or(ThrustError::Missing("core.airgap_mm"))?;
     let ts = w
-        .geometry
         .slot_pitch_m()
         .ok_or(ThrustError::Missing("core.slot_pitch_mm or core.bore_mm"))?;
     let g = match d.secondary {
@@ -212,12 +210,11 @@ fn negative_percent(i: &[Complex64]) -> f64 {
 fn phase_matrix(w: &Winding) -> Result<(Vec<Vec<f64>>, f64), ThrustError> {
     let ge = effective_gap_m(w)?;
     let width = w
-        .geometry
+        .design
         .core
         .stack_m
         .ok_or(ThrustError::Missing("core.stack_mm"))?;
     let ts = w
-        .geometry
         .slot_pitch_m()
         .ok_or(ThrustError::Missing("core.slot_pitch_mm or core.bore_mm"))?;
     let m = w.geometry.phases;
@@ -243,7 +240,7 @@ fn unbalance(w: &Winding, r1: f64, leak: f64) -> Option<(Vec<Complex64>, f64)> {
         return None;
     }
     let (l, _) = phase_matrix(w).ok()?;
-    let f = w.supply.frequency_hz.unwrap_or(50.0);
+    let f = w.design.supply.frequency_hz.unwrap_or(50.0);
     let omega = 2.0 * PI * f;
     let z: Vec<Vec<Complex64>> = (0..3)
         .map(|i| {
@@ -256,8 +253,11 @@ fn unbalance(w: &Winding, r1: f64, leak: f64) -> Option<(Vec<Complex64>, f64)> {
                 .collect()
         })
         .collect();
-    let v = crate::rewind::phase_voltage(w.supply.line_voltage_v.unwrap_or(400.0), w.connection);
-    let i = balanced_voltage_currents(&z, v, w.connection)?;
+    let v = crate::rewind::phase_voltage(
+        w.design.supply.line_voltage_v.unwrap_or(400.0),
+        w.design.connection,
+    );
+    let i = balanced_voltage_currents(&z, v, w.design.connection)?;
     let pct = negative_percent(&i);
     Some((i, pct))
 }
@@ -285,7 +285,7 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
     let leak = crate::thrust::leakage_h(w)
         .map(|(s, e)| s + e)
         .unwrap_or(0.0);
-    if w.supply.frequency_hz.is_none() || w.supply.line_voltage_v.is_none() {
+    if w.design.supply.frequency_hz.is_none() || w.design.supply.line_voltage_v.is_none() {
         assumptions
             .push("no full [supply]: currents worked out at 50 Hz and 400 V line voltage".into());
     }
@@ -296,8 +296,8 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
     let coil = (coil_matrix && w.coils.len() <= MAX_COIL_MATRIX).then(|| {
         let c = conductors(w, |i| i, w.coils.len());
         let g = gram(w, &c);
-        let width = w.geometry.core.stack_m.unwrap_or(0.0);
-        let ts = w.geometry.slot_pitch_m().unwrap_or(0.0);
+        let width = w.design.core.stack_m.unwrap_or(0.0);
+        let ts = w.slot_pitch_m().unwrap_or(0.0);
         let k = MU0 * width * ts / ge;
         g.iter()
             .map(|r| r.iter().map(|x| x * k).collect())
@@ -309,10 +309,10 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
         Vec::new()
     };
     Ok(InductanceReport {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         topology: w.geometry.topology,
         effective_gap_mm: ge * 1e3,
-        phases: w.phase_labels.clone(),
+        phases: w.design.phase_labels.clone(),
         matrix_h: matrix,
         leakage_h: leak,
         positive_sequence_h: pos,
@@ -332,16 +332,18 @@ fn rank_layouts(w: &Winding, r1: f64, leak: f64) -> Vec<LayoutRank> {
     let mut out = Vec::new();
     for layers in [1usize, 2] {
         for poles in 1..=(g.slots / 2).min(48) {
-            let spec = Spec {
-                phase_labels: w.phase_labels.clone(),
-                turns_per_coil: w.turns_per_coil,
-                connection: w.connection,
-                core: g.core,
-                supply: w.supply,
-                design: w.design,
-                ..Spec::basic(Topology::Linear, g.slots, poles, layers)
+            let design = Design {
+                topology: Topology::Linear,
+                slots: g.slots,
+                poles,
+                layers,
+                pitch: None,
+                style: Style::Lap,
+                parallel_paths: 1,
+                skew_slots: 0.0,
+                ..w.design.clone()
             };
-            let Ok(cand) = winding::build(&spec) else {
+            let Ok(cand) = winding::synthesize(&design) else {
                 continue;
             };
             if !cand.is_balanced() && layers == 2 {

@@ -1,6 +1,7 @@
 //! beltwright: plan and check polyphase windings.
 //!
-//! Pipeline: layout file (TOML) → [`layout::Spec`] → [`winding::Winding`] → analyses
+//! Pipeline: layout file (TOML) → [`layout::Spec`] ([`design::Labels`], [`design::Design`],
+//! coil list) → [`winding::Winding`] (the design plus its coils) → analyses
 //! ([`factors`], [`field`], [`leakage`], [`audit`], [`rewind`], [`pitch`], [`survey`],
 //! [`linear`], [`plan`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.

@@ -59,8 +59,8 @@ pub fn slip_regime(s: f64) -> &'static str {
 /// Compute every figure the winding's sizes and supply and the operating point allow.
 pub fn figures(w: &Winding, op: Operating) -> Figures {
     let g = &w.geometry;
-    let f = w.supply.frequency_hz;
-    let tau = g.pole_pitch_m();
+    let f = w.design.supply.frequency_hz;
+    let tau = w.pole_pitch_m();
     let vs = tau.zip(f).map(|(t, f)| 2.0 * f * t);
     let linear = g.topology == Topology::Linear;
     let ns = f.filter(|_| !linear).map(|f| 120.0 * f / g.poles as f64);
@@ -80,7 +80,7 @@ pub fn figures(w: &Winding, op: Operating) -> Figures {
             .zip(op.airgap_power_w)
             .map(|(n, p)| p / (2.0 * PI * n / 60.0)),
         active_length_m: tau.filter(|_| linear).map(|t| t * g.poles as f64),
-        total_length_m: g
+        total_length_m: w
             .slot_pitch_m()
             .filter(|_| linear)
             .map(|s| s * g.slots as f64),

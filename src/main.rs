@@ -866,7 +866,7 @@ fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::Plan
     let (table, index, key) = match e {
         PlanError::Paths { .. } => ("winding", 0, "parallel_paths"),
         PlanError::Overfilled { coils, .. } => ("coil", coils.first().map_or(0, |c| c - 1), "go"),
-        PlanError::Infeasible(_) if spec.pitch.is_some() && spec.coils.is_empty() => {
+        PlanError::Infeasible(_) if spec.design.pitch.is_some() && spec.coils.is_empty() => {
             ("winding", 0, "pitch")
         }
         PlanError::Infeasible(_) => ("machine", 0, "slots"),

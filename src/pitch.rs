@@ -113,7 +113,7 @@ pub fn compare(w: &Winding, goal: &PitchGoal) -> PitchReport {
         .collect();
     let (recommended, reason) = recommend(&rows, goal);
     PitchReport {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,
         poles: g.poles,

@@ -155,7 +155,7 @@ pub fn phasors(w: &Winding, order: f64) -> Vec<PhasorRow> {
     let e: Vec<_> = (0..w.geometry.phases)
         .map(|k| w.phase_emf(k, order))
         .collect();
-    let ks = factors::closed::skew(order, w.skew_slots * w.geometry.slot_angle_elec());
+    let ks = factors::closed::skew(order, w.design.skew_slots * w.geometry.slot_angle_elec());
     let reference = e
         .first()
         .filter(|r| r.norm() > 1e-9)
@@ -240,17 +240,17 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
     let (qn, qd) = w.slots_per_pole_phase();
     let fundamental = factors::fundamental(w);
     PlanReport {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,
         poles: g.poles,
         phases: g.phases,
         layers: g.layers,
         pitch: w.pitch,
-        style: w.style,
-        turns_per_coil: w.turns_per_coil,
+        style: w.design.style,
+        turns_per_coil: w.design.turns_per_coil,
         parallel_paths: w.parallel_paths,
-        connection: w.connection,
+        connection: w.design.connection,
         pole_pitch_slots: g.pole_pitch_slots,
         slots_per_pole_phase: qn as f64 / qd as f64,
         slots_per_pole_phase_fraction: if qd == 1 {

@@ -201,18 +201,18 @@ fn side(w: &Winding, line: Option<f64>, freq: Option<f64>, turns: Option<f64>) -
     let t = turns.unwrap_or(mean);
     let a = w.parallel_paths as f64;
     DesignSide {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         poles: w.geometry.poles,
         layers: w.geometry.layers,
         span: w.pitch,
-        connection: w.connection,
+        connection: w.design.connection,
         parallel_paths: w.parallel_paths,
         coils_per_phase: coils.len(),
         turns_per_coil: t,
         series_turns: coils.len() as f64 * t / a,
         winding_factor: factors::fundamental(w).winding,
         line_voltage_v: line,
-        phase_voltage_v: line.map(|v| phase_voltage(v, w.connection)),
+        phase_voltage_v: line.map(|v| phase_voltage(v, w.design.connection)),
         frequency_hz: freq,
         conductors_per_slot: t * w.geometry.layers as f64,
     }
@@ -238,7 +238,7 @@ pub fn rewind(
         return Err(RewindError::OldUnbalanced);
     }
     let mut assumptions = Vec::new();
-    let (so, sn) = (old.supply, new.supply);
+    let (so, sn) = (old.design.supply, new.design.supply);
     if so.line_voltage_v.is_none() && sn.line_voltage_v.is_some() {
         return Err(RewindError::OldSupplyMissing("line_voltage_v"));
     }
@@ -274,8 +274,8 @@ pub fn rewind(
         ));
     }
     // Same line voltage when none is given: the phase voltage then changes with the connection.
-    let v_old = phase_voltage(line_old.unwrap_or(1.0), old.connection);
-    let v_new = phase_voltage(line_new.unwrap_or(1.0), new.connection);
+    let v_old = phase_voltage(line_old.unwrap_or(1.0), old.design.connection);
+    let v_new = phase_voltage(line_new.unwrap_or(1.0), new.design.connection);
     let voltage_ratio = v_new / v_old;
     let frequency_ratio = f_new.zip(f_old).map(|(n, o)| n / o).unwrap_or(1.0);
     let winding_factor_ratio = n_probe.winding_factor / o.winding_factor;
@@ -302,8 +302,8 @@ pub fn rewind(
         .zip(line_old)
         .map(|(f, _)| v_old / (4.44 * f * o.series_turns * o.winding_factor));
     let peak_flux_density_t = flux_per_pole_wb
-        .zip(go.pole_pitch_m())
-        .zip(go.core.stack_m)
+        .zip(old.pole_pitch_m())
+        .zip(old.design.core.stack_m)
         .map(|((phi, tau), l)| phi * PI / (2.0 * tau * l));
     // The old wire from the flag, or from the old layout's [wire] table.
     let from_layout = old.design.wire.as_ref().map(wires::Wire::of);
@@ -346,7 +346,9 @@ pub fn rewind(
             standard_metric: standard(new_area, n.conductors_per_slot, slot_area, false),
             standard_awg: standard(new_area, n.conductors_per_slot, slot_area, true),
             new_line_current_a: old_line_current_a.map(|i| {
-                i / line_factor(old.connection) * phase_current * line_factor(new.connection)
+                i / line_factor(old.design.connection)
+                    * phase_current
+                    * line_factor(new.design.connection)
             }),
         }
     });

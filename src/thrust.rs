@@ -231,14 +231,14 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
         "a [secondary] table (material or conductivity_ms_m, thickness_mm)",
     ))?;
     let clearance = d.airgap_m.ok_or(ThrustError::Missing("core.airgap_mm"))?;
-    let f = w
+    let f = d
         .supply
         .frequency_hz
         .ok_or(ThrustError::Missing("supply.frequency_hz"))?;
-    let ts = geo
+    let ts = w
         .slot_pitch_m()
         .ok_or(ThrustError::Missing("core.slot_pitch_mm"))?;
-    let width = geo.core.stack_m.ok_or(ThrustError::Missing(
+    let width = w.design.core.stack_m.ok_or(ThrustError::Missing(
         "core.stack_mm (the primary's width across the travel)",
     ))?;
     let tau = ts * geo.pole_pitch_slots;
@@ -344,8 +344,8 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
 /// or slot pitch.
 pub fn leakage_h(w: &Winding) -> Option<(f64, f64)> {
     let geo = &w.geometry;
-    let width = geo.core.stack_m?;
-    let ts = geo.slot_pitch_m()?;
+    let width = w.design.core.stack_m?;
+    let ts = w.slot_pitch_m()?;
     let n = w.series_turns(0);
     let m = geo.phases as f64;
     let p = geo.poles as f64 / 2.0;
@@ -429,10 +429,10 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         Some(i) => Feed::Current { phase_current_a: i },
         None => Feed::Voltage {
             phase_voltage_v: phase_voltage(
-                w.supply.line_voltage_v.ok_or(ThrustError::Missing(
+                w.design.supply.line_voltage_v.ok_or(ThrustError::Missing(
                     "supply.line_voltage_v (or --current for a current-fed primary)",
                 ))?,
-                w.connection,
+                w.design.connection,
             ),
         },
     };
@@ -469,7 +469,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     let s_max = (lo + hi) / 2.0;
     let f_max = at(s_max);
     Ok(ThrustReport {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         feed,
         end_effect: query.end_effect,
         goodness_factor: md.circuit.xm_ohm / md.circuit.r2_ohm,

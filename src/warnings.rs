@@ -81,7 +81,7 @@ pub fn design_warnings(w: &Winding) -> Vec<DesignWarning> {
     let kw = factors::fundamental(w).winding;
     let tau = w.geometry.pole_pitch_slots;
     let ratio = w.pitch as f64 / tau;
-    let tooth = w.pitch == 1 && w.style == Style::Lap;
+    let tooth = w.pitch == 1 && w.design.style == Style::Lap;
     if !tooth && !(SPAN_BAND.0..=SPAN_BAND.1).contains(&ratio) {
         out.push(DesignWarning::SpanFarFromPolePitch {
             span: w.pitch,

@@ -9,15 +9,16 @@
 //! connected backwards.
 
 use beltwright::audit::{AuditReport, FindingKind, Sequence, audit};
-use beltwright::layout::{Spec, Style, Topology};
+use beltwright::design::{Design, Style, Topology};
+use beltwright::layout::Spec;
 use beltwright::winding::{self, Winding, coil_groups};
 
 fn spec(topology: Topology, slots: usize, poles: usize, layers: usize, pitch: usize) -> Spec {
-    Spec {
+    Spec::of(Design {
         pitch: Some(pitch),
         turns_per_coil: 12,
-        ..Spec::basic(topology, slots, poles, layers)
-    }
+        ..Design::basic(topology, slots, poles, layers)
+    })
 }
 
 /// The corpus: (name, spec).
@@ -27,7 +28,13 @@ fn corpus() -> Vec<(String, Spec)> {
     let mut add = |s: Spec| {
         let name = format!(
             "{:?} Z={} 2p={} layers={} y={:?} {:?} a={}",
-            s.topology, s.slots, s.poles, s.layers, s.pitch, s.style, s.parallel_paths
+            s.design.topology,
+            s.design.slots,
+            s.design.poles,
+            s.design.layers,
+            s.design.pitch,
+            s.design.style,
+            s.design.parallel_paths
         );
         out.push((name, s));
     };
@@ -35,8 +42,8 @@ fn corpus() -> Vec<(String, Spec)> {
     add(spec(Rotary, 36, 4, 2, 7)); // q = 3, 7/9 pitch
     add(spec(Rotary, 24, 4, 1, 6)); // single layer, q = 2
     let mut c = spec(Rotary, 24, 4, 1, 6);
-    c.style = Style::Concentric;
-    c.pitch = None;
+    c.design.style = Style::Concentric;
+    c.design.pitch = None;
     add(c);
     add(spec(Rotary, 12, 10, 2, 1)); // tooth coils, q = 2/5
     add(spec(Rotary, 9, 8, 2, 1)); // tooth coils, q = 3/8
@@ -50,7 +57,7 @@ fn corpus() -> Vec<(String, Spec)> {
     add(spec(Rotary, 18, 16, 2, 1)); // tooth coils, q = 3/8, periodicity 2
     add(spec(Rotary, 36, 4, 1, 9)); // single layer, q = 3
     let mut p = spec(Rotary, 36, 4, 2, 8);
-    p.parallel_paths = 2;
+    p.design.parallel_paths = 2;
     add(p); // two parallel paths
     add(spec(Linear, 29, 4, 2, 5)); // flat primary, 24 coils, span 5
     add(spec(Linear, 24, 4, 1, 6)); // flat primary, single layer
@@ -259,7 +266,7 @@ fn audit_names_a_coil_with_other_turns() {
         f.coils[2].turns += 1;
         let r = audit(&f, None);
         let mut kinds: Vec<FindingKind> = r.findings.iter().map(|f| f.kind).collect();
-        if s.parallel_paths > 1 {
+        if s.design.parallel_paths > 1 {
             // The path holding the odd coil no longer matches its sibling either.
             assert!(kinds.contains(&FindingKind::PathMismatch), "{name}");
             kinds.retain(|k| *k != FindingKind::PathMismatch);

@@ -2,17 +2,18 @@
 //! phase; a coil put in the wrong path is named.
 
 use beltwright::audit::{FindingKind, audit};
-use beltwright::layout::{Spec, Topology};
+use beltwright::design::{Design, Topology};
+use beltwright::layout::Spec;
 use beltwright::winding::{self, Winding};
 
 /// 36 slots, 4 poles, span 8, two paths: each path holds one pole pair's groups.
 fn two_paths() -> Winding {
-    let s = Spec {
+    let s = Spec::of(Design {
         pitch: Some(8),
         turns_per_coil: 20,
         parallel_paths: 2,
-        ..Spec::basic(Topology::Rotary, 36, 4, 2)
-    };
+        ..Design::basic(Topology::Rotary, 36, 4, 2)
+    });
     winding::build(&s).unwrap_or_else(|e| panic!("design refused: {e}"))
 }
 

@@ -478,7 +478,7 @@ fn check_connection_counts(name: &str, w: &Winding) {
             );
             // Delta: m links down the board; star: one bar across it.
             let links = elements(&doc, "link").len();
-            match w.connection {
+            match w.design.connection {
                 winding::Connection::Delta => assert_eq!(links, m),
                 winding::Connection::Star => assert_eq!(links, 1),
             }

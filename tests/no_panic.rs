@@ -1,7 +1,8 @@
 //! Whatever a user asks for, the planner answers or refuses; it never panics, and what it
 //! answers is balanced and survives every analysis.
 
-use beltwright::layout::{Spec, Style, Topology, parse};
+use beltwright::design::{Design, Style, Topology};
+use beltwright::layout::{Spec, parse};
 use beltwright::linear::Operating;
 use beltwright::winding::build;
 use beltwright::{factors, field, leakage, pitch, plan};
@@ -24,13 +25,13 @@ proptest! {
         prop_assume!(linear || poles % 2 == 0);
         prop_assume!(pitch.is_none_or(|y| y < slots));
         prop_assume!(!concentric || layers == 1);
-        let spec = Spec {
+        let spec = Spec::of(Design {
             pitch,
             style: if concentric { Style::Concentric } else { Style::Lap },
             parallel_paths: paths,
             turns_per_coil: 7,
-            ..Spec::basic(topology, slots, poles, layers)
-        };
+            ..Design::basic(topology, slots, poles, layers)
+        });
         match build(&spec) {
             Err(e) => prop_assert!(!e.to_string().is_empty()),
             Ok(w) => {

@@ -3,14 +3,15 @@
 //! *Alternating Current Machines*, 5th ed. 1983, §4.3; Pyrhönen, Jokinen, Hrabovcová, *Design
 //! of Rotating Electrical Machines*, 2014, eq. 2.59).
 
+use beltwright::design::{Connection, Design, Supply, Topology};
 use beltwright::factors::closed;
-use beltwright::layout::{Connection, Spec, Supply, Topology};
+use beltwright::layout::Spec;
 use beltwright::rewind::{OldConductor, RewindError, area_of_diameter, rewind};
 use beltwright::winding::{self, Winding};
 use std::f64::consts::PI;
 
 fn design(slots: usize, poles: usize, pitch: usize, connection: Connection, f_hz: f64) -> Spec {
-    Spec {
+    Spec::of(Design {
         pitch: Some(pitch),
         turns_per_coil: 20,
         connection,
@@ -18,8 +19,8 @@ fn design(slots: usize, poles: usize, pitch: usize, connection: Connection, f_hz
             frequency_hz: Some(f_hz),
             line_voltage_v: Some(400.0),
         },
-        ..Spec::basic(Topology::Rotary, slots, poles, 2)
-    }
+        ..Design::basic(Topology::Rotary, slots, poles, 2)
+    })
 }
 
 fn build(s: &Spec) -> Winding {
@@ -94,7 +95,7 @@ fn fifty_to_sixty_hertz_scales_turns_by_five_sixths() {
 fn two_parallel_paths_double_the_turns_per_coil_and_halve_the_wire() {
     let old = build(&design(36, 4, 7, Connection::Star, 50.0));
     let mut s = design(36, 4, 7, Connection::Star, 50.0);
-    s.parallel_paths = 2;
+    s.design.parallel_paths = 2;
     let new = build(&s);
     let r = rewind(&old, &new, Some(OldConductor::AreaMm2(1.2)), 1, None).expect("same core");
     assert!((r.turns_per_coil_exact - 40.0).abs() < 1e-9);
@@ -199,10 +200,9 @@ fn rewind_refuses_a_faulty_record_and_points_to_audit() {
 // Without the old supply the turns would rest on a guess: refused, naming the key.
 #[test]
 fn rewind_refuses_an_old_design_without_its_supply() {
-    let old = build(&Spec {
-        supply: Supply::default(),
-        ..design(36, 4, 9, Connection::Star, 50.0)
-    });
+    let mut old = design(36, 4, 9, Connection::Star, 50.0);
+    old.design.supply = Supply::default();
+    let old = build(&old);
     let new = build(&design(36, 4, 7, Connection::Star, 50.0));
     let e = rewind(&old, &new, None, 1, None).expect_err("no old supply");
     assert!(

@@ -303,11 +303,8 @@ fn plan_survey_and_audit_agree_on_what_exists() {
             // The survey's span, built by the planner, has the survey's k_w1, and every
             // coil of it spans what the row says.
             let y = row.pitch.expect("a feasible row names its span");
-            let at = winding::build(&layout::Spec {
-                pitch: Some(y),
-                ..spec.clone()
-            })
-            .unwrap_or_else(|e| panic!("{z}/{p2}/{layers} at span {y}: {e}"));
+            let at = winding::build(&layout::Spec::of(spec.design.with_span(y)))
+                .unwrap_or_else(|e| panic!("{z}/{p2}/{layers} at span {y}: {e}"));
             assert_eq!(
                 at.pitch, y,
                 "{z}/{p2}/{layers}: span reported is span built"

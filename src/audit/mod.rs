@@ -594,7 +594,7 @@ fn fix_cost(fix: &[Edit]) -> usize {
 fn odd_spans(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
     let mut out = Vec::new();
     // Concentric groups nest coils of different spans by design.
-    if w.style == crate::winding::Style::Concentric {
+    if w.design.style == crate::winding::Style::Concentric {
         return out;
     }
     let explained: Vec<usize> = fix.iter().flat_map(|e| e.coils()).collect();
@@ -718,7 +718,12 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     }
     findings.extend(odd_spans(w, &fix));
     let g = &w.geometry;
-    let labels: Vec<String> = w.phase_labels.iter().map(|l| format!("{l}1")).collect();
+    let labels: Vec<String> = w
+        .design
+        .phase_labels
+        .iter()
+        .map(|l| format!("{l}1"))
+        .collect();
     let towards = match bal.sequence {
         Sequence::Positive => format!(
             "towards rising slot numbers (slot 1 towards slot {})",
@@ -734,7 +739,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         Topology::Linear => "the field travels",
     };
     AuditReport {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         slots: g.slots,
         poles: g.poles,
         layers: g.layers,

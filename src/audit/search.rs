@@ -850,15 +850,16 @@ pub fn apply_fix(w: &Winding, fix: &[Edit]) -> Winding {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::design::Design;
     use crate::layout::Spec;
     use crate::winding;
 
     fn spec(slots: usize, poles: usize, layers: usize, pitch: usize) -> Spec {
-        Spec {
+        Spec::of(Design {
             pitch: Some(pitch),
             turns_per_coil: 5,
-            ..Spec::basic(Topology::Rotary, slots, poles, layers)
-        }
+            ..Design::basic(Topology::Rotary, slots, poles, layers)
+        })
     }
 
     /// Every candidate edit, as the search builds them.
@@ -984,7 +985,12 @@ mod tests {
                     }
                 }
                 assert!(pairs >= 1);
-                assert_eq!(got.alternatives + 1, pairs, "Z={} faults {i},{j}", s.slots);
+                assert_eq!(
+                    got.alternatives + 1,
+                    pairs,
+                    "Z={} faults {i},{j}",
+                    s.design.slots
+                );
                 let fix = got.fix.expect("a fix");
                 assert!(is_fix(&f, &fix));
                 let mut touched: Vec<usize> = fix.iter().flat_map(coils_of).collect();

@@ -157,7 +157,7 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
     let expected = planned_line_resistances(w)
         .map(|e| e.map(|r| metal(material).at_temperature(r, meas.temperature_c)));
     let ratio = expected.map(|e| mean / ((e[0] + e[1] + e[2]) / 3.0));
-    let ph = phases_from_lines(m, w.connection);
+    let ph = phases_from_lines(m, w.design.connection);
     let ph_mean = (ph[0] + ph[1] + ph[2]) / 3.0;
     let balanced = deviation <= BALANCE_TOLERANCE_PERCENT;
     let near = ratio.is_none_or(|r| (r - 1.0).abs() * 100.0 <= FAR_PERCENT);
@@ -179,7 +179,7 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
             let (a, b) = (ph[(p + 1) % 3], ph[(p + 2) % 3]);
             ((a - b) / ph_mean).abs() * 100.0 <= BALANCE_TOLERANCE_PERCENT
         };
-        let label = w.phase_labels.get(p).cloned().unwrap_or_default();
+        let label = w.design.phase_labels.get(p).cloned().unwrap_or_default();
         let a = w.parallel_paths as f64;
         if !others_agree {
             Suggestion::Scattered

@@ -179,8 +179,8 @@ pub fn mean_turn_m(w: &Winding, span_slots: f64) -> Option<f64> {
     if let Some(l) = rule.mean_turn_m {
         return Some(l);
     }
-    let stack = w.geometry.core.stack_m?;
-    let pitch = w.geometry.slot_pitch_m()?;
+    let stack = w.design.core.stack_m?;
+    let pitch = w.slot_pitch_m()?;
     Some(2.0 * stack + 2.0 * rule.end_factor * span_slots * pitch + rule.end_allowance_m)
 }
 
@@ -243,7 +243,7 @@ pub fn planned_line_resistances(w: &Winding) -> Option<[f64; 3]> {
     } else {
         leads::Sections::Single
     };
-    Some([0, 1, 2].map(|k| s.line_to_line(k, w.connection, sec)))
+    Some([0, 1, 2].map(|k| s.line_to_line(k, w.design.connection, sec)))
 }
 
 /// "towards rising slot numbers (slot 1 towards slot Z)" for positive sequence.
@@ -357,10 +357,10 @@ pub fn card(w: &Winding) -> DataCard {
         let sec = paths.as_ref().and_then(|r| sections(w, r));
         leads::scheme(
             w.design.leads,
-            w.connection,
-            w.supply.line_voltage_v,
+            w.design.connection,
+            w.design.supply.line_voltage_v,
             sec.as_ref(),
-            &w.phase_labels,
+            &w.design.phase_labels,
             &rising(w),
         )
     });
@@ -387,15 +387,15 @@ pub fn card(w: &Winding) -> DataCard {
         .and_then(|s| {
             s.configurations
                 .iter()
-                .filter(|c| c.connection == w.connection)
+                .filter(|c| c.connection == w.design.connection)
                 .filter_map(|c| c.line_voltage_v)
                 .reduce(f64::max)
         })
-        .or(w.supply.line_voltage_v);
+        .or(w.design.supply.line_voltage_v);
     let hipot = rated.map(hipot_new_v);
 
     DataCard {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,
         poles: g.poles,
@@ -406,7 +406,7 @@ pub fn card(w: &Winding) -> DataCard {
         spans: spans.iter().map(|y| format!("1-{}", y + 1)).collect(),
         turns_per_coil: turns,
         series_turns_per_phase: w.series_turns(0),
-        connection: w.connection,
+        connection: w.design.connection,
         parallel_paths: w.parallel_paths,
         mean_turn_mm: mean_turn.map(|l| l * 1e3),
         mean_turn_rule,

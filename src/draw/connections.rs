@@ -148,7 +148,7 @@ pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
     let rest = entries.len() - first_n;
     let pages = 1 + rest.div_ceil(more_cols * rows_per_col);
     let mut out = Vec::with_capacity(pages);
-    let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
+    let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     let mut block = TitleBlock::of(w, "Connections");
     block.page = (1, pages);
     let mut canvas = Canvas::new(page, &block);
@@ -347,7 +347,7 @@ fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
         .map(|l| l.groups.len().div_ceil(n).max(1))
         .sum();
     let note = if w.parallel_paths > 1 { 4.0 } else { 0.0 };
-    let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
+    let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     let board_h = board(w, &pal, width, 1.0).1;
     board_h + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 5.0 + 4.0 + note
 }
@@ -588,7 +588,7 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
     );
     let tx = |j: usize| x0 + j as f64 * pitch;
     // Links first, so the terminals sit on top.
-    match w.connection {
+    match w.design.connection {
         Connection::Star => {
             g = g.add(
                 Rectangle::new()
@@ -645,7 +645,7 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
             &format!("L{}", j + 1),
         ));
     }
-    let how = match w.connection {
+    let how = match w.design.connection {
         Connection::Star => format!(
             "Star: {} linked to make the star point; supply to {}.",
             (0..m).map(|k| terminal(w, k, 2)).join(", "),
@@ -673,10 +673,10 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
     if w.geometry.phases == 3 && w.design.leads.count > 3 {
         let scheme = crate::card::leads::scheme(
             w.design.leads,
-            w.connection,
-            w.supply.line_voltage_v,
+            w.design.connection,
+            w.design.supply.line_voltage_v,
             None,
-            &w.phase_labels,
+            &w.design.phase_labels,
             "",
         );
         for c in &scheme.configurations {

@@ -172,7 +172,7 @@ impl Grid {
 pub fn draw(w: &Winding, page: &Page) -> Vec<String> {
     let probe = Canvas::new(page, &TitleBlock::of(w, "Slot layout"));
     let area = probe.area;
-    let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
+    let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     // A closed core keeps room at the right for the "→ 1" that says slot Z meets slot 1.
     let room = if w.geometry.topology == Topology::Rotary {
         6.0
@@ -259,7 +259,7 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
         (Topology::Linear, Some(v)) => format!(
             "v_s = 2\u{b7}f\u{b7}\u{3c4} = {} m/s (f = {} Hz, \u{3c4} = {} mm)",
             num(v, 3),
-            num(w.supply.frequency_hz.unwrap_or(0.0), 2),
+            num(w.design.supply.frequency_hz.unwrap_or(0.0), 2),
             num(figures.pole_pitch_m.unwrap_or(0.0) * 1000.0, 2)
         ),
         (Topology::Rotary, _) if figures.synchronous_speed_rpm.is_some() => format!(

@@ -23,7 +23,7 @@ use crate::winding::{Winding, star};
 pub fn draw(w: &Winding, page: &Page) -> String {
     let mut canvas = Canvas::new(page, &TitleBlock::of(w, "Star of slots"));
     let a = canvas.area;
-    let pal = Palette::new(w.geometry.phases, w.colours.as_deref());
+    let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     let wide = a.w >= a.h * 1.25;
     let (star_box, phasor_box) = if wide {
         let s = a.h.min(a.w * 0.62);

@@ -38,7 +38,7 @@ impl TitleBlock {
     /// The block of a winding's sheet.
     pub fn of(w: &Winding, sheet: &str) -> Self {
         let g = &w.geometry;
-        let span = match w.style {
+        let span = match w.design.style {
             Style::Concentric => format!("{} (mean)", w.pitch),
             Style::Lap => format!("{}", w.pitch),
         };
@@ -59,7 +59,7 @@ impl TitleBlock {
         };
         TitleBlock {
             unsound,
-            title: w.title.clone().unwrap_or_else(|| {
+            title: w.labels.title.clone().unwrap_or_else(|| {
                 format!("{} core, {} slots, {} poles", g.topology, g.slots, g.poles)
             }),
             sheet: sheet.to_string(),
@@ -69,9 +69,9 @@ impl TitleBlock {
                 ("Poles 2p", g.poles.to_string()),
                 ("Span y", span),
                 ("Layers", g.layers.to_string()),
-                ("Turns/coil", w.turns_per_coil.to_string()),
+                ("Turns/coil", w.design.turns_per_coil.to_string()),
                 ("Paths a", w.parallel_paths.to_string()),
-                ("Connection", w.connection.to_string()),
+                ("Connection", w.design.connection.to_string()),
                 ("k_w1", num(factors::fundamental(w).winding, 4)),
                 ("Tool", format!("beltwright {}", env!("CARGO_PKG_VERSION"))),
             ],

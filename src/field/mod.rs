@@ -365,7 +365,7 @@ impl CurrentSheet {
         for l in &mut level {
             *l -= mean;
         }
-        let geometry = crate::winding::Geometry::rotary(n, 2 * d, g.phases, g.layers, g.core);
+        let geometry = crate::winding::Geometry::rotary(n, 2 * d, g.phases, g.layers);
         CurrentSheet {
             topology: Topology::Rotary,
             poles: 2 * d,
@@ -824,7 +824,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
             continuous,
             strongest_between_orders,
             ends,
-            synchronous_wavenumber_rad_m: g.pole_pitch_m().map(|t| PI / t),
+            synchronous_wavenumber_rad_m: w.pole_pitch_m().map(|t| PI / t),
             synchronous_wavenumber_rad_slot: PI / g.pole_pitch_slots,
             forward_wave: f / amp,
             backward_wave: b / amp,
@@ -834,7 +834,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         }
     });
     Ok(FieldReport {
-        title: w.title.clone(),
+        title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,
         poles: g.poles,

@@ -5,9 +5,9 @@
 
 mod raw;
 
-use std::fmt;
-
 use thiserror::Error;
+
+use crate::design::{Connection, Core, Design, Labels, Style, Supply, Topology};
 
 pub use raw::RawLayout;
 
@@ -22,80 +22,6 @@ pub const MAX_PHASES: usize = 15;
 pub const MAX_TURNS: u32 = 100_000;
 /// Largest number of explicit `[[coil]]` entries accepted.
 pub const MAX_COILS: usize = 2 * MAX_SLOTS;
-
-/// Closed rotary core or open, flat linear primary.
-#[derive(
-    Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema, serde::Deserialize,
-)]
-#[serde(rename_all = "lowercase")]
-pub enum Topology {
-    /// A closed core: slot Z is followed by slot 1 again.
-    Rotary,
-    /// A flat, open-ended primary: slot 1 and slot Z are the two ends.
-    Linear,
-}
-
-impl fmt::Display for Topology {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(match self {
-            Topology::Rotary => "rotary",
-            Topology::Linear => "linear",
-        })
-    }
-}
-
-/// How the coils of a single-layer winding are shaped.
-#[derive(
-    Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema, serde::Deserialize,
-)]
-#[serde(rename_all = "lowercase")]
-pub enum Style {
-    /// Coils of one span, laid like roof tiles.
-    Lap,
-    /// Nested coils of different spans around one centre (single layer only).
-    Concentric,
-}
-
-/// How the three phases are joined.
-#[derive(
-    Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema, serde::Deserialize,
-)]
-#[serde(rename_all = "lowercase")]
-pub enum Connection {
-    /// Phase ends U2, V2, W2 joined in a star point.
-    Star,
-    /// Phases joined end to start in a ring.
-    Delta,
-}
-
-impl fmt::Display for Connection {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(match self {
-            Connection::Star => "star",
-            Connection::Delta => "delta",
-        })
-    }
-}
-
-/// Core sizes, in SI units inside the program.
-#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize, schemars::JsonSchema)]
-pub struct Core {
-    /// Slot pitch along the gap, metres.
-    pub slot_pitch_m: Option<f64>,
-    /// Bore diameter of a rotary core, metres.
-    pub bore_m: Option<f64>,
-    /// Stack length (core depth across the gap's direction of travel), metres.
-    pub stack_m: Option<f64>,
-}
-
-/// Supply the winding is designed for.
-#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize, schemars::JsonSchema)]
-pub struct Supply {
-    /// Supply frequency, hertz.
-    pub frequency_hz: Option<f64>,
-    /// Line-to-line voltage, volts r.m.s.
-    pub line_voltage_v: Option<f64>,
-}
 
 /// One coil of an explicit coil list, slots already converted to 0-based indices.
 #[derive(Debug, Clone, PartialEq)]
@@ -112,71 +38,24 @@ pub struct CoilEntry {
     pub path: usize,
 }
 
-/// A validated design: everything needed to build a [`crate::winding::Winding`].
+/// A validated layout: the design, its labels and, for a recorded winding, its coil list.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Spec {
-    /// Free text for drawings and reports.
-    pub title: Option<String>,
-    /// Closed or open core.
-    pub topology: Topology,
-    /// Slot count Z, end slots of a linear primary included.
-    pub slots: usize,
-    /// Pole count 2p.
-    pub poles: usize,
-    /// Phase count m.
-    pub phases: usize,
-    /// Labels of the phases, in sequence order.
-    pub phase_labels: Vec<String>,
-    /// Layers per slot, 1 or 2.
-    pub layers: usize,
-    /// Coil span in slot pitches; `None` means "nearest full pitch".
-    pub pitch: Option<usize>,
-    /// Coil shape of single-layer windings.
-    pub style: Style,
-    /// Turns per coil.
-    pub turns_per_coil: u32,
-    /// Parallel paths per phase.
-    pub parallel_paths: usize,
-    /// Star or delta.
-    pub connection: Connection,
-    /// Skew of slots against the field, in slot pitches.
-    pub skew_slots: f64,
-    /// Core sizes.
-    pub core: Core,
-    /// Supply.
-    pub supply: Supply,
+    /// Title and colours.
+    pub labels: Labels,
+    /// Core, supply, the designer's choices and the shop's data.
+    pub design: Design,
     /// Explicit coil list (replaces synthesis) when non-empty.
     pub coils: Vec<CoilEntry>,
-    /// Optional drawing colours, one per phase, as given.
-    pub colours: Option<Vec<String>>,
-    /// Wire, copper rule, gap, secondary, leads and measured values.
-    pub design: crate::design::Design,
 }
 
 impl Spec {
-    /// A three-phase design of the given core with every optional key at its default (U, V,
-    /// W; lap; one turn per coil; one path; star; no skew; nearest full pitch): the start
-    /// for feasibility probes, surveys and tests, changed with struct-update syntax.
-    pub fn basic(topology: Topology, slots: usize, poles: usize, layers: usize) -> Spec {
+    /// A layout that asks for `design` to be synthesized, with no title or colours.
+    pub fn of(design: Design) -> Spec {
         Spec {
-            title: None,
-            topology,
-            slots,
-            poles,
-            phases: 3,
-            phase_labels: vec!["U".into(), "V".into(), "W".into()],
-            layers,
-            pitch: None,
-            style: Style::Lap,
-            turns_per_coil: 1,
-            parallel_paths: 1,
-            connection: Connection::Star,
-            skew_slots: 0.0,
-            core: Core::default(),
-            supply: Supply::default(),
+            labels: Labels::default(),
+            design,
             coils: Vec::new(),
-            colours: None,
-            design: crate::design::Design::default(),
         }
     }
 }

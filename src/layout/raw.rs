@@ -373,7 +373,26 @@ impl RawLayout {
                 line_voltage_v: c.within("supply", "line_voltage_v", s.line_voltage_v, 1.0, 1e6)?,
             },
         };
-        let design = self.design(&c, parallel_paths)?;
+        let design = self.shop_data(
+            &c,
+            Design {
+                topology: m.topology,
+                slots,
+                poles,
+                phases,
+                phase_labels: phase_labels.clone(),
+                layers,
+                pitch,
+                style,
+                turns_per_coil,
+                parallel_paths,
+                connection: w.connection.unwrap_or(Connection::Star),
+                skew_slots,
+                core,
+                supply,
+                ..Design::basic(m.topology, slots, poles, layers)
+            },
+        )?;
 
         if self.coil.len() > MAX_COILS {
             return Err(c.err(
@@ -490,32 +509,21 @@ impl RawLayout {
         };
 
         Ok(Spec {
-            title: self.title,
-            topology: m.topology,
-            slots,
-            poles,
-            phases,
-            phase_labels,
-            layers,
-            pitch,
-            style,
-            turns_per_coil,
-            parallel_paths,
-            connection: w.connection.unwrap_or(Connection::Star),
-            skew_slots,
-            core,
-            supply,
-            coils,
-            colours,
+            labels: crate::design::Labels {
+                title: self.title,
+                colours,
+            },
             design,
+            coils,
         })
     }
 
-    /// The optional design tables: wire, copper rule, slot area, gap, secondary, leads and
-    /// measured values, each checked against its physical range.
-    fn design(&self, c: &Checker, parallel_paths: usize) -> Result<Design, LayoutError> {
+    /// The optional design tables, added to the core design `d`: wire, copper rule, slot
+    /// area, gap, secondary, leads and measured values, each checked against its physical
+    /// range.
+    fn shop_data(&self, c: &Checker, mut d: Design) -> Result<Design, LayoutError> {
         let mm = |v: Option<f64>| v.map(|x| x * 1e-3);
-        let mut d = Design::default();
+        let parallel_paths = d.parallel_paths;
         if let Some(k) = &self.core {
             d.airgap_m = mm(c.within("core", "airgap_mm", k.airgap_mm, 0.01, 1000.0)?);
             d.slot_opening_m =

@@ -167,7 +167,7 @@ fn caption(sheet: Sheet) -> &'static str {
 
 /// The HTML report of a winding (and, for a coil list, its audit against `intended`).
 pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
-    let title = w.title.clone().unwrap_or_else(|| {
+    let title = w.labels.title.clone().unwrap_or_else(|| {
         format!(
             "{} core, {} slots, {} poles",
             w.geometry.topology, w.geometry.slots, w.geometry.poles

@@ -12,13 +12,13 @@ use std::ops::RangeInclusive;
 use rayon::prelude::*;
 use serde::Serialize;
 
-use crate::layout::Spec;
+use crate::design::Design;
 mod spans;
 
 use crate::winding::star::{order_amplitude, roots_of_unity};
 use crate::winding::{
-    Topology, build_brief, double_layer_rotary_feasible, gcd, possible_path_counts,
-    rotary_periodicity,
+    Topology, double_layer_rotary_feasible, gcd, possible_path_counts, rotary_periodicity,
+    synthesize_brief,
 };
 use spans::SpanScore;
 
@@ -331,12 +331,12 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffer
     if topology == Topology::Rotary {
         r.lcm = Some(lcm(z, poles));
     }
-    let spec = Spec {
+    let design = Design {
         phases: m,
         phase_labels: (1..=m).map(|i| format!("P{i}")).collect(),
-        ..Spec::basic(topology, z, poles, r.layers)
+        ..Design::basic(topology, z, poles, r.layers)
     };
-    match build_brief(&spec) {
+    match synthesize_brief(&design) {
         Err(e) => {
             r.reason = Some(e.to_string());
         }

@@ -12,10 +12,12 @@ use num_complex::Complex64;
 use std::f64::consts::PI;
 use thiserror::Error;
 
-pub use crate::layout::{Connection, Core, Style, Supply, Topology};
+pub use crate::design::{Connection, Core, Design, Labels, Style, Supply, Topology};
 pub use feasible::{double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity};
 pub use groups::{CoilGroup, assign_paths, coil_groups, possible_path_counts};
-pub use synth::{build, build_brief, build_lenient, single_layer_rotary_feasible, with_span};
+pub use synth::{
+    build, build_lenient, single_layer_rotary_feasible, synthesize, synthesize_brief, with_span,
+};
 
 /// Why a spec could not become a winding.
 #[derive(Debug, Error, Clone, PartialEq)]
@@ -71,13 +73,11 @@ pub struct Geometry {
     pub angle_num: u64,
     /// See `angle_num`.
     pub angle_den: u64,
-    /// Physical sizes, when given.
-    pub core: Core,
 }
 
 impl Geometry {
     /// Rotary core: slot angle 2π·p/Z electrical (star of slots).
-    pub fn rotary(slots: usize, poles: usize, phases: usize, layers: usize, core: Core) -> Self {
+    pub fn rotary(slots: usize, poles: usize, phases: usize, layers: usize) -> Self {
         Geometry {
             topology: Topology::Rotary,
             slots,
@@ -87,19 +87,11 @@ impl Geometry {
             pole_pitch_slots: slots as f64 / poles as f64,
             angle_num: (poles / 2) as u64,
             angle_den: slots as u64,
-            core,
         }
     }
 
     /// Linear primary whose `active` slot positions span the poles: slot angle π·poles/active.
-    pub fn linear(
-        slots: usize,
-        active: usize,
-        poles: usize,
-        phases: usize,
-        layers: usize,
-        core: Core,
-    ) -> Self {
+    pub fn linear(slots: usize, active: usize, poles: usize, phases: usize, layers: usize) -> Self {
         Geometry {
             topology: Topology::Linear,
             slots,
@@ -109,7 +101,6 @@ impl Geometry {
             pole_pitch_slots: active as f64 / poles as f64,
             angle_num: poles as u64,
             angle_den: 2 * active as u64,
-            core,
         }
     }
 
@@ -144,21 +135,6 @@ impl Geometry {
     pub fn slot_angle_elec(&self) -> f64 {
         PI / self.pole_pitch_slots
     }
-
-    /// Slot pitch in metres: given directly, or from the bore of a rotary core.
-    pub fn slot_pitch_m(&self) -> Option<f64> {
-        self.core.slot_pitch_m.or_else(|| {
-            self.core
-                .bore_m
-                .filter(|_| self.topology == Topology::Rotary)
-                .map(|d| PI * d / self.slots as f64)
-        })
-    }
-
-    /// Pole pitch τ in metres, when the slot pitch is known.
-    pub fn pole_pitch_m(&self) -> Option<f64> {
-        self.slot_pitch_m().map(|s| s * self.pole_pitch_slots)
-    }
 }
 
 /// One coil: current enters at `go` and leaves at `back` (0-based slots inside the program).
@@ -181,37 +157,23 @@ pub struct Coil {
     pub back_layer: usize,
 }
 
-/// A planned or recorded winding.
+/// A planned or recorded winding: its [`Design`] plus the coils.
 #[derive(Debug, Clone, PartialEq, serde::Serialize, schemars::JsonSchema)]
 pub struct Winding {
-    /// Free text for drawings and reports.
-    pub title: Option<String>,
-    /// The core.
+    /// Title and colours, apart from the physics.
+    pub labels: Labels,
+    /// What was asked for: core, supply, the designer's choices and the shop's data.
+    pub design: Design,
+    /// The slot angles the coils are laid on, worked out from the design.
     pub geometry: Geometry,
-    /// Phase labels in sequence order.
-    pub phase_labels: Vec<String>,
     /// Coils, numbered from 1 at every edge a person sees.
     pub coils: Vec<Coil>,
-    /// Design span in slot pitches (concentric: the mean span).
+    /// Span the coils were built with, in slot pitches (concentric: the mean span).
     pub pitch: usize,
-    /// Coil shape.
-    pub style: Style,
-    /// Turns per coil of the design.
-    pub turns_per_coil: u32,
-    /// Parallel paths per phase.
+    /// Parallel paths per phase the coils are connected in.
     pub parallel_paths: usize,
-    /// Star or delta.
-    pub connection: Connection,
-    /// Skew in slot pitches.
-    pub skew_slots: f64,
-    /// Supply, when given.
-    pub supply: Supply,
     /// True when the coils came from an explicit `[[coil]]` list rather than synthesis.
     pub from_coil_list: bool,
-    /// Drawing colours per phase, when the layout overrides the defaults.
-    pub colours: Option<Vec<String>>,
-    /// Wire, copper rule, gap, secondary, leads and measured values.
-    pub design: crate::design::Design,
 }
 
 impl Winding {
@@ -427,7 +389,18 @@ impl Winding {
 
     /// Label of a phase.
     pub fn label(&self, phase: usize) -> &str {
-        &self.phase_labels[phase]
+        &self.design.phase_labels[phase]
+    }
+
+    /// Slot pitch in metres, when the design gives it.
+    pub fn slot_pitch_m(&self) -> Option<f64> {
+        self.design.slot_pitch_m()
+    }
+
+    /// Pole pitch τ in metres, when the slot pitch is known.
+    pub fn pole_pitch_m(&self) -> Option<f64> {
+        self.slot_pitch_m()
+            .map(|s| s * self.geometry.pole_pitch_slots)
     }
 }
 

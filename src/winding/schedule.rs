@@ -142,7 +142,8 @@ pub fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<ScheduleRow> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::layout::{Spec, Topology};
+    use crate::design::{Design, Topology};
+    use crate::layout::Spec;
 
     // A series path passes through every coil once, start to finish lead (common
     // practice): each row's finish names the next row's coil, and each lane ends at a lead.
@@ -151,10 +152,10 @@ mod tests {
         for (z, poles, layers, paths) in
             [(36, 4, 2, 2), (24, 4, 1, 1), (27, 6, 2, 1), (48, 8, 2, 4)]
         {
-            let spec = Spec {
+            let spec = Spec::of(Design {
                 parallel_paths: paths,
-                ..Spec::basic(Topology::Rotary, z, poles, layers)
-            };
+                ..Design::basic(Topology::Rotary, z, poles, layers)
+            });
             let w = crate::winding::build(&spec).expect("builds");
             let groups = crate::winding::coil_groups(&w);
             let rows = schedule(&w, &groups);

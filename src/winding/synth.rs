@@ -6,91 +6,40 @@
 
 use super::star::belt_of_slot;
 use super::{
-    Coil, Geometry, PlanError, Style, Topology, Winding, assign_paths,
+    Coil, Design, Geometry, Labels, PlanError, Style, Topology, Winding, assign_paths,
     double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity,
 };
 use crate::layout::{CoilEntry, Spec};
 use itertools::Itertools;
 
-/// What synthesis reads: the core and the designer's choices for the coils, and the winding
-/// every result starts from (labels, connection, supply, design data, title), so that a
-/// span change copies those whole instead of field by field.
-struct Blueprint {
-    topology: Topology,
-    slots: usize,
-    poles: usize,
-    phases: usize,
-    layers: usize,
-    pitch: Option<usize>,
-    style: Style,
-    turns_per_coil: u32,
-    core: crate::layout::Core,
-    /// Everything else a synthesized winding carries, with no coils yet.
-    base: Winding,
-}
-
-impl Blueprint {
-    fn of_spec(spec: &Spec) -> Self {
-        // A stand-in: every winding built from the blueprint gets the geometry synthesis
-        // works out (`blank_winding`).
-        let geometry = Geometry::rotary(
-            spec.slots,
-            spec.poles.max(2),
-            spec.phases,
-            spec.layers,
-            spec.core,
-        );
-        Blueprint {
-            topology: spec.topology,
-            slots: spec.slots,
-            poles: spec.poles,
-            phases: spec.phases,
-            layers: spec.layers,
-            pitch: spec.pitch,
-            style: spec.style,
-            turns_per_coil: spec.turns_per_coil,
-            core: spec.core,
-            base: Winding {
-                title: spec.title.clone(),
-                geometry,
-                phase_labels: spec.phase_labels.clone(),
-                coils: Vec::new(),
-                pitch: 0,
-                style: spec.style,
-                turns_per_coil: spec.turns_per_coil,
-                parallel_paths: 1,
-                connection: spec.connection,
-                skew_slots: spec.skew_slots,
-                supply: spec.supply,
-                from_coil_list: false,
-                colours: spec.colours.clone(),
-                design: spec.design,
-            },
-        }
-    }
-}
-
 /// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
 pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
-    build_explained(spec, true)
-}
-
-/// [`build`] whose refusals give the reason without searching nearby slot counts: for
-/// surveys, which ask about every combination anyway.
-pub fn build_brief(spec: &Spec) -> Result<Winding, PlanError> {
-    build_explained(spec, false)
-}
-
-/// [`build`], with refusal texts worked out (`explain`) or left empty: probes that try many
-/// spans only need to know whether one works, and some texts search every span.
-fn build_explained(spec: &Spec, explain: bool) -> Result<Winding, PlanError> {
-    let mut w = if spec.coils.is_empty() {
-        synthesize(&Blueprint::of_spec(spec), explain)?
-    } else {
+    if !spec.coils.is_empty() {
         return from_coil_list(spec, true);
-    };
-    if spec.parallel_paths > 1 {
-        assign_paths(&mut w, spec.parallel_paths)?;
+    }
+    let mut w = synthesize_explained(&spec.design, true)?;
+    w.labels = spec.labels.clone();
+    Ok(w)
+}
+
+/// The balanced winding a design asks for, connected in its parallel paths, without title
+/// or colours.
+pub fn synthesize(design: &Design) -> Result<Winding, PlanError> {
+    synthesize_explained(design, true)
+}
+
+/// [`synthesize`] whose refusals give the reason without searching nearby slot counts: for
+/// surveys, which ask about every combination anyway.
+pub fn synthesize_brief(design: &Design) -> Result<Winding, PlanError> {
+    synthesize_explained(design, false)
+}
+
+/// [`synthesize`], with refusal texts worked out (`explain`) or left short: probes that try
+/// many spans only need to know whether one works, and some texts search every span.
+fn synthesize_explained(design: &Design, explain: bool) -> Result<Winding, PlanError> {
+    let mut w = synthesize_one_path(design, explain)?;
+    if design.parallel_paths > 1 {
+        assign_paths(&mut w, design.parallel_paths)?;
     }
     Ok(w)
 }
@@ -113,18 +62,19 @@ fn nearest_full_pitch(tau: f64) -> usize {
     (y as usize).max(1)
 }
 
-fn blank_winding(bp: &Blueprint, geometry: Geometry, pitch: usize, coils: Vec<Coil>) -> Winding {
+fn blank_winding(design: &Design, geometry: Geometry, pitch: usize, coils: Vec<Coil>) -> Winding {
     Winding {
+        labels: Labels::default(),
+        design: design.clone(),
         geometry,
-        pitch,
         coils,
+        pitch,
         parallel_paths: 1,
         from_coil_list: false,
-        ..bp.base.clone()
     }
 }
 
-fn synthesize(bp: &Blueprint, explain: bool) -> Result<Winding, PlanError> {
+fn synthesize_one_path(bp: &Design, explain: bool) -> Result<Winding, PlanError> {
     match (bp.topology, bp.layers) {
         (Topology::Rotary, 2) => rotary_double(bp),
         (Topology::Linear, 2) => linear_double(bp),
@@ -158,12 +108,12 @@ fn double_layer_coils(geom: &Geometry, positions: usize, y: usize, turns: u32) -
         .collect()
 }
 
-fn rotary_double(bp: &Blueprint) -> Result<Winding, PlanError> {
+fn rotary_double(bp: &Design) -> Result<Winding, PlanError> {
     let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     if !double_layer_rotary_feasible(z, poles, m) {
         return Err(PlanError::Infeasible(rotary_refusal(z, poles, m, 2)));
     }
-    let geom = Geometry::rotary(z, poles, m, 2, bp.core);
+    let geom = Geometry::rotary(z, poles, m, 2);
     let y = match bp.pitch {
         Some(y) => check_rotary_span(z, y)?,
         None => nearest_full_pitch(geom.pole_pitch_slots),
@@ -238,20 +188,20 @@ fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
 
 /// A single-layer winding exists on this rotary core (decided by synthesis itself).
 pub fn single_layer_rotary_feasible(z: usize, poles: usize, m: usize) -> bool {
-    let spec = Spec {
+    let design = Design {
         phases: m,
         phase_labels: (0..m).map(|i| i.to_string()).collect(),
-        ..Spec::basic(Topology::Rotary, z, poles, 1)
+        ..Design::basic(Topology::Rotary, z, poles, 1)
     };
-    single_layer(&Blueprint::of_spec(&spec), false).is_ok()
+    single_layer(&design, false).is_ok()
 }
 
 /// Linear double layer: N = Z − y coils, y half-filled slots at each end.
-fn linear_double(bp: &Blueprint) -> Result<Winding, PlanError> {
+fn linear_double(bp: &Design) -> Result<Winding, PlanError> {
     let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     let attempt = |y: usize| -> Option<Winding> {
         let n = z.checked_sub(y).filter(|&n| n >= m)?;
-        let geom = Geometry::linear(z, n, poles, m, 2, bp.core);
+        let geom = Geometry::linear(z, n, poles, m, 2);
         let coils = double_layer_coils(&geom, n, y, bp.turns_per_coil);
         let w = blank_winding(bp, geom, y, coils);
         w.is_balanced().then_some(w)
@@ -279,7 +229,7 @@ fn linear_double(bp: &Blueprint) -> Result<Winding, PlanError> {
 }
 
 /// Refusal text for a linear primary: how many slots q and the span need.
-fn linear_refusal(bp: &Blueprint, y: usize) -> String {
+fn linear_refusal(bp: &Design, y: usize) -> String {
     let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     let unit = poles * m;
     let n = z.saturating_sub(y);
@@ -309,11 +259,11 @@ fn linear_refusal(bp: &Blueprint, y: usize) -> String {
 /// Single-layer windings: tooth coils on every other tooth (span 1), or lap/concentric coils
 /// pairing the positive and negative belt slots of each phase. `explain` builds refusal
 /// texts (which search nearby slot counts); feasibility probes pass `false`.
-fn single_layer(bp: &Blueprint, explain: bool) -> Result<Winding, PlanError> {
+fn single_layer(bp: &Design, explain: bool) -> Result<Winding, PlanError> {
     let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     let geom = match bp.topology {
-        Topology::Rotary => Geometry::rotary(z, poles, m, 1, bp.core),
-        Topology::Linear => Geometry::linear(z, z, poles, m, 1, bp.core),
+        Topology::Rotary => Geometry::rotary(z, poles, m, 1),
+        Topology::Linear => Geometry::linear(z, z, poles, m, 1),
     };
     let refuse = || match bp.topology {
         // Probes and surveys get the reason without the search for nearby slot counts.
@@ -390,14 +340,14 @@ fn single_layer(bp: &Blueprint, explain: bool) -> Result<Winding, PlanError> {
             if !explain {
                 return PlanError::Infeasible(format!(
                     "span {y} cannot pair the single-layer slots of phase {} in lap coils",
-                    bp.base.phase_labels[p]
+                    bp.phase_labels[p]
                 ));
             }
             let spans = single_layer_spans(&geom, &plus, &minus);
             PlanError::Infeasible(format!(
                 "span {y} cannot pair the single-layer slots of phase {} in lap coils; \
                  spans that can: {}",
-                bp.base.phase_labels[p],
+                bp.phase_labels[p],
                 if spans.is_empty() {
                     "none (try style = \"concentric\")".to_string()
                 } else {
@@ -443,7 +393,7 @@ fn single_layer(bp: &Blueprint, explain: bool) -> Result<Winding, PlanError> {
 /// halves (e.g. 18 slots, 4 poles; fractional-slot winding theory: Z even and
 /// Z/(m·gcd(Z, p)) whole). Spans are tried nearest the pole pitch first, the one asked for
 /// only when given; `None` when no odd span gives a balanced winding.
-fn alternate_coils(bp: &Blueprint, geom: &Geometry, y: usize) -> Option<Winding> {
+fn alternate_coils(bp: &Design, geom: &Geometry, y: usize) -> Option<Winding> {
     let z = geom.slots;
     if geom.topology != Topology::Rotary || !z.is_multiple_of(2) || bp.style != Style::Lap {
         return None;
@@ -452,7 +402,7 @@ fn alternate_coils(bp: &Blueprint, geom: &Geometry, y: usize) -> Option<Winding>
     if !double_layer_rotary_feasible(z, geom.poles, geom.phases) {
         return None;
     }
-    let double = Geometry::rotary(z, geom.poles, geom.phases, 2, geom.core);
+    let double = Geometry::rotary(z, geom.poles, geom.phases, 2);
     // The four odd spans nearest the pole pitch: k_w1 falls away from it, so the best lies
     // among them, and the work stays linear in the slot count.
     let candidates: Vec<usize> = match bp.pitch {
@@ -703,28 +653,29 @@ fn single_layer_spans(geom: &Geometry, plus: &[Vec<usize>], minus: &[Vec<usize>]
 /// A winding from an explicit coil list, taken as given: only range and (when `strict`)
 /// fill are checked.
 fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
-    let (z, poles, m, layers) = (spec.slots, spec.poles, spec.phases, spec.layers);
+    let d = &spec.design;
+    let (z, poles, m, layers) = (d.slots, d.poles, d.phases, d.layers);
     let rough = |e: &CoilEntry| -> usize {
         let d = e.back.abs_diff(e.go);
-        match spec.topology {
+        match spec.design.topology {
             Topology::Rotary => d.min(z - d),
             Topology::Linear => d,
         }
     };
-    let pitch = spec.pitch.unwrap_or_else(|| {
+    let pitch = d.pitch.unwrap_or_else(|| {
         let mut spans: Vec<usize> = spec.coils.iter().map(rough).collect();
         spans.sort_unstable();
         spans[spans.len() / 2]
     });
-    let geom = match spec.topology {
-        Topology::Rotary => Geometry::rotary(z, poles, m, layers, spec.core),
+    let geom = match d.topology {
+        Topology::Rotary => Geometry::rotary(z, poles, m, layers),
         Topology::Linear => {
             let active = if layers == 2 {
                 z.saturating_sub(pitch)
             } else {
                 z
             };
-            Geometry::linear(z, active.max(1), poles, m, layers, spec.core)
+            Geometry::linear(z, active.max(1), poles, m, layers)
         }
     };
     // Count sides per slot before placing them, so overfilled slots name every coil.
@@ -748,13 +699,14 @@ fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
         });
     }
     let mut w = blank_winding(
-        &Blueprint::of_spec(spec),
+        &spec.design,
         geom,
         pitch,
         Vec::with_capacity(spec.coils.len()),
     );
     w.from_coil_list = true;
-    w.parallel_paths = spec.parallel_paths;
+    w.labels = spec.labels.clone();
+    w.parallel_paths = spec.design.parallel_paths;
     let mut used = vec![[false; 2]; z];
     for e in &spec.coils {
         let mut c = Coil {
@@ -790,24 +742,11 @@ fn take(slot: &mut [bool; 2], want: usize) -> usize {
 /// pole pitch, so its slot count becomes N + `pitch`. Used by the span tool.
 pub fn with_span(w: &Winding, pitch: usize) -> Result<Winding, PlanError> {
     let g = &w.geometry;
-    let slots = match (g.topology, g.layers) {
-        (Topology::Linear, 2) => (g.pole_pitch_slots * g.poles as f64).round() as usize + pitch,
-        _ => g.slots,
-    };
-    let bp = Blueprint {
-        topology: g.topology,
-        slots,
-        poles: g.poles,
-        phases: g.phases,
-        layers: g.layers,
-        pitch: Some(pitch),
-        style: w.style,
-        turns_per_coil: w.turns_per_coil,
-        core: g.core,
-        base: Winding {
-            coils: Vec::new(),
-            ..w.clone()
-        },
-    };
-    synthesize(&bp, false)
+    let mut design = w.design.with_span(pitch);
+    if (g.topology, g.layers) == (Topology::Linear, 2) {
+        design.slots = (g.pole_pitch_slots * g.poles as f64).round() as usize + pitch;
+    }
+    let mut s = synthesize_one_path(&design, false)?;
+    s.labels = w.labels.clone();
+    Ok(s)
 }
