@@ -1,5 +1,13 @@
-//! Argument values the command line offers, as clap enums mirroring the library's own, so
-//! the library knows nothing of clap.
+//! The command line's arguments: commands and their flags (clap derives), and the values
+//! flags take as clap enums mirroring the library's own, so the library knows nothing of
+//! clap.
+
+use std::ops::RangeInclusive;
+use std::path::PathBuf;
+
+use clap::{Args, Parser, Subcommand};
+
+use super::flags;
 
 macro_rules! mirror {
     ($(#[$doc:meta])* $arg:ident => $lib:path { $($v:ident),* $(,)? }) => {
@@ -34,3 +42,309 @@ mirror!(
     /// Survey sort order.
     SortArg => beltwright::survey::SortKey { Slots, Poles, Winding, Leakage, Cogging }
 );
+
+pub const EXAMPLES: &str = "\
+Examples (stator.toml, primary.toml and the others stand for your own layout files):
+  beltwright plan stator.toml
+  beltwright plan stator.toml --format json
+  beltwright plan primary.toml --slip 0.08 --airgap-power-w 1500
+  beltwright factors stator.toml --upto 31 --format csv
+  beltwright field stator.toml --upto 49 --svg field.svg
+  beltwright field primary.toml --slip -0.1 --format json
+  beltwright pitch stator.toml --suppress 5,7 --svg span.svg
+  beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
+  beltwright audit as-found.toml --intended design.toml
+  beltwright rewind old.toml new.toml --wire-diameter-mm 1.12
+  beltwright card stator.toml
+  beltwright thrust primary.toml --slip 0..=1 --steps 10
+  beltwright inductance primary.toml
+  beltwright draw stator.toml --sheet connections --page a3 -o connections.pdf
+  beltwright report stator.toml -o stator.html
+  beltwright plan stator.toml --out shop-pack
+
+Caution: windings run at mains voltage. Work on them de-energised, test insulation
+before energising, and follow local electrical codes and qualified practice.";
+
+/// Plan and check polyphase windings for rotary stators and linear primaries.
+#[derive(Parser)]
+#[command(name = "beltwright", version, about, after_help = EXAMPLES)]
+pub struct Cli {
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+#[derive(Subcommand)]
+pub enum Command {
+    /// Lay out a winding: slot table, coil list, groups, phase EMFs and figures.
+    #[command(after_help = EXAMPLES)]
+    Plan(PlanArgs),
+    /// Distribution, pitch, skew and winding factors per harmonic order.
+    #[command(after_help = EXAMPLES)]
+    Factors(FactorsArgs),
+    /// Travelling field: MMF along the gap, forward/backward spectrum, leakage, field sheet.
+    #[command(after_help = EXAMPLES)]
+    Field(FieldArgs),
+    /// Compare every feasible coil span and recommend one.
+    #[command(after_help = EXAMPLES)]
+    Pitch(PitchArgs),
+    /// Survey slot/pole combinations: feasibility, best span, k_w1, leakage and more.
+    #[command(after_help = EXAMPLES)]
+    Survey(SurveyArgs),
+    /// Check an as-found or as-wound coil list: balance, phase sequence, paths, slot fill,
+    /// and the coils to fix (exit status 1 when anything is wrong).
+    #[command(after_help = EXAMPLES)]
+    Audit(AuditArgs),
+    /// The winding data card: wire, mean turn, resistances, copper mass, slot fill, lead
+    /// markings with connection tables, and acceptance figures.
+    #[command(after_help = EXAMPLES)]
+    Card(Common),
+    /// A flat primary's thrust, normal force, current, power factor and efficiency against
+    /// slip, from the winding and the secondary plate (edge and end effects included).
+    #[command(after_help = EXAMPLES)]
+    Thrust(ThrustArgs),
+    /// Phase (and coil) inductances by winding functions; a flat primary's unbalance under
+    /// balanced voltages, and its other layouts ranked by it.
+    #[command(after_help = EXAMPLES)]
+    Inductance(InductanceArgs),
+    /// Print shell completions for bash, zsh, fish, elvish or PowerShell.
+    Completions {
+        /// The shell.
+        #[arg(value_enum)]
+        shell: clap_complete::Shell,
+    },
+    /// Print the manual page (roff), made from the same definitions as --help.
+    #[command(hide = true)]
+    Man,
+    /// Turns per coil and wire size for a changed design on the same core.
+    #[command(after_help = EXAMPLES)]
+    Rewind(RewindArgs),
+    /// Draw a shop-floor sheet as SVG, PDF or PNG (format from the output file's extension).
+    #[command(after_help = EXAMPLES)]
+    Draw(DrawArgs),
+    /// The whole design in one go: every sheet in one PDF, or every report as text.
+    #[command(after_help = EXAMPLES)]
+    Report(ReportArgs),
+}
+
+#[derive(Args)]
+pub struct Common {
+    /// Layout file (TOML).
+    pub file: PathBuf,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    pub format: FormatArg,
+}
+
+#[derive(Args)]
+pub struct PlanArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Slip of the secondary for the speed figures (below 0 generating, above 1 plugging).
+    #[arg(long, allow_negative_numbers = true, value_parser = flags::slip)]
+    pub slip: Option<f64>,
+    /// Air-gap power in watts, for thrust (linear) or torque (rotary).
+    #[arg(long = "airgap-power-w", value_parser = flags::power)]
+    pub airgap_power_w: Option<f64>,
+    /// Also write the shop pack into this folder: slot and connection sheets (SVG and PDF)
+    /// and the plan as JSON. The folder is made if absent.
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct DrawArgs {
+    /// Layout file (TOML).
+    pub file: PathBuf,
+    /// Which sheet to draw.
+    #[arg(long, value_enum)]
+    pub sheet: SheetArg,
+    /// Paper size.
+    #[arg(long, value_enum, default_value_t = PaperArg::A4)]
+    pub page: PaperArg,
+    /// Portrait instead of landscape.
+    #[arg(long)]
+    pub portrait: bool,
+    /// Output file: .svg, .pdf or .png. Sheets of several pages write NAME-2.svg... (PDF: one file).
+    #[arg(short = 'o', long = "output")]
+    pub output: PathBuf,
+    /// Resolution of PNG output, dots per inch.
+    #[arg(long, default_value_t = 150.0)]
+    pub dpi: f64,
+}
+
+#[derive(Args)]
+pub struct ReportArgs {
+    /// Layout file (TOML).
+    pub file: PathBuf,
+    /// Write the whole design to this file: .html gives one self-contained page with every
+    /// table and sheet; .pdf every sheet in one document; .svg or .png give NAME.svg,
+    /// NAME-2.svg, ... Without it, the plan, factors and field reports are printed as text.
+    #[arg(short = 'o', long = "output")]
+    pub output: Option<PathBuf>,
+    /// For a coil list: the intended design to audit it against (HTML report).
+    #[arg(long)]
+    pub intended: Option<PathBuf>,
+    /// Paper size.
+    #[arg(long, value_enum, default_value_t = PaperArg::A4)]
+    pub page: PaperArg,
+    /// Portrait instead of landscape.
+    #[arg(long)]
+    pub portrait: bool,
+    /// Resolution of PNG output, dots per inch.
+    #[arg(long, default_value_t = 150.0)]
+    pub dpi: f64,
+}
+
+#[derive(Args)]
+pub struct ThrustArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Feed a fixed r.m.s. phase current, amperes, instead of the supply voltage.
+    #[arg(long, value_parser = flags::current)]
+    pub current: Option<f64>,
+    /// Slip range, e.g. 0..=1 or -0.2..=1.2 (below 0 generating, above 1 plugging).
+    #[arg(long, default_value = "0..=1", allow_hyphen_values = true, value_parser = flags::slip_range)]
+    pub slip: (f64, f64),
+    /// Speed range of the secondary instead, m/s, e.g. 0..=6 (turned into slips).
+    #[arg(long, allow_hyphen_values = true, conflicts_with = "slip", value_parser = flags::speed_range)]
+    pub speed: Option<(f64, f64)>,
+    /// Intervals between the first and last slip of the table.
+    #[arg(long, default_value = "20", value_parser = flags::steps)]
+    pub steps: usize,
+    /// Leave out the longitudinal end effect, to see what the ends cost.
+    #[arg(long = "no-end-effect")]
+    pub no_end_effect: bool,
+}
+
+#[derive(Args)]
+pub struct InductanceArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Also give the coil-by-coil matrix (windings of up to 200 coils).
+    #[arg(long)]
+    pub coils: bool,
+}
+
+#[derive(Args)]
+pub struct FactorsArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Highest electrical order listed.
+    #[arg(long, default_value_t = 25.0)]
+    pub upto: f64,
+}
+
+#[derive(Args)]
+pub struct AuditArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// The intended design (layout file) to compare with slot by slot.
+    #[arg(long)]
+    pub intended: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct RewindArgs {
+    /// Old design (layout file with its turns per coil and supply).
+    pub from: PathBuf,
+    /// New design (layout file: changed span, layers, connection, paths, voltage or frequency).
+    pub to: PathBuf,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    pub format: FormatArg,
+    /// Bare copper diameter of one old wire, in mm (as measured with a micrometer).
+    #[arg(long = "wire-diameter-mm", conflicts_with = "conductor_mm2")]
+    pub wire_diameter_mm: Option<f64>,
+    /// Bare copper cross-section of one old wire, in mm².
+    #[arg(long = "conductor-mm2")]
+    pub conductor_mm2: Option<f64>,
+    /// Wires in hand (wound in parallel as one conductor) in the old winding.
+    #[arg(long = "wires-in-hand", default_value_t = 1)]
+    pub wires_in_hand: u32,
+    /// Rated line current of the old winding, amperes (nameplate), for the new rating.
+    #[arg(long = "line-current-a", value_parser = flags::current)]
+    pub line_current_a: Option<f64>,
+}
+
+#[derive(Args)]
+pub struct FieldArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Highest electrical order listed.
+    #[arg(long, default_value_t = 25.0)]
+    pub upto: f64,
+    /// Instant of the MMF snapshot, electrical degrees (omega*t).
+    #[arg(long = "at-deg", default_value_t = 0.0, allow_negative_numbers = true)]
+    pub at_deg: f64,
+    /// Balanced phase currents in this sequence.
+    #[arg(long, value_enum, default_value_t = SequenceArg::Positive, conflicts_with = "currents")]
+    pub sequence: SequenceArg,
+    /// Phase-current phasors, one per phase: "magnitude@angle_deg,..." e.g. "1@0,1@-120,1@120".
+    #[arg(long)]
+    pub currents: Option<String>,
+    /// Slot-opening width in slot pitches (0 to below 1); current spread evenly across it.
+    #[arg(
+        long = "slot-opening",
+        default_value_t = 0.0,
+        allow_negative_numbers = true
+    )]
+    pub slot_opening: f64,
+    /// Slip of the secondary for its speed (below 0 generating, above 1 plugging).
+    #[arg(long, allow_negative_numbers = true, value_parser = flags::slip)]
+    pub slip: Option<f64>,
+    /// Also write the field sheet (SVG) to this file.
+    #[arg(long)]
+    pub svg: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct PitchArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Harmonic orders to suppress, comma-separated.
+    #[arg(long, value_delimiter = ',', default_value = "5,7,11,13", value_parser = flags::harmonic)]
+    pub suppress: Vec<f64>,
+    /// Lowest acceptable fundamental winding factor k_w1.
+    #[arg(long = "min-fundamental", default_value = "0.9", value_parser = flags::winding_factor)]
+    pub min_fundamental: f64,
+    /// Also draw factor against span as an SVG chart to this file.
+    #[arg(long)]
+    pub svg: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct SurveyArgs {
+    /// Slot counts, e.g. 12..=48 (or a single count).
+    #[arg(long, value_parser = flags::slot_range)]
+    pub slots: RangeInclusive<usize>,
+    /// Pole counts, e.g. 2..=16 (rotary: odd counts are skipped).
+    #[arg(long, value_parser = flags::pole_range)]
+    pub poles: RangeInclusive<usize>,
+    /// Layer counts to try, comma-separated.
+    #[arg(long, value_delimiter = ',', default_value = "2", value_parser = flags::layers)]
+    pub layers: Vec<usize>,
+    /// Phase count (odd, 3 or more).
+    #[arg(long, default_value = "3", value_parser = flags::phases)]
+    pub phases: usize,
+    /// Closed rotary core or flat linear primary.
+    #[arg(long, value_enum, default_value_t = TopologyArg::Rotary)]
+    pub topology: TopologyArg,
+    /// Keep only combinations with k_w1 at least this.
+    #[arg(long = "min-kw")]
+    pub min_kw: Option<f64>,
+    /// Keep only feasible combinations.
+    #[arg(long)]
+    pub feasible: bool,
+    /// Sort order.
+    #[arg(long, value_enum, default_value_t = SortArg::Slots)]
+    pub sort: SortArg,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    pub format: FormatArg,
+}
+
+#[derive(Clone, Copy, clap::ValueEnum)]
+pub enum TopologyArg {
+    Rotary,
+    Linear,
+}

@@ -1,7 +1,17 @@
-//! The command line's own parts: failures with their exit status, and files.
+//! The command line's parts: arguments, commands, files, and failures with their exit
+//! status.
 
 pub mod args;
+pub mod commands;
 pub mod files;
+pub mod flags;
+
+use std::io::Write;
+
+/// A line on stderr for the user; a closed stderr is not worth failing over.
+pub fn note(message: &str) {
+    let _ = writeln!(std::io::stderr().lock(), "{message}");
+}
 
 /// Exit status for output that could not be made or written, or a failure inside the tool:
 /// apart from 1 (an audit found faults) and 2 (bad input or usage).

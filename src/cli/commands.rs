@@ -1,0 +1,524 @@
+//! The commands: check the flags, read the layout files, call the library, present the
+//! reports and write the files asked for.
+
+use std::io::IsTerminal;
+use std::path::{Path, PathBuf};
+
+use super::files::{self, check_output, write_set};
+use super::{Failure, note};
+use indicatif::ProgressBar;
+
+use beltwright::audit;
+use beltwright::draw::span_chart::pitch_chart;
+use beltwright::draw::{self, FileKind, Orientation, Page, Sheet};
+use beltwright::factors;
+use beltwright::field::{self, FieldOptions};
+use beltwright::layout;
+use beltwright::linear::Operating;
+use beltwright::output::{Format, Report, render};
+use beltwright::pitch::{self, PitchGoal};
+use beltwright::plan;
+use beltwright::rewind::{self, OldConductor};
+use beltwright::survey::{self, SurveyQuery};
+use beltwright::winding::{self, Topology, Winding};
+
+use super::args::*;
+
+/// Largest Σ(slots) × poles × planned layers a survey plans row by row.
+const SURVEY_PLANNED_WORK: f64 = 2.5e7;
+
+pub fn run(cli: Cli) -> Result<String, Failure> {
+    match cli.command {
+        Command::Plan(a) => {
+            let w = load(&a.common.file)?;
+            let op = Operating {
+                slip: a.slip,
+                airgap_power_w: a.airgap_power_w,
+            };
+            let report = plan::plan(&w, op);
+            if let Some(dir) = &a.out {
+                write_pack(&w, &a.common.file, dir, &report)?;
+            }
+            present(&report, a.common.format)
+        }
+        Command::Draw(a) => {
+            let kind = sheet_kind(&a.output, a.dpi)?;
+            let w = load(&a.file)?;
+            let pages = draw::draw(&w, a.sheet.into(), &page_of(a.page, a.portrait));
+            let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
+            Ok(wrote(&written))
+        }
+        Command::Report(a) => {
+            let Some(out) = &a.output else {
+                let w = load(&a.file)?;
+                let mut text = present(&plan::plan(&w, Operating::default()), Format::Text)?;
+                text += "\n";
+                text += &present(&factors::factor_table(&w, 25.0), Format::Text)?;
+                if let Ok(f) = field::field(&w, &FieldOptions::balanced(&w)) {
+                    text += "\n";
+                    text += &present(&f, Format::Text)?;
+                }
+                return Ok(text);
+            };
+            if out
+                .extension()
+                .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
+            {
+                let (spec, name, source) = read_spec_source(&a.file)?;
+                let w = winding::build_lenient(&spec)
+                    .map_err(|e| plan_failure(&name, &source, &spec, &e))?;
+                let intended = match &a.intended {
+                    Some(p) => Some(load(p)?),
+                    None => None,
+                };
+                let html = beltwright::output::html::document(&w, intended.as_ref());
+                write_atomic(out, &a.file, html.as_bytes(), "-o")?;
+                return Ok(wrote(std::slice::from_ref(out)));
+            }
+            let kind = sheet_kind(out, a.dpi)?;
+            let w = load(&a.file)?;
+            let page = page_of(a.page, a.portrait);
+            let pages: Vec<String> = Sheet::ALL
+                .into_iter()
+                .filter(|s| s.applies(&w))
+                .flat_map(|sheet| draw::draw(&w, sheet, &page))
+                .collect();
+            let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
+            Ok(wrote(&written))
+        }
+        Command::Factors(a) => {
+            if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
+                return Err(Failure::input(format!(
+                    "--upto {} is not valid; give an order from 1 to 10000",
+                    a.upto
+                )));
+            }
+            let w = load(&a.common.file)?;
+            present(&factors::factor_table(&w, a.upto), a.common.format)
+        }
+        Command::Card(a) => {
+            let w = load(&a.file)?;
+            present(&beltwright::card::card(&w), a.format)
+        }
+        Command::Completions { shell } => {
+            let mut cmd = <Cli as clap::CommandFactory>::command();
+            let mut buf = Vec::new();
+            clap_complete::generate(shell, &mut cmd, "beltwright", &mut buf);
+            String::from_utf8(buf).map_err(|e| Failure::output(e.to_string()))
+        }
+        Command::Man => {
+            let cmd = <Cli as clap::CommandFactory>::command();
+            let mut buf = Vec::new();
+            clap_mangen::Man::new(cmd)
+                .render(&mut buf)
+                .map_err(|e| Failure::output(e.to_string()))?;
+            String::from_utf8(buf).map_err(|e| Failure::output(e.to_string()))
+        }
+        Command::Thrust(a) => run_thrust(a),
+        Command::Inductance(a) => {
+            let w = load(&a.common.file)?;
+            let r = beltwright::inductance::inductance(&w, a.coils)
+                .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
+            present(&r, a.common.format)
+        }
+        Command::Field(a) => run_field(a),
+        Command::Pitch(a) => pitch(a),
+        Command::Survey(a) => survey(a),
+        Command::Audit(a) => run_audit(a),
+        Command::Rewind(a) => run_rewind(a),
+    }
+}
+
+fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
+    let slips = a.slip;
+    let w = load(&a.common.file)?;
+    // A speed range becomes the slips s = 1 − v/v_s, fastest first.
+    let (from, to) = match a.speed {
+        None => slips,
+        Some((v0, v1)) => {
+            let vs = beltwright::linear::figures(&w, Default::default())
+                .synchronous_speed_m_s
+                .filter(|v| *v > 0.0)
+                .ok_or_else(|| {
+                    Failure::input(
+                        "--speed needs the synchronous speed: give core.slot_pitch_mm and \
+                         supply.frequency_hz",
+                    )
+                })?;
+            // Rounding dust at synchronism and standstill would read as a tiny slip.
+            let snap = |s: f64| {
+                if s.abs() < 1e-12 {
+                    0.0
+                } else if (s - 1.0).abs() < 1e-12 {
+                    1.0
+                } else {
+                    s
+                }
+            };
+            (snap(1.0 - v1 / vs), snap(1.0 - v0 / vs))
+        }
+    };
+    let q = beltwright::thrust::ThrustQuery {
+        current_a: a.current,
+        slip_from: from,
+        slip_to: to,
+        steps: if from == to { 1 } else { a.steps },
+        end_effect: !a.no_end_effect,
+    };
+    let r = beltwright::thrust::thrust(&w, &q)
+        .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
+    present(&r, a.common.format)
+}
+
+fn run_audit(a: AuditArgs) -> Result<String, Failure> {
+    let (spec, name, source) = read_spec_source(&a.common.file)?;
+    let w = winding::build_lenient(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))?;
+    let design = match &a.intended {
+        Some(p) => {
+            let d = load(p)?;
+            if d.geometry.slots != w.geometry.slots {
+                return Err(Failure::input(format!(
+                    "--intended {}: the design has {} slots but the record {} has {}; compare \
+                     designs of the same core",
+                    p.display(),
+                    d.geometry.slots,
+                    name,
+                    w.geometry.slots
+                )));
+            }
+            Some(d)
+        }
+        None => None,
+    };
+    let report = audit::audit(&w, design.as_ref());
+    let out = present(&report, a.common.format)?;
+    if report.sound {
+        Ok(out)
+    } else {
+        Err(Failure {
+            message: format!(
+                "{name}: the audit found {} problem(s); see the findings",
+                report.findings.len()
+            ),
+            status: 1,
+            report: Some(out),
+        })
+    }
+}
+
+fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
+    let check = |flag: &str, v: f64| {
+        if v.is_finite() && v > 0.0 && v < 1000.0 {
+            Ok(v)
+        } else {
+            Err(Failure::input(format!(
+                "{flag} {v} is not valid; give a positive size below 1000"
+            )))
+        }
+    };
+    let conductor = match (a.wire_diameter_mm, a.conductor_mm2) {
+        (Some(d), _) => Some(OldConductor::DiameterMm(check("--wire-diameter-mm", d)?)),
+        (None, Some(x)) => Some(OldConductor::AreaMm2(check("--conductor-mm2", x)?)),
+        (None, None) => None,
+    };
+    if !(1..=100).contains(&a.wires_in_hand) {
+        return Err(Failure::input(format!(
+            "--wires-in-hand {} is not valid; give 1 to 100",
+            a.wires_in_hand
+        )));
+    }
+    let old = load(&a.from)?;
+    let new = load(&a.to)?;
+    let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a)
+        .map_err(|e| Failure::input(format!("{} -> {}: {e}", a.from.display(), a.to.display())))?;
+    present(&report, a.format)
+}
+
+/// `beltwright field`: check the flags, compute, present, and write the sheet if asked.
+fn run_field(a: FieldArgs) -> Result<String, Failure> {
+    if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
+        return Err(Failure::input(format!(
+            "--upto {} is not valid; give an order from 1 to 10000",
+            a.upto
+        )));
+    }
+    if !(a.at_deg.is_finite() && a.at_deg.abs() <= 1e6) {
+        return Err(Failure::input(format!(
+            "--at-deg {} is not valid; give an angle in degrees",
+            a.at_deg
+        )));
+    }
+    if !(a.slot_opening.is_finite() && (0.0..field::MAX_OPENING).contains(&a.slot_opening)) {
+        return Err(Failure::input(format!(
+            "--slot-opening {} is not valid; give a width from 0 up to (not including) 1 slot pitch",
+            a.slot_opening
+        )));
+    }
+    if let Some(out) = &a.svg {
+        check_output(out, &[&a.common.file], "--svg")?;
+    }
+    let w = load(&a.common.file)?;
+    let orders = (a.upto * w.geometry.poles as f64 / 2.0).floor();
+    if orders > field::MAX_ORDERS as f64 {
+        return Err(Failure::input(format!(
+            "--upto {} would list {orders} mechanical orders on this {}-pole core; give at most {}",
+            a.upto,
+            w.geometry.poles,
+            field::MAX_ORDERS as f64 / (w.geometry.poles as f64 / 2.0)
+        )));
+    }
+    let currents = match &a.currents {
+        Some(text) => field::parse_currents(text, w.geometry.phases)
+            .map_err(|e| Failure::input(format!("--currents: {e}")))?,
+        None => field::balanced_currents(w.geometry.phases, a.sequence.into()),
+    };
+    let opts = FieldOptions {
+        currents,
+        opening: a.slot_opening,
+        upto: a.upto,
+        at_deg: a.at_deg,
+        slip: a.slip,
+    };
+    let name = a.common.file.display().to_string();
+    let fail = |e: field::FieldError| Failure::input(format!("{name}: {e}"));
+    let report = field::field(&w, &opts).map_err(fail)?;
+    if let Some(out) = &a.svg {
+        let snaps = field::snapshots(&w, &opts, 6).map_err(fail)?;
+        write_atomic(
+            out,
+            &a.common.file,
+            draw::field_chart::field_sheet(&report, &snaps).as_bytes(),
+            "--svg",
+        )?;
+    }
+    present(&report, a.common.format)
+}
+
+fn pitch(a: PitchArgs) -> Result<String, Failure> {
+    if let Some(path) = &a.svg {
+        check_output(path, &[&a.common.file], "--svg")?;
+    }
+    let w = load(&a.common.file)?;
+    let goal = PitchGoal {
+        suppress: a.suppress,
+        min_fundamental: a.min_fundamental,
+    };
+    let report = pitch::compare(&w, &goal);
+    if let Some(path) = &a.svg {
+        write_atomic(
+            path,
+            &a.common.file,
+            pitch_chart(&report).as_bytes(),
+            "--svg",
+        )?;
+    }
+    present(&report, a.common.format)
+}
+
+fn survey(a: SurveyArgs) -> Result<String, Failure> {
+    let (lo, hi) = (*a.slots.start(), *a.slots.end());
+    let (plo, phi) = (*a.poles.start(), *a.poles.end());
+    let combos = (hi - lo + 1) * (phi - plo + 1) * a.layers.len();
+    if combos > 2_000_000 {
+        return Err(Failure::input(format!(
+            "{combos} combinations is too many for one survey; narrow --slots or --poles"
+        )));
+    }
+    // Rows the star-of-slots kernel cannot score (single layer, flat primaries) are planned
+    // one by one at a cost that grows with the slot count: bound their total so a survey
+    // finishes in seconds (about 11 s at the bound on a 2-core machine).
+    let planned_layers = a
+        .layers
+        .iter()
+        .filter(|&&l| l == 1 || matches!(a.topology, TopologyArg::Linear))
+        .count();
+    let slot_sum: usize = (lo..=hi).sum();
+    let work = slot_sum as f64 * (phi - plo + 1) as f64 * planned_layers as f64;
+    if work > SURVEY_PLANNED_WORK {
+        return Err(Failure::input(format!(
+            "this survey would plan {} slot-rows one by one (single-layer or flat-primary \
+             rows); at most {} are planned in one survey; narrow --slots or --poles",
+            beltwright::numbering::short(work),
+            beltwright::numbering::short(SURVEY_PLANNED_WORK)
+        )));
+    }
+    let query = SurveyQuery {
+        slots: a.slots,
+        poles: a.poles,
+        layers: a.layers,
+        phases: a.phases,
+        topology: match a.topology {
+            TopologyArg::Rotary => Topology::Rotary,
+            TopologyArg::Linear => Topology::Linear,
+        },
+    };
+    let n = survey::combinations(&query).len() as u64;
+    // On a terminal any survey that may take a second shows its progress.
+    // Off a terminal nothing is shown and nothing is counted: a hidden bar's inc() still
+    // takes its lock, once per combination.
+    let mut report = if std::io::stderr().is_terminal() && n > 200 {
+        let bar = ProgressBar::new(n);
+        let report = survey::survey(&query, &|| bar.inc(1));
+        bar.finish_and_clear();
+        report
+    } else {
+        survey::survey(&query, &|| {})
+    };
+    survey::filter_and_sort(&mut report, a.min_kw, a.feasible, a.sort.into());
+    present(&report, a.format)
+}
+
+/// Write one output file (as a set of one), never over an input.
+fn write_atomic(path: &Path, input: &Path, bytes: &[u8], flag: &str) -> Result<(), Failure> {
+    write_set(&[(path.to_path_buf(), bytes.to_vec())], &[], &[input], flag)
+}
+
+fn present<R: Report>(report: &R, format: impl Into<Format>) -> Result<String, Failure> {
+    render(report, format.into())
+        .map_err(|e| Failure::output(format!("could not write the report: {e}")))
+}
+
+/// Read and validate a layout file and build its winding.
+fn load(path: &Path) -> Result<Winding, Failure> {
+    let (spec, name, source) = read_spec_source(path)?;
+    winding::build(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))
+}
+
+/// A winding refused after parsing, with the key (and its line) the refusal is about.
+fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::PlanError) -> Failure {
+    use winding::PlanError;
+    let (table, index, key) = match e {
+        PlanError::Paths { .. } => ("winding", 0, "parallel_paths"),
+        PlanError::Overfilled { coils, .. } => ("coil", coils.first().map_or(0, |c| c - 1), "go"),
+        PlanError::Infeasible(_) if spec.design.pitch.is_some() && spec.coils.is_empty() => {
+            ("winding", 0, "pitch")
+        }
+        PlanError::Infeasible(_) => ("machine", 0, "slots"),
+    };
+    let dotted = if table == "coil" {
+        format!("coil[{}].{key}", index + 1)
+    } else {
+        format!("{table}.{key}")
+    };
+    let line = layout::locate(source, table, index, key)
+        .map(|l| format!(", line {l}"))
+        .unwrap_or_default();
+    Failure::input(format!("{name}{line}: {dotted}: {e}"))
+}
+
+/// Read and validate a layout file, keeping its text for line numbers.
+fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, String), Failure> {
+    let name = path.display().to_string();
+    let source = files::read_layout(path)?;
+    let spec = layout::parse(&source, &name).map_err(|e| Failure::input(e.to_string()))?;
+    Ok((spec, name, source))
+}
+
+/// Write one sheet's pages in `kind` to `path` (and `NAME-2.ext`... for SVG/PNG pages).
+fn write_sheet(
+    pages: &[String],
+    kind: FileKind,
+    path: &Path,
+    input: &Path,
+    dpi: f64,
+) -> Result<Vec<PathBuf>, Failure> {
+    let export = |e: draw::ExportError| Failure::output(format!("{}: {e}", path.display()));
+    let files: Vec<(PathBuf, Vec<u8>)> = match kind {
+        FileKind::Pdf => vec![(
+            path.to_path_buf(),
+            draw::export::to_pdf(pages).map_err(export)?,
+        )],
+        FileKind::Svg | FileKind::Png => {
+            let names = draw::export::page_paths(path, pages.len());
+            let mut v = Vec::with_capacity(pages.len());
+            for (name, svg) in names.into_iter().zip(pages) {
+                let bytes = match kind {
+                    FileKind::Png => draw::export::to_png(svg, dpi).map_err(export)?,
+                    _ => svg.clone().into_bytes(),
+                };
+                v.push((name, bytes));
+            }
+            v
+        }
+    };
+    // Pages of an earlier, longer set under this name (NAME-k.ext beyond this set's last).
+    let stale = match kind {
+        FileKind::Pdf => Vec::new(),
+        _ => draw::export::page_names(path, files.len()..files.len() + 4096)
+            .into_iter()
+            .take_while(|p| p.exists())
+            .collect(),
+    };
+    write_set(&files, &stale, &[input], "-o")?;
+    Ok(files.into_iter().map(|(n, _)| n).collect())
+}
+
+/// The output kind named by a sheet file's extension, with the PNG resolution checked.
+fn sheet_kind(output: &Path, dpi: f64) -> Result<FileKind, Failure> {
+    let kind = FileKind::of_path(output).ok_or_else(|| {
+        Failure::input(format!(
+            "-o {}: give a file name ending in .svg, .pdf or .png (report also takes .html)",
+            output.display()
+        ))
+    })?;
+    if !(dpi.is_finite() && (10.0..=1200.0).contains(&dpi)) {
+        return Err(Failure::input(format!(
+            "--dpi {dpi} is not valid; give a resolution from 10 to 1200"
+        )));
+    }
+    Ok(kind)
+}
+
+fn page_of(size: PaperArg, portrait: bool) -> Page {
+    Page {
+        size: size.into(),
+        orientation: if portrait {
+            Orientation::Portrait
+        } else {
+            Orientation::Landscape
+        },
+    }
+}
+
+fn wrote(paths: &[PathBuf]) -> String {
+    paths
+        .iter()
+        .map(|p| format!("wrote {}\n", p.display()))
+        .collect()
+}
+
+/// `plan --out DIR`: slot and connection sheets (SVG and PDF) and the plan JSON.
+fn write_pack(
+    w: &Winding,
+    input: &Path,
+    dir: &Path,
+    report: &plan::PlanReport,
+) -> Result<(), Failure> {
+    std::fs::create_dir_all(dir).map_err(|e| {
+        Failure::input(format!(
+            "--out {}: cannot make the folder: {e}",
+            dir.display()
+        ))
+    })?;
+    let stem = input
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "winding".into());
+    let page = Page::default();
+    for sheet in [Sheet::Slots, Sheet::Connections] {
+        let pages = draw::draw(w, sheet, &page);
+        for kind in [FileKind::Svg, FileKind::Pdf] {
+            let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };
+            let path = dir.join(format!("{stem}-{}.{ext}", sheet.name()));
+            for p in write_sheet(&pages, kind, &path, input, 150.0)? {
+                note(&format!("wrote {}", p.display()));
+            }
+        }
+    }
+    let json = render(report, Format::Json)
+        .map_err(|e| Failure::output(format!("could not write the plan JSON: {e}")))?;
+    let path = dir.join(format!("{stem}-plan.json"));
+    write_atomic(&path, input, json.as_bytes(), "--out")?;
+    note(&format!("wrote {}", path.display()));
+    Ok(())
+}

@@ -1,0 +1,176 @@
+//! What a flag's value may be, checked once as clap parses it: every parser here turns the
+//! text into the value the commands use or says what would be valid (clap names the flag
+//! and exits with status 2).
+
+use std::ops::RangeInclusive;
+
+use beltwright::layout::{MAX_PHASES, MAX_POLES, MAX_SLOTS};
+use beltwright::numbering::short;
+
+fn number(s: &str) -> Result<f64, String> {
+    s.trim()
+        .parse::<f64>()
+        .ok()
+        .filter(|x| x.is_finite())
+        .ok_or_else(|| "not a number".to_string())
+}
+
+fn whole(s: &str) -> Result<usize, String> {
+    s.trim()
+        .parse::<usize>()
+        .map_err(|_| "not a whole number".to_string())
+}
+
+/// A slip from -10 to 10: below 0 the secondary overtakes the field (generating), above 1
+/// it runs against it (plugging).
+pub fn slip(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|x| (-10.0..=10.0).contains(x))
+        .ok_or_else(|| {
+            "give a slip from -10 to 10 (below 0 generating, above 1 plugging)".to_string()
+        })
+}
+
+/// A current from 0.001 to 100 000 A.
+pub fn current(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|i| (1e-3..=1e5).contains(i))
+        .ok_or_else(|| "give a current from 0.001 to 100000 A".to_string())
+}
+
+/// A power of 0 W or more.
+pub fn power(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|p| *p >= 0.0)
+        .ok_or_else(|| "give a power of 0 W or more".to_string())
+}
+
+/// `A..=B` of real numbers within ±`limit`, or one number.
+fn range_f64(s: &str, limit: f64, example: &str) -> Result<(f64, f64), String> {
+    let bad = || format!("not a range; write A..=B, e.g. {example}");
+    let num = |t: &str| number(t).map_err(|_| bad());
+    let (a, b) = match s.split_once("..=") {
+        Some((a, b)) => (num(a)?, num(b)?),
+        None => {
+            let v = num(s)?;
+            (v, v)
+        }
+    };
+    if a.abs() > limit || b.abs() > limit || a > b {
+        return Err(format!(
+            "give A..=B with A no more than B, within ±{}",
+            short(limit)
+        ));
+    }
+    Ok((a, b))
+}
+
+/// A slip range within ±10, e.g. `0..=1`.
+pub fn slip_range(s: &str) -> Result<(f64, f64), String> {
+    range_f64(s, 10.0, "0..=1")
+}
+
+/// A speed range within ±10 000 m/s, e.g. `0..=6`.
+pub fn speed_range(s: &str) -> Result<(f64, f64), String> {
+    range_f64(s, 1e4, "0..=6")
+}
+
+/// Intervals of a table: 1 to 10 000.
+pub fn steps(s: &str) -> Result<usize, String> {
+    whole(s)
+        .ok()
+        .filter(|n| (1..=10_000).contains(n))
+        .ok_or_else(|| "give 1 to 10000".to_string())
+}
+
+/// A winding factor from 0 to 1.
+pub fn winding_factor(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|k| (0.0..=1.0).contains(k))
+        .ok_or_else(|| "give a winding factor from 0 to 1".to_string())
+}
+
+/// A harmonic order to suppress: above 0, at most 10 000, not the working wave.
+pub fn harmonic(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|o| *o > 0.0 && *o <= 10_000.0 && *o != 1.0)
+        .ok_or_else(|| "give harmonic orders other than 1 (the working wave), e.g. 5,7".to_string())
+}
+
+/// `A..=B`, `A..B` or a single number.
+fn range(s: &str) -> Result<RangeInclusive<usize>, String> {
+    let bad = || "not a range; write A..=B (e.g. 12..=48) or one number".to_string();
+    let num = |t: &str| whole(t).map_err(|_| bad());
+    let (a, b) = if let Some((a, b)) = s.split_once("..=") {
+        (num(a)?, num(b)?)
+    } else if let Some((a, b)) = s.split_once("..") {
+        (num(a)?, num(b)?.checked_sub(1).ok_or_else(bad)?)
+    } else {
+        let n = num(s)?;
+        (n, n)
+    };
+    if a > b {
+        return Err("an empty range; the first number must not exceed the last".to_string());
+    }
+    Ok(a..=b)
+}
+
+/// Slot counts from 3 to the layout file's largest.
+pub fn slot_range(s: &str) -> Result<RangeInclusive<usize>, String> {
+    let r = range(s)?;
+    if *r.start() < 3 || *r.end() > MAX_SLOTS {
+        return Err(format!("slot counts run from 3 to {MAX_SLOTS}"));
+    }
+    Ok(r)
+}
+
+/// Pole counts from 1 to the layout file's largest.
+pub fn pole_range(s: &str) -> Result<RangeInclusive<usize>, String> {
+    let r = range(s)?;
+    if *r.start() < 1 || *r.end() > MAX_POLES {
+        return Err(format!("pole counts run from 1 to {MAX_POLES}"));
+    }
+    Ok(r)
+}
+
+/// Layers per slot: 1 or 2.
+pub fn layers(s: &str) -> Result<usize, String> {
+    whole(s)
+        .ok()
+        .filter(|l| (1..=2).contains(l))
+        .ok_or_else(|| "give 1, 2 or 1,2".to_string())
+}
+
+/// An odd phase count from 3 to the layout file's largest.
+pub fn phases(s: &str) -> Result<usize, String> {
+    whole(s)
+        .ok()
+        .filter(|m| *m >= 3 && !m.is_multiple_of(2) && *m <= MAX_PHASES)
+        .ok_or_else(|| format!("give an odd phase count from 3 to {MAX_PHASES}"))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn each_flag_takes_its_range_and_refuses_the_rest() {
+        assert_eq!(slip("-0.1"), Ok(-0.1));
+        assert!(slip("11").is_err() && slip("NaN").is_err() && slip("x").is_err());
+        assert!(current("0").is_err() && current("5").is_ok());
+        assert!(power("-1").is_err() && power("0").is_ok());
+        assert_eq!(slip_range("-0.2..=1.2"), Ok((-0.2, 1.2)));
+        assert_eq!(slip_range("0.5"), Ok((0.5, 0.5)));
+        assert!(slip_range("1..=0").is_err() && slip_range("0..=11").is_err());
+        assert!(steps("0").is_err() && steps("10001").is_err() && steps("20").is_ok());
+        assert!(harmonic("1").is_err() && harmonic("5").is_ok());
+        assert_eq!(slot_range("6..10"), Ok(6..=9));
+        assert!(slot_range("2..=12").is_err() && pole_range("0..=4").is_err());
+        assert!(layers("3").is_err() && phases("4").is_err() && phases("5").is_ok());
+    }
+}
