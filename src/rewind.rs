@@ -14,12 +14,11 @@
 
 use serde::Serialize;
 use std::f64::consts::PI;
-use thiserror::Error;
 
 use crate::card::wire::{self as wires, StandardWire};
 use crate::factors;
 use crate::safety::CAUTION;
-use crate::winding::{Connection, Winding};
+use crate::winding::{Connection, Topology, Winding};
 
 /// The old conductor as the rewinder measured it.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -30,36 +29,41 @@ pub enum OldConductor {
     DiameterMm(f64),
 }
 
-/// Why a rewind cannot be worked out.
-#[derive(Debug, Error, Clone, PartialEq)]
+/// Why a rewind was refused, as typed facts (worded in `output::refusal_words`).
+#[derive(Debug, Clone, PartialEq)]
 pub enum RewindError {
     /// The two designs are not on the same core.
-    #[error("{0}")]
-    DifferentCore(String),
-    /// A design has no turns in its first phase.
-    #[error("{0}")]
-    NoTurns(String),
+    DifferentCore {
+        /// The old design's core kind and slot count.
+        old: (Topology, usize),
+        /// The new design's.
+        new: (Topology, usize),
+    },
+    /// A design has no turns, coils or fundamental EMF in its first phase.
+    NoTurns(Which),
     /// The old winding is unbalanced: turns worked out from it would be wrong.
-    #[error(
-        "the old winding is not a balanced winding (a coil or group reversed, or coils in the \
-         wrong phase), so turns worked out from it would be wrong; run `beltwright audit` on \
-         it and rewind from the sound design"
-    )]
     OldUnbalanced,
     /// The new design would need more turns per coil than any winding has.
-    #[error(
-        "the new design would need {0} turns per coil, more than the {max} a coil may have; \
-         check the voltages, frequencies and connections of the two designs",
-        max = crate::layout::MAX_TURNS
-    )]
-    TooManyTurns(String),
-    /// The old design gives no supply.
-    #[error(
-        "the old design gives no [supply] {0}; give the supply the old winding was built for \
-         (from its nameplate), so the turns are not worked out from a guess"
-    )]
+    TooManyTurns {
+        /// Turns per coil the new design would need.
+        turns: f64,
+        /// The most a coil may have.
+        max: u32,
+    },
+    /// The old design gives no supply: the `[supply]` key missing.
     OldSupplyMissing(&'static str),
 }
+
+/// Which of the two designs a refusal is about.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Which {
+    /// The winding as found.
+    Old,
+    /// The winding to be wound.
+    New,
+}
+
+impl std::error::Error for RewindError {}
 
 /// One design as the rewind sees it.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
@@ -228,11 +232,10 @@ pub fn rewind(
 ) -> Result<RewindReport, RewindError> {
     let (go, gn) = (&old.geometry, &new.geometry);
     if go.slots != gn.slots || go.topology != gn.topology {
-        return Err(RewindError::DifferentCore(format!(
-            "a rewind keeps the core, but the old design is a {} core of {} slots and the new \
-             one a {} core of {} slots",
-            go.topology, go.slots, gn.topology, gn.slots
-        )));
+        return Err(RewindError::DifferentCore {
+            old: (go.topology, go.slots),
+            new: (gn.topology, gn.slots),
+        });
     }
     if !old.is_balanced() {
         return Err(RewindError::OldUnbalanced);
@@ -263,15 +266,11 @@ pub fn rewind(
     }
     let o = side(old, line_old, f_old, None);
     if o.series_turns <= 0.0 || o.winding_factor <= 0.0 {
-        return Err(RewindError::NoTurns(
-            "the old design has no turns or no fundamental EMF in its first phase".into(),
-        ));
+        return Err(RewindError::NoTurns(Which::Old));
     }
     let n_probe = side(new, line_new, f_new, Some(1.0));
     if n_probe.coils_per_phase == 0 || n_probe.winding_factor <= 0.0 {
-        return Err(RewindError::NoTurns(
-            "the new design has no coils or no fundamental EMF in its first phase".into(),
-        ));
+        return Err(RewindError::NoTurns(Which::New));
     }
     // Same line voltage when none is given: the phase voltage then changes with the connection.
     let v_old = phase_voltage(line_old.unwrap_or(1.0), old.design.connection);
@@ -293,7 +292,10 @@ pub fn rewind(
     let exact = series_exact * a_new / n_probe.coils_per_phase as f64;
     let rounded = exact.round().max(1.0);
     if !rounded.is_finite() || rounded > crate::layout::MAX_TURNS as f64 {
-        return Err(RewindError::TooManyTurns(crate::numbering::short(exact)));
+        return Err(RewindError::TooManyTurns {
+            turns: exact,
+            max: crate::layout::MAX_TURNS,
+        });
     }
     let turns = rounded as u32;
     let n = side(new, line_new, f_new, Some(rounded));

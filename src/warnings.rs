@@ -42,38 +42,6 @@ pub enum DesignWarning {
     },
 }
 
-impl DesignWarning {
-    /// The warning in words.
-    pub fn message(&self) -> String {
-        use crate::numbering::num;
-        match self {
-            DesignWarning::SpanFarFromPolePitch {
-                span,
-                pole_pitch,
-                winding_factor,
-            } => format!(
-                "span {span} is far from the pole pitch of {} slots (k_w1 = {}): choose a span \
-                 near the pole pitch",
-                num(*pole_pitch, 3),
-                num(*winding_factor, 3)
-            ),
-            DesignWarning::LowWindingFactor {
-                winding_factor,
-                floor,
-            } => format!(
-                "k_w1 = {} is below {}: most of the copper does no useful work",
-                num(*winding_factor, 3),
-                num(*floor, 2)
-            ),
-            DesignWarning::PulsatingExceedsWorking { ratio } => format!(
-                "the open ends' pulsating field is {} times the working wave: use a double \
-                 layer (half-filled end slots) or more poles",
-                num(*ratio, 3)
-            ),
-        }
-    }
-}
-
 /// The warnings that follow from the winding alone (the field analysis adds the pulsating
 /// one).
 pub fn design_warnings(w: &Winding) -> Vec<DesignWarning> {

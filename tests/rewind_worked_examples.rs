@@ -123,7 +123,7 @@ fn a_different_core_is_refused() {
     let new = build(&design(48, 4, 11, Connection::Star, 50.0));
     assert!(matches!(
         rewind(&old, &new, None, 1, None),
-        Err(RewindError::DifferentCore(_))
+        Err(RewindError::DifferentCore { .. })
     ));
 }
 

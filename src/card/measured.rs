@@ -56,48 +56,6 @@ pub enum Suggestion {
     Scattered,
 }
 
-impl Suggestion {
-    /// The suggestion in words.
-    pub fn message(&self) -> String {
-        let pct = |r: f64| format!("{:+.1}%", (r - 1.0) * 100.0);
-        match self {
-            Suggestion::AsExpected => "the readings agree with the card".into(),
-            Suggestion::WireSizeStep { ratio, diameter_mm } => format!(
-                "all phases read {} against the card, as a wire of {} mm would: check the \
-                 wire size on the spool",
-                pct(*ratio),
-                crate::numbering::num(*diameter_mm, 3)
-            ),
-            Suggestion::StrandMissing { ratio, strands } => format!(
-                "all phases read {}, as {} strands in hand instead of {strands} would: check \
-                 the strands at the joints",
-                pct(*ratio),
-                strands - 1
-            ),
-            Suggestion::TurnsOrWire { ratio } => format!(
-                "all phases read {} against the card: the turns per coil or the wire differ \
-                 from the card, or the winding is not at the temperature given",
-                pct(*ratio)
-            ),
-            Suggestion::PathOpen { phase, ratio } => format!(
-                "phase {phase} reads {} against the others, as with one parallel path open: \
-                 look for a joint not made in that phase",
-                pct(*ratio)
-            ),
-            Suggestion::PhaseDiffers { phase, ratio } => format!(
-                "phase {phase} reads {} against the others: look for a poor joint, a coil of \
-                 wrong turns or shorted turns in that phase",
-                pct(*ratio)
-            ),
-            Suggestion::Scattered => {
-                "the readings differ in no single-phase pattern: re-measure with clean \
-                 contacts at a steady temperature"
-                    .into()
-            }
-        }
-    }
-}
-
 /// The measured resistances set against the card.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ResistanceCheck {

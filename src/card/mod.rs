@@ -54,29 +54,6 @@ pub enum CardWarning {
     NotThreePhase,
 }
 
-impl CardWarning {
-    /// The warning in words.
-    pub fn message(&self) -> String {
-        match self {
-            CardWarning::FillAboveLimit { fill, limit } => format!(
-                "slot fill {:.0}% by insulated wire is above the usual {:.0}% for hand \
-                 insertion: choose a smaller wire with more strands, or check the slot area",
-                fill * 100.0,
-                limit * 100.0
-            ),
-            CardWarning::NoMeanTurn => "no mean turn: give core.stack_mm and the slot pitch (or \
-                 bore), or core.mean_turn_mm, for resistance and copper mass"
-                .into(),
-            CardWarning::NoWire => "no wire: give [wire] diameter_mm or awg for resistance, \
-                 copper mass and fill"
-                .into(),
-            CardWarning::NotThreePhase => {
-                "lead markings and line resistances are given for three-phase windings only".into()
-            }
-        }
-    }
-}
-
 /// Resistances at one temperature.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct AtTemperature {

@@ -388,8 +388,8 @@ fn load(path: &Path) -> Result<Winding, Failure> {
 fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::PlanError) -> Failure {
     use winding::PlanError;
     let (table, index, key) = match e {
-        PlanError::Paths { .. } => ("winding", 0, "parallel_paths"),
-        PlanError::Overfilled { coils, .. } => ("coil", coils.first().map_or(0, |c| c - 1), "go"),
+        PlanError::Paths(_) => ("winding", 0, "parallel_paths"),
+        PlanError::Overfilled(o) => ("coil", o.coils.first().map_or(0, |c| c - 1), "go"),
         PlanError::Infeasible(_) if spec.design.pitch.is_some() && spec.coils.is_empty() => {
             ("winding", 0, "pitch")
         }

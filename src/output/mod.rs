@@ -9,11 +9,13 @@ mod csv;
 mod field_report;
 pub mod html;
 mod json;
+mod refusal_words;
 pub(crate) mod reports;
 pub mod schema;
 mod table;
 mod text;
 mod thrust_report;
+pub mod warning_words;
 
 pub use card_report::configuration_name;
 pub use csv::Csv;

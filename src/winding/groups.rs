@@ -8,7 +8,7 @@
 use num_complex::Complex64;
 
 use super::star::BALANCE_TOL;
-use super::{PlanError, Topology, Winding};
+use super::{PathChoice, PlanError, Topology, Winding};
 
 /// A run of adjacent coils of one phase and one polarity.
 #[derive(Debug, Clone, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
@@ -146,10 +146,10 @@ pub fn assign_paths(w: &mut Winding, a: usize) -> Result<(), PlanError> {
         match split_phase(w, &mine, a) {
             Some(paths) => plan.extend(mine.iter().zip(paths).map(|(g, p)| (g.coils.clone(), p))),
             None => {
-                return Err(PlanError::Paths {
+                return Err(PlanError::Paths(PathChoice {
                     requested: a,
                     possible: possible_path_counts(w),
-                });
+                }));
             }
         }
     }

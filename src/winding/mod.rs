@@ -7,7 +7,6 @@ pub mod schedule;
 pub mod star;
 mod synth;
 
-use itertools::Itertools;
 use num_complex::Complex64;
 use std::f64::consts::PI;
 use thiserror::Error;
@@ -19,39 +18,129 @@ pub use synth::{
     build, build_lenient, single_layer_rotary_feasible, synthesize, synthesize_brief, with_span,
 };
 
-/// Why a spec could not become a winding.
+/// Why a spec could not become a winding, as typed facts (worded in
+/// `output::refusal_words`, the one place these become sentences).
 #[derive(Debug, Error, Clone, PartialEq)]
 pub enum PlanError {
-    /// No balanced winding exists for the request; the message says why and what would work.
+    /// No balanced winding exists for the request: why, and what would work.
     #[error("{0}")]
-    Infeasible(String),
+    Infeasible(Refusal),
     /// A slot holds more coil sides than it has layers.
-    #[error(
-        "slot {slot} holds {sides} coil sides but the winding has {layers} layer(s): coils {}",
-        coils.iter().join(", ")
-    )]
-    Overfilled {
-        /// Slot number, 1-based.
-        slot: usize,
-        /// How many sides were found.
-        sides: usize,
-        /// Layers per slot.
-        layers: usize,
-        /// Coils involved, 1-based indices into the coil list.
-        coils: Vec<usize>,
-    },
+    #[error("{0}")]
+    Overfilled(Overfill),
     /// The requested parallel path count would make circulating currents.
-    #[error(
-        "{requested} parallel paths would carry unequal EMFs and drive circulating currents; \
-         this winding allows {}",
-        possible.iter().join(", ")
-    )]
-    Paths {
-        /// What the layout asked for.
-        requested: usize,
-        /// Path counts that give every path the same EMF phasor.
-        possible: Vec<usize>,
+    #[error("{0}")]
+    Paths(PathChoice),
+}
+
+/// Why no balanced winding exists for a design, with the numbers that say what would work.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Refusal {
+    /// The slot count cannot carry a balanced winding of this kind for these poles.
+    SlotCount {
+        /// Slots Z.
+        slots: usize,
+        /// Poles 2p.
+        poles: usize,
+        /// Phases m.
+        phases: usize,
+        /// Layers asked for.
+        layers: usize,
+        /// How often a double-layer winding would repeat round the core, gcd(Z, p).
+        periodicity: usize,
+        /// The nearest slot counts below and above that can (searched only where the
+        /// refusal is explained).
+        nearby: (Option<usize>, Option<usize>),
+        /// A single layer was asked for where a double layer fits.
+        double_layer_fits: bool,
     },
+    /// A single-layer flat primary needs an even pole count and 2p·m·q slots.
+    LinearSingleLayer {
+        /// Slots Z.
+        slots: usize,
+        /// Poles 2p.
+        poles: usize,
+        /// Phases m.
+        phases: usize,
+        /// Slots for q = 1 and q = 2 at the next even pole count.
+        fitting_slots: (usize, usize),
+    },
+    /// A double-layer flat primary's coil positions do not make a balanced winding.
+    LinearDoubleLayer {
+        /// Slots Z.
+        slots: usize,
+        /// Poles 2p.
+        poles: usize,
+        /// Phases m.
+        phases: usize,
+        /// Span tried.
+        span: usize,
+        /// Two primaries that would work.
+        options: Vec<LinearOption>,
+    },
+    /// The span links a whole number of pole pairs, so no working flux.
+    SpanLinksNoFlux {
+        /// Span in slot pitches.
+        span: usize,
+        /// Pole pitch in slot pitches.
+        pole_pitch: f64,
+    },
+    /// The span is longer than half a closed core.
+    SpanTooLong {
+        /// Span in slot pitches.
+        span: usize,
+        /// Slots Z.
+        slots: usize,
+    },
+    /// Single-layer tooth coils need an even slot count.
+    ToothCoilsOddSlots {
+        /// Slots Z.
+        slots: usize,
+    },
+    /// Lap coils of this span cannot pair a phase's single-layer slots.
+    LapPairing {
+        /// Span in slot pitches.
+        span: usize,
+        /// Phase label.
+        phase: String,
+        /// The spans that can pair every phase (only where the refusal is explained).
+        spans_that_can: Option<Vec<usize>>,
+    },
+}
+
+/// A double-layer flat primary that would work: q slots per pole per phase.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LinearOption {
+    /// Slots per pole per phase.
+    pub q: usize,
+    /// Slot count needed.
+    pub slots: usize,
+    /// Span that fits its pole pitch.
+    pub span: usize,
+    /// Full-pitch span, q·m.
+    pub full_pitch: usize,
+}
+
+/// A slot holding more coil sides than it has layers.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Overfill {
+    /// Slot number, 1-based.
+    pub slot: usize,
+    /// How many sides were found.
+    pub sides: usize,
+    /// Layers per slot.
+    pub layers: usize,
+    /// Coils involved, 1-based indices into the coil list.
+    pub coils: Vec<usize>,
+}
+
+/// A parallel path count that would drive circulating currents, and those that would not.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PathChoice {
+    /// What the layout asked for.
+    pub requested: usize,
+    /// Path counts that give every path the same EMF phasor.
+    pub possible: Vec<usize>,
 }
 
 /// Geometry of the core and the electrical angle of every slot.

@@ -6,11 +6,11 @@
 
 use super::star::belt_of_slot;
 use super::{
-    Coil, Design, Geometry, Labels, PlanError, Style, Topology, Winding, assign_paths,
-    double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity,
+    Coil, Design, Geometry, Labels, LinearOption, Overfill, PlanError, Refusal, Style, Topology,
+    Winding, assign_paths, double_layer_rotary_feasible, nearby_rotary_slot_counts,
+    rotary_periodicity,
 };
 use crate::layout::{CoilEntry, Spec};
-use itertools::Itertools;
 
 /// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
 pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
@@ -119,11 +119,10 @@ fn rotary_double(bp: &Design) -> Result<Winding, PlanError> {
         None => nearest_full_pitch(geom.pole_pitch_slots),
     };
     if (y * poles / 2) % z == 0 {
-        return Err(PlanError::Infeasible(format!(
-            "span {y} spans a whole number of pole pairs, so its coils link no working flux; \
-             choose a span near the pole pitch of {} slots",
-            crate::numbering::num(geom.pole_pitch_slots, 3)
-        )));
+        return Err(PlanError::Infeasible(Refusal::SpanLinksNoFlux {
+            span: y,
+            pole_pitch: geom.pole_pitch_slots,
+        }));
     }
     let coils = double_layer_coils(&geom, z, y, bp.turns_per_coil);
     let w = blank_winding(bp, geom, y, coils);
@@ -132,15 +131,15 @@ fn rotary_double(bp: &Design) -> Result<Winding, PlanError> {
 
 fn check_rotary_span(z: usize, y: usize) -> Result<usize, PlanError> {
     if 2 * y > z {
-        return Err(PlanError::Infeasible(format!(
-            "span {y} is longer than half of the {z}-slot core; the longest span is {}",
-            z / 2
-        )));
+        return Err(PlanError::Infeasible(Refusal::SpanTooLong {
+            span: y,
+            slots: z,
+        }));
     }
     Ok(y)
 }
 
-fn ensure_balanced(w: Winding, why: impl Fn() -> String) -> Result<Winding, PlanError> {
+fn ensure_balanced(w: Winding, why: impl Fn() -> Refusal) -> Result<Winding, PlanError> {
     if w.is_balanced() {
         Ok(w)
     } else {
@@ -148,14 +147,8 @@ fn ensure_balanced(w: Winding, why: impl Fn() -> String) -> Result<Winding, Plan
     }
 }
 
-/// Refusal text for a rotary core, with the nearest slot counts that work.
-fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
-    let t = rotary_periodicity(z, poles);
-    let kind = if layers == 2 {
-        "double-layer"
-    } else {
-        "single-layer"
-    };
+/// Why a rotary core cannot carry the winding, with the nearest slot counts that can.
+fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> Refusal {
     let ok = |zz: usize| {
         if layers == 2 {
             double_layer_rotary_feasible(zz, poles, m)
@@ -163,27 +156,15 @@ fn rotary_refusal(z: usize, poles: usize, m: usize, layers: usize) -> String {
             single_layer_rotary_feasible(zz, poles, m)
         }
     };
-    let why = if layers == 2 {
-        format!(
-            " ({z} is not a multiple of {m}·gcd({z}, {}) = {})",
-            poles / 2,
-            m * t
-        )
-    } else {
-        String::new()
-    };
-    let mut msg = format!(
-        "{z} slots cannot carry a balanced {m}-phase {kind} winding for {poles} poles{why}"
-    );
-    match nearby_rotary_slot_counts(z, (4 * m * poles.max(2)).min(240), ok) {
-        (Some(lo), Some(hi)) => msg += &format!("; {lo} or {hi} slots can"),
-        (Some(s), None) | (None, Some(s)) => msg += &format!("; {s} slots can"),
-        (None, None) => {}
+    Refusal::SlotCount {
+        slots: z,
+        poles,
+        phases: m,
+        layers,
+        periodicity: rotary_periodicity(z, poles),
+        nearby: nearby_rotary_slot_counts(z, (4 * m * poles.max(2)).min(240), ok),
+        double_layer_fits: layers == 1 && double_layer_rotary_feasible(z, poles, m),
     }
-    if layers == 1 && double_layer_rotary_feasible(z, poles, m) {
-        msg += "; a double-layer winding (layers = 2) fits these slots";
-    }
-    msg
 }
 
 /// A single-layer winding exists on this rotary core (decided by synthesis itself).
@@ -228,32 +209,33 @@ fn linear_double(bp: &Design) -> Result<Winding, PlanError> {
     }
 }
 
-/// Refusal text for a linear primary: how many slots q and the span need.
-fn linear_refusal(bp: &Design, y: usize) -> String {
+/// Why a double-layer flat primary's coil positions make no balanced winding, and the two
+/// slot counts (q and q + 1) that would, each with a span that fits its own pole pitch: the
+/// span asked for where it is within the pole pitch τ = q·m, else full pitch.
+fn linear_refusal(bp: &Design, y: usize) -> Refusal {
     let (z, poles, m) = (bp.slots, bp.poles, bp.phases);
     let unit = poles * m;
-    let n = z.saturating_sub(y);
-    let mut msg = format!(
-        "a linear double-layer primary of {poles} poles with span {y} has {n} coil positions \
-         ({z} slots − {y}), which do not make a balanced {m}-phase winding"
-    );
-    let q_lo = (n / unit).max(1);
-    // Each suggestion names a span that fits its own pole pitch: the span asked for where
-    // it is within the pole pitch τ = q·m, else full pitch.
-    let options: Vec<String> = [q_lo, q_lo + 1]
+    let q_lo = (z.saturating_sub(y) / unit).max(1);
+    let options = [q_lo, q_lo + 1]
         .iter()
         .map(|&q| {
             let tau = q * m;
             let yq = if y <= tau { y } else { tau };
-            format!(
-                "q = {q} needs {} slots with span {yq} ({poles}·{m}·{q} coil positions + {yq}; \
-                 full pitch is span {tau})",
-                unit * q + yq
-            )
+            LinearOption {
+                q,
+                slots: unit * q + yq,
+                span: yq,
+                full_pitch: tau,
+            }
         })
         .collect();
-    msg += &format!("; {}", options.join(", "));
-    msg
+    Refusal::LinearDoubleLayer {
+        slots: z,
+        poles,
+        phases: m,
+        span: y,
+        options,
+    }
 }
 
 /// Single-layer windings: tooth coils on every other tooth (span 1), or lap/concentric coils
@@ -267,17 +249,22 @@ fn single_layer(bp: &Design, explain: bool) -> Result<Winding, PlanError> {
     };
     let refuse = || match bp.topology {
         // Probes and surveys get the reason without the search for nearby slot counts.
-        _ if !explain => format!(
-            "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles"
-        ),
+        _ if !explain => Refusal::SlotCount {
+            slots: z,
+            poles,
+            phases: m,
+            layers: 1,
+            periodicity: 0,
+            nearby: (None, None),
+            double_layer_fits: false,
+        },
         Topology::Rotary => rotary_refusal(z, poles, m, 1),
-        Topology::Linear => format!(
-            "{z} slots cannot carry a balanced {m}-phase single-layer winding for {poles} poles \
-             on a linear primary; it needs an even pole count and 2p·m·q slots, e.g. {} (q = 1) \
-             or {} (q = 2), or use layers = 2",
-            2 * poles.div_ceil(2) * m,
-            4 * poles.div_ceil(2) * m
-        ),
+        Topology::Linear => Refusal::LinearSingleLayer {
+            slots: z,
+            poles,
+            phases: m,
+            fitting_slots: (2 * poles.div_ceil(2) * m, 4 * poles.div_ceil(2) * m),
+        },
     };
     let y_default = nearest_full_pitch(geom.pole_pitch_slots);
     let y = match bp.pitch {
@@ -286,12 +273,9 @@ fn single_layer(bp: &Design, explain: bool) -> Result<Winding, PlanError> {
         None => y_default,
     };
     if y == 1 && bp.style == Style::Lap {
-        let coils = tooth_coils(&geom, bp.turns_per_coil).ok_or_else(|| {
-            PlanError::Infeasible(format!(
-                "single-layer tooth coils wind every other tooth and need an even slot count, \
-                 not {z}"
-            ))
-        })?;
+        let coils = tooth_coils(&geom, bp.turns_per_coil).ok_or(PlanError::Infeasible(
+            Refusal::ToothCoilsOddSlots { slots: z },
+        ))?;
         let w = blank_winding(bp, geom, 1, coils);
         return ensure_balanced(w, refuse);
     }
@@ -337,23 +321,11 @@ fn single_layer(bp: &Design, explain: bool) -> Result<Winding, PlanError> {
             }
         };
         let pairs = pairs.ok_or_else(|| {
-            if !explain {
-                return PlanError::Infeasible(format!(
-                    "span {y} cannot pair the single-layer slots of phase {} in lap coils",
-                    bp.phase_labels[p]
-                ));
-            }
-            let spans = single_layer_spans(&geom, &plus, &minus);
-            PlanError::Infeasible(format!(
-                "span {y} cannot pair the single-layer slots of phase {} in lap coils; \
-                 spans that can: {}",
-                bp.phase_labels[p],
-                if spans.is_empty() {
-                    "none (try style = \"concentric\")".to_string()
-                } else {
-                    spans.iter().join(", ")
-                }
-            ))
+            PlanError::Infeasible(Refusal::LapPairing {
+                span: y,
+                phase: bp.phase_labels[p].clone(),
+                spans_that_can: explain.then(|| single_layer_spans(&geom, &plus, &minus)),
+            })
         })?;
         coils.extend(pairs.into_iter().map(|(go, back)| Coil {
             phase: p,
@@ -691,12 +663,12 @@ fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
     {
         let mut coils: Vec<usize> = cs.iter().map(|i| i + 1).collect();
         coils.dedup();
-        return Err(PlanError::Overfilled {
+        return Err(PlanError::Overfilled(Overfill {
             slot: k + 1,
             sides: cs.len(),
             layers,
             coils,
-        });
+        }));
     }
     let mut w = blank_winding(
         &spec.design,

@@ -1,0 +1,104 @@
+//! Warnings and suggestions in words: the analyses return them as typed facts
+//! ([`DesignWarning`], [`CardWarning`], [`Suggestion`]); this is the one place they become
+//! sentences, for every presenter (text, JSON `message`, sheets, the HTML page).
+
+use crate::card::CardWarning;
+use crate::card::measured::Suggestion;
+use crate::numbering::num;
+use crate::warnings::DesignWarning;
+
+impl DesignWarning {
+    /// The warning in words.
+    pub fn message(&self) -> String {
+        match self {
+            DesignWarning::SpanFarFromPolePitch {
+                span,
+                pole_pitch,
+                winding_factor,
+            } => format!(
+                "span {span} is far from the pole pitch of {} slots (k_w1 = {}): choose a span \
+                 near the pole pitch",
+                num(*pole_pitch, 3),
+                num(*winding_factor, 3)
+            ),
+            DesignWarning::LowWindingFactor {
+                winding_factor,
+                floor,
+            } => format!(
+                "k_w1 = {} is below {}: most of the copper does no useful work",
+                num(*winding_factor, 3),
+                num(*floor, 2)
+            ),
+            DesignWarning::PulsatingExceedsWorking { ratio } => format!(
+                "the open ends' pulsating field is {} times the working wave: use a double \
+                 layer (half-filled end slots) or more poles",
+                num(*ratio, 3)
+            ),
+        }
+    }
+}
+
+impl CardWarning {
+    /// The warning in words.
+    pub fn message(&self) -> String {
+        match self {
+            CardWarning::FillAboveLimit { fill, limit } => format!(
+                "slot fill {:.0}% by insulated wire is above the usual {:.0}% for hand \
+                 insertion: choose a smaller wire with more strands, or check the slot area",
+                fill * 100.0,
+                limit * 100.0
+            ),
+            CardWarning::NoMeanTurn => "no mean turn: give core.stack_mm and the slot pitch (or \
+                 bore), or core.mean_turn_mm, for resistance and copper mass"
+                .into(),
+            CardWarning::NoWire => "no wire: give [wire] diameter_mm or awg for resistance, \
+                 copper mass and fill"
+                .into(),
+            CardWarning::NotThreePhase => {
+                "lead markings and line resistances are given for three-phase windings only".into()
+            }
+        }
+    }
+}
+
+impl Suggestion {
+    /// The suggestion in words.
+    pub fn message(&self) -> String {
+        let pct = |r: f64| format!("{:+.1}%", (r - 1.0) * 100.0);
+        match self {
+            Suggestion::AsExpected => "the readings agree with the card".into(),
+            Suggestion::WireSizeStep { ratio, diameter_mm } => format!(
+                "all phases read {} against the card, as a wire of {} mm would: check the \
+                 wire size on the spool",
+                pct(*ratio),
+                num(*diameter_mm, 3)
+            ),
+            Suggestion::StrandMissing { ratio, strands } => format!(
+                "all phases read {}, as {} strands in hand instead of {strands} would: check \
+                 the strands at the joints",
+                pct(*ratio),
+                strands - 1
+            ),
+            Suggestion::TurnsOrWire { ratio } => format!(
+                "all phases read {} against the card: the turns per coil or the wire differ \
+                 from the card, or the winding is not at the temperature given",
+                pct(*ratio)
+            ),
+            Suggestion::PathOpen { phase, ratio } => format!(
+                "phase {phase} reads {} against the others, as with one parallel path open: \
+                 look for a joint not made in that phase",
+                pct(*ratio)
+            ),
+            Suggestion::PhaseDiffers { phase, ratio } => format!(
+                "phase {phase} reads {} against the others: look for a poor joint, a coil of \
+                 wrong turns or shorted turns in that phase",
+                pct(*ratio)
+            ),
+            Suggestion::Scattered => {
+                "the readings differ in no single-phase pattern: re-measure with clean \
+                 contacts at a steady temperature"
+                    .into()
+            }
+        }
+    }
+}
