@@ -34,6 +34,8 @@ pub struct FactorRow {
 /// Factors of one phase at every present order up to a limit.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct FactorTable {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Phase the factors belong to (the first phase; all are equal when balanced).
     pub phase: String,
     /// Rows in increasing order.
@@ -316,6 +318,7 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
             .collect(),
     };
     FactorTable {
+        design: crate::header::of(w),
         phase: w.design.phase_labels[0].clone(),
         rows,
         single_layer: g.layers == 1 && w.coils.iter().any(|c| w.span(c).abs() != 1),

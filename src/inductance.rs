@@ -42,6 +42,8 @@ pub struct LayoutRank {
 /// The inductance report.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct InductanceReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Title.
     pub title: Option<String>,
     /// Closed core or flat primary.
@@ -309,6 +311,7 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
         Vec::new()
     };
     Ok(InductanceReport {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         topology: w.geometry.topology,
         effective_gap_mm: ge * 1e3,

@@ -12,6 +12,7 @@ pub mod design;
 pub mod draw;
 pub mod factors;
 pub mod field;
+pub mod header;
 pub mod inductance;
 pub mod layout;
 pub mod leakage;

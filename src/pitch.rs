@@ -69,6 +69,8 @@ pub struct PitchRow {
 /// Every feasible span with the recommendation.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PitchReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Title of the design.
     pub title: Option<String>,
     /// Core kind.
@@ -113,6 +115,7 @@ pub fn compare(w: &Winding, goal: &PitchGoal) -> PitchReport {
         .collect();
     let (recommended, reason) = recommend(&rows, goal);
     PitchReport {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,

@@ -74,6 +74,8 @@ pub struct PhasorRow {
 /// The complete plan of a winding.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PlanReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Free text title.
     pub title: Option<String>,
     /// Core kind.
@@ -240,6 +242,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
     let (qn, qd) = w.slots_per_pole_phase();
     let fundamental = factors::fundamental(w);
     PlanReport {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,

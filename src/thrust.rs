@@ -145,6 +145,8 @@ pub struct Row {
 /// The performance report.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ThrustReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Title of the layout.
     pub title: Option<String>,
     /// How the primary was fed.
@@ -469,6 +471,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     let s_max = (lo + hi) / 2.0;
     let f_max = at(s_max);
     Ok(ThrustReport {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         feed,
         end_effect: query.end_effect,

@@ -138,6 +138,8 @@ pub struct PathRow {
 /// The complete audit.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct AuditReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Title of the record.
     pub title: Option<String>,
     /// Slot count.
@@ -739,6 +741,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         Topology::Linear => "the field travels",
     };
     AuditReport {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         slots: g.slots,
         poles: g.poles,

@@ -89,6 +89,8 @@ pub struct Acceptance {
 /// The data card.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct DataCard {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Title of the layout.
     pub title: Option<String>,
     /// Closed core or flat primary.
@@ -372,6 +374,7 @@ pub fn card(w: &Winding) -> DataCard {
     let hipot = rated.map(hipot_new_v);
 
     DataCard {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,

@@ -87,6 +87,8 @@ fn layout(sections: &[Section], width: f64) -> Vec<Item> {
     for s in sections {
         match s {
             Section::Heading(h) => items.push(Item::Heading(h.clone())),
+            // The title block carries the design.
+            Section::Design(_) => {}
             Section::Lines(lines) => {
                 for l in crate::output::paragraphs(lines) {
                     for part in text::wrap(&l, BODY, width) {

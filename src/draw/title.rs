@@ -7,7 +7,6 @@ use svg::node::element::{Group, Rectangle};
 
 use super::page::{Rect, rule};
 use super::text::{self, Anchor, label, r};
-use crate::factors;
 use crate::output::num;
 use crate::plan::CAUTION;
 use crate::winding::{Style, Winding};
@@ -37,10 +36,11 @@ const CAUTION_LINE: f64 = 3.1;
 impl TitleBlock {
     /// The block of a winding's sheet.
     pub fn of(w: &Winding, sheet: &str) -> Self {
-        let g = &w.geometry;
-        let span = match w.design.style {
-            Style::Concentric => format!("{} (mean)", w.pitch),
-            Style::Lap => format!("{}", w.pitch),
+        // The shared design header (the same facts every report opens with).
+        let h = crate::header::of(w);
+        let span = match h.style {
+            Style::Concentric => format!("{} (mean)", h.span),
+            Style::Lap => format!("{}", h.span),
         };
         let unsound = if !w.is_balanced() {
             Some(
@@ -59,20 +59,20 @@ impl TitleBlock {
         };
         TitleBlock {
             unsound,
-            title: w.labels.title.clone().unwrap_or_else(|| {
-                format!("{} core, {} slots, {} poles", g.topology, g.slots, g.poles)
+            title: h.title.clone().unwrap_or_else(|| {
+                format!("{} core, {} slots, {} poles", h.topology, h.slots, h.poles)
             }),
             sheet: sheet.to_string(),
             page: (1, 1),
             fields: vec![
-                ("Slots Z", g.slots.to_string()),
-                ("Poles 2p", g.poles.to_string()),
+                ("Slots Z", h.slots.to_string()),
+                ("Poles 2p", h.poles.to_string()),
                 ("Span y", span),
-                ("Layers", g.layers.to_string()),
-                ("Turns/coil", w.design.turns_per_coil.to_string()),
-                ("Paths a", w.parallel_paths.to_string()),
-                ("Connection", w.design.connection.to_string()),
-                ("k_w1", num(factors::fundamental(w).winding, 4)),
+                ("Layers", h.layers.to_string()),
+                ("Turns/coil", h.turns_per_coil.to_string()),
+                ("Paths a", h.parallel_paths.to_string()),
+                ("Connection", h.connection.to_string()),
+                ("k_w1", num(h.winding_factor, 4)),
                 ("Tool", format!("beltwright {}", env!("CARGO_PKG_VERSION"))),
             ],
         }

@@ -556,6 +556,8 @@ impl FieldOptions {
 /// The travelling-field report.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct FieldReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
     /// Free text title.
     pub title: Option<String>,
     /// Core kind.
@@ -834,6 +836,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         }
     });
     Ok(FieldReport {
+        design: crate::header::of(w),
         title: w.labels.title.clone(),
         topology: g.topology,
         slots: g.slots,

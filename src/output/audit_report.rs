@@ -12,16 +12,14 @@ impl Report for AuditReport {
         s.push(Section::Heading(
             self.title.clone().unwrap_or_else(|| "Winding audit".into()),
         ));
+        s.push(Section::Design(super::design_lines(&self.design)));
         let verdict = if self.sound {
             "SOUND: no findings".to_string()
         } else {
             format!("NOT SOUND: {} finding(s)", self.findings.len())
         };
         let mut head = vec![
-            format!(
-                "{} slots, {} poles, {} layer(s), {} path(s); {verdict}",
-                self.slots, self.poles, self.layers, self.parallel_paths
-            ),
+            verdict,
             format!(
                 "phases balanced: {}; phase sequence {}",
                 if self.balanced { "yes" } else { "NO" },

@@ -44,6 +44,7 @@ impl Report for DataCard {
                 .map(|t| format!(": {t}"))
                 .unwrap_or_default()
         )));
+        s.push(Section::Design(super::design_lines(&self.design)));
         let list = |v: &[usize]| {
             v.iter()
                 .map(|x| x.to_string())
@@ -52,10 +53,7 @@ impl Report for DataCard {
         };
         let mut lines = vec![
             format!(
-                "{} slots, {} poles, {} layer(s); {} coils in {} groups of {} coil(s)",
-                self.slots,
-                self.poles,
-                self.layers,
+                "{} coils in {} groups of {} coil(s)",
                 self.coils,
                 self.groups,
                 list(&self.coils_per_group)
@@ -69,10 +67,6 @@ impl Report for DataCard {
                     .collect::<Vec<_>>()
                     .join(", "),
                 num(self.series_turns_per_phase, 2)
-            ),
-            format!(
-                "{} connection, {} parallel path(s)",
-                self.connection, self.parallel_paths
             ),
         ];
         match &self.wire {

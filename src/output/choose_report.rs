@@ -13,11 +13,7 @@ fn opt(x: Option<f64>, digits: usize) -> String {
 impl Report for PitchReport {
     fn sections(&self) -> Vec<Section> {
         let mut head = vec![format!(
-            "{} slots, {} poles, {} layer(s), pole pitch {} slots; floor k_w1 >= {}",
-            self.slots,
-            self.poles,
-            self.layers,
-            num(self.pole_pitch_slots, 3),
+            "every span compared; floor k_w1 >= {}",
             num(self.min_fundamental, 3)
         )];
         head.push("* recommended   ! below the k_w1 floor".into());
@@ -26,6 +22,7 @@ impl Report for PitchReport {
                 Some(t) => format!("Span comparison: {t}"),
                 None => "Span comparison".into(),
             }),
+            Section::Design(super::design_lines(&self.design)),
             Section::Lines(head),
             Section::Table(self.main_table()),
         ];

@@ -3,7 +3,6 @@
 use super::reports::wrap;
 use super::{Align, Report, Section, Table, num};
 use crate::field::{Direction, FieldReport};
-use crate::winding::Topology;
 use itertools::Itertools;
 
 fn travels(forward: f64, backward: f64) -> &'static str {
@@ -24,10 +23,6 @@ fn travels(forward: f64, backward: f64) -> &'static str {
 impl Report for FieldReport {
     fn sections(&self) -> Vec<Section> {
         let mut s = Vec::new();
-        let kind = match self.topology {
-            Topology::Rotary => "rotary core",
-            Topology::Linear => "linear primary",
-        };
         let currents = self
             .currents
             .iter()
@@ -45,15 +40,6 @@ impl Report for FieldReport {
             Direction::Backward => "backward (toward lower slot numbers)",
         };
         let mut head = vec![
-            format!(
-                "{kind}, {} slots, {} poles, {} phases; span {}, {} layer(s), k_w1 = {}",
-                self.slots,
-                self.poles,
-                self.phases,
-                self.pitch,
-                self.layers,
-                num(self.winding_factor, 4)
-            ),
             format!("phase currents (peak@deg): {currents}"),
             format!(
                 "working wave: travels {dir}, amplitude {} ampere-turns",
@@ -153,6 +139,7 @@ impl Report for FieldReport {
                 .map(|t| format!("Travelling field: {t}"))
                 .unwrap_or_else(|| "Travelling field".into()),
         ));
+        s.push(Section::Design(super::design_lines(&self.design)));
         s.push(Section::Lines(head));
         s.push(Section::Lines(wrap(self.caution, 78)));
         s.push(Section::Heading(format!(

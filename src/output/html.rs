@@ -73,6 +73,8 @@ fn sections(out: &mut String, secs: &[Section]) {
             Section::Heading(h) => {
                 let _ = writeln!(out, "<h3>{}</h3>", escape(h));
             }
+            // The page's header shows the design once.
+            Section::Design(_) => {}
             Section::Lines(lines) => {
                 // A line the terminal wrapped joins the one before: the page reflows it.
                 let paragraphs = super::paragraphs(lines);
@@ -259,17 +261,30 @@ pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
              cleared.</p>\n",
         );
     }
-    let _ = writeln!(
-        out,
-        "<p class=\"line\" id=\"summary\">{} core: <span id=\"slots\">{}</span> slots, {} poles, {} \
-         layer(s), span {}, k_w1 = <span id=\"kw1\">{}</span></p>\n</header>",
-        w.geometry.topology,
-        w.geometry.slots,
-        w.geometry.poles,
-        w.geometry.layers,
-        w.pitch,
-        super::num(p.winding_factor, 4)
-    );
+    // The shared design header, with the slot count and k_w1 marked for readers and tests.
+    let h = &p.design;
+    let lines = super::design_lines(h);
+    let kw = super::num(h.winding_factor, 4);
+    out.push_str("<div id=\"summary\">\n");
+    for (i, l) in lines.iter().enumerate() {
+        let mut l = escape(l);
+        if i == 0 {
+            l = l.replacen(
+                &format!(": {} slots", h.slots),
+                &format!(": <span id=\"slots\">{}</span> slots", h.slots),
+                1,
+            );
+        }
+        if i + 1 == lines.len() {
+            l = l.replacen(
+                &format!("k_w1 = {kw}"),
+                &format!("k_w1 = <span id=\"kw1\">{kw}</span>"),
+                1,
+            );
+        }
+        let _ = writeln!(out, "<p class=\"line\">{l}</p>");
+    }
+    out.push_str("</div>\n</header>\n");
     out.push_str("<nav aria-label=\"Contents\">\n<ul>\n");
     for (id, t) in &toc {
         let _ = writeln!(out, "<li><a href=\"#{id}\">{}</a></li>", escape(t));

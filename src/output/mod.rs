@@ -41,6 +41,9 @@ pub enum Format {
 pub enum Section {
     /// A heading line.
     Heading(String),
+    /// The design header ([`design_lines`]): printed by the terminal, shown once at the top
+    /// of the HTML page and in the sheets' title block instead.
+    Design(Vec<String>),
     /// Free lines of text.
     Lines(Vec<String>),
     /// An aligned table.
@@ -89,4 +92,55 @@ pub fn with_warnings(
 }
 
 pub use crate::numbering::num;
+
+/// The shared design header in words: the same lines open every report.
+pub fn design_lines(h: &crate::header::DesignHeader) -> Vec<String> {
+    use crate::winding::{Style, Topology};
+    let kind = match h.topology {
+        Topology::Rotary => "rotary core",
+        Topology::Linear => "linear primary",
+    };
+    let layers = if h.layers == 2 {
+        "double layer"
+    } else {
+        "single layer"
+    };
+    let (style, mean) = match h.style {
+        Style::Lap if h.span == 1 => ("tooth coils", ""),
+        Style::Lap => ("lap", ""),
+        Style::Concentric => ("concentric", " (mean)"),
+    };
+    let turns = if h.turns_assumed {
+        "1 turn per coil (assumed: winding.turns_per_coil not given)".to_string()
+    } else if h.turns_per_coil == 1 {
+        "1 turn per coil".to_string()
+    } else {
+        format!("{} turns per coil", h.turns_per_coil)
+    };
+    vec![
+        format!(
+            "{kind}: {} slots, {} poles, {} phases{}",
+            h.slots,
+            h.poles,
+            h.phases,
+            if h.recorded {
+                " (recorded coil list)"
+            } else {
+                ""
+            }
+        ),
+        format!(
+            "{layers} {style}, span {}{mean}, pole pitch {} slots, q = {}",
+            h.span,
+            num(h.pole_pitch_slots, 3),
+            h.slots_per_pole_phase
+        ),
+        format!(
+            "{turns}, {} path(s), {} connection; k_w1 = {}",
+            h.parallel_paths,
+            h.connection,
+            num(h.winding_factor, 4)
+        ),
+    ]
+}
 pub use reports::{CONTINUES, paragraphs, wrap, wrap_plain};

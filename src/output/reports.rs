@@ -3,7 +3,6 @@
 use super::{Align, Report, Section, Table, num};
 use crate::factors::FactorTable;
 use crate::plan::PlanReport;
-use crate::winding::{Style, Topology};
 use itertools::Itertools;
 
 /// Marks a line that continues the sentence of the line before (the word joiner U+2060,
@@ -65,62 +64,23 @@ fn opt(x: Option<f64>, digits: usize, unit: &str) -> Option<String> {
 impl Report for PlanReport {
     fn sections(&self) -> Vec<Section> {
         let mut s = Vec::new();
-        let kind = match self.topology {
-            Topology::Rotary => "rotary core",
-            Topology::Linear => "linear primary",
-        };
-        let layers = if self.layers == 2 {
-            "double layer"
-        } else {
-            "single layer"
-        };
-        let style = match self.style {
-            Style::Lap if self.pitch == 1 => "tooth coils",
-            Style::Lap => "lap",
-            Style::Concentric => "concentric",
-        };
-        let mut head = vec![
-            format!(
-                "{kind}: {} slots, {} poles, {} phases",
-                self.slots, self.poles, self.phases
-            ),
-            format!(
-                "{layers} {style}, span {}, pole pitch {} slots, q = {}",
-                self.pitch,
-                num(self.pole_pitch_slots, 3),
-                self.slots_per_pole_phase_fraction
-            ),
-            format!(
-                "{}, {} path(s), {} connection{}",
-                if self.turns_assumed {
-                    "1 turn per coil (assumed: winding.turns_per_coil not given)".to_string()
-                } else if self.turns_per_coil == 1 {
-                    "1 turn per coil".to_string()
-                } else {
-                    format!("{} turns per coil", self.turns_per_coil)
-                },
-                self.parallel_paths,
-                self.connection,
-                self.periodicity
-                    .map(|t| format!(
-                        ", periodicity {t}{}",
-                        if self.unbalanced_pull == Some(true) {
-                            ", unbalanced pull"
-                        } else {
-                            ""
-                        }
-                    ))
-                    .unwrap_or_default()
-            ),
-            format!(
-                "k_w1 = {}  (k_d {}, k_p {}, k_s {});  balanced: {}",
-                num(self.winding_factor, 4),
-                num(self.fundamental.distribution, 4),
-                num(self.fundamental.pitch, 4),
-                num(self.fundamental.skew, 4),
-                if self.balanced { "yes" } else { "NO" }
-            ),
-        ];
+        let mut head = vec![format!(
+            "k_d {}, k_p {}, k_s {};  balanced: {}{}",
+            num(self.fundamental.distribution, 4),
+            num(self.fundamental.pitch, 4),
+            num(self.fundamental.skew, 4),
+            if self.balanced { "yes" } else { "NO" },
+            self.periodicity
+                .map(|t| format!(
+                    "; periodicity {t}{}",
+                    if self.unbalanced_pull == Some(true) {
+                        ", unbalanced pull"
+                    } else {
+                        ""
+                    }
+                ))
+                .unwrap_or_default()
+        )];
         if let Some(h) = &self.half_filled_slots
             && !h.is_empty()
         {
@@ -132,6 +92,7 @@ impl Report for PlanReport {
         s.push(Section::Heading(
             self.title.clone().unwrap_or_else(|| "Winding plan".into()),
         ));
+        s.push(Section::Design(super::design_lines(&self.design)));
         s.push(Section::Lines(head));
         s.push(Section::Lines(wrap(self.caution, 78)));
 
@@ -283,10 +244,10 @@ impl Report for PlanReport {
 
 impl Report for FactorTable {
     fn sections(&self) -> Vec<Section> {
-        let mut s = vec![Section::Heading(format!(
-            "Winding factors of phase {}",
-            self.phase
-        ))];
+        let mut s = vec![
+            Section::Heading(format!("Winding factors of phase {}", self.phase)),
+            Section::Design(super::design_lines(&self.design)),
+        ];
         if self.single_layer {
             s.push(Section::Lines(wrap(
                 "Single layer: each slot holds one coil side, so the slot contents fix the \

@@ -17,7 +17,7 @@ impl Exporter for Text {
                     out.push_str(&crate::sanitize::clean(h));
                     out.push('\n');
                 }
-                Section::Lines(lines) => {
+                Section::Lines(lines) | Section::Design(lines) => {
                     for l in lines {
                         out.push_str(&crate::sanitize::clean(l).replace(super::CONTINUES, ""));
                         out.push('\n');

@@ -7,13 +7,16 @@ use crate::thrust::{Feed, ThrustReport};
 
 impl Report for ThrustReport {
     fn sections(&self) -> Vec<Section> {
-        let mut s = vec![Section::Heading(format!(
-            "Flat primary performance{}",
-            self.title
-                .as_ref()
-                .map(|t| format!(": {t}"))
-                .unwrap_or_default()
-        ))];
+        let mut s = vec![
+            Section::Heading(format!(
+                "Flat primary performance{}",
+                self.title
+                    .as_ref()
+                    .map(|t| format!(": {t}"))
+                    .unwrap_or_default()
+            )),
+            Section::Design(super::design_lines(&self.design)),
+        ];
         let c = &self.circuit;
         let feed = match self.feed {
             Feed::Voltage { phase_voltage_v } => {
@@ -108,18 +111,20 @@ impl Report for ThrustReport {
 
 impl Report for InductanceReport {
     fn sections(&self) -> Vec<Section> {
-        let mut s = vec![Section::Heading(format!(
-            "Inductances by winding functions{}",
-            self.title
-                .as_ref()
-                .map(|t| format!(": {t}"))
-                .unwrap_or_default()
-        ))];
+        let mut s = vec![
+            Section::Heading(format!(
+                "Inductances by winding functions{}",
+                self.title
+                    .as_ref()
+                    .map(|t| format!(": {t}"))
+                    .unwrap_or_default()
+            )),
+            Section::Design(super::design_lines(&self.design)),
+        ];
         s.push(Section::Lines(vec![
             format!(
-                "{} core, effective gap {} mm; gap inductances in mH, leakage {} mH per \
-                 phase not included in the matrix",
-                self.topology,
+                "effective gap {} mm; gap inductances in mH, leakage {} mH per phase not \
+                 included in the matrix",
                 num(self.effective_gap_mm, 3),
                 num(self.leakage_h * 1e3, 4)
             ),

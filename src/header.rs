@@ -1,0 +1,73 @@
+//! The design every report opens with: the same facts, from the same function, at the head
+//! of the plan, factors, field, span, audit, card, thrust and inductance reports, in their
+//! JSON (`design`), on the HTML page and in the sheets' title block.
+
+use serde::Serialize;
+
+use crate::factors;
+use crate::winding::{Connection, Style, Topology, Winding};
+
+/// The winding in a few facts: core, layout, span, turns, connection and k_w1.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct DesignHeader {
+    /// Free text title.
+    pub title: Option<String>,
+    /// Closed rotary core or open flat primary.
+    pub topology: Topology,
+    /// Slots Z.
+    pub slots: usize,
+    /// Poles 2p.
+    pub poles: usize,
+    /// Phases m.
+    pub phases: usize,
+    /// Layers per slot.
+    pub layers: usize,
+    /// Coil shape.
+    pub style: Style,
+    /// Span the coils were built with (concentric: the mean span), slot pitches.
+    pub span: usize,
+    /// Pole pitch τ in slot pitches.
+    pub pole_pitch_slots: f64,
+    /// Slots per pole per phase q as a reduced fraction, e.g. "5/4".
+    pub slots_per_pole_phase: String,
+    /// Turns per coil of the design.
+    pub turns_per_coil: u32,
+    /// True when the layout gave no turns per coil and one turn is assumed.
+    pub turns_assumed: bool,
+    /// Parallel paths per phase.
+    pub parallel_paths: usize,
+    /// Star or delta.
+    pub connection: Connection,
+    /// Fundamental winding factor k_w1.
+    pub winding_factor: f64,
+    /// True when the coils come from a recorded coil list rather than synthesis.
+    pub recorded: bool,
+}
+
+/// The header of a winding.
+pub fn of(w: &Winding) -> DesignHeader {
+    let g = &w.geometry;
+    let (qn, qd) = w.slots_per_pole_phase();
+    DesignHeader {
+        title: w.labels.title.clone(),
+        topology: g.topology,
+        slots: g.slots,
+        poles: g.poles,
+        phases: g.phases,
+        layers: g.layers,
+        style: w.design.style,
+        span: w.pitch,
+        pole_pitch_slots: g.pole_pitch_slots,
+        slots_per_pole_phase: if qd == 1 {
+            qn.to_string()
+        } else {
+            format!("{qn}/{qd}")
+        },
+        turns_per_coil: w.design.turns_per_coil,
+        turns_assumed: w.design.turns_assumed,
+        parallel_paths: w.parallel_paths,
+        connection: w.design.connection,
+        winding_factor: factors::fundamental(w).winding,
+        recorded: w.from_coil_list,
+    }
+}
