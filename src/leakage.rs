@@ -14,6 +14,16 @@ use std::f64::consts::PI;
 
 use crate::winding::{Topology, Winding};
 
+/// The one rule for σ_d (Parseval): the mean square of the MMF over the working wave's
+/// mean square, less one; `None` when there is no working wave to compare against. Every
+/// σ_d the tool reports comes through here: from balanced real currents
+/// ([`staircase_leakage`]), from any phasor currents (`field`), and for every span at once
+/// from the belt currents' autocorrelation (`survey`).
+pub fn sigma(mean_square: f64, working_square: f64) -> Option<f64> {
+    (working_square > 1e-300 * mean_square.abs().max(1.0))
+        .then(|| (mean_square / working_square - 1.0).max(0.0))
+}
+
 /// σ_d of a periodic staircase of slot currents whose working wave has `order` periods
 /// around the `currents.len()` slots. Returns `None` when there is no working wave.
 /// Allocation-free: one pass for the staircase and one recurrence for the working wave.
@@ -44,8 +54,7 @@ pub fn staircase_leakage(currents: &[f64], order: u64) -> Option<f64> {
     let mean = sum / z as f64;
     let mean_square = sum_sq / z as f64 - mean * mean;
     let f = (re * re + im * im).sqrt() / (2.0 * PI * order as f64);
-    let working = 2.0 * f * f;
-    (working > 1e-300 * mean_square.max(1.0)).then(|| (mean_square / working - 1.0).max(0.0))
+    sigma(mean_square, 2.0 * f * f)
 }
 
 /// Differential leakage coefficient σ_d of a winding under balanced currents. A flat

@@ -61,7 +61,10 @@ fn every_report_carries_the_same_design_header() {
             // Text: the three lines under the heading are the same for every command.
             let text = String::from_utf8(run(&args).stdout).expect("utf-8");
             let head: Vec<String> = text.lines().skip(1).take(3).map(String::from).collect();
-            assert!(head[0].contains(&format!("{} slots", design["slots"])), "{args:?}");
+            assert!(
+                head[0].contains(&format!("{} slots", design["slots"])),
+                "{args:?}"
+            );
             match &lines {
                 None => lines = Some(head),
                 Some(l) => assert_eq!(&head, l, "{args:?}: text header differs"),

@@ -85,7 +85,9 @@ fn the_fast_kernel_agrees_with_the_field_analysis() {
     ] {
         let w = winding(z, poles, layers, pitch);
         let fast = differential_leakage(&w).expect("working wave");
-        let general = beltwright::field::differential_leakage(&w);
+        let general = beltwright::field::field(&w, &beltwright::field::FieldOptions::balanced(&w))
+            .expect("field")
+            .differential_leakage;
         assert!(
             (fast - general).abs() < 1e-9 * fast.max(1.0),
             "{z}/{poles}: {fast} vs {general}"

@@ -40,7 +40,7 @@ proptest! {
                 prop_assert!(p.winding_factor <= 1.0 + 1e-12);
                 let _ = factors::factor_table(&w, 13.0);
                 let _ = leakage::differential_leakage(&w);
-                let _ = field::differential_leakage(&w);
+                let _ = field::field(&w, &field::FieldOptions::balanced(&w));
                 let _ = pitch::compare(&w, &pitch::PitchGoal::default());
             }
         }

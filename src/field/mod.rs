@@ -2,7 +2,7 @@
 //! spatial spectrum split into forward and backward travelling waves, and the differential
 //! (harmonic) leakage coefficient σ_d.
 //!
-//! Method (derivations and sources in `docs/theory-field.md`): each slot carries the phasor
+//! Method (derivations and sources in `docs/theory.md`): each slot carries the phasor
 //! sum C_k of its conductors' ampere-turns, `+N·I/a` for a go side and `−N·I/a` for a back
 //! side. The MMF is the running sum of the slot currents along the gap (Ampère's law), a
 //! staircase. Its Fourier coefficients are closed-form sums over the slots,
@@ -618,9 +618,10 @@ fn working(sheet: &CurrentSheet) -> Result<(Direction, f64), FieldError> {
     Ok((dir, a))
 }
 
-/// σ_d from a sheet and its working-wave amplitude.
-fn leakage_of(sheet: &CurrentSheet, amplitude: f64) -> f64 {
-    (sheet.mean_square() / (amplitude * amplitude) - 1.0).max(0.0)
+/// σ_d from a sheet and its working-wave amplitude (the one rule, [`crate::leakage::sigma`]).
+fn leakage_of(sheet: &CurrentSheet, amplitude: f64) -> Result<f64, FieldError> {
+    crate::leakage::sigma(sheet.mean_square(), amplitude * amplitude)
+        .ok_or(FieldError::NoWorkingWave)
 }
 
 /// σ_d of a sheet: on a rotary core from its own staircase; on a linear primary from the
@@ -631,33 +632,14 @@ fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
     match sheet.topology {
         Topology::Rotary => {
             let (_, a) = working(sheet)?;
-            Ok(leakage_of(sheet, a))
+            leakage_of(sheet, a)
         }
         Topology::Linear => {
             let f = sheet.folded();
             let (_, a) = working(&f)?;
-            Ok(leakage_of(&f, a))
+            leakage_of(&f, a)
         }
     }
-}
-
-/// Differential (harmonic) leakage coefficient σ_d = Σ_{waves ≠ working} (F/F_w)² for
-/// balanced positive-sequence currents and no slot opening, computed exactly from the mean
-/// square of the MMF staircase (Parseval). Equals the textbook series Σ_{ν≠1}(k_wν/(ν·k_w1))²
-/// for balanced windings (Pyrhönen et al. 2014, ch. 4, air-gap leakage).
-/// One allocation of Z slot currents; NaN when the winding has no working wave.
-pub fn differential_leakage(w: &Winding) -> f64 {
-    let cur = balanced_currents(w.geometry.phases, Sequence::Positive);
-    match CurrentSheet::new(w, &cur, 0.0) {
-        Ok(sheet) => sigma_of(&sheet).unwrap_or(f64::NAN),
-        Err(_) => f64::NAN,
-    }
-}
-
-/// MMF total harmonic distortion √σ_d for balanced positive-sequence currents: the r.m.s.
-/// of every wave except the working wave, relative to it. NaN without a working wave.
-pub fn thd(w: &Winding) -> f64 {
-    differential_leakage(w).sqrt()
 }
 
 /// Forward and backward amplitudes of every mechanical order 1..=`top` of a rotary sheet,

@@ -7,12 +7,22 @@
 //!   (air-gap / differential leakage σ_δ).
 //!
 //! Chapter numbers are given from memory; the formulas themselves are also derived in
-//! `docs/theory-field.md`.
+//! `docs/theory.md`.
 
 use super::*;
 use crate::layout;
 use crate::winding::{self, Winding};
 use rustfft::FftPlanner;
+
+/// σ_d of the field report under balanced positive-sequence currents, no slot opening.
+fn differential_leakage(w: &Winding) -> f64 {
+    field(w, &FieldOptions::balanced(w)).map_or(f64::NAN, |r| r.differential_leakage)
+}
+
+/// MMF THD √σ_d of the same report.
+fn thd(w: &Winding) -> f64 {
+    field(w, &FieldOptions::balanced(w)).map_or(f64::NAN, |r| r.thd)
+}
 
 fn wind(src: &str) -> Winding {
     let spec = layout::parse(src, "test").expect("test layout parses");
@@ -324,7 +334,7 @@ fn reversed_sequence_swaps_forward_and_backward() {
 
 // One coil connected backwards makes a backward fundamental. With the EMF phasors E_ph
 // (Σ s·N·e^{−jθ}) the slot sums are S+ = 2·Σ conj(E_ph)·I_ph and S− = 2·Σ E_ph·I_ph
-// (derivation in docs/theory-field.md), checked here through `Winding::phase_emf`.
+// (derivation in docs/theory.md), checked here through `Winding::phase_emf`.
 #[test]
 fn a_reversed_coil_makes_a_backward_fundamental() {
     let mut w = rotary(36, 4, 2, 7);
@@ -367,7 +377,7 @@ fn one_phase_alone_pulsates() {
 // A linear primary whose active length holds whole pole pairs folds onto the closed
 // winding at integer orders: e^{jνκ(x + 2pτ)} = e^{jνκx}, so the 24-coil, span-5 shuttle
 // primary has exactly the spectrum of the 24-slot rotary winding of span 5 (derivation in
-// docs/theory-field.md). Balanced even-pole primary: no backward wave at π/τ and no
+// docs/theory.md). Balanced even-pole primary: no backward wave at π/τ and no
 // pulsating part (Σ_ph I_ph = 0).
 #[test]
 fn linear_primary_folds_onto_the_closed_winding() {
@@ -421,7 +431,7 @@ fn odd_pole_primary_has_a_pulsating_part() {
 }
 
 // Slot-opening factor k_o = sin(νπb/2τ)/(νπb/2τ) (Lipo 2017; derived in
-// docs/theory-field.md), and Parseval on the trapezoidal MMF equals the sum of squared
+// docs/theory.md), and Parseval on the trapezoidal MMF equals the sum of squared
 // amplitudes (which fall as 1/ν² · k_o²).
 #[test]
 fn slot_opening_factor_and_parseval_with_ramps() {
@@ -447,7 +457,7 @@ fn slot_opening_factor_and_parseval_with_ramps() {
     // With openings the harmonics shrink, so σ_d does too.
     let plain = differential_leakage(&w);
     let (_, a) = working(&sheet).unwrap();
-    assert!(leakage_of(&sheet, a) < plain);
+    assert!(leakage_of(&sheet, a).expect("working wave") < plain);
 }
 
 // The working wave's crest moves two pole pitches per period: 60° of ωt moves it τ/3

@@ -200,8 +200,7 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
             f64::INFINITY
         };
         let f = working_sum * pf(0) / (std::f64::consts::PI * p as f64);
-        let working = 2.0 * f * f;
-        let sigma_d = (working > 1e-300 * ms.abs().max(1.0)).then(|| (ms / working - 1.0).max(0.0));
+        let sigma_d = crate::leakage::sigma(ms, 2.0 * f * f);
         spans.push(SpanScore {
             span: y,
             kw1,
