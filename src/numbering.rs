@@ -1,13 +1,100 @@
 //! Slot and coil numbers as a person reads them. Inside the program slots and coils count
-//! from 0; at every edge a person sees they count from 1, as a shop does.
+//! from 0; at every edge a person sees they count from 1, as a shop does. [`SlotNo`] and
+//! [`CoilNo`] carry that conversion in their type: made from a 0-based index, shown,
+//! serialized and compared (with a plain number) as the number a shop reads.
+
+use std::fmt;
+
+macro_rules! number_type {
+    ($(#[$doc:meta])* $name:ident, $schema:literal, $what:literal) => {
+        $(#[$doc])*
+        #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+        pub struct $name(usize);
+
+        impl $name {
+            #[doc = concat!("The ", $what, " at a 0-based index inside the program.")]
+            pub const fn at(index: usize) -> Self {
+                Self(index)
+            }
+
+            /// The 0-based index inside the program.
+            pub const fn index(self) -> usize {
+                self.0
+            }
+
+            /// The number a person reads, from 1.
+            pub const fn get(self) -> usize {
+                self.0 + 1
+            }
+        }
+
+        impl fmt::Display for $name {
+            fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+                write!(f, "{}", self.get())
+            }
+        }
+
+        /// Compared with a plain number as a person reads it (from 1).
+        impl PartialEq<usize> for $name {
+            fn eq(&self, n: &usize) -> bool {
+                self.get() == *n
+            }
+        }
+
+        impl From<$name> for usize {
+            /// The number a person reads, from 1.
+            fn from(n: $name) -> usize {
+                n.get()
+            }
+        }
+
+        impl serde::Serialize for $name {
+            fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+                s.serialize_u64(self.get() as u64)
+            }
+        }
+
+        impl schemars::JsonSchema for $name {
+            fn inline_schema() -> bool {
+                true
+            }
+
+            fn schema_name() -> std::borrow::Cow<'static, str> {
+                $schema.into()
+            }
+
+            fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
+                schemars::json_schema!({
+                    "type": "integer",
+                    "minimum": 1,
+                    "description": concat!("A ", $what, " number as the shop reads it, from 1.")
+                })
+            }
+        }
+    };
+}
+
+number_type!(
+    /// A slot, shown from 1 (slot 1 is index 0).
+    SlotNo,
+    "SlotNumber",
+    "slot"
+);
+number_type!(
+    /// A coil of the coil list, shown from 1.
+    CoilNo,
+    "CoilNumber",
+    "coil"
+);
 
 /// The number a person sees for a 0-based index.
 pub fn shown(index: usize) -> usize {
     index + 1
 }
 
-/// "1-3, 7, 9-10" from sorted numbers (already as shown).
-pub fn ranges(ns: &[usize]) -> String {
+/// "1-3, 7, 9-10" from sorted numbers as shown (plain numbers, [`SlotNo`] or [`CoilNo`]).
+pub fn ranges<T: Copy + Into<usize>>(ns: &[T]) -> String {
+    let ns: Vec<usize> = ns.iter().map(|&n| n.into()).collect();
     let mut parts: Vec<String> = Vec::new();
     let mut i = 0;
     while i < ns.len() {
@@ -60,8 +147,8 @@ mod tests {
 
     #[test]
     fn ranges_compress_runs() {
-        assert_eq!(ranges(&[1, 2, 3, 7, 9, 10]), "1-3, 7, 9-10");
-        assert_eq!(ranges(&[]), "");
+        assert_eq!(ranges(&[1usize, 2, 3, 7, 9, 10]), "1-3, 7, 9-10");
+        assert_eq!(ranges::<usize>(&[]), "");
         assert_eq!(shown(0), 1);
     }
 

@@ -4,6 +4,7 @@ use serde::Serialize;
 
 use crate::factors::{self, FactorRow};
 use crate::linear::{self, Figures, Operating};
+use crate::numbering::{CoilNo, SlotNo};
 use crate::winding::{Connection, Style, Topology, Winding, coil_groups, possible_path_counts};
 
 pub use crate::safety::CAUTION;
@@ -12,13 +13,13 @@ pub use crate::safety::CAUTION;
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct CoilRow {
     /// Coil number from 1.
-    pub number: usize,
+    pub number: CoilNo,
     /// Phase label.
     pub phase: String,
     /// Slot where current enters.
-    pub go: usize,
+    pub go: SlotNo,
     /// Slot where current leaves.
-    pub back: usize,
+    pub back: SlotNo,
     /// Turns.
     pub turns: u32,
     /// Parallel path from 1.
@@ -37,7 +38,7 @@ pub struct CoilRow {
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SlotRow {
     /// Slot number from 1.
-    pub slot: usize,
+    pub slot: SlotNo,
     /// Side in the top layer (or the only layer): sign of current and phase, e.g. "+U".
     pub top: Option<String>,
     /// Side in the bottom layer.
@@ -54,7 +55,7 @@ pub struct GroupRow {
     /// "+" forward, "-" reversed.
     pub polarity: &'static str,
     /// Coils from 1, in slot order.
-    pub coils: Vec<usize>,
+    pub coils: Vec<CoilNo>,
     /// Parallel path from 1.
     pub path: usize,
 }
@@ -127,9 +128,9 @@ pub struct PlanReport {
     pub phases_emf: Vec<PhasorRow>,
     /// Half-filled end slots of a linear primary (slot numbers from 1).
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub half_filled_slots: Option<Vec<usize>>,
+    pub half_filled_slots: Option<Vec<SlotNo>>,
     /// Slots holding no coil side.
-    pub empty_slots: Vec<usize>,
+    pub empty_slots: Vec<SlotNo>,
     /// Parallel path counts that keep every path's EMF equal.
     pub possible_parallel_paths: Vec<usize>,
     /// Speeds, lengths, forces.
@@ -198,10 +199,10 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         .iter()
         .enumerate()
         .map(|(i, c)| CoilRow {
-            number: i + 1,
+            number: CoilNo::at(i),
             phase: w.label(c.phase).to_string(),
-            go: c.go + 1,
-            back: c.back + 1,
+            go: SlotNo::at(c.go),
+            back: SlotNo::at(c.back),
             turns: c.turns,
             path: c.path + 1,
             group: group_of[i],
@@ -212,7 +213,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         .collect();
     let mut slot_table: Vec<SlotRow> = (0..g.slots)
         .map(|k| SlotRow {
-            slot: k + 1,
+            slot: SlotNo::at(k),
             top: None,
             bottom: None,
         })
@@ -235,7 +236,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
             number: n + 1,
             phase: w.label(grp.phase).to_string(),
             polarity: if grp.polarity > 0 { "+" } else { "-" },
-            coils: grp.coils.iter().map(|c| c + 1).collect(),
+            coils: grp.coils.iter().map(|&c| CoilNo::at(c)).collect(),
             path: w.coils[grp.coils[0]].path + 1,
         })
         .collect();
@@ -272,8 +273,8 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         schedule: crate::winding::schedule::schedule(w, &groups),
         phases_emf: phasors(w, 1.0),
         half_filled_slots: (g.topology == Topology::Linear)
-            .then(|| w.half_filled_slots().iter().map(|k| k + 1).collect()),
-        empty_slots: w.empty_slots().iter().map(|k| k + 1).collect(),
+            .then(|| w.half_filled_slots().into_iter().map(SlotNo::at).collect()),
+        empty_slots: w.empty_slots().into_iter().map(SlotNo::at).collect(),
         possible_parallel_paths: possible_path_counts(w),
         figures: linear::figures(w, op),
         turns_assumed: w.design.turns_assumed,

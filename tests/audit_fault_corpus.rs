@@ -86,7 +86,11 @@ fn only_finding(name: &str, what: &str, r: &AuditReport) -> (FindingKind, Vec<us
         r.findings
     );
     let f = &r.findings[0];
-    (f.kind, f.coils.clone(), f.phases.clone())
+    (
+        f.kind,
+        f.coils.iter().map(|c| c.get()).collect(),
+        f.phases.clone(),
+    )
 }
 
 #[test]
@@ -243,7 +247,7 @@ fn audit_names_two_faults_at_once() {
             let mut got: Vec<(FindingKind, Vec<usize>)> = r
                 .findings
                 .iter()
-                .map(|f| (f.kind, f.coils.clone()))
+                .map(|f| (f.kind, f.coils.iter().map(|c| c.get()).collect()))
                 .collect();
             got.sort_by_key(|g| g.1.clone());
             let mut want = vec![

@@ -3,13 +3,14 @@
 use serde::Serialize;
 
 use super::{CoilAt, Fact, Finding, FindingKind};
+use crate::numbering::{CoilNo, SlotNo};
 use crate::winding::Winding;
 
 /// What one slot holds in the record and in the design: "+U" for current in, "-U" out.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SlotDifference {
     /// Slot number from 1.
-    pub slot: usize,
+    pub slot: SlotNo,
     /// Sides found, sorted.
     pub found: Vec<String>,
     /// Sides intended, sorted.
@@ -63,7 +64,7 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
     let slot_differences = (0..a.len())
         .filter(|&k| a[k] != b[k])
         .map(|k| SlotDifference {
-            slot: k + 1,
+            slot: SlotNo::at(k),
             found: a[k].clone(),
             intended: b[k].clone(),
         })
@@ -96,10 +97,10 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
             !used[j] && pair(design.coils[j].go, design.coils[j].back) == pair(c.go, c.back)
         });
         let coil = CoilAt {
-            coil: i + 1,
+            coil: CoilNo::at(i),
             phase: found.label(c.phase).to_string(),
-            go: c.go + 1,
-            back: c.back + 1,
+            go: SlotNo::at(c.go),
+            back: SlotNo::at(c.back),
         };
         let detail = match j {
             None => Fact::DiffersFromDesign {
@@ -119,15 +120,15 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
                     matched: true,
                     phase: (found.label(c.phase) != design.label(d.phase))
                         .then(|| design.label(d.phase).to_string()),
-                    go: (c.go != d.go).then_some(d.go + 1),
+                    go: (c.go != d.go).then_some(SlotNo::at(d.go)),
                     belongs_in_path: (c.path != d.path).then_some(d.path + 1),
                 }
             }
         };
         findings.push(Finding {
             kind: FindingKind::DiffersFromIntended,
-            coils: vec![i + 1],
-            slots: vec![c.go + 1, c.back + 1],
+            coils: vec![CoilNo::at(i)],
+            slots: vec![SlotNo::at(c.go), SlotNo::at(c.back)],
             phases: vec![found.label(c.phase).to_string()],
             detail,
         });
@@ -137,12 +138,12 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
         findings.push(Finding {
             kind: FindingKind::DiffersFromIntended,
             coils: Vec::new(),
-            slots: vec![d.go + 1, d.back + 1],
+            slots: vec![SlotNo::at(d.go), SlotNo::at(d.back)],
             phases: vec![design.label(d.phase).to_string()],
             detail: Fact::MissingFromRecord {
                 phase: design.label(d.phase).to_string(),
-                go: d.go + 1,
-                back: d.back + 1,
+                go: SlotNo::at(d.go),
+                back: SlotNo::at(d.back),
             },
         });
     }

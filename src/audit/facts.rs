@@ -4,18 +4,19 @@
 use serde::Serialize;
 
 use crate::card::measured::Suggestion;
+use crate::numbering::{CoilNo, SlotNo};
 
 /// A coil as a finding names it (numbers from 1).
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 pub struct CoilAt {
     /// Coil number.
-    pub coil: usize,
+    pub coil: CoilNo,
     /// Its phase label as recorded.
     pub phase: String,
     /// Slot where current enters as recorded.
-    pub go: usize,
+    pub go: SlotNo,
     /// Slot where current leaves as recorded.
-    pub back: usize,
+    pub back: SlotNo,
 }
 
 /// Coils moved from one parallel path to another (numbers from 1).
@@ -24,9 +25,9 @@ pub struct PathMove {
     /// The coil, when one coil moves.
     pub coil: Option<CoilAt>,
     /// The coils that move (a group, or the one coil).
-    pub coils: Vec<usize>,
+    pub coils: Vec<CoilNo>,
     /// Their slots.
-    pub slots: Vec<usize>,
+    pub slots: Vec<SlotNo>,
     /// The path they are in.
     pub from: usize,
     /// The path they belong in.
@@ -45,11 +46,11 @@ pub enum Fact {
     /// A run of coils of one phase connected backwards.
     ReversedGroup {
         /// Coils, from 1, sorted.
-        coils: Vec<usize>,
+        coils: Vec<CoilNo>,
         /// Their phase.
         phase: String,
         /// Their slots.
-        slots: Vec<usize>,
+        slots: Vec<SlotNo>,
     },
     /// A coil in the wrong phase.
     WrongPhase {
@@ -88,9 +89,9 @@ pub enum Fact {
     /// A group connected into the wrong phase.
     GroupWrongPhase {
         /// Coils, from 1, sorted.
-        coils: Vec<usize>,
+        coils: Vec<CoilNo>,
         /// Their slots.
-        slots: Vec<usize>,
+        slots: Vec<SlotNo>,
         /// Phase they are in.
         from: String,
         /// Phase they belong in.
@@ -107,13 +108,13 @@ pub enum Fact {
         /// Its span where it belongs.
         should_span: u64,
         /// Its slots that hold too many sides.
-        overfilled: Vec<usize>,
+        overfilled: Vec<SlotNo>,
         /// The slots short of a side where it belongs.
-        short: Vec<usize>,
+        short: Vec<SlotNo>,
         /// Where current should enter.
-        go: usize,
+        go: SlotNo,
         /// Where current should leave.
-        back: usize,
+        back: SlotNo,
     },
     /// Coils or groups to move between the parallel paths of a phase.
     PathMoves {
@@ -140,38 +141,38 @@ pub enum Fact {
     /// Slots empty or with a layer empty.
     EmptySlots {
         /// Slots with no side.
-        empty: Vec<usize>,
+        empty: Vec<SlotNo>,
         /// Slots with a layer empty.
-        partly_filled: Vec<usize>,
+        partly_filled: Vec<SlotNo>,
     },
     /// Slots holding more sides than the layers.
     OverfilledSlots {
         /// The slots.
-        slots: Vec<usize>,
+        slots: Vec<SlotNo>,
         /// The layer count.
         layers: usize,
         /// Coils with a side there.
-        coils: Vec<usize>,
+        coils: Vec<CoilNo>,
     },
     /// Coils whose turns differ from the rest.
     TurnsDiffer {
         /// The coils.
-        coils: Vec<usize>,
+        coils: Vec<CoilNo>,
         /// The turns of the rest.
         usual: u32,
     },
     /// A coil whose span differs from the rest of its group.
     SpanDiffers {
         /// The coil.
-        coil: usize,
+        coil: CoilNo,
         /// Its span.
         span: u64,
         /// The group's span.
         usual: u64,
         /// Where current enters.
-        go: usize,
+        go: SlotNo,
         /// Where current leaves.
-        back: usize,
+        back: SlotNo,
     },
     /// No fundamental EMF.
     NoFundamental,
@@ -219,7 +220,7 @@ pub enum Fact {
         /// The phase it belongs in, when that differs.
         phase: Option<String>,
         /// Where current should enter, when it is reversed.
-        go: Option<usize>,
+        go: Option<SlotNo>,
         /// The path it belongs in, when that differs.
         belongs_in_path: Option<usize>,
     },
@@ -228,8 +229,8 @@ pub enum Fact {
         /// Its phase.
         phase: String,
         /// Where current enters.
-        go: usize,
+        go: SlotNo,
         /// Where current leaves.
-        back: usize,
+        back: SlotNo,
     },
 }

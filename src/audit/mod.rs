@@ -16,6 +16,7 @@ mod slots;
 use num_complex::Complex64;
 use serde::Serialize;
 
+use crate::numbering::{CoilNo, SlotNo};
 use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding, coil_groups};
 
@@ -74,9 +75,9 @@ pub struct Finding {
     /// What is wrong.
     pub kind: FindingKind,
     /// Coils involved: indices into the coil list, from 1.
-    pub coils: Vec<usize>,
+    pub coils: Vec<CoilNo>,
     /// Slots involved, from 1.
-    pub slots: Vec<usize>,
+    pub slots: Vec<SlotNo>,
     /// Phases involved (labels).
     pub phases: Vec<String>,
     /// What is wrong, with its numbers.
@@ -121,7 +122,7 @@ pub struct PathRow {
     /// Path number from 1.
     pub path: usize,
     /// Coils in the path.
-    pub coils: Vec<usize>,
+    pub coils: Vec<CoilNo>,
     /// Turns in the path.
     pub turns: u64,
     /// EMF magnitude of the path in effective turns.
@@ -241,10 +242,10 @@ fn harmonic_orders(w: &Winding) -> Vec<f64> {
     orders
 }
 
-fn slots_of(w: &Winding, coils: &[usize]) -> Vec<usize> {
-    let mut s: Vec<usize> = coils
+fn slots_of(w: &Winding, coils: &[usize]) -> Vec<SlotNo> {
+    let mut s: Vec<SlotNo> = coils
         .iter()
-        .flat_map(|&i| [w.coils[i].go + 1, w.coils[i].back + 1])
+        .flat_map(|&i| [SlotNo::at(w.coils[i].go), SlotNo::at(w.coils[i].back)])
         .collect();
     s.sort_unstable();
     s.dedup();
@@ -255,10 +256,10 @@ fn slots_of(w: &Winding, coils: &[usize]) -> Vec<usize> {
 fn coil_at(w: &Winding, i: usize) -> CoilAt {
     let c = &w.coils[i];
     CoilAt {
-        coil: i + 1,
+        coil: CoilNo::at(i),
         phase: w.label(c.phase).to_string(),
-        go: c.go + 1,
-        back: c.back + 1,
+        go: SlotNo::at(c.go),
+        back: SlotNo::at(c.back),
     }
 }
 
@@ -266,14 +267,14 @@ fn coil_at(w: &Winding, i: usize) -> CoilAt {
 fn finding_for(w: &Winding, e: &Edit) -> Finding {
     let label = |k: usize| w.label(k).to_string();
     let sorted_from_one = |coils: &[usize]| {
-        let mut v: Vec<usize> = coils.iter().map(|c| c + 1).collect();
+        let mut v: Vec<CoilNo> = coils.iter().map(|&c| CoilNo::at(c)).collect();
         v.sort_unstable();
         v
     };
     match e {
         Edit::ReverseCoil { coil } => Finding {
             kind: FindingKind::ReversedCoil,
-            coils: vec![coil + 1],
+            coils: vec![CoilNo::at(*coil)],
             slots: slots_of(w, &[*coil]),
             phases: vec![label(w.coils[*coil].phase)],
             detail: Fact::ReversedCoil {
@@ -302,7 +303,7 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             reversed,
         } => Finding {
             kind: FindingKind::WrongPhase,
-            coils: vec![coil + 1],
+            coils: vec![CoilNo::at(*coil)],
             slots: slots_of(w, &[*coil]),
             phases: vec![label(*from), label(*to)],
             detail: Fact::WrongPhase {
@@ -341,7 +342,7 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
         }
         Edit::RelayCoil { coil, go, back, .. } => {
             let c = &w.coils[*coil];
-            let mut slots = vec![c.go + 1, c.back + 1, go + 1, back + 1];
+            let mut slots: Vec<SlotNo> = [c.go, c.back, *go, *back].map(SlotNo::at).to_vec();
             slots.sort_unstable();
             slots.dedup();
             let moved = [(c.go, *go), (c.back, *back)];
@@ -353,17 +354,17 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             };
             Finding {
                 kind: FindingKind::CoilWrongSlots,
-                coils: vec![coil + 1],
+                coils: vec![CoilNo::at(*coil)],
                 slots,
                 phases: vec![label(c.phase)],
                 detail: Fact::CoilWrongSlots {
                     coil: coil_at(w, *coil),
                     span: w.span(c).unsigned_abs(),
                     should_span: w.span(&relaid).unsigned_abs(),
-                    overfilled: moved.clone().map(|(a, _)| a + 1).collect(),
-                    short: moved.map(|(_, b)| b + 1).collect(),
-                    go: go + 1,
-                    back: back + 1,
+                    overfilled: moved.clone().map(|&(a, _)| SlotNo::at(a)).collect(),
+                    short: moved.map(|&(_, b)| SlotNo::at(b)).collect(),
+                    go: SlotNo::at(*go),
+                    back: SlotNo::at(*back),
                 },
             }
         }
@@ -371,7 +372,7 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             kind: FindingKind::ReversedPhase,
             coils: (0..w.coils.len())
                 .filter(|&i| w.coils[i].phase == *phase)
-                .map(|i| i + 1)
+                .map(CoilNo::at)
                 .collect(),
             slots: Vec::new(),
             phases: vec![label(*phase)],
@@ -383,7 +384,7 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             kind: FindingKind::LeadsSwapped,
             coils: (0..w.coils.len())
                 .filter(|&i| w.coils[i].phase == *a || w.coils[i].phase == *b)
-                .map(|i| i + 1)
+                .map(CoilNo::at)
                 .collect(),
             slots: Vec::new(),
             phases: vec![label(*a), label(*b)],
@@ -517,11 +518,11 @@ fn odd_turns(w: &Winding) -> Option<Finding> {
     }
     Some(Finding {
         kind: FindingKind::TurnsDiffer,
-        coils: odd.iter().map(|i| i + 1).collect(),
+        coils: odd.iter().map(|&i| CoilNo::at(i)).collect(),
         slots: slots_of(w, &odd),
         phases: Vec::new(),
         detail: Fact::TurnsDiffer {
-            coils: odd.iter().map(|i| i + 1).collect(),
+            coils: odd.iter().map(|&i| CoilNo::at(i)).collect(),
             usual: common,
         },
     })
@@ -554,7 +555,7 @@ fn fix_findings(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
 
 /// Coils `i` (now in phase `a`) and `j` (now in `b`) laid into each other's phase.
 fn swapped_pair(w: &Winding, i: usize, j: usize, a: usize, b: usize) -> Finding {
-    let mut coils = vec![i + 1, j + 1];
+    let mut coils = vec![CoilNo::at(i), CoilNo::at(j)];
     coils.sort_unstable();
     Finding {
         kind: FindingKind::CoilsSwapped,
@@ -624,15 +625,15 @@ fn odd_spans(w: &Winding, fix: &[Edit]) -> Vec<Finding> {
             let coil = &w.coils[c];
             out.push(Finding {
                 kind: FindingKind::SpanDiffers,
-                coils: vec![c + 1],
-                slots: vec![coil.go + 1, coil.back + 1],
+                coils: vec![CoilNo::at(c)],
+                slots: vec![SlotNo::at(coil.go), SlotNo::at(coil.back)],
                 phases: vec![w.label(coil.phase).to_string()],
                 detail: Fact::SpanDiffers {
-                    coil: c + 1,
+                    coil: CoilNo::at(c),
                     span: w.span(coil).unsigned_abs(),
                     usual,
-                    go: coil.go + 1,
-                    back: coil.back + 1,
+                    go: SlotNo::at(coil.go),
+                    back: SlotNo::at(coil.back),
                 },
             });
         }

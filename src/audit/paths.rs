@@ -7,6 +7,7 @@ use num_complex::Complex64;
 use super::{
     BALANCE_TOL, Fact, Finding, FindingKind, PathMove, PathRow, angle_of, coil_at, slots_of,
 };
+use crate::numbering::CoilNo;
 use crate::winding::{CoilGroup, Winding, coil_groups};
 
 /// Most coil pairs of one phase tried as an exchange between paths.
@@ -46,7 +47,7 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
             rows.push(PathRow {
                 phase: w.label(k).to_string(),
                 path: p + 1,
-                coils: coils[p].iter().map(|c| c + 1).collect(),
+                coils: coils[p].iter().map(|&c| CoilNo::at(c)).collect(),
                 turns: turns[p],
                 magnitude: emf[p].norm(),
                 angle_deg: angle_of(emf[p]),
@@ -74,7 +75,7 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                             [i] => Some(coil_at(w, *i)),
                             _ => None,
                         },
-                        coils: cs.iter().map(|c| c + 1).collect(),
+                        coils: cs.iter().map(|&c| CoilNo::at(c)).collect(),
                         slots: slots_of(w, cs),
                         from: p + 1,
                         to: q + 1,
@@ -82,7 +83,7 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                     .collect();
                 findings.push(Finding {
                     kind: FindingKind::PathMismatch,
-                    coils: all.iter().map(|c| c + 1).collect(),
+                    coils: all.iter().map(|&c| CoilNo::at(c)).collect(),
                     slots: slots_of(w, &all),
                     phases: vec![l.clone()],
                     detail: Fact::PathMoves {

@@ -3,21 +3,22 @@
 use serde::Serialize;
 
 use super::{Fact, Finding, FindingKind};
+use crate::numbering::{CoilNo, SlotNo};
 use crate::winding::{Topology, Winding};
 
 /// How the slots of a record are filled (slot numbers from 1).
 #[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
 pub struct SlotCheck {
     /// Slots with no coil side at all.
-    pub empty: Vec<usize>,
+    pub empty: Vec<SlotNo>,
     /// Slots with fewer coil sides than they should hold (but at least one).
-    pub partly_filled: Vec<usize>,
+    pub partly_filled: Vec<SlotNo>,
     /// Slots holding more coil sides than the winding has layers.
-    pub overfilled: Vec<usize>,
+    pub overfilled: Vec<SlotNo>,
     /// End slots of a double-layer linear primary, which hold one side by design.
-    pub half_filled_by_design: Vec<usize>,
+    pub half_filled_by_design: Vec<SlotNo>,
     /// Coils (from 1) with a side in an overfilled slot.
-    pub overfilled_coils: Vec<usize>,
+    pub overfilled_coils: Vec<CoilNo>,
 }
 
 /// Sides each slot should hold: the layer count, one at the ends of a double-layer linear
@@ -40,14 +41,14 @@ pub fn check_slots(w: &Winding) -> SlotCheck {
     for (k, &n) in sides.iter().enumerate() {
         let want = expected(w, k);
         if want < w.geometry.layers {
-            out.half_filled_by_design.push(k + 1);
+            out.half_filled_by_design.push(SlotNo::at(k));
         }
         if n == 0 {
-            out.empty.push(k + 1);
+            out.empty.push(SlotNo::at(k));
         } else if n < want {
-            out.partly_filled.push(k + 1);
+            out.partly_filled.push(SlotNo::at(k));
         } else if n > w.geometry.layers {
-            out.overfilled.push(k + 1);
+            out.overfilled.push(SlotNo::at(k));
         }
     }
     out.overfilled_coils = (0..w.coils.len())
@@ -55,7 +56,7 @@ pub fn check_slots(w: &Winding) -> SlotCheck {
             let c = &w.coils[i];
             sides[c.go] > w.geometry.layers || sides[c.back] > w.geometry.layers
         })
-        .map(|i| i + 1)
+        .map(CoilNo::at)
         .collect();
     out
 }
@@ -65,7 +66,7 @@ impl SlotCheck {
     pub fn findings(&self, w: &Winding) -> Vec<Finding> {
         let mut f = Vec::new();
         if !self.empty.is_empty() || !self.partly_filled.is_empty() {
-            let mut slots: Vec<usize> = self
+            let mut slots: Vec<SlotNo> = self
                 .empty
                 .iter()
                 .chain(&self.partly_filled)

@@ -389,7 +389,7 @@ fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::Plan
     use winding::PlanError;
     let (table, index, key) = match e {
         PlanError::Paths(_) => ("winding", 0, "parallel_paths"),
-        PlanError::Overfilled(o) => ("coil", o.coils.first().map_or(0, |c| c - 1), "go"),
+        PlanError::Overfilled(o) => ("coil", o.coils.first().map_or(0, |c| c.index()), "go"),
         PlanError::Infeasible(_) if spec.design.pitch.is_some() && spec.coils.is_empty() => {
             ("winding", 0, "pitch")
         }

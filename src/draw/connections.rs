@@ -270,7 +270,7 @@ fn schedule_table(
             ];
             let mut row = Group::new()
                 .set("class", "schedule-row")
-                .set("data-coil", e.coil);
+                .set("data-coil", e.coil.get());
             let mut x = x0;
             for (i, c) in cells.iter().enumerate() {
                 row = row.add(label(

@@ -30,6 +30,7 @@ use thiserror::Error;
 
 use crate::factors;
 use crate::linear::{self, Figures, Operating};
+use crate::numbering::SlotNo;
 use crate::plan::PhasorRow;
 use crate::safety::CAUTION;
 use crate::winding::{Topology, Winding};
@@ -507,9 +508,9 @@ pub struct ContinuumPoint {
 pub struct EndComponents {
     /// Slots (from 1) whose current differs from the pattern, at the entry end: the end the
     /// secondary enters under (slot 1's end for a field towards rising slot numbers).
-    pub entry_slots: Vec<usize>,
+    pub entry_slots: Vec<SlotNo>,
     /// Such slots at the exit end.
-    pub exit_slots: Vec<usize>,
+    pub exit_slots: Vec<SlotNo>,
     /// Entry end's forward component at the synchronous wavenumber π/τ, relative to the
     /// working wave.
     pub entry_forward_at_1: f64,
@@ -791,8 +792,8 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
                 entry_backward_at_1: eb / amp,
                 exit_forward_at_1: xf / amp,
                 exit_backward_at_1: xb / amp,
-                entry_slots: e.entry.iter().map(|(k, _)| k + 1).collect(),
-                exit_slots: e.exit.iter().map(|(k, _)| k + 1).collect(),
+                entry_slots: e.entry.iter().map(|&(k, _)| SlotNo::at(k)).collect(),
+                exit_slots: e.exit.iter().map(|&(k, _)| SlotNo::at(k)).collect(),
             }
         });
         let strongest_between_orders = continuous

@@ -11,6 +11,7 @@
 
 use super::*;
 use crate::layout;
+use crate::numbering::SlotNo;
 use crate::winding::{self, Winding};
 use rustfft::FftPlanner;
 
@@ -653,7 +654,7 @@ fn a_flat_primary_s_ends_are_the_coil_sides_its_end_slots_lack() {
         let e = l.ends.as_ref().expect("ends");
         assert_eq!(
             e.entry_slots,
-            entry.iter().map(|k| k + 1).collect::<Vec<_>>()
+            entry.iter().map(|&k| SlotNo::at(k)).collect::<Vec<_>>()
         );
         assert!(l.continuous.iter().all(|p| p.entry_forward.is_finite()));
     }

@@ -84,7 +84,7 @@ impl Report for FieldReport {
                      waves off"
                         .to_string()
                 } else {
-                    let slots = |s: &[usize]| {
+                    let slots = |s: &[crate::numbering::SlotNo]| {
                         if s.is_empty() {
                             "none".to_string()
                         } else {

@@ -11,6 +11,8 @@ use num_complex::Complex64;
 use std::f64::consts::PI;
 use thiserror::Error;
 
+use crate::numbering::{CoilNo, SlotNo};
+
 pub use crate::design::{Connection, Core, Design, Labels, Style, Supply, Topology};
 pub use feasible::{double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity};
 pub use groups::{CoilGroup, assign_paths, coil_groups, possible_path_counts};
@@ -124,14 +126,14 @@ pub struct LinearOption {
 /// A slot holding more coil sides than it has layers.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Overfill {
-    /// Slot number, 1-based.
-    pub slot: usize,
+    /// The slot.
+    pub slot: SlotNo,
     /// How many sides were found.
     pub sides: usize,
     /// Layers per slot.
     pub layers: usize,
-    /// Coils involved, 1-based indices into the coil list.
-    pub coils: Vec<usize>,
+    /// Coils involved.
+    pub coils: Vec<CoilNo>,
 }
 
 /// A parallel path count that would drive circulating currents, and those that would not.

@@ -9,6 +9,7 @@
 use serde::Serialize;
 
 use super::{CoilGroup, Winding};
+use crate::numbering::{CoilNo, SlotNo};
 
 /// The groups of one phase and path, in connection order.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -66,14 +67,14 @@ pub enum FinishTo {
     /// The start of the next coil of its group.
     Coil {
         /// That coil, from 1.
-        coil: usize,
+        coil: CoilNo,
     },
     /// The start of the next group of its path (a jumper).
     Group {
         /// That group, from 1.
         group: usize,
         /// Its first coil in current order, from 1.
-        coil: usize,
+        coil: CoilNo,
     },
     /// The finish lead of its path.
     Lead,
@@ -83,11 +84,11 @@ pub enum FinishTo {
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, schemars::JsonSchema)]
 pub struct ScheduleRow {
     /// Coil, from 1.
-    pub coil: usize,
+    pub coil: CoilNo,
     /// Slot where current enters, from 1.
-    pub go: usize,
+    pub go: SlotNo,
     /// Slot where current leaves, from 1.
-    pub back: usize,
+    pub back: SlotNo,
     /// Turns.
     pub turns: u32,
     /// Phase label.
@@ -112,20 +113,22 @@ pub fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<ScheduleRow> {
             let order = current_order(&groups[gi]);
             for (j, &c) in order.iter().enumerate() {
                 let finish_to = if let Some(&next) = order.get(j + 1) {
-                    FinishTo::Coil { coil: next + 1 }
+                    FinishTo::Coil {
+                        coil: CoilNo::at(next),
+                    }
                 } else if let Some(&next) = lane.groups.get(n + 1) {
                     FinishTo::Group {
                         group: next + 1,
-                        coil: current_order(&groups[next])[0] + 1,
+                        coil: CoilNo::at(current_order(&groups[next])[0]),
                     }
                 } else {
                     FinishTo::Lead
                 };
                 let coil = &w.coils[c];
                 out.push(ScheduleRow {
-                    coil: c + 1,
-                    go: coil.go + 1,
-                    back: coil.back + 1,
+                    coil: CoilNo::at(c),
+                    go: SlotNo::at(coil.go),
+                    back: SlotNo::at(coil.back),
                     turns: coil.turns,
                     phase: w.label(lane.phase).to_string(),
                     phase_index: lane.phase,
@@ -159,7 +162,7 @@ mod tests {
             let w = crate::winding::build(&spec).expect("builds");
             let groups = crate::winding::coil_groups(&w);
             let rows = schedule(&w, &groups);
-            let mut seen: Vec<usize> = rows.iter().map(|r| r.coil).collect();
+            let mut seen: Vec<usize> = rows.iter().map(|r| r.coil.get()).collect();
             seen.sort_unstable();
             assert_eq!(seen, (1..=w.coils.len()).collect::<Vec<_>>());
             let leads = rows

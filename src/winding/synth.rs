@@ -11,6 +11,7 @@ use super::{
     rotary_periodicity,
 };
 use crate::layout::{CoilEntry, Spec};
+use crate::numbering::{CoilNo, SlotNo};
 
 /// Build the winding a spec describes: its explicit coil list, or the synthesized layout.
 pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
@@ -661,10 +662,10 @@ fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
         .enumerate()
         .find(|(_, cs)| strict && cs.len() > layers)
     {
-        let mut coils: Vec<usize> = cs.iter().map(|i| i + 1).collect();
+        let mut coils: Vec<CoilNo> = cs.iter().map(|&i| CoilNo::at(i)).collect();
         coils.dedup();
         return Err(PlanError::Overfilled(Overfill {
-            slot: k + 1,
+            slot: SlotNo::at(k),
             sides: cs.len(),
             layers,
             coils,
