@@ -8,7 +8,7 @@
 use num_complex::Complex64;
 use serde::Serialize;
 
-use crate::winding::{Topology, Winding};
+use crate::winding::{Elec, Mech, Topology, Winding};
 
 /// Smallest factor still listed in a table; below this an order is absent.
 pub const PRESENT: f64 = 1e-9;
@@ -17,10 +17,10 @@ pub const PRESENT: f64 = 1e-9;
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct FactorRow {
     /// Electrical order ν.
-    pub order: f64,
+    pub order: Elec,
     /// Mechanical order n = ν·p on a rotary core (wave count around the gap).
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub mech_order: Option<u64>,
+    pub mech_order: Option<Mech>,
     /// Distribution factor k_d.
     pub distribution: f64,
     /// Pitch (chording) factor k_p.
@@ -118,7 +118,7 @@ impl PhaseCoils {
 }
 
 /// The sums at `order` by direct phasor sums over the coils of `phase`.
-fn direct_sums(w: &Winding, phase: usize, order: f64) -> Sums {
+fn direct_sums(w: &Winding, phase: usize, order: Elec) -> Sums {
     let g = &w.geometry;
     let mut out = Sums {
         belt: Complex64::new(0.0, 0.0),
@@ -138,7 +138,7 @@ fn direct_sums(w: &Winding, phase: usize, order: f64) -> Sums {
 /// Factors of `phase` at electrical order `order`, by phasor sums over its coils. Coils of
 /// one span split exactly into belt sum (k_d) and chord (k_p); double-layer coils of
 /// different spans use the mean span for k_p; single-layer windings report k_p = 1.
-pub fn factors_at(w: &Winding, phase: usize, order: f64) -> FactorRow {
+pub fn factors_at(w: &Winding, phase: usize, order: Elec) -> FactorRow {
     factors_from(
         w,
         &PhaseCoils::of(w, phase),
@@ -148,14 +148,14 @@ pub fn factors_at(w: &Winding, phase: usize, order: f64) -> FactorRow {
 }
 
 /// The one rule that turns a phase's sums into factors (see [`factors_at`]).
-fn factors_from(w: &Winding, ph: &PhaseCoils, order: f64, sums: Sums) -> FactorRow {
+fn factors_from(w: &Winding, ph: &PhaseCoils, order: Elec, sums: Sums) -> FactorRow {
     let g = &w.geometry;
     let turns = ph.turns;
     let mech_order = (g.topology == Topology::Rotary).then(|| {
-        let n = order * g.pole_pairs();
-        n.round().max(0.0) as u64
+        let n = order.get() * g.pole_pairs();
+        Mech(n.round().max(0.0) as u64)
     });
-    let skew = closed::skew(order, w.design.skew_slots * g.slot_angle_elec());
+    let skew = closed::skew(order.get(), w.design.skew_slots * g.slot_angle_elec());
     if turns == 0.0 {
         return FactorRow {
             order,
@@ -189,7 +189,7 @@ fn factors_from(w: &Winding, ph: &PhaseCoils, order: f64, sums: Sums) -> FactorR
     } else {
         let kw = sums.emf.norm() / turns;
         let mean = ph.spans.iter().map(|&(s, n)| s as f64 * n).sum::<f64>() / turns;
-        let kp = closed::pitch(mean / g.pole_pitch_slots, order);
+        let kp = closed::pitch(mean / g.pole_pitch_slots, order.get());
         if kp > 1e-9 && kw / kp <= 1.0 + 1e-9 {
             (kw / kp, kp)
         } else {
@@ -257,7 +257,8 @@ impl RotarySums {
     }
 
     /// The sums at mechanical order n.
-    fn at(&self, n: u64) -> Sums {
+    fn at(&self, n: Mech) -> Sums {
+        let n = n.get();
         let z = self.slots as u64;
         let bin = (n % z) as usize;
         let emf_abs = self
@@ -277,10 +278,10 @@ impl RotarySums {
 }
 
 /// Electrical angle spanned by `y` slot pitches at `order`.
-fn span_angle(w: &Winding, y: usize, order: f64) -> f64 {
+fn span_angle(w: &Winding, y: usize, order: Elec) -> f64 {
     match w.geometry.topology {
         Topology::Rotary => w.geometry.slot_angle(y, order),
-        Topology::Linear => order * y as f64 * w.geometry.slot_angle_elec(),
+        Topology::Linear => order.get() * y as f64 * w.geometry.slot_angle_elec(),
     }
 }
 
@@ -290,30 +291,20 @@ fn span_angle(w: &Winding, y: usize, order: f64) -> f64 {
 /// (rotary: every mechanical order n ≤ upto·p; linear: whole orders 1..=upto).
 pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
     let g = &w.geometry;
-    let orders: Vec<f64> = match g.topology {
-        Topology::Rotary => {
-            let p = g.pole_pairs();
-            let top = (upto * p + 1e-9).floor() as u64;
-            (1..=top).map(|n| n as f64 / p).collect()
-        }
-        Topology::Linear => (1..=(upto + 1e-9).floor() as u64)
-            .map(|n| n as f64)
-            .collect(),
-    };
     let ph = PhaseCoils::of(w, 0);
+    let p = g.pole_pairs();
     let rows = match g.topology {
         Topology::Rotary if g.slots > 0 => {
             let sums = RotarySums::of(w, 0);
-            let p = g.pole_pairs();
-            orders
-                .into_iter()
-                .map(|nu| factors_from(w, &ph, nu, sums.at((nu * p).round() as u64)))
+            let top = (upto * p + 1e-9).floor() as u64;
+            (1..=top)
+                .map(Mech)
+                .map(|n| factors_from(w, &ph, n.electrical(p), sums.at(n)))
                 .filter(|r| r.distribution > PRESENT)
                 .collect()
         }
-        _ => orders
-            .into_iter()
-            .map(|nu| factors_at(w, 0, nu))
+        _ => (1..=(upto + 1e-9).floor() as u64)
+            .map(|n| factors_at(w, 0, Elec(n as f64)))
             .filter(|r| r.distribution > PRESENT)
             .collect(),
     };
@@ -327,7 +318,7 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
 
 /// The fundamental factors of the first phase.
 pub fn fundamental(w: &Winding) -> FactorRow {
-    factors_at(w, 0, 1.0)
+    factors_at(w, 0, Elec::FUNDAMENTAL)
 }
 
 #[cfg(test)]
@@ -369,7 +360,7 @@ mod tests {
             assert!(!table.rows.is_empty());
             let p = w.geometry.pole_pairs();
             let kept = (1..=(40.0 * p) as u64)
-                .filter(|&n| factors_at(w, 0, n as f64 / p).distribution > PRESENT)
+                .filter(|&n| factors_at(w, 0, Mech(n).electrical(p)).distribution > PRESENT)
                 .count();
             assert_eq!(table.rows.len(), kept, "Z={}", w.geometry.slots);
             for row in &table.rows {

@@ -12,7 +12,7 @@ use serde::Serialize;
 use crate::factors::factors_at;
 use crate::leakage;
 use crate::numbering::num;
-use crate::winding::{Topology, Winding, with_span};
+use crate::winding::{Elec, Topology, Winding, with_span};
 
 /// What the designer wants from the span.
 #[derive(Debug, Clone, PartialEq)]
@@ -36,7 +36,7 @@ impl Default for PitchGoal {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct HarmonicFactor {
     /// Electrical order ν.
-    pub order: f64,
+    pub order: Elec,
     /// Its winding factor k_wν.
     pub winding: f64,
 }
@@ -132,13 +132,13 @@ pub fn compare(w: &Winding, goal: &PitchGoal) -> PitchReport {
 }
 
 fn row(v: &Winding, y: usize, tau: f64, goal: &PitchGoal) -> PitchRow {
-    let k1 = factors_at(v, 0, 1.0).winding;
+    let k1 = factors_at(v, 0, Elec::FUNDAMENTAL).winding;
     let harmonics: Vec<HarmonicFactor> = goal
         .suppress
         .iter()
         .map(|&nu| HarmonicFactor {
-            order: nu,
-            winding: factors_at(v, 0, nu).winding,
+            order: Elec(nu),
+            winding: factors_at(v, 0, Elec(nu)).winding,
         })
         .collect();
     let content = if k1 > 0.0 {
@@ -190,7 +190,7 @@ fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
         let cuts = best
             .harmonics
             .iter()
-            .map(|h| format!("k_w{} to {}", num(h.order, 3), num(h.winding, 3)))
+            .map(|h| format!("k_w{} to {}", num(h.order.get(), 3), num(h.winding, 3)))
             .join(", ");
         let reason = format!(
             "Span {} ({} of a pole pitch) keeps k_w1 = {} at or above {} and brings {cuts}, \

@@ -5,7 +5,9 @@ use serde::Serialize;
 use crate::factors::{self, FactorRow};
 use crate::linear::{self, Figures, Operating};
 use crate::numbering::{CoilNo, SlotNo};
-use crate::winding::{Connection, Style, Topology, Winding, coil_groups, possible_path_counts};
+use crate::winding::{
+    Connection, Elec, Style, Topology, Winding, coil_groups, possible_path_counts,
+};
 
 pub use crate::safety::CAUTION;
 
@@ -154,11 +156,14 @@ fn layer_name(layers: usize, l: usize) -> &'static str {
 /// Phase EMF phasors at electrical order `order`: magnitudes in effective series turns
 /// N_ph·k_w with the skew factor included (k_w = k_d·k_p·k_s, as `winding_factor`), angles
 /// relative to the first phase at that order (the one reference of every command).
-pub fn phasors(w: &Winding, order: f64) -> Vec<PhasorRow> {
+pub fn phasors(w: &Winding, order: Elec) -> Vec<PhasorRow> {
     let e: Vec<_> = (0..w.geometry.phases)
         .map(|k| w.phase_emf(k, order))
         .collect();
-    let ks = factors::closed::skew(order, w.design.skew_slots * w.geometry.slot_angle_elec());
+    let ks = factors::closed::skew(
+        order.get(),
+        w.design.skew_slots * w.geometry.slot_angle_elec(),
+    );
     let reference = e
         .first()
         .filter(|r| r.norm() > 1e-9)
@@ -271,7 +276,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         slot_table,
         groups: group_rows,
         schedule: crate::winding::schedule::schedule(w, &groups),
-        phases_emf: phasors(w, 1.0),
+        phases_emf: phasors(w, Elec::FUNDAMENTAL),
         half_filled_slots: (g.topology == Topology::Linear)
             .then(|| w.half_filled_slots().into_iter().map(SlotNo::at).collect()),
         empty_slots: w.empty_slots().into_iter().map(SlotNo::at).collect(),

@@ -25,7 +25,7 @@ fn harmonic(r: &beltwright::pitch::PitchReport, span: usize, order: f64) -> f64 
         .expect("span listed");
     row.harmonics
         .iter()
-        .find(|h| h.order == order)
+        .find(|h| h.order.get() == order)
         .map(|h| h.winding)
         .expect("order listed")
 }
@@ -195,7 +195,8 @@ fn survey_scores_every_span_as_the_planner_does() {
         );
         let w = winding(z, poles, 2, row.pitch);
         for (order, kw) in [(5.0, row.winding_5), (7.0, row.winding_7)] {
-            let planned = beltwright::factors::factors_at(&w, 0, order).winding;
+            let planned =
+                beltwright::factors::factors_at(&w, 0, beltwright::winding::Elec(order)).winding;
             assert!(
                 (kw.unwrap_or(-1.0) - planned).abs() < 1e-9,
                 "{what} order {order}: {kw:?} vs {planned}"

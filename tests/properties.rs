@@ -2,7 +2,7 @@
 
 use beltwright::factors::{closed, factors_at};
 use beltwright::layout::parse;
-use beltwright::winding::{Winding, build, double_layer_rotary_feasible};
+use beltwright::winding::{Elec, Winding, build, double_layer_rotary_feasible};
 use proptest::prelude::*;
 use std::f64::consts::PI;
 
@@ -15,7 +15,7 @@ fn layout(topology: &str, slots: usize, poles: usize, layers: usize, pitch: usiz
 
 /// Equal magnitudes, 2π/m apart in positive sequence: the definition of balance.
 fn assert_balanced(w: &Winding) {
-    let e: Vec<_> = (0..3).map(|k| w.phase_emf(k, 1.0)).collect();
+    let e: Vec<_> = (0..3).map(|k| w.phase_emf(k, Elec(1.0))).collect();
     for k in 1..3 {
         assert!((e[k].norm() - e[0].norm()).abs() < 1e-9 * e[0].norm());
         let lag = (e[0] / e[k]).arg().rem_euclid(2.0 * PI);
@@ -55,7 +55,7 @@ proptest! {
             prop_assert_eq!(counts, [1, 1]);
         }
         for nu in [1.0, 5.0, 7.0, 11.0, 13.0] {
-            let f = factors_at(&w, 0, nu);
+            let f = factors_at(&w, 0, Elec(nu));
             prop_assert!(f.winding <= 1.0 + 1e-12);
             prop_assert!((f.winding - f.distribution * f.pitch * f.skew).abs() < 1e-12);
         }
@@ -65,7 +65,7 @@ proptest! {
             let alpha = PI * poles as f64 / z as f64;
             let tau = z as f64 / poles as f64;
             for nu in [1.0, 5.0, 7.0, 11.0, 13.0] {
-                let f = factors_at(&w, 0, nu);
+                let f = factors_at(&w, 0, Elec(nu));
                 prop_assert!((f.distribution - closed::distribution(q, nu, alpha)).abs() < 1e-9);
                 prop_assert!((f.pitch - closed::pitch(y as f64 / tau, nu)).abs() < 1e-9);
             }
@@ -89,7 +89,7 @@ proptest! {
         }
         let half: Vec<usize> = w.half_filled_slots();
         prop_assert_eq!(half.len(), 2 * y);
-        let f = factors_at(&w, 0, 1.0);
+        let f = factors_at(&w, 0, Elec(1.0));
         let alpha = PI / (3 * q) as f64;
         prop_assert!((f.distribution - closed::distribution(q as u32, 1.0, alpha)).abs() < 1e-9);
         prop_assert!((f.pitch - closed::pitch(y as f64 / (3 * q) as f64, 1.0)).abs() < 1e-9);
@@ -111,7 +111,7 @@ proptest! {
                 prop_assert_eq!(c, [1, 0]);
             }
             // A single-layer winding's field is that of full-pitch coils on q slots per belt.
-            let f = factors_at(&w, 0, 1.0);
+            let f = factors_at(&w, 0, Elec(1.0));
             let alpha = PI / tau as f64;
             prop_assert!((f.winding - closed::distribution(q as u32, 1.0, alpha)).abs() < 1e-9);
         }
@@ -134,7 +134,7 @@ proptest! {
         let (b, _c) = w.slots_per_pole_phase();
         let b = b as f64;
         let expect = (PI / 6.0).sin() / (b * (PI / (6.0 * b)).sin());
-        let f = factors_at(&w, 0, 1.0);
+        let f = factors_at(&w, 0, Elec(1.0));
         prop_assert!((f.distribution - expect).abs() < 1e-9, "{z}/{poles}: {} vs {expect}", f.distribution);
     }
 }

@@ -2,7 +2,7 @@
 
 use beltwright::factors::{closed, factor_table, factors_at};
 use beltwright::layout::parse;
-use beltwright::winding::{Winding, build};
+use beltwright::winding::{Elec, Winding, build};
 
 fn winding(
     topology: &str,
@@ -35,7 +35,7 @@ fn thirty_six_slots_four_poles_span_seven_ninths() {
     // (M. G. Say, Alternating Current Machines, 5th ed., 1983, §4.4; Pyrhönen et al.,
     // Design of Rotating Electrical Machines, 2nd ed., 2014, eqs. 2.29 and 2.32).
     let w = winding("rotary", 36, 4, 2, Some(7));
-    let f = factors_at(&w, 0, 1.0);
+    let f = factors_at(&w, 0, Elec(1.0));
     close3(f.distribution, 0.960);
     close3(f.pitch, 0.940);
     close3(f.winding, 0.902);
@@ -50,9 +50,9 @@ fn twenty_four_slots_four_poles_span_five_sixths() {
     // 5/6 chording on q = 2: k_w1 = 0.933, k_w5 = k_w7 = 0.067 (Say 1983, §4.4 tables;
     // closed forms k_d5 = sin 150°/(2 sin 75°), k_p5 = sin(5·75°)).
     let w = winding("rotary", 24, 4, 2, Some(5));
-    close3(factors_at(&w, 0, 1.0).winding, 0.933);
-    close3(factors_at(&w, 0, 5.0).winding, 0.067);
-    close3(factors_at(&w, 0, 7.0).winding, 0.067);
+    close3(factors_at(&w, 0, Elec(1.0)).winding, 0.933);
+    close3(factors_at(&w, 0, Elec(5.0)).winding, 0.067);
+    close3(factors_at(&w, 0, Elec(7.0)).winding, 0.067);
 }
 
 #[test]
@@ -62,19 +62,19 @@ fn tooth_coil_combinations_match_published_tables() {
     // windings", IEEE Trans. Energy Conversion 17(2), 2002, table of k_w1 (values from
     // memory of that table; they agree with F. Meier, KTH 2008, and with the closed forms).
     close3(
-        factors_at(&winding("rotary", 12, 10, 2, None), 0, 1.0).winding,
+        factors_at(&winding("rotary", 12, 10, 2, None), 0, Elec(1.0)).winding,
         0.933,
     );
     close3(
-        factors_at(&winding("rotary", 12, 10, 1, None), 0, 1.0).winding,
+        factors_at(&winding("rotary", 12, 10, 1, None), 0, Elec(1.0)).winding,
         0.966,
     );
     close3(
-        factors_at(&winding("rotary", 9, 8, 2, None), 0, 1.0).winding,
+        factors_at(&winding("rotary", 9, 8, 2, None), 0, Elec(1.0)).winding,
         0.945,
     );
     close3(
-        factors_at(&winding("rotary", 12, 14, 2, None), 0, 1.0).winding,
+        factors_at(&winding("rotary", 12, 14, 2, None), 0, Elec(1.0)).winding,
         0.933,
     );
 }
@@ -86,13 +86,17 @@ fn nine_slot_eight_pole_has_the_published_sub_harmonics() {
     // q = 3/8 tooth coils, Cros & Viarouge 2002).
     let w = winding("rotary", 9, 8, 2, None);
     let t = factor_table(&w, 2.0);
-    let orders: Vec<f64> = t.rows.iter().map(|r| r.order).collect();
+    let orders: Vec<f64> = t.rows.iter().map(|r| r.order.get()).collect();
     assert!(
         orders.contains(&0.25),
         "sub-harmonic ν = 1/4 listed: {orders:?}"
     );
     let kw1 = (80f64.to_radians().sin()) * (1.0 + 2.0 * 20f64.to_radians().cos()) / 3.0;
-    let fund = t.rows.iter().find(|r| r.order == 1.0).map(|r| r.winding);
+    let fund = t
+        .rows
+        .iter()
+        .find(|r| r.order == Elec::FUNDAMENTAL)
+        .map(|r| r.winding);
     assert!((fund.unwrap_or(0.0) - kw1).abs() < 1e-12);
 }
 
@@ -103,12 +107,12 @@ fn skew_of_one_slot_pitch_matches_closed_form() {
     let src = "[machine]\ntopology = \"rotary\"\nslots = 36\npoles = 4\n\
                [winding]\nlayers = 2\npitch = 9\nskew = 1.0\n";
     let w = build(&parse(src, "t").expect("valid")).expect("feasible");
-    let f = factors_at(&w, 0, 1.0);
+    let f = factors_at(&w, 0, Elec(1.0));
     let sigma = 20f64.to_radians();
     assert!((f.skew - (sigma / 2.0).sin() / (sigma / 2.0)).abs() < 1e-12);
     assert!((f.skew - 0.99493).abs() < 5e-6);
     // Slot harmonics 2mq ± 1 = 17, 19 are strongly reduced by one slot pitch of skew.
-    assert!(factors_at(&w, 0, 17.0).skew < 0.06);
+    assert!(factors_at(&w, 0, Elec(17.0)).skew < 0.06);
 }
 
 #[test]
@@ -116,5 +120,5 @@ fn linear_primary_has_the_rotary_factors_of_its_belts() {
     // An open primary of whole q has the same belt and chord factors as the closed core of
     // the same q and span: 24 coils, q = 2, span 5 gives k_w1 = 0.933 (Say 1983, §4.4).
     let w = winding("linear", 29, 4, 2, Some(5));
-    close3(factors_at(&w, 0, 1.0).winding, 0.933);
+    close3(factors_at(&w, 0, Elec(1.0)).winding, 0.933);
 }

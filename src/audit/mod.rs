@@ -18,7 +18,7 @@ use serde::Serialize;
 
 use crate::numbering::{CoilNo, SlotNo};
 use crate::safety::CAUTION;
-use crate::winding::{Topology, Winding, coil_groups};
+use crate::winding::{Elec, Mech, Topology, Winding, coil_groups};
 
 pub use compare::{Comparison, SlotDifference, compare};
 pub use facts::{CoilAt, Fact, PathMove};
@@ -88,7 +88,7 @@ pub struct Finding {
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct HarmonicRow {
     /// Electrical order ν (fractional for a sub-harmonic).
-    pub order: f64,
+    pub order: Elec,
     /// |E| / (4.44·f·Φ_ν) in effective series turns N_ph·k_wν.
     pub magnitude: f64,
     /// Angle in degrees.
@@ -222,15 +222,15 @@ pub use crate::winding::star::symmetrical_components;
 
 /// Orders listed beside the fundamental: 5, 7, and for a fractional-slot rotary winding the
 /// sub-harmonic (ν = n/p, n < p) with the largest EMF.
-fn harmonic_orders(w: &Winding) -> Vec<f64> {
-    let mut orders = vec![5.0, 7.0];
+fn harmonic_orders(w: &Winding) -> Vec<Elec> {
+    let mut orders = vec![Elec(5.0), Elec(7.0)];
     let g = &w.geometry;
     let (_, qd) = w.slots_per_pole_phase();
     if g.topology == Topology::Rotary && qd != 1 {
         let p = g.poles / 2;
         let best = (1..p)
             .map(|n| {
-                let nu = n as f64 / p as f64;
+                let nu = Mech(n as u64).electrical(p as f64);
                 (nu, w.phase_emf(0, nu).norm())
             })
             .filter(|(_, e)| *e > 1e-9 * w.coils.len().max(1) as f64)
@@ -409,7 +409,7 @@ struct Balance {
 
 fn balance(w: &Winding) -> Balance {
     let m = w.geometry.phases;
-    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, 1.0)).collect();
+    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, Elec::FUNDAMENTAL)).collect();
     let (f, b, z) = symmetrical_components(&e);
     let sequence = if f.norm() >= b.norm() {
         Sequence::Positive

@@ -8,7 +8,7 @@ use super::{
     BALANCE_TOL, Fact, Finding, FindingKind, PathMove, PathRow, angle_of, coil_at, slots_of,
 };
 use crate::numbering::CoilNo;
-use crate::winding::{CoilGroup, Winding, coil_groups};
+use crate::winding::{CoilGroup, Elec, Winding, coil_groups};
 
 /// Most coil pairs of one phase tried as an exchange between paths.
 const MAX_PATH_SWAPS: usize = 4_000_000;
@@ -31,7 +31,7 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
         let mut coils: Vec<Vec<usize>> = vec![Vec::new(); a];
         for (i, c) in w.coils.iter().enumerate().filter(|(_, c)| c.phase == k) {
             let p = c.path.min(a - 1);
-            emf[p] += w.coil_emf(c, 1.0);
+            emf[p] += w.coil_emf(c, Elec::FUNDAMENTAL);
             turns[p] += c.turns as u64;
             coils[p].push(i);
         }
@@ -132,7 +132,7 @@ fn path_fix(
     let a = emf.len();
     let total: u64 = turns.iter().sum();
     let mean: Complex64 = emf.iter().sum::<Complex64>() / a as f64;
-    let coil_emf = |i: usize| w.coil_emf(&w.coils[i], 1.0);
+    let coil_emf = |i: usize| w.coil_emf(&w.coils[i], Elec::FUNDAMENTAL);
     let unit = |cs: &[usize]| -> (Complex64, u64) {
         (
             cs.iter().map(|&i| coil_emf(i)).sum(),

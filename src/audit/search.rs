@@ -15,7 +15,7 @@ use num_complex::Complex64 as C;
 use std::f64::consts::PI;
 
 use crate::layout::MAX_PHASES;
-use crate::winding::{Topology, Winding};
+use crate::winding::{Elec, Topology, Winding};
 
 pub use crate::winding::star::BALANCE_TOL;
 
@@ -327,7 +327,11 @@ fn group_candidates(w: &Winding) -> Vec<Vec<usize>> {
 /// positive-sequence winding at the fundamental.
 pub fn search(w: &Winding) -> Search {
     let m = w.geometry.phases.min(MAX_PHASES);
-    let emf: Vec<C> = w.coils.iter().map(|c| w.coil_emf(c, 1.0)).collect();
+    let emf: Vec<C> = w
+        .coils
+        .iter()
+        .map(|c| w.coil_emf(c, Elec::FUNDAMENTAL))
+        .collect();
     let scale: f64 = emf.iter().map(|e| e.norm()).sum();
     let bal = Balance::new(m, scale);
     let mut s0 = State {
@@ -492,7 +496,7 @@ pub fn search(w: &Winding) -> Search {
                 back_layer: moved.back_layer,
             },
             p,
-            w.coil_emf(&moved, 1.0) - emf[i],
+            w.coil_emf(&moved, Elec::FUNDAMENTAL) - emf[i],
             p,
             zero,
             0.0,
@@ -898,11 +902,17 @@ mod tests {
         }
         // Every pair in different phases that changes something (these records are small
         // enough for the search to try them all).
-        let scale: f64 = w.coils.iter().map(|c| w.coil_emf(c, 1.0).norm()).sum();
+        let scale: f64 = w
+            .coils
+            .iter()
+            .map(|c| w.coil_emf(c, Elec::FUNDAMENTAL).norm())
+            .sum();
         for a in 0..w.coils.len() {
             for b in a + 1..w.coils.len() {
                 let (ca, cb) = (&w.coils[a], &w.coils[b]);
-                let same = (w.coil_emf(ca, 1.0) - w.coil_emf(cb, 1.0)).norm() <= 1e-12 * scale
+                let same = (w.coil_emf(ca, Elec::FUNDAMENTAL) - w.coil_emf(cb, Elec::FUNDAMENTAL))
+                    .norm()
+                    <= 1e-12 * scale
                     && ca.turns == cb.turns;
                 if ca.phase != cb.phase && !same {
                     out.push(Edit::SwapCoils {

@@ -102,17 +102,16 @@ fn sheet(rep: &FieldReport, snaps: &[Snapshot], a: Rect) -> Group {
     }
     // The axis starts at order 0 so the working wave's stem at 1 stands clear of it.
     let forward: Vec<(f64, f64)> = std::iter::once((0.0, 0.0))
-        .chain(
-            rep.rows
-                .iter()
-                .flat_map(|row| [(row.order, 0.0), (row.order, row.forward), (row.order, 0.0)]),
-        )
+        .chain(rep.rows.iter().flat_map(|row| {
+            let x = row.order.get();
+            [(x, 0.0), (x, row.forward), (x, 0.0)]
+        }))
         .collect();
     let backward: Vec<(f64, f64)> = rep
         .rows
         .iter()
         .flat_map(|row| {
-            let x = row.order + 0.15;
+            let x = row.order.get() + 0.15;
             [(x, 0.0), (x, row.backward), (x, 0.0)]
         })
         .collect();

@@ -402,8 +402,9 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
             }
         }
         if i % label_every == 0 {
-            chart = chart
-                .add(text(cx, sbot + 16.0, 10.0, &num(row.order, 3)).set("text-anchor", "middle"));
+            chart = chart.add(
+                text(cx, sbot + 16.0, 10.0, &num(row.order.get(), 3)).set("text-anchor", "middle"),
+            );
         }
     }
     chart = axis_titles(

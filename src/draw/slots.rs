@@ -20,7 +20,7 @@ use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::linear::{self, Operating};
 use crate::output::num;
-use crate::winding::{Topology, Winding, coil_groups};
+use crate::winding::{Elec, Topology, Winding, coil_groups};
 
 /// Largest slot pitch on paper, mm: a small core spreads over the page without its
 /// slots turning into boxes.
@@ -370,7 +370,7 @@ fn field_direction(w: &Winding) -> Option<bool> {
     if m < 2 {
         return None;
     }
-    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, 1.0)).collect();
+    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, Elec::FUNDAMENTAL)).collect();
     let size = e[0].norm();
     if size < 1e-12 {
         return None;

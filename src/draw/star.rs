@@ -242,7 +242,7 @@ fn ray_label(slots: &[usize]) -> String {
 }
 
 fn phase_phasors(w: &Winding, pal: &Palette, b: Rect) -> Group {
-    let rows = phasors(w, 1.0);
+    let rows = phasors(w, crate::winding::Elec::FUNDAMENTAL);
     let big = rows
         .iter()
         .map(|p| p.magnitude)

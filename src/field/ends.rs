@@ -11,6 +11,7 @@
 use num_complex::Complex64;
 
 use super::{CurrentSheet, Direction};
+use crate::winding::Elec;
 
 /// Slot currents by which the ends differ from the body: `(slot, residual)` pairs, 0-based,
 /// for the entry end and the exit end.
@@ -73,7 +74,7 @@ impl CurrentSheet {
 
     /// Forward and backward amplitudes at electrical order ν of a sparse set of slot
     /// currents, on the same scale as [`CurrentSheet::wave`].
-    pub fn wave_of(&self, currents: &[(usize, Complex64)], order: f64) -> (f64, f64) {
+    pub fn wave_of(&self, currents: &[(usize, Complex64)], order: Elec) -> (f64, f64) {
         let mut plus = Complex64::new(0.0, 0.0);
         let mut minus = Complex64::new(0.0, 0.0);
         for &(k, ck) in currents {
@@ -81,8 +82,8 @@ impl CurrentSheet {
             plus += ck * e;
             minus += ck * e.conj();
         }
-        let scale =
-            self.opening_factor(order).abs() / (std::f64::consts::PI * order * self.poles as f64);
+        let scale = self.opening_factor(order).abs()
+            / (std::f64::consts::PI * order.get() * self.poles as f64);
         (plus.norm() * scale, minus.norm() * scale)
     }
 }

@@ -33,7 +33,7 @@ use crate::linear::{self, Figures, Operating};
 use crate::numbering::SlotNo;
 use crate::plan::PhasorRow;
 use crate::safety::CAUTION;
-use crate::winding::{Topology, Winding};
+use crate::winding::{Elec, Mech, Topology, Winding};
 
 /// Relative amplitude below which a wave is taken as absent.
 pub const PRESENT: f64 = 1e-9;
@@ -217,14 +217,14 @@ impl CurrentSheet {
     /// transform of the slot current spread evenly over the opening b (T. A. Lipo,
     /// *Introduction to AC Machine Design*, 2017; the same pulse transform as the skew
     /// factor of Pyrhönen et al. 2014, eq. 2.34).
-    pub fn opening_factor(&self, order: f64) -> f64 {
-        let x = order * PI * self.opening / (2.0 * self.pole_pitch_slots);
+    pub fn opening_factor(&self, order: Elec) -> f64 {
+        let x = order.get() * PI * self.opening / (2.0 * self.pole_pitch_slots);
         if x.abs() < 1e-12 { 1.0 } else { x.sin() / x }
     }
 
     /// Slot sums S±(ν) = Σ_k C_k·e^{±jνθ_k}, θ_k the slot's electrical angle (exact integer
     /// reduction on a rotary core).
-    pub fn slot_sums(&self, order: f64) -> (Complex64, Complex64) {
+    pub fn slot_sums(&self, order: Elec) -> (Complex64, Complex64) {
         let mut plus = Complex64::new(0.0, 0.0);
         let mut minus = Complex64::new(0.0, 0.0);
         for (k, ck) in self.slot_current.iter().enumerate() {
@@ -236,10 +236,10 @@ impl CurrentSheet {
         (plus, minus)
     }
 
-    fn angle(&self, k: usize, order: f64) -> f64 {
+    fn angle(&self, k: usize, order: Elec) -> f64 {
         match self.topology {
             Topology::Rotary => self.geometry.slot_angle(k, order),
-            Topology::Linear => PI * order * k as f64 / self.pole_pitch_slots,
+            Topology::Linear => PI * order.get() * k as f64 / self.pole_pitch_slots,
         }
     }
 
@@ -247,9 +247,9 @@ impl CurrentSheet {
     /// ν: `|S±(ν)|·|k_o(ν)| / (π·ν·2p)`. On a linear primary these are the wavenumber
     /// spectrum at κ = ν·π/τ divided by the active length (the amplitude of a wave that would
     /// give the same transform over 2p pole pitches).
-    pub fn wave(&self, order: f64) -> (f64, f64) {
+    pub fn wave(&self, order: Elec) -> (f64, f64) {
         let (plus, minus) = self.slot_sums(order);
-        let scale = self.opening_factor(order).abs() / (PI * order * self.poles as f64);
+        let scale = self.opening_factor(order).abs() / (PI * order.get() * self.poles as f64);
         (plus.norm() * scale, minus.norm() * scale)
     }
 
@@ -437,10 +437,10 @@ pub struct Snapshot {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct WaveRow {
     /// Electrical order ν (ν = n/p on a rotary core; κ/(π/τ) on a linear primary).
-    pub order: f64,
+    pub order: Elec,
     /// Mechanical order n = ν·p (wave count around a rotary gap).
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub mech_order: Option<u64>,
+    pub mech_order: Option<Mech>,
     /// Forward wave amplitude relative to the working wave.
     pub forward: f64,
     /// Backward wave amplitude relative to the working wave.
@@ -483,7 +483,7 @@ pub struct LinearField {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ContinuumPoint {
     /// Electrical order ν = κ/(π/τ), any real value.
-    pub order: f64,
+    pub order: Elec,
     /// Forward amplitude relative to the working wave.
     pub forward: f64,
     /// Backward amplitude relative to the working wave.
@@ -606,7 +606,7 @@ pub struct FieldReport {
 
 /// Working wave of a sheet: the stronger fundamental wave and its direction.
 fn working(sheet: &CurrentSheet) -> Result<(Direction, f64), FieldError> {
-    let (f, b) = sheet.wave(1.0);
+    let (f, b) = sheet.wave(Elec::FUNDAMENTAL);
     let (dir, a) = if f >= b {
         (Direction::Forward, f)
     } else {
@@ -644,9 +644,9 @@ fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
 }
 
 /// Forward and backward amplitudes of every mechanical order 1..=`top` of a rotary sheet,
-/// by one cyclic DFT of the slot currents: S±(n) depends on n only modulo Z, so all orders
-/// cost Z² multiply-adds and no trigonometry beyond one table of Z roots of unity.
-pub fn rotary_spectrum(sheet: &CurrentSheet, top: u64) -> Vec<(u64, f64, f64)> {
+/// by one inverse FFT of the slot currents: S±(n) depends on n only modulo Z, so all orders
+/// cost O(Z log Z) and no trigonometry beyond the FFT's own.
+pub fn rotary_spectrum(sheet: &CurrentSheet, top: u64) -> Vec<(Mech, f64, f64)> {
     let z = sheet.slots();
     if z == 0 || sheet.topology != Topology::Rotary {
         return Vec::new();
@@ -665,12 +665,12 @@ pub fn rotary_spectrum(sheet: &CurrentSheet, top: u64) -> Vec<(u64, f64, f64)> {
     let e: Vec<Complex64> = e.iter().map(|c| Complex64::new(c.re, c.im)).collect();
     let mut out = Vec::with_capacity(top as usize);
     for n in 1..=top {
-        let nu = n as f64 / p;
+        let nu = Mech(n).electrical(p);
         let r = (n % z as u64) as usize;
-        let scale = sheet.opening_factor(nu).abs() / (PI * nu * sheet.poles as f64);
+        let scale = sheet.opening_factor(nu).abs() / (PI * nu.get() * sheet.poles as f64);
         let plus = e[r].norm() * scale;
         let minus = e[(z - r) % z].norm() * scale;
-        out.push((n, plus, minus));
+        out.push((Mech(n), plus, minus));
     }
     out
 }
@@ -688,14 +688,14 @@ fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
             // working row reads exactly 1 (the direct slot sum differs in the last bits).
             let amplitude = spectrum
                 .iter()
-                .find(|r| r.0 as f64 == p)
+                .find(|r| r.0.get() as f64 == p)
                 .map(|r| r.1.max(r.2))
                 .filter(|a| *a > 0.0)
                 .unwrap_or(amplitude);
             spectrum
                 .into_iter()
                 .map(|(n, f, b)| WaveRow {
-                    order: n as f64 / p,
+                    order: n.electrical(p),
                     mech_order: Some(n),
                     forward: f / amplitude,
                     backward: b / amplitude,
@@ -705,9 +705,9 @@ fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
         }
         Topology::Linear => (1..=((upto + 1e-9).floor().max(0.0) as u64).min(MAX_ORDERS))
             .map(|n| {
-                let (f, b) = sheet.wave(n as f64);
+                let (f, b) = sheet.wave(Elec(n as f64));
                 WaveRow {
-                    order: n as f64,
+                    order: Elec(n as f64),
                     mech_order: None,
                     forward: f / amplitude,
                     backward: b / amplitude,
@@ -722,9 +722,9 @@ fn rows_of(sheet: &CurrentSheet, upto: f64, amplitude: f64) -> Vec<WaveRow> {
 fn crest(sheet: &CurrentSheet, dir: Direction, theta: f64) -> f64 {
     // Forward part of Re{F̃e^{jωt}} at order 1 is Re{c·e^{j(ωt − κx')}} with
     // c = j·S+·k_o/(π·2p) and x' = x − 0.5; backward: Re{c'·e^{j(ωt + κx')}}, c' = −j·S−·k_o/(..).
-    let (plus, minus) = sheet.slot_sums(1.0);
+    let (plus, minus) = sheet.slot_sums(Elec::FUNDAMENTAL);
     let kappa = PI / sheet.pole_pitch_slots;
-    let ko = sheet.opening_factor(1.0);
+    let ko = sheet.opening_factor(Elec::FUNDAMENTAL);
     let x = match dir {
         Direction::Forward => (theta + (Complex64::i() * plus * ko).arg()) / kappa,
         Direction::Backward => -(theta + (-Complex64::i() * minus * ko).arg()) / kappa,
@@ -758,7 +758,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         },
     );
     let linear = (g.topology == Topology::Linear).then(|| {
-        let (f, b) = sheet.wave(1.0);
+        let (f, b) = sheet.wave(Elec::FUNDAMENTAL);
         // Samples at a quarter of the lobe width 1/(2p), capped in number.
         let step = (1.0 / (8.0 * g.poles.max(1) as f64)).max(opts.upto / MAX_CONTINUUM as f64);
         let n = (opts.upto / step).floor() as usize;
@@ -769,7 +769,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         let parts = end_currents.as_ref().unwrap_or(&none);
         let continuous: Vec<ContinuumPoint> = (1..=n)
             .map(|k| {
-                let order = k as f64 * step;
+                let order = Elec(k as f64 * step);
                 let (cf, cb) = sheet.wave(order);
                 let (ef, eb) = sheet.wave_of(&parts.entry, order);
                 let (xf, xb) = sheet.wave_of(&parts.exit, order);
@@ -785,8 +785,8 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
             })
             .collect();
         let ends = end_currents.as_ref().map(|e| {
-            let (ef, eb) = sheet.wave_of(&e.entry, 1.0);
-            let (xf, xb) = sheet.wave_of(&e.exit, 1.0);
+            let (ef, eb) = sheet.wave_of(&e.entry, Elec::FUNDAMENTAL);
+            let (xf, xb) = sheet.wave_of(&e.exit, Elec::FUNDAMENTAL);
             EndComponents {
                 entry_forward_at_1: ef / amp,
                 entry_backward_at_1: eb / amp,
@@ -798,7 +798,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
         });
         let strongest_between_orders = continuous
             .iter()
-            .filter(|p| (p.order - p.order.round()).abs() >= 0.25 - 1e-9)
+            .filter(|p| (p.order.get() - p.order.get().round()).abs() >= 0.25 - 1e-9)
             .copied()
             .max_by(|a, b| {
                 a.forward

@@ -13,6 +13,7 @@ use super::*;
 use crate::layout;
 use crate::numbering::SlotNo;
 use crate::winding::{self, Winding};
+use crate::winding::{Elec, Mech};
 use rustfft::FftPlanner;
 
 /// σ_d of the field report under balanced positive-sequence currents, no slot opening.
@@ -47,9 +48,9 @@ fn row(r: &FieldReport, order: f64) -> WaveRow {
     r.rows
         .iter()
         .copied()
-        .find(|x| (x.order - order).abs() < 1e-9)
+        .find(|x| (x.order.get() - order).abs() < 1e-9)
         .unwrap_or(WaveRow {
-            order,
+            order: Elec(order),
             mech_order: None,
             forward: 0.0,
             backward: 0.0,
@@ -182,9 +183,9 @@ fn closed_form_spectrum_agrees_with_fft_of_sampled_mmf() {
         let m = (w.geometry.slots * per_slot) as f64;
         let fft = fft_waves(&sheet, per_slot, top);
         let closed = rotary_spectrum(&sheet, top as u64);
-        let a1 = sheet.wave(1.0).0;
+        let a1 = sheet.wave(Elec::FUNDAMENTAL).0;
         for ((n, f, bk), (ff, fb)) in closed.iter().zip(&fft) {
-            let x = std::f64::consts::PI * *n as f64 / m;
+            let x = std::f64::consts::PI * n.get() as f64 / m;
             let tol = |v: f64| v * x * x / 3.0 * 1.01 + 1e-9 * a1;
             assert!(
                 (f - ff).abs() <= tol(*f),
@@ -211,9 +212,9 @@ fn integer_slot_orders_are_six_k_plus_minus_one() {
     ] {
         let r = report(&w, 61.0);
         for x in &r.rows {
-            let nu = x.order.round() as u64;
+            let nu = x.order.get().round() as u64;
             assert!(
-                (x.order - nu as f64).abs() < 1e-12,
+                (x.order.get() - nu as f64).abs() < 1e-12,
                 "fractional order {}",
                 x.order
             );
@@ -262,7 +263,7 @@ fn amplitudes_follow_winding_factors_including_fractional_slot() {
         let k1 = factors::fundamental(&w).winding;
         for x in &r.rows {
             let kw = factors::factors_at(&w, 0, x.order);
-            let want = kw.distribution * kw.pitch / (x.order * k1);
+            let want = kw.distribution * kw.pitch / (x.order.get() * k1);
             let (big, small) = (x.forward.max(x.backward), x.forward.min(x.backward));
             assert!(
                 (big - want).abs() < 1e-10,
@@ -280,7 +281,11 @@ fn amplitudes_follow_winding_factors_including_fractional_slot() {
 #[test]
 fn tooth_coil_winding_has_sub_harmonic() {
     let r = report(&rotary(12, 10, 2, 1), 4.0);
-    let n: Vec<u64> = r.rows.iter().filter_map(|x| x.mech_order).collect();
+    let n: Vec<u64> = r
+        .rows
+        .iter()
+        .filter_map(|x| x.mech_order.map(Mech::get))
+        .collect();
     assert_eq!(&n[..6], &[1, 5, 7, 11, 13, 17]);
     let sub = row(&r, 0.2);
     assert!(sub.forward.max(sub.backward) > 0.05);
@@ -343,8 +348,12 @@ fn a_reversed_coil_makes_a_backward_fundamental() {
     std::mem::swap(&mut c.go, &mut c.back);
     let r = report(&w, 1.0);
     let i = balanced_currents(3, Sequence::Positive);
-    let plus: Complex64 = (0..3).map(|k| w.phase_emf(k, 1.0).conj() * i[k]).sum();
-    let minus: Complex64 = (0..3).map(|k| w.phase_emf(k, 1.0) * i[k]).sum();
+    let plus: Complex64 = (0..3)
+        .map(|k| w.phase_emf(k, Elec::FUNDAMENTAL).conj() * i[k])
+        .sum();
+    let minus: Complex64 = (0..3)
+        .map(|k| w.phase_emf(k, Elec::FUNDAMENTAL) * i[k])
+        .sum();
     let b = row(&r, 1.0).backward;
     assert!(b > 0.01);
     assert!((b - minus.norm() / plus.norm()).abs() < 1e-12);
@@ -442,7 +451,7 @@ fn slot_opening_factor_and_parseval_with_ramps() {
     let sheet = CurrentSheet::new(&w, &cur, b).unwrap();
     let nu = 5.0;
     let x = nu * std::f64::consts::PI * b / (2.0 * 9.0);
-    assert!((sheet.opening_factor(nu) - x.sin() / x).abs() < 1e-15);
+    assert!((sheet.opening_factor(Elec(nu)) - x.sin() / x).abs() < 1e-15);
     let top = 400_000u64;
     let sum: f64 = rotary_spectrum(&sheet, top)
         .iter()
@@ -545,7 +554,7 @@ fn folded_primary_parseval_equals_its_integer_order_amplitudes() {
     let top = 200_000u64;
     let mut sum = 0.0;
     for nu in 1..=top {
-        let (a, b) = sheet.wave(nu as f64);
+        let (a, b) = sheet.wave(Elec(nu as f64));
         // Refer to the folded core: same slot sums, amplitude scale 2p_open/2p_folded.
         let k = sheet.poles as f64 / f.poles as f64;
         sum += (a * k).powi(2) + (b * k).powi(2);
@@ -593,10 +602,10 @@ fn linear_transform_agrees_with_fft_of_padded_primary() {
         FftPlanner::new().plan_fft_forward(m).process(&mut buf);
         let la = sheet.reference_length();
         let scale = win as f64 / (m as f64 * la);
-        let a1 = sheet.wave(1.0).0;
+        let a1 = sheet.wave(Elec::FUNDAMENTAL).0;
         for nu in 1..=20usize {
             let bin = nu * k;
-            let (f, b) = sheet.wave(nu as f64);
+            let (f, b) = sheet.wave(Elec(nu as f64));
             let (ff, fb) = (buf[m - bin].norm() * scale, buf[bin].norm() * scale);
             let x = std::f64::consts::PI * bin as f64 / m as f64;
             let tol = |v: f64| v * x * x / 3.0 * 1.01 + 1e-9 * a1;

@@ -118,7 +118,7 @@ impl Report for AuditReport {
         let orders: Vec<f64> = self
             .phases
             .first()
-            .map(|p| p.harmonics.iter().map(|h| h.order).collect())
+            .map(|p| p.harmonics.iter().map(|h| h.order.get()).collect())
             .unwrap_or_default();
         let mut cols: Vec<(String, Align)> = vec![
             ("phase".into(), Align::Left),

@@ -73,7 +73,7 @@ impl Report for FieldReport {
                      {} (JSON: continuous)",
                         num(c.forward, 4),
                         num(c.backward, 4),
-                        num(c.order, 3)
+                        num(c.order.get(), 3)
                     ),
                     78,
                 ));
@@ -196,7 +196,7 @@ impl Report for FieldReport {
         ]);
         for r in &self.rows {
             t.push(vec![
-                num(r.order, 4),
+                num(r.order.get(), 4),
                 r.mech_order.map(|n| n.to_string()).unwrap_or_default(),
                 format!("{:.6}", r.forward),
                 format!("{:.6}", r.backward),

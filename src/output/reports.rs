@@ -272,7 +272,7 @@ impl Report for FactorTable {
         ]);
         for r in &self.rows {
             t.push(vec![
-                num(r.order, 4),
+                num(r.order.get(), 4),
                 r.mech_order.map(|n| n.to_string()).unwrap_or_default(),
                 format!("{:.4}", r.distribution),
                 format!("{:.4}", r.pitch),

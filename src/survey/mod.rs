@@ -17,7 +17,7 @@ mod spans;
 
 use crate::winding::star::{order_amplitude, roots_of_unity};
 use crate::winding::{
-    Topology, double_layer_rotary_feasible, gcd, possible_path_counts, rotary_periodicity,
+    Elec, Topology, double_layer_rotary_feasible, gcd, possible_path_counts, rotary_periodicity,
     synthesize_brief,
 };
 use spans::SpanScore;
@@ -348,8 +348,8 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffer
             r.feasible = true;
             r.pitch = Some(w.pitch);
             r.winding = Some(crate::factors::fundamental(&w).winding);
-            r.winding_5 = Some(crate::factors::factors_at(&w, 0, 5.0).winding);
-            r.winding_7 = Some(crate::factors::factors_at(&w, 0, 7.0).winding);
+            r.winding_5 = Some(crate::factors::factors_at(&w, 0, Elec(5.0)).winding);
+            r.winding_7 = Some(crate::factors::factors_at(&w, 0, Elec(7.0)).winding);
             r.spans_scored = 1;
             r.max_winding_pitch = r.pitch;
             r.max_winding = r.winding;

@@ -8,7 +8,7 @@
 use num_complex::Complex64;
 
 use super::star::BALANCE_TOL;
-use super::{PathChoice, PlanError, Topology, Winding};
+use super::{Elec, PathChoice, PlanError, Topology, Winding};
 
 /// A run of adjacent coils of one phase and one polarity.
 #[derive(Debug, Clone, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
@@ -55,7 +55,10 @@ pub fn coil_groups(w: &Winding) -> Vec<CoilGroup> {
 
 /// EMF phasor of a set of coils at the fundamental.
 fn emf_of(w: &Winding, coils: &[usize]) -> Complex64 {
-    coils.iter().map(|&i| w.coil_emf(&w.coils[i], 1.0)).sum()
+    coils
+        .iter()
+        .map(|&i| w.coil_emf(&w.coils[i], Elec::FUNDAMENTAL))
+        .sum()
 }
 
 fn turns_of(w: &Winding, coils: &[usize]) -> u64 {

@@ -3,6 +3,7 @@
 
 mod feasible;
 mod groups;
+mod order;
 pub mod schedule;
 pub mod star;
 mod synth;
@@ -16,6 +17,7 @@ use crate::numbering::{CoilNo, SlotNo};
 pub use crate::design::{Connection, Core, Design, Labels, Style, Supply, Topology};
 pub use feasible::{double_layer_rotary_feasible, nearby_rotary_slot_counts, rotary_periodicity};
 pub use groups::{CoilGroup, assign_paths, coil_groups, possible_path_counts};
+pub use order::{Elec, Mech};
 pub use synth::{
     build, build_lenient, single_layer_rotary_feasible, synthesize, synthesize_brief, with_span,
 };
@@ -203,8 +205,8 @@ impl Geometry {
     /// Electrical angle (radians) of slot `k` (0-based) at electrical order `order`.
     /// Exact integer reduction when `order · angle_num` is whole, so large slot numbers lose
     /// no precision.
-    pub fn slot_angle(&self, k: usize, order: f64) -> f64 {
-        let r = order * self.angle_num as f64;
+    pub fn slot_angle(&self, k: usize, order: Elec) -> f64 {
+        let r = order.get() * self.angle_num as f64;
         let ri = r.round();
         if (r - ri).abs() < 1e-9 && ri.abs() < 1e15 {
             // Whole multiple of the slot angle: reduce exactly, in 64 bits where the
@@ -304,7 +306,7 @@ impl Winding {
 
     /// EMF phasor of one coil at `order`, in turns: N·(e^{−jθ_go} − e^{−jθ_back})/2, so that a
     /// full-pitch coil of N turns gives magnitude N (EMF per 4.44·f·Φ).
-    pub fn coil_emf(&self, coil: &Coil, order: f64) -> Complex64 {
+    pub fn coil_emf(&self, coil: &Coil, order: Elec) -> Complex64 {
         let g = self.geometry.slot_angle(coil.go, order);
         let b = self.geometry.slot_angle(coil.back, order);
         let e = Complex64::from_polar(1.0, -g) - Complex64::from_polar(1.0, -b);
@@ -313,7 +315,7 @@ impl Winding {
 
     /// EMF phasor of a phase at `order`: the sum over its coils divided by the parallel path
     /// count, i.e. N_ph·k_w in magnitude (effective series turns).
-    pub fn phase_emf(&self, phase: usize, order: f64) -> Complex64 {
+    pub fn phase_emf(&self, phase: usize, order: Elec) -> Complex64 {
         let s: Complex64 = self
             .coils
             .iter()
@@ -324,7 +326,7 @@ impl Winding {
     }
 
     /// EMF phasors of every phase at `order` in one pass over the coils (see `phase_emf`).
-    pub fn phase_emfs(&self, order: f64) -> Vec<Complex64> {
+    pub fn phase_emfs(&self, order: Elec) -> Vec<Complex64> {
         let mut e = vec![Complex64::new(0.0, 0.0); self.geometry.phases];
         for c in &self.coils {
             e[c.phase] += self.coil_emf(c, order);
@@ -348,7 +350,7 @@ impl Winding {
     /// True when every phase EMF at the fundamental has the same magnitude and the phases
     /// follow each other by 2π/m in sequence order (positive sequence).
     pub fn is_balanced(&self) -> bool {
-        star::is_positive_sequence(&self.phase_emfs(1.0))
+        star::is_positive_sequence(&self.phase_emfs(Elec::FUNDAMENTAL))
     }
 
     /// Occupancy of every slot layer: `fill[slot][layer]` is the coil index (0-based) whose
