@@ -11,16 +11,14 @@ mod cli;
 use cli::args::Cli;
 use cli::commands::run;
 use cli::files;
-use cli::{EXIT_FAILURE, note};
+use cli::{EXIT_FAILURE, Printed, note};
 
-/// Write the report to stdout. A closed pipe (`beltwright survey ... | head -1`) ends
-/// quietly as Unix tools do; any other write error (a full device) is a failure.
-fn emit(out: &str) -> Result<(), std::io::Error> {
-    let mut stdout = std::io::stdout().lock();
-    match stdout
-        .write_all(out.as_bytes())
-        .and_then(|()| stdout.flush())
-    {
+/// Write what the command printed straight onto stdout. A closed pipe (`beltwright survey
+/// ... | head -1`) ends quietly as Unix tools do; any other write error (a full device) is
+/// a failure.
+fn emit(printed: Printed) -> Result<(), std::io::Error> {
+    let mut stdout = std::io::BufWriter::new(std::io::stdout().lock());
+    match printed(&mut stdout).and_then(|()| stdout.flush()) {
         Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
         other => other,
     }
@@ -34,7 +32,7 @@ fn main() -> ExitCode {
         Err(mut f) => (f.report.take(), Some(f)),
     };
     if let Some(out) = out
-        && let Err(e) = emit(&out)
+        && let Err(e) = emit(out)
     {
         note(&format!("beltwright: cannot write the output: {e}"));
         return ExitCode::from(EXIT_FAILURE);

@@ -1,11 +1,11 @@
 //! The commands: check the flags, read the layout files, call the library, present the
 //! reports and write the files asked for.
 
-use std::io::IsTerminal;
+use std::io::{IsTerminal, Write};
 use std::path::{Path, PathBuf};
 
 use super::files::{self, check_output, write_set};
-use super::{Failure, note};
+use super::{Failure, Printed, note};
 use indicatif::ProgressBar;
 
 use beltwright::audit;
@@ -15,7 +15,7 @@ use beltwright::factors;
 use beltwright::field::{self, FieldOptions};
 use beltwright::layout;
 use beltwright::linear::Operating;
-use beltwright::output::{Format, Report, render};
+use beltwright::output::{self, Format, Report, render};
 use beltwright::pitch::{self, PitchGoal};
 use beltwright::plan;
 use beltwright::rewind::{self, OldConductor};
@@ -27,7 +27,7 @@ use super::args::*;
 /// Largest Σ(slots) × poles × planned layers a survey plans row by row.
 const SURVEY_PLANNED_WORK: f64 = 2.5e7;
 
-pub fn run(cli: Cli) -> Result<String, Failure> {
+pub fn run(cli: Cli) -> Result<Printed, Failure> {
     match cli.command {
         Command::Plan(a) => {
             let w = load(&a.common.file)?;
@@ -39,26 +39,31 @@ pub fn run(cli: Cli) -> Result<String, Failure> {
             if let Some(dir) = &a.out {
                 write_pack(&w, &a.common.file, dir, &report)?;
             }
-            present(&report, a.common.format)
+            Ok(present(report, a.common.format))
         }
         Command::Draw(a) => {
             let kind = sheet_kind(&a.output, a.dpi)?;
             let w = load(&a.file)?;
             let pages = draw::draw(&w, a.sheet.into(), &page_of(a.page, a.portrait));
             let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
-            Ok(wrote(&written))
+            Ok(say(wrote(&written)))
         }
         Command::Report(a) => {
             let Some(out) = &a.output else {
                 let w = load(&a.file)?;
-                let mut text = present(&plan::plan(&w, Operating::default()), Format::Text)?;
-                text += "\n";
-                text += &present(&factors::factor_table(&w, 25.0), Format::Text)?;
-                if let Ok(f) = field::field(&w, &FieldOptions::balanced(&w)) {
-                    text += "\n";
-                    text += &present(&f, Format::Text)?;
-                }
-                return Ok(text);
+                let plan = plan::plan(&w, Operating::default());
+                let factors = factors::factor_table(&w, 25.0);
+                let field = field::field(&w, &FieldOptions::balanced(&w)).ok();
+                return Ok(Box::new(move |out: &mut dyn Write| {
+                    output::write(&plan, Format::Text, out)?;
+                    out.write_all(b"\n")?;
+                    output::write(&factors, Format::Text, out)?;
+                    if let Some(f) = &field {
+                        out.write_all(b"\n")?;
+                        output::write(f, Format::Text, out)?;
+                    }
+                    Ok(())
+                }));
             };
             if out
                 .extension()
@@ -73,7 +78,7 @@ pub fn run(cli: Cli) -> Result<String, Failure> {
                 };
                 let html = beltwright::output::html::document(&w, intended.as_ref());
                 write_atomic(out, &a.file, html.as_bytes(), "-o")?;
-                return Ok(wrote(std::slice::from_ref(out)));
+                return Ok(say(wrote(std::slice::from_ref(out))));
             }
             let kind = sheet_kind(out, a.dpi)?;
             let w = load(&a.file)?;
@@ -84,7 +89,7 @@ pub fn run(cli: Cli) -> Result<String, Failure> {
                 .flat_map(|sheet| draw::draw(&w, sheet, &page))
                 .collect();
             let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
-            Ok(wrote(&written))
+            Ok(say(wrote(&written)))
         }
         Command::Factors(a) => {
             if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
@@ -94,17 +99,17 @@ pub fn run(cli: Cli) -> Result<String, Failure> {
                 )));
             }
             let w = load(&a.common.file)?;
-            present(&factors::factor_table(&w, a.upto), a.common.format)
+            Ok(present(factors::factor_table(&w, a.upto), a.common.format))
         }
         Command::Card(a) => {
             let w = load(&a.file)?;
-            present(&beltwright::card::card(&w), a.format)
+            Ok(present(beltwright::card::card(&w), a.format))
         }
         Command::Completions { shell } => {
             let mut cmd = <Cli as clap::CommandFactory>::command();
             let mut buf = Vec::new();
             clap_complete::generate(shell, &mut cmd, "beltwright", &mut buf);
-            String::from_utf8(buf).map_err(|e| Failure::output(e.to_string()))
+            Ok(Box::new(move |out: &mut dyn Write| out.write_all(&buf)))
         }
         Command::Man => {
             let cmd = <Cli as clap::CommandFactory>::command();
@@ -112,14 +117,14 @@ pub fn run(cli: Cli) -> Result<String, Failure> {
             clap_mangen::Man::new(cmd)
                 .render(&mut buf)
                 .map_err(|e| Failure::output(e.to_string()))?;
-            String::from_utf8(buf).map_err(|e| Failure::output(e.to_string()))
+            Ok(Box::new(move |out: &mut dyn Write| out.write_all(&buf)))
         }
         Command::Thrust(a) => run_thrust(a),
         Command::Inductance(a) => {
             let w = load(&a.common.file)?;
             let r = beltwright::inductance::inductance(&w, a.coils)
                 .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
-            present(&r, a.common.format)
+            Ok(present(r, a.common.format))
         }
         Command::Field(a) => run_field(a),
         Command::Pitch(a) => pitch(a),
@@ -129,7 +134,7 @@ pub fn run(cli: Cli) -> Result<String, Failure> {
     }
 }
 
-fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
+fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {
     let slips = a.slip;
     let w = load(&a.common.file)?;
     // A speed range becomes the slips s = 1 − v/v_s, fastest first.
@@ -167,10 +172,10 @@ fn run_thrust(a: ThrustArgs) -> Result<String, Failure> {
     };
     let r = beltwright::thrust::thrust(&w, &q)
         .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
-    present(&r, a.common.format)
+    Ok(present(r, a.common.format))
 }
 
-fn run_audit(a: AuditArgs) -> Result<String, Failure> {
+fn run_audit(a: AuditArgs) -> Result<Printed, Failure> {
     let (spec, name, source) = read_spec_source(&a.common.file)?;
     let w = winding::build_lenient(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))?;
     let design = match &a.intended {
@@ -191,22 +196,20 @@ fn run_audit(a: AuditArgs) -> Result<String, Failure> {
         None => None,
     };
     let report = audit::audit(&w, design.as_ref());
-    let out = present(&report, a.common.format)?;
-    if report.sound {
+    let (sound, found) = (report.sound, report.findings.len());
+    let out = present(report, a.common.format);
+    if sound {
         Ok(out)
     } else {
         Err(Failure {
-            message: format!(
-                "{name}: the audit found {} problem(s); see the findings",
-                report.findings.len()
-            ),
+            message: format!("{name}: the audit found {found} problem(s); see the findings"),
             status: 1,
             report: Some(out),
         })
     }
 }
 
-fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
+fn run_rewind(a: RewindArgs) -> Result<Printed, Failure> {
     let check = |flag: &str, v: f64| {
         if v.is_finite() && v > 0.0 && v < 1000.0 {
             Ok(v)
@@ -231,11 +234,11 @@ fn run_rewind(a: RewindArgs) -> Result<String, Failure> {
     let new = load(&a.to)?;
     let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a)
         .map_err(|e| Failure::input(format!("{} -> {}: {e}", a.from.display(), a.to.display())))?;
-    present(&report, a.format)
+    Ok(present(report, a.format))
 }
 
 /// `beltwright field`: check the flags, compute, present, and write the sheet if asked.
-fn run_field(a: FieldArgs) -> Result<String, Failure> {
+fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
     if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
         return Err(Failure::input(format!(
             "--upto {} is not valid; give an order from 1 to 10000",
@@ -291,10 +294,10 @@ fn run_field(a: FieldArgs) -> Result<String, Failure> {
             "--svg",
         )?;
     }
-    present(&report, a.common.format)
+    Ok(present(report, a.common.format))
 }
 
-fn pitch(a: PitchArgs) -> Result<String, Failure> {
+fn pitch(a: PitchArgs) -> Result<Printed, Failure> {
     if let Some(path) = &a.svg {
         check_output(path, &[&a.common.file], "--svg")?;
     }
@@ -312,10 +315,10 @@ fn pitch(a: PitchArgs) -> Result<String, Failure> {
             "--svg",
         )?;
     }
-    present(&report, a.common.format)
+    Ok(present(report, a.common.format))
 }
 
-fn survey(a: SurveyArgs) -> Result<String, Failure> {
+fn survey(a: SurveyArgs) -> Result<Printed, Failure> {
     let (lo, hi) = (*a.slots.start(), *a.slots.end());
     let (plo, phi) = (*a.poles.start(), *a.poles.end());
     let combos = (hi - lo + 1) * (phi - plo + 1) * a.layers.len();
@@ -365,7 +368,7 @@ fn survey(a: SurveyArgs) -> Result<String, Failure> {
         survey::survey(&query, &|| {})
     };
     survey::filter_and_sort(&mut report, a.min_kw, a.feasible, a.sort.into());
-    present(&report, a.format)
+    Ok(present(report, a.format))
 }
 
 /// Write one output file (as a set of one), never over an input.
@@ -373,9 +376,15 @@ fn write_atomic(path: &Path, input: &Path, bytes: &[u8], flag: &str) -> Result<(
     write_set(&[(path.to_path_buf(), bytes.to_vec())], &[], &[input], flag)
 }
 
-fn present<R: Report>(report: &R, format: impl Into<Format>) -> Result<String, Failure> {
-    render(report, format.into())
-        .map_err(|e| Failure::output(format!("could not write the report: {e}")))
+/// The report, to be written straight onto stdout in `format` once the command is done.
+fn present<R: Report + 'static>(report: R, format: impl Into<Format>) -> Printed {
+    let format = format.into();
+    Box::new(move |out: &mut dyn Write| output::write(&report, format, out))
+}
+
+/// Lines of text for stdout.
+fn say(text: String) -> Printed {
+    Box::new(move |out: &mut dyn Write| out.write_all(text.as_bytes()))
 }
 
 /// Read and validate a layout file and build its winding.

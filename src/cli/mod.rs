@@ -17,6 +17,10 @@ pub fn note(message: &str) {
 /// apart from 1 (an audit found faults) and 2 (bad input or usage).
 pub const EXIT_FAILURE: u8 = 3;
 
+/// What a command prints on stdout: written straight into it (JSON streamed as serde walks
+/// the report, text and CSV a line or a table at a time) once the command has succeeded.
+pub type Printed = Box<dyn FnOnce(&mut dyn Write) -> std::io::Result<()>>;
+
 /// A failure at the edge: what to print, and the exit status.
 pub struct Failure {
     /// What went wrong and what would be valid.
@@ -24,7 +28,7 @@ pub struct Failure {
     /// 1 faults found, 2 bad input or usage, 3 output or internal failure.
     pub status: u8,
     /// A report still printed on stdout (an audit that found faults).
-    pub report: Option<String>,
+    pub report: Option<Printed>,
 }
 
 impl Failure {

@@ -30,20 +30,22 @@ fn field(s: &str) -> String {
 }
 
 impl Exporter for Csv {
-    fn export<R: Report>(&self, report: &R) -> Result<String, serde_json::Error> {
+    /// Row by row into `out`, through one line buffer.
+    fn export<R: Report>(&self, report: &R, out: &mut dyn std::io::Write) -> std::io::Result<()> {
         let t = report.main_table();
-        // One buffer for the whole file (about eight bytes a cell to start with).
-        let mut out = String::with_capacity(8 * t.headers.len() * (t.rows.len() + 1));
+        let mut line = String::new();
         for row in std::iter::once(&t.headers).chain(&t.rows) {
+            line.clear();
             for (i, c) in row.iter().enumerate() {
                 if i > 0 {
-                    out.push(',');
+                    line.push(',');
                 }
-                push_field(&mut out, c);
+                push_field(&mut line, c);
             }
-            out.push('\n');
+            line.push('\n');
+            out.write_all(line.as_bytes())?;
         }
-        Ok(out)
+        Ok(())
     }
 }
 

@@ -6,9 +6,9 @@ use super::{Exporter, Report};
 pub struct Json;
 
 impl Exporter for Json {
-    fn export<R: Report>(&self, report: &R) -> Result<String, serde_json::Error> {
-        let mut s = serde_json::to_string_pretty(report)?;
-        s.push('\n');
-        Ok(s)
+    /// Streamed: serde writes the object into `out` as it walks the report.
+    fn export<R: Report>(&self, report: &R, out: &mut dyn std::io::Write) -> std::io::Result<()> {
+        serde_json::to_writer_pretty(&mut *out, report)?;
+        out.write_all(b"\n")
     }
 }

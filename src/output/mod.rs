@@ -60,17 +60,29 @@ pub trait Report: Serialize {
 
 /// One output format.
 pub trait Exporter {
-    /// Serialize a report to the bytes written on stdout.
-    fn export<R: Report>(&self, report: &R) -> Result<String, serde_json::Error>;
+    /// Write a report straight into `out` (stdout, a file, a buffer): nothing is assembled
+    /// in memory first beyond one line or one table.
+    fn export<R: Report>(&self, report: &R, out: &mut dyn std::io::Write) -> std::io::Result<()>;
 }
 
-/// Present `report` in `format`.
-pub fn render<R: Report>(report: &R, format: Format) -> Result<String, serde_json::Error> {
+/// Write `report` in `format` into `out`.
+pub fn write<R: Report>(
+    report: &R,
+    format: Format,
+    out: &mut dyn std::io::Write,
+) -> std::io::Result<()> {
     match format {
-        Format::Text => Text.export(report),
-        Format::Json => Json.export(report),
-        Format::Csv => Csv.export(report),
+        Format::Text => Text.export(report, out),
+        Format::Json => Json.export(report, out),
+        Format::Csv => Csv.export(report, out),
     }
+}
+
+/// Present `report` in `format` as one string (for pages, tests and files).
+pub fn render<R: Report>(report: &R, format: Format) -> std::io::Result<String> {
+    let mut buf = Vec::new();
+    write(report, format, &mut buf)?;
+    String::from_utf8(buf).map_err(std::io::Error::other)
 }
 
 /// The report's sections with its design warnings placed right after the heading, so a

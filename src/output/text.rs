@@ -6,33 +6,35 @@ use super::{Align, Exporter, Report, Section, Table};
 pub struct Text;
 
 impl Exporter for Text {
-    fn export<R: Report>(&self, report: &R) -> Result<String, serde_json::Error> {
-        let mut out = String::new();
+    /// Section by section into `out`: a line at a time, a table at a time.
+    fn export<R: Report>(&self, report: &R, out: &mut dyn std::io::Write) -> std::io::Result<()> {
         for (i, s) in report.sections().iter().enumerate() {
             match s {
                 Section::Heading(h) => {
                     if i > 0 {
-                        out.push('\n');
+                        out.write_all(b"\n")?;
                     }
-                    out.push_str(&crate::sanitize::clean(h));
-                    out.push('\n');
+                    writeln!(out, "{}", crate::sanitize::clean(h))?;
                 }
                 Section::Lines(lines) | Section::Design(lines) => {
                     for l in lines {
-                        out.push_str(&crate::sanitize::clean(l).replace(super::CONTINUES, ""));
-                        out.push('\n');
+                        writeln!(
+                            out,
+                            "{}",
+                            crate::sanitize::clean(l).replace(super::CONTINUES, "")
+                        )?;
                     }
                 }
-                Section::Table(t) => out.push_str(&table(t)),
+                Section::Table(t) => table(t, out)?,
             }
         }
-        Ok(out)
+        Ok(())
     }
 }
 
-/// Render a table with columns padded to their widest cell, two spaces apart, written
-/// straight into one buffer; cells are cleaned for the terminal (no copy unless needed).
-pub fn table(t: &Table) -> String {
+/// Write a table with columns padded to their widest cell, two spaces apart, line by line
+/// through one buffer; cells are cleaned for the terminal (no copy unless needed).
+pub fn table(t: &Table, sink: &mut dyn std::io::Write) -> std::io::Result<()> {
     use crate::sanitize::clean;
     use std::borrow::Cow;
     let n = t.headers.len();
@@ -49,9 +51,9 @@ pub fn table(t: &Table) -> String {
         }
     }
     let total: usize = width.iter().sum::<usize>() + 2 * n + 1;
-    let mut out = String::with_capacity(total * (rows.len() + 2));
-    let line = |out: &mut String, cells: &mut dyn Iterator<Item = &str>| {
-        let start = out.len();
+    let mut out = String::with_capacity(total);
+    let mut line = |cells: &mut dyn Iterator<Item = &str>| -> std::io::Result<()> {
+        out.clear();
         for (j, cell) in cells.enumerate().take(n) {
             let pad = width[j].saturating_sub(cell.chars().count());
             if j > 0 {
@@ -70,15 +72,16 @@ pub fn table(t: &Table) -> String {
                 }
             }
         }
-        let trimmed = out[start..].trim_end().len();
-        out.truncate(start + trimmed);
+        let trimmed = out.trim_end().len();
+        out.truncate(trimmed);
         out.push('\n');
+        sink.write_all(out.as_bytes())
     };
-    line(&mut out, &mut headers.iter().map(|h| h.as_ref()));
+    line(&mut headers.iter().map(|h| h.as_ref()))?;
     let rule: Vec<String> = width.iter().map(|&w| "-".repeat(w)).collect();
-    line(&mut out, &mut rule.iter().map(String::as_str));
+    line(&mut rule.iter().map(String::as_str))?;
     for row in &rows {
-        line(&mut out, &mut row.iter().map(|c| c.as_ref()));
+        line(&mut row.iter().map(|c| c.as_ref()))?;
     }
-    out
+    Ok(())
 }
