@@ -5,13 +5,11 @@
 //! Say 1983, ch. 4, from memory); the end winding grows with the span, so its length is
 //! taken relative to a full-pitch coil, ∝ y/τ (common practice for a first estimate).
 
-use itertools::Itertools;
 use rayon::prelude::*;
 use serde::Serialize;
 
 use crate::factors::factors_at;
 use crate::leakage;
-use crate::numbering::num;
 use crate::winding::{Elec, Topology, Winding, with_span};
 
 /// What the designer wants from the span.
@@ -91,8 +89,8 @@ pub struct PitchReport {
     pub rows: Vec<PitchRow>,
     /// The recommended span.
     pub recommended: Option<usize>,
-    /// One sentence saying why.
-    pub reason: String,
+    /// Why that span (one sentence in text and JSON; words in `output::span_words`).
+    pub reason: Recommendation,
     /// Warnings about the design as given (contract: a `warnings` array).
     pub warnings: Vec<crate::warnings::DesignWarning>,
 }
@@ -163,7 +161,40 @@ fn row(v: &Winding, y: usize, tau: f64, goal: &PitchGoal) -> PitchRow {
 
 /// Least harmonic content among spans keeping the floor; ties go to the higher k_w1, then
 /// to the shorter (cheaper) coil.
-fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
+/// Why a span is recommended, as typed facts.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Recommendation {
+    /// The least harmonic content among the spans that keep the k_w1 floor.
+    LeastContent {
+        /// The span.
+        span: usize,
+        /// Its ratio to the pole pitch.
+        span_over_pole_pitch: f64,
+        /// Its k_w1.
+        winding: f64,
+        /// The floor.
+        floor: f64,
+        /// Its factors at the orders weighed.
+        harmonics: Vec<HarmonicFactor>,
+        /// The orders weighed.
+        orders: Vec<f64>,
+        /// How many spans keep the floor.
+        candidates: usize,
+    },
+    /// No span keeps the floor: the highest k_w1.
+    HighestFundamental {
+        /// The floor.
+        floor: f64,
+        /// The span.
+        span: usize,
+        /// Its k_w1.
+        winding: f64,
+    },
+    /// No span gives a balanced winding.
+    NoneBalanced,
+}
+
+fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, Recommendation) {
     let better = |a: &&PitchRow, b: &&PitchRow| {
         let d = a.harmonic_content - b.harmonic_content;
         if d.abs() > 1e-9 {
@@ -185,22 +216,16 @@ fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
     let rows: Vec<PitchRow> = rows.iter().filter(buildable).cloned().collect();
     let rows = &rows[..];
     let keep: Vec<&PitchRow> = rows.iter().filter(|r| r.meets_floor).collect();
-    let named = goal.suppress.iter().map(|o| num(*o, 3)).join(", ");
     if let Some(best) = keep.iter().copied().min_by(|a, b| better(a, b)) {
-        let cuts = best
-            .harmonics
-            .iter()
-            .map(|h| format!("k_w{} to {}", num(h.order.get(), 3), num(h.winding, 3)))
-            .join(", ");
-        let reason = format!(
-            "Span {} ({} of a pole pitch) keeps k_w1 = {} at or above {} and brings {cuts}, \
-             the least content of orders {named} among the {} spans that keep the floor.",
-            best.pitch,
-            num(best.span_over_pole_pitch, 3),
-            num(best.winding, 3),
-            num(goal.min_fundamental, 3),
-            keep.len()
-        );
+        let reason = Recommendation::LeastContent {
+            span: best.pitch,
+            span_over_pole_pitch: best.span_over_pole_pitch,
+            winding: best.winding,
+            floor: goal.min_fundamental,
+            harmonics: best.harmonics.clone(),
+            orders: goal.suppress.clone(),
+            candidates: keep.len(),
+        };
         return (Some(best.pitch), reason);
     }
     // The highest k_w1; on a tie (within rounding) the shorter span, as above.
@@ -211,16 +236,12 @@ fn recommend(rows: &[PitchRow], goal: &PitchGoal) -> (Option<usize>, String) {
     match highest {
         Some(best) => (
             Some(best.pitch),
-            format!(
-                "No span reaches k_w1 = {}; span {} has the highest fundamental ({}).",
-                num(goal.min_fundamental, 3),
-                best.pitch,
-                num(best.winding, 3)
-            ),
+            Recommendation::HighestFundamental {
+                floor: goal.min_fundamental,
+                span: best.pitch,
+                winding: best.winding,
+            },
         ),
-        None => (
-            None,
-            "No span gives a balanced winding on this core.".into(),
-        ),
+        None => (None, Recommendation::NoneBalanced),
     }
 }

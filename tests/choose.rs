@@ -71,7 +71,11 @@ fn a_floor_no_span_reaches_is_said_plainly() {
     };
     let r = compare(&winding(36, 4, 2, None), &goal);
     assert_eq!(r.recommended, Some(9));
-    assert!(r.reason.starts_with("No span reaches"), "{}", r.reason);
+    assert!(
+        r.reason.to_string().starts_with("No span reaches"),
+        "{}",
+        r.reason
+    );
 }
 
 fn query(

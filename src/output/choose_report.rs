@@ -26,7 +26,10 @@ impl Report for PitchReport {
             Section::Lines(head),
             Section::Table(self.main_table()),
         ];
-        s.push(Section::Lines(super::reports::wrap(&self.reason, 78)));
+        s.push(Section::Lines(super::reports::wrap(
+            &self.reason.to_string(),
+            78,
+        )));
         super::with_warnings(s, &self.warnings)
     }
 
@@ -148,7 +151,7 @@ impl Report for SurveyReport {
                 },
                 r.parallel_paths.iter().join(" "),
                 r.lowest_subharmonic.map(|s| num(s, 4)).unwrap_or_default(),
-                r.reason.clone().unwrap_or_default(),
+                r.reason.as_ref().map(|e| e.to_string()).unwrap_or_default(),
                 r.winding_5.map(|w| format!("{w:.4}")).unwrap_or_default(),
                 r.winding_7.map(|w| format!("{w:.4}")).unwrap_or_default(),
                 r.min_leakage_pitch

@@ -12,6 +12,7 @@ mod json;
 mod refusal_words;
 pub(crate) mod reports;
 pub mod schema;
+mod span_words;
 mod table;
 mod text;
 mod thrust_report;

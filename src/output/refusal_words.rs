@@ -9,6 +9,7 @@ use itertools::Itertools;
 
 use crate::numbering::{num, short};
 use crate::rewind::{RewindError, Which};
+use crate::survey::Infeasible;
 use crate::winding::{Overfill, PathChoice, Refusal};
 
 impl fmt::Display for Refusal {
@@ -185,5 +186,46 @@ impl fmt::Display for RewindError {
                  built for (from its nameplate), so the turns are not worked out from a guess"
             ),
         }
+    }
+}
+
+impl fmt::Display for Infeasible {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            Infeasible::NotWhole {
+                slots: z,
+                phases: m,
+                periodicity: t,
+            } => write!(
+                f,
+                "Z/(m·gcd(Z, p)) = {z}/({m}·{t}) is not whole: no balanced {m}-phase double layer"
+            ),
+            Infeasible::NoWorkingFlux => f.write_str("no span links the working flux"),
+            Infeasible::Refused(e) => write!(f, "{e}"),
+        }
+    }
+}
+
+/// The survey's `reason`: the sentence, as a string (the contract's shape).
+impl serde::Serialize for Infeasible {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_str(self)
+    }
+}
+
+impl schemars::JsonSchema for Infeasible {
+    fn inline_schema() -> bool {
+        true
+    }
+
+    fn schema_name() -> std::borrow::Cow<'static, str> {
+        "Infeasible".into()
+    }
+
+    fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
+        schemars::json_schema!({
+            "type": "string",
+            "description": "Why the combination cannot be wound, in words."
+        })
     }
 }

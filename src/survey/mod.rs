@@ -83,7 +83,7 @@ pub struct SurveyRow {
     /// Lowest sub-harmonic order ν < 1 in the MMF, if any.
     pub lowest_subharmonic: Option<f64>,
     /// Why not, when infeasible.
-    pub reason: Option<String>,
+    pub reason: Option<Infeasible>,
 }
 
 /// All rows, in slot, pole, layer order.
@@ -95,6 +95,25 @@ pub struct SurveyReport {
     pub phases: usize,
     /// The combinations.
     pub rows: Vec<SurveyRow>,
+}
+
+/// Why a combination cannot be wound, as typed facts (worded, and written into the JSON as
+/// the `reason` string, by `output::refusal_words`: only rows that are shown are worded).
+#[derive(Debug, Clone, PartialEq)]
+pub enum Infeasible {
+    /// Z/(m·gcd(Z, p)) is not whole: no balanced double layer.
+    NotWhole {
+        /// Slots Z.
+        slots: usize,
+        /// Phases m.
+        phases: usize,
+        /// gcd(Z, p).
+        periodicity: usize,
+    },
+    /// No span links the working flux.
+    NoWorkingFlux,
+    /// The planner's refusal.
+    Refused(crate::winding::PlanError),
 }
 
 /// Sort keys for the survey.
@@ -247,9 +266,11 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRo
     r.lcm = Some(lcm(z, poles));
     r.unbalanced_pull = Some(t == 1 && z % 2 == 1);
     if !double_layer_rotary_feasible(z, poles, m) {
-        r.reason = Some(format!(
-            "Z/(m·gcd(Z, p)) = {z}/({m}·{t}) is not whole: no balanced {m}-phase double layer"
-        ));
+        r.reason = Some(Infeasible::NotWhole {
+            slots: z,
+            phases: m,
+            periodicity: t,
+        });
         return r;
     }
     // Every span 1..=Z/2 is scored by the star-of-slots kernel ([`spans`]); the choice is
@@ -294,7 +315,7 @@ fn rotary_double_row(mut r: SurveyRow, m: usize, bufs: &mut Buffers) -> SurveyRo
         }
     }
     let Some(chosen) = best.or(highest) else {
-        r.reason = Some("no span links the working flux".into());
+        r.reason = Some(Infeasible::NoWorkingFlux);
         return r;
     };
     r.feasible = true;
@@ -338,7 +359,7 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffer
     };
     match synthesize_brief(&design) {
         Err(e) => {
-            r.reason = Some(e.to_string());
+            r.reason = Some(Infeasible::Refused(e));
         }
         Ok(w) => {
             let (n, d) = w.slots_per_pole_phase();
