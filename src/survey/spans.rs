@@ -43,8 +43,8 @@ pub struct SpanScore {
 #[derive(Debug, Default)]
 pub struct Scratch {
     roots: Vec<(f64, f64)>,
-    /// Belt current of each slot.
-    belt: Vec<f64>,
+    /// The inverse of p/t modulo the ray count: slot k·inverse lies on ray k.
+    inverse: usize,
     /// Belt current of each ray, in angle order.
     ray: Vec<f64>,
     /// Prefix sums of `ray` over the doubled ring.
@@ -131,17 +131,8 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
     let per_phase = (z / m) as f64;
     let kd: [f64; 5] = kd.map(|(re, im)| tf * (re * re + im * im).sqrt() / per_phase);
     let working_sum = tf * (cre * cre + cim * cim).sqrt();
-    // Belt currents slot by slot (for the sub-harmonic search): slot k is on ray k·p/t.
-    s.belt.clear();
-    let ray_step = (p % z) / t;
-    let mut r = 0usize;
-    for _ in 0..z {
-        s.belt.push(s.ray[r]);
-        r += ray_step;
-        if r >= l {
-            r -= l;
-        }
-    }
+    // Slot k lies on ray k·p/t (mod L); the sub-harmonic search needs the inverse step.
+    s.inverse = inverse_mod((p % z) / t, l);
 
     // Autocorrelation R(d) = t·A((d·p mod Z)/t), A the rays' cyclic autocorrelation. The
     // belt currents are constant along each belt, so A(σ) = Σ_runs v·(P[end+σ] − P[start+σ])
@@ -217,14 +208,113 @@ pub fn score(z: usize, p: usize, m: usize, longest: usize, s: &mut Scratch) {
 }
 
 /// MMF amplitude (up to a constant) of mechanical order n for double-layer coils of span y
-/// over the belt currents of the last [`score`]: |Ĉ_n|·2|sin(πny/Z)|/n.
+/// over the belt currents of the last [`score`]: |Ĉ_n|·2|sin(πny/Z)|/n, with no sum over
+/// slots. The slot currents repeat every L = Z/t slots, so Ĉ_n vanishes unless t divides n,
+/// and then Ĉ_n = t·Σ_r ray_r·ω^(f·r), ω = e^(−j2π/L), f = (n/t)·q mod L with q the inverse
+/// of p/t modulo L (slot k lies on ray k·p/t). The rays are constant along each belt's run,
+/// so the sum is one geometric series per run: O(m) per order instead of O(Z).
 pub fn order_amplitude(s: &Scratch, n: usize, y: usize) -> f64 {
-    let z = s.belt.len();
-    if z == 0 {
+    let (z, l) = (s.roots.len(), s.ray.len());
+    if z == 0 || l == 0 || n == 0 || !z.is_multiple_of(l) {
         return 0.0;
     }
+    let t = z / l;
+    if !n.is_multiple_of(t) {
+        return 0.0;
+    }
+    let f = ((n / t) % l) * s.inverse % l;
+    // ω^x = e^(−j2πx/L) = e^(−j2π·x·t/Z): the roots table at x·t, conjugated.
+    let omega = |x: usize| {
+        let (c, sn) = s.roots[(x % l) * t % z];
+        (c, -sn)
+    };
+    let (mut re, mut im) = (0.0, 0.0);
+    if f == 0 {
+        for &(a, b, v) in &s.runs {
+            re += v * (b - a) as f64;
+        }
+    } else {
+        let (w, u) = omega(f);
+        let (dr, di) = (1.0 - w, -u);
+        let den = dr * dr + di * di;
+        for &(a, b, v) in &s.runs {
+            let (ar, ai) = omega(f * a);
+            let (br, bi) = omega(f * b);
+            let (nr, ni) = (ar - br, ai - bi);
+            re += v * (nr * dr + ni * di) / den;
+            im += v * (ni * dr - nr * di) / den;
+        }
+    }
+    let amplitude = t as f64 * (re * re + im * im).sqrt() / n as f64;
     let chord = (std::f64::consts::PI * ((n * y) % (2 * z)) as f64 / z as f64)
         .sin()
         .abs();
-    crate::winding::star::order_amplitude(&s.belt, &s.roots, n) * 2.0 * chord
+    amplitude * 2.0 * chord
+}
+
+/// The inverse of `a` modulo `m` (a and m coprime; 0 when m ≤ 1).
+fn inverse_mod(a: usize, m: usize) -> usize {
+    if m <= 1 {
+        return 0;
+    }
+    let (mut r0, mut r1) = (m as i64, (a % m) as i64);
+    let (mut t0, mut t1) = (0i64, 1i64);
+    while r1 != 0 {
+        let q = r0 / r1;
+        (r0, r1) = (r1, r0 - q * r1);
+        (t0, t1) = (t1, t0 - q * t1);
+    }
+    t0.rem_euclid(m as i64) as usize
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::winding::star::{belt_of_index, order_amplitude as slot_sum_amplitude};
+
+    /// The run-by-run geometric series gives the same amplitude as the plain sum over the
+    /// slots' belt currents, at every order below the working wave, on integral and
+    /// fractional-slot cores (two derivations of one DFT).
+    #[test]
+    fn run_series_equals_the_sum_over_slots() {
+        let mut s = Scratch::default();
+        for (z, p) in [
+            (36, 2),
+            (45, 4),
+            (54, 8),
+            (27, 4),
+            (51, 10),
+            (48, 20),
+            (360, 48),
+        ] {
+            let m = 3;
+            if !crate::winding::double_layer_rotary_feasible(z, 2 * p, m) {
+                continue;
+            }
+            let y = (z / (2 * p)).max(1);
+            score(z, p, m, y, &mut s);
+            // Slot currents directly from the belt rule, slot by slot.
+            let currents: Vec<f64> = (0..z)
+                .map(|k| {
+                    let a = (k * p) % z;
+                    let (phase, positive) = belt_of_index(a as u64, z as u64, m);
+                    let c = (2.0 * std::f64::consts::PI * phase as f64 / m as f64).cos();
+                    if positive { c } else { -c }
+                })
+                .collect();
+            let mut roots = Vec::new();
+            roots_of_unity(z, &mut roots);
+            for n in 1..=p {
+                let chord = (std::f64::consts::PI * ((n * y) % (2 * z)) as f64 / z as f64)
+                    .sin()
+                    .abs();
+                let direct = slot_sum_amplitude(&currents, &roots, n) * 2.0 * chord;
+                let series = order_amplitude(&s, n, y);
+                assert!(
+                    (direct - series).abs() < 1e-9 * direct.max(1.0),
+                    "Z={z} p={p} n={n}: {direct} vs {series}"
+                );
+            }
+        }
+    }
 }
