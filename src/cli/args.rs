@@ -168,7 +168,7 @@ pub struct DrawArgs {
     #[arg(short = 'o', long = "output")]
     pub output: PathBuf,
     /// Resolution of PNG output, dots per inch.
-    #[arg(long, default_value_t = 150.0)]
+    #[arg(long, default_value = "150", value_parser = flags::dpi)]
     pub dpi: f64,
 }
 
@@ -191,7 +191,7 @@ pub struct ReportArgs {
     #[arg(long)]
     pub portrait: bool,
     /// Resolution of PNG output, dots per inch.
-    #[arg(long, default_value_t = 150.0)]
+    #[arg(long, default_value = "150", value_parser = flags::dpi)]
     pub dpi: f64,
 }
 
@@ -230,7 +230,7 @@ pub struct FactorsArgs {
     #[command(flatten)]
     pub common: Common,
     /// Highest electrical order listed.
-    #[arg(long, default_value_t = 25.0)]
+    #[arg(long, default_value = "25", value_parser = flags::upto)]
     pub upto: f64,
 }
 
@@ -253,13 +253,13 @@ pub struct RewindArgs {
     #[arg(long, value_enum, default_value_t = FormatArg::Text)]
     pub format: FormatArg,
     /// Bare copper diameter of one old wire, in mm (as measured with a micrometer).
-    #[arg(long = "wire-diameter-mm", conflicts_with = "conductor_mm2")]
+    #[arg(long = "wire-diameter-mm", conflicts_with = "conductor_mm2", value_parser = flags::wire_size)]
     pub wire_diameter_mm: Option<f64>,
     /// Bare copper cross-section of one old wire, in mm².
-    #[arg(long = "conductor-mm2")]
+    #[arg(long = "conductor-mm2", value_parser = flags::wire_size)]
     pub conductor_mm2: Option<f64>,
     /// Wires in hand (wound in parallel as one conductor) in the old winding.
-    #[arg(long = "wires-in-hand", default_value_t = 1)]
+    #[arg(long = "wires-in-hand", default_value = "1", value_parser = flags::wires_in_hand)]
     pub wires_in_hand: u32,
     /// Rated line current of the old winding, amperes (nameplate), for the new rating.
     #[arg(long = "line-current-a", value_parser = flags::current)]
@@ -271,10 +271,10 @@ pub struct FieldArgs {
     #[command(flatten)]
     pub common: Common,
     /// Highest electrical order listed.
-    #[arg(long, default_value_t = 25.0)]
+    #[arg(long, default_value = "25", value_parser = flags::upto)]
     pub upto: f64,
     /// Instant of the MMF snapshot, electrical degrees (omega*t).
-    #[arg(long = "at-deg", default_value_t = 0.0, allow_negative_numbers = true)]
+    #[arg(long = "at-deg", default_value = "0", allow_negative_numbers = true, value_parser = flags::degrees)]
     pub at_deg: f64,
     /// Balanced phase currents in this sequence.
     #[arg(long, value_enum, default_value_t = SequenceArg::Positive, conflicts_with = "currents")]
@@ -285,8 +285,9 @@ pub struct FieldArgs {
     /// Slot-opening width in slot pitches (0 to below 1); current spread evenly across it.
     #[arg(
         long = "slot-opening",
-        default_value_t = 0.0,
-        allow_negative_numbers = true
+        default_value = "0",
+        allow_negative_numbers = true,
+        value_parser = flags::slot_opening
     )]
     pub slot_opening: f64,
     /// Slip of the secondary for its speed (below 0 generating, above 1 plugging).

@@ -42,7 +42,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             Ok(present(report, a.common.format))
         }
         Command::Draw(a) => {
-            let kind = sheet_kind(&a.output, a.dpi)?;
+            let kind = sheet_kind(&a.output)?;
             let w = load(&a.file)?;
             let pages = draw::draw(&w, a.sheet.into(), &page_of(a.page, a.portrait));
             let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
@@ -80,7 +80,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                 write_atomic(out, &a.file, html.as_bytes(), "-o")?;
                 return Ok(say(wrote(std::slice::from_ref(out))));
             }
-            let kind = sheet_kind(out, a.dpi)?;
+            let kind = sheet_kind(out)?;
             let w = load(&a.file)?;
             let page = page_of(a.page, a.portrait);
             let pages: Vec<String> = Sheet::ALL
@@ -92,12 +92,6 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             Ok(say(wrote(&written)))
         }
         Command::Factors(a) => {
-            if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
-                return Err(Failure::input(format!(
-                    "--upto {} is not valid; give an order from 1 to 10000",
-                    a.upto
-                )));
-            }
             let w = load(&a.common.file)?;
             Ok(present(factors::factor_table(&w, a.upto), a.common.format))
         }
@@ -210,26 +204,11 @@ fn run_audit(a: AuditArgs) -> Result<Printed, Failure> {
 }
 
 fn run_rewind(a: RewindArgs) -> Result<Printed, Failure> {
-    let check = |flag: &str, v: f64| {
-        if v.is_finite() && v > 0.0 && v < 1000.0 {
-            Ok(v)
-        } else {
-            Err(Failure::input(format!(
-                "{flag} {v} is not valid; give a positive size below 1000"
-            )))
-        }
-    };
     let conductor = match (a.wire_diameter_mm, a.conductor_mm2) {
-        (Some(d), _) => Some(OldConductor::DiameterMm(check("--wire-diameter-mm", d)?)),
-        (None, Some(x)) => Some(OldConductor::AreaMm2(check("--conductor-mm2", x)?)),
+        (Some(d), _) => Some(OldConductor::DiameterMm(d)),
+        (None, Some(x)) => Some(OldConductor::AreaMm2(x)),
         (None, None) => None,
     };
-    if !(1..=100).contains(&a.wires_in_hand) {
-        return Err(Failure::input(format!(
-            "--wires-in-hand {} is not valid; give 1 to 100",
-            a.wires_in_hand
-        )));
-    }
     let old = load(&a.from)?;
     let new = load(&a.to)?;
     let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a)
@@ -239,24 +218,6 @@ fn run_rewind(a: RewindArgs) -> Result<Printed, Failure> {
 
 /// `beltwright field`: check the flags, compute, present, and write the sheet if asked.
 fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
-    if !(a.upto.is_finite() && (1.0..=10_000.0).contains(&a.upto)) {
-        return Err(Failure::input(format!(
-            "--upto {} is not valid; give an order from 1 to 10000",
-            a.upto
-        )));
-    }
-    if !(a.at_deg.is_finite() && a.at_deg.abs() <= 1e6) {
-        return Err(Failure::input(format!(
-            "--at-deg {} is not valid; give an angle in degrees",
-            a.at_deg
-        )));
-    }
-    if !(a.slot_opening.is_finite() && (0.0..field::MAX_OPENING).contains(&a.slot_opening)) {
-        return Err(Failure::input(format!(
-            "--slot-opening {} is not valid; give a width from 0 up to (not including) 1 slot pitch",
-            a.slot_opening
-        )));
-    }
     if let Some(out) = &a.svg {
         check_output(out, &[&a.common.file], "--svg")?;
     }
@@ -462,20 +423,14 @@ fn write_sheet(
     Ok(files.into_iter().map(|(n, _)| n).collect())
 }
 
-/// The output kind named by a sheet file's extension, with the PNG resolution checked.
-fn sheet_kind(output: &Path, dpi: f64) -> Result<FileKind, Failure> {
-    let kind = FileKind::of_path(output).ok_or_else(|| {
+/// The output kind named by a sheet file's extension.
+fn sheet_kind(output: &Path) -> Result<FileKind, Failure> {
+    FileKind::of_path(output).ok_or_else(|| {
         Failure::input(format!(
             "-o {}: give a file name ending in .svg, .pdf or .png (report also takes .html)",
             output.display()
         ))
-    })?;
-    if !(dpi.is_finite() && (10.0..=1200.0).contains(&dpi)) {
-        return Err(Failure::input(format!(
-            "--dpi {dpi} is not valid; give a resolution from 10 to 1200"
-        )));
-    }
-    Ok(kind)
+    })
 }
 
 fn page_of(size: PaperArg, portrait: bool) -> Page {

@@ -154,6 +154,55 @@ pub fn phases(s: &str) -> Result<usize, String> {
         .ok_or_else(|| format!("give an odd phase count from 3 to {MAX_PHASES}"))
 }
 
+/// An electrical order to list up to: 1 to 10 000.
+pub fn upto(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|o| (1.0..=10_000.0).contains(o))
+        .ok_or_else(|| "give an order from 1 to 10000".to_string())
+}
+
+/// An angle in degrees (within ±1e6).
+pub fn degrees(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|a| a.abs() <= 1e6)
+        .ok_or_else(|| "give an angle in degrees".to_string())
+}
+
+/// A slot-opening width in slot pitches: 0 up to (not including) the field's largest.
+pub fn slot_opening(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|b| (0.0..beltwright::field::MAX_OPENING).contains(b))
+        .ok_or_else(|| "give a width from 0 up to (not including) 1 slot pitch".to_string())
+}
+
+/// A sheet resolution: 10 to 1200 dots per inch.
+pub fn dpi(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|d| (10.0..=1200.0).contains(d))
+        .ok_or_else(|| "give a resolution from 10 to 1200".to_string())
+}
+
+/// A wire size (diameter, mm, or area, mm²): positive, below 1000.
+pub fn wire_size(s: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|v| *v > 0.0 && *v < 1000.0)
+        .ok_or_else(|| "give a positive size below 1000".to_string())
+}
+
+/// Wires in hand: 1 to 100.
+pub fn wires_in_hand(s: &str) -> Result<u32, String> {
+    whole(s)
+        .ok()
+        .filter(|n| (1..=100).contains(n))
+        .map(|n| n as u32)
+        .ok_or_else(|| "give 1 to 100".to_string())
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -172,5 +221,10 @@ mod tests {
         assert_eq!(slot_range("6..10"), Ok(6..=9));
         assert!(slot_range("2..=12").is_err() && pole_range("0..=4").is_err());
         assert!(layers("3").is_err() && phases("4").is_err() && phases("5").is_ok());
+        assert!(upto("0").is_err() && upto("25").is_ok() && degrees("inf").is_err());
+        assert!(slot_opening("1").is_err() && slot_opening("0.5").is_ok());
+        assert!(dpi("5").is_err() && dpi("150").is_ok());
+        assert!(wire_size("0").is_err() && wire_size("1.12").is_ok());
+        assert!(wires_in_hand("0").is_err() && wires_in_hand("101").is_err());
     }
 }
