@@ -1,6 +1,7 @@
 //! The design every report opens with: the same facts, from the same function, at the head
 //! of the plan, factors, field, span, audit, card, thrust and inductance reports, in their
-//! JSON (`design`), on the HTML page and in the sheets' title block.
+//! JSON (`design`; a rewind's `old_design` and `new_design`), on the HTML page and in the
+//! sheets' title block.
 
 use serde::Serialize;
 

@@ -151,6 +151,10 @@ pub struct WireOption {
 /// The recalculated turns and conductor.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct RewindReport {
+    /// The design header of the winding as found (the same header every report opens with).
+    pub old_design: crate::header::DesignHeader,
+    /// The design header of the winding to wind, with the turns per coil worked out here.
+    pub new_design: crate::header::DesignHeader,
     /// The old design.
     pub old: DesignSide,
     /// The new design, with the rounded turns.
@@ -355,6 +359,12 @@ pub fn rewind(
         }
     });
     Ok(RewindReport {
+        old_design: crate::header::of(old),
+        new_design: crate::header::DesignHeader {
+            turns_per_coil: turns,
+            turns_assumed: false,
+            ..crate::header::of(new)
+        },
         old: o,
         new: n,
         turns_per_coil_exact: exact,

@@ -72,3 +72,21 @@ fn every_report_carries_the_same_design_header() {
         }
     }
 }
+
+/// A rewind opens with both designs' headers: the one as found as its plan gives it, the
+/// one to wind as its plan gives it but for the turns per coil the rewind worked out.
+#[test]
+fn a_rewind_carries_both_design_headers() {
+    let (from, to) = (
+        "layouts/hoist-rewind-sound.toml",
+        "layouts/hoist-rewind-new.toml",
+    );
+    let r = json(&["rewind", from, to, "--format", "json"]);
+    let old = json(&["plan", from, "--format", "json"]);
+    let new = json(&["plan", to, "--format", "json"]);
+    assert_eq!(r["old_design"], old["design"]);
+    let mut want = new["design"].clone();
+    want["turns_per_coil"] = r["turns_per_coil"].clone();
+    want["turns_assumed"] = Value::Bool(false);
+    assert_eq!(r["new_design"], want);
+}

@@ -330,9 +330,24 @@ fn design_rows(t: &mut Table, o: &DesignSide, n: &DesignSide) {
 
 impl Report for RewindReport {
     fn sections(&self) -> Vec<Section> {
-        let mut s = vec![Section::Heading(
-            "Rewind: turns for the same flux density".into(),
-        )];
+        let labelled = |label: &str, h: &crate::header::DesignHeader| {
+            super::design_lines(h)
+                .into_iter()
+                .enumerate()
+                .map(|(i, l)| {
+                    if i == 0 {
+                        format!("{label} {l}")
+                    } else {
+                        format!("{:w$} {l}", "", w = label.chars().count())
+                    }
+                })
+                .collect::<Vec<_>>()
+        };
+        let mut s = vec![
+            Section::Heading("Rewind: turns for the same flux density".into()),
+            Section::Design(labelled("old:", &self.old_design)),
+            Section::Design(labelled("new:", &self.new_design)),
+        ];
         let mut head = vec![
             format!(
                 "turns per coil: {} exact, wind {} (flux {}{}% from rounding)",
