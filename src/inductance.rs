@@ -71,7 +71,7 @@ pub struct InductanceReport {
     /// Other layouts of the same primary, least unbalanced first (flat primaries).
     pub ranking: Vec<LayoutRank>,
     /// What was assumed.
-    pub assumptions: Vec<String>,
+    pub assumptions: Vec<crate::assumption::Assumption>,
 }
 
 /// Conductors of each of `sets` sets in every slot: `c[slot][set]`.
@@ -288,8 +288,7 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
         .map(|(s, e)| s + e)
         .unwrap_or(0.0);
     if w.design.supply.frequency_hz.is_none() || w.design.supply.line_voltage_v.is_none() {
-        assumptions
-            .push("no full [supply]: currents worked out at 50 Hz and 400 V line voltage".into());
+        assumptions.push(crate::assumption::Assumption::SupplyDefaulted);
     }
     let (currents, neg) = match unbalance(w, r1, leak) {
         Some((i, p)) => (Some(i.iter().map(|x| x.norm()).collect()), p),

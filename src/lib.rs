@@ -6,6 +6,7 @@
 //! [`linear`], [`plan`]) → presenters ([`output`]). Analyses are pure functions of the
 //! `Winding`; only the binary touches the file system.
 
+pub mod assumption;
 pub mod audit;
 pub mod card;
 pub mod design;

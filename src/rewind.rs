@@ -15,6 +15,7 @@
 use serde::Serialize;
 use std::f64::consts::PI;
 
+use crate::assumption::Assumption;
 use crate::card::wire::{self as wires, StandardWire};
 use crate::factors;
 use crate::safety::CAUTION;
@@ -182,7 +183,7 @@ pub struct RewindReport {
     /// The conductor, when the old one was given.
     pub conductor: Option<ConductorResult>,
     /// Values assumed because a layout left them out.
-    pub assumptions: Vec<String>,
+    pub assumptions: Vec<Assumption>,
     /// Warnings about the new design (contract: a `warnings` array).
     pub warnings: Vec<crate::warnings::DesignWarning>,
     /// The safety caution.
@@ -255,18 +256,12 @@ pub fn rewind(
     let line_old = so.line_voltage_v.or(sn.line_voltage_v);
     let line_new = sn.line_voltage_v.or(so.line_voltage_v);
     if so.line_voltage_v.is_none() || sn.line_voltage_v.is_none() {
-        assumptions.push(match line_old {
-            Some(v) => format!("line voltage {v} V taken for both designs"),
-            None => "no line voltage given: the same line voltage assumed for both".into(),
-        });
+        assumptions.push(Assumption::LineVoltageShared { volts: line_old });
     }
     let f_old = so.frequency_hz.or(sn.frequency_hz);
     let f_new = sn.frequency_hz.or(so.frequency_hz);
     if so.frequency_hz.is_none() || sn.frequency_hz.is_none() {
-        assumptions.push(match f_old {
-            Some(f) => format!("frequency {f} Hz taken for both designs"),
-            None => "no frequency given: the same frequency assumed for both".into(),
-        });
+        assumptions.push(Assumption::FrequencyShared { hertz: f_old });
     }
     let o = side(old, line_old, f_old, None);
     if o.series_turns <= 0.0 || o.winding_factor <= 0.0 {
@@ -284,11 +279,10 @@ pub fn rewind(
     let winding_factor_ratio = n_probe.winding_factor / o.winding_factor;
     let pole_pitch_ratio = gn.pole_pitch_slots / go.pole_pitch_slots;
     if go.poles != gn.poles {
-        assumptions.push(format!(
-            "pole count changes from {} to {}: the peak air-gap flux density is kept, so the \
-             flux per pole scales with the pole pitch",
-            go.poles, gn.poles
-        ));
+        assumptions.push(Assumption::PoleCountChanges {
+            from: go.poles,
+            to: gn.poles,
+        });
     }
     let series_exact = o.series_turns * voltage_ratio
         / (frequency_ratio * winding_factor_ratio * pole_pitch_ratio);

@@ -33,6 +33,7 @@ use serde::Serialize;
 use std::f64::consts::PI;
 use thiserror::Error;
 
+use crate::assumption::Assumption;
 use crate::card::phase_resistances_20c;
 use crate::factors;
 use crate::rewind::phase_voltage;
@@ -176,7 +177,7 @@ pub struct ThrustReport {
     /// Slip of the largest thrust.
     pub max_thrust_slip: f64,
     /// What the model assumes and what was assumed for missing data.
-    pub assumptions: Vec<String>,
+    pub assumptions: Vec<Assumption>,
     /// Safety caution.
     pub caution: &'static str,
 }
@@ -220,7 +221,7 @@ struct Model {
     lm: f64,
     vs: f64,
     m: f64,
-    assumptions: Vec<String>,
+    assumptions: Vec<Assumption>,
 }
 
 fn model(w: &Winding) -> Result<Model, ThrustError> {
@@ -244,23 +245,15 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
         "core.stack_mm (the primary's width across the travel)",
     ))?;
     let tau = ts * geo.pole_pitch_slots;
-    let mut assumptions = vec![
-        "thin plate, unsaturated iron, secondary leakage neglected, plate wider than the \
-         stack, sinusoidal fields (a first estimate, not a test result)"
-            .to_string(),
-    ];
+    let mut assumptions = vec![Assumption::ThrustModel];
     let g = if sec.back_iron {
         clearance + sec.thickness_m
     } else {
-        assumptions.push(
-            "no back iron: taken as a double-sided pair of primaries, gap 2 x clearance + \
-             plate"
-                .into(),
-        );
+        assumptions.push(Assumption::NoBackIron);
         2.0 * clearance + sec.thickness_m
     };
     let b0 = d.slot_opening_m.unwrap_or_else(|| {
-        assumptions.push("no slot opening given: Carter's coefficient 1".into());
+        assumptions.push(Assumption::NoSlotOpening);
         0.0
     });
     let kc = if b0 > 0.0 {
@@ -270,7 +263,7 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
     };
     let ge = kc * g;
     let plate_w = sec.width_m.unwrap_or_else(|| {
-        assumptions.push("no plate width given: the plate as wide as the stack".into());
+        assumptions.push(Assumption::NoPlateWidth);
         width
     });
     let edge = edge_factor(width / 2.0, plate_w.max(width) / 2.0, tau);
@@ -292,19 +285,12 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
     let r1 = match phase_resistances_20c(w) {
         Some(r) => r.iter().sum::<f64>() / r.len().max(1) as f64,
         None => {
-            assumptions.push(
-                "no wire and no winding.phase_resistance_ohm: primary resistance 0 (copper \
-                 loss left out)"
-                    .into(),
-            );
+            assumptions.push(Assumption::NoPrimaryResistance);
             0.0
         }
     };
     if d.slot_size_m.is_none() {
-        assumptions.push(
-            "no slot width and depth: slot permeance 1.0 (a slot three times as deep as wide)"
-                .into(),
-        );
+        assumptions.push(Assumption::NoSlotSize);
     }
     let (l_slot, l_end) = leakage_h(w).unwrap_or((0.0, 0.0));
     let sigma = crate::leakage::differential_leakage(w).unwrap_or(0.0);
@@ -488,10 +474,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         max_thrust_slip: s_max,
         assumptions: {
             let mut a = md.assumptions;
-            a.push(format!(
-                "magnetic gap {} mm",
-                crate::numbering::num(md.g * 1e3, 3)
-            ));
+            a.push(Assumption::MagneticGap { mm: md.g * 1e3 });
             a
         },
         caution: crate::safety::CAUTION,

@@ -143,7 +143,11 @@ fn sheet(with: &ThrustReport, without: &ThrustReport, a: Rect) -> Group {
         num(with.secondary_resistance_ohm, 4),
         num(with.max_thrust_n, 1),
         num(with.max_thrust_slip, 3),
-        with.assumptions.join("; ")
+        with.assumptions
+            .iter()
+            .map(ToString::to_string)
+            .collect::<Vec<_>>()
+            .join("; ")
     );
     let mut y = a.bottom() - notes_h + 3.0;
     for l in text::wrap(&notes, 2.6, a.w) {

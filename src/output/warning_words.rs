@@ -1,7 +1,10 @@
-//! Warnings and suggestions in words: the analyses return them as typed facts
-//! ([`DesignWarning`], [`CardWarning`], [`Suggestion`]); this is the one place they become
-//! sentences, for every presenter (text, JSON `message`, sheets, the HTML page).
+//! Warnings, suggestions and assumptions in words: the analyses return them as typed facts
+//! ([`DesignWarning`], [`CardWarning`], [`Suggestion`], [`Assumption`]); this is the one
+//! place they become sentences, for every presenter (text, JSON, sheets, the HTML page).
 
+use std::fmt;
+
+use crate::assumption::Assumption;
 use crate::card::CardWarning;
 use crate::card::measured::Suggestion;
 use crate::numbering::num;
@@ -100,5 +103,78 @@ impl Suggestion {
                     .into()
             }
         }
+    }
+}
+
+impl fmt::Display for Assumption {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            Assumption::ThrustModel => f.write_str(
+                "thin plate, unsaturated iron, secondary leakage neglected, plate wider than the \
+                 stack, sinusoidal fields (a first estimate, not a test result)",
+            ),
+            Assumption::NoBackIron => f.write_str(
+                "no back iron: taken as a double-sided pair of primaries, gap 2 x clearance + \
+                 plate",
+            ),
+            Assumption::NoSlotOpening => {
+                f.write_str("no slot opening given: Carter's coefficient 1")
+            }
+            Assumption::NoPlateWidth => {
+                f.write_str("no plate width given: the plate as wide as the stack")
+            }
+            Assumption::NoPrimaryResistance => f.write_str(
+                "no wire and no winding.phase_resistance_ohm: primary resistance 0 (copper loss \
+                 left out)",
+            ),
+            Assumption::NoSlotSize => f.write_str(
+                "no slot width and depth: slot permeance 1.0 (a slot three times as deep as wide)",
+            ),
+            Assumption::MagneticGap { mm } => write!(f, "magnetic gap {} mm", num(*mm, 3)),
+            Assumption::SupplyDefaulted => {
+                f.write_str("no full [supply]: currents worked out at 50 Hz and 400 V line voltage")
+            }
+            Assumption::LineVoltageShared { volts: Some(v) } => {
+                write!(f, "line voltage {v} V taken for both designs")
+            }
+            Assumption::LineVoltageShared { volts: None } => {
+                f.write_str("no line voltage given: the same line voltage assumed for both")
+            }
+            Assumption::FrequencyShared { hertz: Some(h) } => {
+                write!(f, "frequency {h} Hz taken for both designs")
+            }
+            Assumption::FrequencyShared { hertz: None } => {
+                f.write_str("no frequency given: the same frequency assumed for both")
+            }
+            Assumption::PoleCountChanges { from, to } => write!(
+                f,
+                "pole count changes from {from} to {to}: the peak air-gap flux density is kept, \
+                 so the flux per pole scales with the pole pitch"
+            ),
+        }
+    }
+}
+
+/// An assumption in the JSON: its sentence, as a string.
+impl serde::Serialize for Assumption {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_str(self)
+    }
+}
+
+impl schemars::JsonSchema for Assumption {
+    fn inline_schema() -> bool {
+        true
+    }
+
+    fn schema_name() -> std::borrow::Cow<'static, str> {
+        "Assumption".into()
+    }
+
+    fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
+        schemars::json_schema!({
+            "type": "string",
+            "description": "What the analysis assumed, in words."
+        })
     }
 }

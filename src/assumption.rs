@@ -1,0 +1,44 @@
+//! What an analysis assumed, because a layout left a value out or the model needs it, as
+//! typed facts; `output::warning_words` puts them into words (text, JSON strings, sheets).
+
+/// One assumption an analysis made.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Assumption {
+    /// The flat primary's model: thin plate, unsaturated iron, secondary leakage neglected,
+    /// plate wider than the stack, sinusoidal fields.
+    ThrustModel,
+    /// No back iron behind the plate: a double-sided pair of primaries.
+    NoBackIron,
+    /// No slot opening given: Carter's coefficient 1.
+    NoSlotOpening,
+    /// No plate width given: as wide as the stack.
+    NoPlateWidth,
+    /// No wire and no phase resistance: primary resistance 0.
+    NoPrimaryResistance,
+    /// No slot width and depth: slot permeance 1.0.
+    NoSlotSize,
+    /// The magnetic gap the model used, millimetres.
+    MagneticGap {
+        /// Gap, mm.
+        mm: f64,
+    },
+    /// No full `[supply]`: currents at 50 Hz and 400 V line voltage.
+    SupplyDefaulted,
+    /// One design gives no line voltage: the other's (or one common value) for both.
+    LineVoltageShared {
+        /// The line voltage taken, volts, when either design gives one.
+        volts: Option<f64>,
+    },
+    /// One design gives no frequency: the other's (or one common value) for both.
+    FrequencyShared {
+        /// The frequency taken, hertz, when either design gives one.
+        hertz: Option<f64>,
+    },
+    /// The pole count changes in a rewind: the peak air-gap flux density is kept.
+    PoleCountChanges {
+        /// Poles before.
+        from: usize,
+        /// Poles after.
+        to: usize,
+    },
+}
