@@ -84,6 +84,20 @@ pub struct Finding {
     pub detail: Fact,
 }
 
+/// Which way the field moves with supply lines 1, 2, 3... on the phase starts (worded in
+/// `output/audit_words.rs`).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Travel {
+    /// Phase labels in order (their starts, U1, V1, ..., take the lines).
+    pub starts: Vec<String>,
+    /// Rotating or travelling.
+    pub topology: Topology,
+    /// Towards rising (positive) or falling (negative) slot numbers.
+    pub sequence: Sequence,
+    /// Slots Z.
+    pub slots: usize,
+}
+
 /// A phasor at one harmonic order.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct HarmonicRow {
@@ -158,7 +172,7 @@ pub struct AuditReport {
     /// Phase sequence at the fundamental.
     pub sequence: Sequence,
     /// Direction of travel of the field with the supply in order on the phase starts.
-    pub travel: String,
+    pub travel: Travel,
     /// Forward (positive-sequence) component, effective turns.
     pub forward: f64,
     /// Backward (negative-sequence) component, effective turns.
@@ -721,25 +735,11 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     }
     findings.extend(odd_spans(w, &fix));
     let g = &w.geometry;
-    let labels: Vec<String> = w
-        .design
-        .phase_labels
-        .iter()
-        .map(|l| format!("{l}1"))
-        .collect();
-    let towards = match bal.sequence {
-        Sequence::Positive => format!(
-            "towards rising slot numbers (slot 1 towards slot {})",
-            g.slots
-        ),
-        Sequence::Negative => format!(
-            "towards falling slot numbers (slot {} towards slot 1)",
-            g.slots
-        ),
-    };
-    let kind = match g.topology {
-        Topology::Rotary => "the field rotates",
-        Topology::Linear => "the field travels",
+    let travel = Travel {
+        starts: w.design.phase_labels.clone(),
+        topology: g.topology,
+        sequence: bal.sequence,
+        slots: g.slots,
     };
     AuditReport {
         design: crate::header::of(w),
@@ -751,10 +751,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         balanced: found.balanced,
         sound: findings.is_empty(),
         sequence: bal.sequence,
-        travel: format!(
-            "with supply lines 1, 2, 3... on {}, {kind} {towards}",
-            labels.join(", ")
-        ),
+        travel,
         forward: bal.forward,
         backward: bal.backward,
         backward_percent: pct(bal.backward, bal.forward.max(bal.backward)),

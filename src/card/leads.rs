@@ -70,7 +70,7 @@ pub struct LeadScheme {
     /// Connections the terminal box can be wired to.
     pub configurations: Vec<Configuration>,
     /// Which way the field moves with L1-L2-L3 on the first three leads.
-    pub rotation: String,
+    pub rotation: Rotation,
 }
 
 /// One lead.
@@ -158,6 +158,18 @@ impl SectionResistance {
     }
 }
 
+/// Which way the field moves with supply lines L1, L2, L3 on the first three leads: towards
+/// rising slot numbers (positive sequence, this winding's numbering); worded in `output/`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Rotation {
+    /// The three leads L1, L2, L3 go on.
+    pub leads: Vec<String>,
+    /// Slots Z (slot 1 towards slot Z).
+    pub slots: usize,
+    /// Whose convention names the direction of rotation.
+    pub marking: Marking,
+}
+
 /// The lead scheme and its connection tables. `planned` is the winding's connection;
 /// `line_voltage_v` the supply's line voltage for it; `r` the section resistances.
 pub fn scheme(
@@ -166,7 +178,7 @@ pub fn scheme(
     line_voltage_v: Option<f64>,
     r: Option<&SectionResistance>,
     labels: &[String],
-    rising: &str,
+    slots: usize,
 ) -> LeadScheme {
     let (m, n) = (leads.marking, leads.count);
     let nm = |p: usize, s: usize, e: End| name(m, n, p, s, e);
@@ -339,15 +351,11 @@ pub fn scheme(
         c.line_resistance_20c_ohm = r.map(|r| r.line_to_line(0, c.connection, c.sections));
     }
     let first: Vec<String> = (0..3).map(|p| nm(p, 0, End::Start)).collect();
-    let rotation = format!(
-        "L1, L2, L3 on {} in that time order: the field moves {rising}; exchange any two \
-         lines to reverse it ({})",
-        first.join(", "),
-        match m {
-            Marking::Iec => "IEC 60034-8: clockwise seen from the drive end",
-            Marking::Nema => "NEMA MG 1: counter-clockwise seen from the end opposite the drive",
-        }
-    );
+    let rotation = Rotation {
+        leads: first,
+        slots,
+        marking: m,
+    };
     LeadScheme {
         marking: m,
         count: n,
@@ -377,7 +385,7 @@ mod tests {
             None,
             None,
             &labels,
-            "forward",
+            24,
         )
     }
 

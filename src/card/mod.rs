@@ -54,6 +54,20 @@ pub enum CardWarning {
     NotThreePhase,
 }
 
+/// How the mean length of a turn was found (worded in `output/`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum MeanTurnRule {
+    /// Given in the layout (`core.mean_turn_mm`).
+    Given,
+    /// 2·stack + 2·end factor·span width + allowance.
+    Rule {
+        /// End-winding length per coil end over the span width.
+        end_factor: f64,
+        /// Allowance per turn, mm.
+        end_allowance_mm: f64,
+    },
+}
+
 /// Resistances at one temperature.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct AtTemperature {
@@ -120,7 +134,7 @@ pub struct DataCard {
     /// Turn-weighted mean turn length, mm.
     pub mean_turn_mm: Option<f64>,
     /// How the mean turn was found.
-    pub mean_turn_rule: String,
+    pub mean_turn_rule: MeanTurnRule,
     /// The wire, resolved.
     pub wire: Option<Wire>,
     /// Phase resistance at 20 °C (mean of the phases), ohms.
@@ -225,14 +239,6 @@ pub fn planned_line_resistances(w: &Winding) -> Option<[f64; 3]> {
     Some([0, 1, 2].map(|k| s.line_to_line(k, w.design.connection, sec)))
 }
 
-/// "towards rising slot numbers (slot 1 towards slot Z)" for positive sequence.
-fn rising(w: &Winding) -> String {
-    format!(
-        "towards rising slot numbers (slot 1 towards slot {}) in this winding's numbering",
-        w.geometry.slots
-    )
-}
-
 /// Work out the data card of a winding.
 pub fn card(w: &Winding) -> DataCard {
     let g = &w.geometry;
@@ -270,12 +276,11 @@ pub fn card(w: &Winding) -> DataCard {
     }
     let rule = &w.design.turn;
     let mean_turn_rule = match rule.mean_turn_m {
-        Some(_) => "as given (core.mean_turn_mm)".to_string(),
-        None => format!(
-            "2 x stack + 2 x {} x span width + {} mm",
-            crate::numbering::num(rule.end_factor, 3),
-            crate::numbering::num(rule.end_allowance_m * 1e3, 1)
-        ),
+        Some(_) => MeanTurnRule::Given,
+        None => MeanTurnRule::Rule {
+            end_factor: rule.end_factor,
+            end_allowance_mm: rule.end_allowance_m * 1e3,
+        },
     };
 
     let paths = path_resistances(w);
@@ -340,7 +345,7 @@ pub fn card(w: &Winding) -> DataCard {
             w.design.supply.line_voltage_v,
             sec.as_ref(),
             &w.design.phase_labels,
-            &rising(w),
+            w.geometry.slots,
         )
     });
 

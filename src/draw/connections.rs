@@ -677,7 +677,7 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
             w.design.supply.line_voltage_v,
             None,
             &w.design.phase_labels,
-            "",
+            w.geometry.slots,
         );
         for c in &scheme.configurations {
             let line = format!(

@@ -29,7 +29,7 @@ impl Report for AuditReport {
                 },
             ),
         ];
-        head.extend(wrap(&self.travel, 78));
+        head.extend(wrap(&self.travel.to_string(), 78));
         let waves = if self.no_fundamental {
             "no fundamental EMF: the phases make no working wave, so no ratio or angle \
              applies"

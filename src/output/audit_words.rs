@@ -331,3 +331,36 @@ pub fn words(f: &Fact) -> String {
         ),
     }
 }
+
+impl std::fmt::Display for crate::audit::Travel {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let starts: Vec<String> = self.starts.iter().map(|l| format!("{l}1")).collect();
+        let kind = match self.topology {
+            crate::winding::Topology::Rotary => "the field rotates",
+            crate::winding::Topology::Linear => "the field travels",
+        };
+        write!(
+            f,
+            "with supply lines 1, 2, 3... on {}, {kind} ",
+            starts.join(", ")
+        )?;
+        match self.sequence {
+            crate::winding::star::Sequence::Positive => write!(
+                f,
+                "towards rising slot numbers (slot 1 towards slot {})",
+                self.slots
+            ),
+            crate::winding::star::Sequence::Negative => write!(
+                f,
+                "towards falling slot numbers (slot {} towards slot 1)",
+                self.slots
+            ),
+        }
+    }
+}
+
+super::as_sentence!(
+    crate::audit::Travel,
+    "Travel",
+    "Which way the field moves with the supply lines in order on the phase starts."
+);

@@ -91,7 +91,10 @@ impl Report for DataCard {
         s.push(Section::Heading("Copper".into()));
         let mut t = Table::new(&[("figure", Align::Left), ("value", Align::Right)]);
         t.push(vec!["mean turn".into(), opt(self.mean_turn_mm, 1, "mm")]);
-        t.push(vec!["mean turn rule".into(), self.mean_turn_rule.clone()]);
+        t.push(vec![
+            "mean turn rule".into(),
+            self.mean_turn_rule.to_string(),
+        ]);
         t.push(vec![
             "phase resistance at 20 C".into(),
             self.phase_resistance_20c_ohm
@@ -188,7 +191,7 @@ impl Report for DataCard {
             }
             s.push(Section::Table(t));
             let mut lines = vec!["* as planned".to_string()];
-            lines.extend(wrap(&l.rotation, 78));
+            lines.extend(wrap(&l.rotation.to_string(), 78));
             s.push(Section::Lines(lines));
         }
 
@@ -278,3 +281,51 @@ impl Report for DataCard {
         t
     }
 }
+
+impl std::fmt::Display for crate::card::leads::Rotation {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "L1, L2, L3 on {} in that time order: the field moves towards rising slot numbers \
+             (slot 1 towards slot {}) in this winding's numbering; exchange any two lines to \
+             reverse it ({})",
+            self.leads.join(", "),
+            self.slots,
+            match self.marking {
+                crate::design::Marking::Iec => "IEC 60034-8: clockwise seen from the drive end",
+                crate::design::Marking::Nema => {
+                    "NEMA MG 1: counter-clockwise seen from the end opposite the drive"
+                }
+            }
+        )
+    }
+}
+
+super::as_sentence!(
+    crate::card::leads::Rotation,
+    "Rotation",
+    "Which way the field moves with L1, L2, L3 on the first three leads."
+);
+
+impl std::fmt::Display for crate::card::MeanTurnRule {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            crate::card::MeanTurnRule::Given => f.write_str("as given (core.mean_turn_mm)"),
+            crate::card::MeanTurnRule::Rule {
+                end_factor,
+                end_allowance_mm,
+            } => write!(
+                f,
+                "2 x stack + 2 x {} x span width + {} mm",
+                num(*end_factor, 3),
+                num(*end_allowance_mm, 1)
+            ),
+        }
+    }
+}
+
+super::as_sentence!(
+    crate::card::MeanTurnRule,
+    "MeanTurnRule",
+    "How the mean turn was found."
+);

@@ -59,6 +59,34 @@ pub trait Report: Serialize {
     fn main_table(&self) -> Table;
 }
 
+/// A typed fact that the JSON carries as its sentence: `Serialize` writes its `Display` as a
+/// string and the schema says so. Used for every fact the contract gives as a string
+/// (reasons, recommendations, assumptions, directions, rules).
+macro_rules! as_sentence {
+    ($ty:ty, $name:literal, $what:literal) => {
+        impl serde::Serialize for $ty {
+            fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+                s.collect_str(self)
+            }
+        }
+
+        impl schemars::JsonSchema for $ty {
+            fn inline_schema() -> bool {
+                true
+            }
+
+            fn schema_name() -> std::borrow::Cow<'static, str> {
+                $name.into()
+            }
+
+            fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
+                schemars::json_schema!({ "type": "string", "description": $what })
+            }
+        }
+    };
+}
+pub(crate) use as_sentence;
+
 /// One output format.
 pub trait Exporter {
     /// Write a report straight into `out` (stdout, a file, a buffer): nothing is assembled

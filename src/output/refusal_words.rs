@@ -206,26 +206,8 @@ impl fmt::Display for Infeasible {
     }
 }
 
-/// The survey's `reason`: the sentence, as a string (the contract's shape).
-impl serde::Serialize for Infeasible {
-    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-        s.collect_str(self)
-    }
-}
-
-impl schemars::JsonSchema for Infeasible {
-    fn inline_schema() -> bool {
-        true
-    }
-
-    fn schema_name() -> std::borrow::Cow<'static, str> {
-        "Infeasible".into()
-    }
-
-    fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
-        schemars::json_schema!({
-            "type": "string",
-            "description": "Why the combination cannot be wound, in words."
-        })
-    }
-}
+super::as_sentence!(
+    Infeasible,
+    "Infeasible",
+    "Why the combination cannot be wound, in words."
+);

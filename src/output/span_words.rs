@@ -53,26 +53,8 @@ impl fmt::Display for Recommendation {
     }
 }
 
-/// The JSON `reason`: the sentence, as a string (the contract's shape).
-impl serde::Serialize for Recommendation {
-    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-        s.collect_str(self)
-    }
-}
-
-impl schemars::JsonSchema for Recommendation {
-    fn inline_schema() -> bool {
-        true
-    }
-
-    fn schema_name() -> std::borrow::Cow<'static, str> {
-        "Recommendation".into()
-    }
-
-    fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
-        schemars::json_schema!({
-            "type": "string",
-            "description": "Why that span, in one sentence."
-        })
-    }
-}
+super::as_sentence!(
+    Recommendation,
+    "Recommendation",
+    "Why that span, in one sentence."
+);

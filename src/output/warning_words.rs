@@ -155,26 +155,8 @@ impl fmt::Display for Assumption {
     }
 }
 
-/// An assumption in the JSON: its sentence, as a string.
-impl serde::Serialize for Assumption {
-    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-        s.collect_str(self)
-    }
-}
-
-impl schemars::JsonSchema for Assumption {
-    fn inline_schema() -> bool {
-        true
-    }
-
-    fn schema_name() -> std::borrow::Cow<'static, str> {
-        "Assumption".into()
-    }
-
-    fn json_schema(_: &mut schemars::SchemaGenerator) -> schemars::Schema {
-        schemars::json_schema!({
-            "type": "string",
-            "description": "What the analysis assumed, in words."
-        })
-    }
-}
+super::as_sentence!(
+    Assumption,
+    "Assumption",
+    "What the analysis assumed, in words."
+);
