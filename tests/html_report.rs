@@ -66,6 +66,23 @@ fn report_is_well_formed_self_contained_html() {
         assert!(doc.select(&sel("figure svg[role=img][aria-label]")).count() == figures);
         assert!(doc.select(&sel("header .caution")).next().is_some());
         assert!(html.contains("@media print") && html.contains("break-inside: avoid"));
+        // The sheets sit side by side as drawn: every id in the page is unique, and every
+        // reference inside a sheet (clip paths, patterns, markers) finds its target.
+        let mut ids: Vec<&str> = doc
+            .select(&sel("[id]"))
+            .filter_map(|e| e.value().attr("id"))
+            .collect();
+        let all = ids.len();
+        ids.sort_unstable();
+        ids.dedup();
+        assert_eq!(ids.len(), all, "{l}: an id is used twice");
+        for part in html.split("url(#").skip(1) {
+            let target = part.split(')').next().unwrap_or_default();
+            assert!(
+                ids.binary_search(&target).is_ok(),
+                "{l}: url(#{target}) has no target"
+            );
+        }
     }
 }
 

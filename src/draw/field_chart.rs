@@ -231,11 +231,11 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
         .add(rect(0.0, 0.0, WIDTH, HEIGHT).set("fill", "white"));
 
     let defs = Definitions::new()
-        .add(hatch("fwd-hatch", FORWARD, 45.0, false))
-        .add(hatch("bwd-hatch", BACKWARD, -45.0, true))
+        .add(hatch("field-fwd-hatch", FORWARD, 45.0, false))
+        .add(hatch("field-bwd-hatch", BACKWARD, -45.0, true))
         .add(
             Marker::new()
-                .set("id", "arrow-head")
+                .set("id", "field-arrow-head")
                 .set("viewBox", "0 0 10 10")
                 .set("refX", 9)
                 .set("refY", 5)
@@ -355,7 +355,7 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     {
         doc = doc.add(
             line(xs(first), top - 20.0, xs(last), top - 20.0, "#000000", 1.6)
-                .set("marker-end", "url(#arrow-head)"),
+                .set("marker-end", "url(#field-arrow-head)"),
         );
     }
     for (i, l) in wrap(&speed_text(rep), 130).iter().enumerate() {
@@ -388,8 +388,8 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     for (i, row) in rows.iter().enumerate() {
         let cx = LEFT + slot_w * (i as f64 + 0.5);
         for (val, fill, stroke, dx) in [
-            (row.forward, "url(#fwd-hatch)", FORWARD, -bar_w),
-            (row.backward, "url(#bwd-hatch)", BACKWARD, 0.0),
+            (row.forward, "url(#field-fwd-hatch)", FORWARD, -bar_w),
+            (row.backward, "url(#field-bwd-hatch)", BACKWARD, 0.0),
         ] {
             if val > 10f64.powf(floor) {
                 let y = yl(val);
@@ -418,13 +418,13 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     chart = chart
         .add(
             rect(LEFT, lg - 10.0, 22.0, 12.0)
-                .set("fill", "url(#fwd-hatch)")
+                .set("fill", "url(#field-fwd-hatch)")
                 .set("stroke", FORWARD),
         )
         .add(text(LEFT + 28.0, lg, 12.0, "forward wave (hatched /)"))
         .add(
             rect(LEFT + 240.0, lg - 10.0, 22.0, 12.0)
-                .set("fill", "url(#bwd-hatch)")
+                .set("fill", "url(#field-bwd-hatch)")
                 .set("stroke", BACKWARD),
         )
         .add(text(

@@ -109,6 +109,9 @@ impl Canvas {
             .set("height", format!("{}mm", r(h)))
             .set("viewBox", (0, 0, r(w), r(h)))
             .set("font-family", FONT_FAMILY)
+            // Labelled for readers wherever it is shown, on its own or inside a page.
+            .set("role", "img")
+            .set("aria-label", super::text::clean(&block.document_title()))
             .add(svg::node::element::Title::new(super::text::clean(
                 &block.document_title(),
             )))

@@ -86,6 +86,7 @@ impl TitleBlock {
     /// Draw the block and caution inside `frame`, along its foot. Returns the group and the
     /// height taken from the frame.
     pub fn draw(&self, frame: Rect) -> (Group, f64) {
+        let scope = format!("{}-{}", crate::sanitize::slug(&self.sheet), self.page.0);
         let bw = BLOCK_W.min(frame.w);
         let bx = frame.right() - bw;
         let block_h = 2.0 * ROW;
@@ -111,13 +112,21 @@ impl TitleBlock {
         if !beside {
             g = g.add(rule(frame.x, by, frame.right(), by, 0.5));
         }
-        g = g.add(cell(bx, by, title_w, "Title", &self.title, "title"));
+        g = g.add(cell(bx, by, title_w, "Title", &self.title, "title", &scope));
         let sheet = if self.page.1 > 1 {
             format!("{} ({} of {})", self.sheet, self.page.0, self.page.1)
         } else {
             self.sheet.clone()
         };
-        g = g.add(cell(bx + title_w, by, sheet_w, "Sheet", &sheet, "sheet"));
+        g = g.add(cell(
+            bx + title_w,
+            by,
+            sheet_w,
+            "Sheet",
+            &sheet,
+            "sheet",
+            &scope,
+        ));
         // Row 2: the figures, the tool cell twice as wide.
         let n = self.fields.len() as f64 + 1.0;
         let unit = bw / n;
@@ -131,7 +140,7 @@ impl TitleBlock {
             if i > 0 {
                 g = g.add(rule(x, by + ROW, x, frame.bottom(), 0.25));
             }
-            g = g.add(cell(x, by + ROW, cw, name, value, "field"));
+            g = g.add(cell(x, by + ROW, cw, name, value, "field", &scope));
             x += cw;
         }
         // Caution.
@@ -160,14 +169,16 @@ impl TitleBlock {
     }
 }
 
-/// Id of a caption text (the one kind of text allowed under 2.5 mm, at 1.8 mm).
-fn caption_id(name: &str) -> String {
+/// Id of a caption text (the one kind of text allowed under 2.5 mm, at 1.8 mm), unique to
+/// its sheet and page (`scope`) so that sheets set side by side (the HTML page) never share
+/// an id.
+fn caption_id(scope: &str, name: &str) -> String {
     let slug = crate::sanitize::slug(name);
-    format!("caption-{slug}")
+    format!("caption-{scope}-{slug}")
 }
 
 /// A labelled cell: small caption on top, value below, both cut to the cell width.
-fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str) -> Group {
+fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str, scope: &str) -> Group {
     let inner = w - 2.0;
     let mut size = VALUE;
     while text::width(value, size) > inner && size > 2.0 {
@@ -178,7 +189,7 @@ fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str) -> Group {
         .add(
             label(x + 1.0, y + 2.4, LABEL, Anchor::Start, name)
                 .set("fill", "#444444")
-                .set("id", caption_id(name)),
+                .set("id", caption_id(scope, name)),
         )
         .add(label(
             x + 1.0,

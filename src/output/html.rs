@@ -124,25 +124,6 @@ fn part<R: Report>(out: &mut String, toc: &mut Vec<(String, String)>, title: &st
     out.push_str("</section>\n");
 }
 
-/// An SVG sheet made fit to sit in a page: its XML prolog dropped, its ids prefixed so two
-/// sheets' patterns never clash, its size left to the stylesheet, labelled for readers.
-fn inline_svg(svg: &str, prefix: &str, label: &str) -> String {
-    let body = svg.trim_start_matches(|c| c != '<');
-    let body = match body.strip_prefix("<?xml") {
-        Some(rest) => rest.split_once("?>").map_or(rest, |(_, r)| r),
-        None => body,
-    };
-    let body = body
-        .replace("id=\"", &format!("id=\"{prefix}-"))
-        .replace("url(#", &format!("url(#{prefix}-"))
-        .replace("href=\"#", &format!("href=\"#{prefix}-"));
-    body.replacen(
-        "<svg ",
-        &format!("<svg role=\"img\" aria-label=\"{}\" ", escape(label)),
-        1,
-    )
-}
-
 /// What each sheet shows, for its caption.
 fn caption(sheet: Sheet) -> &'static str {
     match sheet {
@@ -235,7 +216,7 @@ pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
             let _ = writeln!(
                 body,
                 "<figure class=\"sheet\" id=\"sheet-{n}\">\n{}\n<figcaption>Figure {n}. {}</figcaption>\n</figure>",
-                inline_svg(svg, &format!("s{n}"), &label),
+                svg.trim_start(),
                 escape(&label)
             );
         }
