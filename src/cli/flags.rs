@@ -21,31 +21,44 @@ fn whole(s: &str) -> Result<usize, String> {
         .map_err(|_| "not a whole number".to_string())
 }
 
+/// A number for which `ok` holds, else `valid` (what would be valid) as the message.
+fn number_where(s: &str, ok: impl Fn(f64) -> bool, valid: &str) -> Result<f64, String> {
+    number(s)
+        .ok()
+        .filter(|x| ok(*x))
+        .ok_or_else(|| valid.to_string())
+}
+
+/// A whole number for which `ok` holds, else `valid` as the message.
+fn whole_where(s: &str, ok: impl Fn(usize) -> bool, valid: &str) -> Result<usize, String> {
+    whole(s)
+        .ok()
+        .filter(|x| ok(*x))
+        .ok_or_else(|| valid.to_string())
+}
+
 /// A slip from -10 to 10: below 0 the secondary overtakes the field (generating), above 1
 /// it runs against it (plugging).
 pub fn slip(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|x| (-10.0..=10.0).contains(x))
-        .ok_or_else(|| {
-            "give a slip from -10 to 10 (below 0 generating, above 1 plugging)".to_string()
-        })
+    number_where(
+        s,
+        |x| (-10.0..=10.0).contains(&x),
+        "give a slip from -10 to 10 (below 0 generating, above 1 plugging)",
+    )
 }
 
 /// A current from 0.001 to 100 000 A.
 pub fn current(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|i| (1e-3..=1e5).contains(i))
-        .ok_or_else(|| "give a current from 0.001 to 100000 A".to_string())
+    number_where(
+        s,
+        |i| (1e-3..=1e5).contains(&i),
+        "give a current from 0.001 to 100000 A",
+    )
 }
 
 /// A power of 0 W or more.
 pub fn power(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|p| *p >= 0.0)
-        .ok_or_else(|| "give a power of 0 W or more".to_string())
+    number_where(s, |p| p >= 0.0, "give a power of 0 W or more")
 }
 
 /// `A..=B` of real numbers within ±`limit`, or one number.
@@ -80,26 +93,25 @@ pub fn speed_range(s: &str) -> Result<(f64, f64), String> {
 
 /// Intervals of a table: 1 to 10 000.
 pub fn steps(s: &str) -> Result<usize, String> {
-    whole(s)
-        .ok()
-        .filter(|n| (1..=10_000).contains(n))
-        .ok_or_else(|| "give 1 to 10000".to_string())
+    whole_where(s, |n| (1..=10_000).contains(&n), "give 1 to 10000")
 }
 
 /// A winding factor from 0 to 1.
 pub fn winding_factor(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|k| (0.0..=1.0).contains(k))
-        .ok_or_else(|| "give a winding factor from 0 to 1".to_string())
+    number_where(
+        s,
+        |k| (0.0..=1.0).contains(&k),
+        "give a winding factor from 0 to 1",
+    )
 }
 
 /// A harmonic order to suppress: above 0, at most 10 000, not the working wave.
 pub fn harmonic(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|o| *o > 0.0 && *o <= 10_000.0 && *o != 1.0)
-        .ok_or_else(|| "give harmonic orders other than 1 (the working wave), e.g. 5,7".to_string())
+    number_where(
+        s,
+        |o| o > 0.0 && o <= 10_000.0 && o != 1.0,
+        "give harmonic orders other than 1 (the working wave), e.g. 5,7",
+    )
 }
 
 /// `A..=B`, `A..B` or a single number.
@@ -140,10 +152,7 @@ pub fn pole_range(s: &str) -> Result<RangeInclusive<usize>, String> {
 
 /// Layers per slot: 1 or 2.
 pub fn layers(s: &str) -> Result<usize, String> {
-    whole(s)
-        .ok()
-        .filter(|l| (1..=2).contains(l))
-        .ok_or_else(|| "give 1, 2 or 1,2".to_string())
+    whole_where(s, |l| (1..=2).contains(&l), "give 1, 2 or 1,2")
 }
 
 /// An odd phase count from 3 to the layout file's largest.
@@ -156,51 +165,48 @@ pub fn phases(s: &str) -> Result<usize, String> {
 
 /// An electrical order to list up to: 1 to 10 000.
 pub fn upto(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|o| (1.0..=10_000.0).contains(o))
-        .ok_or_else(|| "give an order from 1 to 10000".to_string())
+    number_where(
+        s,
+        |o| (1.0..=10_000.0).contains(&o),
+        "give an order from 1 to 10000",
+    )
 }
 
 /// An angle in degrees (within ±1e6).
 pub fn degrees(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|a| a.abs() <= 1e6)
-        .ok_or_else(|| "give an angle in degrees".to_string())
+    number_where(s, |a| a.abs() <= 1e6, "give an angle in degrees")
 }
 
 /// A slot-opening width in slot pitches: 0 up to (not including) the field's largest.
 pub fn slot_opening(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|b| (0.0..beltwright::field::MAX_OPENING).contains(b))
-        .ok_or_else(|| "give a width from 0 up to (not including) 1 slot pitch".to_string())
+    number_where(
+        s,
+        |b| (0.0..beltwright::field::MAX_OPENING).contains(&b),
+        "give a width from 0 up to (not including) 1 slot pitch",
+    )
 }
 
 /// A sheet resolution: 10 to 1200 dots per inch.
 pub fn dpi(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|d| (10.0..=1200.0).contains(d))
-        .ok_or_else(|| "give a resolution from 10 to 1200".to_string())
+    number_where(
+        s,
+        |d| (10.0..=1200.0).contains(&d),
+        "give a resolution from 10 to 1200",
+    )
 }
 
 /// A wire size (diameter, mm, or area, mm²): positive, below 1000.
 pub fn wire_size(s: &str) -> Result<f64, String> {
-    number(s)
-        .ok()
-        .filter(|v| *v > 0.0 && *v < 1000.0)
-        .ok_or_else(|| "give a positive size below 1000".to_string())
+    number_where(
+        s,
+        |v| v > 0.0 && v < 1000.0,
+        "give a positive size below 1000",
+    )
 }
 
 /// Wires in hand: 1 to 100.
 pub fn wires_in_hand(s: &str) -> Result<u32, String> {
-    whole(s)
-        .ok()
-        .filter(|n| (1..=100).contains(n))
-        .map(|n| n as u32)
-        .ok_or_else(|| "give 1 to 100".to_string())
+    whole_where(s, |n| (1..=100).contains(&n), "give 1 to 100").map(|n| n as u32)
 }
 
 #[cfg(test)]
