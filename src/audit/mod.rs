@@ -4,7 +4,7 @@
 //! Phase EMFs are phasor sums of the coil EMFs (star of slots); their symmetrical components
 //! (C. L. Fortescue, "Method of symmetrical co-ordinates applied to the solution of polyphase
 //! networks", Trans. AIEE 37, 1918) give the forward and backward (negative-sequence) fields.
-//! The findings come from [`search`]: the smallest change, of up to two edits, that restores
+//! The findings come from [`search()`]: the smallest change, of up to two edits, that restores
 //! a balanced positive-sequence winding.
 
 mod compare;

@@ -4,7 +4,7 @@
 //! over combinations.
 //!
 //! Double-layer rotary rows score every span 1..=Z/2 in the star-of-slots kernel
-//! ([`spans`]) without building a `Winding`. Tests hold every figure against the planner.
+//! (`spans.rs`) without building a `Winding`. Tests hold every figure against the planner.
 //! Single-layer and linear rows come from the planner itself.
 
 use std::ops::RangeInclusive;

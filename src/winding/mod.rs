@@ -1,5 +1,6 @@
-//! The `Winding` model: core geometry plus a list of coils. It is the single source of truth;
-//! every analysis is a pure function of it and never looks back at the layout file.
+//! The `Winding` model: a [`Design`] (what was asked for), the slot angles worked out from
+//! it, and the coils (synthesized from the design or recorded). It is the single source of
+//! truth; every analysis is a pure function of it and never looks back at the layout file.
 
 mod feasible;
 mod groups;

@@ -1,5 +1,5 @@
-//! Synthesis of balanced windings by the star of slots with 60° phase belts, and the
-//! building of a [`Winding`] from an explicit coil list.
+//! Synthesis of balanced windings from a [`Design`] by the star of slots with 60° phase
+//! belts, and the building of a [`Winding`] from an explicit coil list.
 //!
 //! Method: every slot takes the phase and polarity of its 60° belt in the star of slots
 //! ([`super::star`], where the belt rule lives).
