@@ -34,7 +34,7 @@ fuzz_target!(|data: &[u8]| {
     let Ok(spec) = beltwright::layout::parse(text, "fuzz.toml") else {
         return;
     };
-    if spec.slots > 240 || spec.coils.len() > 480 {
+    if spec.design.slots > 240 || spec.coils.len() > 480 {
         return;
     }
     let Ok(w) = beltwright::winding::build_lenient(&spec) else {
