@@ -1,7 +1,8 @@
 //! Slot and coil numbers as a person reads them. Inside the program slots and coils count
 //! from 0; at every edge a person sees they count from 1, as a shop does. [`SlotNo`] and
 //! [`CoilNo`] carry that conversion in their type: made from a 0-based index, shown,
-//! serialized and compared (with a plain number) as the number a shop reads.
+//! serialized and compared (with a plain number) as the number a shop reads; so do
+//! [`PathNo`] and [`GroupNo`].
 
 use std::fmt;
 
@@ -85,6 +86,18 @@ number_type!(
     CoilNo,
     "CoilNumber",
     "coil"
+);
+number_type!(
+    /// A parallel path of a phase, shown from 1.
+    PathNo,
+    "PathNumber",
+    "path"
+);
+number_type!(
+    /// A coil group, shown from 1 in slot order.
+    GroupNo,
+    "GroupNumber",
+    "group"
 );
 
 /// The number a person sees for a 0-based index.

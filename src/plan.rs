@@ -4,7 +4,7 @@ use serde::Serialize;
 
 use crate::factors::{self, FactorRow};
 use crate::linear::{self, Figures, Operating};
-use crate::numbering::{CoilNo, SlotNo};
+use crate::numbering::{CoilNo, GroupNo, PathNo, SlotNo};
 use crate::winding::{
     Connection, Elec, Style, Topology, Winding, coil_groups, possible_path_counts,
 };
@@ -25,9 +25,9 @@ pub struct CoilRow {
     /// Turns.
     pub turns: u32,
     /// Parallel path from 1.
-    pub path: usize,
+    pub path: PathNo,
     /// Coil group number from 1.
-    pub group: usize,
+    pub group: GroupNo,
     /// Signed span in slot pitches (negative: coil reversed).
     pub span: i64,
     /// Layer of the go side: "top", "bottom" or "single".
@@ -51,7 +51,7 @@ pub struct SlotRow {
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct GroupRow {
     /// Group number from 1, in slot order.
-    pub number: usize,
+    pub number: GroupNo,
     /// Phase label.
     pub phase: String,
     /// "+" forward, "-" reversed.
@@ -59,7 +59,7 @@ pub struct GroupRow {
     /// Coils from 1, in slot order.
     pub coils: Vec<CoilNo>,
     /// Parallel path from 1.
-    pub path: usize,
+    pub path: PathNo,
 }
 
 /// One phase's phasor as reported: a phase EMF here (magnitude in effective series turns
@@ -193,10 +193,10 @@ fn tidy_angle(a: f64) -> f64 {
 pub fn plan(w: &Winding, op: Operating) -> PlanReport {
     let g = &w.geometry;
     let groups = coil_groups(w);
-    let mut group_of = vec![0; w.coils.len()];
+    let mut group_of = vec![GroupNo::at(0); w.coils.len()];
     for (n, grp) in groups.iter().enumerate() {
         for &c in &grp.coils {
-            group_of[c] = n + 1;
+            group_of[c] = GroupNo::at(n);
         }
     }
     let coils = w
@@ -209,7 +209,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
             go: SlotNo::at(c.go),
             back: SlotNo::at(c.back),
             turns: c.turns,
-            path: c.path + 1,
+            path: PathNo::at(c.path),
             group: group_of[i],
             span: w.span(c),
             go_layer: layer_name(g.layers, c.go_layer),
@@ -238,11 +238,11 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         .iter()
         .enumerate()
         .map(|(n, grp)| GroupRow {
-            number: n + 1,
+            number: GroupNo::at(n),
             phase: w.label(grp.phase).to_string(),
             polarity: if grp.polarity > 0 { "+" } else { "-" },
             coils: grp.coils.iter().map(|&c| CoilNo::at(c)).collect(),
-            path: w.coils[grp.coils[0]].path + 1,
+            path: PathNo::at(w.coils[grp.coils[0]].path),
         })
         .collect();
     let (qn, qd) = w.slots_per_pole_phase();

@@ -3,7 +3,7 @@
 use serde::Serialize;
 
 use super::{CoilAt, Fact, Finding, FindingKind};
-use crate::numbering::{CoilNo, SlotNo};
+use crate::numbering::{CoilNo, PathNo, SlotNo};
 use crate::winding::Winding;
 
 /// What one slot holds in the record and in the design: "+U" for current in, "-U" out.
@@ -105,7 +105,7 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
         let detail = match j {
             None => Fact::DiffersFromDesign {
                 coil,
-                path: c.path + 1,
+                path: PathNo::at(c.path),
                 matched: false,
                 phase: None,
                 go: None,
@@ -116,12 +116,12 @@ pub fn compare(found: &Winding, design: &Winding) -> Comparison {
                 let d = &design.coils[j];
                 Fact::DiffersFromDesign {
                     coil,
-                    path: c.path + 1,
+                    path: PathNo::at(c.path),
                     matched: true,
                     phase: (found.label(c.phase) != design.label(d.phase))
                         .then(|| design.label(d.phase).to_string()),
                     go: (c.go != d.go).then_some(SlotNo::at(d.go)),
-                    belongs_in_path: (c.path != d.path).then_some(d.path + 1),
+                    belongs_in_path: (c.path != d.path).then_some(PathNo::at(d.path)),
                 }
             }
         };

@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use crate::card::measured::Suggestion;
-use crate::numbering::{CoilNo, SlotNo};
+use crate::numbering::{CoilNo, PathNo, SlotNo};
 
 /// A coil as a finding names it (numbers from 1).
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, schemars::JsonSchema)]
@@ -29,9 +29,9 @@ pub struct PathMove {
     /// Their slots.
     pub slots: Vec<SlotNo>,
     /// The path they are in.
-    pub from: usize,
+    pub from: PathNo,
     /// The path they belong in.
-    pub to: usize,
+    pub to: PathNo,
 }
 
 /// The facts of one finding.
@@ -128,7 +128,7 @@ pub enum Fact {
         /// The phase.
         phase: String,
         /// The path, from 1.
-        path: usize,
+        path: PathNo,
         /// Its turns.
         turns: u64,
         /// Its EMF magnitude, effective turns.
@@ -214,7 +214,7 @@ pub enum Fact {
         /// The coil as recorded.
         coil: CoilAt,
         /// Its path as recorded, from 1.
-        path: usize,
+        path: PathNo,
         /// False when the design has no coil in these slots.
         matched: bool,
         /// The phase it belongs in, when that differs.
@@ -222,7 +222,7 @@ pub enum Fact {
         /// Where current should enter, when it is reversed.
         go: Option<SlotNo>,
         /// The path it belongs in, when that differs.
-        belongs_in_path: Option<usize>,
+        belongs_in_path: Option<PathNo>,
     },
     /// A coil of the design the record lacks.
     MissingFromRecord {

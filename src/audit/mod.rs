@@ -16,7 +16,7 @@ mod slots;
 use num_complex::Complex64;
 use serde::Serialize;
 
-use crate::numbering::{CoilNo, SlotNo};
+use crate::numbering::{CoilNo, PathNo, SlotNo};
 use crate::safety::CAUTION;
 use crate::winding::{Elec, Mech, Topology, Winding, coil_groups};
 
@@ -134,7 +134,7 @@ pub struct PathRow {
     /// Phase label.
     pub phase: String,
     /// Path number from 1.
-    pub path: usize,
+    pub path: PathNo,
     /// Coils in the path.
     pub coils: Vec<CoilNo>,
     /// Turns in the path.

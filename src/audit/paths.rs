@@ -7,7 +7,7 @@ use num_complex::Complex64;
 use super::{
     BALANCE_TOL, Fact, Finding, FindingKind, PathMove, PathRow, angle_of, coil_at, slots_of,
 };
-use crate::numbering::CoilNo;
+use crate::numbering::{CoilNo, PathNo};
 use crate::winding::{CoilGroup, Elec, Winding, coil_groups};
 
 /// Most coil pairs of one phase tried as an exchange between paths.
@@ -46,7 +46,7 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
             }
             rows.push(PathRow {
                 phase: w.label(k).to_string(),
-                path: p + 1,
+                path: PathNo::at(p),
                 coils: coils[p].iter().map(|&c| CoilNo::at(c)).collect(),
                 turns: turns[p],
                 magnitude: emf[p].norm(),
@@ -77,8 +77,8 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                         },
                         coils: cs.iter().map(|&c| CoilNo::at(c)).collect(),
                         slots: slots_of(w, cs),
-                        from: p + 1,
-                        to: q + 1,
+                        from: PathNo::at(*p),
+                        to: PathNo::at(*q),
                     })
                     .collect();
                 findings.push(Finding {
@@ -102,7 +102,7 @@ pub(super) fn paths(w: &Winding) -> (Vec<PathRow>, Vec<Finding>) {
                         phases: vec![l.clone()],
                         detail: Fact::PathDiffers {
                             phase: l.clone(),
-                            path: p + 1,
+                            path: PathNo::at(p),
                             turns: row.turns,
                             magnitude: row.magnitude,
                             angle_deg: row.angle_deg,

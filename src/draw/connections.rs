@@ -91,7 +91,10 @@ fn finish_words(w: &Winding, e: &ScheduleRow) -> String {
     match e.finish_to {
         FinishTo::Coil { coil } => format!("coil {coil}"),
         FinishTo::Group { group, coil } => format!("G{group} coil {coil}"),
-        FinishTo::Lead => format!("lead {}", path_terminal(w, e.phase_index, e.path - 1, 2)),
+        FinishTo::Lead => format!(
+            "lead {}",
+            path_terminal(w, e.phase_index, e.path.index(), 2)
+        ),
     }
 }
 

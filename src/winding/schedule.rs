@@ -9,7 +9,7 @@
 use serde::Serialize;
 
 use super::{CoilGroup, Winding};
-use crate::numbering::{CoilNo, SlotNo};
+use crate::numbering::{CoilNo, GroupNo, PathNo, SlotNo};
 
 /// The groups of one phase and path, in connection order.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -72,7 +72,7 @@ pub enum FinishTo {
     /// The start of the next group of its path (a jumper).
     Group {
         /// That group, from 1.
-        group: usize,
+        group: GroupNo,
         /// Its first coil in current order, from 1.
         coil: CoilNo,
     },
@@ -98,9 +98,9 @@ pub struct ScheduleRow {
     #[schemars(skip)]
     pub phase_index: usize,
     /// Parallel path, from 1.
-    pub path: usize,
+    pub path: PathNo,
     /// Coil group, from 1 (groups numbered in slot order).
-    pub group: usize,
+    pub group: GroupNo,
     /// Where the coil's finish is joined.
     pub finish_to: FinishTo,
 }
@@ -118,7 +118,7 @@ pub fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<ScheduleRow> {
                     }
                 } else if let Some(&next) = lane.groups.get(n + 1) {
                     FinishTo::Group {
-                        group: next + 1,
+                        group: GroupNo::at(next),
                         coil: CoilNo::at(current_order(&groups[next])[0]),
                     }
                 } else {
@@ -132,8 +132,8 @@ pub fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<ScheduleRow> {
                     turns: coil.turns,
                     phase: w.label(lane.phase).to_string(),
                     phase_index: lane.phase,
-                    path: lane.path + 1,
-                    group: gi + 1,
+                    path: PathNo::at(lane.path),
+                    group: GroupNo::at(gi),
                     finish_to,
                 });
             }
