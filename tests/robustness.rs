@@ -130,8 +130,8 @@ fn output_files_honour_the_umask_and_leave_no_temporary_files() {
 fn a_page_set_replaces_the_pages_of_an_earlier_longer_set() {
     let dir = tempfile::tempdir().expect("dir");
     let out_svg = dir.path().join("card.svg");
-    // Pages 3 and 4 of an earlier, longer set under the same name.
-    for k in [3, 4] {
+    // Pages 2 to 4 of an earlier, four-page set under the same name (page 1 is card.svg).
+    for k in [2, 3, 4] {
         std::fs::write(dir.path().join(format!("card-{k}.svg")), "old").expect("write");
     }
     let r = run(&[
@@ -144,9 +144,18 @@ fn a_page_set_replaces_the_pages_of_an_earlier_longer_set() {
     ]);
     assert!(r.status.success());
     let written = String::from_utf8_lossy(&r.stdout).lines().count();
-    assert!(written < 3, "the card is one or two pages here");
-    assert!(!dir.path().join("card-3.svg").exists());
-    assert!(!dir.path().join("card-4.svg").exists());
+    assert!(written < 4, "the card is shorter than the earlier set here");
+    // Every page beyond the new set's last is gone; the new set's own pages are new.
+    for k in written + 1..=4 {
+        assert!(
+            !dir.path().join(format!("card-{k}.svg")).exists(),
+            "card-{k}.svg"
+        );
+    }
+    for k in 2..=written {
+        let text = std::fs::read_to_string(dir.path().join(format!("card-{k}.svg")));
+        assert!(text.is_ok_and(|t| t.starts_with("<svg")), "card-{k}.svg");
+    }
 }
 
 // XML 1.0 §2.2 forbids U+FFFE and U+FFFF; bidirectional overrides could reorder what a

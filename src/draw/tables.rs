@@ -90,7 +90,12 @@ fn layout(sections: &[Section], width: f64) -> Vec<Item> {
             // The title block carries the design.
             Section::Design(_) => {}
             Section::Lines(lines) => {
-                for l in crate::output::paragraphs(lines) {
+                // The caution stands in every page's title block already; repeated in the
+                // body it only pushed a card's last words onto a page of their own.
+                for l in crate::output::paragraphs(lines)
+                    .into_iter()
+                    .filter(|l| !l.starts_with("CAUTION:"))
+                {
                     for part in text::wrap(&l, BODY, width) {
                         items.push(Item::Line(part));
                     }
