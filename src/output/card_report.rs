@@ -36,15 +36,7 @@ fn ohms(r: f64) -> String {
 
 impl Report for DataCard {
     fn sections(&self) -> Vec<Section> {
-        let mut s = Vec::new();
-        s.push(Section::Heading(format!(
-            "Winding data card{}",
-            self.title
-                .as_ref()
-                .map(|t| format!(": {t}"))
-                .unwrap_or_default()
-        )));
-        s.push(Section::Design(super::design_lines(&self.design)));
+        let mut s = Vec::from(super::opening("Winding data card", &self.design));
         let list = |v: &[usize]| {
             v.iter()
                 .map(|x| x.to_string())

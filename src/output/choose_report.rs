@@ -17,15 +17,8 @@ impl Report for PitchReport {
             num(self.min_fundamental, 3)
         )];
         head.push("* recommended   ! below the k_w1 floor".into());
-        let mut s = vec![
-            Section::Heading(match &self.title {
-                Some(t) => format!("Span comparison: {t}"),
-                None => "Span comparison".into(),
-            }),
-            Section::Design(super::design_lines(&self.design)),
-            Section::Lines(head),
-            Section::Table(self.main_table()),
-        ];
+        let mut s = Vec::from(super::opening("Span comparison", &self.design));
+        s.extend([Section::Lines(head), Section::Table(self.main_table())]);
         s.push(Section::Lines(super::reports::wrap(
             &self.reason.to_string(),
             78,

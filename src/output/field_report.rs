@@ -133,13 +133,7 @@ impl Report for FieldReport {
                 .unwrap_or_default();
             head.push(format!("field speed n_s = {} rpm{sec}", num(n, 2)));
         }
-        s.push(Section::Heading(
-            self.title
-                .clone()
-                .map(|t| format!("Travelling field: {t}"))
-                .unwrap_or_else(|| "Travelling field".into()),
-        ));
-        s.push(Section::Design(super::design_lines(&self.design)));
+        s.extend(super::opening("Travelling field", &self.design));
         s.push(Section::Lines(head));
         s.push(Section::Lines(wrap(self.caution, 78)));
         s.push(Section::Heading(format!(

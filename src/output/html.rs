@@ -160,13 +160,10 @@ pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
     let mut toc: Vec<(String, String)> = Vec::new();
     let p = plan::plan(w, Default::default());
     part(&mut body, &mut toc, "Plan", &p);
-    if w.from_coil_list {
-        part(
-            &mut body,
-            &mut toc,
-            "Audit of the coil list",
-            &audit::audit(w, intended),
-        );
+    // A recorded coil list is audited once: its section and the banner below.
+    let found = w.from_coil_list.then(|| audit::audit(w, intended));
+    if let Some(a) = &found {
+        part(&mut body, &mut toc, "Audit of the coil list", a);
     }
     part(&mut body, &mut toc, "Data card", &card::card(w));
     let q = thrust::ThrustQuery {
@@ -234,7 +231,7 @@ pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
         "<p class=\"caution\" role=\"note\">{}</p>",
         escape(CAUTION)
     );
-    let unsound = !w.is_balanced() || (w.from_coil_list && !audit::audit(w, intended).sound);
+    let unsound = !w.is_balanced() || found.as_ref().is_some_and(|a| !a.sound);
     if unsound {
         out.push_str(
             "<p class=\"caution\" role=\"alert\" id=\"unsound\">NOT A SOUND WINDING: the \

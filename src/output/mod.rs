@@ -134,6 +134,16 @@ pub fn with_warnings(
 
 pub use crate::numbering::num;
 
+/// How a report opens: its heading ("Kind: title", or the kind alone) and the shared
+/// design header.
+pub fn opening(kind: &str, h: &crate::header::DesignHeader) -> [Section; 2] {
+    let heading = match &h.title {
+        Some(t) => format!("{kind}: {t}"),
+        None => kind.to_string(),
+    };
+    [Section::Heading(heading), Section::Design(design_lines(h))]
+}
+
 /// The shared design header in words: the same lines open every report.
 pub fn design_lines(h: &crate::header::DesignHeader) -> Vec<String> {
     use crate::winding::{Style, Topology};

@@ -7,16 +7,7 @@ use crate::thrust::{Feed, ThrustReport};
 
 impl Report for ThrustReport {
     fn sections(&self) -> Vec<Section> {
-        let mut s = vec![
-            Section::Heading(format!(
-                "Flat primary performance{}",
-                self.title
-                    .as_ref()
-                    .map(|t| format!(": {t}"))
-                    .unwrap_or_default()
-            )),
-            Section::Design(super::design_lines(&self.design)),
-        ];
+        let mut s = Vec::from(super::opening("Flat primary performance", &self.design));
         let c = &self.circuit;
         let feed = match self.feed {
             Feed::Voltage { phase_voltage_v } => {
@@ -111,16 +102,10 @@ impl Report for ThrustReport {
 
 impl Report for InductanceReport {
     fn sections(&self) -> Vec<Section> {
-        let mut s = vec![
-            Section::Heading(format!(
-                "Inductances by winding functions{}",
-                self.title
-                    .as_ref()
-                    .map(|t| format!(": {t}"))
-                    .unwrap_or_default()
-            )),
-            Section::Design(super::design_lines(&self.design)),
-        ];
+        let mut s = Vec::from(super::opening(
+            "Inductances by winding functions",
+            &self.design,
+        ));
         s.push(Section::Lines(vec![
             format!(
                 "effective gap {} mm; gap inductances in mH, leakage {} mH per phase not \
