@@ -87,15 +87,10 @@ fn layout(sections: &[Section], width: f64) -> Vec<Item> {
     for s in sections {
         match s {
             Section::Heading(h) => items.push(Item::Heading(h.clone())),
-            // The title block carries the design.
-            Section::Design(_) => {}
+            // The title block carries the design and the caution on every page.
+            Section::Design(_) | Section::Caution(_) => {}
             Section::Lines(lines) => {
-                // The caution stands in every page's title block already; repeated in the
-                // body it only pushed a card's last words onto a page of their own.
-                for l in crate::output::paragraphs(lines)
-                    .into_iter()
-                    .filter(|l| !l.starts_with("CAUTION:"))
-                {
+                for l in crate::output::paragraphs(lines) {
                     for part in text::wrap(&l, BODY, width) {
                         items.push(Item::Line(part));
                     }

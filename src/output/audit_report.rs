@@ -68,7 +68,7 @@ impl Report for AuditReport {
             ));
         }
         s.push(Section::Lines(head));
-        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(super::caution(self.caution));
 
         s.push(Section::Heading("Findings".into()));
         if self.findings.is_empty() {
@@ -381,7 +381,7 @@ impl Report for RewindReport {
             head.push(format!("assumed: {a}"));
         }
         s.push(Section::Lines(head));
-        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(super::caution(self.caution));
         s.push(Section::Heading("Old and new design".into()));
         s.push(Section::Table(self.main_table()));
         if let Some(c) = &self.conductor {

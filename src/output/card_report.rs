@@ -230,7 +230,7 @@ impl Report for DataCard {
                     .collect(),
             ));
         }
-        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(super::caution(self.caution));
         s
     }
 

@@ -1,6 +1,5 @@
 //! How the travelling-field report reads as text and CSV.
 
-use super::reports::wrap;
 use super::{Align, Report, Section, Table, num};
 use crate::field::{Direction, FieldReport};
 use itertools::Itertools;
@@ -135,7 +134,7 @@ impl Report for FieldReport {
         }
         s.extend(super::opening("Travelling field", &self.design));
         s.push(Section::Lines(head));
-        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(super::caution(self.caution));
         s.push(Section::Heading(format!(
             "Spectrum up to order {} (relative to the working wave)",
             num(self.upto, 3)

@@ -73,13 +73,12 @@ fn sections(out: &mut String, secs: &[Section]) {
             Section::Heading(h) => {
                 let _ = writeln!(out, "<h3>{}</h3>", escape(h));
             }
-            // The page's header shows the design once.
-            Section::Design(_) => {}
+            // The page's header shows the design once, and the caution at top and foot.
+            Section::Design(_) | Section::Caution(_) => {}
             Section::Lines(lines) => {
                 // A line the terminal wrapped joins the one before: the page reflows it.
                 let paragraphs = super::paragraphs(lines);
-                // The caution stands at the top and foot of the page already.
-                for l in paragraphs.iter().filter(|l| !l.starts_with("CAUTION:")) {
+                for l in &paragraphs {
                     let class = if l.starts_with("WARNING") {
                         "line warning"
                     } else {

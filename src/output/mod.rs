@@ -45,6 +45,9 @@ pub enum Section {
     /// The design header ([`design_lines`]): printed by the terminal, shown once at the top
     /// of the HTML page and in the sheets' title block instead.
     Design(Vec<String>),
+    /// The safety caution: printed by the terminal; the HTML page and the sheets show it
+    /// in their own frame (page header and foot, every title block) instead.
+    Caution(Vec<String>),
     /// Free lines of text.
     Lines(Vec<String>),
     /// An aligned table.
@@ -133,6 +136,11 @@ pub fn with_warnings(
 }
 
 pub use crate::numbering::num;
+
+/// The safety caution as a report's section, wrapped for the terminal.
+pub fn caution(text: &str) -> Section {
+    Section::Caution(wrap(text, 78))
+}
 
 /// How a report opens: its heading ("Kind: title", or the kind alone) and the shared
 /// design header.

@@ -94,7 +94,7 @@ impl Report for PlanReport {
         ));
         s.push(Section::Design(super::design_lines(&self.design)));
         s.push(Section::Lines(head));
-        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(super::caution(self.caution));
 
         s.push(Section::Heading(
             "Slots (sign: current in at +, out at -)".into(),

@@ -16,7 +16,7 @@ impl Exporter for Text {
                     }
                     writeln!(out, "{}", crate::sanitize::clean(h))?;
                 }
-                Section::Lines(lines) | Section::Design(lines) => {
+                Section::Lines(lines) | Section::Design(lines) | Section::Caution(lines) => {
                     for l in lines {
                         writeln!(
                             out,

@@ -69,7 +69,7 @@ impl Report for ThrustReport {
         s.push(Section::Lines(
             notes.iter().flat_map(|l| wrap(l, 78)).collect(),
         ));
-        s.push(Section::Lines(wrap(self.caution, 78)));
+        s.push(super::caution(self.caution));
         s
     }
 
