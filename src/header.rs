@@ -59,11 +59,7 @@ pub fn of(w: &Winding) -> DesignHeader {
         style: w.design.style,
         span: w.pitch,
         pole_pitch_slots: g.pole_pitch_slots,
-        slots_per_pole_phase: if qd == 1 {
-            qn.to_string()
-        } else {
-            format!("{qn}/{qd}")
-        },
+        slots_per_pole_phase: crate::numbering::fraction(qn, qd),
         turns_per_coil: w.design.turns_per_coil,
         turns_assumed: w.design.turns_assumed,
         parallel_paths: w.parallel_paths,

@@ -105,6 +105,18 @@ pub fn shown(index: usize) -> usize {
     index + 1
 }
 
+/// A ratio n/d as a reduced fraction for people: "5/4", or "2" when whole (how q, slots per
+/// pole per phase, is written everywhere).
+pub fn fraction(n: u64, d: u64) -> String {
+    let g = crate::winding::gcd(n, d).max(1);
+    let (n, d) = (n / g, d / g);
+    if d == 1 {
+        n.to_string()
+    } else {
+        format!("{n}/{d}")
+    }
+}
+
 /// "1-3, 7, 9-10" from sorted numbers as shown (plain numbers, [`SlotNo`] or [`CoilNo`]).
 pub fn ranges<T: Copy + Into<usize>>(ns: &[T]) -> String {
     let ns: Vec<usize> = ns.iter().map(|&n| n.into()).collect();
@@ -157,6 +169,14 @@ pub fn short(x: f64) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    // q = Z/(2p·m): 36 slots, 4 poles, 3 phases give 3; 45 slots give 15/4 (common practice).
+    #[test]
+    fn q_is_written_as_a_reduced_fraction() {
+        assert_eq!(fraction(36, 12), "3");
+        assert_eq!(fraction(45, 12), "15/4");
+        assert_eq!(fraction(29 - 5, 12), "2");
+    }
 
     #[test]
     fn ranges_compress_runs() {

@@ -262,11 +262,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         connection: w.design.connection,
         pole_pitch_slots: g.pole_pitch_slots,
         slots_per_pole_phase: qn as f64 / qd as f64,
-        slots_per_pole_phase_fraction: if qd == 1 {
-            qn.to_string()
-        } else {
-            format!("{qn}/{qd}")
-        },
+        slots_per_pole_phase_fraction: crate::numbering::fraction(qn, qd),
         periodicity: (g.topology == Topology::Rotary).then(|| w.periodicity()),
         unbalanced_pull: (g.topology == Topology::Rotary).then(|| !w.balanced_pull()),
         balanced: w.is_balanced(),

@@ -13,6 +13,7 @@ use rayon::prelude::*;
 use serde::Serialize;
 
 use crate::design::Design;
+use crate::numbering::fraction;
 mod spans;
 
 use crate::winding::star::{order_amplitude, roots_of_unity};
@@ -192,17 +193,6 @@ pub fn filter_and_sort(
     }
 }
 
-fn fraction(n: u64, d: u64) -> (u64, u64, String) {
-    let g = gcd(n, d).max(1);
-    let (n, d) = (n / g, d / g);
-    let s = if d == 1 {
-        n.to_string()
-    } else {
-        format!("{n}/{d}")
-    };
-    (n, d, s)
-}
-
 fn lcm(a: usize, b: usize) -> usize {
     a / gcd(a as u64, b as u64) as usize * b
 }
@@ -225,7 +215,7 @@ struct Buffers {
 fn row(query: &SurveyQuery, z: usize, poles: usize, layers: usize, buf: &mut Buffers) -> SurveyRow {
     let m = query.phases;
     // Flat primaries refine q from the planner's coil positions.
-    let (_, _, q_fraction) = fraction(z as u64, (m * poles) as u64);
+    let q_fraction = fraction(z as u64, (m * poles) as u64);
     let base = SurveyRow {
         slots: z,
         poles,
@@ -363,7 +353,7 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffer
         }
         Ok(w) => {
             let (n, d) = w.slots_per_pole_phase();
-            let (_, _, qf) = fraction(n, d);
+            let qf = fraction(n, d);
             r.q = n as f64 / d as f64;
             r.q_fraction = qf;
             r.feasible = true;
