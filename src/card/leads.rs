@@ -65,7 +65,7 @@ pub struct LeadScheme {
     pub count: u8,
     /// Every lead brought out: (name, phase label, section from 1, "start" | "finish").
     pub terminals: Vec<Terminal>,
-    /// Section ends joined inside the machine (9-lead machines).
+    /// Section ends joined inside the machine (3- and 9-lead machines).
     pub internal: Vec<Vec<String>>,
     /// Connections the terminal box can be wired to.
     pub configurations: Vec<Configuration>,
@@ -104,7 +104,12 @@ fn name(marking: Marking, count: u8, p: usize, s: usize, e: End) -> String {
     match marking {
         Marking::Nema => {
             if count == 3 {
-                return format!("T{}", p + 1);
+                // Three leads: T1, T2, T3 out; the finishes stay inside (named T4, T5, T6
+                // as on a six-lead machine, so a sheet can say where they go).
+                return match e {
+                    End::Start => format!("T{}", p + 1),
+                    End::Finish => format!("T{}", p + 4),
+                };
             }
             let base = 1 + 6 * s + p;
             match e {
@@ -115,7 +120,11 @@ fn name(marking: Marking, count: u8, p: usize, s: usize, e: End) -> String {
         Marking::Iec => {
             let letter = ["U", "V", "W"][p];
             if count == 3 {
-                return letter.to_string();
+                // Three leads: U, V, W out (IEC 60034-8); the finishes stay inside.
+                return match e {
+                    End::Start => letter.to_string(),
+                    End::Finish => format!("{letter}2"),
+                };
             }
             let n = 1 + 4 * s + usize::from(e == End::Finish);
             format!("{letter}{n}")
@@ -201,12 +210,16 @@ pub fn scheme(
         }
     }
     terminals.sort_by_key(|t| (t.section, t.end == "finish", t.phase.clone()));
-    if n == 9 {
+    // Ends joined inside the machine: the finishes of a three-lead machine, the second
+    // sections' finishes of a nine-lead machine (star point, or each to the next phase's
+    // first start in delta).
+    if n == 3 || n == 9 {
+        let s = if n == 9 { 1 } else { 0 };
         match planned {
-            Connection::Star => internal.push((0..3).map(|p| nm(p, 1, End::Finish)).collect()),
+            Connection::Star => internal.push((0..3).map(|p| nm(p, s, End::Finish)).collect()),
             Connection::Delta => {
                 for p in 0..3 {
-                    internal.push(vec![nm(p, 1, End::Finish), nm((p + 1) % 3, 0, End::Start)]);
+                    internal.push(vec![nm(p, s, End::Finish), nm((p + 1) % 3, 0, End::Start)]);
                 }
             }
         }

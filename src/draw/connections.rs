@@ -23,7 +23,7 @@ use crate::winding::{CoilGroup, Connection, Winding, coil_groups};
 
 pub use crate::winding::schedule::group_ends;
 
-const BOX_W: f64 = 17.0;
+const BOX_W: f64 = 20.0;
 const BOX_H: f64 = 8.0;
 const BOX_GAP: f64 = 6.0;
 const LINE_H: f64 = 13.0;
@@ -45,11 +45,9 @@ pub fn terminal(w: &Winding, k: usize, end: u8) -> String {
 /// winding the lead scheme's name (the path is a section of a 9- or 12-lead winding), marked
 /// "(inside)" where the end is joined inside the machine; otherwise the phase label and end.
 pub fn path_terminal(w: &Winding, k: usize, p: usize, end: u8) -> String {
-    if w.geometry.phases == 3
-        && (w.design.leads.marking == Marking::Nema || w.design.leads.count >= 9)
-    {
+    if w.geometry.phases == 3 {
         let (name, inside) = crate::card::leads::section_lead(w.design.leads, k, p, end == 2);
-        return if inside && w.design.leads.count == 9 {
+        return if inside {
             format!("{name} (inside)")
         } else {
             name
@@ -91,10 +89,14 @@ fn finish_words(w: &Winding, e: &ScheduleRow) -> String {
     match e.finish_to {
         FinishTo::Coil { coil } => format!("coil {coil}"),
         FinishTo::Group { group, coil } => format!("G{group} coil {coil}"),
-        FinishTo::Lead => format!(
-            "lead {}",
-            path_terminal(w, e.phase_index, e.path.index(), 2)
-        ),
+        FinishTo::Lead => {
+            let t = path_terminal(w, e.phase_index, e.path.index(), 2);
+            if t.ends_with("(inside)") {
+                t
+            } else {
+                format!("lead {t}")
+            }
+        }
     }
 }
 
@@ -111,7 +113,7 @@ fn columns(w: &Winding) -> Vec<(&'static str, f64)> {
     if w.parallel_paths > 1 {
         c.push(("Path", 7.0));
     }
-    c.push(("Finish to", 15.0));
+    c.push(("Finish to", 18.0));
     c
 }
 
@@ -336,31 +338,57 @@ fn coil_list(g: &CoilGroup) -> String {
     }
 }
 
+/// The coil list as it fits a group box: "coils 10–12", else without the word ("10–12"),
+/// else cut with an ellipsis (only lists of scattered coils are that long).
+fn box_coils(list: &str, size: f64, room: f64) -> String {
+    if text::width(list, size) <= room {
+        return list.to_string();
+    }
+    let bare = list
+        .trim_start_matches("coils ")
+        .trim_start_matches("coil ");
+    text::fit(bare, size, room)
+}
+
 /// Groups per line of a lane in a diagram `width` wide.
 fn per_line(width: f64) -> usize {
     (((width - 2.0 * LEAD_W - 8.0 + BOX_GAP) / (BOX_W + BOX_GAP)).floor() as usize).max(1)
 }
 
-/// Height of the diagram drawn `width` wide at full size, mm.
-fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
+/// Height of the lanes drawn `width` wide at full size, in drawing units.
+fn lanes_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
     let lanes = lanes(w, groups);
     let n = per_line(width);
     let lines: usize = lanes
         .iter()
         .map(|l| l.groups.len().div_ceil(n).max(1))
         .sum();
-    let note = if w.parallel_paths > 1 { 4.0 } else { 0.0 };
-    let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
-    let board_h = board(w, &pal, width, 1.0).1;
-    board_h + 8.0 + lines as f64 * LINE_H + lanes.len() as f64 * 5.0 + 4.0 + note
+    let note = if w.parallel_paths > 1 { 10.0 } else { 0.0 };
+    lines as f64 * LINE_H + lanes.len() as f64 * 5.0 + 4.0 + note
 }
 
-/// Scale at which the diagram fits `width` × `height` (1 when it fits at full size).
+/// Height of the heading and terminal boards, drawn at printed size `width` wide, mm.
+fn boards_height(w: &Winding, width: f64) -> f64 {
+    let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
+    board(w, &pal, width, 1.0).1 + 4.0
+}
+
+/// Height of the whole diagram drawn `width` wide at full size, mm.
+fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
+    boards_height(w, width) + lanes_height(w, groups, width)
+}
+
+/// Scale at which the lanes fit under the boards in `width` × `height` (1 when they fit at
+/// full size; the boards and their words are always drawn at printed size).
 fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
     if width < 40.0 {
         return 0.0;
     }
-    (height / diagram_height(w, groups, width)).min(1.0)
+    let room = height - boards_height(w, width);
+    if room <= 0.0 {
+        return 0.0;
+    }
+    (room / lanes_height(w, groups, width)).min(1.0)
 }
 
 /// Terminal board, then one lane per phase and path with the groups in connection order.
@@ -374,27 +402,31 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
     };
     let lanes = lanes(w, groups);
     let per_line = per_line(b.w);
+    // Heading and boards at printed size; the lanes below, scaled to fit.
+    let (board_g, board_h) = board(w, pal, b.w, 1.0);
+    let top = Group::new()
+        .set("transform", format!("translate({} {})", r(b.x), r(b.y)))
+        .add(label(0.0, 2.8, 2.6, Anchor::Start, "Connection diagram"))
+        .add(board_g);
+    let lanes_y = b.y + board_h + 4.0;
     let mut inner = Group::new();
-    inner = inner.add(label(
-        0.0,
-        2.8,
-        2.6 * ts,
-        Anchor::Start,
-        "Connection diagram",
-    ));
-    let (board_g, board_h) = board(w, pal, b.w / scale, ts);
-    inner = inner.add(board_g);
-    let mut y = board_h + 8.0;
+    let mut y = 4.0;
     for Lane {
         phase: k,
         path: p,
         groups: gs,
     } in &lanes
     {
+        let bare = |end: u8| {
+            let t = path_terminal(w, *k, *p, end);
+            t.trim_end_matches(" (inside)").to_string()
+        };
         let mut lane = Group::new()
             .set("class", "lane")
             .set("data-phase", *k)
-            .set("data-path", p + 1);
+            .set("data-path", p + 1)
+            .set("data-start", bare(1))
+            .set("data-finish", bare(2));
         let name = if w.parallel_paths > 1 {
             format!("Phase {}, path {}", w.label(*k), p + 1)
         } else {
@@ -460,29 +492,38 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         y += nlines as f64 * LINE_H + 5.0;
     }
     if w.parallel_paths > 1 {
-        inner = inner.add(label(
-            0.0,
-            y + 1.0,
-            2.6 * ts,
-            Anchor::Start,
-            &format!(
-                "{} parallel paths per phase: join the path starts at the 1-lead and the path ends at the 2-lead.",
+        let words = if w.geometry.phases == 3 && w.design.leads.count >= 9 {
+            "The two paths of each phase are its two sections, brought out on their own leads: \
+             connect them on the board above for the voltage wanted."
+                .to_string()
+        } else {
+            format!(
+                "{} parallel paths per phase: join the path starts at the 1-lead and the path \
+                 ends at the 2-lead.",
                 w.parallel_paths
-            ),
-        ));
+            )
+        };
+        for l in text::wrap(&words, 2.6 * ts, b.w / scale) {
+            inner = inner.add(label(0.0, y + 1.0, 2.6 * ts, Anchor::Start, &l));
+            y += 3.3 * ts;
+        }
     }
     Group::new()
         .set("class", "connection-diagram")
-        .set(
-            "transform",
-            format!(
-                "translate({} {}) scale({})",
-                r(b.x),
-                r(b.y),
-                r(scale * 1000.0) / 1000.0
-            ),
+        .add(top)
+        .add(
+            Group::new()
+                .set(
+                    "transform",
+                    format!(
+                        "translate({} {}) scale({})",
+                        r(b.x),
+                        r(lanes_y),
+                        r(scale * 1000.0) / 1000.0
+                    ),
+                )
+                .add(inner),
         )
-        .add(inner)
 }
 
 /// A lead end: open terminal circle with its marking above right.
@@ -546,7 +587,7 @@ fn group_box(
             yc + 2.7,
             2.6 * ts,
             Anchor::Middle,
-            &text::fit(&coil_list(g), 2.6 * ts, BOX_W - 1.0),
+            &box_coils(&coil_list(g), 2.6 * ts, BOX_W - 1.0),
         ))
         .add(label(x - 0.4, yc - 1.2, 2.6 * ts, Anchor::End, entry))
         .add(label(
@@ -568,10 +609,93 @@ fn group_box(
     out
 }
 
-/// The terminal board: 2-ends above (shifted one place), 1-ends below, with star or delta
-/// links and the supply lines.
-/// The terminal board and its notes, and the height they take (mm).
+/// The terminal boards and the words above them, and the height they take (mm). A
+/// three-phase winding's boards come from its lead scheme ([`super::board`]); other phase
+/// counts get one board of their own phase ends.
 fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
+    if w.geometry.phases != 3 {
+        return phase_board(w, pal, width, ts);
+    }
+    let scheme = crate::card::leads::scheme(
+        w.design.leads,
+        w.design.connection,
+        w.design.supply.line_voltage_v,
+        None,
+        &w.design.phase_labels,
+        w.geometry.slots,
+    );
+    let mut g = Group::new().set("class", "terminal-board");
+    let mut y = 2.6 * ts + 4.0;
+    let say = |g: Group, words: &str, y: &mut f64, class: &str| -> Group {
+        let mut g = g;
+        for l in text::wrap(words, 2.6 * ts, width) {
+            g = g.add(label(0.0, *y, 2.6 * ts, Anchor::Start, &l).set("class", class.to_string()));
+            *y += 3.3 * ts;
+        }
+        g
+    };
+    let drawn = super::board::drawn(&scheme, w.design.connection);
+    for c in &scheme.configurations {
+        let words = format!(
+            "{}{}: {}",
+            if c.as_planned { "As planned: " } else { "" },
+            super::board::heading(c),
+            super::board::sentence(c)
+        );
+        let class = if c.as_planned {
+            "headline"
+        } else {
+            "lead-table"
+        };
+        // The planned one first; the others follow, the boards drawn below.
+        if c.as_planned {
+            g = say(g, &words, &mut y, class);
+        }
+    }
+    for c in scheme.configurations.iter().filter(|c| !c.as_planned) {
+        let words = format!(
+            "{}: {}",
+            super::board::heading(c),
+            super::board::sentence(c)
+        );
+        let class = if drawn.iter().any(|d| std::ptr::eq(*d, c)) {
+            "lead-table"
+        } else {
+            "lead-table not-drawn"
+        };
+        g = say(g, &words, &mut y, class);
+    }
+    y += 1.0;
+    let (boards, h) = super::board::boards(
+        &scheme,
+        w.design.connection,
+        &w.design.phase_labels,
+        pal,
+        width / ts,
+    );
+    g = g.add(boards.set(
+        "transform",
+        format!("translate(0 {}) scale({})", r(y), r(ts * 1000.0) / 1000.0),
+    ));
+    y += h * ts + 3.0 * ts + 1.0;
+    let note = match w.design.leads.marking {
+        Marking::Iec => {
+            "Groups: S start, F finish as wound; a reversed group is connected F in, S out; under each group its coils. Leads marked to IEC 60034-8."
+        }
+        Marking::Nema => {
+            "Groups: S start, F finish as wound; a reversed group is connected F in, S out; under each group its coils. Leads marked to NEMA MG 1."
+        }
+    };
+    for line in text::wrap(note, 2.6 * ts, width) {
+        g = g.add(label(0.0, y, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
+        y += 3.3 * ts;
+    }
+    (g, y)
+}
+
+/// The terminal board of a winding that is not three-phase: 2-ends above (shifted one
+/// place), 1-ends below, with star or delta links and the supply lines; its words beside.
+fn phase_board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
     let m = w.geometry.phases;
     let pitch = 16.0;
     let x0 = 6.0;
@@ -669,38 +793,9 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
     let tx0 = bw + 2.0;
     let room = (width - tx0).max(30.0);
     let mut y = y_top - 2.0;
-    for line in text::wrap(&how, 2.5 * ts, room) {
+    for line in text::wrap(&how, 2.6 * ts, room) {
         g = g.add(label(tx0, y, 2.6 * ts, Anchor::Start, &line));
         y += 3.3;
-    }
-    if w.geometry.phases == 3 && w.design.leads.count > 3 {
-        let scheme = crate::card::leads::scheme(
-            w.design.leads,
-            w.design.connection,
-            w.design.supply.line_voltage_v,
-            None,
-            &w.design.phase_labels,
-            w.geometry.slots,
-        );
-        for c in &scheme.configurations {
-            let line = format!(
-                "{}{}: L1 {}, L2 {}, L3 {}{}",
-                crate::output::configuration_name(c),
-                if c.as_planned { " (as planned)" } else { "" },
-                c.lines[0].join("+"),
-                c.lines[1].join("+"),
-                c.lines[2].join("+"),
-                if c.joined.is_empty() {
-                    String::new()
-                } else {
-                    format!("; join {}", c.joined.iter().map(|j| j.join("-")).join(", "))
-                }
-            );
-            for l in text::wrap(&line, 2.5 * ts, room) {
-                g = g.add(label(tx0, y, 2.6 * ts, Anchor::Start, &l).set("class", "lead-table"));
-                y += 3.3;
-            }
-        }
     }
     let note = match w.design.leads.marking {
         Marking::Iec => {
@@ -710,7 +805,7 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
             "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to NEMA MG 1."
         }
     };
-    for line in text::wrap(note, 2.5 * ts, room) {
+    for line in text::wrap(note, 2.6 * ts, room) {
         g = g.add(label(tx0, y + 0.6, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
         y += 3.3;
     }

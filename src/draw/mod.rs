@@ -8,6 +8,7 @@
 //! carry a `class` and `data-` attributes; user text only ever appears in text nodes, which
 //! the `svg` crate escapes.
 
+pub mod board;
 pub mod card;
 pub mod chart;
 pub mod connections;
