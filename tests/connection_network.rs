@@ -202,12 +202,12 @@ fn solve(sections: &[Section], board: &Board, inside: &[Vec<String>]) -> Result<
             return Err("the network is singular: a node floats".into());
         }
         m.swap(col, piv);
-        for row in 0..n {
+        let pivot = m[col].clone();
+        for (row, r) in m.iter_mut().enumerate() {
             if row != col {
-                let f = m[row][col] / m[col][col];
-                for k in col..=n {
-                    let t = m[col][k] * f;
-                    m[row][k] -= t;
+                let f = r[col] / pivot[col];
+                for (x, p) in r.iter_mut().zip(&pivot).skip(col) {
+                    *x -= p * f;
                 }
             }
         }
