@@ -164,13 +164,112 @@ impl Default for TurnRule {
     }
 }
 
-/// The `[measured]` table: line-to-line resistances as measured at the terminals.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+/// The `[measured]` table: resistances as read, between line terminals or across each
+/// section's own leads, and the winding temperature at the reading.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Measured {
     /// Between line terminals 1-2, 2-3 and 3-1, ohms.
-    pub line_resistance_ohm: [f64; 3],
+    pub line_resistance_ohm: Option<[f64; 3]>,
+    /// Across each section's own leads, ohms, in the card's section order: U, V, W (first
+    /// sections), then U, V, W (second sections of a 9- or 12-lead winding). A nine-lead
+    /// star machine's second sections meet inside, so their three values are the readings
+    /// T7-T8, T8-T9, T9-T7 (U7-V7 ... in IEC marking) between their free ends.
+    pub section_resistance_ohm: Option<Vec<f64>>,
     /// Winding temperature at the measurement, °C.
     pub temperature_c: f64,
+}
+
+/// Insulation (thermal) class on a nameplate (IEC 60085).
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+pub enum InsulationClass {
+    /// 105 °C.
+    A,
+    /// 120 °C.
+    E,
+    /// 130 °C.
+    B,
+    /// 155 °C.
+    F,
+    /// 180 °C.
+    H,
+}
+
+/// The `[nameplate]` table: the machine's rating as stamped. Every field optional.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Nameplate {
+    /// Rated output, watts (from `power_kw` or `power_hp`, 1 hp = 745.7 W).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_w: Option<f64>,
+    /// Rated line voltages, volts: one, or two for a dual-voltage machine.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub voltages_v: Vec<f64>,
+    /// Rated line currents, amperes, one per voltage.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub currents_a: Vec<f64>,
+    /// Rated speed, revolutions per minute.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub speed_rpm: Option<f64>,
+    /// Rated frequency, hertz.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub frequency_hz: Option<f64>,
+    /// Frame designation as stamped.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub frame: Option<String>,
+    /// Connection as stamped (e.g. "YY/Y", "D/Y").
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub connection: Option<String>,
+    /// Insulation class.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub insulation_class: Option<InsulationClass>,
+    /// Rated efficiency, a fraction.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub efficiency: Option<f64>,
+    /// Rated power factor.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_factor: Option<f64>,
+    /// Service factor (NEMA).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub service_factor: Option<f64>,
+}
+
+impl Nameplate {
+    /// The rated line current that goes with line voltage `v`: the current stamped beside
+    /// the voltage nearest to it, or the only current.
+    pub fn current_at(&self, v: Option<f64>) -> Option<f64> {
+        match (self.currents_a.len(), v) {
+            (0, _) => None,
+            (1, _) => self.currents_a.first().copied(),
+            (_, None) => None,
+            (_, Some(v)) => self
+                .voltages_v
+                .iter()
+                .zip(&self.currents_a)
+                .min_by(|a, b| (a.0 - v).abs().total_cmp(&(b.0 - v).abs()))
+                .map(|(_, i)| *i),
+        }
+    }
+}
+
+/// The `[job]` table: the shop's job data, printed on the card and the title block.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Job {
+    /// Job or work-order number.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub number: Option<String>,
+    /// Customer.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub customer: Option<String>,
+    /// Date, as written.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub date: Option<String>,
+    /// Who did the work.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub technician: Option<String>,
+    /// Free notes.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub notes: Option<String>,
 }
 
 /// Conductor of a flat primary's secondary plate.
@@ -274,6 +373,10 @@ pub struct Design {
     pub secondary: Option<Secondary>,
     /// True when `winding.turns_per_coil` was not given and one turn is assumed.
     pub turns_assumed: bool,
+    /// The rating as stamped.
+    pub nameplate: Option<Nameplate>,
+    /// The shop's job data.
+    pub job: Option<Job>,
 }
 
 impl Design {
@@ -308,6 +411,8 @@ impl Design {
             measured: None,
             secondary: None,
             turns_assumed: false,
+            nameplate: None,
+            job: None,
         }
     }
 

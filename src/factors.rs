@@ -19,7 +19,7 @@ pub struct FactorRow {
     /// Electrical order ν.
     pub order: Elec,
     /// Mechanical order n = ν·p on a rotary core (wave count around the gap).
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub mech_order: Option<Mech>,
     /// Distribution factor k_d.
     pub distribution: f64,

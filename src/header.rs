@@ -31,8 +31,11 @@ pub struct DesignHeader {
     pub pole_pitch_slots: f64,
     /// Slots per pole per phase q as a reduced fraction, e.g. "5/4".
     pub slots_per_pole_phase: String,
-    /// Turns per coil of the design.
+    /// Turns per coil, from the coils themselves (the most common count when they differ).
     pub turns_per_coil: u32,
+    /// Every distinct turn count among the coils, smallest first, when they differ.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub mixed_turns: Vec<u32>,
     /// True when the layout gave no turns per coil and one turn is assumed.
     pub turns_assumed: bool,
     /// Parallel paths per phase.
@@ -60,7 +63,11 @@ pub fn of(w: &Winding) -> DesignHeader {
         span: w.pitch,
         pole_pitch_slots: g.pole_pitch_slots,
         slots_per_pole_phase: crate::numbering::fraction(qn, qd),
-        turns_per_coil: w.design.turns_per_coil,
+        turns_per_coil: w.turns_per_coil(),
+        mixed_turns: {
+            let t = w.distinct_turns();
+            if t.len() > 1 { t } else { Vec::new() }
+        },
         turns_assumed: w.design.turns_assumed,
         parallel_paths: w.parallel_paths,
         connection: w.design.connection,

@@ -166,6 +166,20 @@ pub fn short(x: f64) -> String {
     }
 }
 
+/// "1 coil", "3 coils": a count with its noun in the right number.
+pub fn count(n: usize, one: &str, many: &str) -> String {
+    format!("{n} {}", if n == 1 { one } else { many })
+}
+
+/// The noun for a list of counts: singular only when every count is 1.
+pub fn noun_for(counts: &[usize], one: &'static str, many: &'static str) -> &'static str {
+    if !counts.is_empty() && counts.iter().all(|&c| c == 1) {
+        one
+    } else {
+        many
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -129,7 +129,7 @@ pub struct PlanReport {
     /// Phase EMF phasors at the fundamental.
     pub phases_emf: Vec<PhasorRow>,
     /// Half-filled end slots of a linear primary (slot numbers from 1).
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub half_filled_slots: Option<Vec<SlotNo>>,
     /// Slots holding no coil side.
     pub empty_slots: Vec<SlotNo>,

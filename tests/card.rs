@@ -133,7 +133,7 @@ fn audit_names_the_phase_of_a_high_pair() {
     let r = check(&format!("[{}, {}, {}]", u + r_ph, 2.0 * r_ph, r_ph + u));
     assert!(!r.sound);
     match &r.suggestion {
-        Suggestion::PhaseDiffers { phase, ratio } => {
+        Suggestion::High { phase, ratio } => {
             assert_eq!(phase, "U");
             assert!((ratio - 1.10).abs() < 1e-9);
         }

@@ -189,16 +189,22 @@ pub enum Fact {
     },
     /// Measured resistances unbalanced or off the card.
     MeasuredResistance {
-        /// Line-to-line readings, ohms.
-        measured_ohm: [f64; 3],
+        /// How the readings were taken.
+        taken: crate::card::measured::Taken,
+        /// Line-to-line readings, ohms (when taken that way).
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        measured_ohm: Option<[f64; 3]>,
         /// Winding temperature, °C.
         temperature_c: f64,
-        /// Largest deviation from their mean, per cent.
+        /// Largest deviation of a reading from their mean, per cent.
         deviation_percent: f64,
         /// Tolerance, per cent.
         tolerance_percent: f64,
-        /// Their mean over the card's figure.
+        /// Mean of the phases (or sections) over the card's figure.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
         ratio_to_expected: Option<f64>,
+        /// The phases or sections outside the tolerance, at 20 °C.
+        outside: Vec<crate::card::measured::Judged>,
         /// What the readings suggest.
         suggestion: Suggestion,
     },

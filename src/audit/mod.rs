@@ -200,7 +200,7 @@ pub struct AuditReport {
     /// Other fixes of the same size found (the best is reported).
     pub other_fixes: usize,
     /// Comparison with the intended design, when given.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub intended: Option<Comparison>,
     /// What is wrong.
     pub findings: Vec<Finding>,
@@ -706,19 +706,29 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             kind: FindingKind::MeasuredResistance,
             coils: Vec::new(),
             slots: Vec::new(),
-            phases: match &r.suggestion {
-                crate::card::measured::Suggestion::PathOpen { phase, .. }
-                | crate::card::measured::Suggestion::PhaseDiffers { phase, .. } => {
-                    vec![phase.clone()]
-                }
-                _ => Vec::new(),
+            phases: {
+                let mut p: Vec<String> = r
+                    .judged
+                    .iter()
+                    .filter(|j| !j.within_tolerance)
+                    .map(|j| j.phase.clone())
+                    .collect();
+                p.dedup();
+                p
             },
             detail: Fact::MeasuredResistance {
+                taken: r.taken,
                 measured_ohm: r.measured_ohm,
                 temperature_c: r.temperature_c,
                 deviation_percent: r.deviation_percent,
                 tolerance_percent: r.tolerance_percent,
                 ratio_to_expected: r.ratio_to_expected,
+                outside: r
+                    .judged
+                    .iter()
+                    .filter(|j| !j.within_tolerance)
+                    .cloned()
+                    .collect(),
                 suggestion: r.suggestion.clone(),
             },
         });

@@ -177,6 +177,8 @@ pub struct Rotation {
     pub slots: usize,
     /// Whose convention names the direction of rotation.
     pub marking: Marking,
+    /// A closed core turns; a flat primary's field travels along it.
+    pub topology: crate::design::Topology,
 }
 
 /// The lead scheme and its connection tables. `planned` is the winding's connection;
@@ -188,6 +190,7 @@ pub fn scheme(
     r: Option<&SectionResistance>,
     labels: &[String],
     slots: usize,
+    topology: crate::design::Topology,
 ) -> LeadScheme {
     let (m, n) = (leads.marking, leads.count);
     let nm = |p: usize, s: usize, e: End| name(m, n, p, s, e);
@@ -368,6 +371,7 @@ pub fn scheme(
         leads: first,
         slots,
         marking: m,
+        topology,
     };
     LeadScheme {
         marking: m,
@@ -399,6 +403,7 @@ mod tests {
             None,
             &labels,
             24,
+            crate::design::Topology::Rotary,
         )
     }
 

@@ -1,16 +1,31 @@
-//! Measured line-to-line resistances against the card: balance, and what a reading far from
-//! the expected value suggests.
+//! Measured resistances against the card, judged per phase (or per section) at 20 °C, and
+//! what a reading far from the others suggests, by its sign and size.
 //!
-//! The three readings are turned back into phase resistances: in star, R_k = (m_k + m_{k+2}
-//! − m_{k+1})/2 from m_k = R_k + R_{k+1}; in delta, the readings give the equivalent star
-//! (as above), and the delta from the star by the star–delta transformation (Kennelly 1899;
-//! any circuits text). So a fault is pinned to a phase in either connection. A phase reversed
-//! inside a delta does not change any DC resistance: that is the audit's EMF check's work.
+//! Readings come in two ways (`[measured]`):
+//! - between the line terminals: turned back into phase resistances. In star,
+//!   R_k = (m_k + m_{k+2} − m_{k+1})/2 from m_k = R_k + R_{k+1}; in delta, the readings give
+//!   the equivalent star (as above) and the delta from the star by the star–delta
+//!   transformation (Kennelly 1899; any circuits text). So a fault is pinned to a phase in
+//!   either connection, although in delta it moves the terminal readings by only a third
+//!   of its size (a phase 3 % high: +0.98 / −0.49 / −0.49 %).
+//! - across each section's own leads (6, 9 and 12 leads, before the links are made): each
+//!   section directly; a nine-lead star machine's second sections meet inside, so their
+//!   three readings between free ends are reduced like line readings of a star.
+//!
+//! Each phase or section, corrected to 20 °C and divided by the card's value for it, is
+//! set against the median of its kind; more than the tolerance from it is a finding. The
+//! tolerance is ANSI/EASA AR100's 2 % for random-wound windings; AR100 states its unbalance
+//! as the largest deviation from the mean of all three, by which one phase 3 % high reads
+//! only +1.98 % and the two sound ones −0.99 %: against the median, the one phase out of
+//! line reads its own +3 % and the sound ones 0.
+//! A phase reversed inside a delta does not change any DC resistance: that is the audit's
+//! EMF check's work.
 
 use serde::Serialize;
 
+use super::leads::section_lead;
 use super::wire::{iec_60317_mm, metal};
-use super::{BALANCE_TOLERANCE_PERCENT, Wire, planned_line_resistances};
+use super::{BALANCE_TOLERANCE_PERCENT, Wire, path_resistances, planned_line_resistances};
 use crate::winding::{Connection, Winding};
 
 /// What the readings suggest, in shop terms.
@@ -45,35 +60,104 @@ pub enum Suggestion {
         /// Its resistance over the others'.
         ratio: f64,
     },
-    /// One phase differs from the other two.
-    PhaseDiffers {
-        /// Phase label.
+    /// One phase or section reads s/(s − 1) times the others: one strand in hand open.
+    StrandOpen {
+        /// Phase label, or the section's leads.
         phase: String,
-        /// Its resistance over the mean of the others.
+        /// Its resistance over the others'.
+        ratio: f64,
+        /// Strands in hand on the card.
+        strands: u32,
+    },
+    /// One phase or section reads many times the others: an open circuit or a joint that
+    /// barely touches.
+    Open {
+        /// Phase label, or the section's leads.
+        phase: String,
+        /// Its resistance over the others'.
+        ratio: f64,
+    },
+    /// One phase or section reads high: a poor joint, a smaller wire, extra turns.
+    High {
+        /// Phase label, or the section's leads.
+        phase: String,
+        /// Its resistance over the others'.
+        ratio: f64,
+    },
+    /// One phase or section reads low: shorted turns, fewer turns, a larger wire.
+    Low {
+        /// Phase label, or the section's leads.
+        phase: String,
+        /// Its resistance over the others'.
         ratio: f64,
     },
     /// The readings are unbalanced in no single-phase pattern.
     Scattered,
 }
 
+/// How the readings were taken.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "snake_case")]
+pub enum Taken {
+    /// Between the line terminals of the connected winding.
+    LineToLine,
+    /// Across each section's own leads.
+    Sections,
+}
+
+/// One phase or section as the readings give it, at 20 °C.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Judged {
+    /// Phase label.
+    pub phase: String,
+    /// Section of the phase from 1 (1 for a whole phase).
+    pub section: usize,
+    /// Where it is measured: the section's leads ("T1-T4"), or the phase label.
+    pub between: String,
+    /// As worked out from the readings, corrected to 20 °C, ohms.
+    pub measured_20c_ohm: f64,
+    /// The card's value, ohms (absent without wire or resistance data).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub expected_20c_ohm: Option<f64>,
+    /// Against the median of its kind (each over its card value), per cent.
+    pub deviation_percent: f64,
+    /// Within the tolerance.
+    pub within_tolerance: bool,
+}
+
 /// The measured resistances set against the card.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ResistanceCheck {
-    /// Readings between terminals 1-2, 2-3, 3-1, ohms.
-    pub measured_ohm: [f64; 3],
+    /// How the readings were taken.
+    pub taken: Taken,
+    /// Readings between terminals 1-2, 2-3, 3-1, ohms (when taken that way).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measured_ohm: Option<[f64; 3]>,
+    /// Readings across the sections, ohms, as given (when taken that way).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub section_readings_ohm: Option<Vec<f64>>,
     /// Winding temperature at the reading, °C.
     pub temperature_c: f64,
-    /// Expected readings at that temperature, ohms (null without wire or resistance data).
+    /// Expected line readings at that temperature, ohms (absent without wire or resistance
+    /// data, or when the readings are per section).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub expected_ohm: Option<[f64; 3]>,
-    /// Largest deviation of a reading from the mean of the three, per cent.
+    /// Largest deviation of a reading from the mean of the readings, per cent (AR100's
+    /// unbalance of what was read).
     pub deviation_percent: f64,
     /// The tolerance, per cent.
     pub tolerance_percent: f64,
-    /// Mean reading over mean expected.
+    /// Mean of the phases (or sections) over the card's, at 20 °C.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub ratio_to_expected: Option<f64>,
-    /// Phase resistances worked back from the readings, ohms.
-    pub phase_ohm: [f64; 3],
-    /// True when balanced within tolerance and within 5 % of the card.
+    /// Phase resistances worked back from line readings at the measuring temperature, ohms
+    /// (line readings only).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub phase_ohm: Option<[f64; 3]>,
+    /// Every phase (line readings) or section (section readings), judged.
+    pub judged: Vec<Judged>,
+    /// True when every phase or section is within tolerance and their mean within 5 % of
+    /// the card.
     pub sound: bool,
     /// What the readings suggest.
     pub suggestion: Suggestion,
@@ -82,6 +166,10 @@ pub struct ResistanceCheck {
 /// How far from the card counts as "far": 5 % (common practice: beyond the usual spread of
 /// wire tolerance and temperature reading).
 pub const FAR_PERCENT: f64 = 5.0;
+
+/// A phase or section this many times the others is taken as open (common practice: far
+/// beyond any strand, path or turns fault).
+pub const OPEN_RATIO: f64 = 3.0;
 
 /// Phase resistances from three line-to-line readings.
 pub fn phases_from_lines(m: [f64; 3], connection: Connection) -> [f64; 3] {
@@ -98,72 +186,273 @@ pub fn phases_from_lines(m: [f64; 3], connection: Connection) -> [f64; 3] {
     }
 }
 
+/// One section of the card: which phase and section, the leads it is measured across, and
+/// its resistance at 20 °C.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct SectionFigure {
+    /// Phase label.
+    pub phase: String,
+    /// Section of the phase, from 1.
+    pub section: usize,
+    /// The leads to measure across, e.g. "T1-T4"; for an end joined inside, the lead it is
+    /// joined to ("T7-T2 (T10 inside)").
+    pub between: String,
+    /// The section's own resistance at 20 °C, ohms.
+    pub resistance_20c_ohm: f64,
+    /// What the reading across `between` gives at 20 °C, ohms: the section's own, or with
+    /// the next section in series where the two meet inside (nine-lead star).
+    pub reading_20c_ohm: f64,
+}
+
+/// The sections a shop measures before linking: per phase for 6 leads, two per phase for 9
+/// and 12 (none for 3 leads, whose ends are inside). `None` without resistance data or
+/// when a section has no coils.
+pub fn section_figures(w: &Winding) -> Option<Vec<SectionFigure>> {
+    if w.geometry.phases != 3 || w.design.leads.count == 3 {
+        return None;
+    }
+    let r = path_resistances(w)?;
+    let s = super::sections(w, &r)?;
+    let n = if w.design.leads.count >= 9 { 2 } else { 1 };
+    let mut out = Vec::new();
+    for sec in 0..n {
+        for p in 0..3 {
+            let v = s.r[p][sec];
+            if !(v.is_finite() && v > 0.0) {
+                return None;
+            }
+            let star_inside =
+                w.design.leads.count == 9 && sec == 1 && w.design.connection == Connection::Star;
+            out.push(SectionFigure {
+                phase: w.label(p).to_string(),
+                section: sec + 1,
+                between: between(w, p, sec),
+                resistance_20c_ohm: v,
+                reading_20c_ohm: if star_inside {
+                    v + s.r[(p + 1) % 3][sec]
+                } else {
+                    v
+                },
+            });
+        }
+    }
+    Some(out)
+}
+
+/// The leads a section is measured across.
+fn between(w: &Winding, p: usize, sec: usize) -> String {
+    let (a, _) = section_lead(w.design.leads, p, sec, false);
+    let (b, inside) = section_lead(w.design.leads, p, sec, true);
+    if !inside {
+        return format!("{a}-{b}");
+    }
+    match w.design.connection {
+        // Nine-lead star: the second sections meet in the star point inside.
+        Connection::Star => {
+            let (next, _) = section_lead(w.design.leads, (p + 1) % 3, sec, false);
+            format!("{a}-{next} ({b} in the star point)")
+        }
+        // Nine-lead delta: the finish is joined inside to the next phase's first start.
+        Connection::Delta => {
+            let (next, _) = section_lead(w.design.leads, (p + 1) % 3, 0, false);
+            format!("{a}-{next} ({b} inside)")
+        }
+    }
+}
+
+/// Each of `values` over its expected value, against the median of all of them, per cent:
+/// the typical value of its kind, which one phase or section out of line does not pull.
+fn deviations(values: &[f64], expected: Option<&[f64]>) -> Vec<f64> {
+    let ratios: Vec<f64> = values
+        .iter()
+        .enumerate()
+        .map(|(i, v)| v / expected.map_or(1.0, |e| e[i]))
+        .collect();
+    let m = median(&ratios);
+    ratios.iter().map(|r| (r / m - 1.0) * 100.0).collect()
+}
+
+/// Median of a short list (mean of the middle two for an even count).
+fn median(v: &[f64]) -> f64 {
+    let mut s = v.to_vec();
+    s.sort_by(f64::total_cmp);
+    let n = s.len();
+    if n == 0 {
+        return f64::NAN;
+    }
+    if n % 2 == 1 {
+        s[n / 2]
+    } else {
+        (s[n / 2 - 1] + s[n / 2]) / 2.0
+    }
+}
+
 /// Check `[measured]` against the card; `None` when nothing was measured or the winding is
 /// not three-phase.
 pub fn check(w: &Winding) -> Option<ResistanceCheck> {
-    let meas = w.design.measured?;
+    let meas = w.design.measured.as_ref()?;
     if w.geometry.phases != 3 {
         return None;
     }
-    let m = meas.line_resistance_ohm;
-    let mean = (m[0] + m[1] + m[2]) / 3.0;
-    let deviation = m.iter().map(|x| (x / mean - 1.0).abs()).fold(0.0, f64::max) * 100.0;
     let wire = w.design.wire.as_ref().map(Wire::of);
     let material = wire
         .as_ref()
         .map_or(crate::design::Material::Copper, |x| x.material);
-    let expected = planned_line_resistances(w)
-        .map(|e| e.map(|r| metal(material).at_temperature(r, meas.temperature_c)));
-    let ratio = expected.map(|e| mean / ((e[0] + e[1] + e[2]) / 3.0));
-    let ph = phases_from_lines(m, w.design.connection);
-    let ph_mean = (ph[0] + ph[1] + ph[2]) / 3.0;
-    let balanced = deviation <= BALANCE_TOLERANCE_PERCENT;
+    let t = meas.temperature_c;
+    let to_20 = |r: f64| r / metal(material).at_temperature(1.0, t);
+    let labels = |p: usize| w.label(p).to_string();
+    let tol = BALANCE_TOLERANCE_PERCENT;
+    let spread = |m: &[f64]| {
+        let mean = m.iter().sum::<f64>() / m.len() as f64;
+        m.iter().map(|x| (x / mean - 1.0).abs()).fold(0.0, f64::max) * 100.0
+    };
+    // Phases (or sections) at 20 °C, what each is called, and their card values.
+    let (taken, values, names, expected_each, line, phase_ohm, deviation) =
+        match (&meas.section_resistance_ohm, meas.line_resistance_ohm) {
+            (Some(v), _) => {
+                let figures = section_figures(w);
+                let mut vals: Vec<f64> = v.clone();
+                if w.design.leads.count == 9 && w.design.connection == Connection::Star {
+                    // The second sections' readings are between their free ends: a star.
+                    let s = phases_from_lines([v[3], v[4], v[5]], Connection::Star);
+                    vals[3..6].copy_from_slice(&s);
+                }
+                let names: Vec<(String, usize, String)> = (0..vals.len())
+                    .map(|i| {
+                        let (p, sec) = (i % 3, i / 3);
+                        let between = figures
+                            .as_ref()
+                            .and_then(|f| f.get(i))
+                            .map_or_else(|| labels(p), |f| f.between.clone());
+                        (labels(p), sec + 1, between)
+                    })
+                    .collect();
+                let exp = figures.map(|f| f.iter().map(|x| x.resistance_20c_ohm).collect());
+                (
+                    Taken::Sections,
+                    vals.iter().map(|r| to_20(*r)).collect::<Vec<f64>>(),
+                    names,
+                    exp,
+                    None,
+                    None,
+                    spread(v),
+                )
+            }
+            (None, Some(m)) => {
+                let ph = phases_from_lines(m, w.design.connection);
+                let exp: Option<Vec<f64>> = super::phase_resistances_20c(w)
+                    .filter(|r| r.len() == 3 && r.iter().all(|x| x.is_finite() && *x > 0.0));
+                (
+                    Taken::LineToLine,
+                    ph.iter().map(|r| to_20(*r)).collect(),
+                    (0..3).map(|p| (labels(p), 1, labels(p))).collect(),
+                    exp,
+                    Some(m),
+                    Some(ph),
+                    spread(&m),
+                )
+            }
+            (None, None) => return None,
+        };
+    let devs = deviations(&values, expected_each.as_deref());
+    let judged: Vec<Judged> = values
+        .iter()
+        .zip(&devs)
+        .zip(&names)
+        .enumerate()
+        .map(|(i, ((v, d), (phase, section, between)))| Judged {
+            phase: phase.clone(),
+            section: *section,
+            between: between.clone(),
+            measured_20c_ohm: *v,
+            expected_20c_ohm: expected_each.as_ref().map(|e| e[i]),
+            deviation_percent: *d,
+            within_tolerance: d.is_finite() && d.abs() <= tol,
+        })
+        .collect();
+    let ratio = expected_each
+        .as_ref()
+        .map(|e| values.iter().sum::<f64>() / e.iter().sum::<f64>());
+    let expected_lines = match taken {
+        Taken::LineToLine => planned_line_resistances(w)
+            .filter(|e| e.iter().all(|x| x.is_finite() && *x > 0.0))
+            .map(|e| e.map(|r| metal(material).at_temperature(r, t))),
+        Taken::Sections => None,
+    };
+    let balanced = judged.iter().all(|j| j.within_tolerance);
     let near = ratio.is_none_or(|r| (r - 1.0).abs() * 100.0 <= FAR_PERCENT);
     let suggestion = if balanced && near {
         Suggestion::AsExpected
     } else if balanced {
-        let r = ratio.unwrap_or(1.0);
-        uniform(r, wire.as_ref())
+        uniform(ratio.unwrap_or(1.0), wire.as_ref())
     } else {
-        // One phase apart from the other two?
-        let (p, rp) = (0..3)
-            .map(|p| {
-                let others = (ph[(p + 1) % 3] + ph[(p + 2) % 3]) / 2.0;
-                (p, ph[p] / others)
-            })
-            .max_by(|a, b| (a.1 - 1.0).abs().total_cmp(&(b.1 - 1.0).abs()))
-            .unwrap_or((0, 1.0));
-        let others_agree = {
-            let (a, b) = (ph[(p + 1) % 3], ph[(p + 2) % 3]);
-            ((a - b) / ph_mean).abs() * 100.0 <= BALANCE_TOLERANCE_PERCENT
-        };
-        let label = w.design.phase_labels.get(p).cloned().unwrap_or_default();
-        let a = w.parallel_paths as f64;
-        if !others_agree {
-            Suggestion::Scattered
-        } else if a >= 2.0 && (rp / (a / (a - 1.0)) - 1.0).abs() < 0.03 {
-            Suggestion::PathOpen {
-                phase: label,
-                ratio: rp,
-            }
-        } else {
-            Suggestion::PhaseDiffers {
-                phase: label,
-                ratio: rp,
-            }
-        }
+        one_apart(w, &judged, wire.as_ref(), taken)
     };
     Some(ResistanceCheck {
-        measured_ohm: m,
-        temperature_c: meas.temperature_c,
-        expected_ohm: expected,
+        taken,
+        measured_ohm: line,
+        section_readings_ohm: meas.section_resistance_ohm.clone(),
+        temperature_c: t,
+        expected_ohm: expected_lines,
         deviation_percent: deviation,
-        tolerance_percent: BALANCE_TOLERANCE_PERCENT,
+        tolerance_percent: tol,
         ratio_to_expected: ratio,
-        phase_ohm: ph,
+        phase_ohm,
+        judged,
         sound: balanced && near,
         suggestion,
     })
+}
+
+/// The suggestion when one phase or section stands apart from the others (which agree
+/// among themselves): by its sign and size.
+fn one_apart(w: &Winding, judged: &[Judged], wire: Option<&Wire>, taken: Taken) -> Suggestion {
+    let Some((i, worst)) = judged.iter().enumerate().max_by(|a, b| {
+        a.1.deviation_percent
+            .abs()
+            .total_cmp(&b.1.deviation_percent.abs())
+    }) else {
+        return Suggestion::Scattered;
+    };
+    // The others must be within tolerance: one apart, not a scatter.
+    let agree = judged
+        .iter()
+        .enumerate()
+        .all(|(j, x)| j == i || x.within_tolerance);
+    if !agree {
+        return Suggestion::Scattered;
+    }
+    // Its ratio to the mean of the others.
+    let rel = |x: &Judged| x.measured_20c_ohm / x.expected_20c_ohm.unwrap_or(1.0);
+    let others: Vec<f64> = judged
+        .iter()
+        .enumerate()
+        .filter(|(j, _)| *j != i)
+        .map(|(_, x)| rel(x))
+        .collect();
+    let r = rel(worst) / (others.iter().sum::<f64>() / others.len() as f64);
+    let phase = match taken {
+        Taken::LineToLine => worst.phase.clone(),
+        Taken::Sections => worst.between.clone(),
+    };
+    let near = |x: f64| (r / x - 1.0).abs() < 0.03;
+    let a = w.parallel_paths as f64;
+    let s = wire.map_or(1, |x| x.strands_in_hand);
+    if r >= OPEN_RATIO {
+        Suggestion::Open { phase, ratio: r }
+    } else if taken == Taken::LineToLine && a >= 2.0 && near(a / (a - 1.0)) {
+        Suggestion::PathOpen { phase, ratio: r }
+    } else if s >= 2 && near(s as f64 / (s as f64 - 1.0)) {
+        Suggestion::StrandOpen {
+            phase,
+            ratio: r,
+            strands: s,
+        }
+    } else if r > 1.0 {
+        Suggestion::High { phase, ratio: r }
+    } else {
+        Suggestion::Low { phase, ratio: r }
+    }
 }
 
 /// What a uniform ratio of measured to expected suggests.
@@ -197,13 +486,12 @@ fn uniform(r: f64, wire: Option<&Wire>) -> Suggestion {
 
 #[cfg(test)]
 mod tests {
-    use super::super::leads::Sections;
+    use super::super::leads::{SectionResistance, Sections};
     use super::*;
 
     // Round trip of the star and delta reductions: phases → readings → phases.
     #[test]
     fn phases_come_back_from_readings() {
-        use super::super::leads::SectionResistance;
         let r = SectionResistance {
             r: [[1.0, 0.0], [1.3, 0.0], [0.8, 0.0]],
         };
@@ -214,5 +502,16 @@ mod tests {
                 assert!((b - want).abs() < 1e-12, "{c:?}: {back:?}");
             }
         }
+    }
+
+    // One value 3 % above two equal others is 3 % from their median, though only +1.98 %
+    // from the mean of all three; the two others stay at 0 (arithmetic).
+    #[test]
+    fn each_is_judged_against_the_median() {
+        let d = deviations(&[1.03, 1.0, 1.0], None);
+        assert!((d[0] - 3.0).abs() < 1e-9);
+        assert!(d[1].abs() < 1e-12 && d[2].abs() < 1e-12);
+        let d = deviations(&[0.96, 1.0, 1.0, 1.0, 1.0, 1.0], None);
+        assert!((d[0] + 4.0).abs() < 1e-9 && d[5].abs() < 1e-12);
     }
 }

@@ -32,6 +32,15 @@ pub const FILL_LIMIT: f64 = 0.75;
 /// rotating electrical apparatus; from memory).
 pub const BALANCE_TOLERANCE_PERCENT: f64 = 2.0;
 
+/// Current density above which the card warns, A/mm²: 6 A/mm² for totally enclosed,
+/// fan-cooled random-wound motors (common practice, from memory: design tables give about
+/// 4–6.5 A/mm² for enclosed machines, more for open ones).
+pub const CURRENT_DENSITY_LIMIT_A_MM2: f64 = 6.0;
+
+/// Wire to order over the mass in the coils: 10 % for end connections, leads and waste
+/// (common practice, from memory).
+pub const WIRE_ALLOWANCE_PERCENT: f64 = 10.0;
+
 /// Temperature at which expected resistances are quoted when nothing was measured, °C.
 pub const SHOP_TEMPERATURE_C: f64 = 25.0;
 
@@ -52,6 +61,33 @@ pub enum CardWarning {
     NoWire,
     /// Lead schemes and line resistances are for three-phase windings only.
     NotThreePhase,
+    /// The wire carries more than the limit at rated current.
+    CurrentDensityAbove {
+        /// Current density at rated current, A/mm².
+        density_a_mm2: f64,
+        /// The limit, A/mm².
+        limit_a_mm2: f64,
+    },
+}
+
+/// The former (mould) a winder sets up for one coil shape, by the same mean-turn rule as
+/// the card: each straight side is the stack plus a straight extension at each end (a
+/// quarter of the per-turn allowance), each end a loop of k_e·W spanning W, drawn as two
+/// straight halves, so it stands W/2·√(k_e² − 1) beyond the extension.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Former {
+    /// Span in slots, as the shop writes it ("1-8").
+    pub span: String,
+    /// Coils of this shape.
+    pub coils: usize,
+    /// Span width W, centre to centre of the coil sides at the bore, mm.
+    pub span_width_mm: f64,
+    /// Straight length of each coil side, mm.
+    pub straight_mm: f64,
+    /// How far each end stands out beyond the core, mm.
+    pub end_extension_mm: f64,
+    /// Mean turn of this shape, mm.
+    pub mean_turn_mm: f64,
 }
 
 /// How the mean length of a turn was found (worded in `output/`).
@@ -91,6 +127,9 @@ pub struct Acceptance {
     pub hipot_new_v: Option<f64>,
     /// A repeat test after acceptance, 80 % of the above (IEC 60034-1, clause 9.2).
     pub hipot_repeat_v: Option<f64>,
+    /// The rated line voltage the test voltage is worked from, volts.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub hipot_rated_v: Option<f64>,
     /// Minimum insulation resistance at 40 °C, megohms: 5 MΩ for random-wound windings
     /// below 2 kV (IEEE 43-2013, Table 3).
     pub insulation_resistance_min_mohm: f64,
@@ -158,6 +197,35 @@ pub struct DataCard {
     pub wires_per_slot: u64,
     /// Lead markings and connection tables (three-phase windings).
     pub leads: Option<LeadScheme>,
+    /// Each section's resistance between its own leads at 20 °C (6, 9 and 12 leads).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub sections: Vec<measured::SectionFigure>,
+    /// The former of each coil shape (needs the stack and slot pitch).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub formers: Vec<Former>,
+    /// The rating as stamped.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub nameplate: Option<crate::design::Nameplate>,
+    /// The shop's job data.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub job: Option<crate::design::Job>,
+    /// Rated line current used for the current density, A (from the nameplate, at the
+    /// supply's line voltage).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub rated_current_a: Option<f64>,
+    /// Current density in the wire at rated current, A/mm².
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub current_density_a_mm2: Option<f64>,
+    /// The limit it is held against, A/mm².
+    pub current_density_limit_a_mm2: f64,
+    /// Wire to order, kg: the copper mass plus the allowance.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub wire_to_order_kg: Option<f64>,
+    /// Allowance on the copper mass for end connections, leads and waste, per cent.
+    pub wire_allowance_percent: f64,
+    /// The readings of `[measured]`, judged against this card.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measured: Option<measured::ResistanceCheck>,
     /// Acceptance figures.
     pub acceptance: Acceptance,
     /// Things to look at.
@@ -346,13 +414,15 @@ pub fn card(w: &Winding) -> DataCard {
             sec.as_ref(),
             &w.design.phase_labels,
             w.geometry.slots,
+            w.geometry.topology,
         )
     });
 
     let t_meas = w
         .design
         .measured
-        .map_or(SHOP_TEMPERATURE_C, |m: Measured| m.temperature_c);
+        .as_ref()
+        .map_or(SHOP_TEMPERATURE_C, |m: &Measured| m.temperature_c);
     let material = wire
         .as_ref()
         .map_or(crate::design::Material::Copper, |x| x.material);
@@ -377,6 +447,32 @@ pub fn card(w: &Winding) -> DataCard {
         })
         .or(w.design.supply.line_voltage_v);
     let hipot = rated.map(hipot_new_v);
+
+    // Current density at rated current: the phase current (line current in star, /√3 in
+    // delta) shared by the paths, over the conductor area.
+    let rated_current = w
+        .design
+        .nameplate
+        .as_ref()
+        .and_then(|n| n.current_at(w.design.supply.line_voltage_v));
+    let density = match (rated_current, &wire) {
+        (Some(i), Some(wr)) if three => {
+            let phase = match w.design.connection {
+                crate::winding::Connection::Star => i,
+                crate::winding::Connection::Delta => i / 3f64.sqrt(),
+            };
+            let per_path = phase / w.parallel_paths.max(1) as f64;
+            Some(per_path / (wr.conductor_area_m2() * 1e6))
+        }
+        _ => None,
+    };
+    if let Some(j) = density.filter(|j| *j > CURRENT_DENSITY_LIMIT_A_MM2) {
+        warnings.push(CardWarning::CurrentDensityAbove {
+            density_a_mm2: j,
+            limit_a_mm2: CURRENT_DENSITY_LIMIT_A_MM2,
+        });
+    }
+    let formers = formers(w);
 
     DataCard {
         design: crate::header::of(w),
@@ -406,11 +502,22 @@ pub fn card(w: &Winding) -> DataCard {
         copper_fill,
         wires_per_slot,
         leads: lead_scheme,
+        sections: measured::section_figures(w).unwrap_or_default(),
+        formers,
+        nameplate: w.design.nameplate.clone(),
+        job: w.design.job.clone(),
+        rated_current_a: rated_current,
+        current_density_a_mm2: density,
+        current_density_limit_a_mm2: CURRENT_DENSITY_LIMIT_A_MM2,
+        wire_to_order_kg: mass.map(|m| m * (1.0 + WIRE_ALLOWANCE_PERCENT / 100.0)),
+        wire_allowance_percent: WIRE_ALLOWANCE_PERCENT,
+        measured: measured::check(w),
         acceptance: Acceptance {
             line_resistance: at,
             balance_tolerance_percent: BALANCE_TOLERANCE_PERCENT,
             hipot_new_v: hipot,
             hipot_repeat_v: hipot.map(|v| 0.8 * v),
+            hipot_rated_v: rated,
             insulation_resistance_min_mohm: 5.0,
             polarization_index_min: 2.0,
             note: "acceptance figures to compare against; the shop's own procedures, the \
@@ -419,6 +526,38 @@ pub fn card(w: &Winding) -> DataCard {
         warnings,
         caution: CAUTION,
     }
+}
+
+/// The former of each distinct span, by the mean-turn rule (empty when the turn is given
+/// as a length, or the stack or slot pitch is missing).
+pub fn formers(w: &Winding) -> Vec<Former> {
+    let rule = &w.design.turn;
+    let (None, Some(stack), Some(pitch)) =
+        (rule.mean_turn_m, w.design.core.stack_m, w.slot_pitch_m())
+    else {
+        return Vec::new();
+    };
+    let mut spans: std::collections::BTreeMap<u64, usize> = Default::default();
+    for c in &w.coils {
+        *spans.entry(w.span(c).unsigned_abs()).or_default() += 1;
+    }
+    let k = rule.end_factor;
+    spans
+        .into_iter()
+        .map(|(y, n)| {
+            let width = y as f64 * pitch;
+            let ext = rule.end_allowance_m / 4.0;
+            let rise = width / 2.0 * (k * k - 1.0).max(0.0).sqrt();
+            Former {
+                span: format!("1-{}", y + 1),
+                coils: n,
+                span_width_mm: width * 1e3,
+                straight_mm: (stack + 2.0 * ext) * 1e3,
+                end_extension_mm: (ext + rise) * 1e3,
+                mean_turn_mm: (2.0 * stack + 2.0 * k * width + rule.end_allowance_m) * 1e3,
+            }
+        })
+        .collect()
 }
 
 /// High-potential test voltage of a new winding for rated line voltage `u` (volts):

@@ -196,7 +196,10 @@ fn run_audit(a: AuditArgs) -> Result<Printed, Failure> {
         Ok(out)
     } else {
         Err(Failure {
-            message: format!("{name}: the audit found {found} problem(s); see the findings"),
+            message: format!(
+                "{name}: the audit found {}; see the findings",
+                beltwright::numbering::count(found, "problem", "problems")
+            ),
             status: 1,
             report: Some(out),
         })
@@ -451,7 +454,7 @@ fn wrote(paths: &[PathBuf]) -> String {
         .collect()
 }
 
-/// `plan --out DIR`: slot and connection sheets (SVG and PDF) and the plan JSON.
+/// `plan --out DIR`: slot, connection and data-card sheets (SVG and PDF) and the plan JSON.
 fn write_pack(
     w: &Winding,
     input: &Path,
@@ -469,7 +472,7 @@ fn write_pack(
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_else(|| "winding".into());
     let page = Page::default();
-    for sheet in [Sheet::Slots, Sheet::Connections] {
+    for sheet in [Sheet::Slots, Sheet::Connections, Sheet::Card] {
         let pages = draw::draw(w, sheet, &page);
         for kind in [FileKind::Svg, FileKind::Pdf] {
             let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };

@@ -623,6 +623,7 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
         None,
         &w.design.phase_labels,
         w.geometry.slots,
+        w.geometry.topology,
     );
     let mut g = Group::new().set("class", "terminal-board");
     let mut y = 2.6 * ts + 4.0;

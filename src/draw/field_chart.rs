@@ -485,9 +485,9 @@ pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
             rep.slots, rep.poles, rep.phases
         ),
         format!(
-            "span {}, {} layer(s), k_w1 = {}",
+            "span {}, {}, k_w1 = {}",
             rep.pitch,
-            rep.layers,
+            crate::numbering::count(rep.layers, "layer", "layers"),
             num(rep.winding_factor, 4)
         ),
         format!(

@@ -338,14 +338,15 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
         .collect::<Vec<_>>()
         .join(", ");
     let counts = format!(
-        "{} coils in {} groups of {} coil(s). Leads: {leads}",
-        w.coils.len(),
-        groups.len(),
+        "{} in {} of {} {}. Leads: {leads}",
+        crate::numbering::count(w.coils.len(), "coil", "coils"),
+        crate::numbering::count(groups.len(), "group", "groups"),
         sizes
             .iter()
             .map(|s| s.to_string())
             .collect::<Vec<_>>()
-            .join(" or ")
+            .join(" or "),
+        crate::numbering::noun_for(&sizes, "coil", "coils")
     );
     let y3 = area.y + 14.0;
     g = g.add(

@@ -55,10 +55,10 @@ pub fn pitch_chart(r: &PitchReport) -> String {
             48.0,
             12.0,
             &format!(
-                "{} slots, {} poles, {} layer(s), pole pitch {} slots",
+                "{} slots, {} poles, {}, pole pitch {} slots",
                 r.slots,
                 r.poles,
-                r.layers,
+                crate::numbering::count(r.layers, "layer", "layers"),
                 num(r.pole_pitch_slots, 3)
             ),
         ));

@@ -26,6 +26,10 @@ enum Item {
     Table(Table, f64),
 }
 
+/// An item laid out: is it a heading, its height, and its pieces (a page may break
+/// between pieces) with their heights.
+type Block = (bool, f64, Vec<(f64, Group)>);
+
 /// Set `sections` on pages of `page` size with the winding's title block named `sheet`.
 pub fn draw(w: &Winding, sheet: &str, sections: &[Section], page: &Page) -> Vec<String> {
     let probe = Canvas::new(page, &TitleBlock::of(w, sheet));
@@ -34,16 +38,29 @@ pub fn draw(w: &Winding, sheet: &str, sections: &[Section], page: &Page) -> Vec<
     // Fill pages top to bottom; a table too tall for a page is split between rows.
     let mut pages: Vec<Vec<(f64, Group)>> = vec![Vec::new()];
     let mut y = 0.0;
-    for item in items {
-        let (h, mut parts) = match item {
-            Item::Heading(s) => (HEAD + 3.0, vec![(HEAD + 3.0, heading(&s, area.w))]),
-            Item::Line(s) => (LINE, vec![(LINE, line(&s))]),
+    let blocks: Vec<Block> = items
+        .into_iter()
+        .map(|item| match item {
+            Item::Heading(s) => (true, HEAD + 3.0, vec![(HEAD + 3.0, heading(&s, area.w))]),
+            Item::Line(s) => (false, LINE, vec![(LINE, line(&s))]),
             Item::Table(t, size) => {
                 let rows = table_rows(&t, size, area.w);
-                (rows.iter().map(|r| r.0).sum(), rows)
+                (false, rows.iter().map(|r| r.0).sum(), rows)
             }
-        };
-        if y + h > area.h && h <= area.h && y > 0.0 {
+        })
+        .collect();
+    // A heading stays on the page of what follows it: the whole table when it fits a page
+    // (it moves whole), else its header and first row.
+    let lead: Vec<f64> = (0..blocks.len())
+        .map(|i| match blocks.get(i + 1) {
+            Some((false, h, _)) if *h <= area.h => *h,
+            Some((false, _, parts)) => parts.iter().take(2).map(|p| p.0).sum(),
+            _ => 0.0,
+        })
+        .collect();
+    for (i, (is_heading, h, mut parts)) in blocks.into_iter().enumerate() {
+        let keep = if is_heading { h + lead[i] } else { h };
+        if y + keep > area.h && keep <= area.h && y > 0.0 {
             pages.push(Vec::new());
             y = 0.0;
         }

@@ -24,6 +24,9 @@ pub struct TitleBlock {
     pub fields: Vec<(&'static str, String)>,
     /// Why the winding is not sound, for a banner across the sheet; `None` when it is.
     pub unsound: Option<String>,
+    /// Job and nameplate cells (job, customer, date, rating, frame), a row of their own
+    /// above the title when the layout gives any.
+    pub shop: Vec<(&'static str, String)>,
 }
 
 const LABEL: f64 = 1.8;
@@ -59,6 +62,7 @@ impl TitleBlock {
         };
         TitleBlock {
             unsound,
+            shop: shop_cells(w),
             title: h.title.clone().unwrap_or_else(|| {
                 format!("{} core, {} slots, {} poles", h.topology, h.slots, h.poles)
             }),
@@ -69,7 +73,18 @@ impl TitleBlock {
                 ("Poles 2p", h.poles.to_string()),
                 ("Span y", span),
                 ("Layers", h.layers.to_string()),
-                ("Turns/coil", h.turns_per_coil.to_string()),
+                (
+                    "Turns/coil",
+                    if h.mixed_turns.is_empty() {
+                        h.turns_per_coil.to_string()
+                    } else {
+                        format!(
+                            "{}-{} mixed",
+                            h.mixed_turns.first().copied().unwrap_or(0),
+                            h.mixed_turns.last().copied().unwrap_or(0)
+                        )
+                    },
+                ),
                 ("Paths a", h.parallel_paths.to_string()),
                 ("Connection", h.connection.to_string()),
                 ("k_w1", num(h.winding_factor, 4)),
@@ -89,7 +104,8 @@ impl TitleBlock {
         let scope = format!("{}-{}", crate::sanitize::slug(&self.sheet), self.page.0);
         let bw = BLOCK_W.min(frame.w);
         let bx = frame.right() - bw;
-        let block_h = 2.0 * ROW;
+        let rows = if self.shop.is_empty() { 2.0 } else { 3.0 };
+        let block_h = rows * ROW;
         let beside = frame.w - bw >= 80.0;
         let caution_w = if beside { frame.w - bw } else { frame.w };
         let lines = text::wrap(CAUTION, CAUTION_SIZE, caution_w - 4.0);
@@ -100,17 +116,43 @@ impl TitleBlock {
         };
         let total = if beside { block_h } else { block_h + caution_h };
         let top = frame.bottom() - total;
-        let by = frame.bottom() - block_h;
         let mut g = Group::new().set("class", "title-block");
         g = g.add(rule(frame.x, top, frame.right(), top, 0.5));
+        // Row 0: the shop's job and the nameplate, when given.
+        let shop_y = frame.bottom() - block_h;
+        if !self.shop.is_empty() {
+            let bx = frame.right() - bw;
+            // Widths: job, customer, date, rating (widest), frame.
+            let weights = [1.0, 1.4, 1.0, 2.0, 0.8];
+            let total_w: f64 = weights.iter().take(self.shop.len()).sum();
+            let unit = bw / total_w;
+            g = g.add(rule(bx, shop_y, bx, shop_y + ROW, 0.5));
+            g = g.add(rule(bx, shop_y + ROW, frame.right(), shop_y + ROW, 0.25));
+            if !beside {
+                g = g.add(rule(frame.x, shop_y, frame.right(), shop_y, 0.5));
+            }
+            let mut x = bx;
+            for (i, (name, value)) in self.shop.iter().enumerate() {
+                let cw = unit * weights.get(i).copied().unwrap_or(1.0);
+                if i > 0 {
+                    g = g.add(rule(x, shop_y, x, shop_y + ROW, 0.25));
+                }
+                g = g.add(cell(x, shop_y, cw, name, value, "shop", &scope));
+                x += cw;
+            }
+        }
+        let by = frame.bottom() - 2.0 * ROW;
         // Row 1: title and sheet.
         let sheet_w = bw * 0.3;
         let title_w = bw - sheet_w;
         g = g.add(rule(bx, by, bx, frame.bottom(), 0.5));
         g = g.add(rule(bx, by + ROW, frame.right(), by + ROW, 0.25));
         g = g.add(rule(bx + title_w, by, bx + title_w, by + ROW, 0.25));
-        if !beside {
+        if !beside && self.shop.is_empty() {
             g = g.add(rule(frame.x, by, frame.right(), by, 0.5));
+        }
+        if !self.shop.is_empty() {
+            g = g.add(rule(bx, by, frame.right(), by, 0.25));
         }
         g = g.add(cell(bx, by, title_w, "Title", &self.title, "title", &scope));
         let sheet = if self.page.1 > 1 {
@@ -145,7 +187,7 @@ impl TitleBlock {
         }
         // Caution.
         let (cx, cy) = if beside {
-            (frame.x, by)
+            (frame.x, frame.bottom() - block_h)
         } else {
             (frame.x, top)
         };
@@ -167,6 +209,59 @@ impl TitleBlock {
         }
         (g.add(c), total)
     }
+}
+
+/// The job and nameplate cells of the title block (empty without `[job]` and
+/// `[nameplate]`).
+fn shop_cells(w: &Winding) -> Vec<(&'static str, String)> {
+    let (job, plate) = (w.design.job.as_ref(), w.design.nameplate.as_ref());
+    if job.is_none() && plate.is_none() {
+        return Vec::new();
+    }
+    let dash = || "-".to_string();
+    let rating = plate.map_or_else(dash, |n| {
+        let mut parts = Vec::new();
+        if let Some(p) = n.power_w {
+            parts.push(format!("{} kW", num(p / 1e3, 2)));
+        }
+        if !n.voltages_v.is_empty() {
+            parts.push(format!(
+                "{} V",
+                n.voltages_v
+                    .iter()
+                    .map(|v| num(*v, 0))
+                    .collect::<Vec<_>>()
+                    .join("/")
+            ));
+        }
+        if let Some(r) = n.speed_rpm {
+            parts.push(format!("{} rpm", num(r, 0)));
+        }
+        if parts.is_empty() {
+            dash()
+        } else {
+            parts.join(", ")
+        }
+    });
+    vec![
+        (
+            "Job",
+            job.and_then(|j| j.number.clone()).unwrap_or_else(dash),
+        ),
+        (
+            "Customer",
+            job.and_then(|j| j.customer.clone()).unwrap_or_else(dash),
+        ),
+        (
+            "Date",
+            job.and_then(|j| j.date.clone()).unwrap_or_else(dash),
+        ),
+        ("Rating", rating),
+        (
+            "Frame",
+            plate.and_then(|n| n.frame.clone()).unwrap_or_else(dash),
+        ),
+    ]
 }
 
 /// Id of a caption text (the one kind of text allowed under 2.5 mm, at 1.8 mm), unique to

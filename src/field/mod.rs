@@ -61,7 +61,8 @@ pub enum Direction {
 pub enum FieldError {
     /// The current list does not give one phasor per phase.
     #[error(
-        "{given} current(s) given for {phases} phases; give one `magnitude@angle_deg` per phase"
+        "{} given for {phases} phases; give one `magnitude@angle_deg` per phase",
+        crate::numbering::count(*.given, "current", "currents")
     )]
     CurrentCount {
         /// How many were given.
@@ -439,7 +440,7 @@ pub struct WaveRow {
     /// Electrical order ν (ν = n/p on a rotary core; κ/(π/τ) on a linear primary).
     pub order: Elec,
     /// Mechanical order n = ν·p (wave count around a rotary gap).
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub mech_order: Option<Mech>,
     /// Forward wave amplitude relative to the working wave.
     pub forward: f64,
@@ -594,7 +595,7 @@ pub struct FieldReport {
     /// MMF snapshot at `--at-deg`.
     pub snapshot: Snapshot,
     /// Linear primaries only.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub linear: Option<LinearField>,
     /// Speeds from the core sizes and supply.
     pub figures: Figures,

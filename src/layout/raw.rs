@@ -24,6 +24,8 @@ pub struct RawLayout {
     measured: Option<RawMeasured>,
     secondary: Option<RawSecondary>,
     drawing: Option<RawDrawing>,
+    nameplate: Option<RawNameplate>,
+    job: Option<RawJob>,
     #[serde(default)]
     coil: Vec<RawCoil>,
 }
@@ -83,7 +85,8 @@ struct RawWire {
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawMeasured {
-    line_resistance_ohm: Vec<f64>,
+    line_resistance_ohm: Option<Vec<f64>>,
+    section_resistance_ohm: Option<Vec<f64>>,
     temperature_c: Option<f64>,
 }
 
@@ -111,6 +114,59 @@ enum PlateMaterial {
 struct RawSupply {
     frequency_hz: Option<f64>,
     line_voltage_v: Option<f64>,
+}
+
+/// A number, or a list of numbers (one per rated voltage).
+#[derive(Debug, Deserialize)]
+#[serde(untagged)]
+enum OneOrMore {
+    One(f64),
+    More(Vec<f64>),
+}
+
+impl OneOrMore {
+    fn values(&self) -> Vec<f64> {
+        match self {
+            OneOrMore::One(v) => vec![*v],
+            OneOrMore::More(v) => v.clone(),
+        }
+    }
+}
+
+/// Text, or a TOML date written bare (`date = 2026-12-03`).
+#[derive(Debug, Deserialize)]
+#[serde(untagged)]
+enum TextOrDate {
+    Text(String),
+    Number(i64),
+    Date(toml::value::Datetime),
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawNameplate {
+    power_kw: Option<f64>,
+    power_hp: Option<f64>,
+    voltage_v: Option<OneOrMore>,
+    current_a: Option<OneOrMore>,
+    speed_rpm: Option<f64>,
+    frequency_hz: Option<f64>,
+    frame: Option<String>,
+    connection: Option<String>,
+    insulation_class: Option<crate::design::InsulationClass>,
+    efficiency_percent: Option<f64>,
+    power_factor: Option<f64>,
+    service_factor: Option<f64>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawJob {
+    number: Option<TextOrDate>,
+    customer: Option<String>,
+    date: Option<TextOrDate>,
+    technician: Option<String>,
+    notes: Option<String>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -650,7 +706,9 @@ impl RawLayout {
             });
         }
         let w = &self.winding;
-        d.turns_assumed = w.turns_per_coil.is_none() && self.coil.is_empty();
+        // One turn is assumed where neither the winding nor every listed coil gives turns.
+        d.turns_assumed = w.turns_per_coil.is_none()
+            && (self.coil.is_empty() || self.coil.iter().any(|c| c.turns.is_none()));
         d.phase_resistance_ohm = c.within(
             "winding",
             "phase_resistance_ohm",
@@ -691,30 +749,13 @@ impl RawLayout {
             marking: w.marking.unwrap_or_default(),
         };
         if let Some(m) = &self.measured {
-            if m.line_resistance_ohm.len() != 3 {
-                return Err(c.err(
-                    "measured",
-                    0,
-                    "line_resistance_ohm",
-                    format!(
-                        "{} values given; give three, between terminals 1-2, 2-3 and 3-1",
-                        m.line_resistance_ohm.len()
-                    ),
-                ));
-            }
-            for v in &m.line_resistance_ohm {
-                c.within("measured", "line_resistance_ohm", Some(*v), 1e-6, 1e6)?;
-            }
-            d.measured = Some(Measured {
-                line_resistance_ohm: [
-                    m.line_resistance_ohm[0],
-                    m.line_resistance_ohm[1],
-                    m.line_resistance_ohm[2],
-                ],
-                temperature_c: c
-                    .within("measured", "temperature_c", m.temperature_c, -60.0, 250.0)?
-                    .unwrap_or(20.0),
-            });
+            d.measured = Some(self.measured(c, m, &d)?);
+        }
+        if let Some(n) = &self.nameplate {
+            d.nameplate = Some(nameplate(c, n)?);
+        }
+        if let Some(j) = &self.job {
+            d.job = Some(job(c, j)?);
         }
         if let Some(s) = &self.secondary {
             let conductivity = match (s.material, s.conductivity_ms_m) {
@@ -754,6 +795,212 @@ impl RawLayout {
         }
         Ok(d)
     }
+}
+
+impl RawLayout {
+    /// The `[measured]` table: line readings (three) or section readings (three for six
+    /// leads, six for nine or twelve), each in its range, and the temperature.
+    fn measured(&self, c: &Checker, m: &RawMeasured, d: &Design) -> Result<Measured, LayoutError> {
+        let each = |key: &str, v: &[f64]| -> Result<(), LayoutError> {
+            for x in v {
+                c.within("measured", key, Some(*x), 1e-6, 1e6)?;
+            }
+            Ok(())
+        };
+        if m.line_resistance_ohm.is_none() && m.section_resistance_ohm.is_none() {
+            return Err(c.err(
+                "measured",
+                0,
+                "line_resistance_ohm",
+                "give the readings: line_resistance_ohm = [r12, r23, r31] between the line \
+                 terminals, or section_resistance_ohm = [...] across each section's own leads"
+                    .into(),
+            ));
+        }
+        let line = match &m.line_resistance_ohm {
+            None => None,
+            Some(v) if v.len() == 3 => {
+                each("line_resistance_ohm", v)?;
+                Some([v[0], v[1], v[2]])
+            }
+            Some(v) => {
+                return Err(c.err(
+                    "measured",
+                    0,
+                    "line_resistance_ohm",
+                    format!(
+                        "{} values given; give three, between terminals 1-2, 2-3 and 3-1",
+                        v.len()
+                    ),
+                ));
+            }
+        };
+        let sections = match &m.section_resistance_ohm {
+            None => None,
+            Some(v) => {
+                let want = match (d.phases, d.leads.count) {
+                    (3, 6) => 3,
+                    (3, 9) | (3, 12) => 6,
+                    _ => 0,
+                };
+                if want == 0 {
+                    return Err(c.err(
+                        "measured",
+                        0,
+                        "section_resistance_ohm",
+                        format!(
+                            "a {}-lead machine brings out no section ends to measure across; \
+                             give line_resistance_ohm = [r12, r23, r31] instead",
+                            d.leads.count
+                        ),
+                    ));
+                }
+                if v.len() != want {
+                    return Err(c.err(
+                        "measured",
+                        0,
+                        "section_resistance_ohm",
+                        format!(
+                            "{} values given; a {}-lead machine has {want} sections: give U, V, \
+                             W{}",
+                            v.len(),
+                            d.leads.count,
+                            if want == 6 {
+                                " of the first sections, then U, V, W of the second"
+                            } else {
+                                ""
+                            }
+                        ),
+                    ));
+                }
+                each("section_resistance_ohm", v)?;
+                Some(v.clone())
+            }
+        };
+        Ok(Measured {
+            line_resistance_ohm: line,
+            section_resistance_ohm: sections,
+            temperature_c: c
+                .within("measured", "temperature_c", m.temperature_c, -60.0, 250.0)?
+                .unwrap_or(20.0),
+        })
+    }
+}
+
+/// Free text of a shop table: at most 200 characters, control characters refused.
+fn text(
+    c: &Checker,
+    table: &str,
+    key: &str,
+    v: &Option<String>,
+) -> Result<Option<String>, LayoutError> {
+    let Some(s) = v else { return Ok(None) };
+    let n = s.chars().count();
+    if n > crate::sanitize::MAX_TITLE_CHARS {
+        return Err(c.err(
+            table,
+            0,
+            key,
+            format!(
+                "{n} characters is too long; give at most {}",
+                crate::sanitize::MAX_TITLE_CHARS
+            ),
+        ));
+    }
+    if s.trim().is_empty() {
+        return Ok(None);
+    }
+    Ok(Some(crate::sanitize::clean(s.trim()).into_owned()))
+}
+
+/// The `[nameplate]` table, each figure in its range.
+fn nameplate(c: &Checker, n: &RawNameplate) -> Result<crate::design::Nameplate, LayoutError> {
+    let t = "nameplate";
+    let power_w = match (n.power_kw, n.power_hp) {
+        (Some(_), Some(_)) => {
+            return Err(c.err(
+                t,
+                0,
+                "power_hp",
+                "give the rating once: power_kw or power_hp, not both".into(),
+            ));
+        }
+        (Some(kw), None) => c
+            .within(t, "power_kw", Some(kw), 0.001, 1e5)?
+            .map(|v| v * 1e3),
+        // 1 hp = 745.7 W (mechanical horsepower, NEMA MG 1 ratings).
+        (None, Some(hp)) => c
+            .within(t, "power_hp", Some(hp), 0.001, 1e5)?
+            .map(|v| v * 745.7),
+        (None, None) => None,
+    };
+    let list =
+        |key: &str, v: &Option<OneOrMore>, lo: f64, hi: f64| -> Result<Vec<f64>, LayoutError> {
+            let values = v.as_ref().map(OneOrMore::values).unwrap_or_default();
+            if values.len() > 2 {
+                return Err(c.err(
+                    t,
+                    0,
+                    key,
+                    format!(
+                        "{} values given; give one, or two for a dual-voltage machine",
+                        values.len()
+                    ),
+                ));
+            }
+            for x in &values {
+                c.within(t, key, Some(*x), lo, hi)?;
+            }
+            Ok(values)
+        };
+    let voltages_v = list("voltage_v", &n.voltage_v, 1.0, 1e6)?;
+    let currents_a = list("current_a", &n.current_a, 1e-3, 1e6)?;
+    if currents_a.len() > 1 && currents_a.len() != voltages_v.len() {
+        return Err(c.err(
+            t,
+            0,
+            "current_a",
+            format!(
+                "{} currents for {} voltages; give one current per voltage, in the same order",
+                currents_a.len(),
+                voltages_v.len()
+            ),
+        ));
+    }
+    Ok(crate::design::Nameplate {
+        power_w,
+        voltages_v,
+        currents_a,
+        speed_rpm: c.within(t, "speed_rpm", n.speed_rpm, 1.0, 1e6)?,
+        frequency_hz: c.within(t, "frequency_hz", n.frequency_hz, 0.01, 1e6)?,
+        frame: text(c, t, "frame", &n.frame)?,
+        connection: text(c, t, "connection", &n.connection)?,
+        insulation_class: n.insulation_class,
+        efficiency: c
+            .within(t, "efficiency_percent", n.efficiency_percent, 1.0, 100.0)?
+            .map(|e| e / 100.0),
+        power_factor: c.within(t, "power_factor", n.power_factor, 0.01, 1.0)?,
+        service_factor: c.within(t, "service_factor", n.service_factor, 1.0, 2.0)?,
+    })
+}
+
+/// The `[job]` table.
+fn job(c: &Checker, j: &RawJob) -> Result<crate::design::Job, LayoutError> {
+    let t = "job";
+    let as_text = |v: &Option<TextOrDate>| -> Option<String> {
+        v.as_ref().map(|x| match x {
+            TextOrDate::Text(s) => s.clone(),
+            TextOrDate::Number(n) => n.to_string(),
+            TextOrDate::Date(d) => d.to_string(),
+        })
+    };
+    Ok(crate::design::Job {
+        number: text(c, t, "number", &as_text(&j.number))?,
+        customer: text(c, t, "customer", &j.customer)?,
+        date: text(c, t, "date", &as_text(&j.date))?,
+        technician: text(c, t, "technician", &j.technician)?,
+        notes: text(c, t, "notes", &j.notes)?,
+    })
 }
 
 fn is_hex_colour(s: &str) -> bool {

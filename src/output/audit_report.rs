@@ -3,6 +3,7 @@
 use super::reports::{ranges, wrap};
 use super::{Align, Report, Section, Table, num};
 use crate::audit::{AuditReport, Sequence};
+use crate::card::measured::Taken;
 use crate::rewind::{DesignSide, RewindReport};
 use itertools::Itertools;
 
@@ -16,7 +17,10 @@ impl Report for AuditReport {
         let verdict = if self.sound {
             "SOUND: no findings".to_string()
         } else {
-            format!("NOT SOUND: {} finding(s)", self.findings.len())
+            format!(
+                "NOT SOUND: {}",
+                crate::numbering::count(self.findings.len(), "finding", "findings")
+            )
         };
         let mut head = vec![
             verdict,
@@ -55,8 +59,8 @@ impl Report for AuditReport {
         head.extend(wrap(&waves, 78));
         if self.fix_edits > 0 {
             head.push(format!(
-                "smallest fix: {} edit(s){}",
-                self.fix_edits,
+                "smallest fix: {}{}",
+                crate::numbering::count(self.fix_edits, "edit", "edits"),
                 if self.other_fixes > 0 {
                     format!(
                         " ({} other fix(es) of that size; the most regular is shown)",
@@ -93,19 +97,50 @@ impl Report for AuditReport {
                 "Measured resistance at {} C against the data card",
                 num(r.temperature_c, 1)
             )));
+            if let Some(m) = r.measured_ohm {
+                let mut t = Table::new(&[
+                    ("terminals", Align::Left),
+                    ("measured ohm", Align::Right),
+                    ("expected ohm", Align::Right),
+                    ("from mean %", Align::Right),
+                ]);
+                let mean = m.iter().sum::<f64>() / 3.0;
+                for (k, pair) in ["1-2", "2-3", "3-1"].iter().enumerate() {
+                    t.push(vec![
+                        pair.to_string(),
+                        num(m[k], 5),
+                        r.expected_ohm.map_or("-".into(), |e| num(e[k], 5)),
+                        num((m[k] / mean - 1.0) * 100.0, 2),
+                    ]);
+                }
+                s.push(Section::Table(t));
+            }
+            s.push(Section::Lines(vec![format!(
+                "{} at 20 C, each against the others (tolerance +/-{}%):",
+                match r.taken {
+                    Taken::LineToLine => "Phase resistances worked back from the readings",
+                    Taken::Sections => "Section resistances as read across their leads",
+                },
+                num(r.tolerance_percent, 1)
+            )]));
             let mut t = Table::new(&[
-                ("terminals", Align::Left),
-                ("measured ohm", Align::Right),
-                ("expected ohm", Align::Right),
-                ("from mean %", Align::Right),
+                ("phase", Align::Left),
+                ("section", Align::Right),
+                ("measured across", Align::Left),
+                ("ohm at 20 C", Align::Right),
+                ("card ohm", Align::Right),
+                ("against others %", Align::Right),
+                ("verdict", Align::Left),
             ]);
-            let mean = r.measured_ohm.iter().sum::<f64>() / 3.0;
-            for (k, pair) in ["1-2", "2-3", "3-1"].iter().enumerate() {
+            for j in &r.judged {
                 t.push(vec![
-                    pair.to_string(),
-                    num(r.measured_ohm[k], 5),
-                    r.expected_ohm.map_or("-".into(), |e| num(e[k], 5)),
-                    num((r.measured_ohm[k] / mean - 1.0) * 100.0, 2),
+                    j.phase.clone(),
+                    j.section.to_string(),
+                    j.between.clone(),
+                    num(j.measured_20c_ohm, 5),
+                    j.expected_20c_ohm.map_or("-".into(), |e| num(e, 5)),
+                    format!("{:+.2}", j.deviation_percent),
+                    if j.within_tolerance { "ok" } else { "OUTSIDE" }.into(),
                 ]);
             }
             s.push(Section::Table(t));

@@ -220,9 +220,10 @@ pub fn words(f: &Fact) -> String {
             layers,
             coils,
         } => format!(
-            "slots {} hold more coil sides than the {layers} layer(s) of the winding; coils {} \
+            "slots {} hold more coil sides than the {} of the winding; coils {} \
              have a side there: check their slot numbers",
             ranges(slots),
+            crate::numbering::count(*layers, "layer", "layers"),
             ranges(coils)
         ),
         Fact::TurnsDiffer { coils, usual } => format!(
@@ -270,24 +271,57 @@ pub fn words(f: &Fact) -> String {
             crate::audit::search::NOT_SEARCHED
         ),
         Fact::MeasuredResistance {
+            taken,
             measured_ohm,
             temperature_c,
             deviation_percent,
             tolerance_percent,
             ratio_to_expected,
+            outside,
             suggestion,
-        } => format!(
-            "measured line-to-line resistances {} ohm at {} C deviate up to {}% from their \
-             mean (tolerance {}%){}; {}",
-            measured_ohm.map(|x| num(x, 4)).join(", "),
-            num(*temperature_c, 1),
-            num(*deviation_percent, 2),
-            num(*tolerance_percent, 1),
-            ratio_to_expected
-                .map(|q| format!(", their mean is {}% of the card's", num(q * 100.0, 1)))
-                .unwrap_or_default(),
-            suggestion.message()
-        ),
+        } => {
+            let read = match (taken, measured_ohm) {
+                (crate::card::measured::Taken::LineToLine, Some(m)) => format!(
+                    "line-to-line readings {} ohm at {} C (up to {}% from their mean)",
+                    m.map(|x| num(x, 4)).join(", "),
+                    num(*temperature_c, 1),
+                    num(*deviation_percent, 2)
+                ),
+                _ => format!(
+                    "section readings at {} C (up to {}% from their mean)",
+                    num(*temperature_c, 1),
+                    num(*deviation_percent, 2)
+                ),
+            };
+            let apart = outside
+                .iter()
+                .map(|j| {
+                    format!(
+                        "{} {} ohm at 20 C, {:+.1}% against the others",
+                        if j.between == j.phase {
+                            format!("phase {}", j.phase)
+                        } else {
+                            j.between.clone()
+                        },
+                        num(j.measured_20c_ohm, 4),
+                        j.deviation_percent
+                    )
+                })
+                .collect::<Vec<_>>()
+                .join("; ");
+            format!(
+                "{read}{}{}; {}",
+                if apart.is_empty() {
+                    String::new()
+                } else {
+                    format!(": {apart} (tolerance {}% each)", num(*tolerance_percent, 1))
+                },
+                ratio_to_expected
+                    .map(|q| format!(", their mean is {}% of the card's", num(q * 100.0, 1)))
+                    .unwrap_or_default(),
+                suggestion.message()
+            )
+        }
         Fact::CoresDiffer {
             design_slots,
             record_slots,

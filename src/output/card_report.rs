@@ -23,6 +23,90 @@ pub fn configuration_name(c: &Configuration) -> String {
     }
 }
 
+/// The nameplate in lines of words (card text, card sheet, HTML page).
+pub fn nameplate_lines(n: &crate::design::Nameplate) -> Vec<String> {
+    let mut out = Vec::new();
+    let mut rating = Vec::new();
+    if let Some(p) = n.power_w {
+        rating.push(format!("{} kW ({} hp)", num(p / 1e3, 3), num(p / 745.7, 2)));
+    }
+    if !n.voltages_v.is_empty() {
+        rating.push(format!(
+            "{} V",
+            n.voltages_v
+                .iter()
+                .map(|v| num(*v, 0))
+                .collect::<Vec<_>>()
+                .join("/")
+        ));
+    }
+    if !n.currents_a.is_empty() {
+        rating.push(format!(
+            "{} A",
+            n.currents_a
+                .iter()
+                .map(|v| num(*v, 2))
+                .collect::<Vec<_>>()
+                .join("/")
+        ));
+    }
+    if let Some(f) = n.frequency_hz {
+        rating.push(format!("{} Hz", num(f, 1)));
+    }
+    if let Some(r) = n.speed_rpm {
+        rating.push(format!("{} rpm", num(r, 0)));
+    }
+    if !rating.is_empty() {
+        out.push(format!("rating: {}", rating.join(", ")));
+    }
+    let mut more = Vec::new();
+    if let Some(c) = &n.connection {
+        more.push(format!("connection {c}"));
+    }
+    if let Some(f) = &n.frame {
+        more.push(format!("frame {f}"));
+    }
+    if let Some(c) = n.insulation_class {
+        more.push(format!("insulation class {c:?}"));
+    }
+    if let Some(e) = n.efficiency {
+        more.push(format!("efficiency {}%", num(e * 100.0, 1)));
+    }
+    if let Some(p) = n.power_factor {
+        more.push(format!("power factor {}", num(p, 2)));
+    }
+    if let Some(sf) = n.service_factor {
+        more.push(format!("service factor {}", num(sf, 2)));
+    }
+    if !more.is_empty() {
+        out.push(more.join(", "));
+    }
+    out
+}
+
+/// The job data in lines of words.
+pub fn job_lines(j: &crate::design::Job) -> Vec<String> {
+    let mut parts = Vec::new();
+    for (name, v) in [
+        ("job", &j.number),
+        ("customer", &j.customer),
+        ("date", &j.date),
+        ("by", &j.technician),
+    ] {
+        if let Some(v) = v {
+            parts.push(format!("{name} {v}"));
+        }
+    }
+    let mut out = Vec::new();
+    if !parts.is_empty() {
+        out.push(parts.join(", "));
+    }
+    if let Some(n) = &j.notes {
+        out.push(format!("notes: {n}"));
+    }
+    out
+}
+
 /// Significant figures for resistances, which span micro-ohms to kilo-ohms.
 fn ohms(r: f64) -> String {
     if r >= 100.0 {
@@ -37,6 +121,24 @@ fn ohms(r: f64) -> String {
 impl Report for DataCard {
     fn sections(&self) -> Vec<Section> {
         let mut s = Vec::from(super::opening("Winding data card", &self.design));
+        if let Some(n) = &self.nameplate {
+            s.push(Section::Heading("Nameplate".into()));
+            s.push(Section::Lines(
+                nameplate_lines(n)
+                    .iter()
+                    .flat_map(|l| wrap(l, 78))
+                    .collect(),
+            ));
+        }
+        if let Some(j) = &self.job {
+            s.push(Section::Heading("Job".into()));
+            s.push(Section::Lines(
+                job_lines(j).iter().flat_map(|l| wrap(l, 78)).collect(),
+            ));
+        }
+        if self.nameplate.is_some() || self.job.is_some() {
+            s.push(Section::Heading("Winding".into()));
+        }
         let list = |v: &[usize]| {
             v.iter()
                 .map(|x| x.to_string())
@@ -45,19 +147,30 @@ impl Report for DataCard {
         };
         let mut lines = vec![
             format!(
-                "{} coils in {} groups of {} coil(s)",
-                self.coils,
-                self.groups,
-                list(&self.coils_per_group)
+                "{} in {} of {} {}",
+                crate::numbering::count(self.coils, "coil", "coils"),
+                crate::numbering::count(self.groups, "group", "groups"),
+                list(&self.coils_per_group),
+                crate::numbering::noun_for(&self.coils_per_group, "coil", "coils")
             ),
             format!(
-                "span {} (slot to slot); {} turn(s) per coil; {} series turns per phase",
+                "span {} (slot to slot); {} per coil{}; {} series turns per phase",
                 self.spans.join(", "),
                 self.turns_per_coil
                     .iter()
                     .map(|t| t.to_string())
                     .collect::<Vec<_>>()
-                    .join(", "),
+                    .join(", ")
+                    + if self.turns_per_coil == [1] {
+                        " turn"
+                    } else {
+                        " turns"
+                    },
+                if self.turns_per_coil.len() > 1 {
+                    " (mixed)"
+                } else {
+                    ""
+                },
                 num(self.series_turns_per_phase, 2)
             ),
         ];
@@ -84,10 +197,6 @@ impl Report for DataCard {
         let mut t = Table::new(&[("figure", Align::Left), ("value", Align::Right)]);
         t.push(vec!["mean turn".into(), opt(self.mean_turn_mm, 1, "mm")]);
         t.push(vec![
-            "mean turn rule".into(),
-            self.mean_turn_rule.to_string(),
-        ]);
-        t.push(vec![
             "phase resistance at 20 C".into(),
             self.phase_resistance_20c_ohm
                 .map_or("-".into(), |r| format!("{} ohm", ohms(r))),
@@ -110,6 +219,24 @@ impl Report for DataCard {
             opt(self.copper_mass_per_coil_kg, 4, "kg"),
         ]);
         t.push(vec![
+            format!(
+                "wire to order (+{}% for ends, leads, waste)",
+                num(self.wire_allowance_percent, 0)
+            ),
+            opt(self.wire_to_order_kg, 2, "kg"),
+        ]);
+        t.push(vec![
+            "rated line current (nameplate)".into(),
+            opt(self.rated_current_a, 2, "A"),
+        ]);
+        t.push(vec![
+            format!(
+                "current density at rated current (limit {})",
+                num(self.current_density_limit_a_mm2, 1)
+            ),
+            opt(self.current_density_a_mm2, 2, "A/mm2"),
+        ]);
+        t.push(vec![
             "wires in the fullest slot".into(),
             self.wires_per_slot.to_string(),
         ]);
@@ -125,6 +252,34 @@ impl Report for DataCard {
                 .map_or("-".into(), |f| format!("{}%", num(f * 100.0, 1))),
         ]);
         s.push(Section::Table(t));
+        s.push(Section::Lines(wrap(
+            &format!("mean turn rule: {}", self.mean_turn_rule),
+            78,
+        )));
+        if !self.formers.is_empty() {
+            s.push(Section::Heading(
+                "Formers (by the mean-turn rule; span width at the bore)".into(),
+            ));
+            let mut t = Table::new(&[
+                ("span", Align::Left),
+                ("coils", Align::Right),
+                ("span width mm", Align::Right),
+                ("straight mm", Align::Right),
+                ("end out mm", Align::Right),
+                ("mean turn mm", Align::Right),
+            ]);
+            for f in &self.formers {
+                t.push(vec![
+                    f.span.clone(),
+                    f.coils.to_string(),
+                    num(f.span_width_mm, 1),
+                    num(f.straight_mm, 1),
+                    num(f.end_extension_mm, 1),
+                    num(f.mean_turn_mm, 1),
+                ]);
+            }
+            s.push(Section::Table(t));
+        }
 
         if let Some(l) = &self.leads {
             s.push(Section::Heading(format!(
@@ -186,6 +341,28 @@ impl Report for DataCard {
             lines.extend(wrap(&l.rotation.to_string(), 78));
             s.push(Section::Lines(lines));
         }
+        if !self.sections.is_empty() {
+            s.push(Section::Heading(
+                "Sections, measured across their own leads before linking".into(),
+            ));
+            let mut t = Table::new(&[
+                ("phase", Align::Left),
+                ("section", Align::Right),
+                ("measure across", Align::Left),
+                ("reads at 20 C", Align::Right),
+                ("section ohm", Align::Right),
+            ]);
+            for f in &self.sections {
+                t.push(vec![
+                    f.phase.clone(),
+                    f.section.to_string(),
+                    f.between.clone(),
+                    ohms(f.reading_20c_ohm),
+                    ohms(f.resistance_20c_ohm),
+                ]);
+            }
+            s.push(Section::Table(t));
+        }
 
         s.push(Section::Heading("Acceptance".into()));
         let a = &self.acceptance;
@@ -202,9 +379,10 @@ impl Report for DataCard {
         match (a.hipot_new_v, a.hipot_repeat_v) {
             (Some(n), Some(r)) => lines.push(format!(
                 "high-potential test, windings to frame, 1 min: {} V for a new winding, {} V \
-                 for a repeat test (IEC 60034-1)",
+                 for a repeat test (IEC 60034-1: 1000 V + 2 x {} V rated, at least 1500 V)",
                 num(n, 0),
-                num(r, 0)
+                num(r, 0),
+                a.hipot_rated_v.map_or("-".into(), |v| num(v, 0))
             )),
             _ => lines.push(
                 "high-potential test: give [supply] line_voltage_v for the test voltage".into(),
@@ -221,6 +399,37 @@ impl Report for DataCard {
             lines.iter().flat_map(|x| wrap(x, 78)).collect(),
         ));
 
+        if let Some(m) = &self.measured {
+            s.push(Section::Heading(format!(
+                "Readings at {} C against this card: {}",
+                num(m.temperature_c, 1),
+                if m.sound {
+                    "within tolerance"
+                } else {
+                    "OUT OF TOLERANCE"
+                }
+            )));
+            let mut t = Table::new(&[
+                ("phase", Align::Left),
+                ("section", Align::Right),
+                ("across", Align::Left),
+                ("ohm at 20 C", Align::Right),
+                ("card ohm", Align::Right),
+                ("against others %", Align::Right),
+            ]);
+            for j in &m.judged {
+                t.push(vec![
+                    j.phase.clone(),
+                    j.section.to_string(),
+                    j.between.clone(),
+                    ohms(j.measured_20c_ohm),
+                    j.expected_20c_ohm.map_or("-".into(), ohms),
+                    format!("{:+.2}", j.deviation_percent),
+                ]);
+            }
+            s.push(Section::Table(t));
+            s.push(Section::Lines(wrap(&m.suggestion.message(), 78)));
+        }
         if !self.warnings.is_empty() {
             s.push(Section::Heading("Warnings".into()));
             s.push(Section::Lines(
@@ -276,6 +485,17 @@ impl Report for DataCard {
 
 impl std::fmt::Display for crate::card::leads::Rotation {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        if self.topology == crate::design::Topology::Linear {
+            return write!(
+                f,
+                "L1, L2, L3 on {} in that time order: the field travels along the primary \
+                 from the slot-1 end towards the slot-{} end and drags the plate that way \
+                 (a primary running over a fixed plate moves the other way); exchange any \
+                 two lines to reverse it",
+                self.leads.join(", "),
+                self.slots
+            );
+        }
         write!(
             f,
             "L1, L2, L3 on {} in that time order: the field moves towards rising slot numbers \
@@ -308,7 +528,7 @@ impl std::fmt::Display for crate::card::MeanTurnRule {
                 end_allowance_mm,
             } => write!(
                 f,
-                "2 x stack + 2 x {} x span width + {} mm",
+                "2 x stack + 2 x {} x span width + {} mm (span width at the bore)",
                 num(*end_factor, 3),
                 num(*end_allowance_mm, 1)
             ),

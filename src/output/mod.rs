@@ -169,7 +169,18 @@ pub fn design_lines(h: &crate::header::DesignHeader) -> Vec<String> {
         Style::Lap => ("lap", ""),
         Style::Concentric => ("concentric", " (mean)"),
     };
-    let turns = if h.turns_assumed {
+    let turns = if !h.mixed_turns.is_empty() {
+        format!(
+            "mixed turns per coil: {} (most often {}){}",
+            itertools::Itertools::join(&mut h.mixed_turns.iter(), ", "),
+            h.turns_per_coil,
+            if h.turns_assumed {
+                "; coils without turns taken as 1 (winding.turns_per_coil not given)"
+            } else {
+                ""
+            }
+        )
+    } else if h.turns_assumed {
         "1 turn per coil (assumed: winding.turns_per_coil not given)".to_string()
     } else if h.turns_per_coil == 1 {
         "1 turn per coil".to_string()
@@ -195,8 +206,8 @@ pub fn design_lines(h: &crate::header::DesignHeader) -> Vec<String> {
             h.slots_per_pole_phase
         ),
         format!(
-            "{turns}, {} path(s), {} connection; k_w1 = {}",
-            h.parallel_paths,
+            "{turns}, {}, {} connection; k_w1 = {}",
+            crate::numbering::count(h.parallel_paths, "path", "paths"),
             h.connection,
             num(h.winding_factor, 4)
         ),

@@ -131,10 +131,10 @@ impl fmt::Display for Overfill {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         write!(
             f,
-            "slot {} holds {} coil sides but the winding has {} layer(s): coils {}",
+            "slot {} holds {} coil sides but the winding has {}: coils {}",
             self.slot,
             self.sides,
-            self.layers,
+            crate::numbering::count(self.layers, "layer", "layers"),
             self.coils.iter().join(", ")
         )
     }

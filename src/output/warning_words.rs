@@ -60,6 +60,16 @@ impl CardWarning {
             CardWarning::NotThreePhase => {
                 "lead markings and line resistances are given for three-phase windings only".into()
             }
+            CardWarning::CurrentDensityAbove {
+                density_a_mm2,
+                limit_a_mm2,
+            } => format!(
+                "the wire carries {} A/mm2 at rated current, above the {} A/mm2 usual for an \
+                 enclosed motor: choose a larger wire or more strands in hand, or check the \
+                 nameplate current",
+                num(*density_a_mm2, 2),
+                num(*limit_a_mm2, 1)
+            ),
         }
     }
 }
@@ -68,6 +78,21 @@ impl Suggestion {
     /// The suggestion in words.
     pub fn message(&self) -> String {
         let pct = |r: f64| format!("{:+.1}%", (r - 1.0) * 100.0);
+        // A phase is named by its label, a section by its leads ("T1-T4").
+        let what = |name: &str| {
+            if name.contains('-') {
+                "section"
+            } else {
+                "phase"
+            }
+        };
+        let who = |name: &str| {
+            if name.contains('-') {
+                format!("section {name}")
+            } else {
+                format!("phase {name}")
+            }
+        };
         match self {
             Suggestion::AsExpected => "the readings agree with the card".into(),
             Suggestion::WireSizeStep { ratio, diameter_mm } => format!(
@@ -77,10 +102,10 @@ impl Suggestion {
                 num(*diameter_mm, 3)
             ),
             Suggestion::StrandMissing { ratio, strands } => format!(
-                "all phases read {}, as {} strands in hand instead of {strands} would: check \
-                 the strands at the joints",
+                "all phases read {}, as {} in hand instead of {strands} would: check the \
+                 strands at the joints",
                 pct(*ratio),
-                strands - 1
+                crate::numbering::count(*strands as usize - 1, "strand", "strands")
             ),
             Suggestion::TurnsOrWire { ratio } => format!(
                 "all phases read {} against the card: the turns per coil or the wire differ \
@@ -92,10 +117,38 @@ impl Suggestion {
                  look for a joint not made in that phase",
                 pct(*ratio)
             ),
-            Suggestion::PhaseDiffers { phase, ratio } => format!(
-                "phase {phase} reads {} against the others: look for a poor joint, a coil of \
-                 wrong turns or shorted turns in that phase",
-                pct(*ratio)
+            Suggestion::StrandOpen {
+                phase,
+                ratio,
+                strands,
+            } => format!(
+                "{} reads {} against the others, as {} in hand instead of {strands} \
+                 would: one strand is open or not joined in that {}",
+                who(phase),
+                pct(*ratio),
+                crate::numbering::count(*strands as usize - 1, "strand", "strands"),
+                what(phase)
+            ),
+            Suggestion::Open { phase, ratio } => format!(
+                "{} reads {} times the others: an open circuit or a joint that barely \
+                 touches in that {}; do not energise",
+                who(phase),
+                num(*ratio, 1),
+                what(phase)
+            ),
+            Suggestion::High { phase, ratio } => format!(
+                "{} reads {} against the others (high): look for a poor joint, a smaller \
+                 wire or extra turns in that {}",
+                who(phase),
+                pct(*ratio),
+                what(phase)
+            ),
+            Suggestion::Low { phase, ratio } => format!(
+                "{} reads {} against the others (low): look for shorted turns, fewer \
+                 turns or a larger wire in that {}",
+                who(phase),
+                pct(*ratio),
+                what(phase)
             ),
             Suggestion::Scattered => {
                 "the readings differ in no single-phase pattern: re-measure with clean \

@@ -337,6 +337,27 @@ impl Winding {
         e
     }
 
+    /// Every distinct turn count among the coils, smallest first.
+    pub fn distinct_turns(&self) -> Vec<u32> {
+        let mut t: Vec<u32> = self.coils.iter().map(|c| c.turns).collect();
+        t.sort_unstable();
+        t.dedup();
+        t
+    }
+
+    /// Turns per coil as the coils have them: their one count, or the most common count
+    /// when they differ (the larger on a tie); the design's when there are no coils.
+    pub fn turns_per_coil(&self) -> u32 {
+        let mut counts: std::collections::BTreeMap<u32, usize> = Default::default();
+        for c in &self.coils {
+            *counts.entry(c.turns).or_default() += 1;
+        }
+        counts
+            .iter()
+            .max_by_key(|(t, n)| (**n, **t))
+            .map_or(self.design.turns_per_coil, |(t, _)| *t)
+    }
+
     /// Series turns per phase N_ph (all coils of the phase over the parallel paths).
     pub fn series_turns(&self, phase: usize) -> f64 {
         let n: u64 = self
