@@ -7,12 +7,15 @@ use std::borrow::Cow;
 pub const MAX_TITLE_CHARS: usize = 200;
 
 /// True for characters that never reach output: controls (C0 and C1; XML 1.0 forbids the
-/// C0 ones, terminals act on both), U+FFFE and U+FFFF (not characters in XML 1.0), and the
+/// C0 ones, terminals act on both), the noncharacters U+FDD0–U+FDEF and U+xFFFE, U+xFFFF of
+/// every plane (not to be interchanged; HTML parsers flag them), and the
 /// bidirectional embeddings, overrides and isolates U+202A–U+202E, U+2066–U+2069, which
 /// could make text read in another order than it is stored.
 fn unsafe_char(c: char) -> bool {
     c.is_control()
         || matches!(c, '\u{FFFE}' | '\u{FFFF}')
+        || ('\u{FDD0}'..='\u{FDEF}').contains(&c)
+        || (c as u32 & 0xFFFE) == 0xFFFE
         || ('\u{202A}'..='\u{202E}').contains(&c)
         || ('\u{2066}'..='\u{2069}').contains(&c)
 }

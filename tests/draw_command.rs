@@ -145,3 +145,51 @@ fn plan_out_writes_the_shop_pack_into_a_new_folder() {
     .expect("valid JSON");
     assert!(json["coils"].as_array().is_some_and(|c| !c.is_empty()));
 }
+
+// `report -o x.pdf` carries every table of the HTML page (plan, card, performance,
+// inductance, factors, field, spans; the audit for a record) as pages before the sheets:
+// its page count is theirs plus the sheets', and the flat primary's inductance section is
+// among the parts.
+#[test]
+fn report_pdf_carries_every_table_and_every_sheet() {
+    use beltwright::draw::{self, Page, Sheet};
+    let src = layout("pallet-shuttle.toml");
+    let dir = tempfile::tempdir().expect("dir");
+    let out = dir.path().join("whole.pdf");
+    beltwright()
+        .args(["report"])
+        .arg(&src)
+        .arg("-o")
+        .arg(&out)
+        .assert()
+        .success();
+    let text = std::fs::read_to_string(&src).expect("layout");
+    let spec = beltwright::layout::parse(&text, "pallet").expect("valid");
+    let w = beltwright::winding::build(&spec).expect("builds");
+    let parts = beltwright::output::html::parts(&w, None);
+    let titles: Vec<&str> = parts.parts.iter().map(|p| p.title.as_str()).collect();
+    assert!(titles.contains(&"Inductance and unbalance"), "{titles:?}");
+    assert!(
+        titles.contains(&"Performance of the flat primary"),
+        "{titles:?}"
+    );
+    let page = Page::default();
+    let table_pages: usize = parts
+        .parts
+        .iter()
+        .filter(|p| p.title != "Data card")
+        .map(|p| draw::tables::draw(&w, &p.title, &p.sections, &page).len())
+        .sum();
+    let sheet_pages: usize = Sheet::ALL
+        .into_iter()
+        .filter(|s| s.applies(&w))
+        .map(|s| draw::draw(&w, s, &page).len())
+        .sum();
+    let pdf = std::fs::read(&out).expect("pdf");
+    // Each page object of pdf-writer's output carries "/Type /Page" on a line of its own.
+    let pages = String::from_utf8_lossy(&pdf)
+        .matches("/Type /Page\n")
+        .count();
+    assert!(table_pages >= 7, "{table_pages}");
+    assert_eq!(pages, table_pages + sheet_pages);
+}

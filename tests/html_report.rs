@@ -228,7 +228,44 @@ fn reports_render_in_a_real_browser() {
             inked * 200 > total,
             "{l}: blank screenshot ({inked} of {total})"
         );
+        // Printed, every sheet takes a page of its own at its drawn size (A4 landscape,
+        // 297 x 210 mm = 841.89 x 595.28 pt; ISO 216), so text keeps its drawn height.
+        let pdf = sub.join("printed.pdf");
+        let out = headless(&browser, &sub.join("profile3"))
+            .args([
+                "--no-pdf-header-footer",
+                &format!("--print-to-pdf={}", pdf.display()),
+                &url,
+            ])
+            .output()
+            .expect("the browser runs");
+        assert!(out.status.success(), "{l}");
+        let bytes = std::fs::read(&pdf).expect("printed PDF");
+        let text = String::from_utf8_lossy(&bytes);
+        let landscape = text
+            .match_indices("/MediaBox [0 0 ")
+            .filter_map(|(i, m)| {
+                let rest = &text[i + m.len()..];
+                let end = rest.find(']')?;
+                let v: Vec<f64> = rest[..end]
+                    .split_whitespace()
+                    .filter_map(|x| x.parse().ok())
+                    .collect();
+                (v.len() == 2).then(|| (v[0], v[1]))
+            })
+            .filter(|(wd, ht)| (wd - 841.89).abs() < 1.0 && (ht - 595.28).abs() < 1.0)
+            .count();
+        let sheets = html_sheet_count(&page);
+        assert_eq!(landscape, sheets, "{l}: sheet pages at A4 landscape");
     }
+}
+
+/// Sheets (figures) on a report page.
+fn html_sheet_count(page: &Path) -> usize {
+    std::fs::read_to_string(page)
+        .expect("html")
+        .matches("<figure class=\"sheet\"")
+        .count()
 }
 
 // A report of a faulty record says so at the top, not only on its sheets.

@@ -160,6 +160,9 @@ pub enum Fact {
         coils: Vec<CoilNo>,
         /// The turns of the rest.
         usual: u32,
+        /// With these coils at the usual turns the phases balance: the miscount explains
+        /// the unbalance, which is then not a finding of its own.
+        explains_unbalance: bool,
     },
     /// A coil whose span differs from the rest of its group.
     SpanDiffers {

@@ -516,14 +516,7 @@ fn balance(w: &Winding) -> Balance {
 
 /// Coils whose turns differ from the most common turn count.
 fn odd_turns(w: &Winding) -> Option<Finding> {
-    let mut counts: Vec<(u32, usize)> = Vec::new();
-    for c in &w.coils {
-        match counts.iter_mut().find(|(t, _)| *t == c.turns) {
-            Some(e) => e.1 += 1,
-            None => counts.push((c.turns, 1)),
-        }
-    }
-    let common = counts.iter().max_by_key(|(t, n)| (*n, *t))?.0;
+    let common = w.turns_per_coil();
     let odd: Vec<usize> = (0..w.coils.len())
         .filter(|&i| w.coils[i].turns != common)
         .collect();
@@ -538,6 +531,13 @@ fn odd_turns(w: &Winding) -> Option<Finding> {
         detail: Fact::TurnsDiffer {
             coils: odd.iter().map(|&i| CoilNo::at(i)).collect(),
             usual: common,
+            explains_unbalance: !w.is_balanced() && {
+                let mut even = w.clone();
+                for c in &mut even.coils {
+                    c.turns = common;
+                }
+                even.is_balanced()
+            },
         },
     })
 }
@@ -671,7 +671,19 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
     } else {
         findings.extend(slot_check.findings(w));
     }
-    findings.extend(odd_turns(w));
+    let turns = odd_turns(w);
+    // A miscounted coil that alone unbalances the phases is one finding, not two.
+    let explained = matches!(
+        &turns,
+        Some(Finding {
+            detail: Fact::TurnsDiffer {
+                explains_unbalance: true,
+                ..
+            },
+            ..
+        })
+    );
+    findings.extend(turns);
     findings.extend(fix_findings(w, &fix));
     let total_turns: f64 = w.coils.iter().map(|c| c.turns as f64).sum();
     let no_fundamental = bal.forward.max(bal.backward).max(bal.zero) <= 1e-9 * total_turns.max(1.0);
@@ -683,7 +695,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
             phases: Vec::new(),
             detail: Fact::NoFundamental,
         });
-    } else if !found.balanced && found.fix.is_none() {
+    } else if !found.balanced && found.fix.is_none() && !explained {
         findings.push(Finding {
             kind: FindingKind::Unbalanced,
             coils: Vec::new(),

@@ -43,6 +43,71 @@ mirror!(
     SortArg => beltwright::survey::SortKey { Slots, Poles, Winding, Leakage, Cogging }
 );
 
+/// The caution every help text ends with.
+macro_rules! examples {
+    ($($line:literal),+ $(,)?) => {
+        concat!(
+            "Examples (stator.toml, primary.toml and the others stand for your own layout files):\n",
+            $("  ", $line, "\n",)+
+            "\nCaution: windings run at mains voltage. Work on them de-energised, test insulation\n\
+             before energising, and follow local electrical codes and qualified practice."
+        )
+    };
+}
+
+/// Each command's own examples (the whole list under the top-level --help).
+const EX_PLAN: &str = examples!(
+    "beltwright plan stator.toml",
+    "beltwright plan stator.toml --format json",
+    "beltwright plan primary.toml --slip 0.08 --airgap-power-w 1500",
+    "beltwright plan stator.toml --out shop-pack",
+);
+const EX_FACTORS: &str = examples!(
+    "beltwright factors stator.toml",
+    "beltwright factors stator.toml --upto 31 --format csv",
+);
+const EX_FIELD: &str = examples!(
+    "beltwright field stator.toml --upto 49 --svg field.svg",
+    "beltwright field primary.toml --slip -0.1 --format json",
+);
+const EX_PITCH: &str = examples!(
+    "beltwright pitch stator.toml",
+    "beltwright pitch stator.toml --suppress 5,7 --svg span.svg",
+);
+const EX_SURVEY: &str = examples!(
+    "beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding",
+    "beltwright survey --slots 20..=60 --poles 2..=8 --topology linear --format csv",
+);
+const EX_AUDIT: &str = examples!(
+    "beltwright audit as-found.toml",
+    "beltwright audit as-found.toml --intended design.toml",
+);
+const EX_CARD: &str = examples!(
+    "beltwright card stator.toml",
+    "beltwright card stator.toml --format json",
+    "beltwright draw stator.toml --sheet card -o card.pdf",
+);
+const EX_THRUST: &str = examples!(
+    "beltwright thrust primary.toml --slip 0..=1 --steps 10",
+    "beltwright thrust primary.toml --speed 0..=4 --current 12",
+);
+const EX_INDUCTANCE: &str = examples!(
+    "beltwright inductance primary.toml",
+    "beltwright inductance stator.toml --coils --format json",
+);
+const EX_REWIND: &str = examples!(
+    "beltwright rewind old.toml new.toml",
+    "beltwright rewind old.toml new.toml --wire-diameter-mm 1.12",
+);
+const EX_DRAW: &str = examples!(
+    "beltwright draw stator.toml --sheet connections --page a3 -o connections.pdf",
+    "beltwright draw stator.toml --sheet slots --dpi 150 -o slots.png",
+);
+const EX_REPORT: &str = examples!(
+    "beltwright report stator.toml -o stator.html",
+    "beltwright report stator.toml -o stator.pdf",
+);
+
 pub const EXAMPLES: &str = "\
 Examples (stator.toml, primary.toml and the others stand for your own layout files):
   beltwright plan stator.toml
@@ -76,35 +141,35 @@ pub struct Cli {
 #[derive(Subcommand)]
 pub enum Command {
     /// Lay out a winding: slot table, coil list, groups, phase EMFs and figures.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_PLAN)]
     Plan(PlanArgs),
     /// Distribution, pitch, skew and winding factors per harmonic order.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_FACTORS)]
     Factors(FactorsArgs),
     /// Travelling field: MMF along the gap, forward/backward spectrum, leakage, field sheet.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_FIELD)]
     Field(FieldArgs),
     /// Compare every feasible coil span and recommend one.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_PITCH)]
     Pitch(PitchArgs),
     /// Survey slot/pole combinations: feasibility, best span, k_w1, leakage and more.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_SURVEY)]
     Survey(SurveyArgs),
     /// Check an as-found or as-wound coil list: balance, phase sequence, paths, slot fill,
     /// and the coils to fix (exit status 1 when anything is wrong).
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_AUDIT)]
     Audit(AuditArgs),
     /// The winding data card: wire, mean turn, resistances, copper mass, slot fill, lead
     /// markings with connection tables, and acceptance figures.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_CARD)]
     Card(Common),
     /// A flat primary's thrust, normal force, current, power factor and efficiency against
     /// slip, from the winding and the secondary plate (edge and end effects included).
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_THRUST)]
     Thrust(ThrustArgs),
     /// Phase (and coil) inductances by winding functions; a flat primary's unbalance under
     /// balanced voltages, and its other layouts ranked by it.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_INDUCTANCE)]
     Inductance(InductanceArgs),
     /// Print shell completions for bash, zsh, fish, elvish or PowerShell.
     Completions {
@@ -112,17 +177,21 @@ pub enum Command {
         #[arg(value_enum)]
         shell: clap_complete::Shell,
     },
-    /// Print the manual page (roff), made from the same definitions as --help.
+    /// Print the manual page (roff), made from the same definitions as --help; with a
+    /// command's name, that command's page (`beltwright man plan` is beltwright-plan(1)).
     #[command(hide = true)]
-    Man,
+    Man {
+        /// A command whose own page to print.
+        command: Option<String>,
+    },
     /// Turns per coil and wire size for a changed design on the same core.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_REWIND)]
     Rewind(RewindArgs),
     /// Draw a shop-floor sheet as SVG, PDF or PNG (format from the output file's extension).
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_DRAW)]
     Draw(DrawArgs),
     /// The whole design in one go: every sheet in one PDF, or every report as text.
-    #[command(after_help = EXAMPLES)]
+    #[command(after_help = EX_REPORT)]
     Report(ReportArgs),
 }
 
@@ -145,7 +214,7 @@ pub struct PlanArgs {
     /// Air-gap power in watts, for thrust (linear) or torque (rotary).
     #[arg(long = "airgap-power-w", value_parser = flags::power)]
     pub airgap_power_w: Option<f64>,
-    /// Also write the shop pack into this folder: slot and connection sheets (SVG and PDF)
+    /// Also write the shop pack into this folder: slot, connection and data-card sheets (SVG and PDF)
     /// and the plan as JSON. The folder is made if absent.
     #[arg(long)]
     pub out: Option<PathBuf>,

@@ -83,11 +83,25 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             let kind = sheet_kind(out)?;
             let w = load(&a.file)?;
             let page = page_of(a.page, a.portrait);
-            let pages: Vec<String> = Sheet::ALL
-                .into_iter()
-                .filter(|s| s.applies(&w))
-                .flat_map(|sheet| draw::draw(&w, sheet, &page))
-                .collect();
+            // A PDF carries every table the HTML page has, set as pages (the card as its
+            // own sheet), then every sheet; SVG and PNG sets carry the sheets.
+            let mut pages: Vec<String> = Vec::new();
+            if kind == FileKind::Pdf {
+                let intended = match &a.intended {
+                    Some(p) => Some(load(p)?),
+                    None => None,
+                };
+                let parts = beltwright::output::html::parts(&w, intended.as_ref());
+                for part in parts.parts.iter().filter(|p| p.title != "Data card") {
+                    pages.extend(draw::tables::draw(&w, &part.title, &part.sections, &page));
+                }
+            }
+            pages.extend(
+                Sheet::ALL
+                    .into_iter()
+                    .filter(|s| s.applies(&w))
+                    .flat_map(|sheet| draw::draw(&w, sheet, &page)),
+            );
             let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
             Ok(say(wrote(&written)))
         }
@@ -105,10 +119,33 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             clap_complete::generate(shell, &mut cmd, "beltwright", &mut buf);
             Ok(Box::new(move |out: &mut dyn Write| out.write_all(&buf)))
         }
-        Command::Man => {
-            let cmd = <Cli as clap::CommandFactory>::command();
+        Command::Man { command } => {
+            let top = <Cli as clap::CommandFactory>::command();
+            let cmd = match command {
+                None => top,
+                Some(name) => {
+                    let sub = top
+                        .get_subcommands()
+                        .find(|c| c.get_name() == name && !c.is_hide_set())
+                        .cloned()
+                        .ok_or_else(|| {
+                            Failure::input(format!(
+                                "man: no command {name:?}; give one of {}",
+                                top.get_subcommands()
+                                    .filter(|c| !c.is_hide_set())
+                                    .map(|c| c.get_name().to_string())
+                                    .collect::<Vec<_>>()
+                                    .join(", ")
+                            ))
+                        })?;
+                    sub.display_name(format!("beltwright-{name}"))
+                        .bin_name(format!("beltwright {name}"))
+                }
+            };
+            let title = cmd.get_display_name().unwrap_or("beltwright").to_string();
             let mut buf = Vec::new();
             clap_mangen::Man::new(cmd)
+                .title(title)
                 .render(&mut buf)
                 .map_err(|e| Failure::output(e.to_string()))?;
             Ok(Box::new(move |out: &mut dyn Write| out.write_all(&buf)))

@@ -8,9 +8,15 @@ pub mod flags;
 
 use std::io::Write;
 
-/// A line on stderr for the user; a closed stderr is not worth failing over.
+/// A line on stderr for the user, cleaned as stdout is (no control or bidirectional
+/// characters from a file's name or contents reach the terminal); a closed stderr is not
+/// worth failing over.
 pub fn note(message: &str) {
-    let _ = writeln!(std::io::stderr().lock(), "{message}");
+    let clean: Vec<String> = message
+        .split('\n')
+        .map(|l| beltwright::sanitize::clean(l).into_owned())
+        .collect();
+    let _ = writeln!(std::io::stderr().lock(), "{}", clean.join("\n"));
 }
 
 /// Exit status for output that could not be made or written, or a failure inside the tool:

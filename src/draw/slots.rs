@@ -231,12 +231,12 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
     };
     let notes = if tooth_coils(w) {
         "Tooth coils: each coil surrounds one tooth.  \u{2193} go side: current enters.  \
-         \u{2191} back side.  Top: lead end; bottom: far end."
+         \u{2191} back side.  Top: lead end; bottom: far end, each coil's number under its end."
     } else if w.geometry.layers == 2 {
         "Left column: top layer (at the gap); right: bottom layer.  \u{2193} go side: current \
-         enters.  \u{2191} back side.  Top: lead end; bottom: far end."
+         enters.  \u{2191} back side.  Top: lead end; bottom: far end, each coil's number under its end."
     } else {
-        "\u{2193} go side: current enters.  \u{2191} back side.  Top: lead end; bottom: far end."
+        "\u{2193} go side: current enters.  \u{2191} back side.  Top: lead end; bottom: far end, each coil's number under its end."
     };
     let notes = format!("{notes}{empty}");
     g = g.add(label(

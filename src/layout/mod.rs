@@ -101,6 +101,42 @@ fn syntax_message(source: &str, e: &toml::de::Error) -> String {
         .trim()
         .replace("expected i64", "expected a whole number")
         .replace("expected f64", "expected a number");
+    // A table or key left out altogether has no line of its own: say which and where.
+    if let Some(field) = what
+        .strip_prefix("missing field `")
+        .and_then(|r| r.strip_suffix('`'))
+    {
+        return match field {
+            "machine" => {
+                "the [machine] table is missing: add it with topology, slots and poles".to_string()
+            }
+            "winding" => {
+                "the [winding] table is missing: add it with at least layers = 1 or 2".to_string()
+            }
+            other => {
+                let table = e
+                    .span()
+                    .and_then(|s| {
+                        // Up to the end of the line the span starts on (the table's header).
+                        let start = s.start.min(source.len());
+                        let end = source[start..]
+                            .find('\n')
+                            .map_or(source.len(), |n| start + n);
+                        source[..end]
+                            .lines()
+                            .rev()
+                            .find(|l| l.trim_start().starts_with('['))
+                            .map(|l| l.trim().to_string())
+                    })
+                    .unwrap_or_default();
+                if table.is_empty() {
+                    format!("key `{other}` is missing")
+                } else {
+                    format!("key `{other}` is missing from {table}")
+                }
+            }
+        };
+    }
     match e.span() {
         Some(span) => {
             let line = line_of_offset(source, span.start);

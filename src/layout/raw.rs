@@ -289,15 +289,18 @@ impl RawLayout {
             "pole count",
         )?;
         if m.topology == Topology::Rotary && poles % 2 != 0 {
+            let try_ = if poles == 1 {
+                "try 2".to_string()
+            } else {
+                format!("try {} or {}", poles - 1, poles + 1)
+            };
             return Err(c.err(
                 "machine",
                 0,
                 "poles",
                 format!(
-                    "a closed rotary core needs an even pole count, not {poles}; \
-                     try {} or {} (odd pole counts are for linear primaries)",
-                    poles.saturating_sub(1).max(2),
-                    poles + 1
+                    "a closed rotary core needs an even pole count, not {poles}; {try_} (odd \
+                     pole counts are for linear primaries)"
                 ),
             ));
         }

@@ -119,8 +119,10 @@ pub fn words(f: &Fact) -> String {
              belongs): swap its leads {l}1 and {l}2"
         ),
         Fact::LeadsSwapped { a, b } => format!(
-            "the leads of phases {a} and {b} are exchanged (phase sequence reversed): exchange \
-             them back, {a}1 with {b}1 and {a}2 with {b}2"
+            "the leads of phases {a} and {b} are exchanged, so the phase sequence is reversed \
+             and the field runs the other way: exchanging any two supply leads reverses it \
+             again, and exchanging {a}1 with {b}1 and {a}2 with {b}2 restores the recorded \
+             phase order as well"
         ),
         Fact::CoilsSwapped {
             a,
@@ -226,10 +228,25 @@ pub fn words(f: &Fact) -> String {
             crate::numbering::count(*layers, "layer", "layers"),
             ranges(coils)
         ),
-        Fact::TurnsDiffer { coils, usual } => format!(
-            "coils {} have a turn count other than the {usual} turns of the rest; check the \
-             record or the coils",
-            ranges(coils)
+        Fact::TurnsDiffer {
+            coils,
+            usual,
+            explains_unbalance,
+        } => format!(
+            "{} {} a turn count other than the {usual} turns of the rest{}; check the record, \
+             or rewind {} to {usual} turns",
+            if coils.len() == 1 { "coil" } else { "coils" },
+            if coils.len() == 1 {
+                format!("{} has", ranges(coils))
+            } else {
+                format!("{} have", ranges(coils))
+            },
+            if *explains_unbalance {
+                ": that alone unbalances the phases, and at the usual turns they balance"
+            } else {
+                ""
+            },
+            if coils.len() == 1 { "it" } else { "them" }
         ),
         Fact::SpanDiffers {
             coil,

@@ -36,28 +36,32 @@ h1 { font-size: 1.6rem; margin-bottom: 0.3rem; }
 h2 { font-size: 1.3rem; border-bottom: 2px solid #111; margin-top: 2.2rem; }
 h3 { font-size: 1.05rem; margin-top: 1.4rem; }
 p.line { margin: 0.15rem 0; }
-.caution { border: 3px solid #111; padding: 0.6rem 0.9rem; font-weight: bold;
+p.caution { border: 3px solid #111; padding: 0.6rem 0.9rem; font-weight: bold;
   background: #fff8d6; margin: 1rem 0; }
-.warning { border-left: 6px solid #8a1c00; padding-left: 0.6rem; color: #5a1200; }
+p.warning { border-left: 6px solid #8a1c00; padding-left: 0.6rem; color: #5a1200; }
 table { border-collapse: collapse; margin: 0.5rem 0 1rem; font-size: 0.9rem; }
 th, td { border: 1px solid #777; padding: 0.15rem 0.45rem; text-align: right; }
 th { background: #e8e8e8; }
 td.text, th.text { text-align: left; }
 figure { margin: 1.2rem 0; }
 figure svg { width: 100%; height: auto; border: 1px solid #999; }
+/* The page's rules stop at the sheets: a sheet's own classes (caution, title) are its own. */
 figcaption { font-size: 0.95rem; margin-top: 0.3rem; }
 nav ul { columns: 2; }
 a { color: #0b3d91; }
 @page { margin: 10mm; }
+@page sheet { size: 297mm 210mm; margin: 0; }
 @media print {
-  body { max-width: none; margin: 0; }
+  body { max-width: none; margin: 0; padding: 0; }
   nav { display: none; }
-  figure.sheet { break-before: page; break-inside: avoid; }
-  figure.sheet svg { border: none; max-height: 180mm; }
-  tr, .caution { break-inside: avoid; }
+  figure.sheet { page: sheet; break-before: page; break-after: page; break-inside: avoid;
+    margin: 0; width: 297mm; height: 210mm; overflow: hidden; }
+  figure.sheet svg { border: none; display: block; width: 297mm; height: 210mm; }
+  figure.sheet figcaption { display: none; }
+  tr, p.caution { break-inside: avoid; }
   thead { display: table-header-group; }
   h2, h3 { break-after: avoid; }
-  .caution { background: #fff; }
+  p.caution { background: #fff; }
 }
 "#;
 
@@ -115,12 +119,72 @@ fn align_class(t: &super::Table, j: usize) -> &'static str {
 }
 
 /// One report as a titled section of the page.
-fn part<R: Report>(out: &mut String, toc: &mut Vec<(String, String)>, title: &str, r: &R) {
-    let id = id_of(title);
-    toc.push((id.clone(), title.to_string()));
-    let _ = writeln!(out, "<section id=\"{id}\">\n<h2>{}</h2>", escape(title));
-    sections(out, &r.sections());
-    out.push_str("</section>\n");
+/// One titled part of the whole report: a report's sections.
+pub struct Part {
+    /// Its heading ("Plan", "Data card", ...).
+    pub title: String,
+    /// What the report says, as the text presenter would.
+    pub sections: Vec<Section>,
+}
+
+/// Every report of a winding, each worked out once: what the HTML page and the PDF report
+/// both print, in order, with the plan and the audit kept for the page's header.
+pub struct Parts {
+    /// Plan, audit (recorded windings), card, performance and inductance (flat
+    /// primaries), factors, field, spans.
+    pub parts: Vec<Part>,
+    /// The plan report (the header reads it).
+    pub plan: plan::PlanReport,
+    /// The audit of a recorded coil list.
+    pub audit: Option<audit::AuditReport>,
+}
+
+/// Work out every report of `w` once (a recorded coil list audited against `intended`).
+pub fn parts(w: &Winding, intended: Option<&Winding>) -> Parts {
+    let mut out = Vec::new();
+    let mut add = |title: &str, sections: Vec<Section>| {
+        out.push(Part {
+            title: title.to_string(),
+            sections,
+        })
+    };
+    let p = plan::plan(w, Default::default());
+    add("Plan", p.sections());
+    // A recorded coil list is audited once: its section and the banner.
+    let found = w.from_coil_list.then(|| audit::audit(w, intended));
+    if let Some(a) = &found {
+        add("Audit of the coil list", a.sections());
+    }
+    add("Data card", card::card(w).sections());
+    let q = thrust::ThrustQuery {
+        current_a: None,
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 20,
+        end_effect: true,
+    };
+    if let Ok(t) = thrust::thrust(w, &q) {
+        add("Performance of the flat primary", t.sections());
+    }
+    if w.geometry.topology == crate::winding::Topology::Linear
+        && let Ok(l) = crate::inductance::inductance(w, false)
+    {
+        add("Inductance and unbalance", l.sections());
+    }
+    add("Winding factors", factors::factor_table(w, 25.0).sections());
+    if let Ok(f) = field::field(w, &field::FieldOptions::balanced(w)) {
+        add("Travelling field", f.sections());
+    }
+    let goal = pitch::PitchGoal {
+        suppress: vec![5.0, 7.0, 11.0, 13.0],
+        min_fundamental: 0.9,
+    };
+    add("Span comparison", pitch::compare(w, &goal).sections());
+    Parts {
+        parts: out,
+        plan: p,
+        audit: found,
+    }
 }
 
 /// What each sheet shows, for its caption.
@@ -157,43 +221,20 @@ pub fn document(w: &Winding, intended: Option<&Winding>) -> String {
     });
     let mut body = String::new();
     let mut toc: Vec<(String, String)> = Vec::new();
-    let p = plan::plan(w, Default::default());
-    part(&mut body, &mut toc, "Plan", &p);
-    // A recorded coil list is audited once: its section and the banner below.
-    let found = w.from_coil_list.then(|| audit::audit(w, intended));
-    if let Some(a) = &found {
-        part(&mut body, &mut toc, "Audit of the coil list", a);
+    let report = parts(w, intended);
+    for part in &report.parts {
+        let id = id_of(&part.title);
+        toc.push((id.clone(), part.title.clone()));
+        let _ = writeln!(
+            body,
+            "<section id=\"{id}\">\n<h2>{}</h2>",
+            escape(&part.title)
+        );
+        sections(&mut body, &part.sections);
+        body.push_str("</section>\n");
     }
-    part(&mut body, &mut toc, "Data card", &card::card(w));
-    let q = thrust::ThrustQuery {
-        current_a: None,
-        slip_from: 0.0,
-        slip_to: 1.0,
-        steps: 20,
-        end_effect: true,
-    };
-    if let Ok(t) = thrust::thrust(w, &q) {
-        part(&mut body, &mut toc, "Performance of the flat primary", &t);
-    }
-    part(
-        &mut body,
-        &mut toc,
-        "Winding factors",
-        &factors::factor_table(w, 25.0),
-    );
-    if let Ok(f) = field::field(w, &field::FieldOptions::balanced(w)) {
-        part(&mut body, &mut toc, "Travelling field", &f);
-    }
-    let goal = pitch::PitchGoal {
-        suppress: vec![5.0, 7.0, 11.0, 13.0],
-        min_fundamental: 0.9,
-    };
-    part(
-        &mut body,
-        &mut toc,
-        "Span comparison",
-        &pitch::compare(w, &goal),
-    );
+    let p = &report.plan;
+    let found = &report.audit;
     // Every sheet, one figure per page.
     toc.push(("sheets".into(), "Sheets".into()));
     body.push_str("<section id=\"sheets\">\n<h2>Sheets</h2>\n");
