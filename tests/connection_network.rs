@@ -93,6 +93,8 @@ fn read_sheet(svg: &str) -> (Vec<Section>, Vec<Board>, Vec<Vec<String>>, String)
             headline.push(' ');
         }
     }
+    // The headline may wrap over several lines: read it as one.
+    let headline = headline.split_whitespace().collect::<Vec<_>>().join(" ");
     (sections, boards, inside, headline)
 }
 

@@ -770,3 +770,36 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
         assert!(svg.contains(c), "default {c} missing");
     }
 }
+
+// The connection sheet of every lead scheme (3, 6, 9, 12 leads; IEC and NEMA; star and
+// delta) on A4 and A3, landscape and portrait: no text overlaps other text and nothing
+// leaves the frame (the wiring itself is checked in connection_network.rs).
+#[test]
+fn connection_sheets_of_every_lead_scheme_stay_clear() {
+    for leads in [3u8, 6, 9, 12] {
+        for marking in ["iec", "nema"] {
+            for connection in ["star", "delta"] {
+                let paths = if leads >= 9 { 2 } else { 1 };
+                let src = format!(
+                    "title = \"Invented {leads}-lead motor\"\n[machine]\ntopology = \"rotary\"\n\
+                     slots = 48\npoles = 4\n[winding]\nlayers = 2\npitch = 10\n\
+                     turns_per_coil = 9\nparallel_paths = {paths}\nconnection = \"{connection}\"\n\
+                     leads = {leads}\nmarking = \"{marking}\"\n[supply]\nfrequency_hz = 60.0\n\
+                     line_voltage_v = 230.0\n[nameplate]\npower_hp = 10\nvoltage_v = [230, 460]\n\
+                     frame = \"215T\"\n[job]\nnumber = 77\ncustomer = \"Invented Mill\"\n"
+                );
+                let name = format!("{leads}-{marking}-{connection}");
+                let w = build(&src, &name);
+                for page in [
+                    Page::default(),
+                    Page {
+                        size: PaperSize::A3,
+                        orientation: Orientation::Portrait,
+                    },
+                ] {
+                    check_sheet_renders(&name, &w, Sheet::Connections, &page);
+                }
+            }
+        }
+    }
+}

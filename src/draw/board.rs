@@ -133,17 +133,18 @@ fn board(
     y: f64,
     width: f64,
 ) -> (Group, f64) {
-    let mut heading_lines = vec![
-        c.line_voltage_v
-            .map_or("Line voltage not given".to_string(), |v| {
-                format!("{} V line", crate::output::num(v, 0))
-            }),
-        match c.sections {
-            Sections::Single => c.connection.to_string(),
-            Sections::Series => format!("series {}", c.connection),
-            Sections::Parallel => format!("parallel {}", c.connection),
-        },
-    ];
+    let how = match c.sections {
+        Sections::Single => c.connection.to_string(),
+        Sections::Series => format!("series {}", c.connection),
+        Sections::Parallel => format!("parallel {}", c.connection),
+    };
+    let mut heading_lines = text::wrap(
+        &c.line_voltage_v.map_or(how.clone(), |v| {
+            format!("{} V line: {how}", crate::output::num(v, 0))
+        }),
+        SIZE,
+        width - 3.0,
+    );
     if c.as_planned {
         heading_lines.push("AS PLANNED".to_string());
     }
@@ -237,6 +238,12 @@ fn board(
         }
     }
     (g, h)
+}
+
+/// Width of the scheme's boards set side by side, mm.
+pub fn natural_width(scheme: &LeadScheme, planned: Connection) -> f64 {
+    let list = drawn(scheme, planned);
+    list.iter().map(|c| board_width(c)).sum::<f64>() + GAP * (list.len().saturating_sub(1)) as f64
 }
 
 /// Every board of a scheme, side by side when `width` allows, else one under the other;

@@ -373,27 +373,89 @@ fn boards_height(w: &Winding, width: f64) -> f64 {
     board(w, &pal, width, 1.0).1 + 4.0
 }
 
-/// Height of the whole diagram drawn `width` wide at full size, mm.
+/// Width the boards take set beside the lanes (their natural width, or a column for the
+/// single board of another phase count), mm.
+fn boards_width(w: &Winding) -> f64 {
+    if w.geometry.phases != 3 {
+        return 0.0;
+    }
+    let scheme = crate::card::leads::scheme(
+        w.design.leads,
+        w.design.connection,
+        w.design.supply.line_voltage_v,
+        None,
+        &w.design.phase_labels,
+        w.geometry.slots,
+        w.geometry.topology,
+    );
+    super::board::natural_width(&scheme, w.design.connection).max(70.0)
+}
+
+/// Where the boards go: above the lanes, or beside them on the right.
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct Arrangement {
+    /// Boards beside the lanes (width of their column), else above.
+    beside: Option<f64>,
+    /// Scale of the lanes (1 at full size; 0 when they do not fit at all).
+    scale: f64,
+}
+
+/// Height of the whole diagram drawn `width` wide at full size, boards above, mm.
 fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
     boards_height(w, width) + lanes_height(w, groups, width)
 }
 
-/// Scale at which the lanes fit under the boards in `width` × `height` (1 when they fit at
-/// full size; the boards and their words are always drawn at printed size).
-fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
+/// The better of the two arrangements in `width` × `height`: the one whose lanes keep the
+/// larger scale (boards above when both draw at full size).
+fn arrangement(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> Arrangement {
     if width < 40.0 {
-        return 0.0;
+        return Arrangement {
+            beside: None,
+            scale: 0.0,
+        };
     }
-    let room = height - boards_height(w, width);
-    if room <= 0.0 {
-        return 0.0;
+    let fit = |lanes_w: f64, room: f64| {
+        if room <= 0.0 || lanes_w < 40.0 {
+            0.0
+        } else {
+            (room / lanes_height(w, groups, lanes_w)).min(1.0)
+        }
+    };
+    let above = Arrangement {
+        beside: None,
+        scale: fit(width, height - boards_height(w, width)),
+    };
+    let col = boards_width(w);
+    if above.scale >= 1.0 || col <= 0.0 {
+        return above;
     }
-    (room / lanes_height(w, groups, width)).min(1.0)
+    let lanes_w = width - col - 6.0;
+    let beside_ok = boards_height(w, col) <= height;
+    let beside = Arrangement {
+        beside: Some(col),
+        scale: if beside_ok {
+            fit(lanes_w, height - 4.0)
+        } else {
+            0.0
+        },
+    };
+    if beside.scale > above.scale {
+        beside
+    } else {
+        above
+    }
+}
+
+/// Scale at which the lanes fit beside or under the boards in `width` × `height` (1 when
+/// they fit at full size; the boards and their words are always drawn at printed size).
+fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
+    arrangement(w, groups, width, height).scale
 }
 
 /// Terminal board, then one lane per phase and path with the groups in connection order.
 fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect) -> Group {
-    let scale = diagram_scale(w, groups, b.w, b.h);
+    let arr = arrangement(w, groups, b.w, b.h);
+    let scale = arr.scale;
     // Text keeps its printed size (2.6 mm) however much the diagram is scaled to fit.
     let ts = if scale > 0.0 {
         (1.0 / scale).max(1.0)
@@ -401,14 +463,22 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         1.0
     };
     let lanes = lanes(w, groups);
-    let per_line = per_line(b.w);
-    // Heading and boards at printed size; the lanes below, scaled to fit.
-    let (board_g, board_h) = board(w, pal, b.w, 1.0);
+    // Heading and boards at printed size, above the lanes or in a column beside them; the
+    // lanes scaled to fit what is left.
+    let (board_x, board_w, lanes_w) = match arr.beside {
+        Some(col) => (b.right() - col, col, b.w - col - 6.0),
+        None => (b.x, b.w, b.w),
+    };
+    let per_line = per_line(lanes_w);
+    let (board_g, board_h) = board(w, pal, board_w, 1.0);
     let top = Group::new()
-        .set("transform", format!("translate({} {})", r(b.x), r(b.y)))
-        .add(label(0.0, 2.8, 2.6, Anchor::Start, "Connection diagram"))
+        .set("transform", format!("translate({} {})", r(board_x), r(b.y)))
         .add(board_g);
-    let lanes_y = b.y + board_h + 4.0;
+    let lanes_y = match arr.beside {
+        Some(_) => b.y + 4.0,
+        None => b.y + board_h + 4.0,
+    };
+    let heading = label(b.x, b.y + 2.8, 2.6, Anchor::Start, "Connection diagram");
     let mut inner = Group::new();
     let mut y = 4.0;
     for Lane {
@@ -444,7 +514,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
             let mut x = LEAD_W;
             // Lead in.
             if li == 0 {
-                lane = lane.add(lead(&path_terminal(w, *k, *p, 1), 0.0, yc, ts));
+                lane = lane.add(lead(&path_terminal(w, *k, *p, 1), 0.0, yc, ts, true));
             } else {
                 lane = lane.add(label(
                     LEAD_W - 1.0,
@@ -477,7 +547,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
                     .line_to((r(end_x), r(yc))),
             ));
             if li + 1 == nlines {
-                lane = lane.add(lead(&path_terminal(w, *k, *p, 2), end_x, yc, ts));
+                lane = lane.add(lead(&path_terminal(w, *k, *p, 2), end_x, yc, ts, false));
             } else {
                 lane = lane.add(label(
                     end_x + 0.5,
@@ -494,7 +564,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
     if w.parallel_paths > 1 {
         let words = if w.geometry.phases == 3 && w.design.leads.count >= 9 {
             "The two paths of each phase are its two sections, brought out on their own leads: \
-             connect them on the board above for the voltage wanted."
+             connect them on the terminal board for the voltage wanted."
                 .to_string()
         } else {
             format!(
@@ -503,13 +573,14 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
                 w.parallel_paths
             )
         };
-        for l in text::wrap(&words, 2.6 * ts, b.w / scale) {
+        for l in text::wrap(&words, 2.6 * ts, lanes_w / scale) {
             inner = inner.add(label(0.0, y + 1.0, 2.6 * ts, Anchor::Start, &l));
             y += 3.3 * ts;
         }
     }
     Group::new()
         .set("class", "connection-diagram")
+        .add(heading)
         .add(top)
         .add(
             Group::new()
@@ -527,8 +598,15 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
 }
 
 /// A lead end: open terminal circle with its marking above right.
-fn lead(name: &str, x: f64, y: f64, ts: f64) -> Group {
+/// A lead in at the start of a lane has its marking raised clear of the first group's
+/// S/F letter; a lead out sits level with the line.
+fn lead(name: &str, x: f64, y: f64, ts: f64, raised: bool) -> Group {
     let (cx, tx, anchor) = (x + 1.2, x + 2.8, Anchor::Start);
+    let ty = if raised {
+        y - 1.5 - 2.6 * ts * 0.8
+    } else {
+        y - 1.6
+    };
     Group::new()
         .set("class", "lead")
         .add(
@@ -540,7 +618,7 @@ fn lead(name: &str, x: f64, y: f64, ts: f64) -> Group {
                 .set("stroke", "#000000")
                 .set("stroke-width", 0.35),
         )
-        .add(label(tx, y - 1.6, 2.6 * ts, anchor, name))
+        .add(label(tx, ty, 2.6 * ts, anchor, name))
 }
 
 fn group_box(
@@ -653,18 +731,18 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
             g = say(g, &words, &mut y, class);
         }
     }
-    for c in scheme.configurations.iter().filter(|c| !c.as_planned) {
+    // The other connections the leads allow: those without a board of their own in words.
+    for c in scheme
+        .configurations
+        .iter()
+        .filter(|c| !c.as_planned && !drawn.iter().any(|d| std::ptr::eq(*d, *c)))
+    {
         let words = format!(
             "{}: {}",
             super::board::heading(c),
             super::board::sentence(c)
         );
-        let class = if drawn.iter().any(|d| std::ptr::eq(*d, c)) {
-            "lead-table"
-        } else {
-            "lead-table not-drawn"
-        };
-        g = say(g, &words, &mut y, class);
+        g = say(g, &words, &mut y, "lead-table");
     }
     y += 1.0;
     let (boards, h) = super::board::boards(
