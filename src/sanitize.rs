@@ -20,6 +20,22 @@ fn unsafe_char(c: char) -> bool {
         || ('\u{2066}'..='\u{2069}').contains(&c)
 }
 
+/// True for characters that do not print as themselves: whitespace, the unsafe characters
+/// above, and invisible formatting characters (soft hyphen, zero-width spaces and joiners,
+/// word joiner, invisible operators, bidirectional marks, byte-order mark, variation
+/// selectors, interlinear annotation, tags). Used where two names must differ visibly.
+pub fn invisible(c: char) -> bool {
+    let u = c as u32;
+    c.is_whitespace()
+        || unsafe_char(c)
+        || matches!(u, 0x00AD | 0x034F | 0x061C | 0x180E | 0xFEFF)
+        || (0x200B..=0x200F).contains(&u)
+        || (0x2060..=0x206F).contains(&u)
+        || (0xFE00..=0xFE0F).contains(&u)
+        || (0xFFF9..=0xFFFB).contains(&u)
+        || (0xE0000..=0xE0FFF).contains(&u)
+}
+
 /// `s` with every unsafe character replaced by a space (bidirectional controls removed),
 /// borrowed when nothing needed changing. Escaping `<`, `>`, `&` and quotes is left to the
 /// markup writer (the `svg` crate, or the HTML report's escaper).

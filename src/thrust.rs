@@ -365,14 +365,12 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     } else {
         (Complex64::new(0.0, c.xm_ohm), None)
     };
-    // Secondary branch R2'/s; at s = 0 it carries no current.
-    let (i_ratio_2, i_ratio_m, zpar) = if s == 0.0 {
-        (Complex64::new(0.0, 0.0), Complex64::new(1.0, 0.0), zm)
-    } else {
-        let z2 = Complex64::new(c.r2_ohm / s, 0.0);
-        let sum = zm + z2;
-        (zm / sum, z2 / sum, zm * z2 / sum)
-    };
+    // Secondary branch R2'/s, worked in admittances so that no slip, however small,
+    // overflows: y2 = s/R2' (zero at s = 0, where it carries no current), ym = 1/Zm.
+    let ym = Complex64::new(1.0, 0.0) / zm;
+    let y2 = Complex64::new(s / c.r2_ohm, 0.0);
+    let ysum = ym + y2;
+    let (i_ratio_2, i_ratio_m, zpar) = (y2 / ysum, ym / ysum, Complex64::new(1.0, 0.0) / ysum);
     let z = Complex64::new(c.r1_ohm, c.x1_ohm) + zpar;
     let i1 = match feed {
         Feed::Voltage { phase_voltage_v } => Complex64::new(phase_voltage_v, 0.0) / z,
@@ -380,11 +378,9 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     };
     let i2 = i1 * i_ratio_2;
     let im = i1 * i_ratio_m;
-    let p_gap = if s == 0.0 {
-        0.0
-    } else {
-        md.m * i2.norm_sqr() * c.r2_ohm / s
-    };
+    // Air-gap power m·|I2|²·R2'/s = m·|I1|²·(s/R2')/|ym + y2|²: the same, without the
+    // division by s.
+    let p_gap = md.m * i1.norm_sqr() * (s / c.r2_ohm) / ysum.norm_sqr();
     let thrust = p_gap / md.vs;
     let p_in = md.m * (z * i1.norm_sqr()).re;
     let p_out = thrust * v;

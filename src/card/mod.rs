@@ -61,6 +61,16 @@ pub enum CardWarning {
     NoWire,
     /// Lead schemes and line resistances are for three-phase windings only.
     NotThreePhase,
+    /// A path (or a whole phase) of the record holds no coils, so its resistance, and the
+    /// resistances between leads that include it, cannot be worked out.
+    PathWithoutCoils {
+        /// Phase label.
+        phase: String,
+        /// Path from 1.
+        path: usize,
+        /// Parallel paths of the winding.
+        paths: usize,
+    },
     /// The wire carries more than the limit at rated current.
     CurrentDensityAbove {
         /// Current density at rated current, A/mm².
@@ -266,15 +276,36 @@ pub fn path_resistances(w: &Winding) -> Option<Vec<Vec<f64>>> {
         .map(|rp| vec![vec![rp * a as f64; a]; m])
 }
 
-/// Phase resistances at 20 °C (each phase's paths in parallel), ohms.
+/// Phase resistances at 20 °C (each phase's paths in parallel), ohms; `None` when a phase
+/// has no coils (its resistance cannot be worked out).
 pub fn phase_resistances_20c(w: &Winding) -> Option<Vec<f64>> {
-    path_resistances(w).map(|r| r.iter().map(|p| parallel(p)).collect())
+    path_resistances(w)?.iter().map(|p| parallel(p)).collect()
 }
 
-/// Parallel combination of a phase's paths (a path with no coils is left out).
-fn parallel(paths: &[f64]) -> f64 {
+/// Parallel combination of a phase's paths (a path with no coils is left out); `None` when
+/// no path has coils.
+fn parallel(paths: &[f64]) -> Option<f64> {
     let g: f64 = paths.iter().filter(|r| **r > 0.0).map(|r| 1.0 / r).sum();
-    if g > 0.0 { 1.0 / g } else { f64::INFINITY }
+    (g > 0.0 && g.is_finite()).then(|| 1.0 / g)
+}
+
+/// The paths that hold no coils: (phase, path), both from 0. A recorded coil list that
+/// leaves out the `path` keys puts every coil in path 1.
+pub fn empty_paths(w: &Winding) -> Vec<(usize, usize)> {
+    let a = w.parallel_paths.max(1);
+    let mut used = vec![vec![false; a]; w.geometry.phases];
+    for c in &w.coils {
+        used[c.phase][c.path.min(a - 1)] = true;
+    }
+    let mut out = Vec::new();
+    for (p, paths) in used.iter().enumerate() {
+        for (k, u) in paths.iter().enumerate() {
+            if !u {
+                out.push((p, k));
+            }
+        }
+    }
+    out
 }
 
 /// Section resistances for the lead scheme: the two paths of a 9/12-lead winding, or each
@@ -286,9 +317,13 @@ pub fn sections(w: &Winding, r: &[Vec<f64>]) -> Option<SectionResistance> {
     let mut s = SectionResistance { r: [[0.0; 2]; 3] };
     for (p, paths) in r.iter().enumerate().take(3) {
         s.r[p] = if w.design.leads.count >= 9 && paths.len() == 2 {
+            // Each section its own path: a section without coils has no resistance to give.
+            if paths.iter().any(|x| !(x.is_finite() && *x > 0.0)) {
+                return None;
+            }
             [paths[0], paths[1]]
         } else {
-            [parallel(paths), 0.0]
+            [parallel(paths)?, 0.0]
         };
     }
     Some(s)
@@ -351,6 +386,13 @@ pub fn card(w: &Winding) -> DataCard {
         },
     };
 
+    for (p, k) in empty_paths(w) {
+        warnings.push(CardWarning::PathWithoutCoils {
+            phase: w.label(p).to_string(),
+            path: k + 1,
+            paths: w.parallel_paths,
+        });
+    }
     let paths = path_resistances(w);
     let phase_r: Vec<f64> = phase_resistances_20c(w).unwrap_or_default();
     let phase_mean =

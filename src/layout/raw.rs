@@ -337,6 +337,23 @@ impl RawLayout {
                     ));
                 }
                 for (i, l) in labels.iter().enumerate() {
+                    // A label is printed on every sheet and lead: refuse what would print
+                    // as something else or as nothing (spaces, controls, invisible
+                    // formatting and bidirectional marks), so two labels that differ
+                    // differ where a reader can see it.
+                    if let Some(ch) = l.chars().find(|x| crate::sanitize::invisible(*x)) {
+                        return Err(c.err(
+                            "machine",
+                            0,
+                            "phase_labels",
+                            format!(
+                                "label {} has the character U+{:04X}, which does not print as \
+                                 itself; use letters, digits and visible signs only (U, V, W)",
+                                i + 1,
+                                ch as u32
+                            ),
+                        ));
+                    }
                     if l.trim().is_empty() || l.chars().count() > 8 {
                         return Err(c.err(
                             "machine",

@@ -60,6 +60,20 @@ impl CardWarning {
             CardWarning::NotThreePhase => {
                 "lead markings and line resistances are given for three-phase windings only".into()
             }
+            CardWarning::PathWithoutCoils { phase, path, paths } => {
+                if *paths > 1 {
+                    format!(
+                        "path {path} of phase {phase} holds no coils, so no resistance is given \
+                         for it or between leads that include it: give each coil its path \
+                         (coil.path = 1 to {paths})"
+                    )
+                } else {
+                    format!(
+                        "phase {phase} holds no coils, so no resistance is given for it or \
+                         between the line terminals: record its coils"
+                    )
+                }
+            }
             CardWarning::CurrentDensityAbove {
                 density_a_mm2,
                 limit_a_mm2,
