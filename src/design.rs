@@ -173,7 +173,7 @@ pub struct Measured {
     /// Across each section's own leads, ohms, in the card's section order: U, V, W (first
     /// sections), then U, V, W (second sections of a 9- or 12-lead winding). A nine-lead
     /// star machine's second sections meet inside, so their three values are the readings
-    /// T7-T8, T8-T9, T9-T7 (U7-V7 ... in IEC marking) between their free ends.
+    /// T7-T8, T8-T9, T9-T7 (U5-V5 ... in IEC marking) between their free ends.
     pub section_resistance_ohm: Option<Vec<f64>>,
     /// Winding temperature at the measurement, °C.
     pub temperature_c: f64,

@@ -235,3 +235,94 @@ fn section_readings_on_three_leads_are_refused() {
     assert!(msg.contains("section_resistance_ohm"), "{msg}");
     assert!(msg.contains("line_resistance_ohm"), "{msg}");
 }
+
+// Phase U open inside a delta: the readings are R_V + R_W across U (2R) and R across
+// each of the others (the open phase carries nothing), so the star arm opposite is zero
+// and no phase can be worked back; the audit names the open phase and says not to
+// energise, with meter noise either way (series-parallel rules as above).
+#[test]
+fn an_open_phase_in_delta_is_named_open_not_low() {
+    let base = wind(&motor("delta", 6, 1, ""));
+    let r = card::card(&base).phase_resistance_20c_ohm.expect("wire");
+    for noise in [1.0, 1.004, 0.996] {
+        let m = [2.0 * r * noise, r, r];
+        let w = wind(&motor(
+            "delta",
+            6,
+            1,
+            &format!(
+                "[measured]\nline_resistance_ohm = [{}, {}, {}]\ntemperature_c = 20.0\n",
+                m[0], m[1], m[2]
+            ),
+        ));
+        let c = card::measured::check(&w).expect("readings");
+        assert!(!c.sound);
+        assert!(
+            matches!(&c.suggestion, Suggestion::OpenInDelta { phase } if phase == "U"),
+            "noise {noise}: {:?}",
+            c.suggestion
+        );
+        assert!(!audit::audit(&w, None).sound);
+    }
+}
+
+// One reading larger than the other two together: no network of resistors gives it
+// (triangle rule), so the readings are called into question, not a phase.
+#[test]
+fn impossible_readings_ask_for_a_new_measurement() {
+    let w = wind(&motor(
+        "star",
+        6,
+        1,
+        "[measured]\nline_resistance_ohm = [1.0, 1.0, 2.5]\ntemperature_c = 20.0\n",
+    ));
+    let c = card::measured::check(&w).expect("readings");
+    assert_eq!(c.suggestion, Suggestion::Inconsistent);
+}
+
+// A 12-lead winding planned in parallel but measured linked in series reads 4 times the
+// card on every pair (each path twice the phase, two in series instead of in parallel).
+#[test]
+fn readings_taken_in_the_other_connection_are_recognised() {
+    let base = wind(&motor("star", 12, 1, ""));
+    let l = card::card(&base).line_resistance_20c_ohm.expect("wire");
+    let m = 4.0 * l;
+    let w = wind(&motor(
+        "star",
+        12,
+        1,
+        &format!("[measured]\nline_resistance_ohm = [{m}, {m}, {m}]\ntemperature_c = 20.0\n"),
+    ));
+    let c = card::measured::check(&w).expect("readings");
+    assert!(
+        matches!(&c.suggestion, Suggestion::OtherConnection { ratio, .. } if (ratio - 4.0).abs() < 1e-9),
+        "{:?}",
+        c.suggestion
+    );
+}
+
+// A six-lead winding of two parallel paths, read across U1-U2 with one of U's paths open:
+// the section reads a/(a - 1) = 2 times the others.
+#[test]
+fn an_open_path_is_recognised_in_section_readings() {
+    let src =
+        |rest: &str| motor("delta", 6, 1, rest).replace("parallel_paths = 1", "parallel_paths = 2");
+    let base = wind(&src(""));
+    let s = card::card(&base).sections;
+    assert_eq!(s.len(), 3);
+    let v = [
+        2.0 * s[0].resistance_20c_ohm,
+        s[1].resistance_20c_ohm,
+        s[2].resistance_20c_ohm,
+    ];
+    let w = wind(&src(&format!(
+        "[measured]\nsection_resistance_ohm = [{}, {}, {}]\ntemperature_c = 20.0\n",
+        v[0], v[1], v[2]
+    )));
+    let c = card::measured::check(&w).expect("readings");
+    assert!(
+        matches!(&c.suggestion, Suggestion::PathOpen { .. }),
+        "{:?}",
+        c.suggestion
+    );
+}

@@ -725,6 +725,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
                     .filter(|j| !j.within_tolerance)
                     .map(|j| j.phase.clone())
                     .collect();
+                p.sort();
                 p.dedup();
                 p
             },

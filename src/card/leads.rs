@@ -487,6 +487,24 @@ mod tests {
         assert!(d.as_planned);
     }
 
+    // IEC 60034-8 marking of a winding in two sections per phase: U1-U2 and U5-U6 (V, W
+    // alike; from memory). Parallel star joins U2-V2-W2-U6-V6-W6 with L1 on U1+U5.
+    #[test]
+    fn iec_twelve_lead_sections() {
+        let s = table(12, Marking::Iec, Connection::Star);
+        let names: Vec<&str> = s.terminals.iter().map(|t| t.name.as_str()).collect();
+        for n in ["U1", "U2", "U5", "U6", "V5", "W6"] {
+            assert!(names.contains(&n), "{names:?}");
+        }
+        let parallel = &s.configurations[1];
+        assert_eq!(parallel.sections, Sections::Parallel);
+        assert_eq!(super::tests::names(&parallel.lines[0]), ["U1", "U5"]);
+        assert_eq!(
+            super::tests::names(&parallel.joined[0]),
+            ["U2", "V2", "W2", "U6", "V6", "W6"]
+        );
+    }
+
     // Star: 2R between lines; delta: (2/3)R (series-parallel reduction of equal resistors).
     #[test]
     fn line_to_line_of_equal_phases() {

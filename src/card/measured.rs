@@ -13,8 +13,9 @@
 //!   three readings between free ends are reduced like line readings of a star.
 //!
 //! Each phase or section, corrected to 20 °C and divided by the card's value for it, is
-//! set against the median of its kind; more than the tolerance from it is a finding. The
-//! tolerance is ANSI/EASA AR100's 2 % for random-wound windings; AR100 states its unbalance
+//! set against the median of its kind; more than the tolerance from it is a finding. This
+//! criterion is ours; its 2 % is ANSI/EASA AR100's figure for random-wound windings (from
+//! memory), and AR100 states its unbalance
 //! as the largest deviation from the mean of all three, by which one phase 3 % high reads
 //! only +1.98 % and the two sound ones −0.99 %: against the median, the one phase out of
 //! line reads its own +3 % and the sound ones 0.
@@ -93,6 +94,23 @@ pub enum Suggestion {
     },
     /// The readings are unbalanced in no single-phase pattern.
     Scattered,
+    /// Line readings that a delta gives only with one phase open: the two readings across
+    /// the other phases add up to the third.
+    OpenInDelta {
+        /// Phase label.
+        phase: String,
+    },
+    /// Line readings no connection of resistors can give (one larger than the other two
+    /// together, or a phase worked back to zero or less): a bad contact or a misread.
+    Inconsistent,
+    /// Every phase off by the ratio between two connections the leads allow: the winding
+    /// was measured linked another way than the card assumes.
+    OtherConnection {
+        /// Measured over expected.
+        ratio: f64,
+        /// The connection that gives this ratio, in words ("series", "star").
+        as_if: String,
+    },
 }
 
 /// How the readings were taken.
@@ -202,6 +220,11 @@ pub struct SectionFigure {
     /// What the reading across `between` gives at 20 °C, ohms: the section's own, or with
     /// the next section in series where the two meet inside (nine-lead star).
     pub reading_20c_ohm: f64,
+    /// The temperature `reading_ohm` is quoted at: the measuring temperature of
+    /// `[measured]`, else the shop's 25 °C (as the card's line figures), °C.
+    pub temperature_c: f64,
+    /// What the reading across `between` gives at `temperature_c`, ohms.
+    pub reading_ohm: f64,
 }
 
 /// The sections a shop measures before linking: per phase for 6 leads, two per phase for 9
@@ -233,8 +256,13 @@ pub fn section_figures(w: &Winding) -> Option<Vec<SectionFigure>> {
                 } else {
                     v
                 },
+                temperature_c: 20.0,
+                reading_ohm: 0.0,
             });
         }
+    }
+    for f in &mut out {
+        f.reading_ohm = f.reading_20c_ohm;
     }
     Some(out)
 }
@@ -335,10 +363,30 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
                     exp,
                     None,
                     None,
-                    spread(v),
+                    // Each three alike (first sections; second sections or, on a nine-lead
+                    // star, their pair readings) against their own mean.
+                    v.chunks(3).map(&spread).fold(0.0, f64::max),
                 )
             }
             (None, Some(m)) => {
+                // Readings no network gives, or a delta with one phase open (its star arm
+                // opposite at zero): no phase can be worked back; say so.
+                if let Some(s) = impossible(w, m) {
+                    return Some(ResistanceCheck {
+                        taken: Taken::LineToLine,
+                        measured_ohm: Some(m),
+                        section_readings_ohm: None,
+                        temperature_c: t,
+                        expected_ohm: None,
+                        deviation_percent: spread(&m),
+                        tolerance_percent: tol,
+                        ratio_to_expected: None,
+                        phase_ohm: None,
+                        judged: Vec::new(),
+                        sound: false,
+                        suggestion: s,
+                    });
+                }
                 let ph = phases_from_lines(m, w.design.connection);
                 let exp: Option<Vec<f64>> = super::phase_resistances_20c(w)
                     .filter(|r| r.len() == 3 && r.iter().all(|x| x.is_finite() && *x > 0.0));
@@ -384,7 +432,7 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
     let suggestion = if balanced && near {
         Suggestion::AsExpected
     } else if balanced {
-        uniform(ratio.unwrap_or(1.0), wire.as_ref())
+        uniform(w, ratio.unwrap_or(1.0), wire.as_ref())
     } else {
         one_apart(w, &judged, wire.as_ref(), taken)
     };
@@ -401,6 +449,31 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
         judged,
         sound: balanced && near,
         suggestion,
+    })
+}
+
+/// Line readings that cannot be worked back into phases: a delta with one phase open (the
+/// other two phases' readings add up to the third, so the star arm opposite is zero), or
+/// readings that break the triangle rule of resistor networks (an arm below zero).
+fn impossible(w: &Winding, m: [f64; 3]) -> Option<Suggestion> {
+    let mean = (m[0] + m[1] + m[2]) / 3.0;
+    let arms = [0, 1, 2].map(|k| (m[k] + m[(k + 2) % 3] - m[(k + 1) % 3]) / 2.0);
+    // Within 1 % of the readings' mean counts as zero (meter and contact spread).
+    let (k, arm) = arms
+        .iter()
+        .copied()
+        .enumerate()
+        .min_by(|a, b| a.1.total_cmp(&b.1))?;
+    if arm > 0.01 * mean {
+        return None;
+    }
+    if arm < -0.01 * mean || w.design.connection == Connection::Star {
+        return Some(Suggestion::Inconsistent);
+    }
+    // Delta phase j lies opposite star terminal j + 2: the arm at terminal k belongs to
+    // phase k + 1 (mod 3).
+    Some(Suggestion::OpenInDelta {
+        phase: w.label((k + 1) % 3).to_string(),
     })
 }
 
@@ -440,7 +513,10 @@ fn one_apart(w: &Winding, judged: &[Judged], wire: Option<&Wire>, taken: Taken) 
     let s = wire.map_or(1, |x| x.strands_in_hand);
     if r >= OPEN_RATIO {
         Suggestion::Open { phase, ratio: r }
-    } else if taken == Taken::LineToLine && a >= 2.0 && near(a / (a - 1.0)) {
+    } else if (taken == Taken::LineToLine || w.design.leads.count == 6)
+        && a >= 2.0
+        && near(a / (a - 1.0))
+    {
         Suggestion::PathOpen { phase, ratio: r }
     } else if s >= 2 && near(s as f64 / (s as f64 - 1.0)) {
         Suggestion::StrandOpen {
@@ -456,7 +532,23 @@ fn one_apart(w: &Winding, judged: &[Judged], wire: Option<&Wire>, taken: Taken) 
 }
 
 /// What a uniform ratio of measured to expected suggests.
-fn uniform(r: f64, wire: Option<&Wire>) -> Suggestion {
+fn uniform(w: &Winding, r: f64, wire: Option<&Wire>) -> Suggestion {
+    // Linked another way than planned: series sections read 4 times parallel ones (twice
+    // the path, each path twice the phase's), and a line reading in star is 3 times the
+    // same phases' in delta (2R against 2R/3).
+    let near = |x: f64| (r / x - 1.0).abs() < 0.03;
+    let other = match (w.design.leads.count >= 9, w.design.connection) {
+        (true, _) if near(4.0) => Some("series (the higher voltage)"),
+        (_, Connection::Delta) if near(3.0) => Some("star"),
+        (_, Connection::Star) if near(1.0 / 3.0) => Some("delta"),
+        _ => None,
+    };
+    if let Some(as_if) = other {
+        return Suggestion::OtherConnection {
+            ratio: r,
+            as_if: as_if.to_string(),
+        };
+    }
     if let Some(wr) = wire {
         let s = wr.strands_in_hand;
         if s >= 2 && (r / (s as f64 / (s as f64 - 1.0)) - 1.0).abs() < 0.02 {

@@ -71,6 +71,16 @@ pub enum CardWarning {
         /// Parallel paths of the winding.
         paths: usize,
     },
+    /// A dual-voltage winding planned with its sections in parallel (its lower voltage)
+    /// whose supply is the nameplate's higher voltage.
+    SupplyAtHigherVoltage {
+        /// The supply's line voltage, volts.
+        supply_v: f64,
+        /// The nameplate's lower voltage, volts.
+        lower_v: f64,
+        /// The nameplate's higher voltage, volts.
+        higher_v: f64,
+    },
     /// The wire carries more than the limit at rated current.
     CurrentDensityAbove {
         /// Current density at rated current, A/mm².
@@ -488,7 +498,34 @@ pub fn card(w: &Winding) -> DataCard {
                 .reduce(f64::max)
         })
         .or(w.design.supply.line_voltage_v);
+    // The nameplate's highest voltage governs where it is higher (a 400/690 V machine is
+    // tested for 690 V).
+    let stamped = w
+        .design
+        .nameplate
+        .as_ref()
+        .and_then(|n| n.voltages_v.iter().copied().reduce(f64::max));
+    let rated = match (rated, stamped) {
+        (Some(a), Some(b)) => Some(a.max(b)),
+        (a, b) => a.or(b),
+    };
     let hipot = rated.map(hipot_new_v);
+    // A dual-voltage winding (9, 12 leads) is planned with its sections in parallel, its
+    // lower voltage: a supply at the nameplate's higher voltage says otherwise.
+    if let (Some(n), Some(v)) = (&w.design.nameplate, w.design.supply.line_voltage_v)
+        && w.design.leads.count >= 9
+        && n.voltages_v.len() == 2
+    {
+        let hi = n.voltages_v.iter().copied().fold(f64::MIN, f64::max);
+        let lo = n.voltages_v.iter().copied().fold(f64::MAX, f64::min);
+        if hi > lo * 1.2 && (v - hi).abs() < (v - lo).abs() {
+            warnings.push(CardWarning::SupplyAtHigherVoltage {
+                supply_v: v,
+                lower_v: lo,
+                higher_v: hi,
+            });
+        }
+    }
 
     // Current density at rated current: the phase current (line current in star, /√3 in
     // delta) shared by the paths, over the conductor area.
@@ -544,7 +581,15 @@ pub fn card(w: &Winding) -> DataCard {
         copper_fill,
         wires_per_slot,
         leads: lead_scheme,
-        sections: measured::section_figures(w).unwrap_or_default(),
+        sections: measured::section_figures(w)
+            .unwrap_or_default()
+            .into_iter()
+            .map(|f| measured::SectionFigure {
+                temperature_c: t_meas,
+                reading_ohm: metal(material).at_temperature(f.reading_20c_ohm, t_meas),
+                ..f
+            })
+            .collect(),
         formers,
         nameplate: w.design.nameplate.clone(),
         job: w.design.job.clone(),

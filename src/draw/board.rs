@@ -273,12 +273,12 @@ pub fn boards(
     }
     let mut height = if side_by_side { row_h } else { y - 3.0 };
     if !scheme.internal.is_empty() {
-        let what = match (scheme.count, planned) {
-            (_, Connection::Star) => "star point",
-            (_, Connection::Delta) => "delta corners",
+        let what = match planned {
+            Connection::Star => "the star point, not brought out",
+            Connection::Delta => "each phase's finish to the next phase's start",
         };
         let words = format!(
-            "Joined inside the machine ({what}, not brought out): {}.",
+            "Joined inside the machine ({what}): {}.",
             scheme.internal.iter().map(|j| j.join("-")).join(", ")
         );
         let mut inside = Group::new().set("class", "inside");

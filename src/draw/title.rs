@@ -276,7 +276,9 @@ fn caption_id(scope: &str, name: &str) -> String {
 fn cell(x: f64, y: f64, w: f64, name: &str, value: &str, class: &str, scope: &str) -> Group {
     let inner = w - 2.0;
     let mut size = VALUE;
-    while text::width(value, size) > inner && size > 2.0 {
+    // Values shrink to fit, but never below the 2.5 mm a drawing's text needs (ISO 3098);
+    // beyond that they are cut with an ellipsis.
+    while text::width(value, size) > inner && size > 2.5 {
         size -= 0.2;
     }
     Group::new()

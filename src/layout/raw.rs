@@ -827,6 +827,16 @@ impl RawLayout {
             }
             Ok(())
         };
+        if m.line_resistance_ohm.is_some() && m.section_resistance_ohm.is_some() {
+            return Err(c.err(
+                "measured",
+                0,
+                "section_resistance_ohm",
+                "give one set of readings: line_resistance_ohm (between line terminals) or \
+                 section_resistance_ohm (across each section), not both"
+                    .into(),
+            ));
+        }
         if m.line_resistance_ohm.is_none() && m.section_resistance_ohm.is_none() {
             return Err(c.err(
                 "measured",

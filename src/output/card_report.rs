@@ -350,7 +350,8 @@ impl Report for DataCard {
                 ("section", Align::Right),
                 ("measure across", Align::Left),
                 ("reads at 20 C", Align::Right),
-                ("section ohm", Align::Right),
+                ("section ohm 20 C", Align::Right),
+                ("reads at", Align::Right),
             ]);
             for f in &self.sections {
                 t.push(vec![
@@ -359,6 +360,7 @@ impl Report for DataCard {
                     f.between.clone(),
                     ohms(f.reading_20c_ohm),
                     ohms(f.resistance_20c_ohm),
+                    format!("{} at {} C", ohms(f.reading_ohm), num(f.temperature_c, 0)),
                 ]);
             }
             s.push(Section::Table(t));

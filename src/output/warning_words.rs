@@ -74,6 +74,21 @@ impl CardWarning {
                     )
                 }
             }
+            CardWarning::SupplyAtHigherVoltage {
+                supply_v,
+                lower_v,
+                higher_v,
+            } => format!(
+                "the supply is {} V, the nameplate's higher voltage, but a 9- or 12-lead \
+                 winding is planned with its two sections in parallel, for its lower voltage \
+                 ({} V): give supply.line_voltage_v = {} so the planned board, the figures and \
+                 the current density are for the sections in parallel; the series board is \
+                 then the {} V one",
+                num(*supply_v, 0),
+                num(*lower_v, 0),
+                num(*lower_v, 0),
+                num(*higher_v, 0)
+            ),
             CardWarning::CurrentDensityAbove {
                 density_a_mm2,
                 limit_a_mm2,
@@ -163,6 +178,19 @@ impl Suggestion {
                 who(phase),
                 pct(*ratio),
                 what(phase)
+            ),
+            Suggestion::OpenInDelta { phase } => format!(
+                "the readings are those of a delta with phase {phase} open (the two readings \
+                 across the other phases add up to the third): find the break or the joint \
+                 not made in phase {phase}; do not energise"
+            ),
+            Suggestion::Inconsistent => "no connection of windings gives these readings (one \
+                 is larger than the other two together): re-measure with clean contacts"
+                .into(),
+            Suggestion::OtherConnection { ratio, as_if } => format!(
+                "all phases read {} times the card, as the winding would linked in {as_if}: \
+                 check how the leads were linked when measured",
+                num(*ratio, 2)
             ),
             Suggestion::Scattered => {
                 "the readings differ in no single-phase pattern: re-measure with clean \
