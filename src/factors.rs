@@ -285,10 +285,23 @@ fn span_angle(w: &Winding, y: usize, order: Elec) -> f64 {
     }
 }
 
+/// Most orders a factor table lists: 200 000 (its text and CSV are made a table at a time;
+/// this keeps a run within seconds and 300 MB).
+pub const MAX_ORDERS: u64 = 200_000;
+
+/// Orders [`factor_table`] would walk for `upto` (mechanical orders on a rotary core).
+pub fn orders_for(w: &Winding, upto: f64) -> u64 {
+    match w.geometry.topology {
+        Topology::Rotary => (upto * w.geometry.pole_pairs() + 1e-9).floor().max(0.0) as u64,
+        _ => (upto + 1e-9).floor().max(0.0) as u64,
+    }
+}
+
 /// Factors of the first phase at every order up to `upto` that the distribution lets
 /// through (k_d present), including the orders the span or the skew removes, which are the
 /// ones a designer chose them to kill: those rows carry k_p or k_s (and k_w) of 0
-/// (rotary: every mechanical order n ≤ upto·p; linear: whole orders 1..=upto).
+/// (rotary: every mechanical order n ≤ upto·p; linear: whole orders 1..=upto; at most
+/// [`MAX_ORDERS`] orders walked).
 pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
     let g = &w.geometry;
     let ph = PhaseCoils::of(w, 0);
@@ -296,14 +309,14 @@ pub fn factor_table(w: &Winding, upto: f64) -> FactorTable {
     let rows = match g.topology {
         Topology::Rotary if g.slots > 0 => {
             let sums = RotarySums::of(w, 0);
-            let top = (upto * p + 1e-9).floor() as u64;
+            let top = ((upto * p + 1e-9).floor() as u64).min(MAX_ORDERS);
             (1..=top)
                 .map(Mech)
                 .map(|n| factors_from(w, &ph, n.electrical(p), sums.at(n)))
                 .filter(|r| r.distribution > PRESENT)
                 .collect()
         }
-        _ => (1..=(upto + 1e-9).floor() as u64)
+        _ => (1..=((upto + 1e-9).floor() as u64).min(MAX_ORDERS))
             .map(|n| factors_at(w, 0, Elec(n as f64)))
             .filter(|r| r.distribution > PRESENT)
             .collect(),

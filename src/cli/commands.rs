@@ -72,12 +72,17 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                 let (spec, name, source) = read_spec_source(&a.file)?;
                 let w = winding::build_lenient(&spec)
                     .map_err(|e| plan_failure(&name, &source, &spec, &e))?;
-                let intended = match &a.intended {
-                    Some(p) => Some(load(p)?),
-                    None => None,
-                };
+                let intended = intended(a.intended.as_deref(), &w, &name)?;
                 let html = beltwright::output::html::document(&w, intended.as_ref());
-                write_atomic(out, &a.file, html.as_bytes(), "-o")?;
+                let inputs: Vec<&Path> = std::iter::once(a.file.as_path())
+                    .chain(a.intended.as_deref())
+                    .collect();
+                write_set(
+                    &[(out.to_path_buf(), html.into_bytes())],
+                    &Vec::new,
+                    &inputs,
+                    "-o",
+                )?;
                 return Ok(say(wrote(std::slice::from_ref(out))));
             }
             let kind = sheet_kind(out)?;
@@ -86,11 +91,11 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             // A PDF carries every table the HTML page has, set as pages (the card as its
             // own sheet), then every sheet; SVG and PNG sets carry the sheets.
             let mut pages: Vec<String> = Vec::new();
+            if let Some(p) = &a.intended {
+                check_output(out, &[p.as_path()], "-o")?;
+            }
+            let intended = intended(a.intended.as_deref(), &w, &a.file.display().to_string())?;
             if kind == FileKind::Pdf {
-                let intended = match &a.intended {
-                    Some(p) => Some(load(p)?),
-                    None => None,
-                };
                 let parts = beltwright::output::html::parts(&w, intended.as_ref());
                 for part in parts.parts.iter().filter(|p| p.title != "Data card") {
                     pages.extend(draw::tables::draw(&w, &part.title, &part.sections, &page));
@@ -107,6 +112,18 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         }
         Command::Factors(a) => {
             let w = load(&a.common.file)?;
+            let orders = factors::orders_for(&w, a.upto);
+            if orders > factors::MAX_ORDERS {
+                return Err(Failure::input(format!(
+                    "{}: --upto {} would walk {orders} orders on this {}-pole core; the factor \
+                     table lists at most {} (give --upto {} or less)",
+                    a.common.file.display(),
+                    a.upto,
+                    w.geometry.poles,
+                    factors::MAX_ORDERS,
+                    (a.upto * factors::MAX_ORDERS as f64 / orders as f64).floor()
+                )));
+            }
             Ok(present(factors::factor_table(&w, a.upto), a.common.format))
         }
         Command::Card(a) => {
@@ -209,23 +226,7 @@ fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {
 fn run_audit(a: AuditArgs) -> Result<Printed, Failure> {
     let (spec, name, source) = read_spec_source(&a.common.file)?;
     let w = winding::build_lenient(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))?;
-    let design = match &a.intended {
-        Some(p) => {
-            let d = load(p)?;
-            if d.geometry.slots != w.geometry.slots {
-                return Err(Failure::input(format!(
-                    "--intended {}: the design has {} slots but the record {} has {}; compare \
-                     designs of the same core",
-                    p.display(),
-                    d.geometry.slots,
-                    name,
-                    w.geometry.slots
-                )));
-            }
-            Some(d)
-        }
-        None => None,
-    };
+    let design = intended(a.intended.as_deref(), &w, &name)?;
     let report = audit::audit(&w, design.as_ref());
     let (sound, found) = (report.sound, report.findings.len());
     let out = present(report, a.common.format);
@@ -241,6 +242,26 @@ fn run_audit(a: AuditArgs) -> Result<Printed, Failure> {
             report: Some(out),
         })
     }
+}
+
+/// The intended design of `--intended`, for `audit` and `report` alike: loaded, and
+/// refused unless it is the record's core (same topology and slot count).
+fn intended(path: Option<&Path>, w: &Winding, name: &str) -> Result<Option<Winding>, Failure> {
+    let Some(p) = path else { return Ok(None) };
+    let d = load(p)?;
+    if d.geometry.slots != w.geometry.slots || d.geometry.topology != w.geometry.topology {
+        return Err(Failure::input(format!(
+            "--intended {}: the design is a {} core of {} slots but the record {} is a {} core \
+             of {}; compare designs of the same core",
+            p.display(),
+            d.geometry.topology,
+            d.geometry.slots,
+            name,
+            w.geometry.topology,
+            w.geometry.slots
+        )));
+    }
+    Ok(Some(d))
 }
 
 fn run_rewind(a: RewindArgs) -> Result<Printed, Failure> {
@@ -374,7 +395,12 @@ fn survey(a: SurveyArgs) -> Result<Printed, Failure> {
 
 /// Write one output file (as a set of one), never over an input.
 fn write_atomic(path: &Path, input: &Path, bytes: &[u8], flag: &str) -> Result<(), Failure> {
-    write_set(&[(path.to_path_buf(), bytes.to_vec())], &[], &[input], flag)
+    write_set(
+        &[(path.to_path_buf(), bytes.to_vec())],
+        &Vec::new,
+        &[input],
+        flag,
+    )
 }
 
 /// The report, to be written straight onto stdout in `format` once the command is done.
@@ -432,7 +458,39 @@ fn write_sheet(
     input: &Path,
     dpi: f64,
 ) -> Result<Vec<PathBuf>, Failure> {
-    let export = |e: draw::ExportError| Failure::output(format!("{}: {e}", path.display()));
+    let files = sheet_files(pages, kind, path, dpi)?;
+    let n = files.len();
+    let stale = || stale_pages(path, kind, n);
+    write_set(&files, &stale, &[input], "-o")?;
+    Ok(files.into_iter().map(|(n, _)| n).collect())
+}
+
+/// Pages of an earlier, longer set under this name (NAME-k.ext beyond this set's last `n`);
+/// the writer removes only those it finds it wrote.
+fn stale_pages(path: &Path, kind: FileKind, n: usize) -> Vec<PathBuf> {
+    match kind {
+        FileKind::Pdf => Vec::new(),
+        _ => draw::export::page_names(path, n..n + 4096)
+            .into_iter()
+            .take_while(|p| p.exists())
+            .collect(),
+    }
+}
+
+/// The files of one sheet: a PDF of every page, or an SVG or PNG per page.
+fn sheet_files(
+    pages: &[String],
+    kind: FileKind,
+    path: &Path,
+    dpi: f64,
+) -> Result<Vec<(PathBuf, Vec<u8>)>, Failure> {
+    let export = |e: draw::ExportError| match e {
+        draw::ExportError::Bound(_) => Failure::input(format!("-o {}: {e}", path.display())),
+        _ => Failure::output(format!("{}: {e}", path.display())),
+    };
+    if kind == FileKind::Png {
+        draw::export::check_png_work(pages).map_err(export)?;
+    }
     let files: Vec<(PathBuf, Vec<u8>)> = match kind {
         FileKind::Pdf => vec![(
             path.to_path_buf(),
@@ -451,16 +509,7 @@ fn write_sheet(
             v
         }
     };
-    // Pages of an earlier, longer set under this name (NAME-k.ext beyond this set's last).
-    let stale = match kind {
-        FileKind::Pdf => Vec::new(),
-        _ => draw::export::page_names(path, files.len()..files.len() + 4096)
-            .into_iter()
-            .take_while(|p| p.exists())
-            .collect(),
-    };
-    write_set(&files, &stale, &[input], "-o")?;
-    Ok(files.into_iter().map(|(n, _)| n).collect())
+    Ok(files)
 }
 
 /// The output kind named by a sheet file's extension.
@@ -509,20 +558,34 @@ fn write_pack(
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_else(|| "winding".into());
     let page = Page::default();
+    // The whole pack is one set: written under one lock and renamed into place together,
+    // or not at all (a full disk leaves the folder as it was).
+    let mut files: Vec<(PathBuf, Vec<u8>)> = Vec::new();
+    let mut svg_sets: Vec<(PathBuf, usize)> = Vec::new();
     for sheet in [Sheet::Slots, Sheet::Connections, Sheet::Card] {
         let pages = draw::draw(w, sheet, &page);
         for kind in [FileKind::Svg, FileKind::Pdf] {
             let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };
             let path = dir.join(format!("{stem}-{}.{ext}", sheet.name()));
-            for p in write_sheet(&pages, kind, &path, input, 150.0)? {
-                note(&format!("wrote {}", p.display()));
+            let set = sheet_files(&pages, kind, &path, 150.0)?;
+            if kind == FileKind::Svg {
+                svg_sets.push((path, set.len()));
             }
+            files.extend(set);
         }
     }
     let json = render(report, Format::Json)
         .map_err(|e| Failure::output(format!("could not write the plan JSON: {e}")))?;
-    let path = dir.join(format!("{stem}-plan.json"));
-    write_atomic(&path, input, json.as_bytes(), "--out")?;
-    note(&format!("wrote {}", path.display()));
+    files.push((dir.join(format!("{stem}-plan.json")), json.into_bytes()));
+    let stale = || {
+        svg_sets
+            .iter()
+            .flat_map(|(p, n)| stale_pages(p, FileKind::Svg, *n))
+            .collect()
+    };
+    write_set(&files, &stale, &[input], "--out")?;
+    for (p, _) in &files {
+        note(&format!("wrote {}", p.display()));
+    }
     Ok(())
 }

@@ -16,29 +16,24 @@ use super::Failure;
 /// Largest layout file read, bytes: a 10 000-coil record is about 600 kB.
 pub const MAX_LAYOUT_BYTES: u64 = 1024 * 1024;
 
-/// Temporary files not yet renamed into place, for the signal handler.
+/// Temporary files not yet renamed into place, for the signal handler. The writer holds
+/// this lock while it creates a temporary file and while it renames a set into place, so
+/// the handler (which takes the same lock, cleans up and exits holding it) never runs
+/// between the two halves of either step.
 static PENDING: Mutex<Vec<PathBuf>> = Mutex::new(Vec::new());
 
 /// Remove temporary files on SIGINT, SIGTERM and SIGHUP, then exit 130 as a shell does.
 pub fn clean_up_on_signals() {
     let _ = ctrlc::set_handler(|| {
-        if let Ok(list) = PENDING.lock() {
+        let guard = PENDING.lock();
+        if let Ok(list) = &guard {
             for p in list.iter() {
                 let _ = std::fs::remove_file(p);
             }
         }
+        // Exit with the lock held: no writer can create or rename another file now.
         std::process::exit(130);
     });
-}
-
-fn pending(path: &Path, add: bool) {
-    if let Ok(mut list) = PENDING.lock() {
-        if add {
-            list.push(path.to_path_buf());
-        } else {
-            list.retain(|p| p != path);
-        }
-    }
 }
 
 /// Read a layout file: at most [`MAX_LAYOUT_BYTES`] from any file, device or pipe (the
@@ -117,12 +112,27 @@ fn folder_of(path: &Path) -> PathBuf {
     }
 }
 
-/// Write `files` as one set: all of them or none. `stale` are pages of an earlier set under
-/// the same name that this set does not have; they are removed. `inputs` are never
-/// written over.
+/// Whether `path` is a page this tool wrote: an SVG sheet (its root carries our
+/// `data-made-by` mark) or a PNG with our `Software` text chunk. Only such pages are
+/// removed as stale; a file of the same name the user made is left alone.
+pub fn made_by_us(path: &Path) -> bool {
+    let mut head = Vec::new();
+    let Ok(f) = File::open(path) else {
+        return false;
+    };
+    if f.take(4096).read_to_end(&mut head).is_err() {
+        return false;
+    }
+    let mark = beltwright::draw::export::MARK.as_bytes();
+    head.windows(mark.len()).any(|w| w == mark)
+}
+
+/// Write `files` as one set: all of them or none. `stale` lists, under the folder's lock,
+/// the pages of an earlier, longer set under the same names; those this tool wrote are
+/// removed. `inputs` are never written over.
 pub fn write_set(
     files: &[(PathBuf, Vec<u8>)],
-    stale: &[PathBuf],
+    stale: &dyn Fn() -> Vec<PathBuf>,
     inputs: &[&Path],
     flag: &str,
 ) -> Result<(), Failure> {
@@ -148,31 +158,48 @@ pub fn write_set(
                     .map_or_else(String::new, |s| s.to_string_lossy().into_owned()),
                 std::process::id()
             ));
-            pending(&tmp, true);
+            // Create and register under the signal handler's lock.
+            let mut f = {
+                let mut list = PENDING
+                    .lock()
+                    .map_err(|_| Failure::output("the list of temporary files is poisoned"))?;
+                let f = OpenOptions::new()
+                    .write(true)
+                    .create_new(true)
+                    .open(&tmp)
+                    .map_err(|e| fail(path, e))?;
+                list.push(tmp.clone());
+                f
+            };
             temps.push(tmp.clone());
-            let mut f = OpenOptions::new()
-                .write(true)
-                .create_new(true)
-                .open(&tmp)
-                .map_err(|e| fail(path, e))?;
             f.write_all(bytes).map_err(|e| fail(path, e))?;
             f.sync_all().map_err(|e| fail(path, e))?;
         }
+        // Stale pages are listed only now, under the folder's lock.
+        let stale: Vec<PathBuf> = stale()
+            .into_iter()
+            .filter(|p| std::fs::metadata(p).is_ok_and(|m| m.is_file()) && made_by_us(p))
+            .collect();
+        // Rename the whole set with the signal handler held off.
+        let mut list = PENDING
+            .lock()
+            .map_err(|_| Failure::output("the list of temporary files is poisoned"))?;
         for ((path, _), tmp) in files.iter().zip(&temps) {
             std::fs::rename(tmp, path).map_err(|e| fail(path, e))?;
-            pending(tmp, false);
+            list.retain(|p| p != tmp);
         }
+        drop(list);
         for s in stale {
-            if std::fs::metadata(s).is_ok_and(|m| m.is_file()) {
-                let _ = std::fs::remove_file(s);
-            }
+            let _ = std::fs::remove_file(s);
         }
         Ok(())
     })();
-    if result.is_err() {
+    if result.is_err()
+        && let Ok(mut list) = PENDING.lock()
+    {
         for t in &temps {
             let _ = std::fs::remove_file(t);
-            pending(t, false);
+            list.retain(|p| p != t);
         }
     }
     let _ = lock.unlock();

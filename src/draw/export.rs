@@ -25,6 +25,9 @@ pub enum ExportError {
     /// PNG rendering failed.
     #[error("PNG rendering failed: {0}")]
     Png(String),
+    /// The PNG asked for is beyond a stated bound (pixels, or drawing work): bad input.
+    #[error("{0}")]
+    Bound(String),
 }
 
 /// Output file kinds, chosen from the file name's extension.
@@ -74,14 +77,56 @@ pub fn parse(svg: &str) -> Result<usvg::Tree, ExportError> {
     usvg::Tree::from_str(svg, &opt).map_err(|e| ExportError::Svg(e.to_string()))
 }
 
+/// The mark every sheet and PNG this tool writes carries (the SVG root's `data-made-by`,
+/// a PNG's `Comment` text chunk), so that only its own pages are ever removed as stale.
+pub const MARK: &str = "beltwright-sheet";
+
+/// Most pixels a PNG is made with: 40 million (an A3 sheet at 400 dpi is 31 million), about
+/// 160 MB of image in memory while it is drawn.
+pub const MAX_PNG_PIXELS: u64 = 40_000_000;
+
+/// Most drawn elements a set of PNG pages is rasterised from, all pages together: about
+/// 40 000 take 8 s on the 2-core build machine (dashed coil ends are the slow part); a
+/// denser set (a 5000-slot slot sheet has 290 000 over 20 pages) would take minutes, so it
+/// is refused and SVG or PDF, which keep it as vectors, are offered instead.
+pub const MAX_PNG_ELEMENTS: usize = 40_000;
+
+/// Refuse a PNG set beyond [`MAX_PNG_ELEMENTS`] before any page is rendered.
+pub fn check_png_work(pages: &[String]) -> Result<(), ExportError> {
+    let elements: usize = pages.iter().map(|p| p.matches('<').count()).sum();
+    if elements > MAX_PNG_ELEMENTS {
+        return Err(ExportError::Bound(format!(
+            "{} of about {elements} drawn elements in all are more than the \
+             {MAX_PNG_ELEMENTS} PNG pages are rendered from in reasonable time; write .svg or \
+             .pdf instead",
+            if pages.len() == 1 {
+                "one page".to_string()
+            } else {
+                format!("{} pages", pages.len())
+            }
+        )));
+    }
+    Ok(())
+}
+
 /// Render one sheet to PNG at `dpi` dots per inch (the sheet is drawn in millimetres).
 pub fn to_png(svg: &str, dpi: f64) -> Result<Vec<u8>, ExportError> {
+    check_png_work(std::slice::from_ref(&svg.to_string()))?;
     let tree = parse(svg)?;
     // usvg sizes a "mm" document at 96 user px per inch.
     let scale = (dpi / 96.0) as f32;
     let size = tree.size();
     let w = (size.width() * scale).ceil() as u32;
     let h = (size.height() * scale).ceil() as u32;
+    let pixels = u64::from(w) * u64::from(h);
+    if pixels > MAX_PNG_PIXELS {
+        let most = dpi * (MAX_PNG_PIXELS as f64 / pixels as f64).sqrt();
+        return Err(ExportError::Bound(format!(
+            "{w} x {h} pixels at {dpi} dpi is more than the {MAX_PNG_PIXELS} a PNG is made \
+             with; give --dpi {} or less, or write .svg or .pdf",
+            most.floor()
+        )));
+    }
     let mut pixmap = tiny_skia::Pixmap::new(w, h)
         .ok_or_else(|| ExportError::Png(format!("cannot make a {w} × {h} image")))?;
     pixmap.fill(tiny_skia::Color::WHITE);
@@ -90,9 +135,45 @@ pub fn to_png(svg: &str, dpi: f64) -> Result<Vec<u8>, ExportError> {
         tiny_skia::Transform::from_scale(scale, scale),
         &mut pixmap.as_mut(),
     );
-    pixmap
+    let png = pixmap
         .encode_png()
-        .map_err(|e| ExportError::Png(e.to_string()))
+        .map_err(|e| ExportError::Png(e.to_string()))?;
+    Ok(with_mark(png))
+}
+
+/// `png` with a `Comment` text chunk carrying [`MARK`], right after its header chunk
+/// (PNG specification, ISO/IEC 15948: tEXt chunk, CRC-32 over type and data).
+fn with_mark(png: Vec<u8>) -> Vec<u8> {
+    // Signature (8 bytes) and IHDR (4 length + 4 type + 13 data + 4 CRC).
+    const AFTER_IHDR: usize = 8 + 25;
+    if png.len() < AFTER_IHDR {
+        return png;
+    }
+    let mut data = b"Comment\0".to_vec();
+    data.extend_from_slice(MARK.as_bytes());
+    let mut chunk = Vec::with_capacity(data.len() + 12);
+    chunk.extend_from_slice(&(data.len() as u32).to_be_bytes());
+    let typed: Vec<u8> = b"tEXt".iter().chain(&data).copied().collect();
+    chunk.extend_from_slice(&typed);
+    chunk.extend_from_slice(&crc32(&typed).to_be_bytes());
+    let mut out = Vec::with_capacity(png.len() + chunk.len());
+    out.extend_from_slice(&png[..AFTER_IHDR]);
+    out.extend_from_slice(&chunk);
+    out.extend_from_slice(&png[AFTER_IHDR..]);
+    out
+}
+
+/// CRC-32 (ISO 3309, polynomial 0xEDB88320 reflected), as PNG chunks use.
+fn crc32(bytes: &[u8]) -> u32 {
+    let mut crc = 0xFFFF_FFFFu32;
+    for &b in bytes {
+        crc ^= u32::from(b);
+        for _ in 0..8 {
+            let mask = (crc & 1).wrapping_neg();
+            crc = (crc >> 1) ^ (0xEDB8_8320 & mask);
+        }
+    }
+    !crc
 }
 
 /// Convert sheets to one PDF, a page per sheet, text embedded as text.
@@ -221,4 +302,30 @@ pub fn page_names(path: &Path, range: std::ops::Range<usize>) -> Vec<std::path::
             }
         })
         .collect()
+}
+
+#[cfg(test)]
+mod mark_tests {
+    use super::*;
+
+    // CRC-32 check value of the ASCII digits "123456789" is 0xCBF43926 (the standard check
+    // value of this CRC, e.g. in the PNG specification's sample code and RFC 1952).
+    #[test]
+    fn crc32_check_value() {
+        assert_eq!(crc32(b"123456789"), 0xCBF4_3926);
+    }
+
+    // The marked PNG still decodes (the png crate checks every chunk's CRC) and carries
+    // the mark in its first bytes.
+    #[test]
+    fn marked_png_decodes() {
+        let svg = "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"10mm\" height=\"10mm\" \
+                   viewBox=\"0 0 10 10\"><rect width=\"10\" height=\"10\" fill=\"#000\"/></svg>";
+        let png = to_png(svg, 96.0).expect("renders");
+        assert!(png[..200].windows(MARK.len()).any(|w| w == MARK.as_bytes()));
+        let decoder = png::Decoder::new(std::io::Cursor::new(&png));
+        let mut reader = decoder.read_info().expect("header and chunks read");
+        let mut buf = vec![0; reader.output_buffer_size().expect("size")];
+        reader.next_frame(&mut buf).expect("image decodes");
+    }
 }

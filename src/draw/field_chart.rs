@@ -225,6 +225,7 @@ fn axis_titles(g: Group, (top, bottom, x_title_y): (f64, f64, f64), x: &str, y: 
 pub fn field_sheet(rep: &FieldReport, snaps: &[Snapshot]) -> String {
     let z = rep.slots as f64;
     let mut doc = Document::new()
+        .set("data-made-by", super::export::MARK)
         .set("viewBox", (0, 0, WIDTH as i64, HEIGHT as i64))
         .set("width", WIDTH)
         .set("height", HEIGHT)

@@ -112,6 +112,8 @@ impl Canvas {
             // Labelled for readers wherever it is shown, on its own or inside a page.
             .set("role", "img")
             .set("aria-label", super::text::clean(&block.document_title()))
+            // Marks the file as ours: only such pages are ever removed as stale.
+            .set("data-made-by", super::export::MARK)
             .add(svg::node::element::Title::new(super::text::clean(
                 &block.document_title(),
             )))

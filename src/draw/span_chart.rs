@@ -40,6 +40,7 @@ pub fn pitch_chart(r: &PitchReport) -> String {
         None => "Winding factor against span".into(),
     };
     let mut doc = Document::new()
+        .set("data-made-by", super::export::MARK)
         .set("viewBox", (0, 0, w, h))
         .set("width", w)
         .set("height", h)
