@@ -34,6 +34,25 @@ pub enum Assumption {
         /// The frequency taken, hertz, when either design gives one.
         hertz: Option<f64>,
     },
+    /// The goodness factor lies outside the range the circuit model stands for (about 1 to
+    /// 50): its figures are an extrapolation.
+    GoodnessOutOfRange {
+        /// The goodness factor G.
+        goodness: f64,
+    },
+    /// The magnetic gap is not small against the pole pitch (g_e/τ above 0.1): the
+    /// one-dimensional gap of the circuit overstates thrust and normal force.
+    GapLargeAgainstPitch {
+        /// g_e/τ.
+        ratio: f64,
+    },
+    /// The coil matrix is left out above this many coils (its size grows with the square).
+    CoilMatrixOmitted {
+        /// Coils of the winding.
+        coils: usize,
+        /// The largest count given a coil matrix.
+        limit: usize,
+    },
     /// The pole count changes in a rewind: the peak air-gap flux density is kept.
     PoleCountChanges {
         /// Poles before.

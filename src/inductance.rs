@@ -294,6 +294,12 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
         Some((i, p)) => (Some(i.iter().map(|x| x.norm()).collect()), p),
         None => (None, 0.0),
     };
+    if coil_matrix && w.coils.len() > MAX_COIL_MATRIX {
+        assumptions.push(crate::assumption::Assumption::CoilMatrixOmitted {
+            coils: w.coils.len(),
+            limit: MAX_COIL_MATRIX,
+        });
+    }
     let coil = (coil_matrix && w.coils.len() <= MAX_COIL_MATRIX).then(|| {
         let c = conductors(w, |i| i, w.coils.len());
         let g = gram(w, &c);

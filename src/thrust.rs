@@ -297,6 +297,13 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
     let x_slot = omega * l_slot;
     let x_end = omega * l_end;
     let x_diff = sigma * xm;
+    // The model's own range (see the module notes): say when the inputs leave it.
+    if !(1.0..=50.0).contains(&goodness) {
+        assumptions.push(Assumption::GoodnessOutOfRange { goodness });
+    }
+    if ge / tau > 0.1 {
+        assumptions.push(Assumption::GapLargeAgainstPitch { ratio: ge / tau });
+    }
     Ok(Model {
         circuit: Circuit {
             pole_pitch_m: tau,

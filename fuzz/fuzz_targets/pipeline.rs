@@ -1,5 +1,7 @@
-//! Layout → winding → every analysis → every presenter and sheet. Asserts that JSON parses
-//! back with every number finite, that every SVG is well-formed XML, and that nothing
+//! Layout → winding → every analysis → every presenter, sheet and the HTML page. Asserts
+//! that text and CSV never show NaN or infinity, that JSON parses back and validates
+//! against the command's schema (so `null`, which is how serde_json writes a NaN, fails
+//! wherever the schema says number), that every SVG is well-formed XML, and that nothing
 //! panics. Cores above 240 slots are skipped to keep each run short (their code paths are
 //! the same).
 #![no_main]
@@ -9,23 +11,123 @@ use beltwright::output::{Format, Report, render};
 use beltwright::{audit, card, factors, field, inductance, pitch, plan, thrust};
 use libfuzzer_sys::fuzz_target;
 
-fn finite(v: &serde_json::Value) -> bool {
+use serde_json::Value;
+
+fn finite(v: &Value) -> bool {
     match v {
-        serde_json::Value::Number(n) => n.as_f64().is_some_and(f64::is_finite),
-        serde_json::Value::Array(a) => a.iter().all(finite),
-        serde_json::Value::Object(o) => o.values().all(finite),
+        Value::Number(n) => n.as_f64().is_some_and(f64::is_finite),
+        Value::Array(a) => a.iter().all(finite),
+        Value::Object(o) => o.values().all(finite),
         _ => true,
     }
 }
 
-fn check<R: Report>(r: &R) {
+/// Whether the layout's own text (title, labels, shop data) could spell "NaN" or "inf", in
+/// which case the words are not searched for them (the JSON check still holds).
+static USER_SPELLS: std::sync::atomic::AtomicBool = std::sync::atomic::AtomicBool::new(false);
+
+fn check<R: Report>(cmd: &str, r: &R) {
     for f in [Format::Text, Format::Csv] {
-        render(r, f).expect("presents");
+        let s = render(r, f).expect("presents");
+        if !USER_SPELLS.load(std::sync::atomic::Ordering::Relaxed) {
+            for bad in ["NaN", " inf", "-inf"] {
+                assert!(!s.contains(bad), "{cmd}: {bad} in {s}");
+            }
+        }
     }
     let json = render(r, Format::Json).expect("presents");
-    let v: serde_json::Value = serde_json::from_str(&json).expect("JSON parses back");
+    let v: Value = serde_json::from_str(&json).expect("JSON parses back");
     assert!(finite(&v), "a number is not finite: {json}");
+    let schema = beltwright::output::schema::all()
+        .into_iter()
+        .find(|(c, _)| *c == cmd)
+        .map(|(_, s)| s)
+        .expect("schema");
+    if let Err(e) = schema_check(&v, &schema, &schema, cmd) {
+        panic!("{e}");
+    }
 }
+
+/// A small validator for what schemars writes: $ref into $defs, type (one or several),
+/// properties and required, items, anyOf/oneOf/allOf, enum and const. Extra properties are
+/// allowed (the contract may grow).
+pub fn schema_check(v: &Value, s: &Value, root: &Value, at: &str) -> Result<(), String> {
+    if let Some(r) = s.get("$ref").and_then(Value::as_str) {
+        let name = r.trim_start_matches("#/$defs/");
+        return schema_check(v, &root["$defs"][name], root, at);
+    }
+    if let Some(alts) = s
+        .get("anyOf")
+        .or_else(|| s.get("oneOf"))
+        .and_then(Value::as_array)
+        && !alts.iter().any(|a| schema_check(v, a, root, at).is_ok())
+    {
+        return Err(format!("{at}: matches no alternative: {v}"));
+    }
+    if let Some(all) = s.get("allOf").and_then(Value::as_array) {
+        for a in all {
+            schema_check(v, a, root, at)?;
+        }
+    }
+    if let Some(e) = s.get("enum").and_then(Value::as_array)
+        && !e.contains(v)
+    {
+        return Err(format!("{at}: {v} not in {e:?}"));
+    }
+    if let Some(c) = s.get("const")
+        && c != v
+    {
+        return Err(format!("{at}: {v} is not {c}"));
+    }
+    if let Some(t) = s.get("type") {
+        let types: Vec<&str> = match t {
+            Value::String(x) => vec![x.as_str()],
+            Value::Array(a) => a.iter().filter_map(Value::as_str).collect(),
+            _ => Vec::new(),
+        };
+        let ok = types.iter().any(|t| match *t {
+            "null" => v.is_null(),
+            "boolean" => v.is_boolean(),
+            "integer" => v.as_i64().is_some() || v.as_u64().is_some(),
+            "number" => v.is_number(),
+            "string" => v.is_string(),
+            "array" => v.is_array(),
+            "object" => v.is_object(),
+            _ => true,
+        });
+        if !ok {
+            return Err(format!("{at}: {v} is not of type {types:?}"));
+        }
+    }
+    if let (Some(obj), Some(props)) = (
+        v.as_object(),
+        s.get("properties").and_then(Value::as_object),
+    ) {
+        for (k, ps) in props {
+            if let Some(x) = obj.get(k) {
+                schema_check(x, ps, root, &format!("{at}.{k}"))?;
+            }
+        }
+        for r in s
+            .get("required")
+            .and_then(Value::as_array)
+            .into_iter()
+            .flatten()
+        {
+            let k = r.as_str().unwrap_or_default();
+            if !obj.contains_key(k) {
+                return Err(format!("{at}: required {k} missing"));
+            }
+        }
+    }
+    if let (Some(arr), Some(items)) = (v.as_array(), s.get("items")) {
+        for (i, x) in arr.iter().enumerate() {
+            schema_check(x, items, root, &format!("{at}[{i}]"))?;
+        }
+    }
+    Ok(())
+}
+
 
 fuzz_target!(|data: &[u8]| {
     let Ok(text) = std::str::from_utf8(data) else {
@@ -40,35 +142,54 @@ fuzz_target!(|data: &[u8]| {
     let Ok(w) = beltwright::winding::build_lenient(&spec) else {
         return;
     };
-    check(&audit::audit(&w, None));
-    check(&card::card(&w));
-    if let Ok(i) = inductance::inductance(&w, false) {
-        check(&i);
+    let user = format!(
+        "{:?}{:?}{:?}{:?}",
+        w.labels.title, w.design.phase_labels, w.design.nameplate, w.design.job
+    )
+    .to_lowercase();
+    USER_SPELLS.store(
+        user.contains("nan") || user.contains("inf"),
+        std::sync::atomic::Ordering::Relaxed,
+    );
+    check("audit", &audit::audit(&w, None));
+    check("card", &card::card(&w));
+    if let Ok(i) = inductance::inductance(&w, w.coils.len() <= 60) {
+        check("inductance", &i);
+    }
+    let html = beltwright::output::html::document(&w, None);
+    if !USER_SPELLS.load(std::sync::atomic::Ordering::Relaxed) {
+        assert!(!html.contains("NaN"), "NaN on the HTML page");
     }
     if beltwright::winding::build(&spec).is_err() {
         return;
     }
-    check(&plan::plan(&w, Default::default()));
-    check(&factors::factor_table(&w, 25.0));
+    check("plan", &plan::plan(&w, Default::default()));
+    check("factors", &factors::factor_table(&w, 25.0));
     if let Ok(f) = field::field(&w, &field::FieldOptions::balanced(&w)) {
-        check(&f);
+        check("field", &f);
     }
-    check(&pitch::compare(
+    check("pitch", &pitch::compare(
         &w,
         &pitch::PitchGoal {
             suppress: vec![5.0, 7.0],
             min_fundamental: 0.9,
         },
     ));
-    let q = thrust::ThrustQuery {
-        current_a: Some(5.0),
-        slip_from: -0.2,
-        slip_to: 1.2,
-        steps: 7,
-        end_effect: true,
-    };
-    if let Ok(t) = thrust::thrust(&w, &q) {
-        check(&t);
+    // Current-fed and voltage-fed, over the working range and at slips far too small for
+    // R2'/s to be formed directly.
+    for (from, to) in [(-0.2, 1.2), (1e-300, 1e-150)] {
+        for current_a in [Some(5.0), None] {
+            let q = thrust::ThrustQuery {
+                current_a,
+                slip_from: from,
+                slip_to: to,
+                steps: 7,
+                end_effect: true,
+            };
+            if let Ok(t) = thrust::thrust(&w, &q) {
+                check("thrust", &t);
+            }
+        }
     }
     for sheet in Sheet::ALL {
         for svg in draw::draw(&w, sheet, &Page::default()) {

@@ -193,10 +193,11 @@ fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {
                 .synchronous_speed_m_s
                 .filter(|v| *v > 0.0)
                 .ok_or_else(|| {
-                    Failure::input(
-                        "--speed needs the synchronous speed: give core.slot_pitch_mm and \
+                    Failure::input(format!(
+                        "{}: --speed needs the synchronous speed: give core.slot_pitch_mm and \
                          supply.frequency_hz",
-                    )
+                        a.common.file.display()
+                    ))
                 })?;
             // Rounding dust at synchronism and standstill would read as a tiny slip.
             let snap = |s: f64| {

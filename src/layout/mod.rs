@@ -101,6 +101,17 @@ fn syntax_message(source: &str, e: &toml::de::Error) -> String {
         .trim()
         .replace("expected i64", "expected a whole number")
         .replace("expected f64", "expected a number");
+    // A bare TOML date or time where a number or text belongs reads "invalid type: map"
+    // from the parser; say what it is.
+    let what = if what.starts_with("invalid type: map") {
+        what.replacen(
+            "invalid type: map",
+            "a table, or a date or time written bare",
+            1,
+        )
+    } else {
+        what
+    };
     // A table or key left out altogether has no line of its own: say which and where.
     if let Some(field) = what
         .strip_prefix("missing field `")

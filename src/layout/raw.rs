@@ -729,6 +729,16 @@ impl RawLayout {
         // One turn is assumed where neither the winding nor every listed coil gives turns.
         d.turns_assumed = w.turns_per_coil.is_none()
             && (self.coil.is_empty() || self.coil.iter().any(|c| c.turns.is_none()));
+        if w.phase_resistance_ohm.is_some() && self.wire.is_some() {
+            return Err(c.err(
+                "winding",
+                0,
+                "phase_resistance_ohm",
+                "give the resistance once: winding.phase_resistance_ohm (when the wire is not \
+                 known) or the [wire] table it is worked out from, not both"
+                    .into(),
+            ));
+        }
         d.phase_resistance_ohm = c.within(
             "winding",
             "phase_resistance_ohm",

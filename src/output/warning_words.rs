@@ -241,6 +241,23 @@ impl fmt::Display for Assumption {
             Assumption::FrequencyShared { hertz: None } => {
                 f.write_str("no frequency given: the same frequency assumed for both")
             }
+            Assumption::GoodnessOutOfRange { goodness } => write!(
+                f,
+                "goodness factor {} is outside the range of about 1 to 50 the circuit model \
+                 stands for: its thrust and speed figures are an extrapolation",
+                num(*goodness, 3)
+            ),
+            Assumption::GapLargeAgainstPitch { ratio } => write!(
+                f,
+                "the magnetic gap is {} of the pole pitch, not small against it (above 0.1): \
+                 the one-dimensional gap overstates thrust and normal force",
+                num(*ratio, 3)
+            ),
+            Assumption::CoilMatrixOmitted { coils, limit } => write!(
+                f,
+                "the coil matrix is given up to {limit} coils; this winding has {coils}, so \
+                 only the phase matrix is given"
+            ),
             Assumption::PoleCountChanges { from, to } => write!(
                 f,
                 "pole count changes from {from} to {to}: the peak air-gap flux density is kept, \
