@@ -149,6 +149,22 @@ pub fn num(x: f64, digits: usize) -> String {
     if s == "-0" { "0".into() } else { s }
 }
 
+/// `x` to `figures` significant figures, trailing zeros kept, so a column of one kind of
+/// figure reads alike (0.2996, 0.1997, 1.031, 12.34).
+pub fn sig(x: f64, figures: usize) -> String {
+    if x == 0.0 || !x.is_finite() {
+        return num(x, 0);
+    }
+    let magnitude = x.abs().log10().floor() as i64;
+    let decimals = (figures as i64 - 1 - magnitude).max(0) as usize;
+    let s = format!("{x:.decimals$}");
+    if s.starts_with("-0") && s.trim_start_matches(['-', '0', '.']).is_empty() {
+        s.trim_start_matches('-').to_string()
+    } else {
+        s
+    }
+}
+
 /// A number as a message shows it: plain when it is of ordinary size, in short scientific
 /// form (`1.8e308`, `5e-324`) when it would need many digits, so no message prints a
 /// 309-digit number.
@@ -177,6 +193,21 @@ pub fn noun_for(counts: &[usize], one: &'static str, many: &'static str) -> &'st
         one
     } else {
         many
+    }
+}
+
+#[cfg(test)]
+mod sig_tests {
+    use super::sig;
+
+    // Four significant figures, zeros kept (arithmetic).
+    #[test]
+    fn significant_figures_keep_their_zeros() {
+        assert_eq!(sig(0.19970, 4), "0.1997");
+        assert_eq!(sig(0.2, 4), "0.2000");
+        assert_eq!(sig(8.25, 4), "8.250");
+        assert_eq!(sig(1234.5, 4), "1234");
+        assert_eq!(sig(0.000123456, 4), "0.0001235");
     }
 }
 

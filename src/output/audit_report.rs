@@ -4,6 +4,7 @@ use super::reports::{ranges, wrap};
 use super::{Align, Report, Section, Table, num};
 use crate::audit::{AuditReport, Sequence};
 use crate::card::measured::Taken;
+use crate::numbering::sig;
 use crate::rewind::{DesignSide, RewindReport};
 use itertools::Itertools;
 
@@ -108,8 +109,8 @@ impl Report for AuditReport {
                 for (k, pair) in ["1-2", "2-3", "3-1"].iter().enumerate() {
                     t.push(vec![
                         pair.to_string(),
-                        num(m[k], 5),
-                        r.expected_ohm.map_or("-".into(), |e| num(e[k], 5)),
+                        sig(m[k], 4),
+                        r.expected_ohm.map_or("-".into(), |e| sig(e[k], 4)),
                         num((m[k] / mean - 1.0) * 100.0, 2),
                     ]);
                 }
@@ -137,8 +138,8 @@ impl Report for AuditReport {
                     j.phase.clone(),
                     j.section.to_string(),
                     j.between.clone(),
-                    num(j.measured_20c_ohm, 5),
-                    j.expected_20c_ohm.map_or("-".into(), |e| num(e, 5)),
+                    sig(j.measured_20c_ohm, 4),
+                    j.expected_20c_ohm.map_or("-".into(), |e| sig(e, 4)),
                     format!("{:+.2}", j.deviation_percent),
                     if j.within_tolerance { "ok" } else { "OUTSIDE" }.into(),
                 ]);

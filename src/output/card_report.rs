@@ -109,13 +109,7 @@ pub fn job_lines(j: &crate::design::Job) -> Vec<String> {
 
 /// Significant figures for resistances, which span micro-ohms to kilo-ohms.
 fn ohms(r: f64) -> String {
-    if r >= 100.0 {
-        num(r, 1)
-    } else if r >= 1.0 {
-        num(r, 3)
-    } else {
-        num(r, 5)
-    }
+    crate::numbering::sig(r, 4)
 }
 
 impl Report for DataCard {
