@@ -25,7 +25,20 @@ fn emit(printed: Printed) -> Result<(), std::io::Error> {
 }
 
 fn main() -> ExitCode {
-    let cli = Cli::parse();
+    // Usage errors are printed through `note`, cleaned like every other message, so an
+    // argument holding control characters never reaches the terminal raw; help and version
+    // are printed as clap prints them.
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        Err(e) if !e.use_stderr() => {
+            let _ = e.print();
+            return ExitCode::SUCCESS;
+        }
+        Err(e) => {
+            note(e.render().to_string().trim_end());
+            return ExitCode::from(2);
+        }
+    };
     files::clean_up_on_signals();
     let (out, failure) = match run(cli) {
         Ok(out) => (Some(out), None),

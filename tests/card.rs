@@ -219,3 +219,35 @@ fn dual_voltage_leads_need_two_paths() {
         "{e}"
     );
 }
+
+// Formers by the mean-turn rule with the span width between the coil sides' centres at
+// mid-slot (hand calculation): 36 slots, bore 120 mm, slots 8 mm wide and 20 mm deep, so
+// the mid-slot pitch is π·140/36 = 12.2173 mm and span 8 gives W = 97.738 mm; stack 100 mm,
+// k_e = 1.2, l_a = 100 mm: mean turn 2·100 + 2·1.2·97.738 + 100 = 534.572 mm; each straight
+// side 100 + 2·25 = 150 mm; each end W/2·√(1.2² − 1) = 32.416 mm beyond a 25 mm extension,
+// 57.416 mm out from the core.
+#[test]
+fn formers_follow_the_mean_turn_rule_at_mid_slot() {
+    let w = wind(
+        "[machine]\ntopology = \"rotary\"\nslots = 36\npoles = 4\n\
+         [winding]\nlayers = 2\npitch = 8\nturns_per_coil = 10\n\
+         [core]\nbore_mm = 120.0\nstack_mm = 100.0\nslot_width_mm = 8.0\nslot_depth_mm = 20.0\n",
+    );
+    let c = card::card(&w);
+    assert_eq!(c.formers.len(), 1);
+    let f = &c.formers[0];
+    let pitch = std::f64::consts::PI * 140.0 / 36.0;
+    assert!((f.span_width_mm - 8.0 * pitch).abs() < 1e-9);
+    assert!(
+        (f.mean_turn_mm - 534.572).abs() < 1e-3,
+        "{}",
+        f.mean_turn_mm
+    );
+    assert!((f.straight_mm - 150.0).abs() < 1e-9);
+    assert!(
+        (f.end_extension_mm - 57.416).abs() < 1e-3,
+        "{}",
+        f.end_extension_mm
+    );
+    assert!((c.mean_turn_mm.expect("mean turn") - f.mean_turn_mm).abs() < 1e-9);
+}

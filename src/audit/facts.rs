@@ -67,6 +67,9 @@ pub enum Fact {
     ReversedPhase {
         /// The phase.
         phase: String,
+        /// Its start and finish leads as marked on this winding (IEC or NEMA; a finish
+        /// joined inside is marked "(inside)").
+        leads: [String; 2],
     },
     /// Two phases' leads exchanged.
     LeadsSwapped {
@@ -74,6 +77,10 @@ pub enum Fact {
         a: String,
         /// The other.
         b: String,
+        /// The start and finish leads of `a` as marked on this winding.
+        a_leads: [String; 2],
+        /// The start and finish leads of `b`.
+        b_leads: [String; 2],
     },
     /// Two coils laid into each other's phase.
     CoilsSwapped {

@@ -392,6 +392,7 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             phases: vec![label(*phase)],
             detail: Fact::ReversedPhase {
                 phase: label(*phase),
+                leads: phase_leads(w, *phase),
             },
         },
         Edit::SwapPhases { a, b } => Finding {
@@ -405,8 +406,26 @@ fn finding_for(w: &Winding, e: &Edit) -> Finding {
             detail: Fact::LeadsSwapped {
                 a: label(*a),
                 b: label(*b),
+                a_leads: phase_leads(w, *a),
+                b_leads: phase_leads(w, *b),
             },
         },
+    }
+}
+
+/// The start and finish leads of phase `k`'s first section as this winding marks them:
+/// IEC 60034-8 or NEMA MG 1 on a three-phase winding (a finish joined inside the machine
+/// marked so), else the phase label with 1 and 2.
+fn phase_leads(w: &Winding, k: usize) -> [String; 2] {
+    if w.geometry.phases == 3 {
+        let name = |finish: bool| {
+            let (n, inside) = crate::card::leads::section_lead(w.design.leads, k, 0, finish);
+            if inside { format!("{n} (inside)") } else { n }
+        };
+        [name(false), name(true)]
+    } else {
+        let l = w.label(k);
+        [format!("{l}1"), format!("{l}2")]
     }
 }
 

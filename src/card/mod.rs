@@ -100,7 +100,8 @@ pub struct Former {
     pub span: String,
     /// Coils of this shape.
     pub coils: usize,
-    /// Span width W, centre to centre of the coil sides at the bore, mm.
+    /// Span width W, centre to centre of the coil sides (at mid-slot when the slot depth
+    /// is known), mm.
     pub span_width_mm: f64,
     /// Straight length of each coil side, mm.
     pub straight_mm: f64,
@@ -261,8 +262,27 @@ pub fn mean_turn_m(w: &Winding, span_slots: f64) -> Option<f64> {
         return Some(l);
     }
     let stack = w.design.core.stack_m?;
-    let pitch = w.slot_pitch_m()?;
+    let pitch = span_pitch_m(w)?;
     Some(2.0 * stack + 2.0 * rule.end_factor * span_slots * pitch + rule.end_allowance_m)
+}
+
+/// The slot pitch the span width W is measured with: between the coil sides' centres, at
+/// mid-slot — on a rotary core with its bore and slot depth given, π·(D + h)/Z; otherwise
+/// the slot pitch at the gap (a flat primary's sides lie on a straight line; without the
+/// depth the bore's pitch is all there is).
+pub fn span_pitch_m(w: &Winding) -> Option<f64> {
+    let at_gap = w.slot_pitch_m()?;
+    match (
+        w.geometry.topology,
+        w.design.core.bore_m,
+        w.design.core.slot_pitch_m,
+        w.design.slot_size_m,
+    ) {
+        (crate::winding::Topology::Rotary, Some(d), None, Some((_, h))) => {
+            Some(std::f64::consts::PI * (d + h) / w.geometry.slots as f64)
+        }
+        _ => Some(at_gap),
+    }
 }
 
 /// Resistances at 20 °C of every path of every phase: `r[phase][path]`, ohms. From the wire
@@ -620,7 +640,7 @@ pub fn card(w: &Winding) -> DataCard {
 pub fn formers(w: &Winding) -> Vec<Former> {
     let rule = &w.design.turn;
     let (None, Some(stack), Some(pitch)) =
-        (rule.mean_turn_m, w.design.core.stack_m, w.slot_pitch_m())
+        (rule.mean_turn_m, w.design.core.stack_m, span_pitch_m(w))
     else {
         return Vec::new();
     };

@@ -345,9 +345,11 @@ fn survey(a: SurveyArgs) -> Result<Printed, Failure> {
     let (lo, hi) = (*a.slots.start(), *a.slots.end());
     let (plo, phi) = (*a.poles.start(), *a.poles.end());
     let combos = (hi - lo + 1) * (phi - plo + 1) * a.layers.len();
-    if combos > 2_000_000 {
+    if combos > survey::MAX_COMBINATIONS {
         return Err(Failure::input(format!(
-            "{combos} combinations is too many for one survey; narrow --slots or --poles"
+            "{combos} combinations is too many for one survey (at most {}, which keeps it \
+             below 300 MB); narrow --slots or --poles, or survey the range in parts",
+            survey::MAX_COMBINATIONS
         )));
     }
     // Rows the star-of-slots kernel cannot score (single layer, flat primaries) are planned

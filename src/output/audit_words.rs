@@ -114,15 +114,22 @@ pub fn words(f: &Fact) -> String {
                 String::new()
             }
         ),
-        Fact::ReversedPhase { phase: l } => format!(
+        Fact::ReversedPhase { phase: l, leads } => format!(
             "phase {l} is wound or connected backwards (its EMF is 180° from where it \
-             belongs): swap its leads {l}1 and {l}2"
+             belongs): swap its leads {} and {}",
+            leads[0], leads[1]
         ),
-        Fact::LeadsSwapped { a, b } => format!(
+        Fact::LeadsSwapped {
+            a,
+            b,
+            a_leads,
+            b_leads,
+        } => format!(
             "the leads of phases {a} and {b} are exchanged, so the phase sequence is reversed \
              and the field runs the other way: exchanging any two supply leads reverses it \
-             again, and exchanging {a}1 with {b}1 and {a}2 with {b}2 restores the recorded \
-             phase order as well"
+             again, and exchanging {} with {} and {} with {} restores the recorded phase \
+             order as well",
+            a_leads[0], b_leads[0], a_leads[1], b_leads[1]
         ),
         Fact::CoilsSwapped {
             a,

@@ -252,7 +252,8 @@ impl Report for DataCard {
         )));
         if !self.formers.is_empty() {
             s.push(Section::Heading(
-                "Formers (by the mean-turn rule; span width at the bore)".into(),
+                "Formers (by the mean-turn rule; span width between the coil sides' centres)"
+                    .into(),
             ));
             let mut t = Table::new(&[
                 ("span", Align::Left),
@@ -524,7 +525,8 @@ impl std::fmt::Display for crate::card::MeanTurnRule {
                 end_allowance_mm,
             } => write!(
                 f,
-                "2 x stack + 2 x {} x span width + {} mm (span width at the bore)",
+                "2 x stack + 2 x {} x span width + {} mm (span width between the coil sides' \
+                 centres: at mid-slot when the slot depth is given, else at the bore)",
                 num(*end_factor, 3),
                 num(*end_allowance_mm, 1)
             ),

@@ -132,6 +132,11 @@ pub enum SortKey {
     Cogging,
 }
 
+/// Most slot/pole/layer combinations one survey takes: 150 000. Every row is kept for
+/// sorting and its text table set whole, about 1.8 kB a row at the peak, so this keeps a
+/// survey below 300 MB in every format (measured: README, Bounds).
+pub const MAX_COMBINATIONS: usize = 150_000;
+
 /// Run the survey; `tick` is called once per finished combination (for a progress bar).
 pub fn survey(query: &SurveyQuery, tick: &(dyn Fn() + Sync)) -> SurveyReport {
     let combos = combinations(query);
