@@ -345,6 +345,7 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
                     let s = phases_from_lines([v[3], v[4], v[5]], Connection::Star);
                     vals[3..6].copy_from_slice(&s);
                 }
+                let star9 = w.design.leads.count == 9 && w.design.connection == Connection::Star;
                 let names: Vec<(String, usize, String)> = (0..vals.len())
                     .map(|i| {
                         let (p, sec) = (i % 3, i / 3);
@@ -352,6 +353,14 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
                             .as_ref()
                             .and_then(|f| f.get(i))
                             .map_or_else(|| labels(p), |f| f.between.clone());
+                        // A nine-lead star's second section is worked out from the three
+                        // pair readings, not read across one pair: say so.
+                        let between = if star9 && sec == 1 {
+                            let (a, _) = section_lead(w.design.leads, p, 1, false);
+                            format!("{a}, from the three pair readings")
+                        } else {
+                            between
+                        };
                         (labels(p), sec + 1, between)
                     })
                     .collect();

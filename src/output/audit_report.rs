@@ -117,7 +117,7 @@ impl Report for AuditReport {
                 s.push(Section::Table(t));
             }
             s.push(Section::Lines(vec![format!(
-                "{} at 20 C, each against the others (tolerance +/-{}%):",
+                "{} at 20 C, each against the median of its kind (tolerance +/-{}%):",
                 match r.taken {
                     Taken::LineToLine => "Phase resistances worked back from the readings",
                     Taken::Sections => "Section resistances as read across their leads",
@@ -130,7 +130,7 @@ impl Report for AuditReport {
                 ("measured across", Align::Left),
                 ("ohm at 20 C", Align::Right),
                 ("card ohm", Align::Right),
-                ("against others %", Align::Right),
+                ("against median %", Align::Right),
                 ("verdict", Align::Left),
             ]);
             for j in &r.judged {

@@ -321,7 +321,7 @@ pub fn words(f: &Fact) -> String {
                 .iter()
                 .map(|j| {
                     format!(
-                        "{} {} ohm at 20 C, {:+.1}% against the others",
+                        "{} {} ohm at 20 C, {:+.1}% against the median of its kind",
                         if j.between == j.phase {
                             format!("phase {}", j.phase)
                         } else {

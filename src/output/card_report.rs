@@ -412,7 +412,7 @@ impl Report for DataCard {
                 ("across", Align::Left),
                 ("ohm at 20 C", Align::Right),
                 ("card ohm", Align::Right),
-                ("against others %", Align::Right),
+                ("against median %", Align::Right),
             ]);
             for j in &m.judged {
                 t.push(vec![
