@@ -108,15 +108,18 @@ impl Suggestion {
     pub fn message(&self) -> String {
         let pct = |r: f64| format!("{:+.1}%", (r - 1.0) * 100.0);
         // A phase is named by its label, a section by its leads ("T1-T4").
+        // A section is named by its leads ("T1-T4", or "T8, from the three pair readings");
+        // a phase by its label, which holds neither a hyphen nor a comma.
+        let is_section = |name: &str| name.contains('-') || name.contains(',');
         let what = |name: &str| {
-            if name.contains('-') {
+            if is_section(name) {
                 "section"
             } else {
                 "phase"
             }
         };
         let who = |name: &str| {
-            if name.contains('-') {
+            if is_section(name) {
                 format!("section {name}")
             } else {
                 format!("phase {name}")
