@@ -112,11 +112,7 @@ impl Suggestion {
         // a phase by its label, which holds neither a hyphen nor a comma.
         let is_section = |name: &str| name.contains('-') || name.contains(',');
         let what = |name: &str| {
-            if is_section(name) {
-                "section"
-            } else {
-                "phase"
-            }
+            if is_section(name) { "section" } else { "phase" }
         };
         let who = |name: &str| {
             if is_section(name) {
