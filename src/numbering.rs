@@ -155,8 +155,15 @@ pub fn sig(x: f64, figures: usize) -> String {
     if x == 0.0 || !x.is_finite() {
         return num(x, 0);
     }
-    let magnitude = x.abs().log10().floor() as i64;
-    let decimals = (figures as i64 - 1 - magnitude).max(0) as usize;
+    let mut magnitude = x.abs().log10().floor() as i64;
+    let decimals_for = |m: i64| (figures as i64 - 1 - m).max(0) as usize;
+    // Rounding may carry into a new digit (9.99996 to 4 figures is 10.00): count again.
+    let d = decimals_for(magnitude);
+    let rounded: f64 = format!("{x:.d$}").parse().unwrap_or(x);
+    if rounded != 0.0 && rounded.abs().log10().floor() as i64 > magnitude {
+        magnitude += 1;
+    }
+    let decimals = decimals_for(magnitude);
     let s = format!("{x:.decimals$}");
     if s.starts_with("-0") && s.trim_start_matches(['-', '0', '.']).is_empty() {
         s.trim_start_matches('-').to_string()
@@ -208,6 +215,7 @@ mod sig_tests {
         assert_eq!(sig(8.25, 4), "8.250");
         assert_eq!(sig(1234.5, 4), "1234");
         assert_eq!(sig(0.000123456, 4), "0.0001235");
+        assert_eq!(sig(9.99996, 4), "10.00");
     }
 }
 

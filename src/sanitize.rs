@@ -34,6 +34,15 @@ pub fn invisible(c: char) -> bool {
         || (0xFE00..=0xFE0F).contains(&u)
         || (0xFFF9..=0xFFFB).contains(&u)
         || (0xE0000..=0xE0FFF).contains(&u)
+        // Combining marks (a label "U" + U+0308 prints as "Ü", like U+00DC) and the
+        // blank fillers (Hangul fillers, braille blank, Mongolian variation selectors).
+        || (0x0300..=0x036F).contains(&u)
+        || (0x1AB0..=0x1AFF).contains(&u)
+        || (0x1DC0..=0x1DFF).contains(&u)
+        || (0x20D0..=0x20FF).contains(&u)
+        || (0xFE20..=0xFE2F).contains(&u)
+        || matches!(u, 0x115F | 0x1160 | 0x3164 | 0xFFA0 | 0x2800)
+        || (0x180B..=0x180D).contains(&u)
 }
 
 /// `s` with every unsafe character replaced by a space (bidirectional controls removed),

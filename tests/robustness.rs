@@ -137,8 +137,9 @@ fn a_page_set_replaces_the_pages_of_an_earlier_longer_set() {
         std::fs::write(
             dir.path().join(format!("card-{k}.svg")),
             format!(
-                "<svg data-made-by=\"{}\">old</svg>",
-                beltwright::draw::export::MARK
+                "<svg data-made-by=\"{}\" {}>old</svg>",
+                beltwright::draw::export::MARK,
+                beltwright::draw::export::set_mark("card.svg")
             ),
         )
         .expect("write");

@@ -110,16 +110,30 @@ fn only_our_own_stale_pages_are_removed() {
         );
     };
     run(&big);
+    let page2 = dir.path().join("sheet-2.svg");
     let page3 = dir.path().join("sheet-3.svg");
     assert!(page3.exists(), "the big winding's schedule runs over pages");
-    let mine = dir.path().join("sheet-40.svg");
-    std::fs::write(&mine, "<svg xmlns=\"http://www.w3.org/2000/svg\"/>").expect("user file");
+    // The user's own file in place of page 2: the run of pages still reaches page 3.
+    std::fs::write(&page2, "<svg xmlns=\"http://www.w3.org/2000/svg\"/>").expect("user file");
     run(&small);
     assert!(!page3.exists(), "our own stale page is removed");
-    assert!(mine.exists(), "the user's file is left alone");
+    assert!(page2.exists(), "the user's file is left alone");
+    // A single-page set drawn as other-2.svg is its own set, not page 2 of other.svg.
+    let other = dir.path().join("other-2.svg");
+    for target in [&other, &dir.path().join("other.svg")] {
+        let st = Command::new(bin())
+            .args(["draw"])
+            .arg(&small)
+            .args(["--sheet", "star", "-o"])
+            .arg(target)
+            .output()
+            .expect("runs");
+        assert!(st.status.success());
+    }
+    assert!(other.exists(), "a page of another set is left alone");
 }
 
-// SIGINT, SIGTERM and SIGHUP at random moments of writing a 29-page set: afterwards no
+// SIGINT, SIGTERM and SIGHUP, 100 each, at moments spread over a 29-page write: afterwards no
 // temporary file is left in the folder, whatever the moment (the handler and the writer
 // share one lock).
 #[test]
@@ -127,18 +141,21 @@ fn no_temporary_file_survives_a_signal() {
     let dir = tempfile::tempdir().expect("dir");
     let big = layout(dir.path(), "big", 3600, 40, 80);
     // How long one whole run takes here, to spread the signals over it.
+    std::fs::create_dir_all(dir.path().join("probe")).expect("dir");
     let start = std::time::Instant::now();
     let st = Command::new(bin())
         .args(["draw"])
         .arg(&big)
         .args(["--sheet", "connections", "-o"])
         .arg(dir.path().join("probe/c.svg"))
-        .output();
-    let _ = st;
+        .output()
+        .expect("runs");
+    assert!(st.status.success(), "the probe run writes its set");
     let whole = start.elapsed().as_micros().max(1000) as u64;
+    let mut interrupted = 0;
     let mut seed = 0x9E37_79B9_7F4A_7C15u64;
     for signal in ["INT", "TERM", "HUP"] {
-        for run in 0..30 {
+        for run in 0..100 {
             let out = dir.path().join(format!("{signal}-{run}"));
             std::fs::create_dir_all(&out).expect("dir");
             let mut child = Command::new(bin())
@@ -159,7 +176,11 @@ fn no_temporary_file_survives_a_signal() {
                 .arg(format!("-{signal}"))
                 .arg(child.id().to_string())
                 .status();
-            let _ = child.wait();
+            if let Ok(st) = child.wait()
+                && !st.success()
+            {
+                interrupted += 1;
+            }
             assert!(
                 temps(&out).is_empty(),
                 "SIG{signal} run {run}: left {:?}",
@@ -167,6 +188,11 @@ fn no_temporary_file_survives_a_signal() {
             );
         }
     }
+    // The signals did land while the tool was working, not only after it had finished.
+    assert!(
+        interrupted >= 60,
+        "only {interrupted} of 300 runs were interrupted"
+    );
 }
 
 // `report --intended` is checked as `audit --intended` is: never written over, and only

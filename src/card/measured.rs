@@ -465,19 +465,25 @@ pub fn check(w: &Winding) -> Option<ResistanceCheck> {
 /// other two phases' readings add up to the third, so the star arm opposite is zero), or
 /// readings that break the triangle rule of resistor networks (an arm below zero).
 fn impossible(w: &Winding, m: [f64; 3]) -> Option<Suggestion> {
-    let mean = (m[0] + m[1] + m[2]) / 3.0;
+    // Measured against the smallest reading: an open phase's overload reading must not
+    // make a real arm look like zero.
+    let least = m.iter().copied().fold(f64::INFINITY, f64::min);
     let arms = [0, 1, 2].map(|k| (m[k] + m[(k + 2) % 3] - m[(k + 1) % 3]) / 2.0);
-    // Within 1 % of the readings' mean counts as zero (meter and contact spread).
     let (k, arm) = arms
         .iter()
         .copied()
         .enumerate()
         .min_by(|a, b| a.1.total_cmp(&b.1))?;
-    if arm > 0.01 * mean {
+    // Within 1 % of the smallest reading counts as zero (meter and contact spread).
+    if arm > 0.01 * least {
         return None;
     }
-    if arm < -0.01 * mean || w.design.connection == Connection::Star {
+    if arm < -0.01 * least {
         return Some(Suggestion::Inconsistent);
+    }
+    if w.design.connection == Connection::Star {
+        // A star arm at zero is a phase of no resistance (shorted through): judged below.
+        return None;
     }
     // Delta phase j lies opposite star terminal j + 2: the arm at terminal k belongs to
     // phase k + 1 (mod 3).

@@ -312,10 +312,15 @@ pub fn phase_resistances_20c(w: &Winding) -> Option<Vec<f64>> {
     path_resistances(w)?.iter().map(|p| parallel(p)).collect()
 }
 
-/// Parallel combination of a phase's paths (a path with no coils is left out); `None` when
-/// no path has coils.
+/// Parallel combination of a phase's paths; `None` when any path has no coils: a record
+/// whose coils leave a path empty (often one written without `path` keys) has no
+/// resistance worth printing, since leaving the path out would give a figure a times too
+/// high and condemn a sound winding.
 fn parallel(paths: &[f64]) -> Option<f64> {
-    let g: f64 = paths.iter().filter(|r| **r > 0.0).map(|r| 1.0 / r).sum();
+    if paths.iter().any(|r| !(r.is_finite() && *r > 0.0)) {
+        return None;
+    }
+    let g: f64 = paths.iter().map(|r| 1.0 / r).sum();
     (g > 0.0 && g.is_finite()).then(|| 1.0 / g)
 }
 

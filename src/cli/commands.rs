@@ -468,16 +468,24 @@ fn write_sheet(
     Ok(files.into_iter().map(|(n, _)| n).collect())
 }
 
-/// Pages of an earlier, longer set under this name (NAME-k.ext beyond this set's last `n`);
-/// the writer removes only those it finds it wrote.
-fn stale_pages(path: &Path, kind: FileKind, n: usize) -> Vec<PathBuf> {
+/// Pages of an earlier, longer set under this name (NAME-k.ext beyond this set's last `n`),
+/// each with the set it must name to be removed (the file name of page 1).
+fn stale_pages(path: &Path, kind: FileKind, n: usize) -> Vec<(PathBuf, String)> {
+    let set = set_name(path);
     match kind {
         FileKind::Pdf => Vec::new(),
         _ => draw::export::page_names(path, n..n + 4096)
             .into_iter()
             .take_while(|p| p.exists())
+            .map(|p| (p, set.clone()))
             .collect(),
     }
+}
+
+/// The name a set of pages is marked with: the file name of its first page.
+fn set_name(path: &Path) -> String {
+    path.file_name()
+        .map_or_else(String::new, |n| n.to_string_lossy().into_owned())
 }
 
 /// The files of one sheet: a PDF of every page, or an SVG or PNG per page.
@@ -501,11 +509,14 @@ fn sheet_files(
         )],
         FileKind::Svg | FileKind::Png => {
             let names = draw::export::page_paths(path, pages.len());
+            let set = set_name(path);
             let mut v = Vec::with_capacity(pages.len());
             for (name, svg) in names.into_iter().zip(pages) {
+                // Every page names its set, so only this set's own pages are ever stale.
+                let svg = draw::export::with_set(svg, &set);
                 let bytes = match kind {
-                    FileKind::Png => draw::export::to_png(svg, dpi).map_err(export)?,
-                    _ => svg.clone().into_bytes(),
+                    FileKind::Png => draw::export::to_png(&svg, dpi).map_err(export)?,
+                    _ => svg.into_bytes(),
                 };
                 v.push((name, bytes));
             }
@@ -551,7 +562,7 @@ fn write_pack(
     report: &plan::PlanReport,
 ) -> Result<(), Failure> {
     std::fs::create_dir_all(dir).map_err(|e| {
-        Failure::input(format!(
+        Failure::output(format!(
             "--out {}: cannot make the folder: {e}",
             dir.display()
         ))

@@ -25,11 +25,11 @@ static PENDING: Mutex<Vec<PathBuf>> = Mutex::new(Vec::new());
 /// Remove temporary files on SIGINT, SIGTERM and SIGHUP, then exit 130 as a shell does.
 pub fn clean_up_on_signals() {
     let _ = ctrlc::set_handler(|| {
-        let guard = PENDING.lock();
-        if let Ok(list) = &guard {
-            for p in list.iter() {
-                let _ = std::fs::remove_file(p);
-            }
+        let list = PENDING
+            .lock()
+            .unwrap_or_else(std::sync::PoisonError::into_inner);
+        for p in list.iter() {
+            let _ = std::fs::remove_file(p);
         }
         // Exit with the lock held: no writer can create or rename another file now.
         std::process::exit(130);
@@ -112,10 +112,11 @@ fn folder_of(path: &Path) -> PathBuf {
     }
 }
 
-/// Whether `path` is a page this tool wrote: an SVG sheet (its root carries our
-/// `data-made-by` mark) or a PNG with our `Software` text chunk. Only such pages are
-/// removed as stale; a file of the same name the user made is left alone.
-pub fn made_by_us(path: &Path) -> bool {
+/// Whether `path` is a page this tool wrote as part of the set `set` (the file name of the
+/// set's first page): an SVG sheet whose root, or a PNG whose `Comment` text chunk, names
+/// that set. Only such pages are removed as stale; a file of the same name the user made,
+/// or a page of another set, is left alone.
+pub fn made_for(path: &Path, set: &str) -> bool {
     let mut head = Vec::new();
     let Ok(f) = File::open(path) else {
         return false;
@@ -123,7 +124,8 @@ pub fn made_by_us(path: &Path) -> bool {
     if f.take(4096).read_to_end(&mut head).is_err() {
         return false;
     }
-    let mark = beltwright::draw::export::MARK.as_bytes();
+    let mark = beltwright::draw::export::set_mark(set);
+    let mark = mark.as_bytes();
     head.windows(mark.len()).any(|w| w == mark)
 }
 
@@ -132,7 +134,7 @@ pub fn made_by_us(path: &Path) -> bool {
 /// removed. `inputs` are never written over.
 pub fn write_set(
     files: &[(PathBuf, Vec<u8>)],
-    stale: &dyn Fn() -> Vec<PathBuf>,
+    stale: &dyn Fn() -> Vec<(PathBuf, String)>,
     inputs: &[&Path],
     flag: &str,
 ) -> Result<(), Failure> {
@@ -162,7 +164,7 @@ pub fn write_set(
             let mut f = {
                 let mut list = PENDING
                     .lock()
-                    .map_err(|_| Failure::output("the list of temporary files is poisoned"))?;
+                    .unwrap_or_else(std::sync::PoisonError::into_inner);
                 let f = OpenOptions::new()
                     .write(true)
                     .create_new(true)
@@ -178,25 +180,27 @@ pub fn write_set(
         // Stale pages are listed only now, under the folder's lock.
         let stale: Vec<PathBuf> = stale()
             .into_iter()
-            .filter(|p| std::fs::metadata(p).is_ok_and(|m| m.is_file()) && made_by_us(p))
+            .filter(|(p, set)| std::fs::metadata(p).is_ok_and(|m| m.is_file()) && made_for(p, set))
+            .map(|(p, _)| p)
             .collect();
-        // Rename the whole set with the signal handler held off.
+        // Rename the whole set and remove the stale pages with the signal handler held off.
         let mut list = PENDING
             .lock()
-            .map_err(|_| Failure::output("the list of temporary files is poisoned"))?;
+            .unwrap_or_else(std::sync::PoisonError::into_inner);
         for ((path, _), tmp) in files.iter().zip(&temps) {
             std::fs::rename(tmp, path).map_err(|e| fail(path, e))?;
             list.retain(|p| p != tmp);
         }
-        drop(list);
         for s in stale {
             let _ = std::fs::remove_file(s);
         }
+        drop(list);
         Ok(())
     })();
-    if result.is_err()
-        && let Ok(mut list) = PENDING.lock()
-    {
+    if result.is_err() {
+        let mut list = PENDING
+            .lock()
+            .unwrap_or_else(std::sync::PoisonError::into_inner);
         for t in &temps {
             let _ = std::fs::remove_file(t);
             list.retain(|p| p != t);

@@ -81,6 +81,29 @@ pub fn parse(svg: &str) -> Result<usvg::Tree, ExportError> {
 /// a PNG's `Comment` text chunk), so that only its own pages are ever removed as stale.
 pub const MARK: &str = "beltwright-sheet";
 
+/// The attribute that names the set a page belongs to (`data-set="NAME"`, NAME the file name
+/// of the set's first page with quotes and markup characters made `_`): a page is stale
+/// for a set only when it names that set.
+pub fn set_mark(set: &str) -> String {
+    let safe: String = set
+        .chars()
+        .map(|c| {
+            if matches!(c, '"' | '&' | '<' | '>') || c.is_control() {
+                '_'
+            } else {
+                c
+            }
+        })
+        .collect();
+    format!("data-set=\"{safe}\"")
+}
+
+/// `svg` (a sheet this tool drew) with the set it is written as named on its root.
+pub fn with_set(svg: &str, set: &str) -> String {
+    let mark = format!("data-made-by=\"{MARK}\"");
+    svg.replacen(&mark, &format!("{mark} {}", set_mark(set)), 1)
+}
+
 /// Most pixels a PNG is made with: 40 million (an A3 sheet at 400 dpi is 31 million), about
 /// 160 MB of image in memory while it is drawn.
 pub const MAX_PNG_PIXELS: u64 = 40_000_000;
@@ -138,12 +161,21 @@ pub fn to_png(svg: &str, dpi: f64) -> Result<Vec<u8>, ExportError> {
     let png = pixmap
         .encode_png()
         .map_err(|e| ExportError::Png(e.to_string()))?;
-    Ok(with_mark(png))
+    // The PNG carries the mark and, when the sheet names its set, the same set attribute.
+    let set = svg
+        .find("data-set=\"")
+        .and_then(|i| svg[i..].find("\"").map(|_| i))
+        .and_then(|i| {
+            let rest = &svg[i + 10..];
+            rest.find('"').map(|j| &svg[i..i + 10 + j + 1])
+        })
+        .unwrap_or("");
+    Ok(with_mark(png, set))
 }
 
 /// `png` with a `Comment` text chunk carrying [`MARK`], right after its header chunk
 /// (PNG specification, ISO/IEC 15948: tEXt chunk, CRC-32 over type and data).
-fn with_mark(png: Vec<u8>) -> Vec<u8> {
+fn with_mark(png: Vec<u8>, set: &str) -> Vec<u8> {
     // Signature (8 bytes) and IHDR (4 length + 4 type + 13 data + 4 CRC).
     const AFTER_IHDR: usize = 8 + 25;
     if png.len() < AFTER_IHDR {
@@ -151,6 +183,10 @@ fn with_mark(png: Vec<u8>) -> Vec<u8> {
     }
     let mut data = b"Comment\0".to_vec();
     data.extend_from_slice(MARK.as_bytes());
+    if !set.is_empty() {
+        data.push(b' ');
+        data.extend_from_slice(set.as_bytes());
+    }
     let mut chunk = Vec::with_capacity(data.len() + 12);
     chunk.extend_from_slice(&(data.len() as u32).to_be_bytes());
     let typed: Vec<u8> = b"tEXt".iter().chain(&data).copied().collect();
