@@ -172,9 +172,10 @@ fn no_temporary_file_survives_a_signal() {
             seed ^= seed >> 7;
             seed ^= seed << 17;
             std::thread::sleep(Duration::from_micros(seed % (whole + whole / 4)));
-            let _ = Command::new("kill")
-                .arg(format!("-{signal}"))
-                .arg(child.id().to_string())
+            // The shell's own `kill` (a builtin), so no separate package is needed.
+            let _ = Command::new("sh")
+                .arg("-c")
+                .arg(format!("kill -{signal} {}", child.id()))
                 .status();
             if let Ok(st) = child.wait()
                 && !st.success()
