@@ -379,15 +379,7 @@ fn boards_width(w: &Winding) -> f64 {
     if w.geometry.phases != 3 {
         return 0.0;
     }
-    let scheme = crate::card::leads::scheme(
-        w.design.leads,
-        w.design.connection,
-        w.design.supply.line_voltage_v,
-        None,
-        &w.design.phase_labels,
-        w.geometry.slots,
-        w.geometry.topology,
-    );
+    let scheme = lead_scheme(w);
     super::board::natural_width(&scheme, w.design.connection).max(70.0)
 }
 
@@ -687,14 +679,9 @@ fn group_box(
     out
 }
 
-/// The terminal boards and the words above them, and the height they take (mm). A
-/// three-phase winding's boards come from its lead scheme ([`super::board`]); other phase
-/// counts get one board of their own phase ends.
-fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
-    if w.geometry.phases != 3 {
-        return phase_board(w, pal, width, ts);
-    }
-    let scheme = crate::card::leads::scheme(
+/// The winding's lead scheme, for its boards (no resistances needed here).
+fn lead_scheme(w: &Winding) -> crate::card::leads::LeadScheme {
+    crate::card::leads::scheme(
         w.design.leads,
         w.design.connection,
         w.design.supply.line_voltage_v,
@@ -702,7 +689,29 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
         &w.design.phase_labels,
         w.geometry.slots,
         w.geometry.topology,
-    );
+    )
+}
+
+/// The legend under the boards: how a group box reads and whose lead marking is used.
+fn groups_note(w: &Winding) -> String {
+    format!(
+        "Groups: S start, F finish as wound; a reversed group is connected F in, S out; under \
+         each group its coils. Leads marked to {}.",
+        match w.design.leads.marking {
+            Marking::Iec => "IEC 60034-8",
+            Marking::Nema => "NEMA MG 1",
+        }
+    )
+}
+
+/// The terminal boards and the words above them, and the height they take (mm). A
+/// three-phase winding's boards come from its lead scheme ([`super::board`]); other phase
+/// counts get one board of their own phase ends.
+fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
+    if w.geometry.phases != 3 {
+        return phase_board(w, pal, width, ts);
+    }
+    let scheme = lead_scheme(w);
     let mut g = Group::new().set("class", "terminal-board");
     let mut y = 2.6 * ts + 4.0;
     let say = |g: Group, words: &str, y: &mut f64, class: &str| -> Group {
@@ -757,15 +766,7 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
         format!("translate(0 {}) scale({})", r(y), r(ts * 1000.0) / 1000.0),
     ));
     y += h * ts + 3.0 * ts + 1.0;
-    let note = match w.design.leads.marking {
-        Marking::Iec => {
-            "Groups: S start, F finish as wound; a reversed group is connected F in, S out; under each group its coils. Leads marked to IEC 60034-8."
-        }
-        Marking::Nema => {
-            "Groups: S start, F finish as wound; a reversed group is connected F in, S out; under each group its coils. Leads marked to NEMA MG 1."
-        }
-    };
-    for line in text::wrap(note, 2.6 * ts, width) {
+    for line in text::wrap(&groups_note(w), 2.6 * ts, width) {
         g = g.add(label(0.0, y, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
         y += 3.3 * ts;
     }
@@ -876,15 +877,7 @@ fn phase_board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) 
         g = g.add(label(tx0, y, 2.6 * ts, Anchor::Start, &line));
         y += 3.3;
     }
-    let note = match w.design.leads.marking {
-        Marking::Iec => {
-            "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to IEC 60034-8."
-        }
-        Marking::Nema => {
-            "Groups: S start, F finish as wound; a reversed group is connected F in, S out. Leads marked to NEMA MG 1."
-        }
-    };
-    for line in text::wrap(note, 2.6 * ts, room) {
+    for line in text::wrap(&groups_note(w), 2.6 * ts, room) {
         g = g.add(label(tx0, y + 0.6, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
         y += 3.3;
     }

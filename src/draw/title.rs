@@ -220,20 +220,7 @@ fn shop_cells(w: &Winding) -> Vec<(&'static str, String)> {
     }
     let dash = || "-".to_string();
     let rating = plate.map_or_else(dash, |n| {
-        let mut parts = Vec::new();
-        if let Some(p) = n.power_w {
-            parts.push(format!("{} kW", num(p / 1e3, 2)));
-        }
-        if !n.voltages_v.is_empty() {
-            parts.push(format!(
-                "{} V",
-                n.voltages_v
-                    .iter()
-                    .map(|v| num(*v, 0))
-                    .collect::<Vec<_>>()
-                    .join("/")
-            ));
-        }
+        let mut parts = crate::output::rating_words(n, false);
         if let Some(r) = n.speed_rpm {
             parts.push(format!("{} rpm", num(r, 0)));
         }

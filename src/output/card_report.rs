@@ -23,12 +23,15 @@ pub fn configuration_name(c: &Configuration) -> String {
     }
 }
 
-/// The nameplate in lines of words (card text, card sheet, HTML page).
-pub fn nameplate_lines(n: &crate::design::Nameplate) -> Vec<String> {
-    let mut out = Vec::new();
+/// The rating's figures in words: power (in kW, with hp when `hp`) and voltages.
+pub fn rating_words(n: &crate::design::Nameplate, hp: bool) -> Vec<String> {
     let mut rating = Vec::new();
     if let Some(p) = n.power_w {
-        rating.push(format!("{} kW ({} hp)", num(p / 1e3, 3), num(p / 745.7, 2)));
+        rating.push(if hp {
+            format!("{} kW ({} hp)", num(p / 1e3, 3), num(p / 745.7, 2))
+        } else {
+            format!("{} kW", num(p / 1e3, 2))
+        });
     }
     if !n.voltages_v.is_empty() {
         rating.push(format!(
@@ -40,6 +43,13 @@ pub fn nameplate_lines(n: &crate::design::Nameplate) -> Vec<String> {
                 .join("/")
         ));
     }
+    rating
+}
+
+/// The nameplate in lines of words (card text, card sheet, HTML page).
+pub fn nameplate_lines(n: &crate::design::Nameplate) -> Vec<String> {
+    let mut out = Vec::new();
+    let mut rating = rating_words(n, true);
     if !n.currents_a.is_empty() {
         rating.push(format!(
             "{} A",
