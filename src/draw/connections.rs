@@ -45,15 +45,19 @@ pub fn terminal(w: &Winding, k: usize, end: u8) -> String {
 /// winding the lead scheme's name (the path is a section of a 9- or 12-lead winding), marked
 /// "(inside)" where the end is joined inside the machine; otherwise the phase label and end.
 pub fn path_terminal(w: &Winding, k: usize, p: usize, end: u8) -> String {
-    if w.geometry.phases == 3 {
-        let (name, inside) = crate::card::leads::section_lead(w.design.leads, k, p, end == 2);
-        return if inside {
-            format!("{name} (inside)")
-        } else {
-            name
-        };
+    match path_lead(w, k, p, end) {
+        (name, true) => format!("{name} (inside)"),
+        (name, false) => name,
     }
-    format!("{}{end}", w.label(k))
+}
+
+/// The marking of the start (1) or finish (2) of path `p` of phase `k`, and whether that end
+/// is joined inside the machine (see [`path_terminal`]).
+fn path_lead(w: &Winding, k: usize, p: usize, end: u8) -> (String, bool) {
+    if w.geometry.phases == 3 {
+        return crate::card::leads::section_lead(w.design.leads, k, p, end == 2);
+    }
+    (format!("{}{end}", w.label(k)), false)
 }
 
 /// Where each path's leads leave the core: (lead marking, slot from 1, start?) for the start
@@ -89,14 +93,10 @@ fn finish_words(w: &Winding, e: &ScheduleRow) -> String {
     match e.finish_to {
         FinishTo::Coil { coil } => format!("coil {coil}"),
         FinishTo::Group { group, coil } => format!("G{group} coil {coil}"),
-        FinishTo::Lead => {
-            let t = path_terminal(w, e.phase_index, e.path.index(), 2);
-            if t.ends_with("(inside)") {
-                t
-            } else {
-                format!("lead {t}")
-            }
-        }
+        FinishTo::Lead => match path_lead(w, e.phase_index, e.path.index(), 2) {
+            (name, true) => format!("{name} (inside)"),
+            (name, false) => format!("lead {name}"),
+        },
     }
 }
 
@@ -370,7 +370,7 @@ fn lanes_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
 /// Height of the heading and terminal boards, drawn at printed size `width` wide, mm.
 fn boards_height(w: &Winding, width: f64) -> f64 {
     let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
-    board(w, &pal, width, 1.0).1 + 4.0
+    board(w, &pal, width).1 + 4.0
 }
 
 /// Width the boards take set beside the lanes (their natural width, or a column for the
@@ -462,7 +462,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         None => (b.x, b.w, b.w),
     };
     let per_line = per_line(lanes_w);
-    let (board_g, board_h) = board(w, pal, board_w, 1.0);
+    let (board_g, board_h) = board(w, pal, board_w);
     let top = Group::new()
         .set("transform", format!("translate({} {})", r(board_x), r(b.y)))
         .add(board_g);
@@ -479,10 +479,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         groups: gs,
     } in &lanes
     {
-        let bare = |end: u8| {
-            let t = path_terminal(w, *k, *p, end);
-            t.trim_end_matches(" (inside)").to_string()
-        };
+        let bare = |end: u8| path_lead(w, *k, *p, end).0;
         let mut lane = Group::new()
             .set("class", "lane")
             .set("data-phase", *k)
@@ -707,38 +704,30 @@ fn groups_note(w: &Winding) -> String {
 /// The terminal boards and the words above them, and the height they take (mm). A
 /// three-phase winding's boards come from its lead scheme ([`super::board`]); other phase
 /// counts get one board of their own phase ends.
-fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
+fn board(w: &Winding, pal: &Palette, width: f64) -> (Group, f64) {
     if w.geometry.phases != 3 {
-        return phase_board(w, pal, width, ts);
+        return phase_board(w, pal, width);
     }
     let scheme = lead_scheme(w);
     let mut g = Group::new().set("class", "terminal-board");
-    let mut y = 2.6 * ts + 4.0;
+    let mut y = 6.6;
     let say = |g: Group, words: &str, y: &mut f64, class: &str| -> Group {
         let mut g = g;
-        for l in text::wrap(words, 2.6 * ts, width) {
-            g = g.add(label(0.0, *y, 2.6 * ts, Anchor::Start, &l).set("class", class.to_string()));
-            *y += 3.3 * ts;
+        for l in text::wrap(words, 2.6, width) {
+            g = g.add(label(0.0, *y, 2.6, Anchor::Start, &l).set("class", class.to_string()));
+            *y += 3.3;
         }
         g
     };
     let drawn = super::board::drawn(&scheme, w.design.connection);
-    for c in &scheme.configurations {
+    // The planned connection first, as the headline; the boards are drawn below.
+    if let Some(c) = scheme.configurations.iter().find(|c| c.as_planned) {
         let words = format!(
-            "{}{}: {}",
-            if c.as_planned { "As planned: " } else { "" },
+            "As planned: {}: {}",
             super::board::heading(c),
             super::board::sentence(c)
         );
-        let class = if c.as_planned {
-            "headline"
-        } else {
-            "lead-table"
-        };
-        // The planned one first; the others follow, the boards drawn below.
-        if c.as_planned {
-            g = say(g, &words, &mut y, class);
-        }
+        g = say(g, &words, &mut y, "headline");
     }
     // The other connections the leads allow: those without a board of their own in words.
     for c in scheme
@@ -759,23 +748,20 @@ fn board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
         w.design.connection,
         &w.design.phase_labels,
         pal,
-        width / ts,
+        width,
     );
-    g = g.add(boards.set(
-        "transform",
-        format!("translate(0 {}) scale({})", r(y), r(ts * 1000.0) / 1000.0),
-    ));
-    y += h * ts + 3.0 * ts + 1.0;
-    for line in text::wrap(&groups_note(w), 2.6 * ts, width) {
-        g = g.add(label(0.0, y, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
-        y += 3.3 * ts;
+    g = g.add(boards.set("transform", format!("translate(0 {})", r(y))));
+    y += h + 3.0 + 1.0;
+    for line in text::wrap(&groups_note(w), 2.6, width) {
+        g = g.add(label(0.0, y, 2.6, Anchor::Start, &line).set("fill", "#333333"));
+        y += 3.3;
     }
     (g, y)
 }
 
 /// The terminal board of a winding that is not three-phase: 2-ends above (shifted one
 /// place), 1-ends below, with star or delta links and the supply lines; its words beside.
-fn phase_board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) {
+fn phase_board(w: &Winding, pal: &Palette, width: f64) -> (Group, f64) {
     let m = w.geometry.phases;
     let pitch = 16.0;
     let x0 = 6.0;
@@ -839,7 +825,7 @@ fn phase_board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) 
                             .set("stroke", pal.stroke(k))
                             .set("stroke-width", 0.5),
                     )
-                    .add(label(tx(j) + 2.2, y - 1.6, 2.6 * ts, Anchor::Start, &name)),
+                    .add(label(tx(j) + 2.2, y - 1.6, 2.6, Anchor::Start, &name)),
             );
         }
         // Supply line to the 1-end.
@@ -847,7 +833,7 @@ fn phase_board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) 
         g = g.add(label(
             tx(j) + 1.0,
             y_bot + 6.5,
-            2.6 * ts,
+            2.6,
             Anchor::Start,
             &format!("L{}", j + 1),
         ));
@@ -873,12 +859,12 @@ fn phase_board(w: &Winding, pal: &Palette, width: f64, ts: f64) -> (Group, f64) 
     let tx0 = bw + 2.0;
     let room = (width - tx0).max(30.0);
     let mut y = y_top - 2.0;
-    for line in text::wrap(&how, 2.6 * ts, room) {
-        g = g.add(label(tx0, y, 2.6 * ts, Anchor::Start, &line));
+    for line in text::wrap(&how, 2.6, room) {
+        g = g.add(label(tx0, y, 2.6, Anchor::Start, &line));
         y += 3.3;
     }
-    for line in text::wrap(&groups_note(w), 2.6 * ts, room) {
-        g = g.add(label(tx0, y + 0.6, 2.6 * ts, Anchor::Start, &line).set("fill", "#333333"));
+    for line in text::wrap(&groups_note(w), 2.6, room) {
+        g = g.add(label(tx0, y + 0.6, 2.6, Anchor::Start, &line).set("fill", "#333333"));
         y += 3.3;
     }
     (g, (y + 2.0).max(BOARD_H))
