@@ -40,14 +40,14 @@ pub fn drawn(scheme: &LeadScheme, planned: Connection) -> Vec<&Configuration> {
         .collect()
 }
 
-/// Words naming a configuration on its board: "parallel star, 230 V".
+/// Words naming a configuration above the boards: "Parallel star (lower voltage), 230 V
+/// line".
 pub fn heading(c: &Configuration) -> String {
-    let how = match (c.sections, c.connection) {
-        (Sections::Single, Connection::Star) => "Star".to_string(),
-        (Sections::Single, Connection::Delta) => "Delta".to_string(),
-        (Sections::Series, k) => format!("Series {k} (higher voltage)"),
-        (Sections::Parallel, k) => format!("Parallel {k} (lower voltage)"),
-    };
+    let name = crate::output::configuration_name(c);
+    let mut chars = name.chars();
+    let how = chars
+        .next()
+        .map_or_else(String::new, |f| f.to_uppercase().chain(chars).collect());
     match c.line_voltage_v {
         Some(v) => format!("{how}, {} V line", crate::output::num(v, 0)),
         None => how,
@@ -133,11 +133,7 @@ fn board(
     y: f64,
     width: f64,
 ) -> (Group, f64) {
-    let how = match c.sections {
-        Sections::Single => c.connection.to_string(),
-        Sections::Series => format!("series {}", c.connection),
-        Sections::Parallel => format!("parallel {}", c.connection),
-    };
+    let how = crate::output::connection_words(c);
     let mut heading_lines = text::wrap(
         &c.line_voltage_v.map_or(how.clone(), |v| {
             format!("{} V line: {how}", crate::output::num(v, 0))

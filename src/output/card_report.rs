@@ -10,16 +10,26 @@ fn opt(x: Option<f64>, digits: usize, unit: &str) -> String {
     x.map_or_else(|| "-".into(), |v| format!("{} {unit}", num(v, digits)))
 }
 
-/// "parallel star (low voltage)" and the like.
-pub fn configuration_name(c: &Configuration) -> String {
+/// "parallel star": the connection and how the sections are joined.
+pub fn connection_words(c: &Configuration) -> String {
     let conn = match c.connection {
         Connection::Star => "star",
         Connection::Delta => "delta",
     };
     match c.sections {
         Sections::Single => conn.to_string(),
-        Sections::Series => format!("series {conn} (higher voltage)"),
-        Sections::Parallel => format!("parallel {conn} (lower voltage)"),
+        Sections::Series => format!("series {conn}"),
+        Sections::Parallel => format!("parallel {conn}"),
+    }
+}
+
+/// "parallel star (lower voltage)" and the like.
+pub fn configuration_name(c: &Configuration) -> String {
+    let how = connection_words(c);
+    match c.sections {
+        Sections::Single => how,
+        Sections::Series => format!("{how} (higher voltage)"),
+        Sections::Parallel => format!("{how} (lower voltage)"),
     }
 }
 

@@ -18,7 +18,7 @@ mod text;
 mod thrust_report;
 pub mod warning_words;
 
-pub use card_report::{configuration_name, rating_words};
+pub use card_report::{configuration_name, connection_words, rating_words};
 pub use csv::Csv;
 pub use json::Json;
 pub use table::{Align, Table};
