@@ -29,7 +29,7 @@ fn bench(c: &mut Criterion) {
             |b| b.iter(|| field::field(black_box(&w), black_box(&opts)).map(|r| r.rows.len())),
         );
         c.bench_function(&format!("differential leakage, {slots} slots"), |b| {
-            b.iter(|| beltwright::leakage::differential_leakage(black_box(&w)))
+            b.iter(|| beltwright::field::differential_leakage(black_box(&w)))
         });
         c.bench_function(&format!("factor table to order 49, {slots} slots"), |b| {
             b.iter(|| factors::factor_table(black_box(&w), 49.0).rows.len())

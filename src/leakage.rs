@@ -10,83 +10,12 @@
 //! σ_d = Σ (k_wν / (ν·k_w1))² is the one tabulated by Vogt (1996) and Pyrhönen et al.
 //! (2014, §4.3, from memory); the closed result for q = 1, full pitch is π²/9 − 1.
 
-use std::f64::consts::PI;
-
-use crate::winding::{Topology, Winding};
-
 /// The one rule for σ_d (Parseval): the mean square of the MMF over the working wave's
 /// mean square, less one; `None` when there is no working wave to compare against. Every
-/// σ_d the tool reports comes through here: from balanced real currents
-/// ([`staircase_leakage`]), from any phasor currents (`field`), and for every span at once
+/// σ_d the tool reports comes through here: from any phasor currents (`field`, whose
+/// `differential_leakage` is the balanced σ_d every command reports), and for every span at once
 /// from the belt currents' autocorrelation (`survey`).
 pub fn sigma(mean_square: f64, working_square: f64) -> Option<f64> {
     (working_square > 1e-300 * mean_square.abs().max(1.0))
         .then(|| (mean_square / working_square - 1.0).max(0.0))
-}
-
-/// σ_d of a periodic staircase of slot currents whose working wave has `order` periods
-/// around the `currents.len()` slots. Returns `None` when there is no working wave.
-/// Allocation-free: one pass for the staircase and one recurrence for the working wave.
-pub fn staircase_leakage(currents: &[f64], order: u64) -> Option<f64> {
-    let z = currents.len();
-    if z == 0 || order == 0 {
-        return None;
-    }
-    // Working-wave sum Σ I_k e^(−j·order·2πk/Z), the phasor advanced by exact reduction
-    // every 64 slots so rounding cannot build up on large cores.
-    let step = 2.0 * PI * (order % z as u64) as f64 / z as f64;
-    let (ws, wc) = (-step).sin_cos();
-    let (mut re, mut im) = (0.0, 0.0);
-    let (mut cr, mut ci) = (1.0, 0.0);
-    let (mut sum, mut sum_sq, mut s) = (0.0, 0.0, 0.0);
-    for (k, &i) in currents.iter().enumerate() {
-        if k % 64 == 0 {
-            let a = -2.0 * PI * ((order as u128 * k as u128) % z as u128) as f64 / z as f64;
-            (ci, cr) = a.sin_cos();
-        }
-        re += i * cr;
-        im += i * ci;
-        (cr, ci) = (cr * wc - ci * ws, cr * ws + ci * wc);
-        s += i;
-        sum += s;
-        sum_sq += s * s;
-    }
-    let mean = sum / z as f64;
-    let mean_square = sum_sq / z as f64 - mean * mean;
-    let f = (re * re + im * im).sqrt() / (2.0 * PI * order as f64);
-    sigma(mean_square, 2.0 * f * f)
-}
-
-/// Differential leakage coefficient σ_d of a winding under balanced currents. A flat
-/// primary is taken as one period of its periodic continuation (its N coil positions as a
-/// closed core of 2p poles), which needs an even pole count; odd-pole primaries give `None`.
-pub fn differential_leakage(w: &Winding) -> Option<f64> {
-    let g = &w.geometry;
-    match g.topology {
-        Topology::Rotary => {
-            let mut buf = Vec::with_capacity(g.slots);
-            crate::winding::star::balanced_slot_currents(w, &mut buf);
-            staircase_leakage(&buf, (g.poles / 2) as u64)
-        }
-        Topology::Linear => {
-            if !g.poles.is_multiple_of(2) {
-                return None;
-            }
-            let active = (g.pole_pitch_slots * g.poles as f64).round() as usize;
-            let mut buf = vec![0.0; active];
-            let m = g.phases as f64;
-            for c in &w.coils {
-                let i = c.turns as f64 * (2.0 * PI * c.phase as f64 / m).cos();
-                buf[c.go % active] += i;
-                buf[c.back % active] -= i;
-            }
-            staircase_leakage(&buf, (g.poles / 2) as u64)
-        }
-    }
-}
-
-/// MMF total harmonic distortion √σ_d: the r.m.s. of every order but the working wave over
-/// the working wave.
-pub fn thd(w: &Winding) -> Option<f64> {
-    differential_leakage(w).map(f64::sqrt)
 }

@@ -9,7 +9,6 @@ use rayon::prelude::*;
 use serde::Serialize;
 
 use crate::factors::factors_at;
-use crate::leakage;
 use crate::winding::{Elec, Topology, Winding, with_span};
 
 /// What the designer wants from the span.
@@ -144,7 +143,7 @@ fn row(v: &Winding, y: usize, tau: f64, goal: &PitchGoal) -> PitchRow {
     } else {
         f64::INFINITY
     };
-    let sigma = leakage::differential_leakage(v);
+    let sigma = crate::field::differential_leakage(v);
     PitchRow {
         pitch: y,
         span_over_pole_pitch: y as f64 / tau,

@@ -257,7 +257,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         layers: g.layers,
         pitch: w.pitch,
         style: w.design.style,
-        turns_per_coil: w.design.turns_per_coil,
+        turns_per_coil: w.turns_per_coil(),
         parallel_paths: w.parallel_paths,
         connection: w.design.connection,
         pole_pitch_slots: g.pole_pitch_slots,

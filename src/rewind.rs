@@ -205,10 +205,11 @@ pub fn area_of_diameter(d_mm: f64) -> f64 {
 
 fn side(w: &Winding, line: Option<f64>, freq: Option<f64>, turns: Option<f64>) -> DesignSide {
     let coils: Vec<_> = w.coils.iter().filter(|c| c.phase == 0).collect();
-    let n = coils.len().max(1) as f64;
-    let mean = coils.iter().map(|c| c.turns as f64).sum::<f64>() / n;
-    let t = turns.unwrap_or(mean);
     let a = w.parallel_paths as f64;
+    // The coils' own series turns (Winding::series_turns); their mean per coil when the
+    // counts differ, which is what scales with the voltage.
+    let n = coils.len().max(1) as f64;
+    let t = turns.unwrap_or(w.series_turns(0) * a / n);
     DesignSide {
         title: w.labels.title.clone(),
         poles: w.geometry.poles,

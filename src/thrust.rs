@@ -293,7 +293,7 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
         assumptions.push(Assumption::NoSlotSize);
     }
     let (l_slot, l_end) = leakage_h(w).unwrap_or((0.0, 0.0));
-    let sigma = crate::leakage::differential_leakage(w).unwrap_or(0.0);
+    let sigma = crate::field::differential_leakage(w).unwrap_or(0.0);
     let x_slot = omega * l_slot;
     let x_end = omega * l_end;
     let x_diff = sigma * xm;

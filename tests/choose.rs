@@ -2,8 +2,8 @@
 //! and output that does not depend on the thread count.
 
 use beltwright::factors::fundamental;
+use beltwright::field::differential_leakage;
 use beltwright::layout::parse;
-use beltwright::leakage::differential_leakage;
 use beltwright::pitch::{PitchGoal, compare};
 use beltwright::survey::{SurveyQuery, survey};
 use beltwright::winding::{Topology, Winding, build, possible_path_counts};

@@ -51,7 +51,7 @@ fn rotary_matrix_is_circulant_and_gives_lm_times_one_plus_sigma() {
         let tau = 0.010 * z as f64 / p2 as f64;
         let nkw = w.series_turns(0) * factors::fundamental(&w).winding;
         let lm = 6.0 * MU0 * tau * 0.1 * nkw * nkw / (PI * PI * (p2 as f64 / 2.0) * 0.0005);
-        let sigma = beltwright::leakage::differential_leakage(&w).expect("working wave");
+        let sigma = beltwright::field::differential_leakage(&w).expect("working wave");
         let want = lm * (1.0 + sigma);
         assert!(
             (r.positive_sequence_h - want).abs() < 1e-9 * want,

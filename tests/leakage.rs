@@ -1,8 +1,8 @@
 //! Differential leakage against closed forms, series and textbook tables.
 
 use beltwright::factors::closed;
+use beltwright::field::differential_leakage;
 use beltwright::layout::parse;
-use beltwright::leakage::differential_leakage;
 use beltwright::winding::{Winding, build};
 use std::f64::consts::PI;
 

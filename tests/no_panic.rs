@@ -5,7 +5,7 @@ use beltwright::design::{Design, Style, Topology};
 use beltwright::layout::{Spec, parse};
 use beltwright::linear::Operating;
 use beltwright::winding::build;
-use beltwright::{factors, field, leakage, pitch, plan};
+use beltwright::{factors, field, pitch, plan};
 use proptest::prelude::*;
 
 proptest! {
@@ -39,7 +39,7 @@ proptest! {
                 let p = plan::plan(&w, Operating::default());
                 prop_assert!(p.winding_factor <= 1.0 + 1e-12);
                 let _ = factors::factor_table(&w, 13.0);
-                let _ = leakage::differential_leakage(&w);
+                let _ = field::differential_leakage(&w);
                 let _ = field::field(&w, &field::FieldOptions::balanced(&w));
                 let _ = pitch::compare(&w, &pitch::PitchGoal::default());
             }

@@ -644,6 +644,21 @@ fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
     }
 }
 
+/// σ_d of a winding under balanced positive-sequence currents and no slot opening: the one
+/// σ_d that `field` (with those currents), `pitch`, `survey`, `thrust` and `inductance`
+/// report. A flat primary is folded onto whole wavelengths ([`CurrentSheet::folded`]), so
+/// odd pole counts have one too. `None` when there is no working wave.
+pub fn differential_leakage(w: &Winding) -> Option<f64> {
+    let currents = balanced_currents(w.geometry.phases, Sequence::Positive);
+    let sheet = CurrentSheet::new(w, &currents, 0.0).ok()?;
+    sigma_of(&sheet).ok()
+}
+
+/// MMF total harmonic distortion √σ_d of [`differential_leakage`].
+pub fn thd(w: &Winding) -> Option<f64> {
+    differential_leakage(w).map(f64::sqrt)
+}
+
 /// Forward and backward amplitudes of every mechanical order 1..=`top` of a rotary sheet,
 /// by one inverse FFT of the slot currents: S±(n) depends on n only modulo Z, so all orders
 /// cost O(Z log Z) and no trigonometry beyond the FFT's own.

@@ -369,7 +369,7 @@ fn planner_row(mut r: SurveyRow, topology: Topology, m: usize, bufs: &mut Buffer
             r.spans_scored = 1;
             r.max_winding_pitch = r.pitch;
             r.max_winding = r.winding;
-            r.differential_leakage = crate::leakage::differential_leakage(&w);
+            r.differential_leakage = crate::field::differential_leakage(&w);
             r.min_leakage_pitch = r.pitch;
             r.min_leakage = r.differential_leakage;
             r.parallel_paths = possible_path_counts(&w);

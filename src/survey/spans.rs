@@ -11,7 +11,7 @@
 //!   Its mean square follows from the autocorrelation R(d) = Σ_k c_k·c_(k+d):
 //!   Σ_k W_y² = Σ_k W_(y−1)² + R(0) + 2·Σ_(d=1..y−1) R(d). The working wave is
 //!   |Ĉ_p|·2|sin(πpy/Z)|/(2πp) with Ĉ_p = Σ c_k e^(−j2πpk/Z), and Parseval gives
-//!   σ_d = mean square / (2·F_p²) − 1 (as in [`crate::leakage::staircase_leakage`]).
+//!   σ_d = mean square / (2·F_p²) − 1 (the rule of [`crate::leakage::sigma`]).
 //!   Slot k lies on ray k·p mod Z of the star; each of the Z/t rays (t = gcd(Z, p)) holds t
 //!   slots, so R(d) = t·A((d·p mod Z)/t) with A the rays' autocorrelation, which the belts'
 //!   runs give from prefix sums in O(m) per lag.
