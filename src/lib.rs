@@ -1,31 +1,16 @@
 //! beltwright: plan and check polyphase windings.
 //!
-//! Pipeline: layout file (TOML) → [`layout::Spec`] ([`design::Labels`], [`design::Design`],
-//! coil list) → [`winding::Winding`] (the design plus its coils) → analyses
-//! ([`factors`], [`field`], [`leakage`], [`audit`], [`rewind`], [`pitch`], [`survey`],
-//! [`linear`], [`plan`]) → presenters ([`output`]). Analyses are pure functions of the
-//! `Winding`; only the binary touches the file system.
+//! The house is four crates, each a layer that sees only the ones below it:
+//! `beltwright-model` (design, winding, star-of-slots kernel), `beltwright-study` (the
+//! analyses, typed reports), `beltwright-present` (words, text/JSON/CSV, sheets, the HTML
+//! page) and this one, the command line with its TOML adapter ([`layout`]). The modules of
+//! the three below are re-exported here under their own names, so one path reaches each.
 
-pub mod assumption;
-pub mod audit;
-pub mod card;
-pub mod design;
-pub mod draw;
-pub mod factors;
-pub mod field;
-pub mod header;
-pub mod inductance;
+pub use beltwright_model::{design, numbering, sanitize, spec, winding, wire};
+pub use beltwright_present::{draw, output, safety};
+pub use beltwright_study::{
+    assumption, audit, card, factors, field, header, inductance, leakage, linear, pitch, plan,
+    rewind, runs, study, survey, thrust, warnings,
+};
+
 pub mod layout;
-pub mod leakage;
-pub mod linear;
-pub mod numbering;
-pub mod output;
-pub mod pitch;
-pub mod plan;
-pub mod rewind;
-pub mod safety;
-pub mod sanitize;
-pub mod survey;
-pub mod thrust;
-pub mod warnings;
-pub mod winding;

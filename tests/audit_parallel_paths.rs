@@ -4,6 +4,7 @@
 use beltwright::audit::{FindingKind, audit};
 use beltwright::design::{Design, Topology};
 use beltwright::layout::Spec;
+use beltwright::output::Words;
 use beltwright::winding::{self, Winding};
 
 /// 36 slots, 4 poles, span 8, two paths: each path holds one pole pair's groups.

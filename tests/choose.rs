@@ -4,6 +4,7 @@
 use beltwright::factors::fundamental;
 use beltwright::field::differential_leakage;
 use beltwright::layout::parse;
+use beltwright::output::Words;
 use beltwright::pitch::{PitchGoal, compare};
 use beltwright::survey::{SurveyQuery, survey};
 use beltwright::winding::{Topology, Winding, build, possible_path_counts};
@@ -34,7 +35,7 @@ fn harmonic(r: &beltwright::pitch::PitchReport, span: usize, order: f64) -> f64 
 fn five_sixths_span_removes_most_of_the_fifth_and_seventh() {
     // q = 2, span 5/6: k_w1 = 0.933, k_w5 = k_w7 = 0.067 (Say 1983, ch. 4 tables).
     let r = compare(&winding(24, 4, 2, None), &PitchGoal::default());
-    assert_eq!(r.recommended, Some(5), "{}", r.reason);
+    assert_eq!(r.recommended, Some(5), "{:?}", r.reason);
     assert!((harmonic(&r, 5, 5.0) - 0.067).abs() < 5e-4);
     assert!((harmonic(&r, 5, 7.0) - 0.067).abs() < 5e-4);
 }
@@ -48,7 +49,7 @@ fn four_fifths_span_cancels_the_fifth_exactly() {
     };
     let r = compare(&winding(60, 4, 2, None), &goal); // τ = 15 slots
     assert!(harmonic(&r, 12, 5.0) < 1e-12);
-    assert_eq!(r.recommended, Some(12), "{}", r.reason);
+    assert_eq!(r.recommended, Some(12), "{:?}", r.reason);
 }
 
 #[test]
@@ -60,7 +61,7 @@ fn six_sevenths_span_cancels_the_seventh_exactly() {
     };
     let r = compare(&winding(84, 4, 2, None), &goal); // τ = 21 slots
     assert!(harmonic(&r, 18, 7.0) < 1e-12);
-    assert_eq!(r.recommended, Some(18), "{}", r.reason);
+    assert_eq!(r.recommended, Some(18), "{:?}", r.reason);
 }
 
 #[test]
@@ -72,8 +73,8 @@ fn a_floor_no_span_reaches_is_said_plainly() {
     let r = compare(&winding(36, 4, 2, None), &goal);
     assert_eq!(r.recommended, Some(9));
     assert!(
-        r.reason.to_string().starts_with("No span reaches"),
-        "{}",
+        r.reason.message().starts_with("No span reaches"),
+        "{:?}",
         r.reason
     );
 }

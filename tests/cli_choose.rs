@@ -35,7 +35,9 @@ fn pitch_draws_an_svg_chart_atomically() {
     ]);
     assert!(out.status.success());
     let text = std::fs::read_to_string(&svg).expect("chart written");
-    assert!(text.starts_with("<svg") && text.contains("recommended: 7"));
+    // On the shared page, as every sheet: labelled, with the title block and the caution.
+    assert!(text.starts_with("<svg") && text.contains("recommended span 7"));
+    assert!(text.contains("role=\"img\"") && text.contains("CAUTION"));
     assert!(text.contains("de-energised"), "chart carries the caution");
     let left: Vec<_> = std::fs::read_dir(dir.path()).expect("dir").collect();
     assert_eq!(left.len(), 1, "no temporary files left behind");

@@ -335,7 +335,11 @@ fn every_board_of_every_scheme_powers_every_section_at_its_design_voltage() {
                 let spec = layout::parse(&layout(leads, marking, connection, volts, core), &name)
                     .unwrap_or_else(|e| panic!("{name}: {e}"));
                 let w = winding::build(&spec).unwrap_or_else(|e| panic!("{name}: {e}"));
-                let svg = &draw::draw(&w, Sheet::Connections, &Page::default())[0];
+                let svg = &draw::draw(
+                    &beltwright::study::Study::new(&w, None),
+                    Sheet::Connections,
+                    &Page::default(),
+                )[0];
                 let (sections, boards, inside, headline) = read_sheet(svg);
                 assert_eq!(
                     sections.len(),

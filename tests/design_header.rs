@@ -38,7 +38,7 @@ fn every_report_carries_the_same_design_header() {
         // The header states what the plan states on its own.
         assert_eq!(design["slots"], plan["slots"], "{layout}");
         assert_eq!(design["poles"], plan["poles"], "{layout}");
-        assert_eq!(design["span"], plan["pitch"], "{layout}");
+        assert_eq!(design["pitch"], plan["pitch"], "{layout}");
         assert_eq!(design["connection"], plan["connection"], "{layout}");
         assert_eq!(design["winding_factor"], plan["winding_factor"], "{layout}");
         let factors = json(&["factors", layout, "--format", "json"]);
@@ -58,6 +58,14 @@ fn every_report_carries_the_same_design_header() {
             assert!(out.status.code().is_some_and(|c| c <= 1), "{j:?}");
             let v: Value = serde_json::from_slice(&out.stdout).expect("JSON");
             assert_eq!(v["design"], design, "{args:?}: design header differs");
+            // One name and one type per fact: a fact the header and the report both carry
+            // at the top level has the same value (so the same type) in both.
+            for (key, value) in design.as_object().expect("header object") {
+                if let Some(own) = v.get(key) {
+                    assert_eq!(own, value, "{args:?}: `{key}` differs from the header's");
+                }
+            }
+            assert_eq!(v["schema_version"], 3, "{args:?}");
             // Text: the three lines under the heading are the same for every command.
             let text = String::from_utf8(run(&args).stdout).expect("utf-8");
             let head: Vec<String> = text.lines().skip(1).take(3).map(String::from).collect();

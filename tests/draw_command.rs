@@ -149,7 +149,9 @@ fn plan_out_writes_the_shop_pack_into_a_new_folder() {
 // `report -o x.pdf` carries every table of the HTML page (plan, card, performance,
 // inductance, factors, field, spans; the audit for a record) as pages before the sheets:
 // its page count is theirs plus the sheets', and the flat primary's inductance section is
-// among the parts.
+// among the parts. What this compares, plainly: the PDF's page objects against the pages the
+// library draws for the same study (not an outside count), and the sheets' share of them
+// against the SVG set the command writes on its own.
 #[test]
 fn report_pdf_carries_every_table_and_every_sheet() {
     use beltwright::draw::{self, Page, Sheet};
@@ -166,7 +168,8 @@ fn report_pdf_carries_every_table_and_every_sheet() {
     let text = std::fs::read_to_string(&src).expect("layout");
     let spec = beltwright::layout::parse(&text, "pallet").expect("valid");
     let w = beltwright::winding::build(&spec).expect("builds");
-    let parts = beltwright::output::html::parts(&w, None);
+    let study = beltwright::study::Study::new(&w, None);
+    let parts = beltwright::output::html::parts(&study);
     let titles: Vec<&str> = parts.parts.iter().map(|p| p.title.as_str()).collect();
     assert!(titles.contains(&"Inductance and unbalance"), "{titles:?}");
     assert!(
@@ -178,13 +181,28 @@ fn report_pdf_carries_every_table_and_every_sheet() {
         .parts
         .iter()
         .filter(|p| p.title != "Data card")
-        .map(|p| draw::tables::draw(&w, &p.title, &p.sections, &page).len())
+        .map(|p| draw::tables::draw(&study, &p.title, &p.sections, &page).len())
         .sum();
     let sheet_pages: usize = Sheet::ALL
         .into_iter()
-        .filter(|s| s.applies(&w))
-        .map(|s| draw::draw(&w, s, &page).len())
+        .filter(|s| s.applies(&study))
+        .map(|s| draw::draw(&study, s, &page).len())
         .sum();
+    // The same report as an SVG set: one file per sheet page, NAME.svg, NAME-2.svg, ...
+    let svg = dir.path().join("sheets.svg");
+    beltwright()
+        .args(["report"])
+        .arg(&src)
+        .arg("-o")
+        .arg(&svg)
+        .assert()
+        .success();
+    let svg_files = std::fs::read_dir(dir.path())
+        .expect("dir")
+        .filter_map(Result::ok)
+        .filter(|e| e.file_name().to_string_lossy().starts_with("sheets"))
+        .count();
+    assert_eq!(svg_files, sheet_pages);
     let pdf = std::fs::read(&out).expect("pdf");
     // Each page object of pdf-writer's output carries "/Type /Page" on a line of its own.
     let pages = String::from_utf8_lossy(&pdf)

@@ -108,7 +108,11 @@ fn odd_windings_draw_and_count_right() {
     }
     // An unbalanced record gets no field arrow rather than a wrong one.
     let w = build(ONE_COIL, "one coil");
-    let svg = &draw::draw(&w, Sheet::Slots, &Page::default())[0];
+    let svg = &draw::draw(
+        &beltwright::study::Study::new(&w, None),
+        Sheet::Slots,
+        &Page::default(),
+    )[0];
     assert!(!svg.contains("field-arrow"));
     assert!(svg.contains("direction unclear"));
 }
@@ -245,7 +249,7 @@ fn ink_fraction(png: &[u8]) -> f64 {
 }
 
 fn check_sheet_renders(name: &str, w: &Winding, sheet: Sheet, page: &Page) {
-    let pages = draw::draw(w, sheet, page);
+    let pages = draw::draw(&beltwright::study::Study::new(w, None), sheet, page);
     assert!(!pages.is_empty());
     for (n, svg) in pages.iter().enumerate() {
         let r = rendered(svg, page);
@@ -317,7 +321,11 @@ fn a_360_slot_core_wraps_onto_rows_and_stays_legible() {
         for sheet in SHEETS {
             check_sheet_renders("big", &w, sheet, &page);
         }
-        let pages = draw::draw(&w, Sheet::Slots, &page);
+        let pages = draw::draw(
+            &beltwright::study::Study::new(&w, None),
+            Sheet::Slots,
+            &page,
+        );
         let svg = &pages[0];
         let doc = roxmltree::Document::parse(svg).expect("XML");
         // Never shrunk as a whole (more pages instead), several rows a page, and slot
@@ -350,7 +358,11 @@ fn a_360_slot_core_wraps_onto_rows_and_stays_legible() {
 #[test]
 fn small_cores_are_not_blown_up() {
     let w = build(TINY, "tiny");
-    let svg = &draw::draw(&w, Sheet::Slots, &Page::default())[0];
+    let svg = &draw::draw(
+        &beltwright::study::Study::new(&w, None),
+        Sheet::Slots,
+        &Page::default(),
+    )[0];
     let doc = roxmltree::Document::parse(svg).expect("XML");
     let slots = elements(&doc, "slot");
     assert_eq!(slots.len(), 6);
@@ -368,7 +380,12 @@ fn check_slot_counts(name: &str, w: &Winding) {
     // A large core runs over several pages: count over all of them.
     let svg = format!(
         "<pages>{}</pages>",
-        draw::draw(w, Sheet::Slots, &Page::default()).concat()
+        draw::draw(
+            &beltwright::study::Study::new(w, None),
+            Sheet::Slots,
+            &Page::default()
+        )
+        .concat()
     );
     let doc = roxmltree::Document::parse(&svg).expect("XML");
     let mut drawn = BTreeMap::new();
@@ -445,7 +462,11 @@ fn slot_sheet_counts_match_the_model() {
 }
 
 fn check_connection_counts(name: &str, w: &Winding) {
-    let pages = draw::draw(w, Sheet::Connections, &Page::default());
+    let pages = draw::draw(
+        &beltwright::study::Study::new(w, None),
+        Sheet::Connections,
+        &Page::default(),
+    );
     let m = w.geometry.phases;
     let mut schedule = Vec::new();
     for (n, svg) in pages.iter().enumerate() {
@@ -532,7 +553,13 @@ fn connection_sheet_counts_match_the_model() {
     let big = build(BIG, "big");
     check_connection_counts("big", &big);
     assert!(
-        draw::draw(&big, Sheet::Connections, &Page::default()).len() > 1,
+        draw::draw(
+            &beltwright::study::Study::new(&big, None),
+            Sheet::Connections,
+            &Page::default()
+        )
+        .len()
+            > 1,
         "360 coils continue on more pages"
     );
 }
@@ -543,7 +570,11 @@ fn star_sheet_numbers_every_slot_once() {
         .into_iter()
         .chain([("big".to_string(), build(BIG, "big"))])
     {
-        let svg = &draw::draw(&w, Sheet::Star, &Page::default())[0];
+        let svg = &draw::draw(
+            &beltwright::study::Study::new(&w, None),
+            Sheet::Star,
+            &Page::default(),
+        )[0];
         let doc = roxmltree::Document::parse(svg).expect("XML");
         let mut slots = Vec::new();
         for ray in elements(&doc, "ray") {
@@ -583,7 +614,11 @@ fn mmf_crest(w: &Winding, wt: f64) -> f64 {
 }
 
 fn arrow_direction(w: &Winding) -> String {
-    let svg = &draw::draw(w, Sheet::Slots, &Page::default())[0];
+    let svg = &draw::draw(
+        &beltwright::study::Study::new(w, None),
+        Sheet::Slots,
+        &Page::default(),
+    )[0];
     let doc = roxmltree::Document::parse(svg).expect("XML");
     elements(&doc, "field-arrow")[0]
         .attribute("data-direction")
@@ -633,7 +668,11 @@ fn hostile_title_is_escaped_and_still_parses() {
                [machine]\ntopology = \"rotary\"\nslots = 12\npoles = 2\n[winding]\nlayers = 1\n";
     let w = build(src, "hostile");
     for sheet in SHEETS {
-        for svg in draw::draw(&w, sheet, &Page::default()) {
+        for svg in draw::draw(
+            &beltwright::study::Study::new(&w, None),
+            sheet,
+            &Page::default(),
+        ) {
             assert!(!svg.contains("<script"), "{sheet:?}: raw script tag");
             assert!(
                 svg.contains("&lt;script&gt;"),
@@ -660,7 +699,11 @@ fn hostile_title_is_escaped_and_still_parses() {
 #[test]
 fn pdf_is_a_pdf_with_embedded_text() {
     let (_, w) = example_layouts().remove(0);
-    let pages = draw::draw(&w, Sheet::Connections, &Page::default());
+    let pages = draw::draw(
+        &beltwright::study::Study::new(&w, None),
+        Sheet::Connections,
+        &Page::default(),
+    );
     let pdf = export::to_pdf(&pages).expect("PDF");
     assert!(pdf.starts_with(b"%PDF-"));
     let text = String::from_utf8_lossy(&pdf);
@@ -668,7 +711,11 @@ fn pdf_is_a_pdf_with_embedded_text() {
     assert!(text.contains("DejaVuSans"), "the bundled font");
     assert!(text.contains("/ToUnicode"), "text extractable");
     assert!(text.trim_end().ends_with("%%EOF"));
-    let big = draw::draw(&build(BIG, "big"), Sheet::Connections, &Page::default());
+    let big = draw::draw(
+        &beltwright::study::Study::new(&build(BIG, "big"), None),
+        Sheet::Connections,
+        &Page::default(),
+    );
     let pdf = export::to_pdf(&big).expect("PDF");
     assert!(String::from_utf8_lossy(&pdf).contains(&format!("/Count {}", big.len())));
 }
@@ -681,7 +728,12 @@ fn pdf_text_reads_back_with_pdftotext_when_installed() {
     };
     let _ = probe;
     let w = build(BIG, "big");
-    let pdf = export::to_pdf(&draw::draw(&w, Sheet::Slots, &Page::default())).expect("PDF");
+    let pdf = export::to_pdf(&draw::draw(
+        &beltwright::study::Study::new(&w, None),
+        Sheet::Slots,
+        &Page::default(),
+    ))
+    .expect("PDF");
     let dir = tempfile::tempdir().expect("tempdir");
     let path = dir.path().join("s.pdf");
     std::fs::write(&path, pdf).expect("write");
@@ -718,7 +770,11 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
                [drawing]\ncolours = [\"#112233\", \"#445566\", \"#778899\"]\n";
     let w = build(src, "labels");
     for sheet in SHEETS {
-        for svg in draw::draw(&w, sheet, &Page::default()) {
+        for svg in draw::draw(
+            &beltwright::study::Study::new(&w, None),
+            sheet,
+            &Page::default(),
+        ) {
             let doc = roxmltree::Document::parse(&svg).expect("well-formed XML");
             let texts: Vec<&str> = doc
                 .descendants()
@@ -752,7 +808,12 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
             );
         }
     }
-    let card = draw::draw(&w, Sheet::Card, &Page::default()).concat();
+    let card = draw::draw(
+        &beltwright::study::Study::new(&w, None),
+        Sheet::Card,
+        &Page::default(),
+    )
+    .concat();
     assert!(
         card.contains("(&lt;a&gt; 1 start)"),
         "card: label lost or unescaped"
@@ -765,7 +826,11 @@ fn hostile_phase_labels_and_own_colours_come_through_safely() {
         ),
         "plain",
     );
-    let svg = &draw::draw(&plain, Sheet::Slots, &Page::default())[0];
+    let svg = &draw::draw(
+        &beltwright::study::Study::new(&plain, None),
+        Sheet::Slots,
+        &Page::default(),
+    )[0];
     for c in ["#D55E00", "#0072B2", "#009E73"] {
         assert!(svg.contains(c), "default {c} missing");
     }

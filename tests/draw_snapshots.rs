@@ -42,7 +42,11 @@ frequency_hz = 50.0
 fn sheet(src: &str, sheet: Sheet) -> String {
     let spec = layout::parse(src, "snapshot").expect("valid layout");
     let w = winding::build(&spec).expect("buildable");
-    let pages = draw::draw(&w, sheet, &Page::default());
+    let pages = draw::draw(
+        &beltwright::study::Study::new(&w, None),
+        sheet,
+        &Page::default(),
+    );
     assert_eq!(pages.len(), 1);
     pages.into_iter().next().unwrap_or_default()
 }

@@ -94,7 +94,9 @@ fn field_writes_the_sheet_and_never_over_the_layout() {
         .assert()
         .success();
     let s = std::fs::read_to_string(&out).unwrap();
-    assert!(s.starts_with("<svg") && s.contains("CAUTION") && s.contains("<pattern"));
+    // The shared page, as the field sheet of `draw`: labelled, title block, caution.
+    assert!(s.starts_with("<svg") && s.contains("CAUTION") && s.contains("role=\"img\""));
+    assert!(s.contains("Travelling field"));
 
     let layout = dir.path().join("copy.toml");
     std::fs::copy("layouts/pump-rewind.toml", &layout).unwrap();

@@ -26,10 +26,11 @@ fn report_writes_every_sheet_into_one_pdf() {
     let spec = beltwright::layout::parse(&src, "servo").expect("valid");
     let w = beltwright::winding::build(&spec).expect("builds");
     let page = beltwright::draw::Page::default();
+    let study = beltwright::study::Study::new(&w, None);
     let pages: usize = beltwright::draw::Sheet::ALL
         .iter()
-        .filter(|s| s.applies(&w))
-        .map(|s| beltwright::draw::draw(&w, *s, &page).len())
+        .filter(|s| s.applies(&study))
+        .map(|s| beltwright::draw::draw(&study, *s, &page).len())
         .sum();
     assert!(pages >= 5);
     // The tables come first (tests/draw_command.rs counts them), then the sheets.

@@ -3,6 +3,7 @@
 //! warnings, slips outside 0..1, small truths.
 
 mod common;
+use beltwright::output::Words;
 use common::{SOUND_12, json, run, small_record, temp_layout};
 
 use beltwright::output::{Format, render};

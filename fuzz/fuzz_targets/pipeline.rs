@@ -79,7 +79,7 @@ fuzz_target!(|data: &[u8]| {
     if let Ok(i) = inductance::inductance(&w, w.coils.len() <= 60) {
         check("inductance", &i);
     }
-    let html = beltwright::output::html::document(&w, None);
+    let html = beltwright::output::html::document(&beltwright::study::Study::new(&w, None));
     if !USER_SPELLS.load(std::sync::atomic::Ordering::Relaxed) {
         assert!(!html.contains("NaN"), "NaN on the HTML page");
     }
@@ -115,7 +115,7 @@ fuzz_target!(|data: &[u8]| {
         }
     }
     for sheet in Sheet::ALL {
-        for svg in draw::draw(&w, sheet, &Page::default()) {
+        for svg in draw::draw(&beltwright::study::Study::new(&w, None), sheet, &Page::default()) {
             roxmltree::Document::parse(&svg).expect("well-formed SVG");
         }
     }

@@ -1,6 +1,8 @@
 //! The commands: check the flags, read the layout files, call the library, present the
 //! reports and write the files asked for.
 
+use beltwright::output::Words;
+use beltwright::study::Study;
 use std::io::{IsTerminal, Write};
 use std::path::{Path, PathBuf};
 
@@ -9,7 +11,6 @@ use super::{Failure, Printed, note};
 use indicatif::ProgressBar;
 
 use beltwright::audit;
-use beltwright::draw::span_chart::pitch_chart;
 use beltwright::draw::{self, FileKind, Orientation, Page, Sheet};
 use beltwright::factors;
 use beltwright::field::{self, FieldOptions};
@@ -44,7 +45,8 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Draw(a) => {
             let kind = sheet_kind(&a.output)?;
             let w = load(&a.file)?;
-            let pages = draw::draw(&w, a.sheet.into(), &page_of(a.page, a.portrait));
+            let study = Study::new(&w, None);
+            let pages = draw::draw(&study, a.sheet.into(), &page_of(a.page, a.portrait));
             let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
             Ok(say(wrote(&written)))
         }
@@ -73,7 +75,8 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                 let w = winding::build_lenient(&spec)
                     .map_err(|e| plan_failure(&name, &source, &spec, &e))?;
                 let intended = intended(a.intended.as_deref(), &w, &name)?;
-                let html = beltwright::output::html::document(&w, intended.as_ref());
+                let study = Study::new(&w, intended.as_ref());
+                let html = beltwright::output::html::document(&study);
                 let inputs: Vec<&Path> = std::iter::once(a.file.as_path())
                     .chain(a.intended.as_deref())
                     .collect();
@@ -95,17 +98,23 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                 check_output(out, &[p.as_path()], "-o")?;
             }
             let intended = intended(a.intended.as_deref(), &w, &a.file.display().to_string())?;
+            let study = Study::new(&w, intended.as_ref());
             if kind == FileKind::Pdf {
-                let parts = beltwright::output::html::parts(&w, intended.as_ref());
+                let parts = beltwright::output::html::parts(&study);
                 for part in parts.parts.iter().filter(|p| p.title != "Data card") {
-                    pages.extend(draw::tables::draw(&w, &part.title, &part.sections, &page));
+                    pages.extend(draw::tables::draw(
+                        &study,
+                        &part.title,
+                        &part.sections,
+                        &page,
+                    ));
                 }
             }
             pages.extend(
                 Sheet::ALL
                     .into_iter()
-                    .filter(|s| s.applies(&w))
-                    .flat_map(|sheet| draw::draw(&w, sheet, &page)),
+                    .filter(|s| s.applies(&study))
+                    .flat_map(|sheet| draw::draw(&study, sheet, &page)),
             );
             let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
             Ok(say(wrote(&written)))
@@ -170,8 +179,9 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Thrust(a) => run_thrust(a),
         Command::Inductance(a) => {
             let w = load(&a.common.file)?;
-            let r = beltwright::inductance::inductance(&w, a.coils)
-                .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
+            let r = beltwright::inductance::inductance(&w, a.coils).map_err(|e| {
+                Failure::input(format!("{}: {}", a.common.file.display(), e.message()))
+            })?;
             Ok(present(r, a.common.format))
         }
         Command::Field(a) => run_field(a),
@@ -220,7 +230,7 @@ fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {
         end_effect: !a.no_end_effect,
     };
     let r = beltwright::thrust::thrust(&w, &q)
-        .map_err(|e| Failure::input(format!("{}: {e}", a.common.file.display())))?;
+        .map_err(|e| Failure::input(format!("{}: {}", a.common.file.display(), e.message())))?;
     Ok(present(r, a.common.format))
 }
 
@@ -273,8 +283,15 @@ fn run_rewind(a: RewindArgs) -> Result<Printed, Failure> {
     };
     let old = load(&a.from)?;
     let new = load(&a.to)?;
-    let report = rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a)
-        .map_err(|e| Failure::input(format!("{} -> {}: {e}", a.from.display(), a.to.display())))?;
+    let report =
+        rewind::rewind(&old, &new, conductor, a.wires_in_hand, a.line_current_a).map_err(|e| {
+            Failure::input(format!(
+                "{} -> {}: {}",
+                a.from.display(),
+                a.to.display(),
+                e.message()
+            ))
+        })?;
     Ok(present(report, a.format))
 }
 
@@ -309,13 +326,10 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
     let fail = |e: field::FieldError| Failure::input(format!("{name}: {e}"));
     let report = field::field(&w, &opts).map_err(fail)?;
     if let Some(out) = &a.svg {
-        let snaps = field::snapshots(&w, &opts, 6).map_err(fail)?;
-        write_atomic(
-            out,
-            &a.common.file,
-            draw::field_chart::field_sheet(&report, &snaps).as_bytes(),
-            "--svg",
-        )?;
+        let snaps = field::snapshots(&w, &opts, beltwright::study::FIELD_INSTANTS).map_err(fail)?;
+        let study = Study::new(&w, None);
+        let sheet = draw::field::draw_report(&study, &report, &snaps, &Page::default());
+        write_atomic(out, &a.common.file, sheet.as_bytes(), "--svg")?;
     }
     Ok(present(report, a.common.format))
 }
@@ -334,7 +348,7 @@ fn pitch(a: PitchArgs) -> Result<Printed, Failure> {
         write_atomic(
             path,
             &a.common.file,
-            pitch_chart(&report).as_bytes(),
+            draw::span::draw(&Study::new(&w, None), &report, &Page::default()).as_bytes(),
             "--svg",
         )?;
     }
@@ -442,7 +456,7 @@ fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::Plan
     let line = layout::locate(source, table, index, key)
         .map(|l| format!(", line {l}"))
         .unwrap_or_default();
-    Failure::input(format!("{name}{line}: {dotted}: {e}"))
+    Failure::input(format!("{name}{line}: {dotted}: {}", e.message()))
 }
 
 /// Read and validate a layout file, keeping its text for line numbers.
@@ -576,8 +590,9 @@ fn write_pack(
     // or not at all (a full disk leaves the folder as it was).
     let mut files: Vec<(PathBuf, Vec<u8>)> = Vec::new();
     let mut svg_sets: Vec<(PathBuf, usize)> = Vec::new();
+    let study = Study::new(w, None);
     for sheet in [Sheet::Slots, Sheet::Connections, Sheet::Card] {
-        let pages = draw::draw(w, sheet, &page);
+        let pages = draw::draw(&study, sheet, &page);
         for kind in [FileKind::Svg, FileKind::Pdf] {
             let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };
             let path = dir.join(format!("{stem}-{}.{ext}", sheet.name()));

@@ -1,0 +1,476 @@
+//! The model's design: the core, the supply and the designer's intent (slots, poles,
+//! phases, layers, span, coil shape, turns, paths, connection, skew), and what the shop and
+//! the physics need besides the coils (wire, copper rule, slot area, air gap, secondary
+//! plate, lead scheme, measured values). A [`Design`] plus coils is a
+//! [`crate::winding::Winding`]; the layout parser produces one and nothing else knows the
+//! file. A new layout key touches the parser and this file only. SI units inside.
+//!
+//! Title and drawing colours are [`Labels`]: they name and paint a winding, never change
+//! its physics.
+
+use std::fmt;
+
+use serde::Serialize;
+
+/// Closed rotary core or open, flat linear primary.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Topology {
+    /// A closed core: slot Z is followed by slot 1 again.
+    Rotary,
+    /// A flat, open-ended primary: slot 1 and slot Z are the two ends.
+    Linear,
+}
+
+impl fmt::Display for Topology {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Topology::Rotary => "rotary",
+            Topology::Linear => "linear",
+        })
+    }
+}
+
+/// How the coils of a single-layer winding are shaped.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Style {
+    /// Coils of one span, laid like roof tiles.
+    Lap,
+    /// Nested coils of different spans around one centre (single layer only).
+    Concentric,
+}
+
+/// How the three phases are joined.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Connection {
+    /// Phase ends U2, V2, W2 joined in a star point.
+    Star,
+    /// Phases joined end to start in a ring.
+    Delta,
+}
+
+impl Connection {
+    /// Phase (section) voltage for line voltage `line_v`: U/√3 in star, U in delta (the
+    /// one star/delta rule; IEC 60050-141, the relations of a symmetrical three-phase
+    /// system).
+    pub fn phase_voltage(self, line_v: f64) -> f64 {
+        match self {
+            Connection::Star => line_v / SQRT_3,
+            Connection::Delta => line_v,
+        }
+    }
+
+    /// Phase current for line current `line_a`: I in star, I/√3 in delta.
+    pub fn phase_current(self, line_a: f64) -> f64 {
+        match self {
+            Connection::Star => line_a,
+            Connection::Delta => line_a / SQRT_3,
+        }
+    }
+
+    /// Line current for phase current `phase_a`: the inverse of [`Connection::phase_current`].
+    pub fn line_current(self, phase_a: f64) -> f64 {
+        match self {
+            Connection::Star => phase_a,
+            Connection::Delta => phase_a * SQRT_3,
+        }
+    }
+}
+
+/// √3, the ratio of line to phase quantities of a symmetrical three-phase system.
+pub const SQRT_3: f64 = 1.732_050_807_568_877_2;
+
+impl fmt::Display for Connection {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Connection::Star => "star",
+            Connection::Delta => "delta",
+        })
+    }
+}
+
+/// Core sizes, in SI units inside the program.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Core {
+    /// Slot pitch along the gap, metres.
+    pub slot_pitch_m: Option<f64>,
+    /// Bore diameter of a rotary core, metres.
+    pub bore_m: Option<f64>,
+    /// Stack length (core depth across the gap's direction of travel), metres.
+    pub stack_m: Option<f64>,
+}
+
+/// Supply the winding is designed for.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Supply {
+    /// Supply frequency, hertz.
+    pub frequency_hz: Option<f64>,
+    /// Line-to-line voltage, volts r.m.s.
+    pub line_voltage_v: Option<f64>,
+}
+
+/// Conductor metal of the magnet wire.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize, Default,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Material {
+    /// Annealed copper (IEC 60028).
+    #[default]
+    Copper,
+    /// Aluminium (IEC 60889 values).
+    #[serde(alias = "aluminum")]
+    Aluminium,
+}
+
+impl std::fmt::Display for Material {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self {
+            Material::Copper => "copper",
+            Material::Aluminium => "aluminium",
+        })
+    }
+}
+
+/// How the wire's bare size was given.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "snake_case")]
+pub enum WireSize {
+    /// Bare diameter, metres.
+    Diameter(f64),
+    /// American Wire Gauge number (0000 is −3).
+    Awg(i32),
+}
+
+/// How the insulated diameter is found.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "snake_case")]
+pub enum Insulation {
+    /// IEC 60317 enamel grade 1, 2 or 3.
+    Grade(u8),
+    /// Overall diameter over the enamel, metres, as measured or from the maker's sheet.
+    Diameter(f64),
+}
+
+/// The `[wire]` table.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct WireSpec {
+    /// Bare size of one strand.
+    pub size: WireSize,
+    /// Strands wound in hand as one conductor.
+    pub strands_in_hand: u32,
+    /// Enamel; grade 2 when not given.
+    pub insulation: Insulation,
+    /// Conductor metal.
+    pub material: Material,
+}
+
+/// Rule for the mean length of one turn.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct TurnRule {
+    /// Mean turn as given (`core.mean_turn_mm`), metres: overrides the rule.
+    pub mean_turn_m: Option<f64>,
+    /// Allowance per turn for both end windings beyond the span-proportional part, metres.
+    pub end_allowance_m: f64,
+    /// End-winding length per coil end as a multiple of the coil's span width.
+    pub end_factor: f64,
+}
+
+impl Default for TurnRule {
+    /// l_mt = 2·L + 2·1.2·W + 0.1 m (the low-voltage rule quoted under `card::copper`).
+    fn default() -> Self {
+        TurnRule {
+            mean_turn_m: None,
+            end_allowance_m: 0.1,
+            end_factor: 1.2,
+        }
+    }
+}
+
+/// The `[measured]` table: resistances as read, between line terminals or across each
+/// section's own leads, and the winding temperature at the reading.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Measured {
+    /// Between line terminals 1-2, 2-3 and 3-1, ohms.
+    pub line_resistance_ohm: Option<[f64; 3]>,
+    /// Across each section's own leads, ohms, in the card's section order: U, V, W (first
+    /// sections), then U, V, W (second sections of a 9- or 12-lead winding). A nine-lead
+    /// star machine's second sections meet inside, so their three values are the readings
+    /// T7-T8, T8-T9, T9-T7 (U5-V5 ... in IEC marking) between their free ends.
+    pub section_resistance_ohm: Option<Vec<f64>>,
+    /// Winding temperature at the measurement, °C.
+    pub temperature_c: f64,
+}
+
+/// Insulation (thermal) class on a nameplate (IEC 60085).
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+pub enum InsulationClass {
+    /// 105 °C.
+    A,
+    /// 120 °C.
+    E,
+    /// 130 °C.
+    B,
+    /// 155 °C.
+    F,
+    /// 180 °C.
+    H,
+}
+
+/// The `[nameplate]` table: the machine's rating as stamped. Every field optional.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Nameplate {
+    /// Rated output, watts (from `power_kw` or `power_hp`, 1 hp = 745.7 W).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_w: Option<f64>,
+    /// Rated line voltages, volts: one, or two for a dual-voltage machine.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub voltages_v: Vec<f64>,
+    /// Rated line currents, amperes, one per voltage.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub currents_a: Vec<f64>,
+    /// Rated speed, revolutions per minute.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub speed_rpm: Option<f64>,
+    /// Rated frequency, hertz.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub frequency_hz: Option<f64>,
+    /// Frame designation as stamped.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub frame: Option<String>,
+    /// Connection as stamped (e.g. "YY/Y", "D/Y").
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub connection: Option<String>,
+    /// Insulation class.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub insulation_class: Option<InsulationClass>,
+    /// Rated efficiency, a fraction.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub efficiency: Option<f64>,
+    /// Rated power factor.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_factor: Option<f64>,
+    /// Service factor (NEMA).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub service_factor: Option<f64>,
+}
+
+impl Nameplate {
+    /// The rated line current that goes with line voltage `v`: the current stamped beside
+    /// the voltage nearest to it, or the only current.
+    pub fn current_at(&self, v: Option<f64>) -> Option<f64> {
+        match (self.currents_a.len(), v) {
+            (0, _) => None,
+            (1, _) => self.currents_a.first().copied(),
+            (_, None) => None,
+            (_, Some(v)) => self
+                .voltages_v
+                .iter()
+                .zip(&self.currents_a)
+                .min_by(|a, b| (a.0 - v).abs().total_cmp(&(b.0 - v).abs()))
+                .map(|(_, i)| *i),
+        }
+    }
+}
+
+/// The `[job]` table: the shop's job data, printed on the card and the title block.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Job {
+    /// Job or work-order number.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub number: Option<String>,
+    /// Customer.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub customer: Option<String>,
+    /// Date, as written.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub date: Option<String>,
+    /// Who did the work.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub technician: Option<String>,
+    /// Free notes.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub notes: Option<String>,
+}
+
+/// Conductor of a flat primary's secondary plate.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Secondary {
+    /// Electrical conductivity, S/m.
+    pub conductivity_s_m: f64,
+    /// Plate thickness, metres.
+    pub thickness_m: f64,
+    /// Plate width across the direction of travel, metres (the stack width when not given).
+    pub width_m: Option<f64>,
+    /// True when the plate lies on back iron (single-sided machine).
+    pub back_iron: bool,
+}
+
+/// Lead-marking scheme on the terminal box.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize, Default,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Marking {
+    /// IEC 60034-8 letters: U1, U2, V1, ...
+    #[default]
+    Iec,
+    /// NEMA MG 1 T-lead numbers: T1, T2, ...
+    Nema,
+}
+
+/// Leads brought out and how they are marked.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
+pub struct Leads {
+    /// Leads brought out: 3, 6, 9 or 12.
+    pub count: u8,
+    /// Marking scheme.
+    pub marking: Marking,
+}
+
+impl Default for Leads {
+    fn default() -> Self {
+        Leads {
+            count: 6,
+            marking: Marking::Iec,
+        }
+    }
+}
+
+/// What a winding is asked to be: core, supply, the designer's choices for the coils, and
+/// the shop's data. Synthesis reads it and nothing else; a [`crate::winding::Winding`] keeps
+/// it beside the coils it was built with (or recorded as). Every shop field is optional in
+/// the layout file.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Design {
+    /// Closed or open core.
+    pub topology: Topology,
+    /// Slot count Z, end slots of a linear primary included.
+    pub slots: usize,
+    /// Pole count 2p.
+    pub poles: usize,
+    /// Phase count m.
+    pub phases: usize,
+    /// Labels of the phases, in sequence order.
+    pub phase_labels: Vec<String>,
+    /// Layers per slot, 1 or 2.
+    pub layers: usize,
+    /// Coil span asked for, in slot pitches; `None` means "nearest full pitch" (the span a
+    /// winding was built with is [`crate::winding::Winding::pitch`]).
+    pub pitch: Option<usize>,
+    /// Coil shape of single-layer windings.
+    pub style: Style,
+    /// Turns per coil.
+    pub turns_per_coil: u32,
+    /// Parallel paths per phase asked for.
+    pub parallel_paths: usize,
+    /// Star or delta.
+    pub connection: Connection,
+    /// Skew of slots against the field, in slot pitches.
+    pub skew_slots: f64,
+    /// Core sizes.
+    pub core: Core,
+    /// Supply.
+    pub supply: Supply,
+    /// Magnet wire.
+    pub wire: Option<WireSpec>,
+    /// Mean-turn rule.
+    pub turn: TurnRule,
+    /// Usable slot area for the wire, m².
+    pub slot_area_m2: Option<f64>,
+    /// Slot width and depth of a rectangular slot, m, when given as dimensions.
+    pub slot_size_m: Option<(f64, f64)>,
+    /// Mechanical clearance between primary and secondary, metres.
+    pub airgap_m: Option<f64>,
+    /// Slot opening width at the gap, metres.
+    pub slot_opening_m: Option<f64>,
+    /// Phase resistance at 20 °C given directly (when no wire data), ohms.
+    pub phase_resistance_ohm: Option<f64>,
+    /// Leads and marking.
+    pub leads: Leads,
+    /// Measured values for the audit.
+    pub measured: Option<Measured>,
+    /// Secondary plate of a flat primary.
+    pub secondary: Option<Secondary>,
+    /// True when `winding.turns_per_coil` was not given and one turn is assumed.
+    pub turns_assumed: bool,
+    /// The rating as stamped.
+    pub nameplate: Option<Nameplate>,
+    /// The shop's job data.
+    pub job: Option<Job>,
+}
+
+impl Design {
+    /// A three-phase design of the given core with every optional key at its default (U, V,
+    /// W; lap; one turn per coil; one path; star; no skew; nearest full pitch; no shop
+    /// data): the start for feasibility probes, surveys and tests, changed with
+    /// struct-update syntax.
+    pub fn basic(topology: Topology, slots: usize, poles: usize, layers: usize) -> Design {
+        Design {
+            topology,
+            slots,
+            poles,
+            phases: 3,
+            phase_labels: vec!["U".into(), "V".into(), "W".into()],
+            layers,
+            pitch: None,
+            style: Style::Lap,
+            turns_per_coil: 1,
+            parallel_paths: 1,
+            connection: Connection::Star,
+            skew_slots: 0.0,
+            core: Core::default(),
+            supply: Supply::default(),
+            wire: None,
+            turn: TurnRule::default(),
+            slot_area_m2: None,
+            slot_size_m: None,
+            airgap_m: None,
+            slot_opening_m: None,
+            phase_resistance_ohm: None,
+            leads: Leads::default(),
+            measured: None,
+            secondary: None,
+            turns_assumed: false,
+            nameplate: None,
+            job: None,
+        }
+    }
+
+    /// The same design asked for at span `y` (everything else whole).
+    pub fn with_span(&self, y: usize) -> Design {
+        Design {
+            pitch: Some(y),
+            ..self.clone()
+        }
+    }
+
+    /// Slot pitch in metres: given directly, or from the bore of a rotary core.
+    pub fn slot_pitch_m(&self) -> Option<f64> {
+        self.core.slot_pitch_m.or_else(|| {
+            self.core
+                .bore_m
+                .filter(|_| self.topology == Topology::Rotary)
+                .map(|d| std::f64::consts::PI * d / self.slots as f64)
+        })
+    }
+}
+
+/// What names and paints a winding on sheets and reports, apart from its physics.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, schemars::JsonSchema)]
+pub struct Labels {
+    /// Free text for drawings and reports.
+    pub title: Option<String>,
+    /// Drawing colours per phase, when the layout overrides the defaults.
+    pub colours: Option<Vec<String>>,
+}

@@ -1,0 +1,149 @@
+//! The performance sheet of a flat primary: thrust and normal force, then current and power
+//! factor, against speed, with and without the end effect, and the model's assumptions.
+
+use crate::output::Words;
+use svg::node::element::Group;
+
+use super::chart::{Series, chart};
+use super::page::{Canvas, Page, Rect};
+use super::text::{self, Anchor, label};
+use super::title::TitleBlock;
+use crate::output::num;
+use crate::thrust::ThrustReport;
+
+/// Okabe–Ito black, vermillion and blue (M. Okabe, K. Ito, "Color Universal Design", 2008).
+const INK: [&str; 3] = ["#000000", "#D55E00", "#0072B2"];
+
+/// Whether the winding carries what the performance model needs.
+pub fn applies(s: &crate::study::Study) -> bool {
+    s.thrust().is_ok()
+}
+
+/// Draw the performance sheet; without the data the model needs, the sheet says what is
+/// missing instead.
+pub fn draw(s: &crate::study::Study, page: &Page) -> String {
+    let mut c = Canvas::new(page, &TitleBlock::of(s, "Performance"));
+    let a = c.area;
+    match s.thrust() {
+        Ok(report) => {
+            c.add(sheet(report, a));
+        }
+        Err(e) => {
+            let mut g = Group::new().set("class", "not-available");
+            for (i, l) in text::wrap(
+                &format!("No performance sheet for this winding: {}.", e.message()),
+                3.5,
+                a.w,
+            )
+            .iter()
+            .enumerate()
+            {
+                g = g.add(label(
+                    a.x,
+                    a.y + 6.0 + i as f64 * 5.0,
+                    3.5,
+                    Anchor::Start,
+                    l,
+                ));
+            }
+            c.add(g);
+        }
+    }
+    c.finish()
+}
+
+fn sheet(with: &ThrustReport, a: Rect) -> Group {
+    let notes_h = 22.0;
+    let gap = 6.0;
+    let chart_h = (a.h - notes_h - gap) / 2.0;
+    let pts = |rows: &[crate::thrust::Row], f: &dyn Fn(&crate::thrust::Row) -> f64| {
+        rows.iter()
+            .map(|row| (row.speed_m_s, f(row)))
+            .collect::<Vec<(f64, f64)>>()
+    };
+    // One quantity with and without the end effect: solid and dashed, in the first two inks.
+    let both = |names: [&'static str; 2], f: &dyn Fn(&crate::thrust::Row) -> f64| {
+        [
+            Series {
+                name: names[0],
+                points: pts(&with.rows, f),
+                colour: INK[0],
+                dash: "",
+            },
+            Series {
+                name: names[1],
+                points: pts(&with.long_primary_rows, f),
+                colour: INK[1],
+                dash: "3 1.5",
+            },
+        ]
+    };
+    let [thrust_with, thrust_without] =
+        both(["thrust, with end effect", "thrust, no end effect"], &|r| {
+            r.thrust_n
+        });
+    let top = chart(
+        Rect {
+            x: a.x,
+            y: a.y,
+            w: a.w,
+            h: chart_h,
+        },
+        "Thrust and normal force against speed",
+        "secondary speed, m/s",
+        "force, N",
+        &[
+            thrust_with,
+            thrust_without,
+            Series {
+                name: "normal force (attraction +)",
+                points: pts(&with.rows, &|r| r.normal_force_n),
+                colour: INK[2],
+                dash: "0.8 1.2",
+            },
+        ],
+    );
+    let bottom = chart(
+        Rect {
+            x: a.x,
+            y: a.y + chart_h + gap,
+            w: a.w,
+            h: chart_h,
+        },
+        "Phase current against speed",
+        "secondary speed, m/s",
+        "current, A",
+        &both(
+            ["current, with end effect", "current, no end effect"],
+            &|r| r.current_a,
+        ),
+    );
+    let mut g = Group::new()
+        .set("class", "performance")
+        .add(top)
+        .add(bottom);
+    let notes = format!(
+        "v_s = {} m/s; G = {}; k_C = {}; edge factor {}; g_e = {} mm; L_m = {} mH; R2' = {} \
+         ohm. Largest thrust {} N at slip {}. Model: {}",
+        num(with.synchronous_speed_m_s, 3),
+        num(with.goodness_factor, 3),
+        num(with.carter_coefficient, 4),
+        num(with.edge_factor, 4),
+        num(with.effective_gap_mm, 3),
+        num(with.magnetizing_inductance_h * 1e3, 3),
+        num(with.secondary_resistance_ohm, 4),
+        num(with.max_thrust_n, 1),
+        num(with.max_thrust_slip, 3),
+        with.assumptions
+            .iter()
+            .map(Words::message)
+            .collect::<Vec<_>>()
+            .join("; ")
+    );
+    let mut y = a.bottom() - notes_h + 3.0;
+    for l in text::wrap(&notes, 2.6, a.w) {
+        g = g.add(label(a.x, y, 2.6, Anchor::Start, &l));
+        y += 3.6;
+    }
+    g
+}

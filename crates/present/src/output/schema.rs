@@ -1,0 +1,25 @@
+//! JSON Schemas of every command's `--format json` output, made from the JSON forms of the
+//! report types (`output::json`), so the documented format cannot drift from what the tool writes.
+//! `docs/schemas/` holds them; `tests/json_schemas.rs` checks the files against these and
+//! every example's actual output against the files.
+
+use schemars::schema_for;
+use serde_json::Value;
+
+/// (command, schema of its JSON output) for every analysis command.
+pub fn all() -> Vec<(&'static str, Value)> {
+    let v = |s: schemars::Schema| s.to_value();
+    use super::json::*;
+    vec![
+        ("plan", v(schema_for!(PlanJson))),
+        ("factors", v(schema_for!(FactorsJson))),
+        ("field", v(schema_for!(FieldJson))),
+        ("pitch", v(schema_for!(PitchJson))),
+        ("survey", v(schema_for!(SurveyJson))),
+        ("audit", v(schema_for!(AuditJson))),
+        ("rewind", v(schema_for!(RewindJson))),
+        ("card", v(schema_for!(CardJson))),
+        ("thrust", v(schema_for!(ThrustJson))),
+        ("inductance", v(schema_for!(InductanceJson))),
+    ]
+}

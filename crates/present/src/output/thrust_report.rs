@@ -1,0 +1,216 @@
+//! How the thrust and inductance reports read as text and CSV.
+
+use super::reports::wrap;
+use super::{Align, Report, Section, Table, num};
+use crate::inductance::InductanceReport;
+use crate::output::Words;
+use crate::thrust::{Feed, ThrustReport};
+
+impl Report for ThrustReport {
+    fn json(&self) -> impl serde::Serialize + '_ {
+        super::json::ThrustJson::of(self)
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        sections_every(self, 1)
+    }
+
+    fn main_table(&self) -> Table {
+        table_every(self, 1)
+    }
+}
+
+/// The performance report with every `every`-th operating point in its table (the first and
+/// the last always among them when the sweep divides evenly).
+pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
+    let this = report;
+    {
+        let mut s = Vec::from(super::opening("Flat primary performance", &this.design));
+        let c = &this.circuit;
+        let feed = match this.feed {
+            Feed::Voltage { phase_voltage_v } => {
+                format!("voltage-fed, {} V per phase", num(phase_voltage_v, 1))
+            }
+            Feed::Current { phase_current_a } => {
+                format!("current-fed, {} A per phase", num(phase_current_a, 3))
+            }
+        };
+        let lines = [
+            format!(
+                "{feed}; end effect {}",
+                if this.end_effect {
+                    "included (Duncan)"
+                } else {
+                    "left out"
+                }
+            ),
+            format!(
+                "pole pitch {} mm, synchronous speed {} m/s, active length {} mm, width {} mm",
+                num(c.pole_pitch_m * 1e3, 2),
+                num(this.synchronous_speed_m_s, 3),
+                num(c.length_m * 1e3, 1),
+                num(c.width_m * 1e3, 1)
+            ),
+            format!(
+                "goodness factor G = {}, Carter k_C = {}, edge factor K = {}, effective gap \
+                 {} mm",
+                num(this.goodness_factor, 3),
+                num(this.carter_coefficient, 4),
+                num(this.edge_factor, 4),
+                num(this.effective_gap_mm, 3)
+            ),
+            format!(
+                "per phase: R1 = {} ohm, X1 = {} ohm (slot {}, end {}, differential {}), X_m = \
+                 {} ohm (L_m = {} mH), R2' = {} ohm",
+                num(c.r1_ohm, 4),
+                num(c.x1_ohm, 4),
+                num(c.x_slot_ohm, 4),
+                num(c.x_end_ohm, 4),
+                num(c.x_diff_ohm, 4),
+                num(c.xm_ohm, 4),
+                num(this.magnetizing_inductance_h * 1e3, 4),
+                num(this.secondary_resistance_ohm, 4)
+            ),
+            format!(
+                "largest thrust {} N at slip {}",
+                num(this.max_thrust_n, 2),
+                num(this.max_thrust_slip, 4)
+            ),
+        ];
+        s.push(Section::Lines(
+            lines.iter().flat_map(|l| wrap(l, 78)).collect(),
+        ));
+        s.push(Section::Table(table_every(this, every)));
+        let mut notes: Vec<String> =
+            vec!["slip below 0: generating; above 1: plugging (braking against the field)".into()];
+        notes.extend(
+            this.assumptions
+                .iter()
+                .map(|a| format!("assumed: {}", a.message())),
+        );
+        s.push(Section::Lines(
+            notes.iter().flat_map(|l| wrap(l, 78)).collect(),
+        ));
+        s.push(super::caution());
+        s
+    }
+}
+
+/// The performance table with every `every`-th operating point.
+fn table_every(report: &ThrustReport, every: usize) -> Table {
+    {
+        let mut t = Table::new(&[
+            ("slip", Align::Right),
+            ("speed m/s", Align::Right),
+            ("thrust N", Align::Right),
+            ("normal N", Align::Right),
+            ("current A", Align::Right),
+            ("power factor", Align::Right),
+            ("efficiency", Align::Right),
+            ("airgap W", Align::Right),
+        ]);
+        for r in report.rows.iter().step_by(every.max(1)) {
+            t.push(vec![
+                num(r.slip, 4),
+                num(r.speed_m_s, 3),
+                num(r.thrust_n, 2),
+                num(r.normal_force_n, 2),
+                num(r.current_a, 3),
+                num(r.power_factor, 3),
+                r.efficiency.map_or(String::new(), |e| num(e, 3)),
+                num(r.airgap_power_w, 1),
+            ]);
+        }
+        t
+    }
+}
+
+impl Report for InductanceReport {
+    fn json(&self) -> impl serde::Serialize + '_ {
+        super::json::InductanceJson::of(self)
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        let mut s = Vec::from(super::opening(
+            "Inductances by winding functions",
+            &self.design,
+        ));
+        s.push(Section::Lines(vec![
+            format!(
+                "effective gap {} mm; gap inductances in mH, leakage {} mH per phase not \
+                 included in the matrix",
+                num(self.effective_gap_mm, 3),
+                num(self.leakage_h * 1e3, 4)
+            ),
+            format!(
+                "positive-sequence inductance {} mH",
+                num(self.positive_sequence_h * 1e3, 4)
+            ),
+        ]));
+        s.push(Section::Table(self.main_table()));
+        let mut lines = Vec::new();
+        if let Some(i) = &self.phase_currents_a {
+            lines.push(format!(
+                "under balanced line voltages: phase currents {} A",
+                i.iter().map(|x| num(*x, 3)).collect::<Vec<_>>().join(", ")
+            ));
+        }
+        lines.push(format!(
+            "negative-sequence current {}% of positive; backward field about {}% of forward",
+            num(self.negative_sequence_current_percent, 3),
+            num(self.backward_field_percent, 3)
+        ));
+        lines.extend(
+            self.assumptions
+                .iter()
+                .map(|a| format!("assumed: {}", a.message())),
+        );
+        s.push(Section::Lines(
+            lines.iter().flat_map(|l| wrap(l, 78)).collect(),
+        ));
+        if !self.ranking.is_empty() {
+            s.push(Section::Heading(
+                "Layouts of the same primary by unbalance (least first)".into(),
+            ));
+            let mut t = Table::new(&[
+                ("poles", Align::Right),
+                ("layers", Align::Right),
+                ("span", Align::Right),
+                ("negative sequence %", Align::Right),
+                ("", Align::Left),
+            ]);
+            for r in &self.ranking {
+                t.push(vec![
+                    r.poles.to_string(),
+                    r.layers.to_string(),
+                    r.pitch.to_string(),
+                    num(r.negative_sequence_current_percent, 3),
+                    if r.this_layout {
+                        "this layout".into()
+                    } else {
+                        String::new()
+                    },
+                ]);
+            }
+            s.push(Section::Table(t));
+        }
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        let mut cols: Vec<(String, Align)> = vec![("phase".into(), Align::Left)];
+        cols.extend(
+            self.phases
+                .iter()
+                .map(|p| (format!("{p} mH"), Align::Right)),
+        );
+        let refs: Vec<(&str, Align)> = cols.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+        let mut t = Table::new(&refs);
+        for (p, row) in self.phases.iter().zip(&self.matrix_h) {
+            let mut r = vec![p.clone()];
+            r.extend(row.iter().map(|x| num(x * 1e3, 5)));
+            t.push(r);
+        }
+        t
+    }
+}

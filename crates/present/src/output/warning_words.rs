@@ -1,0 +1,270 @@
+//! Warnings, suggestions and assumptions in words: the analyses return them as typed facts
+//! ([`DesignWarning`], [`CardWarning`], [`Suggestion`], [`Assumption`]); this is the one
+//! place they become sentences, for every presenter (text, JSON, sheets, the HTML page).
+
+use super::{Say, Words, worded};
+use std::fmt;
+
+use crate::assumption::Assumption;
+use crate::card::CardWarning;
+use crate::card::measured::Suggestion;
+use crate::numbering::num;
+use crate::warnings::DesignWarning;
+
+impl Words for DesignWarning {
+    /// The warning in words.
+    fn message(&self) -> String {
+        match self {
+            DesignWarning::SpanFarFromPolePitch {
+                span,
+                pole_pitch,
+                winding_factor,
+            } => format!(
+                "span {span} is far from the pole pitch of {} slots (k_w1 = {}): choose a span \
+                 near the pole pitch",
+                num(*pole_pitch, 3),
+                num(*winding_factor, 3)
+            ),
+            DesignWarning::LowWindingFactor {
+                winding_factor,
+                floor,
+            } => format!(
+                "k_w1 = {} is below {}: most of the copper does no useful work",
+                num(*winding_factor, 3),
+                num(*floor, 2)
+            ),
+            DesignWarning::PulsatingExceedsWorking { ratio } => format!(
+                "the open ends' pulsating field is {} times the working wave: use a double \
+                 layer (half-filled end slots) or more poles",
+                num(*ratio, 3)
+            ),
+        }
+    }
+}
+
+impl Words for CardWarning {
+    /// The warning in words.
+    fn message(&self) -> String {
+        match self {
+            CardWarning::FillAboveLimit { fill, limit } => format!(
+                "slot fill {:.0}% by insulated wire is above the usual {:.0}% for hand \
+                 insertion: choose a smaller wire with more strands, or check the slot area",
+                fill * 100.0,
+                limit * 100.0
+            ),
+            CardWarning::NoMeanTurn => "no mean turn: give core.stack_mm and the slot pitch (or \
+                 bore), or core.mean_turn_mm, for resistance and copper mass"
+                .into(),
+            CardWarning::NoWire => "no wire: give [wire] diameter_mm or awg for resistance, \
+                 copper mass and fill"
+                .into(),
+            CardWarning::NotThreePhase => {
+                "lead markings and line resistances are given for three-phase windings only".into()
+            }
+            CardWarning::PathWithoutCoils { phase, path, paths } => {
+                if *paths > 1 {
+                    format!(
+                        "path {path} of phase {phase} holds no coils, so no resistance is given \
+                         for it or between leads that include it: give each coil its path \
+                         (coil.path = 1 to {paths})"
+                    )
+                } else {
+                    format!(
+                        "phase {phase} holds no coils, so no resistance is given for it or \
+                         between the line terminals: record its coils"
+                    )
+                }
+            }
+            CardWarning::SupplyAtHigherVoltage {
+                supply_v,
+                lower_v,
+                higher_v,
+            } => format!(
+                "the supply is {} V, the nameplate's higher voltage, but a 9- or 12-lead \
+                 winding is planned with its two sections in parallel, for its lower voltage \
+                 ({} V): give supply.line_voltage_v = {} so the planned board, the figures and \
+                 the current density are for the sections in parallel; the series board is \
+                 then the {} V one",
+                num(*supply_v, 0),
+                num(*lower_v, 0),
+                num(*lower_v, 0),
+                num(*higher_v, 0)
+            ),
+            CardWarning::CurrentDensityAbove {
+                density_a_mm2,
+                limit_a_mm2,
+            } => format!(
+                "the wire carries {} A/mm2 at rated current, above the {} A/mm2 usual for an \
+                 enclosed motor: choose a larger wire or more strands in hand, or check the \
+                 nameplate current",
+                num(*density_a_mm2, 2),
+                num(*limit_a_mm2, 1)
+            ),
+        }
+    }
+}
+
+impl Words for Suggestion {
+    /// The suggestion in words.
+    fn message(&self) -> String {
+        let pct = |r: f64| format!("{:+.1}%", (r - 1.0) * 100.0);
+        // A phase is named by its label, a section by its leads ("T1-T4").
+        // A section is named by its leads ("T1-T4", or "T8, from the three pair readings");
+        // a phase by its label, which holds neither a hyphen nor a comma.
+        let is_section = |name: &str| name.contains('-') || name.contains(',');
+        let what = |name: &str| {
+            if is_section(name) { "section" } else { "phase" }
+        };
+        let who = |name: &str| {
+            if is_section(name) {
+                format!("section {name}")
+            } else {
+                format!("phase {name}")
+            }
+        };
+        match self {
+            Suggestion::AsExpected => "the readings agree with the card".into(),
+            Suggestion::WireSizeStep { ratio, diameter_mm } => format!(
+                "all phases read {} against the card, as a wire of {} mm would: check the \
+                 wire size on the spool",
+                pct(*ratio),
+                num(*diameter_mm, 3)
+            ),
+            Suggestion::StrandMissing { ratio, strands } => format!(
+                "all phases read {}, as {} in hand instead of {strands} would: check the \
+                 strands at the joints",
+                pct(*ratio),
+                crate::numbering::count(*strands as usize - 1, "strand", "strands")
+            ),
+            Suggestion::TurnsOrWire { ratio } => format!(
+                "all phases read {} against the card: the turns per coil or the wire differ \
+                 from the card, or the winding is not at the temperature given",
+                pct(*ratio)
+            ),
+            Suggestion::PathOpen { phase, ratio } => format!(
+                "phase {phase} reads {} against the others, as with one parallel path open: \
+                 look for a joint not made in that phase",
+                pct(*ratio)
+            ),
+            Suggestion::StrandOpen {
+                phase,
+                ratio,
+                strands,
+            } => format!(
+                "{} reads {} against the others, as {} in hand instead of {strands} \
+                 would: one strand is open or not joined in that {}",
+                who(phase),
+                pct(*ratio),
+                crate::numbering::count(*strands as usize - 1, "strand", "strands"),
+                what(phase)
+            ),
+            Suggestion::Open { phase, ratio } => format!(
+                "{} reads {} times the others: an open circuit or a joint that barely \
+                 touches in that {}; do not energise",
+                who(phase),
+                num(*ratio, 1),
+                what(phase)
+            ),
+            Suggestion::High { phase, ratio } => format!(
+                "{} reads {} against the others (high): look for a poor joint, a smaller \
+                 wire or extra turns in that {}",
+                who(phase),
+                pct(*ratio),
+                what(phase)
+            ),
+            Suggestion::Low { phase, ratio } => format!(
+                "{} reads {} against the others (low): look for shorted turns, fewer \
+                 turns or a larger wire in that {}",
+                who(phase),
+                pct(*ratio),
+                what(phase)
+            ),
+            Suggestion::OpenInDelta { phase } => format!(
+                "the readings are those of a delta with phase {phase} open (the two readings \
+                 across the other phases add up to the third): find the break or the joint \
+                 not made in phase {phase}; do not energise"
+            ),
+            Suggestion::Inconsistent => "no connection of windings gives these readings (one \
+                 is larger than the other two together): re-measure with clean contacts"
+                .into(),
+            Suggestion::OtherConnection { ratio, as_if } => format!(
+                "all phases read {} times the card, as the winding would linked in {as_if}: \
+                 check how the leads were linked when measured",
+                num(*ratio, 2)
+            ),
+            Suggestion::Scattered => {
+                "the readings differ in no single-phase pattern: re-measure with clean \
+                 contacts at a steady temperature"
+                    .into()
+            }
+        }
+    }
+}
+
+impl fmt::Display for Say<'_, Assumption> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self.0 {
+            Assumption::ThrustModel => f.write_str(
+                "thin plate, unsaturated iron, secondary leakage neglected, plate wider than the \
+                 stack, sinusoidal fields (a first estimate, not a test result)",
+            ),
+            Assumption::NoBackIron => f.write_str(
+                "no back iron: taken as a double-sided pair of primaries, gap 2 x clearance + \
+                 plate",
+            ),
+            Assumption::NoSlotOpening => {
+                f.write_str("no slot opening given: Carter's coefficient 1")
+            }
+            Assumption::NoPlateWidth => {
+                f.write_str("no plate width given: the plate as wide as the stack")
+            }
+            Assumption::NoPrimaryResistance => f.write_str(
+                "no wire and no winding.phase_resistance_ohm: primary resistance 0 (copper loss \
+                 left out)",
+            ),
+            Assumption::NoSlotSize => f.write_str(
+                "no slot width and depth: slot permeance 1.0 (a slot three times as deep as wide)",
+            ),
+            Assumption::MagneticGap { mm } => write!(f, "magnetic gap {} mm", num(*mm, 3)),
+            Assumption::SupplyDefaulted => {
+                f.write_str("no full [supply]: currents worked out at 50 Hz and 400 V line voltage")
+            }
+            Assumption::LineVoltageShared { volts: Some(v) } => {
+                write!(f, "line voltage {v} V taken for both designs")
+            }
+            Assumption::LineVoltageShared { volts: None } => {
+                f.write_str("no line voltage given: the same line voltage assumed for both")
+            }
+            Assumption::FrequencyShared { hertz: Some(h) } => {
+                write!(f, "frequency {h} Hz taken for both designs")
+            }
+            Assumption::FrequencyShared { hertz: None } => {
+                f.write_str("no frequency given: the same frequency assumed for both")
+            }
+            Assumption::GoodnessOutOfRange { goodness } => write!(
+                f,
+                "goodness factor {} is outside the range of about 1 to 50 the circuit model \
+                 stands for: its thrust and speed figures are an extrapolation",
+                num(*goodness, 3)
+            ),
+            Assumption::GapLargeAgainstPitch { ratio } => write!(
+                f,
+                "the magnetic gap is {} of the pole pitch, not small against it (above 0.1): \
+                 the one-dimensional gap overstates thrust and normal force",
+                num(*ratio, 3)
+            ),
+            Assumption::CoilMatrixOmitted { coils, limit } => write!(
+                f,
+                "the coil matrix is given up to {limit} coils; this winding has {coils}, so \
+                 only the phase matrix is given"
+            ),
+            Assumption::PoleCountChanges { from, to } => write!(
+                f,
+                "pole count changes from {from} to {to}: the peak air-gap flux density is kept, \
+                 so the flux per pole scales with the pole pitch"
+            ),
+        }
+    }
+}
+
+worded!(Assumption);

@@ -1,0 +1,64 @@
+//! What an analysis assumed, because a layout left a value out or the model needs it, as
+//! typed facts; `output::warning_words` puts them into words (text, JSON strings, sheets).
+
+/// One assumption an analysis made (worded by the presenters, which write it into the JSON with its `message`).
+#[derive(Debug, Clone, PartialEq, serde::Serialize, schemars::JsonSchema)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum Assumption {
+    /// The flat primary's model: thin plate, unsaturated iron, secondary leakage neglected,
+    /// plate wider than the stack, sinusoidal fields.
+    ThrustModel,
+    /// No back iron behind the plate: a double-sided pair of primaries.
+    NoBackIron,
+    /// No slot opening given: Carter's coefficient 1.
+    NoSlotOpening,
+    /// No plate width given: as wide as the stack.
+    NoPlateWidth,
+    /// No wire and no phase resistance: primary resistance 0.
+    NoPrimaryResistance,
+    /// No slot width and depth: slot permeance 1.0.
+    NoSlotSize,
+    /// The magnetic gap the model used, millimetres.
+    MagneticGap {
+        /// Gap, mm.
+        mm: f64,
+    },
+    /// No full `[supply]`: currents at 50 Hz and 400 V line voltage.
+    SupplyDefaulted,
+    /// One design gives no line voltage: the other's (or one common value) for both.
+    LineVoltageShared {
+        /// The line voltage taken, volts, when either design gives one.
+        volts: Option<f64>,
+    },
+    /// One design gives no frequency: the other's (or one common value) for both.
+    FrequencyShared {
+        /// The frequency taken, hertz, when either design gives one.
+        hertz: Option<f64>,
+    },
+    /// The goodness factor lies outside the range the circuit model stands for (about 1 to
+    /// 50): its figures are an extrapolation.
+    GoodnessOutOfRange {
+        /// The goodness factor G.
+        goodness: f64,
+    },
+    /// The magnetic gap is not small against the pole pitch (g_e/τ above 0.1): the
+    /// one-dimensional gap of the circuit overstates thrust and normal force.
+    GapLargeAgainstPitch {
+        /// g_e/τ.
+        ratio: f64,
+    },
+    /// The coil matrix is left out above this many coils (its size grows with the square).
+    CoilMatrixOmitted {
+        /// Coils of the winding.
+        coils: usize,
+        /// The largest count given a coil matrix.
+        limit: usize,
+    },
+    /// The pole count changes in a rewind: the peak air-gap flux density is kept.
+    PoleCountChanges {
+        /// Poles before.
+        from: usize,
+        /// Poles after.
+        to: usize,
+    },
+}

@@ -1,0 +1,552 @@
+//! A flat primary's performance against slip: thrust, normal force, current, power factor
+//! and efficiency, from the winding and the secondary plate, with the transverse edge
+//! effect and the longitudinal end effect.
+//!
+//! The model, per phase (three phases), every formula with its source:
+//! - Magnetic gap g = clearance + plate thickness for a plate on back iron (a
+//!   double-sided primary pair without back iron: g = 2·clearance + plate).
+//! - Carter's coefficient k_C = τ_s/(τ_s − γ·g), γ = (4/π)·[x·atan x − ln √(1 + x²)],
+//!   x = b0/(2g) (F. W. Carter 1900/1901; Pyrhönen et al. 2014, eq. 3.1); g_e = k_C·g.
+//! - Edge factor (Russell and Norsworthy 1958), plate of width 2c over a stack of width 2a:
+//!   K = 1 − tanh(πa/τ)/[(πa/τ)·(1 + tanh(πa/τ)·tanh(π(c − a)/τ))]; σ_e = K·σ.
+//! - Goodness factor G = μ0·ω·τ²·σ_e·d/(π²·g_e) (E. R. Laithwaite 1965).
+//! - Magnetising inductance L_m = 6·μ0·τ·W·(N·k_w1)²/(π²·p·g_e), N the series turns per
+//!   phase, p = poles/2, W the stack width (I. Boldea, S. A. Nasar, *Linear Electric
+//!   Motors*, 1987, ch. 2; the three-phase form of Pyrhönen et al. 2014, eq. 3.110).
+//! - Secondary resistance referred to the primary R2' = X_m/G (from the definition of G).
+//! - Primary leakage: slot L_u = (4m/Z)·μ0·W·N²·λ_u with λ_u = h/(3b) for a rectangular slot,
+//!   end winding L_w = (4m/Z)·q·μ0·l_w·N²·λ_w with λ_w = 0.3, differential L_d = σ_d·L_m
+//!   (Pyrhönen et al. 2014, §4.3 and §4.4; the permeance factors from memory).
+//! - End effect (J. Duncan 1983): Q = D·R2'/(L_m·v), f(Q) = (1 − e^(−Q))/Q; the magnetising
+//!   branch becomes R2'·f(Q) + jX_m·(1 − f(Q)). Thrust is taken from the slip-current power,
+//!   F = 3·|I2|²·R2'/(s·v_s); the end eddy loss 3·|Im|²·R2'·f(Q) is counted as a loss.
+//! - Normal force (one-dimensional current-sheet model, plate on back iron; Boldea and Nasar
+//!   1987, ch. 2): attraction of the gap field minus repulsion of the plate currents,
+//!   F_n = A·[μ0·J_m²/(4·(π·g_e/τ)²) − μ0·J_2²/4], J = m·√2·N·k_w1·I/(p·τ), A = 2p·τ·W.
+//!
+//! Assumptions: a thin plate (skin depth larger than the thickness), unsaturated iron,
+//! secondary leakage neglected, the plate wider than the stack, sinusoidal fields. Valid
+//! as a first estimate for G from about 1 to 50 and small gaps against the pole pitch.
+
+use num_complex::Complex64;
+use serde::Serialize;
+use std::f64::consts::PI;
+use thiserror::Error;
+
+use crate::assumption::Assumption;
+use crate::card::phase_resistances_20c;
+use crate::factors;
+use crate::winding::{Topology, Winding};
+
+/// Permeability of free space, H/m (CODATA 2018, μ0 = 1.25663706212e-6).
+pub const MU0: f64 = 1.256_637_062_12e-6;
+
+/// Why the performance cannot be worked out.
+#[derive(Debug, Error, Clone, PartialEq)]
+pub enum ThrustError {
+    /// Rotary cores have no thrust here.
+    #[error("thrust is worked out for flat primaries (topology = \"linear\") only")]
+    NotLinear,
+    /// An input the model needs is missing (its layout key is the presenters' to name).
+    #[error("the model needs an input the layout does not give ({0:?})")]
+    Missing(Input),
+    /// The winding has no fundamental.
+    #[error("the winding has no fundamental EMF, so no working wave to drive the plate")]
+    NoFundamental,
+}
+
+/// An input of the flat-primary models that a layout may leave out.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Input {
+    /// The secondary plate: its material or conductivity, and thickness.
+    Secondary,
+    /// The mechanical clearance between primary and plate.
+    Airgap,
+    /// The supply frequency.
+    Frequency,
+    /// The supply's line voltage (or a current to feed the primary with).
+    LineVoltage,
+    /// The slot pitch (a flat primary's, or a rotary core's from its bore).
+    SlotPitch,
+    /// The stack: the primary's width across the travel.
+    Stack,
+}
+
+/// The gap the flux crosses, one rule for `thrust` and `inductance`: the clearance, plus
+/// the plate (with steel behind it), or twice the clearance and the plate (a plate between
+/// two primaries); without a plate the clearance alone. Carter's coefficient from the slot
+/// opening (none given: 1) makes it the effective gap g_e = k_C·g.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Gap {
+    /// Magnetic gap g before Carter's correction, m.
+    pub magnetic_m: f64,
+    /// Carter's coefficient k_C.
+    pub carter: f64,
+    /// Effective gap g_e = k_C·g, m.
+    pub effective_m: f64,
+}
+
+/// The gap of `w` ([`Gap`]).
+pub fn gap(w: &Winding) -> Result<Gap, ThrustError> {
+    let d = &w.design;
+    let clearance = d.airgap_m.ok_or(ThrustError::Missing(Input::Airgap))?;
+    let ts = w
+        .slot_pitch_m()
+        .ok_or(ThrustError::Missing(Input::SlotPitch))?;
+    let g = match d.secondary {
+        Some(s) if s.back_iron => clearance + s.thickness_m,
+        Some(s) => 2.0 * clearance + s.thickness_m,
+        None => clearance,
+    };
+    let carter = match d.slot_opening_m {
+        Some(b0) if b0 > 0.0 => carter_coefficient(ts, b0.min(0.99 * ts), g),
+        _ => 1.0,
+    };
+    Ok(Gap {
+        magnetic_m: g,
+        carter,
+        effective_m: carter * g,
+    })
+}
+
+/// How the primary is fed.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "snake_case", tag = "kind")]
+pub enum Feed {
+    /// From the supply's line voltage in the winding's connection.
+    Voltage {
+        /// Phase voltage, volts r.m.s.
+        phase_voltage_v: f64,
+    },
+    /// With a fixed r.m.s. phase current.
+    Current {
+        /// Phase current, amperes r.m.s.
+        phase_current_a: f64,
+    },
+}
+
+/// What the user asked for.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ThrustQuery {
+    /// Fixed phase current instead of the supply voltage.
+    pub current_a: Option<f64>,
+    /// Slips of the table: from, to, and the number of steps between.
+    pub slip_from: f64,
+    /// Last slip.
+    pub slip_to: f64,
+    /// Intervals between the first and last slip.
+    pub steps: usize,
+    /// Leave out Duncan's end effect.
+    pub end_effect: bool,
+}
+
+/// The per-phase equivalent circuit and the figures behind it.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Circuit {
+    /// Pole pitch, m.
+    pub pole_pitch_m: f64,
+    /// Primary (stack) width, m.
+    pub width_m: f64,
+    /// Active primary length 2p·τ, m.
+    pub length_m: f64,
+    /// Magnetic gap before Carter's correction, m.
+    pub magnetic_gap_m: f64,
+    /// Supply angular frequency, rad/s.
+    pub omega: f64,
+    /// Effective series turns per phase N·k_w1.
+    pub effective_turns: f64,
+    /// Pole pairs p (half-integer for odd-pole primaries).
+    pub pole_pairs: f64,
+    /// Primary resistance per phase at 20 °C, ohms.
+    pub r1_ohm: f64,
+    /// Primary leakage reactance per phase (slot + end + differential), ohms.
+    pub x1_ohm: f64,
+    /// Of which slot leakage, ohms.
+    pub x_slot_ohm: f64,
+    /// Of which end-winding leakage, ohms.
+    pub x_end_ohm: f64,
+    /// Of which differential leakage σ_d·X_m, ohms.
+    pub x_diff_ohm: f64,
+    /// Magnetising reactance, ohms.
+    pub xm_ohm: f64,
+    /// Secondary resistance referred to the primary, ohms.
+    pub r2_ohm: f64,
+}
+
+/// One operating point.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Row {
+    /// Slip s (below 0 generating, above 1 braking by plugging).
+    pub slip: f64,
+    /// Secondary speed (1 − s)·v_s, m/s.
+    pub speed_m_s: f64,
+    /// Thrust, N (positive in the direction of the field's travel).
+    pub thrust_n: f64,
+    /// Normal force, N: attraction between primary and secondary positive.
+    pub normal_force_n: f64,
+    /// Phase current, A r.m.s.
+    pub current_a: f64,
+    /// Power factor at the phase terminals.
+    pub power_factor: f64,
+    /// Mechanical output over electrical input while motoring; null otherwise.
+    pub efficiency: Option<f64>,
+    /// Power crossing the gap 3·|I2|²·R2'/s, W.
+    pub airgap_power_w: f64,
+    /// Duncan's Q at this speed (null without the end effect).
+    pub end_effect_q: Option<f64>,
+}
+
+/// The performance report.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct ThrustReport {
+    /// The design the report is about (the same header on every report).
+    pub design: crate::header::DesignHeader,
+    /// Title of the layout.
+    pub title: Option<String>,
+    /// How the primary was fed.
+    pub feed: Feed,
+    /// True when Duncan's end effect is included.
+    pub end_effect: bool,
+    /// Goodness factor G = X_m/R2'.
+    pub goodness_factor: f64,
+    /// Carter's coefficient.
+    pub carter_coefficient: f64,
+    /// Russell–Norsworthy edge factor K.
+    pub edge_factor: f64,
+    /// Effective gap g_e = k_C·g, mm.
+    pub effective_gap_mm: f64,
+    /// Magnetising inductance L_m, H.
+    pub magnetizing_inductance_h: f64,
+    /// Secondary resistance referred to the primary, ohms.
+    pub secondary_resistance_ohm: f64,
+    /// Synchronous speed v_s = 2·f·τ, m/s.
+    pub synchronous_speed_m_s: f64,
+    /// The circuit.
+    pub circuit: Circuit,
+    /// Operating points.
+    pub rows: Vec<Row>,
+    /// The same slips without Duncan's end effect, as a long primary would run (empty when
+    /// the end effect is left out: then `rows` are those).
+    pub long_primary_rows: Vec<Row>,
+    /// Largest thrust in the slip range and its slip.
+    pub max_thrust_n: f64,
+    /// Slip of the largest thrust.
+    pub max_thrust_slip: f64,
+    /// What the model assumes and what was assumed for missing data.
+    /// (The presenters write this field into the JSON, each fact with its `message`.)
+    #[serde(skip)]
+    pub assumptions: Vec<Assumption>,
+}
+
+/// Carter's γ for a slot opening `b0` over a gap `g` (both in the same unit).
+pub fn carter_gamma(b0: f64, g: f64) -> f64 {
+    let x = b0 / (2.0 * g);
+    4.0 / PI * (x * x.atan() - (1.0 + x * x).sqrt().ln())
+}
+
+/// Carter's coefficient k_C = τ_s/(τ_s − γ·g).
+pub fn carter_coefficient(slot_pitch: f64, b0: f64, g: f64) -> f64 {
+    slot_pitch / (slot_pitch - carter_gamma(b0, g) * g)
+}
+
+/// Russell–Norsworthy edge factor for a stack of width `2a` under a plate of width `2c`
+/// (c ≥ a) at pole pitch `tau`: the factor on the plate's conductivity.
+pub fn edge_factor(a: f64, c: f64, tau: f64) -> f64 {
+    let x = PI * a / tau;
+    let t = x.tanh();
+    let over = (PI * (c - a).max(0.0) / tau).tanh();
+    1.0 - t / (x * (1.0 + t * over))
+}
+
+/// Duncan's end-effect function f(Q) = (1 − e^(−Q))/Q, 1 at Q = 0.
+pub fn duncan_f(q: f64) -> f64 {
+    if q.abs() < 1e-8 {
+        1.0 - q / 2.0
+    } else {
+        -(-q).exp_m1() / q
+    }
+}
+
+/// Everything fixed by the winding and the plate, before any slip.
+struct Model {
+    circuit: Circuit,
+    g: f64,
+    kc: f64,
+    edge: f64,
+    ge: f64,
+    lm: f64,
+    vs: f64,
+    m: f64,
+    assumptions: Vec<Assumption>,
+}
+
+fn model(w: &Winding) -> Result<Model, ThrustError> {
+    let geo = &w.geometry;
+    if geo.topology != Topology::Linear {
+        return Err(ThrustError::NotLinear);
+    }
+    let d = &w.design;
+    let sec = d.secondary.ok_or(ThrustError::Missing(Input::Secondary))?;
+    let Gap {
+        magnetic_m: g,
+        carter: kc,
+        effective_m: ge,
+    } = gap(w)?;
+    let f = d
+        .supply
+        .frequency_hz
+        .ok_or(ThrustError::Missing(Input::Frequency))?;
+    let ts = w
+        .slot_pitch_m()
+        .ok_or(ThrustError::Missing(Input::SlotPitch))?;
+    let width = w
+        .design
+        .core
+        .stack_m
+        .ok_or(ThrustError::Missing(Input::Stack))?;
+    let tau = ts * geo.pole_pitch_slots;
+    let mut assumptions = vec![Assumption::ThrustModel];
+    if !sec.back_iron {
+        assumptions.push(Assumption::NoBackIron);
+    }
+    if d.slot_opening_m.is_none() {
+        assumptions.push(Assumption::NoSlotOpening);
+    }
+    let plate_w = sec.width_m.unwrap_or_else(|| {
+        assumptions.push(Assumption::NoPlateWidth);
+        width
+    });
+    let edge = edge_factor(width / 2.0, plate_w.max(width) / 2.0, tau);
+    let omega = 2.0 * PI * f;
+    let fund = factors::fundamental(w);
+    let n = w.series_turns(0);
+    let nkw = n * fund.winding;
+    if nkw <= 0.0 {
+        return Err(ThrustError::NoFundamental);
+    }
+    let p = geo.poles as f64 / 2.0;
+    let m = geo.phases as f64;
+    // Three-phase form generalised to m phases: L_m = 2m·μ0·τ·W·(N·k_w1)²/(π²·p·g_e).
+    let lm = 2.0 * m * MU0 * tau * width * nkw * nkw / (PI * PI * p * ge);
+    let xm = omega * lm;
+    let goodness =
+        MU0 * omega * tau * tau * sec.conductivity_s_m * edge * sec.thickness_m / (PI * PI * ge);
+    let r2 = xm / goodness;
+    let r1 = match phase_resistances_20c(w) {
+        Some(r) => r.iter().sum::<f64>() / r.len().max(1) as f64,
+        None => {
+            assumptions.push(Assumption::NoPrimaryResistance);
+            0.0
+        }
+    };
+    if d.slot_size_m.is_none() {
+        assumptions.push(Assumption::NoSlotSize);
+    }
+    let (l_slot, l_end) = leakage_h(w).unwrap_or((0.0, 0.0));
+    let sigma = crate::field::differential_leakage(w).unwrap_or(0.0);
+    let x_slot = omega * l_slot;
+    let x_end = omega * l_end;
+    let x_diff = sigma * xm;
+    // The model's own range (see the module notes): say when the inputs leave it.
+    if !(1.0..=50.0).contains(&goodness) {
+        assumptions.push(Assumption::GoodnessOutOfRange { goodness });
+    }
+    if ge / tau > 0.1 {
+        assumptions.push(Assumption::GapLargeAgainstPitch { ratio: ge / tau });
+    }
+    Ok(Model {
+        circuit: Circuit {
+            pole_pitch_m: tau,
+            width_m: width,
+            length_m: tau * geo.poles as f64,
+            magnetic_gap_m: g,
+            omega,
+            effective_turns: nkw,
+            pole_pairs: p,
+            r1_ohm: r1,
+            x1_ohm: x_slot + x_end + x_diff,
+            x_slot_ohm: x_slot,
+            x_end_ohm: x_end,
+            x_diff_ohm: x_diff,
+            xm_ohm: xm,
+            r2_ohm: r2,
+        },
+        g,
+        kc,
+        edge,
+        ge,
+        lm,
+        vs: 2.0 * f * tau,
+        m,
+        assumptions,
+    })
+}
+
+/// Primary slot and end-winding leakage inductances per phase, H (Pyrhönen et al. 2014,
+/// §4.3-4.4): L_u = (4m/Z)·μ0·W·N²·λ_u with λ_u = h/(3b) (1.0 when the slot's size is not
+/// given), L_w = (4m/Z)·q·μ0·l_w·N²·λ_w with λ_w = 0.3 and l_w the end-winding length of
+/// both ends (the card's end factor times the span width, twice). `None` without the stack
+/// or slot pitch.
+pub fn leakage_h(w: &Winding) -> Option<(f64, f64)> {
+    let geo = &w.geometry;
+    let width = w.design.core.stack_m?;
+    let ts = w.slot_pitch_m()?;
+    let n = w.series_turns(0);
+    let m = geo.phases as f64;
+    let p = geo.poles as f64 / 2.0;
+    let active = (geo.pole_pitch_slots * geo.poles as f64).round().max(1.0);
+    let lambda_u = w.design.slot_size_m.map_or(1.0, |(b, h)| h / (3.0 * b));
+    let l_slot = 4.0 * m / active * MU0 * width * n * n * lambda_u;
+    let q = active / (2.0 * p * m);
+    let l_w = 2.0 * w.design.turn.end_factor * w.pitch as f64 * ts;
+    let l_end = 4.0 * m / active * q * MU0 * l_w * n * n * 0.3;
+    Some((l_slot, l_end))
+}
+
+/// One operating point of the circuit.
+fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
+    let c = &md.circuit;
+    let v = (1.0 - s) * md.vs;
+    // Magnetising branch, with Duncan's modification at this speed.
+    let (zm, q) = if end {
+        let q = if v.abs() > 0.0 {
+            c.length_m * c.r2_ohm / (md.lm * v.abs())
+        } else {
+            f64::INFINITY
+        };
+        let fq = if q.is_finite() { duncan_f(q) } else { 0.0 };
+        (
+            Complex64::new(c.r2_ohm * fq, c.xm_ohm * (1.0 - fq)),
+            Some(q).filter(|q| q.is_finite()),
+        )
+    } else {
+        (Complex64::new(0.0, c.xm_ohm), None)
+    };
+    // Secondary branch R2'/s, worked in admittances so that no slip, however small,
+    // overflows: y2 = s/R2' (zero at s = 0, where it carries no current), ym = 1/Zm.
+    let ym = Complex64::new(1.0, 0.0) / zm;
+    let y2 = Complex64::new(s / c.r2_ohm, 0.0);
+    let ysum = ym + y2;
+    let (i_ratio_2, i_ratio_m, zpar) = (y2 / ysum, ym / ysum, Complex64::new(1.0, 0.0) / ysum);
+    let z = Complex64::new(c.r1_ohm, c.x1_ohm) + zpar;
+    let i1 = match feed {
+        Feed::Voltage { phase_voltage_v } => Complex64::new(phase_voltage_v, 0.0) / z,
+        Feed::Current { phase_current_a } => Complex64::new(phase_current_a, 0.0),
+    };
+    let i2 = i1 * i_ratio_2;
+    let im = i1 * i_ratio_m;
+    // Air-gap power m·|I2|²·R2'/s = m·|I1|²·(s/R2')/|ym + y2|²: the same, without the
+    // division by s.
+    let p_gap = md.m * i1.norm_sqr() * (s / c.r2_ohm) / ysum.norm_sqr();
+    let thrust = p_gap / md.vs;
+    let p_in = md.m * (z * i1.norm_sqr()).re;
+    let p_out = thrust * v;
+    let efficiency = (p_out > 0.0 && p_in > 0.0 && p_out <= p_in).then(|| p_out / p_in);
+    // Normal force from the current sheets (peak linear current densities).
+    let sheet =
+        |i: f64| md.m * 2f64.sqrt() * c.effective_turns * i / (c.pole_pairs * c.pole_pitch_m);
+    let (jm, j2) = (sheet(im.norm()), sheet(i2.norm()));
+    let kg = PI * md.ge / c.pole_pitch_m;
+    let area = c.length_m * c.width_m;
+    let normal = area * (MU0 * jm * jm / (4.0 * kg * kg) - MU0 * j2 * j2 / 4.0);
+    let pf = if z.norm() > 0.0 { z.re / z.norm() } else { 1.0 };
+    Row {
+        slip: s,
+        speed_m_s: v,
+        thrust_n: thrust,
+        normal_force_n: normal,
+        current_a: i1.norm(),
+        power_factor: pf,
+        efficiency,
+        airgap_power_w: p_gap,
+        end_effect_q: q,
+    }
+}
+
+/// Thrust, normal force, current, power factor and efficiency over a slip range.
+pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustError> {
+    let md = model(w)?;
+    let feed = match query.current_a {
+        Some(i) => Feed::Current { phase_current_a: i },
+        None => Feed::Voltage {
+            phase_voltage_v: w.design.connection.phase_voltage(
+                w.design
+                    .supply
+                    .line_voltage_v
+                    .ok_or(ThrustError::Missing(Input::LineVoltage))?,
+            ),
+        },
+    };
+    crate::runs::count(crate::runs::Analysis::Thrust);
+    let steps = query.steps.max(1);
+    let (a, b) = (query.slip_from, query.slip_to);
+    let sweep = |end_effect: bool| -> Vec<Row> {
+        (0..=steps)
+            .map(|k| point(&md, feed, a + (b - a) * k as f64 / steps as f64, end_effect))
+            .collect()
+    };
+    let rows = sweep(query.end_effect);
+    let long_primary_rows = if query.end_effect {
+        sweep(false)
+    } else {
+        Vec::new()
+    };
+    // The largest thrust: a fine grid, then golden-section refinement around its best.
+    let n = 2000;
+    let at = |s: f64| point(&md, feed, s, query.end_effect).thrust_n;
+    let grid = |k: usize| a + (b - a) * k as f64 / n as f64;
+    let best = (0..=n)
+        .max_by(|x, y| at(grid(*x)).total_cmp(&at(grid(*y))))
+        .unwrap_or(0);
+    let (mut lo, mut hi) = (grid(best.saturating_sub(1)), grid((best + 1).min(n)));
+    let phi = (5f64.sqrt() - 1.0) / 2.0;
+    for _ in 0..80 {
+        let x1 = hi - phi * (hi - lo);
+        let x2 = lo + phi * (hi - lo);
+        if at(x1) >= at(x2) {
+            hi = x2;
+        } else {
+            lo = x1;
+        }
+    }
+    let s_max = (lo + hi) / 2.0;
+    let f_max = at(s_max);
+    Ok(ThrustReport {
+        design: crate::header::of(w),
+        title: w.labels.title.clone(),
+        feed,
+        end_effect: query.end_effect,
+        goodness_factor: md.circuit.xm_ohm / md.circuit.r2_ohm,
+        carter_coefficient: md.kc,
+        edge_factor: md.edge,
+        effective_gap_mm: md.ge * 1e3,
+        magnetizing_inductance_h: md.lm,
+        secondary_resistance_ohm: md.circuit.r2_ohm,
+        synchronous_speed_m_s: md.vs,
+        circuit: md.circuit,
+        rows,
+        long_primary_rows,
+        max_thrust_n: f_max,
+        max_thrust_slip: s_max,
+        assumptions: {
+            let mut a = md.assumptions;
+            a.push(Assumption::MagneticGap { mm: md.g * 1e3 });
+            a
+        },
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // Duncan 1983: f(Q) → 1 as Q → 0 and f(Q) ≈ 1/Q for large Q.
+    #[test]
+    fn duncan_function_limits() {
+        assert!((duncan_f(0.0) - 1.0).abs() < 1e-15);
+        assert!((duncan_f(1e-6) - (1.0 - 0.5e-6)).abs() < 1e-12);
+        assert!((duncan_f(50.0) * 50.0 - 1.0).abs() < 1e-12);
+        // At Q = 1: 1 − 1/e (closed form).
+        assert!((duncan_f(1.0) - (1.0 - (-1f64).exp())).abs() < 1e-15);
+    }
+}
