@@ -34,8 +34,11 @@ fn flat(poles: usize, extra: &str) -> Winding {
 
 // A balanced rotary winding: the phase matrix is symmetric and circulant, and its
 // positive-sequence inductance is (3/2)·L_main·(1 + σ_d) = L_m·(1 + σ_d), with L_m the closed
-// form 6·μ0·τ·W·(N·k_w1)²/(π²·p·g) (Boldea and Nasar 1987) and σ_d from `field`, computed
-// independently (Parseval on the MMF staircase).
+// form 6·μ0·τ·W·(N·k_w1)²/(π²·p·g) (Boldea and Nasar 1987). What this compares, plainly:
+// the matrix's structure, with σ_d taken from `field::differential_leakage`, the same σ_d the
+// inductance module reads, so it does not check σ_d itself; σ_d has its own checks against
+// a series written from the coil list (`tests/one_fact.rs`) and against published tables
+// (`tests/field_published.rs`).
 #[test]
 fn rotary_matrix_is_circulant_and_gives_lm_times_one_plus_sigma() {
     for (z, p2, y) in [(36, 4, 7), (24, 4, 5), (48, 4, 10), (12, 10, 1), (27, 6, 4)] {

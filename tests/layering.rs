@@ -35,12 +35,14 @@ fn each_crate_depends_only_on_what_its_layer_may_use() {
     let mut present = study.clone();
     present.extend(set(&[
         "beltwright-study",
+        "csv",
         "itertools",
         "pdf-writer",
         "resvg",
         "serde_json",
         "svg",
         "svg2pdf",
+        "textwrap",
         "ttf-parser",
         "usvg",
     ]));

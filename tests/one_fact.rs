@@ -180,6 +180,12 @@ fn survey_gives_the_same_sigma_d_as_field() {
             .expect("field")
             .differential_leakage;
         let sd = row.differential_leakage.expect("σ_d");
+        // The synthesized winding's fast path (one real instant) against the complex sheet.
+        let fast = beltwright::field::differential_leakage(&w).expect("σ_d");
+        assert!(
+            (fast - f).abs() <= 1e-9 * f,
+            "{z}/{poles}: fast path {fast}, field {f}"
+        );
         assert!(
             (sd - f).abs() <= 1e-9 * f,
             "{z}/{poles}: survey {sd}, field {f}"

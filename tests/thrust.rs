@@ -39,13 +39,27 @@ fn query(current: Option<f64>, end: bool) -> ThrustQuery {
 // Current-fed, without the end effect, secondary leakage neglected: the textbook circuit
 // F = 3·I²·X_m·sG/(v_s·(1 + s²G²)) has its maximum 3·I²·X_m/(2·v_s) at s = 1/G (E. R.
 // Laithwaite 1965; Boldea and Nasar, *Linear Electric Motors*, 1987, ch. 2).
+// X_m, G and v_s are worked out here from the layout's figures by the closed forms (not read
+// from the report under test): Carter (1901), Russell and Norsworthy (1958), L_m and G as in
+// Boldea and Nasar 1987, ch. 2.
 #[test]
 fn current_fed_thrust_peaks_at_one_over_g() {
     let w = shuttle("slot_opening_mm = 3.0");
     let r = thrust::thrust(&w, &query(Some(10.0), false)).expect("model");
-    let g = r.goodness_factor;
-    let xm = r.circuit.xm_ohm;
-    let vs = r.synchronous_speed_m_s;
+    let tau = 0.012 * 6.0;
+    // Carter: γ = (4/π)·[x·atan x − ln √(1 + x²)], x = b0/(2g); k_C = τ_s/(τ_s − γ·g).
+    let (ts, b0, gap) = (0.012, 0.003, 0.007);
+    let x: f64 = b0 / (2.0 * gap);
+    let gamma = 4.0 / PI * (x * x.atan() - (1.0 + x * x).sqrt().ln());
+    let ge = ts / (ts - gamma * gap) * gap;
+    let nkw = w.series_turns(0) * factors::fundamental(&w).winding;
+    let lm = 6.0 * MU0 * tau * 0.080 * nkw * nkw / (PI * PI * 2.0 * ge);
+    let xm = 2.0 * PI * 50.0 * lm;
+    let sigma = 1.0 / 0.028264e-6 * russell_norsworthy(0.040, 0.060, tau);
+    let g = MU0 * 2.0 * PI * 50.0 * tau * tau * sigma * 0.004 / (PI * PI * ge);
+    let vs = 2.0 * 50.0 * tau;
+    assert!((r.goodness_factor - g).abs() < 1e-9 * g);
+    assert!((r.circuit.xm_ohm - xm).abs() < 1e-9 * xm);
     assert!(
         (r.max_thrust_slip - 1.0 / g).abs() < 1e-6,
         "{} vs {}",
@@ -61,15 +75,24 @@ fn current_fed_thrust_peaks_at_one_over_g() {
     }
 }
 
+/// The edge factor K = 1 − tanh(πa/τ)/[(πa/τ)·(1 + tanh(πa/τ)·tanh(π(c − a)/τ))] for a
+/// stack of half-width a over a plate of half-width c (Russell and Norsworthy 1958), written
+/// here from the formula.
+fn russell_norsworthy(a: f64, c: f64, tau: f64) -> f64 {
+    let t = (PI * a / tau).tanh();
+    1.0 - t / ((PI * a / tau) * (1.0 + t * (PI * (c - a) / tau).tanh()))
+}
+
 // L_m = 6·μ0·τ·W·(N·k_w1)²/(π²·p·g_e) (Boldea and Nasar 1987, ch. 2), by hand from the
-// report's own gap and the winding's factors; v_s = 2·f·τ.
+// layout's gap (no slot opening: Carter 1, g_e = clearance + plate = 7 mm) and the winding's
+// factors; v_s = 2·f·τ.
 #[test]
 fn magnetising_inductance_follows_the_closed_form() {
     let w = shuttle("");
     let r = thrust::thrust(&w, &query(Some(1.0), false)).expect("model");
     let tau = 0.012 * 6.0;
     let nkw = w.series_turns(0) * factors::fundamental(&w).winding;
-    let ge = r.effective_gap_mm * 1e-3;
+    let ge = 0.007;
     let want = 6.0 * MU0 * tau * 0.080 * nkw * nkw / (PI * PI * 2.0 * ge);
     assert!((r.magnetizing_inductance_h - want).abs() < 1e-12 * want);
     assert!((r.synchronous_speed_m_s - 2.0 * 50.0 * tau).abs() < 1e-12);
@@ -77,7 +100,9 @@ fn magnetising_inductance_follows_the_closed_form() {
     assert_eq!(r.carter_coefficient, 1.0);
     assert!((r.effective_gap_mm - 7.0).abs() < 1e-12);
     // G = μ0·ω·τ²·σ_e·d/(π²·g_e) with σ_e = K·σ (Laithwaite 1965), σ = 1/0.028264 MS/m.
-    let sigma = 1.0 / 0.028264e-6 * r.edge_factor;
+    let k = russell_norsworthy(0.040, 0.060, tau);
+    assert!((r.edge_factor - k).abs() < 1e-12);
+    let sigma = 1.0 / 0.028264e-6 * k;
     let g = MU0 * 2.0 * PI * 50.0 * tau * tau * sigma * 0.004 / (PI * PI * 0.007);
     assert!((r.goodness_factor - g).abs() < 1e-9 * g);
 }

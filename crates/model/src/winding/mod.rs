@@ -207,6 +207,7 @@ impl Geometry {
     /// Electrical angle (radians) of slot `k` (0-based) at electrical order `order`.
     /// Exact integer reduction when `order · angle_num` is whole, so large slot numbers lose
     /// no precision.
+    #[inline]
     pub fn slot_angle(&self, k: usize, order: Elec) -> f64 {
         let r = order.get() * self.angle_num as f64;
         let ri = r.round();
@@ -275,6 +276,7 @@ impl Winding {
     /// Signed span of a coil in slot pitches: positive when current enters at the left side
     /// (the side from which the coil reaches forward), negative for a coil reversed. A span
     /// of exactly half a closed core is forward when its go side is in the top layer.
+    #[inline]
     pub fn span(&self, coil: &Coil) -> i64 {
         let z = self.geometry.slots as i64;
         let d = coil.back as i64 - coil.go as i64;

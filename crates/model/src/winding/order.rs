@@ -15,11 +15,13 @@ impl Elec {
     pub const FUNDAMENTAL: Elec = Elec(1.0);
 
     /// The order as a number.
+    #[inline]
     pub const fn get(self) -> f64 {
         self.0
     }
 
     /// The mechanical order on a core of `pole_pairs` pole pairs, when it is whole.
+    #[inline]
     pub fn mechanical(self, pole_pairs: f64) -> Option<Mech> {
         let n = self.0 * pole_pairs;
         let r = n.round();
@@ -36,11 +38,13 @@ pub struct Mech(pub u64);
 
 impl Mech {
     /// The order as a number.
+    #[inline]
     pub const fn get(self) -> u64 {
         self.0
     }
 
     /// The electrical order on a core of `pole_pairs` pole pairs: ν = n / p.
+    #[inline]
     pub fn electrical(self, pole_pairs: f64) -> Elec {
         Elec(self.0 as f64 / pole_pairs)
     }

@@ -110,9 +110,9 @@ fn layout(sections: &[Section], width: f64) -> Vec<Item> {
             Section::Heading(h) => items.push(Item::Heading(h.clone())),
             // The title block carries the design and the caution on every page.
             Section::Design(_) | Section::Caution(_) => {}
-            Section::Lines(lines) => {
-                for l in crate::output::paragraphs(lines) {
-                    for part in text::wrap(&l, BODY, width) {
+            Section::Lines(lines) | Section::Items(lines) => {
+                for l in lines {
+                    for part in text::wrap(l, BODY, width) {
                         items.push(Item::Line(part));
                     }
                 }

@@ -1,6 +1,6 @@
 //! How the audit and rewind reports read as text and CSV.
 
-use super::reports::{ranges, wrap};
+use super::reports::{paragraph, ranges};
 use super::{Align, Report, Section, Table, num};
 use crate::audit::{AuditReport, Sequence};
 use crate::card::measured::Taken;
@@ -39,7 +39,7 @@ impl Report for AuditReport {
                 },
             ),
         ];
-        head.extend(wrap(&self.travel.message(), 78));
+        head.extend(paragraph(&self.travel.message()));
         let waves = if self.no_fundamental {
             "no fundamental EMF: the phases make no working wave, so no ratio or angle \
              applies"
@@ -62,7 +62,7 @@ impl Report for AuditReport {
                 num(self.max_angle_error_deg, 2)
             )
         };
-        head.extend(wrap(&waves, 78));
+        head.extend(paragraph(&waves));
         if self.fix_edits > 0 {
             head.push(format!(
                 "smallest fix: {}{}",
@@ -90,12 +90,9 @@ impl Report for AuditReport {
                     .ok()
                     .and_then(|v| v.as_str().map(|s| s.replace('_', " ")))
                     .unwrap_or_default();
-                let text = format!("{}. [{kind}] {}", n + 1, f.message());
-                for (i, l) in wrap(&text, 78).into_iter().enumerate() {
-                    lines.push(if i == 0 { l } else { format!("   {l}") });
-                }
+                lines.extend(paragraph(&format!("{}. [{kind}] {}", n + 1, f.message())));
             }
-            s.push(Section::Lines(lines));
+            s.push(Section::Items(lines));
         }
 
         if let Some(r) = &self.resistance {
@@ -150,7 +147,7 @@ impl Report for AuditReport {
                 ]);
             }
             s.push(Section::Table(t));
-            s.push(Section::Lines(wrap(&r.suggestion.message(), 78)));
+            s.push(Section::Lines(paragraph(&r.suggestion.message())));
         }
 
         s.push(Section::Heading(
@@ -463,7 +460,7 @@ impl Report for RewindReport {
                 lines.push(format!("new rated line current: {} A", num(i, 2)));
             }
             s.push(Section::Lines(
-                lines.iter().flat_map(|l| wrap(l, 78)).collect(),
+                lines.iter().flat_map(|l| paragraph(l)).collect(),
             ));
             let mut t = Table::new(&[
                 ("series", Align::Left),

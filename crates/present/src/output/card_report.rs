@@ -1,6 +1,6 @@
 //! How the data card reads as text and CSV.
 
-use super::reports::wrap;
+use super::reports::paragraph;
 use super::{Align, Report, Section, Table, num};
 use super::{Say, worded};
 use crate::card::DataCard;
@@ -147,14 +147,14 @@ impl Report for DataCard {
             s.push(Section::Lines(
                 nameplate_lines(n)
                     .iter()
-                    .flat_map(|l| wrap(l, 78))
+                    .flat_map(|l| paragraph(l))
                     .collect(),
             ));
         }
         if let Some(j) = &self.job {
             s.push(Section::Heading("Job".into()));
             s.push(Section::Lines(
-                job_lines(j).iter().flat_map(|l| wrap(l, 78)).collect(),
+                job_lines(j).iter().flat_map(|l| paragraph(l)).collect(),
             ));
         }
         if self.nameplate.is_some() || self.job.is_some() {
@@ -211,7 +211,7 @@ impl Report for DataCard {
             None => lines.push("wire: not given".into()),
         }
         s.push(Section::Lines(
-            lines.into_iter().flat_map(|l| wrap(&l, 78)).collect(),
+            lines.into_iter().flat_map(|l| paragraph(&l)).collect(),
         ));
 
         s.push(Section::Heading("Copper".into()));
@@ -273,10 +273,10 @@ impl Report for DataCard {
                 .map_or("-".into(), |f| format!("{}%", num(f * 100.0, 1))),
         ]);
         s.push(Section::Table(t));
-        s.push(Section::Lines(wrap(
-            &format!("mean turn rule: {}", self.mean_turn_rule.message()),
-            78,
-        )));
+        s.push(Section::Lines(paragraph(&format!(
+            "mean turn rule: {}",
+            self.mean_turn_rule.message()
+        ))));
         if !self.formers.is_empty() {
             s.push(Section::Heading(
                 "Formers (by the mean-turn rule; span width between the coil sides' centres)"
@@ -324,7 +324,7 @@ impl Report for DataCard {
                 lines.push(format!("joined inside: {}", j.join("-")));
             }
             s.push(Section::Lines(
-                lines.iter().flat_map(|x| wrap(x, 78)).collect(),
+                lines.iter().flat_map(|x| paragraph(x)).collect(),
             ));
             let mut t = Table::new(&[
                 ("connection", Align::Left),
@@ -360,7 +360,7 @@ impl Report for DataCard {
             }
             s.push(Section::Table(t));
             let mut lines = vec!["* as planned".to_string()];
-            lines.extend(wrap(&l.rotation.message(), 78));
+            lines.extend(paragraph(&l.rotation.message()));
             s.push(Section::Lines(lines));
         }
         if !self.sections.is_empty() {
@@ -420,7 +420,7 @@ impl Report for DataCard {
         ));
         lines.push(a.note.to_string());
         s.push(Section::Lines(
-            lines.iter().flat_map(|x| wrap(x, 78)).collect(),
+            lines.iter().flat_map(|x| paragraph(x)).collect(),
         ));
 
         if let Some(m) = &self.measured {
@@ -452,14 +452,14 @@ impl Report for DataCard {
                 ]);
             }
             s.push(Section::Table(t));
-            s.push(Section::Lines(wrap(&m.suggestion.message(), 78)));
+            s.push(Section::Lines(paragraph(&m.suggestion.message())));
         }
         if !self.warnings.is_empty() {
             s.push(Section::Heading("Warnings".into()));
             s.push(Section::Lines(
                 self.warnings
                     .iter()
-                    .flat_map(|w| wrap(&format!("- {}", w.message()), 78))
+                    .flat_map(|w| paragraph(&format!("- {}", w.message())))
                     .collect(),
             ));
         }

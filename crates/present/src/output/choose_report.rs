@@ -1,5 +1,6 @@
 //! Text and CSV views of the span comparison and the combination survey.
 
+use super::reports::paragraph;
 use super::{Align, Report, Section, Table, num};
 use crate::output::Words;
 use crate::pitch::PitchReport;
@@ -24,10 +25,7 @@ impl Report for PitchReport {
         head.push("* recommended   ! below the k_w1 floor".into());
         let mut s = Vec::from(super::opening("Span comparison", &self.design));
         s.extend([Section::Lines(head), Section::Table(self.main_table())]);
-        s.push(Section::Lines(super::reports::wrap(
-            &self.reason.message(),
-            78,
-        )));
+        s.push(Section::Lines(paragraph(&self.reason.message())));
         super::with_warnings(s, &self.warnings)
     }
 

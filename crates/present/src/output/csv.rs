@@ -1,61 +1,55 @@
-//! CSV presenter: the report's main table, quoted where needed (RFC 4180).
+//! CSV presenter: the report's main table, written by the `csv` crate (RFC 4180 quoting
+//! where needed), each cell first made safe for a spreadsheet (`sanitize::csv_cell`).
 
 use super::{Exporter, Report};
 
 /// Comma-separated values.
 pub struct Csv;
 
-/// One cell, quoted where needed, appended to `out`.
-fn push_field(out: &mut String, s: &str) {
-    let s = crate::sanitize::csv_cell(s);
-    if s.contains([',', '"', '\n', '\r']) {
-        out.push('"');
-        for part in s.split('"').enumerate() {
-            if part.0 > 0 {
-                out.push_str("\"\"");
-            }
-            out.push_str(part.1);
-        }
-        out.push('"');
-    } else {
-        out.push_str(&s);
-    }
-}
-
-#[cfg(test)]
-fn field(s: &str) -> String {
-    let mut out = String::new();
-    push_field(&mut out, s);
-    out
-}
-
 impl Exporter for Csv {
-    /// Row by row into `out`, through one line buffer.
+    /// Row by row into `out`, through the csv writer's buffer.
     fn export<R: Report>(&self, report: &R, out: &mut dyn std::io::Write) -> std::io::Result<()> {
         let t = report.main_table();
-        let mut line = String::new();
+        let mut w = csv::WriterBuilder::new()
+            .terminator(csv::Terminator::Any(b'\n'))
+            .from_writer(out);
         for row in std::iter::once(&t.headers).chain(&t.rows) {
-            line.clear();
-            for (i, c) in row.iter().enumerate() {
-                if i > 0 {
-                    line.push(',');
-                }
-                push_field(&mut line, c);
-            }
-            line.push('\n');
-            out.write_all(line.as_bytes())?;
+            w.write_record(
+                row.iter()
+                    .map(|c| crate::sanitize::csv_cell(c).into_owned()),
+            )
+            .map_err(std::io::Error::other)?;
         }
-        Ok(())
+        w.flush()
     }
 }
 
 #[cfg(test)]
 mod tests {
-    // Quoting rule of RFC 4180 §2.
+    use super::super::{Align, Report, Section, Table};
+
+    struct One(Vec<&'static str>);
+
+    impl Report for One {
+        fn json(&self) -> impl serde::Serialize + '_ {}
+        fn sections(&self) -> Vec<Section> {
+            Vec::new()
+        }
+        fn main_table(&self) -> Table {
+            let mut t = Table::new(&[("cell", Align::Left)]);
+            for c in &self.0 {
+                t.push(vec![c.to_string()]);
+            }
+            t
+        }
+    }
+
+    // Quoting rule of RFC 4180 §2: fields holding a comma, a quote or a line break are
+    // quoted, quotes doubled; others are written as they are.
     #[test]
     fn quotes_commas_and_quotes() {
-        assert_eq!(super::field("a,b"), "\"a,b\"");
-        assert_eq!(super::field("say \"hi\""), "\"say \"\"hi\"\"\"");
-        assert_eq!(super::field("plain"), "plain");
+        let report = One(vec!["a,b", "say \"hi\"", "plain"]);
+        let text = super::super::render(&report, super::super::Format::Csv).expect("csv");
+        assert_eq!(text, "cell\n\"a,b\"\n\"say \"\"hi\"\"\"\nplain\n");
     }
 }

@@ -1,5 +1,6 @@
 //! How the travelling-field report reads as text and CSV.
 
+use super::reports::paragraph;
 use super::{Align, Report, Section, Table, num};
 use crate::field::{Direction, FieldReport};
 use itertools::Itertools;
@@ -69,17 +70,14 @@ impl Report for FieldReport {
                 num(l.pulsating, 4)
             ));
             if let Some(c) = &l.strongest_between_orders {
-                head.extend(super::reports::wrap(
-                    &format!(
-                        "a primary of finite length spreads each wave over nearby wavenumbers: \
+                head.extend(paragraph(&format!(
+                    "a primary of finite length spreads each wave over nearby wavenumbers: \
                      between whole orders its spectrum reaches forward {}, backward {} at order \
                      {} (JSON: continuous)",
-                        num(c.forward, 4),
-                        num(c.backward, 4),
-                        num(c.order.get(), 3)
-                    ),
-                    78,
-                ));
+                    num(c.forward, 4),
+                    num(c.backward, 4),
+                    num(c.order.get(), 3)
+                )));
             }
             if let Some(e) = &l.ends {
                 let text = if e.entry_slots.is_empty() && e.exit_slots.is_empty() {
@@ -107,7 +105,7 @@ impl Report for FieldReport {
                         num(e.exit_backward_at_1, 4),
                     )
                 };
-                head.extend(super::reports::wrap(&text, 78));
+                head.extend(paragraph(&text));
             }
             if let Some(v) = l.field_speed_m_s {
                 let sec = l

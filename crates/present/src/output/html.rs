@@ -78,10 +78,9 @@ fn sections(out: &mut String, secs: &[Section]) {
             }
             // The page's header shows the design once, and the caution at top and foot.
             Section::Design(_) | Section::Caution(_) => {}
-            Section::Lines(lines) => {
-                // A line the terminal wrapped joins the one before: the page reflows it.
-                let paragraphs = super::paragraphs(lines);
-                for l in &paragraphs {
+            Section::Lines(lines) | Section::Items(lines) => {
+                // Each paragraph whole: the page sets it to its own measure.
+                for l in lines {
                     let class = if l.starts_with("WARNING") {
                         "line warning"
                     } else {
@@ -261,24 +260,16 @@ pub fn document(s: &Study) -> String {
     }
     // The shared design header, with the slot count and k_w1 marked for readers and tests.
     let h = s.header();
-    let lines = super::design_lines(h);
-    let kw = super::num(h.winding_factor, 4);
     out.push_str("<div id=\"summary\">\n");
-    for (i, l) in lines.iter().enumerate() {
-        let mut l = escape(l);
-        if i == 0 {
-            l = l.replacen(
-                &format!(": {} slots", h.slots),
-                &format!(": <span id=\"slots\">{}</span> slots", h.slots),
-                1,
-            );
-        }
-        if i + 1 == lines.len() {
-            l = l.replacen(
-                &format!("k_w1 = {kw}"),
-                &format!("k_w1 = <span id=\"kw1\">{kw}</span>"),
-                1,
-            );
+    for line in super::design_pieces(h) {
+        let mut l = String::new();
+        for piece in &line {
+            match piece {
+                super::Piece::Text(t) => l.push_str(&escape(t)),
+                super::Piece::Fact(id, t) => {
+                    let _ = write!(l, "<span id=\"{id}\">{}</span>", escape(t));
+                }
+            }
         }
         let _ = writeln!(out, "<p class=\"line\">{l}</p>");
     }

@@ -48,11 +48,17 @@ pub enum Section {
     /// The safety caution: printed by the terminal; the HTML page and the sheets show it
     /// in their own frame (page header and foot, every title block) instead.
     Caution(Vec<String>),
-    /// Free lines of text.
+    /// Paragraphs of text, each whole (the text presenter wraps them).
     Lines(Vec<String>),
+    /// Numbered items ("1. ..."), each a paragraph whose wrapped lines the terminal indents
+    /// under the text (a hanging indent of [`ITEM_INDENT`] columns).
+    Items(Vec<String>),
     /// An aligned table.
     Table(Table),
 }
+
+/// Columns by which the terminal indents the wrapped lines of a numbered item.
+pub const ITEM_INDENT: usize = 3;
 
 /// Something every exporter can present.
 pub trait Report {
@@ -126,7 +132,7 @@ pub fn with_warnings(
     }
     let lines = warnings
         .iter()
-        .flat_map(|w| reports::wrap(&format!("WARNING: {}", w.message()), 78))
+        .flat_map(|w| paragraph(&format!("WARNING: {}", w.message())))
         .collect();
     let at = sections.len().min(1);
     sections.insert(at, Section::Lines(lines));
@@ -137,7 +143,7 @@ pub use crate::numbering::num;
 
 /// The safety caution as a report's section, wrapped for the terminal.
 pub fn caution() -> Section {
-    Section::Caution(wrap(crate::safety::CAUTION, 78))
+    Section::Caution(paragraph(crate::safety::CAUTION))
 }
 
 /// How a report opens: its heading ("Kind: title", or the kind alone) and the shared
@@ -150,8 +156,34 @@ pub fn opening(kind: &str, h: &crate::header::DesignHeader) -> [Section; 2] {
     [Section::Heading(heading), Section::Design(design_lines(h))]
 }
 
+/// A piece of a worded line: plain words, or a fact a page may mark (its id and its words).
+#[derive(Debug, Clone, PartialEq)]
+pub enum Piece {
+    /// Words.
+    Text(String),
+    /// A fact with the id a page gives it (`slots`, `kw1`).
+    Fact(&'static str, String),
+}
+
+impl Piece {
+    /// The piece's words.
+    pub fn text(&self) -> &str {
+        match self {
+            Piece::Text(t) | Piece::Fact(_, t) => t,
+        }
+    }
+}
+
 /// The shared design header in words: the same lines open every report.
 pub fn design_lines(h: &crate::header::DesignHeader) -> Vec<String> {
+    design_pieces(h)
+        .iter()
+        .map(|line| line.iter().map(Piece::text).collect())
+        .collect()
+}
+
+/// The shared design header as pieces: the slot count and k_w1 are facts a page marks.
+pub fn design_pieces(h: &crate::header::DesignHeader) -> Vec<Vec<Piece>> {
     use crate::winding::{Style, Topology};
     let kind = match h.topology {
         Topology::Rotary => "rotary core",
@@ -186,29 +218,34 @@ pub fn design_lines(h: &crate::header::DesignHeader) -> Vec<String> {
         format!("{} turns per coil", h.turns_per_coil)
     };
     vec![
-        format!(
-            "{kind}: {} slots, {} poles, {} phases{}",
-            h.slots,
-            h.poles,
-            h.phases,
-            if h.recorded {
-                " (recorded coil list)"
-            } else {
-                ""
-            }
-        ),
-        format!(
+        vec![
+            Piece::Text(format!("{kind}: ")),
+            Piece::Fact("slots", h.slots.to_string()),
+            Piece::Text(format!(
+                " slots, {} poles, {} phases{}",
+                h.poles,
+                h.phases,
+                if h.recorded {
+                    " (recorded coil list)"
+                } else {
+                    ""
+                }
+            )),
+        ],
+        vec![Piece::Text(format!(
             "{layers} {style}, span {}{mean}, pole pitch {} slots, q = {}",
             h.pitch,
             num(h.pole_pitch_slots, 3),
             h.slots_per_pole_phase_fraction
-        ),
-        format!(
-            "{turns}, {}, {} connection; k_w1 = {}",
-            crate::numbering::count(h.parallel_paths, "path", "paths"),
-            h.connection,
-            num(h.winding_factor, 4)
-        ),
+        ))],
+        vec![
+            Piece::Text(format!(
+                "{turns}, {}, {} connection; k_w1 = ",
+                crate::numbering::count(h.parallel_paths, "path", "paths"),
+                h.connection,
+            )),
+            Piece::Fact("kw1", num(h.winding_factor, 4)),
+        ],
     ]
 }
-pub use reports::{CONTINUES, paragraphs, wrap, wrap_plain};
+pub use reports::paragraph;

@@ -5,54 +5,11 @@ use crate::factors::FactorTable;
 use crate::plan::PlanReport;
 use itertools::Itertools;
 
-/// Marks a line that continues the sentence of the line before (the word joiner U+2060,
-/// which shows nothing): the text presenter drops it, the HTML page joins the two lines
-/// into one paragraph so a page reflows what a terminal wraps.
-pub const CONTINUES: char = '\u{2060}';
-
-/// Wrap text at `width` columns on word boundaries; lines after the first start with
-/// [`CONTINUES`].
-pub fn wrap(text: &str, width: usize) -> Vec<String> {
-    let mut lines = wrap_plain(text, width);
-    for l in lines.iter_mut().skip(1) {
-        l.insert(0, CONTINUES);
-    }
-    lines
-}
-
-/// Lines with each wrapped sentence joined back into one paragraph (see [`CONTINUES`]), for
-/// presenters that reflow text themselves (the HTML page, the sheets).
-pub fn paragraphs(lines: &[String]) -> Vec<String> {
-    let mut out: Vec<String> = Vec::new();
-    for l in lines {
-        match (l.trim_start().strip_prefix(CONTINUES), out.last_mut()) {
-            (Some(rest), Some(p)) => {
-                p.push(' ');
-                p.push_str(rest);
-            }
-            (rest, _) => out.push(rest.unwrap_or(l).to_string()),
-        }
-    }
-    out
-}
-
-/// Wrap text at `width` columns on word boundaries, with no marks (for sheets).
-pub fn wrap_plain(text: &str, width: usize) -> Vec<String> {
-    let mut lines = Vec::new();
-    let mut line = String::new();
-    for word in text.split_whitespace() {
-        if !line.is_empty() && line.chars().count() + 1 + word.chars().count() > width {
-            lines.push(std::mem::take(&mut line));
-        }
-        if !line.is_empty() {
-            line.push(' ');
-        }
-        line.push_str(word);
-    }
-    if !line.is_empty() {
-        lines.push(line);
-    }
-    lines
+/// One paragraph of a report, kept whole (its white space folded to single spaces): the
+/// text presenter wraps it at 78 columns, the HTML page and the sheets set it to their own
+/// measure, so no presenter undoes another's line breaks.
+pub fn paragraph(text: &str) -> Vec<String> {
+    vec![text.split_whitespace().collect::<Vec<_>>().join(" ")]
 }
 
 pub use crate::numbering::ranges;
@@ -257,12 +214,11 @@ impl Report for FactorTable {
             Section::Design(super::design_lines(&self.design)),
         ];
         if self.single_layer {
-            s.push(Section::Lines(wrap(
+            s.push(Section::Lines(paragraph(
                 "Single layer: each slot holds one coil side, so the slot contents fix the \
                  field whatever the coil span or shape; a shorter span changes only the end \
                  connections and suppresses nothing. The whole factor is shown as k_d, with \
                  k_p = 1.",
-                78,
             )));
         }
         s.push(Section::Table(self.main_table()));
@@ -296,35 +252,20 @@ impl Report for FactorTable {
 mod tests {
     use super::*;
 
+    // A paragraph is one line whatever its length; the terminal's 78 columns are the text
+    // presenter's (`output::text`), which wraps it on word boundaries.
     #[test]
-    fn wrap_keeps_lines_short() {
-        let lines = wrap(crate::safety::CAUTION, 78);
-        assert!(lines.len() > 1);
-        assert!(
-            lines
-                .iter()
-                .all(|l| l.chars().filter(|&c| c != CONTINUES).count() <= 78)
-        );
-    }
-
-    // What a terminal wraps, a page joins back: the paragraph is the sentence again, and
-    // lines that were never wrapped stay apart.
-    #[test]
-    fn paragraphs_join_what_wrap_split() {
-        let sentence = crate::safety::CAUTION
-            .split_whitespace()
-            .collect::<Vec<_>>()
-            .join(" ");
-        let mut lines = vec!["a line of its own".to_string()];
-        lines.extend(wrap(&sentence, 40));
-        lines.push("another line".to_string());
+    fn a_paragraph_stays_whole_and_the_terminal_wraps_it() {
+        let p = paragraph(crate::safety::CAUTION);
+        assert_eq!(p.len(), 1);
+        let mut out = Vec::new();
+        super::super::text::lines(&p, 0, &mut out).expect("written");
+        let text = String::from_utf8(out).expect("utf-8");
+        assert!(text.lines().count() > 1);
+        assert!(text.lines().all(|l| l.chars().count() <= 78));
         assert_eq!(
-            paragraphs(&lines),
-            vec![
-                "a line of its own".to_string(),
-                sentence,
-                "another line".to_string()
-            ]
+            text.split_whitespace().collect::<Vec<_>>(),
+            p[0].split_whitespace().collect::<Vec<_>>()
         );
     }
 }

@@ -17,19 +17,43 @@ impl Exporter for Text {
                     writeln!(out, "{}", crate::sanitize::clean(h))?;
                 }
                 Section::Lines(lines) | Section::Design(lines) | Section::Caution(lines) => {
-                    for l in lines {
-                        writeln!(
-                            out,
-                            "{}",
-                            crate::sanitize::clean(l).replace(super::CONTINUES, "")
-                        )?;
-                    }
+                    self::lines(lines, 0, out)?;
                 }
+                Section::Items(items) => self::lines(items, super::ITEM_INDENT, out)?,
                 Section::Table(t) => table(t, out)?,
             }
         }
         Ok(())
     }
+}
+
+/// Terminal columns a paragraph is wrapped to.
+pub const COLUMNS: usize = 78;
+
+/// Paragraphs for a terminal: each wrapped at [`COLUMNS`] on word boundaries (first fit,
+/// no hyphenation, words longer than a line kept whole), its further lines indented by
+/// `hang` columns, cleaned.
+pub fn lines(
+    paragraphs: &[String],
+    hang: usize,
+    out: &mut dyn std::io::Write,
+) -> std::io::Result<()> {
+    let indent = " ".repeat(hang);
+    let options = textwrap::Options::new(COLUMNS)
+        .subsequent_indent(&indent)
+        .break_words(false)
+        .word_splitter(textwrap::WordSplitter::NoHyphenation)
+        .wrap_algorithm(textwrap::WrapAlgorithm::FirstFit);
+    for p in paragraphs {
+        let clean = crate::sanitize::clean(p);
+        if clean.is_empty() {
+            writeln!(out)?;
+        }
+        for l in textwrap::wrap(&clean, &options) {
+            writeln!(out, "{l}")?;
+        }
+    }
+    Ok(())
 }
 
 /// Write a table with columns padded to their widest cell, two spaces apart, line by line

@@ -1,6 +1,6 @@
 //! How the thrust and inductance reports read as text and CSV.
 
-use super::reports::wrap;
+use super::reports::paragraph;
 use super::{Align, Report, Section, Table, num};
 use crate::inductance::InductanceReport;
 use crate::output::Words;
@@ -78,7 +78,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
             ),
         ];
         s.push(Section::Lines(
-            lines.iter().flat_map(|l| wrap(l, 78)).collect(),
+            lines.iter().flat_map(|l| paragraph(l)).collect(),
         ));
         s.push(Section::Table(table_every(this, every)));
         let mut notes: Vec<String> =
@@ -89,7 +89,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 .map(|a| format!("assumed: {}", a.message())),
         );
         s.push(Section::Lines(
-            notes.iter().flat_map(|l| wrap(l, 78)).collect(),
+            notes.iter().flat_map(|l| paragraph(l)).collect(),
         ));
         s.push(super::caution());
         s
@@ -166,7 +166,7 @@ impl Report for InductanceReport {
                 .map(|a| format!("assumed: {}", a.message())),
         );
         s.push(Section::Lines(
-            lines.iter().flat_map(|l| wrap(l, 78)).collect(),
+            lines.iter().flat_map(|l| paragraph(l)).collect(),
         ));
         if !self.ranking.is_empty() {
             s.push(Section::Heading(

@@ -648,6 +648,14 @@ fn sigma_of(sheet: &CurrentSheet) -> Result<f64, FieldError> {
 /// report. A flat primary is folded onto whole wavelengths ([`CurrentSheet::folded`]), so
 /// odd pole counts have one too. `None` when there is no working wave.
 pub fn differential_leakage(w: &Winding) -> Option<f64> {
+    if w.geometry.topology == Topology::Rotary && !w.from_coil_list {
+        // A synthesized rotary winding is balanced (synthesis checks it), so the real
+        // staircase at one instant gives the same σ_d without the complex sheet
+        // (`tests/one_fact.rs` holds the two equal).
+        let mut buf = Vec::with_capacity(w.geometry.slots);
+        crate::winding::star::balanced_slot_currents(w, &mut buf);
+        return crate::leakage::staircase_leakage(&buf, (w.geometry.poles / 2) as u64);
+    }
     let currents = balanced_currents(w.geometry.phases, Sequence::Positive);
     let sheet = CurrentSheet::new(w, &currents, 0.0).ok()?;
     sigma_of(&sheet).ok()
