@@ -32,7 +32,7 @@ fn check_all<R: Report>(name: &str, cmd: &str, r: &R) {
     let json = output::render(r, Format::Json).expect("renders");
     let v: Value = serde_json::from_str(&json).expect("JSON parses");
     let s = schema(cmd);
-    if let Err(e) = common::schema_check(&v, &s, &s, cmd) {
+    if let Err(e) = common::schema_check(&v, &s, cmd) {
         panic!("{name} {cmd}: {e}");
     }
 }

@@ -43,7 +43,7 @@ fn check<R: Report>(cmd: &str, r: &R) {
         .find(|(c, _)| *c == cmd)
         .map(|(_, s)| s)
         .expect("schema");
-    if let Err(e) = schema_check(&v, &schema, &schema, cmd) {
+    if let Err(e) = schema_check(&v, &schema, cmd) {
         panic!("{e}");
     }
 }
