@@ -323,59 +323,7 @@ impl RawLayout {
                 ),
             ));
         }
-        let phase_labels = match &m.phase_labels {
-            Some(labels) => {
-                if labels.len() != phases {
-                    return Err(c.err(
-                        "machine",
-                        0,
-                        "phase_labels",
-                        format!(
-                            "{} labels given for {phases} phases; give one label per phase",
-                            labels.len()
-                        ),
-                    ));
-                }
-                for (i, l) in labels.iter().enumerate() {
-                    // A label is printed on every sheet and lead: refuse what would print
-                    // as something else or as nothing (spaces, controls, invisible
-                    // formatting and bidirectional marks), so two labels that differ
-                    // differ where a reader can see it.
-                    if let Some(ch) = l.chars().find(|x| crate::sanitize::invisible(*x)) {
-                        return Err(c.err(
-                            "machine",
-                            0,
-                            "phase_labels",
-                            format!(
-                                "label {} has the character U+{:04X}, which does not print as \
-                                 itself; use letters, digits and visible signs only (U, V, W)",
-                                i + 1,
-                                ch as u32
-                            ),
-                        ));
-                    }
-                    if l.trim().is_empty() || l.chars().count() > 8 {
-                        return Err(c.err(
-                            "machine",
-                            0,
-                            "phase_labels",
-                            format!("label {} ({l:?}) must be 1 to 8 characters", i + 1),
-                        ));
-                    }
-                    if labels[..i].contains(l) {
-                        return Err(c.err(
-                            "machine",
-                            0,
-                            "phase_labels",
-                            format!("label {l:?} is given twice; labels must differ"),
-                        ));
-                    }
-                }
-                labels.clone()
-            }
-            None if phases == 3 => vec!["U".into(), "V".into(), "W".into()],
-            None => (1..=phases).map(|i| format!("P{i}")).collect(),
-        };
+        let phase_labels = phase_labels(&c, m.phase_labels.as_deref(), phases)?;
 
         let w = &self.winding;
         let layers = c.range("winding", "layers", w.layers, 1, 2, "layer count")?;
@@ -428,27 +376,8 @@ impl RawLayout {
             }
         };
 
-        let core = match &self.core {
-            None => Core::default(),
-            Some(k) => Core {
-                slot_pitch_m: c
-                    .within("core", "slot_pitch_mm", k.slot_pitch_mm, 0.1, 10_000.0)?
-                    .map(|v| v * 1e-3),
-                bore_m: c
-                    .within("core", "bore_mm", k.bore_mm, 1.0, 100_000.0)?
-                    .map(|v| v * 1e-3),
-                stack_m: c
-                    .within("core", "stack_mm", k.stack_mm, 1.0, 100_000.0)?
-                    .map(|v| v * 1e-3),
-            },
-        };
-        let supply = match &self.supply {
-            None => Supply::default(),
-            Some(s) => Supply {
-                frequency_hz: c.within("supply", "frequency_hz", s.frequency_hz, 0.01, 1e6)?,
-                line_voltage_v: c.within("supply", "line_voltage_v", s.line_voltage_v, 1.0, 1e6)?,
-            },
-        };
+        let core = self.core_sizes(&c)?;
+        let supply = self.supply_figures(&c)?;
         let design = self.shop_data(
             &c,
             Design {
@@ -470,6 +399,59 @@ impl RawLayout {
             },
         )?;
 
+        let coils = self.coil_list(&c, &phase_labels, slots, turns_per_coil, parallel_paths)?;
+
+        let colours = self.colours(&c, phases)?;
+
+        Ok(Spec {
+            labels: crate::design::Labels {
+                title: self.title,
+                colours,
+            },
+            design,
+            coils,
+        })
+    }
+
+    /// The `[core]` sizes, each within its range, in metres.
+    fn core_sizes(&self, c: &Checker) -> Result<Core, LayoutError> {
+        Ok(match &self.core {
+            None => Core::default(),
+            Some(k) => Core {
+                slot_pitch_m: c
+                    .within("core", "slot_pitch_mm", k.slot_pitch_mm, 0.1, 10_000.0)?
+                    .map(|v| v * 1e-3),
+                bore_m: c
+                    .within("core", "bore_mm", k.bore_mm, 1.0, 100_000.0)?
+                    .map(|v| v * 1e-3),
+                stack_m: c
+                    .within("core", "stack_mm", k.stack_mm, 1.0, 100_000.0)?
+                    .map(|v| v * 1e-3),
+            },
+        })
+    }
+
+    /// The `[supply]` figures, each within its range.
+    fn supply_figures(&self, c: &Checker) -> Result<Supply, LayoutError> {
+        Ok(match &self.supply {
+            None => Supply::default(),
+            Some(s) => Supply {
+                frequency_hz: c.within("supply", "frequency_hz", s.frequency_hz, 0.01, 1e6)?,
+                line_voltage_v: c.within("supply", "line_voltage_v", s.line_voltage_v, 1.0, 1e6)?,
+            },
+        })
+    }
+
+    /// The `[[coil]]` list as coil entries (0-based slots and paths), each checked against
+    /// the machine: a phase it has, slots on the core, turns and a path that exist.
+    fn coil_list(
+        &self,
+        c: &Checker,
+        phase_labels: &[String],
+        slots: usize,
+        turns_per_coil: u32,
+        parallel_paths: usize,
+    ) -> Result<Vec<CoilEntry>, LayoutError> {
         if self.coil.len() > MAX_COILS {
             return Err(c.err(
                 "coil",
@@ -558,40 +540,37 @@ impl RawLayout {
                 path,
             });
         }
+        Ok(coils)
+    }
 
-        let colours = match self.drawing.and_then(|d| d.colours) {
-            None => None,
-            Some(cs) => {
-                if cs.len() != phases {
-                    return Err(c.err(
-                        "drawing",
-                        0,
-                        "colours",
-                        format!("{} colours given for {phases} phases", cs.len()),
-                    ));
-                }
-                for col in &cs {
-                    if !is_hex_colour(col) {
+    /// `[drawing] colours`: one "#rrggbb" per phase.
+    fn colours(&self, c: &Checker, phases: usize) -> Result<Option<Vec<String>>, LayoutError> {
+        Ok(
+            match self.drawing.as_ref().and_then(|d| d.colours.clone()) {
+                None => None,
+                Some(cs) => {
+                    if cs.len() != phases {
                         return Err(c.err(
                             "drawing",
                             0,
                             "colours",
-                            format!("{col:?} is not a colour; write it as \"#rrggbb\""),
+                            format!("{} colours given for {phases} phases", cs.len()),
                         ));
                     }
+                    for col in &cs {
+                        if !is_hex_colour(col) {
+                            return Err(c.err(
+                                "drawing",
+                                0,
+                                "colours",
+                                format!("{col:?} is not a colour; write it as \"#rrggbb\""),
+                            ));
+                        }
+                    }
+                    Some(cs)
                 }
-                Some(cs)
-            }
-        };
-
-        Ok(Spec {
-            labels: crate::design::Labels {
-                title: self.title,
-                colours,
             },
-            design,
-            coils,
-        })
+        )
     }
 
     /// The optional design tables, added to the core design `d`: wire, copper rule, slot
@@ -925,6 +904,69 @@ impl RawLayout {
                 .unwrap_or(20.0),
         })
     }
+}
+
+/// The phase labels: as given under `machine.phase_labels` (one per phase, each printing as
+/// itself, 1 to 8 characters, all different), else U, V, W for three phases and P1, P2, ...
+fn phase_labels(
+    c: &Checker,
+    given: Option<&[String]>,
+    phases: usize,
+) -> Result<Vec<String>, LayoutError> {
+    let labels = match given {
+        Some(labels) => {
+            if labels.len() != phases {
+                return Err(c.err(
+                    "machine",
+                    0,
+                    "phase_labels",
+                    format!(
+                        "{} labels given for {phases} phases; give one label per phase",
+                        labels.len()
+                    ),
+                ));
+            }
+            for (i, l) in labels.iter().enumerate() {
+                // A label is printed on every sheet and lead: refuse what would print
+                // as something else or as nothing (spaces, controls, invisible
+                // formatting and bidirectional marks), so two labels that differ
+                // differ where a reader can see it.
+                if let Some(ch) = l.chars().find(|x| crate::sanitize::invisible(*x)) {
+                    return Err(c.err(
+                        "machine",
+                        0,
+                        "phase_labels",
+                        format!(
+                            "label {} has the character U+{:04X}, which does not print as \
+                             itself; use letters, digits and visible signs only (U, V, W)",
+                            i + 1,
+                            ch as u32
+                        ),
+                    ));
+                }
+                if l.trim().is_empty() || l.chars().count() > 8 {
+                    return Err(c.err(
+                        "machine",
+                        0,
+                        "phase_labels",
+                        format!("label {} ({l:?}) must be 1 to 8 characters", i + 1),
+                    ));
+                }
+                if labels[..i].contains(l) {
+                    return Err(c.err(
+                        "machine",
+                        0,
+                        "phase_labels",
+                        format!("label {l:?} is given twice; labels must differ"),
+                    ));
+                }
+            }
+            labels.to_vec()
+        }
+        None if phases == 3 => vec!["U".into(), "V".into(), "W".into()],
+        None => (1..=phases).map(|i| format!("P{i}")).collect(),
+    };
+    Ok(labels)
 }
 
 /// Free text of a shop table: at most 200 characters, control characters refused.
