@@ -151,6 +151,202 @@ pub struct Search {
     /// large record); `None` when every pair was tried.
     pub swap_reach: Option<usize>,
 }
+/// The candidate edits of a search, with their deltas on the phase sums and the coils each
+/// touches (`members[lo..hi]`).
+struct Candidates<'a> {
+    bal: &'a Balance,
+    edits: Vec<Edit>,
+    deltas: Vec<Delta>,
+    members: Vec<usize>,
+}
+
+impl<'a> Candidates<'a> {
+    fn new(bal: &'a Balance) -> Self {
+        Candidates {
+            bal,
+            edits: Vec::new(),
+            deltas: Vec::new(),
+            members: Vec::new(),
+        }
+    }
+
+    /// Add `edit`, which changes phase `a`'s EMF by `da` and phase `b`'s by `db` and moves
+    /// `turns` turns, touching `coils`.
+    #[allow(clippy::too_many_arguments)]
+    fn push(&mut self, edit: Edit, a: usize, da: C, b: usize, db: C, turns: f64, coils: &[usize]) {
+        let lo = self.members.len() as u32;
+        self.members.extend_from_slice(coils);
+        self.deltas.push(Delta {
+            a,
+            da,
+            b,
+            db,
+            turns,
+            key: self.bal.key(a, da, b, db),
+            cost: edit.cost() as u8,
+            lo,
+            hi: self.members.len() as u32,
+            edit: self.edits.len() as u32,
+        });
+        self.edits.push(edit);
+    }
+}
+
+/// Every single coil reversed, or moved to another phase either way round.
+fn coil_edits(w: &Winding, m: usize, emf: &[C], cands: &mut Candidates) {
+    let zero = C::new(0.0, 0.0);
+    for (i, c) in w.coils.iter().enumerate() {
+        let p = c.phase.min(m - 1);
+        cands.push(
+            Edit::ReverseCoil { coil: i },
+            p,
+            -2.0 * emf[i],
+            p,
+            zero,
+            0.0,
+            &[i],
+        );
+        for to in (0..m).filter(|&t| t != p) {
+            for reversed in [false, true] {
+                let moved = if reversed { -emf[i] } else { emf[i] };
+                cands.push(
+                    Edit::MoveCoil {
+                        coil: i,
+                        from: p,
+                        to,
+                        reversed,
+                    },
+                    p,
+                    -emf[i],
+                    to,
+                    moved,
+                    c.turns as f64,
+                    &[i],
+                );
+            }
+        }
+    }
+}
+
+/// Every coil group reversed, or moved to another phase either way round (a whole phase is
+/// left to the phase-level edits).
+fn group_edits(w: &Winding, m: usize, emf: &[C], cands: &mut Candidates) {
+    let zero = C::new(0.0, 0.0);
+    let mut per_phase = [0usize; MAX_PHASES];
+    for c in &w.coils {
+        per_phase[c.phase.min(m - 1)] += 1;
+    }
+    for g in group_candidates(w) {
+        let p = w.coils[g[0]].phase.min(m - 1);
+        if g.len() == per_phase[p] {
+            // The whole phase: reported as the phase connected backwards.
+            continue;
+        }
+        let sum: C = g.iter().map(|&i| emf[i]).sum();
+        let turns: f64 = g.iter().map(|&i| w.coils[i].turns as f64).sum();
+        cands.push(
+            Edit::ReverseGroup { coils: g.clone() },
+            p,
+            -2.0 * sum,
+            p,
+            zero,
+            0.0,
+            &g,
+        );
+        for to in (0..m).filter(|&t| t != p) {
+            for reversed in [false, true] {
+                cands.push(
+                    Edit::MoveGroup {
+                        coils: g.clone(),
+                        from: p,
+                        to,
+                        reversed,
+                    },
+                    p,
+                    -sum,
+                    to,
+                    if reversed { -sum } else { sum },
+                    turns,
+                    &g,
+                );
+            }
+        }
+    }
+}
+
+/// Pairs of coils of different phases swapped, nearest first when a huge record needs a
+/// bound: the reach in slots, when bounded.
+fn swap_edits(
+    w: &Winding,
+    m: usize,
+    emf: &[C],
+    scale: f64,
+    cands: &mut Candidates,
+) -> Option<usize> {
+    // Pairs swapped between phases, nearest first when a huge record needs a bound.
+    let z = w.geometry.slots;
+    let n = w.coils.len();
+    let reach = (MAX_SWAPS / n.max(1)).max(1);
+    let swap_reach = (reach < z).then_some(reach);
+    let left: Vec<usize> = w.coils.iter().map(|c| w.left_slot(c)).collect();
+    let rotary = w.geometry.topology == Topology::Rotary;
+    for a in 0..n {
+        for b in a + 1..n {
+            let (pa, pb) = (w.coils[a].phase.min(m - 1), w.coils[b].phase.min(m - 1));
+            if pa == pb {
+                continue;
+            }
+            let d = left[a].abs_diff(left[b]);
+            let d = if rotary { d.min(z - d) } else { d };
+            if d > reach {
+                continue;
+            }
+            let de = emf[b] - emf[a];
+            let dt = w.coils[a].turns as f64 - w.coils[b].turns as f64;
+            if de.norm() <= 1e-12 * scale.max(1.0) && dt == 0.0 {
+                continue;
+            }
+            cands.push(
+                Edit::SwapCoils {
+                    a,
+                    b,
+                    phase_a: pa,
+                    phase_b: pb,
+                },
+                pa,
+                de,
+                pb,
+                -de,
+                dt,
+                &[a, b],
+            );
+        }
+    }
+    swap_reach
+}
+
+/// A coil laid in the wrong slots: a side in an overfilled slot moved to a slot with room.
+fn relay_edits(w: &Winding, m: usize, emf: &[C], cands: &mut Candidates) {
+    let zero = C::new(0.0, 0.0);
+    for (i, moved) in relay_candidates(w) {
+        let p = moved.phase.min(m - 1);
+        cands.push(
+            Edit::RelayCoil {
+                coil: i,
+                go: moved.go,
+                back: moved.back,
+                go_layer: moved.go_layer,
+                back_layer: moved.back_layer,
+            },
+            p,
+            w.coil_emf(&moved, Elec::FUNDAMENTAL) - emf[i],
+            p,
+            zero,
+            0.0,
+            &[i],
+        );
+    }
+}
 
 /// An additive edit: phasor deltas on at most two phases.
 #[derive(Debug, Clone, Copy)]
@@ -351,187 +547,20 @@ pub fn search(w: &Winding) -> Search {
         };
     }
 
-    // Every candidate edit, additive ones with their deltas.
-    let mut edits: Vec<Edit> = Vec::new();
-    let mut deltas: Vec<Delta> = Vec::new();
-    let mut members: Vec<usize> = Vec::new();
-    let mut push = |edit: Edit, a: usize, da: C, b: usize, db: C, turns: f64, coils: &[usize]| {
-        let lo = members.len() as u32;
-        members.extend_from_slice(coils);
-        deltas.push(Delta {
-            a,
-            da,
-            b,
-            db,
-            turns,
-            key: bal.key(a, da, b, db),
-            cost: edit.cost() as u8,
-            lo,
-            hi: members.len() as u32,
-            edit: edits.len() as u32,
-        });
-        edits.push(edit);
-    };
-    let zero = C::new(0.0, 0.0);
-    for (i, c) in w.coils.iter().enumerate() {
-        let p = c.phase.min(m - 1);
-        push(
-            Edit::ReverseCoil { coil: i },
-            p,
-            -2.0 * emf[i],
-            p,
-            zero,
-            0.0,
-            &[i],
-        );
-        for to in (0..m).filter(|&t| t != p) {
-            for reversed in [false, true] {
-                let moved = if reversed { -emf[i] } else { emf[i] };
-                push(
-                    Edit::MoveCoil {
-                        coil: i,
-                        from: p,
-                        to,
-                        reversed,
-                    },
-                    p,
-                    -emf[i],
-                    to,
-                    moved,
-                    c.turns as f64,
-                    &[i],
-                );
-            }
-        }
-    }
-    let mut per_phase = [0usize; MAX_PHASES];
-    for c in &w.coils {
-        per_phase[c.phase.min(m - 1)] += 1;
-    }
-    for g in group_candidates(w) {
-        let p = w.coils[g[0]].phase.min(m - 1);
-        if g.len() == per_phase[p] {
-            // The whole phase: reported as the phase connected backwards.
-            continue;
-        }
-        let sum: C = g.iter().map(|&i| emf[i]).sum();
-        let turns: f64 = g.iter().map(|&i| w.coils[i].turns as f64).sum();
-        push(
-            Edit::ReverseGroup { coils: g.clone() },
-            p,
-            -2.0 * sum,
-            p,
-            zero,
-            0.0,
-            &g,
-        );
-        for to in (0..m).filter(|&t| t != p) {
-            for reversed in [false, true] {
-                push(
-                    Edit::MoveGroup {
-                        coils: g.clone(),
-                        from: p,
-                        to,
-                        reversed,
-                    },
-                    p,
-                    -sum,
-                    to,
-                    if reversed { -sum } else { sum },
-                    turns,
-                    &g,
-                );
-            }
-        }
-    }
-    // Pairs swapped between phases, nearest first when a huge record needs a bound.
-    let z = w.geometry.slots;
-    let n = w.coils.len();
-    let reach = (MAX_SWAPS / n.max(1)).max(1);
-    let swap_reach = (reach < z).then_some(reach);
-    let left: Vec<usize> = w.coils.iter().map(|c| w.left_slot(c)).collect();
-    let rotary = w.geometry.topology == Topology::Rotary;
-    for a in 0..n {
-        for b in a + 1..n {
-            let (pa, pb) = (w.coils[a].phase.min(m - 1), w.coils[b].phase.min(m - 1));
-            if pa == pb {
-                continue;
-            }
-            let d = left[a].abs_diff(left[b]);
-            let d = if rotary { d.min(z - d) } else { d };
-            if d > reach {
-                continue;
-            }
-            let de = emf[b] - emf[a];
-            let dt = w.coils[a].turns as f64 - w.coils[b].turns as f64;
-            if de.norm() <= 1e-12 * scale.max(1.0) && dt == 0.0 {
-                continue;
-            }
-            push(
-                Edit::SwapCoils {
-                    a,
-                    b,
-                    phase_a: pa,
-                    phase_b: pb,
-                },
-                pa,
-                de,
-                pb,
-                -de,
-                dt,
-                &[a, b],
-            );
-        }
-    }
-    // A coil laid in the wrong slots: a side in an overfilled slot moved to a slot with room.
-    for (i, moved) in relay_candidates(w) {
-        let p = moved.phase.min(m - 1);
-        push(
-            Edit::RelayCoil {
-                coil: i,
-                go: moved.go,
-                back: moved.back,
-                go_layer: moved.go_layer,
-                back_layer: moved.back_layer,
-            },
-            p,
-            w.coil_emf(&moved, Elec::FUNDAMENTAL) - emf[i],
-            p,
-            zero,
-            0.0,
-            &[i],
-        );
-    }
-    let mut maps: Vec<Map> = Vec::new();
-    let identity = || {
-        let mut perm = [0; MAX_PHASES];
-        for (k, p) in perm.iter_mut().enumerate() {
-            *p = k;
-        }
-        perm
-    };
-    for k in 0..m {
-        let mut sign = [1.0; MAX_PHASES];
-        sign[k] = -1.0;
-        maps.push(Map {
-            perm: identity(),
-            sign,
-            edit: edits.len() as u32,
-        });
-        edits.push(Edit::ReversePhase { phase: k });
-    }
-    for a in 0..m {
-        for b in a + 1..m {
-            let mut perm = identity();
-            perm.swap(a, b);
-            maps.push(Map {
-                perm,
-                sign: [1.0; MAX_PHASES],
-                edit: edits.len() as u32,
-            });
-            edits.push(Edit::SwapPhases { a, b });
-        }
-    }
+    // Every candidate edit, additive ones with their deltas: single coils, coil groups,
+    // pairs swapped between phases, coils laid in the wrong slots.
+    let mut cands = Candidates::new(&bal);
+    coil_edits(w, m, &emf, &mut cands);
+    group_edits(w, m, &emf, &mut cands);
+    let swap_reach = swap_edits(w, m, &emf, scale, &mut cands);
+    relay_edits(w, m, &emf, &mut cands);
+    let Candidates {
+        mut edits,
+        deltas,
+        members,
+        ..
+    } = cands;
+    let maps = phase_maps(m, &mut edits);
 
     let apply = |s: &mut State, d: &Delta| {
         s.e[d.a] += d.da;
@@ -645,11 +674,62 @@ pub fn search(w: &Winding) -> Search {
             swap_reach,
         };
     }
+    let best = best_fix(w, found, &edits);
+    Search {
+        balanced: false,
+        fix: best,
+        alternatives: total - 1,
+        truncated,
+        swap_reach,
+    }
+}
+
+/// The phase-level edits as maps of the phase sums: each phase reversed, each pair of
+/// phases swapped (their edits appended to `edits`).
+fn phase_maps(m: usize, edits: &mut Vec<Edit>) -> Vec<Map> {
+    let mut maps: Vec<Map> = Vec::new();
+    let identity = || {
+        let mut perm = [0; MAX_PHASES];
+        for (k, p) in perm.iter_mut().enumerate() {
+            *p = k;
+        }
+        perm
+    };
+    for k in 0..m {
+        let mut sign = [1.0; MAX_PHASES];
+        sign[k] = -1.0;
+        maps.push(Map {
+            perm: identity(),
+            sign,
+            edit: edits.len() as u32,
+        });
+        edits.push(Edit::ReversePhase { phase: k });
+    }
+    for a in 0..m {
+        for b in a + 1..m {
+            let mut perm = identity();
+            perm.swap(a, b);
+            maps.push(Map {
+                perm,
+                sign: [1.0; MAX_PHASES],
+                edit: edits.len() as u32,
+            });
+            edits.push(Edit::SwapPhases { a, b });
+        }
+    }
+    maps
+}
+
+/// The fix to report among those `found` (each a list of indices into `edits`): fewest
+/// shop edits, then most coils agreeing with the standard belt layout, most
+/// coils whose span is the record's usual span, then fewest coils touched, then the
+/// earliest edits.
+fn best_fix(w: &Winding, found: Vec<Vec<u32>>, edits: &[Edit]) -> Option<Vec<Edit>> {
     // Rank: fewest shop edits, then most coils agreeing with the standard belt layout, most
     // coils whose span is the record's usual span, then fewest coils touched, then the
     // earliest edits.
     let usual = usual_span(w);
-    let ranked = found
+    found
         .into_iter()
         .map(|f| {
             let fix: Vec<Edit> = f.iter().map(|&e| edits[e as usize].clone()).collect();
@@ -675,14 +755,8 @@ pub fn search(w: &Winding) -> Search {
         })
         .min_by(|x, y| {
             (x.0, std::cmp::Reverse(x.1), x.2, &x.3).cmp(&(y.0, std::cmp::Reverse(y.1), y.2, &y.3))
-        });
-    Search {
-        balanced: false,
-        fix: ranked.map(|r| r.4),
-        alternatives: total - 1,
-        truncated,
-        swap_reach,
-    }
+        })
+        .map(|r| r.4)
 }
 
 /// Where a coil with a side in an overfilled slot could lie instead: each such side moved
