@@ -4,7 +4,7 @@ use super::reports::paragraph;
 use super::{Align, Report, Section, Table, num};
 use super::{Say, worded};
 use crate::card::DataCard;
-use crate::card::leads::{Configuration, Sections};
+use crate::card::leads::{Configuration, LeadScheme, Sections};
 use crate::output::Words;
 use crate::winding::Connection;
 use std::fmt;
@@ -160,300 +160,16 @@ impl Report for DataCard {
         if self.nameplate.is_some() || self.job.is_some() {
             s.push(Section::Heading("Winding".into()));
         }
-        let list = |v: &[usize]| {
-            v.iter()
-                .map(|x| x.to_string())
-                .collect::<Vec<_>>()
-                .join(", ")
-        };
-        let mut lines = vec![
-            format!(
-                "{} in {} of {} {}",
-                crate::numbering::count(self.coils, "coil", "coils"),
-                crate::numbering::count(self.groups, "group", "groups"),
-                list(&self.coils_per_group),
-                crate::numbering::noun_for(&self.coils_per_group, "coil", "coils")
-            ),
-            format!(
-                "span {} (slot to slot); {} per coil{}; {} series turns per phase",
-                self.spans.join(", "),
-                self.turns_per_coil
-                    .iter()
-                    .map(|t| t.to_string())
-                    .collect::<Vec<_>>()
-                    .join(", ")
-                    + if self.turns_per_coil == [1] {
-                        " turn"
-                    } else {
-                        " turns"
-                    },
-                if self.turns_per_coil.len() > 1 {
-                    " (mixed)"
-                } else {
-                    ""
-                },
-                num(self.series_turns_per_phase, 2)
-            ),
-        ];
-        match &self.wire {
-            Some(w) => lines.push(format!(
-                "wire: {} x {} mm bare {}{} ({} mm2 per strand, {} mm2 per conductor), \
-                 {} mm over enamel, {}",
-                w.strands_in_hand,
-                num(w.diameter_mm, 4),
-                w.material,
-                w.awg.map(|n| format!(" (AWG {n})")).unwrap_or_default(),
-                num(w.area_mm2, 4),
-                num(w.conductor_area_mm2, 4),
-                num(w.insulated_diameter_mm, 3),
-                w.insulation
-            )),
-            None => lines.push("wire: not given".into()),
-        }
-        s.push(Section::Lines(
-            lines.into_iter().flat_map(|l| paragraph(&l)).collect(),
-        ));
+        s.extend(winding_sections(self));
 
-        s.push(Section::Heading("Copper".into()));
-        let mut t = Table::new(&[("figure", Align::Left), ("value", Align::Right)]);
-        t.push(vec!["mean turn".into(), opt(self.mean_turn_mm, 1, "mm")]);
-        t.push(vec![
-            "phase resistance at 20 C".into(),
-            self.phase_resistance_20c_ohm
-                .map_or("-".into(), |r| format!("{} ohm", ohms(r))),
-        ]);
-        t.push(vec![
-            "line-to-line resistance at 20 C".into(),
-            self.line_resistance_20c_ohm
-                .map_or("-".into(), |r| format!("{} ohm", ohms(r))),
-        ]);
-        t.push(vec![
-            "conductor mass, whole winding".into(),
-            opt(self.copper_mass_kg, 3, "kg"),
-        ]);
-        t.push(vec![
-            "conductor mass per phase".into(),
-            opt(self.copper_mass_per_phase_kg, 3, "kg"),
-        ]);
-        t.push(vec![
-            "conductor mass per coil".into(),
-            opt(self.copper_mass_per_coil_kg, 4, "kg"),
-        ]);
-        t.push(vec![
-            format!(
-                "wire to order (+{}% for ends, leads, waste)",
-                num(self.wire_allowance_percent, 0)
-            ),
-            opt(self.wire_to_order_kg, 2, "kg"),
-        ]);
-        t.push(vec![
-            "rated line current (nameplate)".into(),
-            opt(self.rated_current_a, 2, "A"),
-        ]);
-        t.push(vec![
-            format!(
-                "current density at rated current (limit {})",
-                num(self.current_density_limit_a_mm2, 1)
-            ),
-            opt(self.current_density_a_mm2, 2, "A/mm2"),
-        ]);
-        t.push(vec![
-            "wires in the fullest slot".into(),
-            self.wires_per_slot.to_string(),
-        ]);
-        t.push(vec![
-            "slot fill (insulated wire)".into(),
-            self.slot_fill.map_or("- (no slot area)".into(), |f| {
-                format!("{}%", num(f * 100.0, 1))
-            }),
-        ]);
-        t.push(vec![
-            "copper fill (bare)".into(),
-            self.copper_fill
-                .map_or("-".into(), |f| format!("{}%", num(f * 100.0, 1))),
-        ]);
-        s.push(Section::Table(t));
-        s.push(Section::Lines(paragraph(&format!(
-            "mean turn rule: {}",
-            self.mean_turn_rule.message()
-        ))));
-        if !self.formers.is_empty() {
-            s.push(Section::Heading(
-                "Formers (by the mean-turn rule; span width between the coil sides' centres)"
-                    .into(),
-            ));
-            let mut t = Table::new(&[
-                ("span", Align::Left),
-                ("coils", Align::Right),
-                ("span width mm", Align::Right),
-                ("straight mm", Align::Right),
-                ("end out mm", Align::Right),
-                ("mean turn mm", Align::Right),
-            ]);
-            for f in &self.formers {
-                t.push(vec![
-                    f.span.clone(),
-                    f.coils.to_string(),
-                    num(f.span_width_mm, 1),
-                    num(f.straight_mm, 1),
-                    num(f.end_extension_mm, 1),
-                    num(f.mean_turn_mm, 1),
-                ]);
-            }
-            s.push(Section::Table(t));
-        }
+        s.extend(copper_sections(self));
 
         if let Some(l) = &self.leads {
-            s.push(Section::Heading(format!(
-                "Leads: {} leads, {} marking",
-                l.count,
-                match l.marking {
-                    crate::design::Marking::Iec => "IEC 60034-8",
-                    crate::design::Marking::Nema => "NEMA MG 1",
-                }
-            )));
-            let mut lines: Vec<String> = vec![format!(
-                "leads out: {}",
-                l.terminals
-                    .iter()
-                    .map(|t| format!("{} ({} {} {})", t.name, t.phase, t.section, t.end))
-                    .collect::<Vec<_>>()
-                    .join(", ")
-            )];
-            for j in &l.internal {
-                lines.push(format!("joined inside: {}", j.join("-")));
-            }
-            s.push(Section::Lines(
-                lines.iter().flat_map(|x| paragraph(x)).collect(),
-            ));
-            let mut t = Table::new(&[
-                ("connection", Align::Left),
-                ("L1", Align::Left),
-                ("L2", Align::Left),
-                ("L3", Align::Left),
-                ("join", Align::Left),
-                ("line V", Align::Right),
-                ("R line 20C", Align::Right),
-            ]);
-            for c in &l.configurations {
-                t.push(vec![
-                    format!(
-                        "{}{}",
-                        configuration_name(c),
-                        if c.as_planned { " *" } else { "" }
-                    ),
-                    c.lines[0].join("+"),
-                    c.lines[1].join("+"),
-                    c.lines[2].join("+"),
-                    if c.joined.is_empty() {
-                        "-".into()
-                    } else {
-                        c.joined
-                            .iter()
-                            .map(|j| j.join("-"))
-                            .collect::<Vec<_>>()
-                            .join(", ")
-                    },
-                    c.line_voltage_v.map_or("-".into(), |v| num(v, 0)),
-                    c.line_resistance_20c_ohm.map_or("-".into(), ohms),
-                ]);
-            }
-            s.push(Section::Table(t));
-            let mut lines = vec!["* as planned".to_string()];
-            lines.extend(paragraph(&l.rotation.message()));
-            s.push(Section::Lines(lines));
+            s.extend(lead_sections(l));
         }
-        if !self.sections.is_empty() {
-            s.push(Section::Heading(
-                "Sections, measured across their own leads before linking".into(),
-            ));
-            let mut t = Table::new(&[
-                ("phase", Align::Left),
-                ("section", Align::Right),
-                ("measure across", Align::Left),
-                ("reads at 20 C", Align::Right),
-                ("section ohm 20 C", Align::Right),
-                ("reads at", Align::Right),
-            ]);
-            for f in &self.sections {
-                t.push(vec![
-                    f.phase.clone(),
-                    f.section.to_string(),
-                    f.between.clone(),
-                    ohms(f.reading_20c_ohm),
-                    ohms(f.resistance_20c_ohm),
-                    format!("{} at {} C", ohms(f.reading_ohm), num(f.temperature_c, 0)),
-                ]);
-            }
-            s.push(Section::Table(t));
-        }
+        s.extend(section_readings(self));
 
-        s.push(Section::Heading("Acceptance".into()));
-        let a = &self.acceptance;
-        let mut lines = Vec::new();
-        if let Some(r) = &a.line_resistance {
-            lines.push(format!(
-                "line-to-line resistance at {} C: {} ohm on each pair, largest deviation \
-                 from the mean of the three within +/-{}% (EASA AR100)",
-                num(r.temperature_c, 1),
-                ohms(r.line_ohm),
-                num(a.balance_tolerance_percent, 1)
-            ));
-        }
-        match (a.hipot_new_v, a.hipot_repeat_v) {
-            (Some(n), Some(r)) => lines.push(format!(
-                "high-potential test, windings to frame, 1 min: {} V for a new winding, {} V \
-                 for a repeat test (IEC 60034-1: 1000 V + 2 x {} V rated, at least 1500 V)",
-                num(n, 0),
-                num(r, 0),
-                a.hipot_rated_v.map_or("-".into(), |v| num(v, 0))
-            )),
-            _ => lines.push(
-                "high-potential test: give [supply] line_voltage_v for the test voltage".into(),
-            ),
-        }
-        lines.push(format!(
-            "insulation resistance at 40 C at least {} megohm, polarization index at least {} \
-             (IEEE 43)",
-            num(a.insulation_resistance_min_mohm, 0),
-            num(a.polarization_index_min, 1)
-        ));
-        lines.push(a.note.to_string());
-        s.push(Section::Lines(
-            lines.iter().flat_map(|x| paragraph(x)).collect(),
-        ));
-
-        if let Some(m) = &self.measured {
-            s.push(Section::Heading(format!(
-                "Readings at {} C against this card: {}",
-                num(m.temperature_c, 1),
-                if m.sound {
-                    "within tolerance"
-                } else {
-                    "OUT OF TOLERANCE"
-                }
-            )));
-            let mut t = Table::new(&[
-                ("phase", Align::Left),
-                ("section", Align::Right),
-                ("across", Align::Left),
-                ("ohm at 20 C", Align::Right),
-                ("card ohm", Align::Right),
-                ("against median %", Align::Right),
-            ]);
-            for j in &m.judged {
-                t.push(vec![
-                    j.phase.clone(),
-                    j.section.to_string(),
-                    j.between.clone(),
-                    ohms(j.measured_20c_ohm),
-                    j.expected_20c_ohm.map_or("-".into(), ohms),
-                    format!("{:+.2}", j.deviation_percent),
-                ]);
-            }
-            s.push(Section::Table(t));
-            s.push(Section::Lines(paragraph(&m.suggestion.message())));
-        }
+        s.extend(acceptance_sections(self));
         if !self.warnings.is_empty() {
             s.push(Section::Heading("Warnings".into()));
             s.push(Section::Lines(
@@ -558,3 +274,320 @@ impl fmt::Display for Say<'_, crate::card::MeanTurnRule> {
 }
 
 worded!(crate::card::MeanTurnRule);
+
+/// The card's winding: coils and groups, spans, turns and the wire.
+fn winding_sections(card: &DataCard) -> Vec<Section> {
+    let mut s = Vec::new();
+    let list = |v: &[usize]| {
+        v.iter()
+            .map(|x| x.to_string())
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    let mut lines = vec![
+        format!(
+            "{} in {} of {} {}",
+            crate::numbering::count(card.coils, "coil", "coils"),
+            crate::numbering::count(card.groups, "group", "groups"),
+            list(&card.coils_per_group),
+            crate::numbering::noun_for(&card.coils_per_group, "coil", "coils")
+        ),
+        format!(
+            "span {} (slot to slot); {} per coil{}; {} series turns per phase",
+            card.spans.join(", "),
+            card.turns_per_coil
+                .iter()
+                .map(|t| t.to_string())
+                .collect::<Vec<_>>()
+                .join(", ")
+                + if card.turns_per_coil == [1] {
+                    " turn"
+                } else {
+                    " turns"
+                },
+            if card.turns_per_coil.len() > 1 {
+                " (mixed)"
+            } else {
+                ""
+            },
+            num(card.series_turns_per_phase, 2)
+        ),
+    ];
+    match &card.wire {
+        Some(w) => lines.push(format!(
+            "wire: {} x {} mm bare {}{} ({} mm2 per strand, {} mm2 per conductor), \
+             {} mm over enamel, {}",
+            w.strands_in_hand,
+            num(w.diameter_mm, 4),
+            w.material,
+            w.awg.map(|n| format!(" (AWG {n})")).unwrap_or_default(),
+            num(w.area_mm2, 4),
+            num(w.conductor_area_mm2, 4),
+            num(w.insulated_diameter_mm, 3),
+            w.insulation
+        )),
+        None => lines.push("wire: not given".into()),
+    }
+    s.push(Section::Lines(
+        lines.into_iter().flat_map(|l| paragraph(&l)).collect(),
+    ));
+    s
+}
+
+/// Copper: mean turn, resistances, masses, wire to order, current density and fill; the formers.
+fn copper_sections(card: &DataCard) -> Vec<Section> {
+    let mut s = Vec::new();
+    s.push(Section::Heading("Copper".into()));
+    let mut t = Table::new(&[("figure", Align::Left), ("value", Align::Right)]);
+    t.push(vec!["mean turn".into(), opt(card.mean_turn_mm, 1, "mm")]);
+    t.push(vec![
+        "phase resistance at 20 C".into(),
+        card.phase_resistance_20c_ohm
+            .map_or("-".into(), |r| format!("{} ohm", ohms(r))),
+    ]);
+    t.push(vec![
+        "line-to-line resistance at 20 C".into(),
+        card.line_resistance_20c_ohm
+            .map_or("-".into(), |r| format!("{} ohm", ohms(r))),
+    ]);
+    t.push(vec![
+        "conductor mass, whole winding".into(),
+        opt(card.copper_mass_kg, 3, "kg"),
+    ]);
+    t.push(vec![
+        "conductor mass per phase".into(),
+        opt(card.copper_mass_per_phase_kg, 3, "kg"),
+    ]);
+    t.push(vec![
+        "conductor mass per coil".into(),
+        opt(card.copper_mass_per_coil_kg, 4, "kg"),
+    ]);
+    t.push(vec![
+        format!(
+            "wire to order (+{}% for ends, leads, waste)",
+            num(card.wire_allowance_percent, 0)
+        ),
+        opt(card.wire_to_order_kg, 2, "kg"),
+    ]);
+    t.push(vec![
+        "rated line current (nameplate)".into(),
+        opt(card.rated_current_a, 2, "A"),
+    ]);
+    t.push(vec![
+        format!(
+            "current density at rated current (limit {})",
+            num(card.current_density_limit_a_mm2, 1)
+        ),
+        opt(card.current_density_a_mm2, 2, "A/mm2"),
+    ]);
+    t.push(vec![
+        "wires in the fullest slot".into(),
+        card.wires_per_slot.to_string(),
+    ]);
+    t.push(vec![
+        "slot fill (insulated wire)".into(),
+        card.slot_fill.map_or("- (no slot area)".into(), |f| {
+            format!("{}%", num(f * 100.0, 1))
+        }),
+    ]);
+    t.push(vec![
+        "copper fill (bare)".into(),
+        card.copper_fill
+            .map_or("-".into(), |f| format!("{}%", num(f * 100.0, 1))),
+    ]);
+    s.push(Section::Table(t));
+    s.push(Section::Lines(paragraph(&format!(
+        "mean turn rule: {}",
+        card.mean_turn_rule.message()
+    ))));
+    if !card.formers.is_empty() {
+        s.push(Section::Heading(
+            "Formers (by the mean-turn rule; span width between the coil sides' centres)".into(),
+        ));
+        let mut t = Table::new(&[
+            ("span", Align::Left),
+            ("coils", Align::Right),
+            ("span width mm", Align::Right),
+            ("straight mm", Align::Right),
+            ("end out mm", Align::Right),
+            ("mean turn mm", Align::Right),
+        ]);
+        for f in &card.formers {
+            t.push(vec![
+                f.span.clone(),
+                f.coils.to_string(),
+                num(f.span_width_mm, 1),
+                num(f.straight_mm, 1),
+                num(f.end_extension_mm, 1),
+                num(f.mean_turn_mm, 1),
+            ]);
+        }
+        s.push(Section::Table(t));
+    }
+    s
+}
+
+/// The leads out, the joints inside and every connection the leads allow.
+fn lead_sections(l: &LeadScheme) -> Vec<Section> {
+    let mut s = Vec::new();
+    s.push(Section::Heading(format!(
+        "Leads: {} leads, {} marking",
+        l.count,
+        match l.marking {
+            crate::design::Marking::Iec => "IEC 60034-8",
+            crate::design::Marking::Nema => "NEMA MG 1",
+        }
+    )));
+    let mut lines: Vec<String> = vec![format!(
+        "leads out: {}",
+        l.terminals
+            .iter()
+            .map(|t| format!("{} ({} {} {})", t.name, t.phase, t.section, t.end))
+            .collect::<Vec<_>>()
+            .join(", ")
+    )];
+    for j in &l.internal {
+        lines.push(format!("joined inside: {}", j.join("-")));
+    }
+    s.push(Section::Lines(
+        lines.iter().flat_map(|x| paragraph(x)).collect(),
+    ));
+    let mut t = Table::new(&[
+        ("connection", Align::Left),
+        ("L1", Align::Left),
+        ("L2", Align::Left),
+        ("L3", Align::Left),
+        ("join", Align::Left),
+        ("line V", Align::Right),
+        ("R line 20C", Align::Right),
+    ]);
+    for c in &l.configurations {
+        t.push(vec![
+            format!(
+                "{}{}",
+                configuration_name(c),
+                if c.as_planned { " *" } else { "" }
+            ),
+            c.lines[0].join("+"),
+            c.lines[1].join("+"),
+            c.lines[2].join("+"),
+            if c.joined.is_empty() {
+                "-".into()
+            } else {
+                c.joined
+                    .iter()
+                    .map(|j| j.join("-"))
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            },
+            c.line_voltage_v.map_or("-".into(), |v| num(v, 0)),
+            c.line_resistance_20c_ohm.map_or("-".into(), ohms),
+        ]);
+    }
+    s.push(Section::Table(t));
+    let mut lines = vec!["* as planned".to_string()];
+    lines.extend(paragraph(&l.rotation.message()));
+    s.push(Section::Lines(lines));
+    s
+}
+
+/// Each section as measured across its own leads before linking.
+fn section_readings(card: &DataCard) -> Vec<Section> {
+    let mut s = Vec::new();
+    if !card.sections.is_empty() {
+        s.push(Section::Heading(
+            "Sections, measured across their own leads before linking".into(),
+        ));
+        let mut t = Table::new(&[
+            ("phase", Align::Left),
+            ("section", Align::Right),
+            ("measure across", Align::Left),
+            ("reads at 20 C", Align::Right),
+            ("section ohm 20 C", Align::Right),
+            ("reads at", Align::Right),
+        ]);
+        for f in &card.sections {
+            t.push(vec![
+                f.phase.clone(),
+                f.section.to_string(),
+                f.between.clone(),
+                ohms(f.reading_20c_ohm),
+                ohms(f.resistance_20c_ohm),
+                format!("{} at {} C", ohms(f.reading_ohm), num(f.temperature_c, 0)),
+            ]);
+        }
+        s.push(Section::Table(t));
+    }
+    s
+}
+
+/// Acceptance: resistance balance, high-potential test, insulation; the readings against the card.
+fn acceptance_sections(card: &DataCard) -> Vec<Section> {
+    let mut s = Vec::new();
+    s.push(Section::Heading("Acceptance".into()));
+    let a = &card.acceptance;
+    let mut lines = Vec::new();
+    if let Some(r) = &a.line_resistance {
+        lines.push(format!(
+            "line-to-line resistance at {} C: {} ohm on each pair, largest deviation \
+             from the mean of the three within +/-{}% (EASA AR100)",
+            num(r.temperature_c, 1),
+            ohms(r.line_ohm),
+            num(a.balance_tolerance_percent, 1)
+        ));
+    }
+    match (a.hipot_new_v, a.hipot_repeat_v) {
+        (Some(n), Some(r)) => lines.push(format!(
+            "high-potential test, windings to frame, 1 min: {} V for a new winding, {} V \
+             for a repeat test (IEC 60034-1: 1000 V + 2 x {} V rated, at least 1500 V)",
+            num(n, 0),
+            num(r, 0),
+            a.hipot_rated_v.map_or("-".into(), |v| num(v, 0))
+        )),
+        _ => lines
+            .push("high-potential test: give [supply] line_voltage_v for the test voltage".into()),
+    }
+    lines.push(format!(
+        "insulation resistance at 40 C at least {} megohm, polarization index at least {} \
+         (IEEE 43)",
+        num(a.insulation_resistance_min_mohm, 0),
+        num(a.polarization_index_min, 1)
+    ));
+    lines.push(a.note.to_string());
+    s.push(Section::Lines(
+        lines.iter().flat_map(|x| paragraph(x)).collect(),
+    ));
+
+    if let Some(m) = &card.measured {
+        s.push(Section::Heading(format!(
+            "Readings at {} C against this card: {}",
+            num(m.temperature_c, 1),
+            if m.sound {
+                "within tolerance"
+            } else {
+                "OUT OF TOLERANCE"
+            }
+        )));
+        let mut t = Table::new(&[
+            ("phase", Align::Left),
+            ("section", Align::Right),
+            ("across", Align::Left),
+            ("ohm at 20 C", Align::Right),
+            ("card ohm", Align::Right),
+            ("against median %", Align::Right),
+        ]);
+        for j in &m.judged {
+            t.push(vec![
+                j.phase.clone(),
+                j.section.to_string(),
+                j.between.clone(),
+                ohms(j.measured_20c_ohm),
+                j.expected_20c_ohm.map_or("-".into(), ohms),
+                format!("{:+.2}", j.deviation_percent),
+            ]);
+        }
+        s.push(Section::Table(t));
+        s.push(Section::Lines(paragraph(&m.suggestion.message())));
+    }
+    s
+}
