@@ -8,7 +8,10 @@
 //! travelling waves of mechanical order k with amplitudes |S±(k)|/k, S±(k) = Σ_j C_j·e^(∓j2πkj/n)
 //! (the Fourier series of a staircase, e.g. Pyrhönen et al. 2014, ch. 2, from memory), and
 //! σ_d = Σ_(waves ≠ working) A² / A_w² (the definition of differential leakage, same source,
-//! ch. 4). The series is summed to 2·10⁶ orders and its tail added as mean·1/K (Σ_(k>K) 1/k² ≈ 1/K).
+//! ch. 4). What is independent is the method (a series over the fold's orders, from the coil
+//! list, against the library's Parseval sum); the fold of a flat primary onto 2τ is the
+//! model's own convention, taken over here, so the test checks the arithmetic and the
+//! agreement between commands, not the convention. The series is summed to 2·10⁶ orders and its tail added as mean·1/K (Σ_(k>K) 1/k² ≈ 1/K).
 
 use beltwright::field::{FieldOptions, field};
 use beltwright::layout::parse;

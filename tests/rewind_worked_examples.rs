@@ -206,7 +206,10 @@ fn rewind_refuses_an_old_design_without_its_supply() {
     let new = build(&design(36, 4, 7, Connection::Star, 50.0));
     let e = rewind(&old, &new, None, 1, None).expect_err("no old supply");
     assert!(
-        matches!(e, RewindError::OldSupplyMissing("line_voltage_v")),
+        matches!(
+            e,
+            RewindError::OldSupplyMissing(beltwright::thrust::Input::LineVoltage)
+        ),
         "{e}"
     );
 }

@@ -2,11 +2,11 @@
 
 mod common;
 
+use beltwright::layout;
 use beltwright::thrust::{
     self, MU0, ThrustQuery, carter_coefficient, carter_gamma, duncan_f, edge_factor,
 };
 use beltwright::winding::{self, Winding};
-use beltwright::{factors, layout};
 use std::f64::consts::PI;
 
 fn wind(src: &str) -> Winding {
@@ -24,6 +24,18 @@ fn shuttle(extra_core: &str) -> Winding {
          [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
          [secondary]\nmaterial = \"aluminium\"\nthickness_mm = 4.0\nwidth_mm = 120.0\n"
     ))
+}
+
+/// N·k_w1 of the shuttle primary, by hand: 24 coils of 40 turns in three phases, one path,
+/// N = 8 × 40 = 320 series turns; q = 2 at a slot angle α = π/6 and span 5 of τ = 6:
+/// k_d = sin(qα/2)/(q·sin(α/2)), k_p = sin((5/6)·π/2) (M. G. Say, *Alternating Current
+/// Machines*, 5th ed. 1983, §4.4, from memory), so k_w1 = 0.933013.
+fn shuttle_effective_turns() -> f64 {
+    let alpha = PI / 6.0;
+    let kd = (2.0 * alpha / 2.0).sin() / (2.0 * (alpha / 2.0).sin());
+    let kp = (5.0 / 6.0 * PI / 2.0).sin();
+    assert!((kd * kp - 0.933013).abs() < 5e-7);
+    320.0 * kd * kp
 }
 
 fn query(current: Option<f64>, end: bool) -> ThrustQuery {
@@ -52,7 +64,7 @@ fn current_fed_thrust_peaks_at_one_over_g() {
     let x: f64 = b0 / (2.0 * gap);
     let gamma = 4.0 / PI * (x * x.atan() - (1.0 + x * x).sqrt().ln());
     let ge = ts / (ts - gamma * gap) * gap;
-    let nkw = w.series_turns(0) * factors::fundamental(&w).winding;
+    let nkw = shuttle_effective_turns();
     let lm = 6.0 * MU0 * tau * 0.080 * nkw * nkw / (PI * PI * 2.0 * ge);
     let xm = 2.0 * PI * 50.0 * lm;
     let sigma = 1.0 / 0.028264e-6 * russell_norsworthy(0.040, 0.060, tau);
@@ -91,7 +103,7 @@ fn magnetising_inductance_follows_the_closed_form() {
     let w = shuttle("");
     let r = thrust::thrust(&w, &query(Some(1.0), false)).expect("model");
     let tau = 0.012 * 6.0;
-    let nkw = w.series_turns(0) * factors::fundamental(&w).winding;
+    let nkw = shuttle_effective_turns();
     let ge = 0.007;
     let want = 6.0 * MU0 * tau * 0.080 * nkw * nkw / (PI * PI * 2.0 * ge);
     assert!((r.magnetizing_inductance_h - want).abs() < 1e-12 * want);

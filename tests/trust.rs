@@ -269,6 +269,21 @@ fn plan_survey_and_audit_agree_on_what_exists() {
         topology: beltwright::winding::Topology::Rotary,
     };
     let report = survey::survey(&query, &|| {});
+    // Every combination the query names is a row, in slot, pole, layer order (counted here
+    // from the ranges, not from the report).
+    let asked: Vec<(usize, usize, usize)> = (6..=72usize)
+        .flat_map(|z| (2..=24usize).step_by(2).map(move |p2| (z, p2)))
+        .flat_map(|(z, p2)| [1usize, 2].map(|l| (z, p2, l)))
+        .collect();
+    let rows: Vec<(usize, usize, usize)> = report
+        .rows
+        .iter()
+        .map(|r| (r.slots, r.poles, r.layers))
+        .collect();
+    assert_eq!(
+        rows, asked,
+        "the survey reports every combination asked for"
+    );
     let mut expected = 0usize;
     let mut checked = 0;
     for row in &report.rows {
@@ -329,8 +344,8 @@ fn plan_survey_and_audit_agree_on_what_exists() {
         }
     }
     // Every combination the feasibility rule (Z/(m·gcd(Z, p)) whole, worked out above from
-    // the counts alone) calls windable was checked row by row, and there were some: a survey
-    // that silently stopped reporting rows fails here.
+    // the counts alone) calls windable was built and checked row by row, and there were some;
+    // a survey that silently drops rows fails the row list above.
     assert!(expected > 0);
     assert_eq!(checked, expected);
 }

@@ -61,4 +61,6 @@ pub enum Assumption {
         /// Poles after.
         to: usize,
     },
+    /// No differential leakage could be worked out (no working wave): X1 leaves it out.
+    NoDifferentialLeakage,
 }

@@ -55,9 +55,9 @@ pub enum RewindError {
         /// The most a coil may have.
         max: u32,
     },
-    /// The old design gives no supply: the `[supply]` key missing.
-    #[error("the old design gives no supply {0}")]
-    OldSupplyMissing(&'static str),
+    /// The old design gives no supply: which figure is missing.
+    #[error("the old design gives no supply figure ({0:?})")]
+    OldSupplyMissing(crate::thrust::Input),
 }
 
 /// Which of the two designs a refusal is about.
@@ -247,10 +247,14 @@ pub fn rewind(
     let mut assumptions = Vec::new();
     let (so, sn) = (old.design.supply, new.design.supply);
     if so.line_voltage_v.is_none() && sn.line_voltage_v.is_some() {
-        return Err(RewindError::OldSupplyMissing("line_voltage_v"));
+        return Err(RewindError::OldSupplyMissing(
+            crate::thrust::Input::LineVoltage,
+        ));
     }
     if so.frequency_hz.is_none() && sn.frequency_hz.is_some() {
-        return Err(RewindError::OldSupplyMissing("frequency_hz"));
+        return Err(RewindError::OldSupplyMissing(
+            crate::thrust::Input::Frequency,
+        ));
     }
     let line_old = so.line_voltage_v.or(sn.line_voltage_v);
     let line_new = sn.line_voltage_v.or(so.line_voltage_v);

@@ -343,7 +343,10 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
         assumptions.push(Assumption::NoSlotSize);
     }
     let (l_slot, l_end) = leakage_h(w).unwrap_or((0.0, 0.0));
-    let sigma = crate::field::differential_leakage(w).unwrap_or(0.0);
+    let sigma = crate::field::differential_leakage(w).unwrap_or_else(|| {
+        assumptions.push(Assumption::NoDifferentialLeakage);
+        0.0
+    });
     let x_slot = omega * l_slot;
     let x_end = omega * l_end;
     let x_diff = sigma * xm;

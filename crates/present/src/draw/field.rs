@@ -12,9 +12,6 @@ use super::title::TitleBlock;
 use crate::field::{Direction, FieldReport, Snapshot};
 use crate::numbering::num;
 
-/// Instants whose crests are marked (the first is the one drawn).
-const SNAPSHOTS: usize = 6;
-
 /// Draw the field sheet for balanced positive-sequence currents (the study's field).
 pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     let plot = s
@@ -160,8 +157,9 @@ fn sheet(rep: &FieldReport, snaps: &[Snapshot], a: Rect) -> Group {
         .map(|v| format!("field speed {} m/s; ", num(v, 3)))
         .unwrap_or_default();
     let notes = format!(
-        "Crest markers 1\u{2013}{SNAPSHOTS}: the working wave's crest at \u{3c9}t = 0, 60, \
+        "Crest markers 1\u{2013}{}: the working wave's crest at \u{3c9}t = 0, 60, \
          120 ... degrees. {speed}differential leakage \u{3c3}_d = {}, THD = {}%, k_w1 = {}.{}",
+        snaps.len(),
         num(rep.differential_leakage, 5),
         num(rep.thd * 100.0, 2),
         num(rep.winding_factor, 4),

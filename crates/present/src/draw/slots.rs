@@ -16,7 +16,6 @@ use super::page::{Canvas, Page, Rect};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
-use crate::linear::{self, Operating};
 use crate::output::num;
 use crate::winding::{Elec, Topology, Winding, coil_groups};
 
@@ -191,7 +190,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
             let mut block = TitleBlock::of(s, "Slot layout");
             block.page = (k + 1, pages);
             let mut canvas = Canvas::new(page, &block);
-            canvas.add(header(w, &pal, area));
+            canvas.add(header(w, &s.plan().figures, &pal, area));
             let first = k * per_page;
             let body = Group::new()
                 .set("class", "core")
@@ -213,7 +212,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
 
 /// Legend, travelling-field arrow, counts and leads across the top of the sheet; a banner
 /// when the winding is not sound.
-fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
+fn header(w: &Winding, figures: &crate::linear::Figures, pal: &Palette, area: Rect) -> Group {
     let mut g = Group::new().set("class", "legend");
     let mut x = area.x;
     let y = area.y + 3.0;
@@ -253,7 +252,6 @@ fn header(w: &Winding, pal: &Palette, area: Rect) -> Group {
         Topology::Linear => "Travelling field",
         Topology::Rotary => "Rotating field",
     };
-    let figures = linear::figures(w, Operating::default());
     let speed = match (w.geometry.topology, figures.synchronous_speed_m_s) {
         (Topology::Linear, Some(v)) => format!(
             "v_s = 2\u{b7}f\u{b7}\u{3c4} = {} m/s (f = {} Hz, \u{3c4} = {} mm)",

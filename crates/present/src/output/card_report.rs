@@ -553,7 +553,7 @@ fn acceptance_sections(card: &DataCard) -> Vec<Section> {
         num(a.insulation_resistance_min_mohm, 0),
         num(a.polarization_index_min, 1)
     ));
-    lines.push(a.note.to_string());
+    lines.push(crate::safety::ACCEPTANCE_NOTE.to_string());
     s.push(Section::Lines(
         lines.iter().flat_map(|x| paragraph(x)).collect(),
     ));

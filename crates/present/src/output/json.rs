@@ -157,8 +157,10 @@ pub struct PitchJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a PitchReport,
-    /// Why the recommended span.
-    reason: Worded<'a, Recommendation>,
+    /// Why the recommended span, in words (a sentence, as before schema version 3).
+    reason: String,
+    /// The same as a typed fact: its kind and numbers, with its `message`.
+    reason_detail: Worded<'a, Recommendation>,
     /// Designs a winder should not build (contract: a `warnings` array).
     warnings: Vec<Worded<'a, DesignWarning>>,
 }
@@ -169,7 +171,8 @@ impl<'a> PitchJson<'a> {
         PitchJson {
             opening: Opening::default(),
             report,
-            reason: Worded::of(&report.reason),
+            reason: report.reason.message(),
+            reason_detail: Worded::of(&report.reason),
             warnings: Worded::all(&report.warnings),
         }
     }
@@ -209,8 +212,7 @@ pub struct SurveyRows<'a>(&'a [SurveyRow]);
 pub struct SurveyRowJson<'a> {
     #[serde(flatten)]
     row: &'a SurveyRow,
-    /// Why not, when infeasible (contract: a sentence).
-    #[serde(skip_serializing_if = "Option::is_none")]
+    /// Why not, when infeasible (contract: a sentence; null for a feasible row, as before).
     reason: Option<String>,
 }
 
@@ -240,8 +242,11 @@ pub struct AuditJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a AuditReport,
-    /// Direction of travel of the field with the supply in order on the phase starts.
-    travel: Worded<'a, Travel>,
+    /// Direction of travel of the field with the supply in order on the phase starts, in
+    /// words.
+    travel: String,
+    /// The same as a typed fact, with its `message`.
+    travel_detail: Worded<'a, Travel>,
     /// What is wrong (contract: `kind`, `coils`, `message`).
     findings: Vec<Worded<'a, Finding>>,
 }
@@ -252,7 +257,8 @@ impl<'a> AuditJson<'a> {
         AuditJson {
             opening: Opening::default(),
             report,
-            travel: Worded::of(&report.travel),
+            travel: report.travel.message(),
+            travel_detail: Worded::of(&report.travel),
             findings: Worded::all(&report.findings),
         }
     }
@@ -265,8 +271,10 @@ pub struct RewindJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a RewindReport,
-    /// What the rewind assumed.
-    assumptions: Vec<Worded<'a, Assumption>>,
+    /// What the rewind assumed, in words.
+    assumptions: Vec<String>,
+    /// The same as typed facts, each with its `message`.
+    assumption_details: Vec<Worded<'a, Assumption>>,
     /// Designs a winder should not build (contract: a `warnings` array).
     warnings: Vec<Worded<'a, DesignWarning>>,
 }
@@ -277,7 +285,8 @@ impl<'a> RewindJson<'a> {
         RewindJson {
             opening: Opening::default(),
             report,
-            assumptions: Worded::all(&report.assumptions),
+            assumptions: report.assumptions.iter().map(Words::message).collect(),
+            assumption_details: Worded::all(&report.assumptions),
             warnings: Worded::all(&report.warnings),
         }
     }
@@ -290,12 +299,25 @@ pub struct CardJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a DataCard,
-    /// How the mean turn was found.
-    mean_turn_rule: Worded<'a, crate::card::MeanTurnRule>,
+    /// How the mean turn was found, in words.
+    mean_turn_rule: String,
+    /// The same as a typed fact, with its `message`.
+    mean_turn_rule_detail: Worded<'a, crate::card::MeanTurnRule>,
     /// The lead scheme and its connection tables.
     leads: Option<LeadsJson<'a>>,
     /// What the shop should look at before winding.
     warnings: Vec<Worded<'a, crate::card::CardWarning>>,
+    /// The figures a finished winding is checked against.
+    acceptance: AcceptanceJson<'a>,
+}
+
+/// The card's acceptance figures, with whose procedures govern.
+#[derive(Serialize, JsonSchema)]
+pub struct AcceptanceJson<'a> {
+    #[serde(flatten)]
+    figures: &'a crate::card::Acceptance,
+    /// Whose procedures govern.
+    note: &'static str,
 }
 
 /// The card's lead scheme, with the direction of rotation in words.
@@ -303,8 +325,10 @@ pub struct CardJson<'a> {
 pub struct LeadsJson<'a> {
     #[serde(flatten)]
     scheme: &'a LeadScheme,
-    /// Which way the field moves with L1-L2-L3 on the first three leads.
-    rotation: Worded<'a, Rotation>,
+    /// Which way the field moves with L1-L2-L3 on the first three leads, in words.
+    rotation: String,
+    /// The same as a typed fact, with its `message`.
+    rotation_detail: Worded<'a, Rotation>,
 }
 
 impl<'a> CardJson<'a> {
@@ -313,12 +337,18 @@ impl<'a> CardJson<'a> {
         CardJson {
             opening: Opening::default(),
             report,
-            mean_turn_rule: Worded::of(&report.mean_turn_rule),
+            mean_turn_rule: report.mean_turn_rule.message(),
+            mean_turn_rule_detail: Worded::of(&report.mean_turn_rule),
             leads: report.leads.as_ref().map(|scheme| LeadsJson {
                 scheme,
-                rotation: Worded::of(&scheme.rotation),
+                rotation: scheme.rotation.message(),
+                rotation_detail: Worded::of(&scheme.rotation),
             }),
             warnings: Worded::all(&report.warnings),
+            acceptance: AcceptanceJson {
+                figures: &report.acceptance,
+                note: crate::safety::ACCEPTANCE_NOTE,
+            },
         }
     }
 }
@@ -330,8 +360,10 @@ pub struct ThrustJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a ThrustReport,
-    /// What the model assumed.
-    assumptions: Vec<Worded<'a, Assumption>>,
+    /// What the model assumed, in words.
+    assumptions: Vec<String>,
+    /// The same as typed facts, each with its `message`.
+    assumption_details: Vec<Worded<'a, Assumption>>,
 }
 
 impl<'a> ThrustJson<'a> {
@@ -340,7 +372,8 @@ impl<'a> ThrustJson<'a> {
         ThrustJson {
             opening: Opening::default(),
             report,
-            assumptions: Worded::all(&report.assumptions),
+            assumptions: report.assumptions.iter().map(Words::message).collect(),
+            assumption_details: Worded::all(&report.assumptions),
         }
     }
 }
@@ -352,8 +385,10 @@ pub struct InductanceJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a InductanceReport,
-    /// What the model assumed.
-    assumptions: Vec<Worded<'a, Assumption>>,
+    /// What the model assumed, in words.
+    assumptions: Vec<String>,
+    /// The same as typed facts, each with its `message`.
+    assumption_details: Vec<Worded<'a, Assumption>>,
 }
 
 impl<'a> InductanceJson<'a> {
@@ -362,7 +397,8 @@ impl<'a> InductanceJson<'a> {
         InductanceJson {
             opening: Opening::default(),
             report,
-            assumptions: Worded::all(&report.assumptions),
+            assumptions: report.assumptions.iter().map(Words::message).collect(),
+            assumption_details: Worded::all(&report.assumptions),
         }
     }
 }

@@ -187,10 +187,14 @@ impl fmt::Display for Say<'_, RewindError> {
                  have; check the voltages, frequencies and connections of the two designs",
                 short(*turns)
             ),
-            RewindError::OldSupplyMissing(key) => write!(
+            RewindError::OldSupplyMissing(input) => write!(
                 f,
-                "the old design gives no [supply] {key}; give the supply the old winding was \
-                 built for (from its nameplate), so the turns are not worked out from a guess"
+                "the old design gives no [supply] {}; give the supply the old winding was \
+                 built for (from its nameplate), so the turns are not worked out from a guess",
+                match input {
+                    crate::thrust::Input::Frequency => "frequency_hz",
+                    _ => "line_voltage_v",
+                }
             ),
         }
     }

@@ -263,6 +263,10 @@ impl fmt::Display for Say<'_, Assumption> {
                 "pole count changes from {from} to {to}: the peak air-gap flux density is kept, \
                  so the flux per pole scales with the pole pitch"
             ),
+            Assumption::NoDifferentialLeakage => f.write_str(
+                "no differential leakage could be worked out (no working wave): the primary \
+                 leakage reactance leaves it out",
+            ),
         }
     }
 }

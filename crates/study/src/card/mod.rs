@@ -156,8 +156,6 @@ pub struct Acceptance {
     pub insulation_resistance_min_mohm: f64,
     /// Minimum polarization index for class B, F and H insulation (IEEE 43-2013, Table 4).
     pub polarization_index_min: f64,
-    /// Whose procedures govern.
-    pub note: &'static str,
 }
 
 /// The data card.
@@ -254,6 +252,9 @@ pub struct DataCard {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub measured: Option<measured::ResistanceCheck>,
     /// Acceptance figures.
+    /// (The presenters write this field into the JSON, with the note on whose procedures
+    /// govern.)
+    #[serde(skip)]
     pub acceptance: Acceptance,
     /// Things to look at.
     /// (The presenters write this field into the JSON, each fact with its `message`.)
@@ -636,8 +637,6 @@ pub fn card(w: &Winding) -> DataCard {
             hipot_rated_v: rated,
             insulation_resistance_min_mohm: 5.0,
             polarization_index_min: 2.0,
-            note: "acceptance figures to compare against; the shop's own procedures, the \
-                   machine maker's data and local codes govern",
         },
         warnings,
     }
