@@ -44,18 +44,6 @@ pub struct Figures {
     pub total_length_m: Option<f64>,
 }
 
-/// What a slip outside 0..1 means, for labels: " (generating)" below 0, " (plugging:
-/// braking against the field)" above 1, nothing in between.
-pub fn slip_regime(s: f64) -> &'static str {
-    if s < 0.0 {
-        " (generating)"
-    } else if s > 1.0 {
-        " (plugging: braking against the field)"
-    } else {
-        ""
-    }
-}
-
 /// Compute every figure the winding's sizes and supply and the operating point allow.
 pub fn figures(w: &Winding, op: Operating) -> Figures {
     let g = &w.geometry;

@@ -17,6 +17,7 @@ use super::page::{Canvas, Page, Rect, rule};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
+use crate::card::leads::LeadScheme;
 use crate::design::Marking;
 use crate::winding::schedule::{FinishTo, Lane, ScheduleRow, lanes, schedule};
 use crate::winding::{CoilGroup, Connection, Winding, coil_groups};
@@ -120,6 +121,8 @@ fn columns(w: &Winding) -> Vec<(&'static str, f64)> {
 /// Draw the connection sheet; the schedule continues on further pages when needed.
 pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
     let w = s.winding();
+    // The boards are drawn from the card's own lead scheme (three-phase windings).
+    let scheme = s.card().leads.as_ref();
     let groups = coil_groups(w);
     let entries = schedule(w, &groups);
     let cols = columns(w);
@@ -130,7 +133,15 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
     let most = (((probe.w - DIAGRAM_MIN_W) / col_w).floor() as usize).min(needed);
     // The diagram comes first: give page 1 only as many schedule columns as leave the
     // diagram near full size (none at all when even one would shrink it much).
-    let dscale = |c: usize| diagram_scale(w, &groups, probe.w - c as f64 * col_w - 4.0, probe.h);
+    let dscale = |c: usize| {
+        diagram_scale(
+            w,
+            scheme,
+            &groups,
+            probe.w - c as f64 * col_w - 4.0,
+            probe.h,
+        )
+    };
     let first_cols = (0..=most)
         .rev()
         .find(|&c| dscale(c) >= 0.85)
@@ -142,7 +153,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
     let more_cols = ((probe.w / col_w).floor() as usize).max(1);
     // On a narrow sheet the diagram takes the full width; the schedule then starts below
     // it when there is room for a useful number of rows.
-    let diagram_h = diagram_height(w, &groups, probe.w);
+    let diagram_h = diagram_height(w, scheme, &groups, probe.w);
     let below_rows = ((probe.h - diagram_h - 6.0 - SCHED_HEAD - SCHED_ROW) / SCHED_ROW).floor();
     let stacked = first_cols == 0 && diagram_h <= probe.h && below_rows >= 8.0;
     let (first_n, first_rows) = if stacked {
@@ -170,7 +181,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
         },
         h: if stacked { diagram_h } else { a.h },
     };
-    canvas.add(connection_diagram(w, &pal, &groups, diagram));
+    canvas.add(connection_diagram(w, scheme, &pal, &groups, diagram));
     let sched_box = if stacked {
         Rect {
             x: a.x,
@@ -369,19 +380,18 @@ fn lanes_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
 }
 
 /// Height of the heading and terminal boards, drawn at printed size `width` wide, mm.
-fn boards_height(w: &Winding, width: f64) -> f64 {
+fn boards_height(w: &Winding, scheme: Option<&LeadScheme>, width: f64) -> f64 {
     let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
-    board(w, &pal, width).1 + 4.0
+    board(w, scheme, &pal, width).1 + 4.0
 }
 
 /// Width the boards take set beside the lanes (their natural width, or a column for the
 /// single board of another phase count), mm.
-fn boards_width(w: &Winding) -> f64 {
-    if w.geometry.phases != 3 {
+fn boards_width(w: &Winding, scheme: Option<&LeadScheme>) -> f64 {
+    let Some(scheme) = scheme.filter(|_| w.geometry.phases == 3) else {
         return 0.0;
-    }
-    let scheme = lead_scheme(w);
-    super::board::natural_width(&scheme, w.design.connection).max(70.0)
+    };
+    super::board::natural_width(scheme, w.design.connection).max(70.0)
 }
 
 /// Where the boards go: above the lanes, or beside them on the right.
@@ -394,13 +404,24 @@ struct Arrangement {
 }
 
 /// Height of the whole diagram drawn `width` wide at full size, boards above, mm.
-fn diagram_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
-    boards_height(w, width) + lanes_height(w, groups, width)
+fn diagram_height(
+    w: &Winding,
+    scheme: Option<&LeadScheme>,
+    groups: &[CoilGroup],
+    width: f64,
+) -> f64 {
+    boards_height(w, scheme, width) + lanes_height(w, groups, width)
 }
 
 /// The better of the two arrangements in `width` × `height`: the one whose lanes keep the
 /// larger scale (boards above when both draw at full size).
-fn arrangement(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> Arrangement {
+fn arrangement(
+    w: &Winding,
+    scheme: Option<&LeadScheme>,
+    groups: &[CoilGroup],
+    width: f64,
+    height: f64,
+) -> Arrangement {
     if width < 40.0 {
         return Arrangement {
             beside: None,
@@ -416,14 +437,14 @@ fn arrangement(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> Ar
     };
     let above = Arrangement {
         beside: None,
-        scale: fit(width, height - boards_height(w, width)),
+        scale: fit(width, height - boards_height(w, scheme, width)),
     };
-    let col = boards_width(w);
+    let col = boards_width(w, scheme);
     if above.scale >= 1.0 || col <= 0.0 {
         return above;
     }
     let lanes_w = width - col - 6.0;
-    let beside_ok = boards_height(w, col) <= height;
+    let beside_ok = boards_height(w, scheme, col) <= height;
     let beside = Arrangement {
         beside: Some(col),
         scale: if beside_ok {
@@ -441,13 +462,25 @@ fn arrangement(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> Ar
 
 /// Scale at which the lanes fit beside or under the boards in `width` × `height` (1 when
 /// they fit at full size; the boards and their words are always drawn at printed size).
-fn diagram_scale(w: &Winding, groups: &[CoilGroup], width: f64, height: f64) -> f64 {
-    arrangement(w, groups, width, height).scale
+fn diagram_scale(
+    w: &Winding,
+    scheme: Option<&LeadScheme>,
+    groups: &[CoilGroup],
+    width: f64,
+    height: f64,
+) -> f64 {
+    arrangement(w, scheme, groups, width, height).scale
 }
 
 /// Terminal board, then one lane per phase and path with the groups in connection order.
-fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect) -> Group {
-    let arr = arrangement(w, groups, b.w, b.h);
+fn connection_diagram(
+    w: &Winding,
+    scheme: Option<&LeadScheme>,
+    pal: &Palette,
+    groups: &[CoilGroup],
+    b: Rect,
+) -> Group {
+    let arr = arrangement(w, scheme, groups, b.w, b.h);
     let scale = arr.scale;
     // Text keeps its printed size (2.6 mm) however much the diagram is scaled to fit.
     let ts = if scale > 0.0 {
@@ -463,7 +496,7 @@ fn connection_diagram(w: &Winding, pal: &Palette, groups: &[CoilGroup], b: Rect)
         None => (b.x, b.w, b.w),
     };
     let per_line = per_line(lanes_w);
-    let (board_g, board_h) = board(w, pal, board_w);
+    let (board_g, board_h) = board(w, scheme, pal, board_w);
     let top = Group::new()
         .set("transform", format!("translate({} {})", r(board_x), r(b.y)))
         .add(board_g);
@@ -677,19 +710,6 @@ fn group_box(
     out
 }
 
-/// The winding's lead scheme, for its boards (no resistances needed here).
-fn lead_scheme(w: &Winding) -> crate::card::leads::LeadScheme {
-    crate::card::leads::scheme(
-        w.design.leads,
-        w.design.connection,
-        w.design.supply.line_voltage_v,
-        None,
-        &w.design.phase_labels,
-        w.geometry.slots,
-        w.geometry.topology,
-    )
-}
-
 /// The legend under the boards: how a group box reads and whose lead marking is used.
 fn groups_note(w: &Winding) -> String {
     format!(
@@ -705,11 +725,10 @@ fn groups_note(w: &Winding) -> String {
 /// The terminal boards and the words above them, and the height they take (mm). A
 /// three-phase winding's boards come from its lead scheme ([`super::board`]); other phase
 /// counts get one board of their own phase ends.
-fn board(w: &Winding, pal: &Palette, width: f64) -> (Group, f64) {
-    if w.geometry.phases != 3 {
+fn board(w: &Winding, scheme: Option<&LeadScheme>, pal: &Palette, width: f64) -> (Group, f64) {
+    let Some(scheme) = scheme.filter(|_| w.geometry.phases == 3) else {
         return phase_board(w, pal, width);
-    }
-    let scheme = lead_scheme(w);
+    };
     let mut g = Group::new().set("class", "terminal-board");
     let mut y = 6.6;
     let say = |g: Group, words: &str, y: &mut f64, class: &str| -> Group {
@@ -720,7 +739,7 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> (Group, f64) {
         }
         g
     };
-    let drawn = super::board::drawn(&scheme, w.design.connection);
+    let drawn = super::board::drawn(scheme, w.design.connection);
     // The planned connection first, as the headline; the boards are drawn below.
     if let Some(c) = scheme.configurations.iter().find(|c| c.as_planned) {
         let words = format!(
@@ -745,7 +764,7 @@ fn board(w: &Winding, pal: &Palette, width: f64) -> (Group, f64) {
     }
     y += 1.0;
     let (boards, h) = super::board::boards(
-        &scheme,
+        scheme,
         w.design.connection,
         &w.design.phase_labels,
         pal,

@@ -14,6 +14,16 @@ impl Words for Finding {
     }
 }
 
+/// What the search does not try, for the finding that says where it stopped.
+fn not_searched() -> String {
+    format!(
+        "three or more edits; parts of coil runs longer than {} coils (only their polarity \
+         runs and the whole run); a coil laid in wrong slots when no slot is overfilled; turns \
+         miscounted",
+        crate::audit::search::MAX_RUN
+    )
+}
+
 fn coil(c: &CoilAt) -> String {
     format!(
         "coil {} (phase {}, in at slot {}, out at slot {})",
@@ -251,7 +261,7 @@ pub fn words(f: &Fact) -> String {
             } else {
                 ""
             },
-            crate::audit::search::NOT_SEARCHED
+            not_searched()
         ),
         Fact::MeasuredResistance {
             taken,

@@ -115,7 +115,7 @@ impl Report for FieldReport {
                         format!(
                             "; secondary at slip {}{}: {} m/s",
                             num(s, 4),
-                            crate::linear::slip_regime(s),
+                            super::reports::slip_regime(s),
                             num(u, 4)
                         )
                     })

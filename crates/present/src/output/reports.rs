@@ -14,6 +14,18 @@ pub fn paragraph(text: &str) -> Vec<String> {
 
 pub use crate::numbering::ranges;
 
+/// What a slip outside 0..1 means, for labels: " (generating)" below 0, " (plugging:
+/// braking against the field)" above 1, nothing in between.
+pub fn slip_regime(s: f64) -> &'static str {
+    if s < 0.0 {
+        " (generating)"
+    } else if s > 1.0 {
+        " (plugging: braking against the field)"
+    } else {
+        ""
+    }
+}
+
 fn opt(x: Option<f64>, digits: usize, unit: &str) -> Option<String> {
     x.map(|v| format!("{} {unit}", num(v, digits)))
 }
@@ -151,7 +163,7 @@ impl Report for PlanReport {
             opt(f.synchronous_speed_rpm, 1, "rpm").map(|v| format!("synchronous speed: {v}")),
             f.slip.and(f.speed_m_s.or(f.speed_rpm)).map(|_| {
                 let s = f.slip.unwrap_or(0.0);
-                format!("at slip {}{}:", num(s, 4), crate::linear::slip_regime(s))
+                format!("at slip {}{}:", num(s, 4), slip_regime(s))
             }),
             opt(f.speed_m_s, 3, "m/s").map(|v| format!("  secondary speed: {v}")),
             opt(f.speed_rpm, 1, "rpm").map(|v| format!("  rotor speed: {v}")),

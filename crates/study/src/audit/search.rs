@@ -19,7 +19,7 @@ use crate::winding::{Elec, Topology, Winding};
 pub use crate::winding::star::BALANCE_TOL;
 
 /// Longest run of same-phase coils whose every contiguous part is tried as a group.
-const MAX_RUN: usize = 24;
+pub const MAX_RUN: usize = 24;
 
 /// Most candidate pairs checked in full: far above any real record (a 360-slot record needs
 /// a few thousand), a bound on the time a pathological record can take.
@@ -35,11 +35,6 @@ const MAX_SWAPS: usize = 400_000;
 
 /// Most slots with room left that a coil from an overfilled slot is tried in.
 const MAX_SHORT_SLOTS: usize = 16;
-
-/// What the search does not try, for the finding that says where it stopped.
-pub const NOT_SEARCHED: &str = "three or more edits; parts of coil runs longer than 24 coils \
-     (only their polarity runs and the whole run); a coil laid in wrong slots when no slot is \
-     overfilled; turns miscounted";
 
 /// One change to a coil list. Coil and phase indices are 0-based.
 #[derive(Debug, Clone, PartialEq, Eq)]
