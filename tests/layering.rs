@@ -27,7 +27,14 @@ fn set(names: &[&str]) -> BTreeSet<String> {
 #[test]
 fn each_crate_depends_only_on_what_its_layer_may_use() {
     // The model: numbers, complex arithmetic, the FFT, serialisation of its facts, errors.
-    let model = set(&["num-complex", "rustfft", "schemars", "serde", "thiserror"]);
+    let model = set(&[
+        "num-complex",
+        "num-integer",
+        "rustfft",
+        "schemars",
+        "serde",
+        "thiserror",
+    ]);
     // The analyses: the model, and the same, with rayon for sweeps.
     let mut study = model.clone();
     study.extend(set(&["beltwright-model", "rayon"]));

@@ -522,7 +522,12 @@ impl Winding {
     }
 }
 
-/// Greatest common divisor.
+/// Greatest common divisor (the `num-integer` crate's; gcd(a, 0) = a).
 pub fn gcd(a: u64, b: u64) -> u64 {
-    if b == 0 { a } else { gcd(b, a % b) }
+    num_integer::gcd(a, b)
+}
+
+/// Least common multiple (the `num-integer` crate's).
+pub fn lcm(a: usize, b: usize) -> usize {
+    num_integer::lcm(a, b)
 }

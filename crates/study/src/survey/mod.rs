@@ -18,7 +18,7 @@ mod spans;
 
 use crate::winding::star::{order_amplitude, roots_of_unity};
 use crate::winding::{
-    Elec, Topology, double_layer_rotary_feasible, gcd, possible_path_counts, rotary_periodicity,
+    Elec, Topology, double_layer_rotary_feasible, lcm, possible_path_counts, rotary_periodicity,
     synthesize_brief,
 };
 use spans::SpanScore;
@@ -200,10 +200,6 @@ pub fn filter_and_sort(
             .rows
             .sort_by_key(|r| std::cmp::Reverse(r.lcm.unwrap_or(0))),
     }
-}
-
-fn lcm(a: usize, b: usize) -> usize {
-    a / gcd(a as u64, b as u64) as usize * b
 }
 
 fn divisors(n: usize) -> Vec<usize> {
