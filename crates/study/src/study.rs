@@ -94,10 +94,11 @@ impl<'w> Study<'w> {
             .as_ref()
     }
 
-    /// True when the winding may be wound and connected from its sheets: balanced, and,
-    /// for a recorded coil list, without audit findings.
+    /// Whether the winding may be wound and connected from its sheets: balanced (the
+    /// model's own test, no report needed), and, for a recorded coil list, without audit
+    /// findings.
     pub fn sound(&self) -> Soundness {
-        if !self.plan().balanced {
+        if !self.winding.is_balanced() {
             Soundness::Unbalanced
         } else if self.audit().is_some_and(|a| !a.sound) {
             Soundness::Findings

@@ -12,7 +12,7 @@ pub const OKABE_ITO: [&str; 8] = [
 ];
 
 /// Dash patterns (mm) per phase; the first phase is drawn solid.
-const DASHES: [&str; 8] = [
+pub const DASHES: [&str; 8] = [
     "none",
     "1.8 0.9",
     "0.45 0.65",

@@ -1,22 +1,21 @@
 //! The span comparison as a sheet on the shared page (`pitch --svg`): k_w1 and the
 //! harmonics weighed against the coil span, the k_w1 floor and the recommended span, with
 //! the recommendation in words below. Lines are told apart by dash pattern as well as
-//! colour (Okabe–Ito, M. Okabe, K. Ito, "Color Universal Design", 2008), so the sheet reads
-//! in black and white.
+//! colour (the shared palette's Okabe–Ito colours and dashes), so the sheet reads in black
+//! and white.
 
 use svg::node::element::Group;
 
 use super::chart::{Series, chart};
 use super::page::{Page, Rect};
+use super::palette::{DASHES, OKABE_ITO};
 use super::text::{self, Anchor, label};
 use super::title::TitleBlock;
 use crate::output::{Words, num};
 use crate::pitch::PitchReport;
 
-const INK: [&str; 6] = [
-    "#000000", "#D55E00", "#0072B2", "#009E73", "#CC79A7", "#E69F00",
-];
-const DASH: [&str; 6] = ["", "3 1.5", "0.8 1.2", "4 1 1 1", "2 2", "6 2"];
+/// Black, for k_w1 and the floor and recommendation lines.
+const BLACK: &str = "#000000";
 
 /// Draw the span comparison `r` of the study `s`'s winding.
 pub fn draw(s: &crate::study::Study, r: &PitchReport, page: &Page) -> String {
@@ -41,11 +40,11 @@ pub fn draw(s: &crate::study::Study, r: &PitchReport, page: &Page) -> String {
     series.push(Series {
         name: &names[0],
         points: pts(&|row| Some(row.winding)),
-        colour: INK[0],
-        dash: DASH[0],
+        colour: BLACK,
+        dash: "",
     });
     for (i, o) in orders.iter().enumerate() {
-        let k = (i + 1) % INK.len();
+        let k = i % OKABE_ITO.len();
         series.push(Series {
             name: &names[i + 1],
             points: pts(&|row| {
@@ -54,8 +53,8 @@ pub fn draw(s: &crate::study::Study, r: &PitchReport, page: &Page) -> String {
                     .find(|h| h.order.get() == *o)
                     .map(|h| h.winding.abs())
             }),
-            colour: INK[k],
-            dash: DASH[k],
+            colour: OKABE_ITO[k],
+            dash: DASHES[(k + 1) % DASHES.len()],
         });
     }
     let (lo, hi) = (
@@ -66,7 +65,7 @@ pub fn draw(s: &crate::study::Study, r: &PitchReport, page: &Page) -> String {
     series.push(Series {
         name: &floor,
         points: vec![(lo, r.min_fundamental), (hi, r.min_fundamental)],
-        colour: INK[0],
+        colour: BLACK,
         dash: "0.4 1.2",
     });
     let recommended = r.recommended.map(|y| format!("recommended span {y}"));
@@ -74,7 +73,7 @@ pub fn draw(s: &crate::study::Study, r: &PitchReport, page: &Page) -> String {
         series.push(Series {
             name,
             points: vec![(y as f64, 0.0), (y as f64, 1.0)],
-            colour: INK[0],
+            colour: BLACK,
             dash: "5 1.5 1 1.5",
         });
     }

@@ -39,7 +39,7 @@ impl Report for AuditReport {
                 },
             ),
         ];
-        head.extend(paragraph(&self.travel.message()));
+        head.push(paragraph(&self.travel.message()));
         let waves = if self.no_fundamental {
             "no fundamental EMF: the phases make no working wave, so no ratio or angle \
              applies"
@@ -62,7 +62,7 @@ impl Report for AuditReport {
                 num(self.max_angle_error_deg, 2)
             )
         };
-        head.extend(paragraph(&waves));
+        head.push(paragraph(&waves));
         if self.fix_edits > 0 {
             head.push(format!(
                 "smallest fix: {}{}",
@@ -90,7 +90,7 @@ impl Report for AuditReport {
                     .ok()
                     .and_then(|v| v.as_str().map(|s| s.replace('_', " ")))
                     .unwrap_or_default();
-                lines.extend(paragraph(&format!("{}. [{kind}] {}", n + 1, f.message())));
+                lines.push(paragraph(&format!("{}. [{kind}] {}", n + 1, f.message())));
             }
             s.push(Section::Items(lines));
         }
@@ -147,7 +147,7 @@ impl Report for AuditReport {
                 ]);
             }
             s.push(Section::Table(t));
-            s.push(Section::Lines(paragraph(&r.suggestion.message())));
+            s.push(Section::Lines(vec![paragraph(&r.suggestion.message())]));
         }
 
         s.push(Section::Heading(
@@ -459,9 +459,7 @@ impl Report for RewindReport {
             if let Some(i) = c.new_line_current_a {
                 lines.push(format!("new rated line current: {} A", num(i, 2)));
             }
-            s.push(Section::Lines(
-                lines.iter().flat_map(|l| paragraph(l)).collect(),
-            ));
+            s.push(Section::Lines(lines.iter().map(|l| paragraph(l)).collect()));
             let mut t = Table::new(&[
                 ("series", Align::Left),
                 ("in hand", Align::Right),

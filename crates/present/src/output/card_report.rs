@@ -145,16 +145,13 @@ impl Report for DataCard {
         if let Some(n) = &self.nameplate {
             s.push(Section::Heading("Nameplate".into()));
             s.push(Section::Lines(
-                nameplate_lines(n)
-                    .iter()
-                    .flat_map(|l| paragraph(l))
-                    .collect(),
+                nameplate_lines(n).iter().map(|l| paragraph(l)).collect(),
             ));
         }
         if let Some(j) = &self.job {
             s.push(Section::Heading("Job".into()));
             s.push(Section::Lines(
-                job_lines(j).iter().flat_map(|l| paragraph(l)).collect(),
+                job_lines(j).iter().map(|l| paragraph(l)).collect(),
             ));
         }
         if self.nameplate.is_some() || self.job.is_some() {
@@ -175,7 +172,7 @@ impl Report for DataCard {
             s.push(Section::Lines(
                 self.warnings
                     .iter()
-                    .flat_map(|w| paragraph(&format!("- {}", w.message())))
+                    .map(|w| paragraph(&format!("- {}", w.message())))
                     .collect(),
             ));
         }
@@ -329,7 +326,7 @@ fn winding_sections(card: &DataCard) -> Vec<Section> {
         None => lines.push("wire: not given".into()),
     }
     s.push(Section::Lines(
-        lines.into_iter().flat_map(|l| paragraph(&l)).collect(),
+        lines.into_iter().map(|l| paragraph(&l)).collect(),
     ));
     s
 }
@@ -396,10 +393,10 @@ fn copper_sections(card: &DataCard) -> Vec<Section> {
             .map_or("-".into(), |f| format!("{}%", num(f * 100.0, 1))),
     ]);
     s.push(Section::Table(t));
-    s.push(Section::Lines(paragraph(&format!(
+    s.push(Section::Lines(vec![paragraph(&format!(
         "mean turn rule: {}",
         card.mean_turn_rule.message()
-    ))));
+    ))]));
     if !card.formers.is_empty() {
         s.push(Section::Heading(
             "Formers (by the mean-turn rule; span width between the coil sides' centres)".into(),
@@ -449,9 +446,7 @@ fn lead_sections(l: &LeadScheme) -> Vec<Section> {
     for j in &l.internal {
         lines.push(format!("joined inside: {}", j.join("-")));
     }
-    s.push(Section::Lines(
-        lines.iter().flat_map(|x| paragraph(x)).collect(),
-    ));
+    s.push(Section::Lines(lines.iter().map(|x| paragraph(x)).collect()));
     let mut t = Table::new(&[
         ("connection", Align::Left),
         ("L1", Align::Left),
@@ -486,7 +481,7 @@ fn lead_sections(l: &LeadScheme) -> Vec<Section> {
     }
     s.push(Section::Table(t));
     let mut lines = vec!["* as planned".to_string()];
-    lines.extend(paragraph(&l.rotation.message()));
+    lines.push(paragraph(&l.rotation.message()));
     s.push(Section::Lines(lines));
     s
 }
@@ -554,9 +549,7 @@ fn acceptance_sections(card: &DataCard) -> Vec<Section> {
         num(a.polarization_index_min, 1)
     ));
     lines.push(crate::safety::ACCEPTANCE_NOTE.to_string());
-    s.push(Section::Lines(
-        lines.iter().flat_map(|x| paragraph(x)).collect(),
-    ));
+    s.push(Section::Lines(lines.iter().map(|x| paragraph(x)).collect()));
 
     if let Some(m) = &card.measured {
         s.push(Section::Heading(format!(
@@ -587,7 +580,7 @@ fn acceptance_sections(card: &DataCard) -> Vec<Section> {
             ]);
         }
         s.push(Section::Table(t));
-        s.push(Section::Lines(paragraph(&m.suggestion.message())));
+        s.push(Section::Lines(vec![paragraph(&m.suggestion.message())]));
     }
     s
 }

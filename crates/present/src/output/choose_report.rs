@@ -25,7 +25,7 @@ impl Report for PitchReport {
         head.push("* recommended   ! below the k_w1 floor".into());
         let mut s = Vec::from(super::opening("Span comparison", &self.design));
         s.extend([Section::Lines(head), Section::Table(self.main_table())]);
-        s.push(Section::Lines(paragraph(&self.reason.message())));
+        s.push(Section::Lines(vec![paragraph(&self.reason.message())]));
         super::with_warnings(s, &self.warnings)
     }
 

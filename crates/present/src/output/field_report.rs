@@ -70,7 +70,7 @@ impl Report for FieldReport {
                 num(l.pulsating, 4)
             ));
             if let Some(c) = &l.strongest_between_orders {
-                head.extend(paragraph(&format!(
+                head.push(paragraph(&format!(
                     "a primary of finite length spreads each wave over nearby wavenumbers: \
                      between whole orders its spectrum reaches forward {}, backward {} at order \
                      {} (JSON: continuous)",
@@ -105,7 +105,7 @@ impl Report for FieldReport {
                         num(e.exit_backward_at_1, 4),
                     )
                 };
-                head.extend(paragraph(&text));
+                head.push(paragraph(&text));
             }
             if let Some(v) = l.field_speed_m_s {
                 let sec = l

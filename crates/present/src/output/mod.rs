@@ -132,7 +132,7 @@ pub fn with_warnings(
     }
     let lines = warnings
         .iter()
-        .flat_map(|w| paragraph(&format!("WARNING: {}", w.message())))
+        .map(|w| paragraph(&format!("WARNING: {}", w.message())))
         .collect();
     let at = sections.len().min(1);
     sections.insert(at, Section::Lines(lines));
@@ -143,7 +143,7 @@ pub use crate::numbering::num;
 
 /// The safety caution as a report's section, wrapped for the terminal.
 pub fn caution() -> Section {
-    Section::Caution(paragraph(crate::safety::CAUTION))
+    Section::Caution(vec![paragraph(crate::safety::CAUTION)])
 }
 
 /// How a report opens: its heading ("Kind: title", or the kind alone) and the shared

@@ -8,8 +8,8 @@ use itertools::Itertools;
 /// One paragraph of a report, kept whole (its white space folded to single spaces): the
 /// text presenter wraps it at 78 columns, the HTML page and the sheets set it to their own
 /// measure, so no presenter undoes another's line breaks.
-pub fn paragraph(text: &str) -> Vec<String> {
-    vec![text.split_whitespace().collect::<Vec<_>>().join(" ")]
+pub fn paragraph(text: &str) -> String {
+    text.split_whitespace().collect::<Vec<_>>().join(" ")
 }
 
 pub use crate::numbering::ranges;
@@ -226,12 +226,12 @@ impl Report for FactorTable {
             Section::Design(super::design_lines(&self.design)),
         ];
         if self.single_layer {
-            s.push(Section::Lines(paragraph(
+            s.push(Section::Lines(vec![paragraph(
                 "Single layer: each slot holds one coil side, so the slot contents fix the \
                  field whatever the coil span or shape; a shorter span changes only the end \
                  connections and suppresses nothing. The whole factor is shown as k_d, with \
                  k_p = 1.",
-            )));
+            )]));
         }
         s.push(Section::Table(self.main_table()));
         s
@@ -269,15 +269,24 @@ mod tests {
     #[test]
     fn a_paragraph_stays_whole_and_the_terminal_wraps_it() {
         let p = paragraph(crate::safety::CAUTION);
-        assert_eq!(p.len(), 1);
+        assert!(!p.contains('\n') && p.chars().count() > 78);
         let mut out = Vec::new();
-        super::super::text::lines(&p, 0, &mut out).expect("written");
+        super::super::text::lines(std::slice::from_ref(&p), 0, &mut out).expect("written");
         let text = String::from_utf8(out).expect("utf-8");
         assert!(text.lines().count() > 1);
         assert!(text.lines().all(|l| l.chars().count() <= 78));
         assert_eq!(
             text.split_whitespace().collect::<Vec<_>>(),
-            p[0].split_whitespace().collect::<Vec<_>>()
+            p.split_whitespace().collect::<Vec<_>>()
         );
+    }
+
+    // An empty paragraph is one empty line, as a line of its own always was.
+    #[test]
+    fn an_empty_paragraph_is_one_empty_line() {
+        let mut out = Vec::new();
+        super::super::text::lines(&["".to_string(), "x".to_string()], 0, &mut out)
+            .expect("written");
+        assert_eq!(String::from_utf8(out).expect("utf-8"), "\nx\n");
     }
 }

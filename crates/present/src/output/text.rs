@@ -46,9 +46,7 @@ pub fn lines(
         .wrap_algorithm(textwrap::WrapAlgorithm::FirstFit);
     for p in paragraphs {
         let clean = crate::sanitize::clean(p);
-        if clean.is_empty() {
-            writeln!(out)?;
-        }
+        // textwrap gives an empty paragraph one empty line.
         for l in textwrap::wrap(&clean, &options) {
             writeln!(out, "{l}")?;
         }

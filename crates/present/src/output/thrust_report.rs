@@ -77,9 +77,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 num(this.max_thrust_slip, 4)
             ),
         ];
-        s.push(Section::Lines(
-            lines.iter().flat_map(|l| paragraph(l)).collect(),
-        ));
+        s.push(Section::Lines(lines.iter().map(|l| paragraph(l)).collect()));
         s.push(Section::Table(table_every(this, every)));
         let mut notes: Vec<String> =
             vec!["slip below 0: generating; above 1: plugging (braking against the field)".into()];
@@ -88,9 +86,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 .iter()
                 .map(|a| format!("assumed: {}", a.message())),
         );
-        s.push(Section::Lines(
-            notes.iter().flat_map(|l| paragraph(l)).collect(),
-        ));
+        s.push(Section::Lines(notes.iter().map(|l| paragraph(l)).collect()));
         s.push(super::caution());
         s
     }
@@ -165,9 +161,7 @@ impl Report for InductanceReport {
                 .iter()
                 .map(|a| format!("assumed: {}", a.message())),
         );
-        s.push(Section::Lines(
-            lines.iter().flat_map(|l| paragraph(l)).collect(),
-        ));
+        s.push(Section::Lines(lines.iter().map(|l| paragraph(l)).collect()));
         if !self.ranking.is_empty() {
             s.push(Section::Heading(
                 "Layouts of the same primary by unbalance (least first)".into(),
