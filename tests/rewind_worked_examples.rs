@@ -105,13 +105,14 @@ fn two_parallel_paths_double_the_turns_per_coil_and_halve_the_wire() {
     assert!((c.phase_current_ratio - 1.0).abs() < 1e-12);
 }
 
-// Flux per pole from the EMF equation Φ = V_ph / (4.44·f·N_ph·k_w1) (Say 1983 §4.3).
+// Flux per pole from the EMF equation Φ = V_ph / (√2·π·f·N_ph·k_w1) (Say 1983 §4.3, whose
+// 4.44 is √2·π = 4.4429 rounded; the sinusoid's exact constant is used).
 #[test]
 fn old_flux_per_pole_follows_the_emf_equation() {
     let old = build(&design(36, 4, 9, Connection::Star, 50.0));
     let r = rewind(&old, &old, None, 1, None).expect("same core");
     let kd = closed::distribution(3, 1.0, PI / 9.0);
-    let phi = (400.0 / 3f64.sqrt()) / (4.44 * 50.0 * 240.0 * kd);
+    let phi = (400.0 / 3f64.sqrt()) / (2f64.sqrt() * PI * 50.0 * 240.0 * kd);
     assert!((r.flux_per_pole_wb.expect("supply given") - phi).abs() < 1e-12);
     assert!((r.turns_per_coil_exact - 20.0).abs() < 1e-9);
     assert!(r.flux_change_percent.abs() < 1e-9);

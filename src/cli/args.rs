@@ -95,6 +95,15 @@ const EX_INDUCTANCE: &str = examples!(
     "beltwright inductance primary.toml",
     "beltwright inductance stator.toml --coils --format json",
 );
+const EX_SIZE: &str = examples!(
+    "beltwright size stripped-core.toml",
+    "beltwright size stripped-core.toml --tooth-t 1.7 -o rewound.toml",
+);
+const EX_LOADING: &str = examples!(
+    "beltwright loading pump-rewind.toml",
+    "beltwright loading old-record.toml --yoke-t 1.5 --format json",
+);
+
 const EX_REWIND: &str = examples!(
     "beltwright rewind old.toml new.toml",
     "beltwright rewind old.toml new.toml --wire-diameter-mm 1.12",
@@ -120,6 +129,8 @@ Examples (stator.toml, primary.toml and the others stand for your own layout fil
   beltwright survey --slots 6..=72 --poles 2..=16 --layers 1,2 --sort winding
   beltwright audit as-found.toml --intended design.toml
   beltwright rewind old.toml new.toml --wire-diameter-mm 1.12
+  beltwright size stripped-core.toml -o rewound.toml
+  beltwright loading stator.toml
   beltwright card stator.toml
   beltwright thrust primary.toml --slip 0..=1 --steps 10
   beltwright inductance primary.toml
@@ -184,6 +195,14 @@ pub enum Command {
         /// A command whose own page to print.
         command: Option<String>,
     },
+    /// A winding for a bare core: span, connection, paths, turns per coil and wire from the
+    /// core's sizes and the nameplate, within flux-density, current-density and fill limits.
+    #[command(after_help = EX_SIZE)]
+    Size(SizeArgs),
+    /// Flux densities in gap, teeth and back iron, electric loading, current density, fill
+    /// and an estimated temperature rise of a winding with its turns, against limits.
+    #[command(after_help = EX_LOADING)]
+    Loading(LoadingArgs),
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EX_REWIND)]
     Rewind(RewindArgs),
@@ -310,6 +329,52 @@ pub struct AuditArgs {
     /// The intended design (layout file) to compare with slot by slot.
     #[arg(long)]
     pub intended: Option<PathBuf>,
+}
+
+/// The limits a core's loadings are held to (defaults in `loading::Limits`).
+#[derive(Args)]
+pub struct LimitArgs {
+    /// Peak air-gap flux density limit, T.
+    #[arg(long = "gap-t", default_value = "0.85", value_parser = flags::gap_t)]
+    pub gap_t: f64,
+    /// Peak tooth flux density limit at the narrowest section, T.
+    #[arg(long = "tooth-t", default_value = "1.8", value_parser = flags::iron_t)]
+    pub tooth_t: f64,
+    /// Peak back-iron flux density limit, T.
+    #[arg(long = "yoke-t", default_value = "1.6", value_parser = flags::iron_t)]
+    pub yoke_t: f64,
+    /// Current density limit, A/mm².
+    #[arg(long = "current-density", default_value = "6", value_parser = flags::current_density)]
+    pub current_density: f64,
+    /// Slot fill limit by insulated wire, a fraction.
+    #[arg(long, default_value = "0.75", value_parser = flags::fill)]
+    pub fill: f64,
+    /// EMF over phase voltage (1: no load, the highest flux; about 0.95 to 0.98 at full load).
+    #[arg(long = "emf-ratio", default_value = "1", value_parser = flags::emf_ratio)]
+    pub emf_ratio: f64,
+}
+
+#[derive(Args)]
+pub struct SizeArgs {
+    #[command(flatten)]
+    pub common: Common,
+    #[command(flatten)]
+    pub limits: LimitArgs,
+    /// Wire from the AWG series instead of IEC 60317 metric sizes.
+    #[arg(long)]
+    pub awg: bool,
+    /// Write the sized winding as a layout file (the input's text with the winding's keys
+    /// set), which every command takes.
+    #[arg(short = 'o', long = "output")]
+    pub output: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct LoadingArgs {
+    #[command(flatten)]
+    pub common: Common,
+    #[command(flatten)]
+    pub limits: LimitArgs,
 }
 
 #[derive(Args)]

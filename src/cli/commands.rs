@@ -189,7 +189,66 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Survey(a) => survey(a),
         Command::Audit(a) => run_audit(a),
         Command::Rewind(a) => run_rewind(a),
+        Command::Size(a) => run_size(a),
+        Command::Loading(a) => {
+            let w = load(&a.common.file)?;
+            let r = beltwright::loading::report(&w, &a.limits.limits(), a.limits.emf_ratio)
+                .map_err(|e| {
+                    Failure::input(format!("{}: {}", a.common.file.display(), e.message()))
+                })?;
+            Ok(present(r, a.common.format))
+        }
     }
+}
+
+impl LimitArgs {
+    /// The limits as the library takes them.
+    fn limits(&self) -> beltwright::loading::Limits {
+        beltwright::loading::Limits {
+            gap_t: self.gap_t,
+            tooth_t: self.tooth_t,
+            yoke_t: self.yoke_t,
+            current_density_a_mm2: self.current_density,
+            slot_fill: self.fill,
+        }
+    }
+}
+
+/// `beltwright size`: size the bare core, present the sizing, and write the sized layout
+/// (the input's text with the winding's keys set) when asked, after checking that it reads
+/// back as the same winding.
+fn run_size(a: SizeArgs) -> Result<Printed, Failure> {
+    if let Some(out) = &a.output {
+        check_output(out, &[&a.common.file], "-o")?;
+    }
+    let (spec, name, source) = read_spec_source(&a.common.file)?;
+    let req = beltwright::sizing::Request {
+        limits: a.limits.limits(),
+        emf_ratio: a.limits.emf_ratio,
+        awg: a.awg,
+    };
+    let sizing = beltwright::sizing::size(&spec, &req)
+        .map_err(|e| Failure::input(format!("{name}: {}", e.message())))?;
+    if let Some(out) = &a.output {
+        let text = layout::amend(&source, &sizing.chosen)
+            .map_err(|e| Failure::input(format!("{name}: {e}")))?;
+        let back = layout::parse(&text, &out.display().to_string())
+            .map_err(|e| Failure::output(format!("the sized layout does not read back: {e}")))?;
+        if back.design.turns_per_coil != sizing.chosen.turns_per_coil
+            || back.design.parallel_paths != sizing.chosen.parallel_paths
+            || back.design.connection != sizing.chosen.connection
+            || back.design.pitch != sizing.chosen.pitch
+            || back.design.wire != sizing.chosen.wire
+        {
+            return Err(Failure::output(
+                "the sized layout reads back as a different winding; nothing was written"
+                    .to_string(),
+            ));
+        }
+        write_atomic(out, &a.common.file, text.as_bytes(), "-o")?;
+        note(&format!("wrote {}", out.display()));
+    }
+    Ok(present(sizing, a.common.format))
 }
 
 fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {

@@ -209,6 +209,40 @@ pub fn wires_in_hand(s: &str) -> Result<u32, String> {
     whole_where(s, |n| (1..=100).contains(&n), "give 1 to 100").map(|n| n as u32)
 }
 
+/// A real number in `lo..=hi` with its unit, for a loading limit.
+fn limit(s: &str, lo: f64, hi: f64, unit: &str) -> Result<f64, String> {
+    number_where(
+        s,
+        |x| (lo..=hi).contains(&x),
+        &format!("give {lo} to {hi} {unit}"),
+    )
+}
+
+/// Peak gap flux density: 0.1 to 1.5 T.
+pub fn gap_t(s: &str) -> Result<f64, String> {
+    limit(s, 0.1, 1.5, "T")
+}
+
+/// Peak tooth or back-iron flux density: 0.5 to 2.4 T (beyond 2.4 T no steel carries it).
+pub fn iron_t(s: &str) -> Result<f64, String> {
+    limit(s, 0.5, 2.4, "T")
+}
+
+/// Current density: 0.5 to 30 A/mm².
+pub fn current_density(s: &str) -> Result<f64, String> {
+    limit(s, 0.5, 30.0, "A/mm²")
+}
+
+/// Slot fill by insulated wire: 0.1 to 0.9.
+pub fn fill(s: &str) -> Result<f64, String> {
+    limit(s, 0.1, 0.9, "(a fraction of the slot area)")
+}
+
+/// EMF over phase voltage: 0.8 to 1.1.
+pub fn emf_ratio(s: &str) -> Result<f64, String> {
+    limit(s, 0.8, 1.1, "(EMF over phase voltage)")
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -232,5 +266,8 @@ mod tests {
         assert!(dpi("5").is_err() && dpi("150").is_ok());
         assert!(wire_size("0").is_err() && wire_size("1.12").is_ok());
         assert!(wires_in_hand("0").is_err() && wires_in_hand("101").is_err());
+        assert!(gap_t("1.6").is_err() && gap_t("0.8").is_ok() && iron_t("NaN").is_err());
+        assert!(current_density("0").is_err() && fill("0.95").is_err());
+        assert!(emf_ratio("1.2").is_err() && emf_ratio("0.97").is_ok());
     }
 }

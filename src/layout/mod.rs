@@ -3,7 +3,10 @@
 //! Parsing is strict (`deny_unknown_fields`) so that a typo never silently changes a design,
 //! and every error names the file, the key (and line where known) and what would be valid.
 
+mod amend;
 mod raw;
+
+pub use amend::amend;
 
 use thiserror::Error;
 

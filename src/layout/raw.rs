@@ -66,6 +66,10 @@ struct RawCore {
     slot_area_mm2: Option<f64>,
     slot_width_mm: Option<f64>,
     slot_depth_mm: Option<f64>,
+    tooth_width_mm: Option<f64>,
+    yoke_depth_mm: Option<f64>,
+    outside_diameter_mm: Option<f64>,
+    stacking_factor: Option<f64>,
     mean_turn_mm: Option<f64>,
     end_allowance_mm: Option<f64>,
     end_factor: Option<f64>,
@@ -427,6 +431,7 @@ impl RawLayout {
                 stack_m: c
                     .within("core", "stack_mm", k.stack_mm, 1.0, 100_000.0)?
                     .map(|v| v * 1e-3),
+                ..Core::default()
             },
         })
     }
@@ -573,6 +578,50 @@ impl RawLayout {
         )
     }
 
+    /// The core's iron ([`crate::iron`]): tooth, slot and back-iron sizes in their ranges,
+    /// derived from each other, and refused, naming the keys, when they do not close.
+    fn iron(&self, c: &Checker, d: &Design) -> Result<Core, LayoutError> {
+        let mut core = d.core;
+        let Some(k) = &self.core else {
+            return Ok(core);
+        };
+        let mm = |v: Option<f64>| v.map(|x| x * 1e-3);
+        let outside = c.within(
+            "core",
+            "outside_diameter_mm",
+            k.outside_diameter_mm,
+            1.0,
+            100_000.0,
+        )?;
+        if outside.is_some() && d.topology == Topology::Linear {
+            return Err(c.err(
+                "core",
+                0,
+                "outside_diameter_mm",
+                "a flat primary has no outside diameter; give yoke_depth_mm, the depth of \
+                 iron behind the slots"
+                    .into(),
+            ));
+        }
+        let measured = crate::iron::Measured {
+            slot_pitch: core.slot_pitch_m,
+            bore: core.bore_m,
+            outside_diameter: mm(outside),
+            yoke_depth: mm(c.within("core", "yoke_depth_mm", k.yoke_depth_mm, 0.1, 10_000.0)?),
+            tooth_width: mm(c.within("core", "tooth_width_mm", k.tooth_width_mm, 0.1, 1000.0)?),
+            slot_width: mm(c.within("core", "slot_width_mm", k.slot_width_mm, 0.1, 1000.0)?),
+            slot_depth: mm(c.within("core", "slot_depth_mm", k.slot_depth_mm, 0.1, 1000.0)?),
+        };
+        let sections =
+            crate::iron::resolve(d.topology, d.slots, &measured).map_err(|e| iron_error(c, &e))?;
+        core.outside_diameter_m = sections.outside_diameter;
+        core.yoke_depth_m = sections.yoke_depth;
+        core.tooth_width_m = sections.tooth_width;
+        core.slot_depth_m = sections.slot_depth;
+        core.stacking_factor = c.within("core", "stacking_factor", k.stacking_factor, 0.5, 1.0)?;
+        Ok(core)
+    }
+
     /// The optional design tables, added to the core design `d`: wire, copper rule, slot
     /// area, gap, secondary, leads and measured values, each checked against its physical
     /// range.
@@ -584,39 +633,31 @@ impl RawLayout {
             d.slot_opening_m =
                 mm(c.within("core", "slot_opening_mm", k.slot_opening_mm, 0.0, 1000.0)?);
             let area = c.within("core", "slot_area_mm2", k.slot_area_mm2, 0.01, 1e6)?;
-            let width = c.within("core", "slot_width_mm", k.slot_width_mm, 0.1, 1000.0)?;
-            let depth = c.within("core", "slot_depth_mm", k.slot_depth_mm, 0.1, 1000.0)?;
-            d.slot_area_m2 = match (area, width, depth) {
-                (Some(_), Some(_), _) | (Some(_), _, Some(_)) => {
-                    return Err(c.err(
-                        "core",
-                        0,
-                        "slot_area_mm2",
-                        "give the slot's usable area or its width and depth, not both".into(),
-                    ));
-                }
-                (Some(a), None, None) => Some(a * 1e-6),
-                (None, Some(w), Some(h)) => {
-                    d.slot_size_m = Some((w * 1e-3, h * 1e-3));
-                    Some(w * h * 1e-6)
-                }
-                (None, Some(_), None) | (None, None, Some(_)) => {
-                    let key = if width.is_some() {
-                        "slot_width_mm"
-                    } else {
-                        "slot_depth_mm"
+            d.core = self.iron(c, &d)?;
+            let core = d.core;
+            let width = mm(c.within("core", "slot_width_mm", k.slot_width_mm, 0.1, 1000.0)?);
+            let (bore_w, bottom_w) = match (width, core.tooth_width_m, d.slot_pitch_m()) {
+                (Some(b), _, _) => (Some(b), Some(b)),
+                (None, Some(t), Some(p)) => {
+                    let bottom = match (d.topology, core.bore_m, core.slot_depth_m) {
+                        (Topology::Rotary, Some(dia), Some(h)) => {
+                            std::f64::consts::PI * (dia + 2.0 * h) / d.slots as f64 - t
+                        }
+                        _ => p - t,
                     };
-                    return Err(c.err(
-                        "core",
-                        0,
-                        key,
-                        "give both slot_width_mm and slot_depth_mm (the usable rectangle), \
-                         or slot_area_mm2"
-                            .into(),
-                    ));
+                    (Some(p - t), Some(bottom))
                 }
-                (None, None, None) => None,
+                _ => (None, None),
             };
+            // The slot's size: a rectangle, or for parallel-sided teeth a trapezoid taken
+            // at its mean width. The usable area for the wire is `slot_area_mm2` when given,
+            // else the slot's own area.
+            let size = match (bore_w, bottom_w, core.slot_depth_m) {
+                (Some(a), Some(b), Some(h)) => Some(((a + b) / 2.0, h)),
+                _ => None,
+            };
+            d.slot_size_m = size;
+            d.slot_area_m2 = area.map(|a| a * 1e-6).or(size.map(|(b, h)| b * h));
             let rule = TurnRule::default();
             d.turn = TurnRule {
                 mean_turn_m: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
@@ -1087,4 +1128,79 @@ fn job(c: &Checker, j: &RawJob) -> Result<crate::design::Job, LayoutError> {
 
 fn is_hex_colour(s: &str) -> bool {
     s.len() == 7 && s.starts_with('#') && s[1..].chars().all(|c| c.is_ascii_hexdigit())
+}
+
+/// A core that does not close, in words naming its keys and what would close it.
+fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
+    use crate::iron::{GeometryError, Size};
+    let key = |s: Size| match s {
+        Size::Bore => "bore_mm",
+        Size::SlotPitch => "slot_pitch_mm",
+        Size::OutsideDiameter => "outside_diameter_mm",
+        Size::YokeDepth => "yoke_depth_mm",
+        Size::ToothWidth => "tooth_width_mm",
+        Size::SlotWidth => "slot_width_mm",
+        Size::SlotDepth => "slot_depth_mm",
+    };
+    let n = |m: f64| crate::numbering::short(m * 1e3);
+    match e {
+        GeometryError::NoTooth {
+            from,
+            tooth_m,
+            slot_pitch_m,
+        } => c.err(
+            "core",
+            0,
+            key(from[0]),
+            format!(
+                "with core.{} this leaves teeth of {} mm at the bore: the slot pitch there \
+                 is {} mm, so tooth and slot must each be narrower than that",
+                key(from[1]),
+                n(*tooth_m),
+                n(*slot_pitch_m)
+            ),
+        ),
+        GeometryError::ToothAndSlot {
+            tooth_m,
+            slot_m,
+            slot_pitch_m,
+        } => c.err(
+            "core",
+            0,
+            "tooth_width_mm",
+            format!(
+                "tooth {} mm + slot_width_mm {} mm = {} mm, but the slot pitch at the bore is \
+                 {} mm (within {} % or {} mm); give one of the two and the other follows",
+                n(*tooth_m),
+                n(*slot_m),
+                n(tooth_m + slot_m),
+                n(*slot_pitch_m),
+                crate::iron::GEOMETRY_TOLERANCE * 100.0,
+                crate::iron::GEOMETRY_TOLERANCE_M * 1e3
+            ),
+        ),
+        GeometryError::NoYoke { from, yoke_m } => c.err(
+            "core",
+            0,
+            key(from[0]),
+            format!(
+                "with core.{} and core.{} this leaves back iron {} mm deep behind the slots; \
+                 the outside diameter must exceed the bore by more than twice the slot depth",
+                key(from[1]),
+                key(from[2]),
+                n(*yoke_m)
+            ),
+        ),
+        GeometryError::YokeAndDiameters { given_m, derived_m } => c.err(
+            "core",
+            0,
+            "yoke_depth_mm",
+            format!(
+                "{} mm given, but (outside_diameter_mm − bore_mm)/2 − slot_depth_mm = {} mm; \
+                 give the back-iron depth or the outside diameter, and the other follows",
+                n(*given_m),
+                n(*derived_m)
+            ),
+        ),
+    }
 }

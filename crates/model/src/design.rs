@@ -106,6 +106,31 @@ pub struct Core {
     pub bore_m: Option<f64>,
     /// Stack length (core depth across the gap's direction of travel), metres.
     pub stack_m: Option<f64>,
+    /// Outside diameter of a rotary core's lamination, metres (given, or from the back-iron
+    /// depth).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub outside_diameter_m: Option<f64>,
+    /// Back-iron (yoke) depth behind the slots, metres (given, or from the diameters).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub yoke_depth_m: Option<f64>,
+    /// Narrowest tooth width, metres ([`crate::iron`]: given, or the slot pitch at the bore
+    /// less the slot width).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tooth_width_m: Option<f64>,
+    /// Slot depth from the gap to the slot bottom, metres.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub slot_depth_m: Option<f64>,
+    /// Steel over stack length; [`crate::iron::DEFAULT_STACKING_FACTOR`] when not given.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stacking_factor: Option<f64>,
+}
+
+impl Core {
+    /// The stacking factor in use: as given, or the default.
+    pub fn stacking(&self) -> f64 {
+        self.stacking_factor
+            .unwrap_or(crate::iron::DEFAULT_STACKING_FACTOR)
+    }
 }
 
 /// Supply the winding is designed for.

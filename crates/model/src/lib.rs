@@ -9,6 +9,7 @@
 
 pub mod design;
 pub mod factors;
+pub mod iron;
 pub mod numbering;
 pub mod sanitize;
 pub mod spec;

@@ -1,6 +1,6 @@
 //! Turns and conductor size for a changed design on the same core.
 //!
-//! EMF equation E_ph = 4.44·f·N_ph·k_w1·Φ (M. G. Say, *Alternating Current Machines*, 5th ed.
+//! EMF equation E_ph = √2·π·f·N_ph·k_w1·Φ (4.44 rounded) (M. G. Say, *Alternating Current Machines*, 5th ed.
 //! 1983, §4.3; Pyrhönen, Jokinen, Hrabovcová 2014, eq. 2.59), with N_ph = coils per phase ×
 //! turns per coil / parallel paths and V_ph = V_L/√3 in star, V_L in delta. Keeping the peak
 //! air-gap flux density (Φ = (2/π)·B̂·τ·L, so Φ per pole for an unchanged pole count) gives
@@ -18,6 +18,7 @@ use std::f64::consts::PI;
 use crate::assumption::Assumption;
 use crate::card::wire::{self as wires, StandardWire};
 use crate::factors;
+use crate::loading;
 use crate::winding::{Connection, Topology, Winding};
 
 /// The old conductor as the rewinder measured it.
@@ -184,6 +185,10 @@ pub struct RewindReport {
     pub flux_per_pole_wb: Option<f64>,
     /// Peak air-gap flux density of the old winding, teslas, when the core sizes are known.
     pub peak_flux_density_t: Option<f64>,
+    /// The old winding's loadings on its core, when the core's sizes and supply are known.
+    pub old_loading: Option<crate::loading::Loading>,
+    /// The new winding's, with the rounded turns.
+    pub new_loading: Option<crate::loading::Loading>,
     /// The conductor, when the old one was given.
     pub conductor: Option<ConductorResult>,
     /// Values assumed because a layout left them out.
@@ -303,11 +308,23 @@ pub fn rewind(
     let flux_change_percent = 100.0 * (exact / rounded - 1.0);
     let flux_per_pole_wb = f_old
         .zip(line_old)
-        .map(|(f, _)| v_old / (4.44 * f * o.series_turns * o.winding_factor));
+        .map(|(f, _)| loading::flux_per_pole(v_old, f, o.series_turns * o.winding_factor));
     let peak_flux_density_t = flux_per_pole_wb
         .zip(old.pole_pitch_m())
         .zip(old.design.core.stack_m)
-        .map(|((phi, tau), l)| phi * PI / (2.0 * tau * l));
+        .map(|((phi, tau), l)| loading::gap_peak(phi, tau, l));
+    // Both designs' loadings on the core, when its sizes and each supply are known.
+    let limits = loading::Limits::default();
+    let old_loading = loading::of(old, &limits, 1.0).ok();
+    let wound = Winding {
+        coils: new
+            .coils
+            .iter()
+            .map(|c| crate::winding::Coil { turns, ..c.clone() })
+            .collect(),
+        ..new.clone()
+    };
+    let new_loading = loading::of(&wound, &limits, 1.0).ok();
     // The old wire from the flag, or from the old layout's [wire] table.
     let from_layout = old.design.wire.as_ref().map(wires::Wire::of);
     let (conductor, wires_in_hand) = match (conductor, &from_layout) {
@@ -370,6 +387,8 @@ pub fn rewind(
         pole_pitch_ratio,
         flux_per_pole_wb,
         peak_flux_density_t,
+        old_loading,
+        new_loading,
         conductor,
         assumptions,
         warnings: crate::warnings::design_warnings(new),

@@ -25,11 +25,16 @@ pub enum Analysis {
     Thrust,
     /// `inductance::inductance`.
     Inductance,
+    /// `loading::of`.
+    Loading,
+    /// `sizing::size`.
+    Sizing,
 }
 
 impl Analysis {
-    /// Every counted analysis.
-    pub const ALL: [Analysis; 9] = [
+    /// The analyses that report on one winding (a study's); the sizing makes a new winding
+    /// and is not among them.
+    pub const OF_A_WINDING: [Analysis; 10] = [
         Analysis::Plan,
         Analysis::Factors,
         Analysis::Field,
@@ -39,10 +44,26 @@ impl Analysis {
         Analysis::Card,
         Analysis::Thrust,
         Analysis::Inductance,
+        Analysis::Loading,
+    ];
+
+    /// Every counted analysis.
+    pub const ALL: [Analysis; 11] = [
+        Analysis::Plan,
+        Analysis::Factors,
+        Analysis::Field,
+        Analysis::FieldSnapshots,
+        Analysis::Pitch,
+        Analysis::Audit,
+        Analysis::Card,
+        Analysis::Thrust,
+        Analysis::Inductance,
+        Analysis::Loading,
+        Analysis::Sizing,
     ];
 }
 
-static RUNS: [AtomicUsize; 9] = [const { AtomicUsize::new(0) }; 9];
+static RUNS: [AtomicUsize; 11] = [const { AtomicUsize::new(0) }; 11];
 
 /// Count one run of `a`.
 pub fn count(a: Analysis) {

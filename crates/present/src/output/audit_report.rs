@@ -426,6 +426,21 @@ impl Report for RewindReport {
         s.push(super::caution());
         s.push(Section::Heading("Old and new design".into()));
         s.push(Section::Table(self.main_table()));
+        for (label, l) in [
+            ("Old winding on the core", &self.old_loading),
+            ("New winding on the core", &self.new_loading),
+        ] {
+            if let Some(l) = l {
+                s.push(Section::Heading(format!("{label}: loadings")));
+                s.push(Section::Table(super::loading_table(l)));
+                for w in &l.warnings {
+                    s.push(Section::Lines(vec![paragraph(&format!(
+                        "WARNING: {}",
+                        w.message()
+                    ))]));
+                }
+            }
+        }
         if let Some(c) = &self.conductor {
             s.push(Section::Heading(
                 "Conductor (same copper per slot, so the same current density)".into(),

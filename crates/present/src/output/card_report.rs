@@ -160,6 +160,17 @@ impl Report for DataCard {
         s.extend(winding_sections(self));
 
         s.extend(copper_sections(self));
+        if let Some(l) = &self.loading {
+            s.push(Section::Heading("Core loadings".into()));
+            s.push(Section::Table(super::loading_table(l)));
+            s.push(Section::Lines(super::loading_notes(l)));
+            for w in &l.warnings {
+                s.push(Section::Lines(vec![paragraph(&format!(
+                    "WARNING: {}",
+                    w.message()
+                ))]));
+            }
+        }
 
         if let Some(l) = &self.leads {
             s.extend(lead_sections(l));
@@ -367,7 +378,11 @@ fn copper_sections(card: &DataCard) -> Vec<Section> {
         opt(card.wire_to_order_kg, 2, "kg"),
     ]);
     t.push(vec![
-        "rated line current (nameplate)".into(),
+        if card.rated_current_from_power {
+            "rated line current (from the rated power)".into()
+        } else {
+            "rated line current (nameplate)".into()
+        },
         opt(card.rated_current_a, 2, "A"),
     ]);
     t.push(vec![

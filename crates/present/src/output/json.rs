@@ -485,3 +485,47 @@ mod tests {
         assert_eq!(back, text);
     }
 }
+
+/// `loading --format json`.
+#[derive(Serialize, JsonSchema)]
+pub struct LoadingJson<'a> {
+    #[serde(flatten)]
+    opening: Opening,
+    #[serde(flatten)]
+    report: &'a crate::loading::LoadingReport,
+    /// Every limit passed, each with its `message`.
+    warnings: Vec<Worded<'a, crate::loading::LoadingWarning>>,
+}
+
+impl<'a> LoadingJson<'a> {
+    /// The JSON form of `report`.
+    pub fn of(report: &'a crate::loading::LoadingReport) -> Self {
+        LoadingJson {
+            opening: Opening::default(),
+            report,
+            warnings: Worded::all(&report.loading.warnings),
+        }
+    }
+}
+
+/// `size --format json`.
+#[derive(Serialize, JsonSchema)]
+pub struct SizingJson<'a> {
+    #[serde(flatten)]
+    opening: Opening,
+    #[serde(flatten)]
+    report: &'a crate::sizing::Sizing,
+    /// Every limit the chosen winding passes, each with its `message`.
+    warnings: Vec<Worded<'a, crate::loading::LoadingWarning>>,
+}
+
+impl<'a> SizingJson<'a> {
+    /// The JSON form of `report`.
+    pub fn of(report: &'a crate::sizing::Sizing) -> Self {
+        SizingJson {
+            opening: Opening::default(),
+            report,
+            warnings: Worded::all(&report.loading.warnings),
+        }
+    }
+}

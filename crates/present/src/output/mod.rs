@@ -9,6 +9,7 @@ mod csv;
 mod field_report;
 pub mod html;
 pub mod json;
+mod loading_report;
 mod refusal_words;
 pub(crate) mod reports;
 pub mod schema;
@@ -21,6 +22,7 @@ pub mod warning_words;
 pub use card_report::{configuration_name, connection_words, rating_words};
 pub use csv::Csv;
 pub use json::Json;
+pub use loading_report::{loading_notes, loading_table, rated_words};
 pub use table::{Align, Table};
 pub use text::Text;
 

@@ -21,5 +21,7 @@ pub fn all() -> Vec<(&'static str, Value)> {
         ("card", v(schema_for!(CardJson))),
         ("thrust", v(schema_for!(ThrustJson))),
         ("inductance", v(schema_for!(InductanceJson))),
+        ("loading", v(schema_for!(LoadingJson))),
+        ("size", v(schema_for!(SizingJson))),
     ]
 }

@@ -235,9 +235,15 @@ pub struct DataCard {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub job: Option<crate::design::Job>,
     /// Rated line current used for the current density, A (from the nameplate, at the
-    /// supply's line voltage).
+    /// supply's line voltage, or from its rated power: `crate::loading::rated_current`).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub rated_current_a: Option<f64>,
+    /// True when the rated current follows from the rated power, not a stamped current.
+    pub rated_current_from_power: bool,
+    /// The core's loadings (flux densities, electric loading, temperature rise), when the
+    /// core's sizes and the supply are known.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub loading: Option<crate::loading::Loading>,
     /// Current density in the wire at rated current, A/mm².
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub current_density_a_mm2: Option<f64>,
@@ -560,18 +566,16 @@ pub fn card(w: &Winding) -> DataCard {
         }
     }
 
-    // Current density at rated current: the phase current (line current in star, /√3 in
-    // delta) shared by the paths, over the conductor area.
-    let rated_current = w
-        .design
-        .nameplate
-        .as_ref()
-        .and_then(|n| n.current_at(w.design.supply.line_voltage_v));
+    // Current density at rated current (the loadings' rule): the phase current shared by
+    // the paths, over the conductor area. The rated current is stamped, or follows from the
+    // rated power.
+    let rating =
+        crate::loading::rated_current(w.design.nameplate.as_ref(), w.design.supply.line_voltage_v);
+    let rated_current = rating.map(|r| r.line_a());
     let density = match (rated_current, &wire) {
         (Some(i), Some(wr)) if three => {
-            let phase = w.design.connection.phase_current(i);
-            let per_path = phase / w.parallel_paths.max(1) as f64;
-            Some(per_path / (wr.conductor_area_m2() * 1e6))
+            let (_, per_path) = crate::loading::conductor_current(w, i);
+            Some(per_path / wr.conductor_area_mm2)
         }
         _ => None,
     };
@@ -624,6 +628,8 @@ pub fn card(w: &Winding) -> DataCard {
         nameplate: w.design.nameplate.clone(),
         job: w.design.job.clone(),
         rated_current_a: rated_current,
+        rated_current_from_power: matches!(rating, Some(crate::loading::Rated::FromPower { .. })),
+        loading: crate::loading::of(w, &crate::loading::Limits::default(), 1.0).ok(),
         current_density_a_mm2: density,
         current_density_limit_a_mm2: CURRENT_DENSITY_LIMIT_A_MM2,
         wire_to_order_kg: mass.map(|m| m * (1.0 + WIRE_ALLOWANCE_PERCENT / 100.0)),

@@ -1,0 +1,405 @@
+//! The core's loadings (`loading`) and the sizing of a bare core (`size`) as text, JSON and
+//! CSV; [`loading_table`] is the one table of loadings that the card, the rewind and the
+//! HTML page show too.
+
+use super::{Align, Report, Section, Table, Words, caution, num, opening, paragraph, worded};
+use crate::loading::{
+    Checked, Density, Loading, LoadingError, LoadingReport, LoadingWarning, Part, Rated,
+};
+use crate::sizing::{Sizing, SizingError, SpanChoice};
+use crate::thrust::Input;
+
+/// The layout key a missing input is given under.
+fn key_of(input: Input) -> &'static str {
+    match input {
+        Input::Secondary => "a [secondary] table",
+        Input::Airgap => "core.airgap_mm",
+        Input::Frequency => "supply.frequency_hz (or nameplate.frequency_hz)",
+        Input::LineVoltage => "supply.line_voltage_v (or nameplate.voltage_v)",
+        Input::SlotPitch => "core.slot_pitch_mm (or core.bore_mm on a rotary core)",
+        Input::Stack => "core.stack_mm",
+    }
+}
+
+impl Words for LoadingError {
+    fn message(&self) -> String {
+        match self {
+            LoadingError::Missing(i) => format!("the loadings need {}", key_of(*i)),
+            LoadingError::NoTurns => {
+                "the winding has no turns or no fundamental EMF in its first phase".into()
+            }
+        }
+    }
+}
+
+impl Words for SizingError {
+    fn message(&self) -> String {
+        match self {
+            SizingError::Missing(i) => format!("sizing needs {}", key_of(*i)),
+            SizingError::NoWinding(why) => format!("no winding can be built on this core: {why}"),
+            SizingError::NoWholeTurns { exact, workable_v } => format!(
+                "no whole number of turns per coil fits this voltage: the nearest connection \
+                 needs {} turns per coil (at least 1 and at most {}); line voltages from {} V \
+                 to {} V would work on this core with these limits",
+                num(*exact, 3),
+                crate::spec::MAX_TURNS,
+                num(workable_v.0, 0),
+                num(workable_v.1, 0)
+            ),
+        }
+    }
+}
+
+impl std::fmt::Display for super::Say<'_, Part> {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self.0 {
+            Part::Gap => "air gap",
+            Part::Teeth => "teeth",
+            Part::Yoke => "back iron",
+        })
+    }
+}
+
+impl std::fmt::Display for super::Say<'_, LoadingWarning> {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self.0 {
+            LoadingWarning::FluxDensityAbove { part, density } => write!(
+                f,
+                "peak flux density in the {} is {} T, above the limit of {} T",
+                super::Say(part),
+                num(density.peak_t, 3),
+                num(density.limit_t, 3)
+            ),
+            LoadingWarning::CurrentDensityAbove { density } => write!(
+                f,
+                "current density is {} A/mm², above the limit of {} A/mm²",
+                num(density.value, 2),
+                num(density.limit, 2)
+            ),
+            LoadingWarning::FillAbove { fill } => write!(
+                f,
+                "slot fill by insulated wire is {} %, above the limit of {} %",
+                num(fill.value * 100.0, 1),
+                num(fill.limit * 100.0, 1)
+            ),
+            LoadingWarning::RiseAbove { rise } => write!(
+                f,
+                "estimated temperature rise is {} K, above the {} K the insulation class allows",
+                num(rise.value, 0),
+                num(rise.limit, 0)
+            ),
+        }
+    }
+}
+worded!(LoadingWarning);
+
+/// "ok" or "ABOVE".
+fn verdict(passed: bool) -> String {
+    if passed { "ABOVE" } else { "ok" }.into()
+}
+
+fn density_row(t: &mut Table, what: &str, d: &Density) {
+    t.push(vec![
+        what.into(),
+        format!("{} T", num(d.peak_t, 3)),
+        format!("{} T", num(d.limit_t, 3)),
+        verdict(d.passed()),
+    ]);
+}
+
+fn checked_row(t: &mut Table, what: &str, c: &Checked, unit: &str, digits: usize) {
+    t.push(vec![
+        what.into(),
+        format!("{} {unit}", num(c.value, digits)),
+        format!("{} {unit}", num(c.limit, digits)),
+        verdict(c.passed()),
+    ]);
+}
+
+/// The rated current in words: stamped, or from the power with what was assumed.
+pub fn rated_words(r: &Rated) -> String {
+    match r {
+        Rated::Stamped { line_a } => format!("{} A line current (nameplate)", num(*line_a, 2)),
+        Rated::FromPower {
+            line_a,
+            efficiency,
+            efficiency_assumed,
+            power_factor,
+            power_factor_assumed,
+        } => {
+            let mark = |a: bool| if a { " (assumed)" } else { "" };
+            format!(
+                "{} A line current from the rated power at efficiency {}{} and power factor \
+                 {}{}",
+                num(*line_a, 2),
+                num(*efficiency, 3),
+                mark(*efficiency_assumed),
+                num(*power_factor, 3),
+                mark(*power_factor_assumed)
+            )
+        }
+    }
+}
+
+/// The table of loadings against their limits: the one table every presenter shows.
+pub fn loading_table(l: &Loading) -> Table {
+    let mut t = Table::new(&[
+        ("loading", Align::Left),
+        ("value", Align::Right),
+        ("limit", Align::Right),
+        ("", Align::Left),
+    ]);
+    let m = &l.magnetic;
+    t.push(vec![
+        "flux per pole".into(),
+        format!("{} mWb", num(m.flux_per_pole_wb * 1e3, 4)),
+        String::new(),
+        String::new(),
+    ]);
+    t.push(vec![
+        "gap, mean over a pole".into(),
+        format!("{} T", num(m.gap_mean_t, 3)),
+        String::new(),
+        String::new(),
+    ]);
+    density_row(&mut t, "gap, peak", &m.gap);
+    if let Some(d) = &m.tooth {
+        density_row(&mut t, "teeth, peak at narrowest", d);
+    }
+    if let Some(d) = &m.yoke {
+        density_row(&mut t, "back iron, peak", d);
+    }
+    if let Some(e) = &l.electric {
+        t.push(vec![
+            "electric loading".into(),
+            format!("{} A/mm", num(e.electric_loading_a_m * 1e-3, 1)),
+            String::new(),
+            String::new(),
+        ]);
+        if let Some(j) = &e.current_density_a_mm2 {
+            checked_row(&mut t, "current density", j, "A/mm²", 2);
+        }
+    }
+    if let Some(f) = &l.slot_fill {
+        let pct = Checked {
+            value: f.value * 100.0,
+            limit: f.limit * 100.0,
+        };
+        checked_row(&mut t, "slot fill (insulated wire)", &pct, "%", 1);
+    }
+    if let Some(h) = &l.heating {
+        checked_row(&mut t, "temperature rise (estimate)", &h.rise_k, "K", 0);
+    }
+    t
+}
+
+/// The lines under the loading table: the basis of each figure.
+pub fn loading_notes(l: &Loading) -> Vec<String> {
+    let m = &l.magnetic;
+    let mut v = vec![paragraph(&format!(
+        "flux at EMF {} × the phase voltage ({} V), {} Hz, N_ph {}, k_w1 {}; stacking \
+         factor {}",
+        num(m.emf_ratio, 3),
+        num(m.phase_emf_v, 1),
+        num(m.frequency_hz, 2),
+        num(m.series_turns, 2),
+        num(m.winding_factor, 4),
+        num(m.stacking_factor, 3)
+    ))];
+    if let Some(e) = &l.electric {
+        v.push(paragraph(&format!(
+            "at {}: phase current {} A, {} A per conductor, {} conductors in the fullest slot",
+            rated_words(&e.rated),
+            num(e.phase_current_a, 2),
+            num(e.conductor_current_a, 2),
+            e.conductors_per_slot
+        )));
+    } else {
+        v.push(
+            "no rated current (nameplate current_a, or power_kw with the voltage): no electric \
+             loading, current density or temperature rise"
+                .into(),
+        );
+    }
+    if let Some(h) = &l.heating {
+        v.push(paragraph(&format!(
+            "temperature rise: one-node estimate (losses over α·S): copper {} W at {} °C{}, \
+             over {} m² at α = {} W/(m²·K); limit for class {:?}{}. An estimate to compare \
+             designs by, not a heat run",
+            num(h.copper_loss_w, 0),
+            num(h.reference_c, 0),
+            h.iron_loss_w
+                .map(|i| format!(", iron {} W", num(i, 0)))
+                .unwrap_or_else(
+                    || ", iron loss not counted (teeth, slot depth or back iron \
+                                    unknown)"
+                        .into()
+                ),
+            num(h.surface_m2, 4),
+            num(h.coefficient_w_m2k, 0),
+            h.class,
+            if h.class_assumed {
+                " (assumed; stamp nameplate.insulation_class)"
+            } else {
+                ""
+            }
+        )));
+    }
+    v
+}
+
+fn warning_lines(l: &Loading) -> Option<Section> {
+    (!l.warnings.is_empty()).then(|| {
+        Section::Lines(
+            l.warnings
+                .iter()
+                .map(|w| paragraph(&format!("WARNING: {}", w.message())))
+                .collect(),
+        )
+    })
+}
+
+impl Report for LoadingReport {
+    fn json(&self) -> impl serde::Serialize + '_ {
+        super::json::LoadingJson::of(self)
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        let mut s = opening("Loadings", &self.design).to_vec();
+        if let Some(w) = warning_lines(&self.loading) {
+            s.push(w);
+        }
+        s.push(caution());
+        s.push(Section::Table(loading_table(&self.loading)));
+        s.push(Section::Lines(loading_notes(&self.loading)));
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        loading_table(&self.loading)
+    }
+}
+
+fn candidates_table(z: &Sizing) -> Table {
+    let mut t = Table::new(&[
+        ("connection", Align::Left),
+        ("paths", Align::Right),
+        ("V phase", Align::Right),
+        ("turns exact", Align::Right),
+        ("wind", Align::Right),
+        ("N_ph", Align::Right),
+        ("flux given away %", Align::Right),
+        ("A per conductor", Align::Right),
+        ("wire", Align::Left),
+    ]);
+    for c in &z.candidates {
+        t.push(vec![
+            c.connection.to_string(),
+            c.parallel_paths.to_string(),
+            num(c.phase_voltage_v, 1),
+            num(c.turns_per_coil_exact, 3),
+            c.turns_per_coil.to_string(),
+            num(c.series_turns, 1),
+            num(c.flux_shortfall_percent, 2),
+            c.conductor_current_a.map(|i| num(i, 2)).unwrap_or_default(),
+            c.wire.map(|w| wire_words(&w)).unwrap_or_else(|| {
+                if c.conductor_current_a.is_some() {
+                    "none fits".into()
+                } else {
+                    String::new()
+                }
+            }),
+        ]);
+    }
+    t
+}
+
+/// "2 × 0.85 mm (IEC 60317), 4.12 A/mm², fill 61 %".
+fn wire_words(w: &crate::sizing::WireChoice) -> String {
+    let size = match w.awg {
+        Some(n) => format!("AWG {n}"),
+        None => format!("{} mm", num(w.diameter_mm, 3)),
+    };
+    format!(
+        "{} × {size}, {} A/mm²{}",
+        w.strands_in_hand,
+        num(w.current_density_a_mm2, 2),
+        w.slot_fill
+            .map(|f| format!(", fill {} %", num(f * 100.0, 0)))
+            .unwrap_or_default()
+    )
+}
+
+impl Report for Sizing {
+    fn json(&self) -> impl serde::Serialize + '_ {
+        super::json::SizingJson::of(self)
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        let mut s = opening("Sizing for the bare core", &self.design).to_vec();
+        if let Some(w) = warning_lines(&self.loading) {
+            s.push(w);
+        }
+        let best = &self.candidates[0];
+        let span = match self.span_choice {
+            SpanChoice::Given => "as given",
+            SpanChoice::Recommended => "the span comparison's recommendation",
+            SpanChoice::FullPitch => "full pitch; no span met the comparison's goal",
+        };
+        let mut head = vec![
+            paragraph(&format!(
+                "wind {} turns per coil, {}, {} path{}, span 1-{} ({span}), k_w1 {}",
+                best.turns_per_coil,
+                best.connection,
+                best.parallel_paths,
+                if best.parallel_paths == 1 { "" } else { "s" },
+                self.span + 1,
+                num(self.winding_factor, 4)
+            )),
+            paragraph(&format!(
+                "sized for {} V line, {} Hz: the core carries {} mWb per pole at its limits, \
+                 set by the {}",
+                num(self.line_voltage_v, 1),
+                num(self.frequency_hz, 2),
+                num(self.flux_limit_wb * 1e3, 4),
+                super::Say(&self.flux_set_by)
+            )),
+        ];
+        match &best.wire {
+            Some(w) => head.push(format!("wire: {}", wire_words(w))),
+            None if self.rated.is_some() => head.push(paragraph(
+                "wire: no standard wire of at most 4 strands carries the current within the \
+                 current-density and fill limits; more paths or a larger slot would",
+            )),
+            None => head.push(paragraph(
+                "wire: no rated current (nameplate current_a, or power_kw), so no wire is \
+                 sized",
+            )),
+        }
+        let mut r = Vec::new();
+        if let Some(x) = self.phase_resistance_20c_ohm {
+            r.push(format!("phase {} Ω", num(x, 4)));
+        }
+        if let Some(x) = self.line_resistance_20c_ohm {
+            r.push(format!("line to line {} Ω", num(x, 4)));
+        }
+        if !r.is_empty() {
+            head.push(format!("resistance at 20 °C: {}", r.join(", ")));
+        }
+        if let Some(m) = self.copper_mass_kg {
+            head.push(format!("copper in the coils {} kg", num(m, 2)));
+        }
+        s.push(Section::Lines(head));
+        s.push(caution());
+        s.push(Section::Heading("Loadings of the chosen winding".into()));
+        s.push(Section::Table(loading_table(&self.loading)));
+        s.push(Section::Lines(loading_notes(&self.loading)));
+        s.push(Section::Heading("Connections and paths, best first".into()));
+        s.push(Section::Table(candidates_table(self)));
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        candidates_table(self)
+    }
+}

@@ -1,0 +1,71 @@
+//! A layout file with a new winding written into it: the user's text kept (comments, order,
+//! every other key), the winding's keys set, the old record's coils and readings removed.
+//! `size -o` writes one; it reads back as the sized winding.
+
+use toml_edit::{DocumentMut, Item, Table, value};
+
+use crate::design::{Design, Insulation, Material, WireSize};
+
+/// The layout text `source` with `d`'s winding written into it: `[winding]` pitch, turns
+/// per coil, parallel paths and connection; `[supply]` voltage and frequency; `[wire]`
+/// replaced by `d`'s wire. An explicit `[[coil]]` list and `[measured]` readings belong to
+/// the old winding and are removed, with a comment that says so.
+pub fn amend(source: &str, d: &Design) -> Result<String, toml_edit::TomlError> {
+    let mut doc: DocumentMut = source.parse()?;
+    let removed = doc.remove("coil").is_some() | doc.remove("measured").is_some();
+
+    let mut winding = take(&mut doc, "winding");
+    if let Some(y) = d.pitch {
+        winding["pitch"] = value(y as i64);
+    }
+    winding["turns_per_coil"] = value(d.turns_per_coil as i64);
+    winding["parallel_paths"] = value(d.parallel_paths as i64);
+    winding["connection"] = value(d.connection.to_string());
+    doc.insert("winding", Item::Table(winding));
+
+    let mut supply = take(&mut doc, "supply");
+    if let Some(f) = d.supply.frequency_hz {
+        supply["frequency_hz"] = value(f);
+    }
+    if let Some(v) = d.supply.line_voltage_v {
+        supply["line_voltage_v"] = value(v);
+    }
+    doc.insert("supply", Item::Table(supply));
+
+    if let Some(w) = &d.wire {
+        let mut t = Table::new();
+        match w.size {
+            WireSize::Diameter(m) => t["diameter_mm"] = value(round_mm(m * 1e3)),
+            WireSize::Awg(n) => t["awg"] = value(n as i64),
+        }
+        t["strands_in_hand"] = value(w.strands_in_hand as i64);
+        match w.insulation {
+            Insulation::Grade(g) => t["grade"] = value(g as i64),
+            Insulation::Diameter(o) => t["insulated_diameter_mm"] = value(round_mm(o * 1e3)),
+        }
+        if w.material == Material::Aluminium {
+            t["material"] = value("aluminium");
+        }
+        doc["wire"] = Item::Table(t);
+    }
+
+    let note = if removed {
+        "# Winding keys, [supply] and [wire] set by `beltwright size`; the old record's\n\
+         # [[coil]] list and [measured] readings were removed (they describe the old winding).\n"
+    } else {
+        "# Winding keys, [supply] and [wire] set by `beltwright size`.\n"
+    };
+    Ok(format!("{note}{doc}"))
+}
+
+/// The table `key` taken out of `doc` (it keeps its place when put back), or a new one.
+fn take(doc: &mut DocumentMut, key: &str) -> Table {
+    doc.remove(key)
+        .and_then(|i| i.into_table().ok())
+        .unwrap_or_default()
+}
+
+/// A size in millimetres to the micrometre, so 0.85 is written 0.85 and not 0.8500000000000001.
+fn round_mm(x: f64) -> f64 {
+    (x * 1e3).round() / 1e3
+}

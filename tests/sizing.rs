@@ -1,0 +1,290 @@
+//! A bare core to a winding (`size`) and the loadings of a winding on its core (`loading`):
+//! a published worked design reproduced to its printed digits, hand calculations by the
+//! closed forms, the round trip through a written layout, and bad input refused.
+
+mod common;
+
+use std::f64::consts::PI;
+
+use assert_cmd::Command;
+use beltwright::loading::{self, Limits};
+use beltwright::sizing::{self, Request};
+use beltwright::winding::{self, Winding};
+use beltwright::{card, layout};
+
+fn spec(src: &str) -> layout::Spec {
+    layout::parse(src, "test.toml").unwrap_or_else(|e| panic!("{e}"))
+}
+
+fn wind(src: &str) -> Winding {
+    winding::build(&spec(src)).unwrap_or_else(|e| panic!("{e}"))
+}
+
+/// The stator of A. Nagarkar and S. Srinivas, "An Optimized Rotor Design of Synchronous
+/// Reluctance Motor for Improved Torque Characteristics" (IIT Madras; IEEE conference
+/// paper), Tables I–III: 36 slots, 4 poles, 415 V, 1500 rpm (50 Hz); bore 129.8 mm, stack
+/// 153 mm, tooth 5.8 mm, back iron 17.8 mm, stacking factor 0.95; k_w 0.945, which is a
+/// double-layer winding at span 8 of 9. Its N1 formula has the √3 of a star connection.
+fn published_core(extra: &str) -> String {
+    format!(
+        "[machine]\ntopology = \"rotary\"\nslots = 36\npoles = 4\n\
+         [winding]\nlayers = 2\npitch = 8\nconnection = \"star\"\n{extra}\n\
+         [core]\nbore_mm = 129.8\nstack_mm = 153.0\ntooth_width_mm = 5.8\n\
+         yoke_depth_mm = 17.8\nstacking_factor = 0.95\n\
+         [supply]\nfrequency_hz = 50.0\nline_voltage_v = 415.0\n"
+    )
+}
+
+/// The paper's design values (Table II): gap 0.78 T, teeth 1.6 T, back iron 1.5 T, K_E 0.97.
+fn published_request() -> Request {
+    Request {
+        limits: Limits {
+            gap_t: 0.78,
+            tooth_t: 1.6,
+            yoke_t: 1.5,
+            ..Limits::default()
+        },
+        emf_ratio: 0.97,
+        awg: false,
+    }
+}
+
+#[test]
+fn published_design_is_reproduced_to_its_printed_digits() {
+    let s = spec(&published_core(""));
+    let z = sizing::size(&s, &published_request()).expect("sizes");
+    // Printed pole pitch τ = 101.94 mm (Table III).
+    let w = wind(&published_core(""));
+    assert_eq!(format!("{:.2}", w.pole_pitch_m().unwrap() * 1e3), "101.94");
+    // k_w 0.945 (Table II): distribution × pitch of 36 slots, 4 poles, span 8.
+    assert_eq!(format!("{:.3}", z.winding_factor), "0.945");
+    // The flux the core carries at its limits: the gap at 0.78 T (Table II, B_g1).
+    let tau = w.pole_pitch_m().unwrap();
+    let gap_at_limit = z.flux_limit_wb * PI / (2.0 * tau * 0.153);
+    assert_eq!(format!("{gap_at_limit:.2}"), "0.78");
+    // N1 = 144 turns per phase (Table III), from eq. 18 rounded to whole turns per coil.
+    let best = &z.candidates[0];
+    assert_eq!(best.connection, beltwright::design::Connection::Star);
+    assert_eq!(best.parallel_paths, 1);
+    assert_eq!(best.series_turns, 144.0);
+    // The densities those turns give in the printed teeth and back iron: 1.6 T and 1.5 T
+    // (Table II, B_ts and B_cs), to the digits printed.
+    let m = &z.loading.magnetic;
+    assert_eq!(format!("{:.1}", m.tooth.unwrap().peak_t), "1.6");
+    assert_eq!(format!("{:.1}", m.yoke.unwrap().peak_t), "1.5");
+    assert_eq!(m.series_turns, 144.0);
+}
+
+/// The stripped core of `layouts/stripped-core.toml` with its winding given.
+fn stripped(winding: &str) -> String {
+    format!(
+        "[machine]\ntopology = \"rotary\"\nslots = 36\npoles = 4\n\
+         [winding]\nlayers = 2\n{winding}\n\
+         [core]\nbore_mm = 130.0\noutside_diameter_mm = 210.0\nstack_mm = 110.0\n\
+         slot_depth_mm = 16.5\ntooth_width_mm = 5.4\nstacking_factor = 0.95\n\
+         [wire]\ndiameter_mm = 1.25\n\
+         [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+         [nameplate]\npower_kw = 5.5\nvoltage_v = 400\nefficiency_percent = 88.0\n\
+         power_factor = 0.83\ninsulation_class = \"F\"\n"
+    )
+}
+
+// Hand calculation by the closed forms (Say 1983 §4.3 EMF equation; tooth and back-iron
+// sections as in `loading`), worked here independently of the library:
+//   k_w1 = k_d·k_p, k_d = sin(q·α/2)/(q·sin(α/2)) with q = 3, α = 20°; k_p = sin(7/9·90°)
+//   N_ph = 12 coils × 29 turns = 348; Φ = 400/(√2·π·50·348·k_w1)
+//   B̂_δ = π·Φ/(2·τ·L), τ = π·0.130/4; B̂_t = B̂_δ·τ_s/(0.95·5.4 mm), τ_s = π·0.130/36
+//   h_y = (210 − 130)/2 − 16.5 = 23.5 mm; B̂_y = Φ/(2·0.95·0.110·0.0235)
+//   I_L = 5500/(√3·400·0.88·0.83) A; delta: I_ph = I_L/√3; J = I_ph/(π/4·1.25²)
+#[test]
+fn loadings_of_a_rotary_core_match_the_hand_calculation() {
+    let w = wind(&stripped(
+        "pitch = 7\nturns_per_coil = 29\nconnection = \"delta\"",
+    ));
+    let l = loading::of(&w, &Limits::default(), 1.0).unwrap();
+    let alpha = 20f64.to_radians();
+    let kd = (3.0 * alpha / 2.0).sin() / (3.0 * (alpha / 2.0).sin());
+    let kp = (7.0 / 9.0 * PI / 2.0).sin();
+    let phi = 400.0 / (2f64.sqrt() * PI * 50.0 * 348.0 * kd * kp);
+    let tau = PI * 0.130 / 4.0;
+    let gap = PI * phi / (2.0 * tau * 0.110);
+    let tooth = gap * (PI * 0.130 / 36.0) / (0.95 * 5.4e-3);
+    let yoke = phi / (2.0 * 0.95 * 0.110 * 0.0235);
+    let line = 5500.0 / (3f64.sqrt() * 400.0 * 0.88 * 0.83);
+    let j = line / 3f64.sqrt() / (PI / 4.0 * 1.25 * 1.25);
+    let m = &l.magnetic;
+    let close = |a: f64, b: f64| (a / b - 1.0).abs() < 1e-12;
+    assert!(
+        close(m.flux_per_pole_wb, phi),
+        "{} {phi}",
+        m.flux_per_pole_wb
+    );
+    assert!(close(m.gap.peak_t, gap));
+    assert!(close(m.tooth.unwrap().peak_t, tooth));
+    assert!(close(m.yoke.unwrap().peak_t, yoke));
+    let e = l.electric.unwrap();
+    assert!(close(e.rated.line_a(), line));
+    assert!(close(e.current_density_a_mm2.unwrap().value, j));
+    // Electric loading: 2 × 29 conductors in a full slot, I_ph per conductor, per slot pitch.
+    assert!(close(
+        e.electric_loading_a_m,
+        58.0 * line / 3f64.sqrt() / (PI * 0.130 / 36.0)
+    ));
+}
+
+// A flat primary: 24 slots of 15 mm pitch, 4 poles, 100 mm wide, teeth 8 mm, yoke 20 mm.
+// Hand calculation: q = 2, α = 30°, single layer (k_p = 1), k_w1 = sin(30°)/(2·sin(15°));
+// 12 coils, 4 per phase of 60 turns: N_ph = 240; τ = 6 × 15 mm; Φ from the EMF equation,
+// B̂_t = B̂_δ·15/(0.95·8), B̂_y = Φ/(2·0.95·0.100·0.020).
+#[test]
+fn loadings_of_a_flat_primary_match_the_hand_calculation() {
+    let src = "[machine]\ntopology = \"linear\"\nslots = 24\npoles = 4\n\
+               [winding]\nlayers = 1\nturns_per_coil = 60\n\
+               [core]\nslot_pitch_mm = 15.0\nstack_mm = 100.0\ntooth_width_mm = 8.0\n\
+               yoke_depth_mm = 20.0\nstacking_factor = 0.95\n\
+               [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n";
+    let w = wind(src);
+    let l = loading::of(&w, &Limits::default(), 1.0).unwrap();
+    // Single layer, 24 slots: 12 coils, 4 per phase, 240 series turns.
+    assert_eq!(w.series_turns(0), 240.0);
+    let kw = 0.5 / (2.0 * 15f64.to_radians().sin());
+    let phi = 400.0 / 3f64.sqrt() / (2f64.sqrt() * PI * 50.0 * 240.0 * kw);
+    let gap = PI * phi / (2.0 * 0.090 * 0.100);
+    let m = &l.magnetic;
+    assert!((m.winding_factor / kw - 1.0).abs() < 1e-12);
+    assert!((m.gap.peak_t / gap - 1.0).abs() < 1e-12);
+    assert!((m.tooth.unwrap().peak_t / (gap * 15.0 / (0.95 * 8.0)) - 1.0).abs() < 1e-12);
+    assert!((m.yoke.unwrap().peak_t / (phi / (2.0 * 0.95 * 0.100 * 0.020)) - 1.0).abs() < 1e-12);
+}
+
+#[test]
+fn sized_turns_keep_every_density_within_its_limit_and_one_turn_less_would_not() {
+    let s = spec(&stripped(""));
+    let z = sizing::size(&s, &Request::default()).unwrap();
+    let best = &z.candidates[0];
+    assert!(z.loading.magnetic.gap.peak_t <= 0.85 + 1e-12);
+    assert!(z.loading.magnetic.tooth.unwrap().peak_t <= 1.8 + 1e-12);
+    assert!(z.loading.magnetic.yoke.unwrap().peak_t <= 1.6 + 1e-12);
+    // One turn fewer per coil passes the limit that set the flux.
+    let fewer = format!(
+        "pitch = {}\nturns_per_coil = {}\nparallel_paths = {}\nconnection = \"{}\"",
+        z.span,
+        best.turns_per_coil - 1,
+        best.parallel_paths,
+        best.connection
+    );
+    let l = loading::of(&wind(&stripped(&fewer)), &Limits::default(), 1.0).unwrap();
+    assert!(!l.warnings.is_empty(), "one turn fewer should pass a limit");
+}
+
+#[test]
+fn a_sized_layout_reads_back_as_the_same_winding() {
+    let dir = tempfile::tempdir().unwrap();
+    let input = dir.path().join("core.toml");
+    std::fs::write(&input, stripped("")).unwrap();
+    let out = dir.path().join("wound.toml");
+    let json = Command::cargo_bin("beltwright")
+        .unwrap()
+        .args(["size", "--format", "json", "-o"])
+        .arg(&out)
+        .arg(&input)
+        .assert()
+        .success()
+        .get_output()
+        .stdout
+        .clone();
+    let z: serde_json::Value = serde_json::from_slice(&json).unwrap();
+    let text = std::fs::read_to_string(&out).unwrap();
+    let w = wind(&text);
+    let best = &z["candidates"][0];
+    assert_eq!(
+        w.coils[0].turns as u64,
+        best["turns_per_coil"].as_u64().unwrap()
+    );
+    // The card and the loadings of the written layout give the sizing's figures.
+    let c = card::card(&w);
+    let r = z["phase_resistance_20c_ohm"].as_f64().unwrap();
+    assert!((c.phase_resistance_20c_ohm.unwrap() / r - 1.0).abs() < 1e-12);
+    let l = loading::of(&w, &Limits::default(), 1.0).unwrap();
+    let t = z["loading"]["magnetic"]["tooth"]["peak_t"]
+        .as_f64()
+        .unwrap();
+    assert!((l.magnetic.tooth.unwrap().peak_t / t - 1.0).abs() < 1e-12);
+    // The plan takes it as it is.
+    Command::cargo_bin("beltwright")
+        .unwrap()
+        .arg("plan")
+        .arg(&out)
+        .assert()
+        .success();
+}
+
+fn refused(src: &str, args: &[&str]) -> String {
+    let dir = tempfile::tempdir().unwrap();
+    let input = dir.path().join("core.toml");
+    std::fs::write(&input, src).unwrap();
+    let out = Command::cargo_bin("beltwright")
+        .unwrap()
+        .args(args)
+        .arg(&input)
+        .assert()
+        .code(2)
+        .get_output()
+        .clone();
+    String::from_utf8(out.stderr).unwrap()
+}
+
+#[test]
+fn a_core_that_does_not_close_is_refused_naming_its_keys() {
+    let wide = stripped("").replace("tooth_width_mm = 5.4", "tooth_width_mm = 12.0");
+    let e = refused(&wide, &["size"]);
+    assert!(
+        e.contains("core.tooth_width_mm") && e.contains("bore_mm"),
+        "{e}"
+    );
+    let deep = stripped("").replace("slot_depth_mm = 16.5", "slot_depth_mm = 45.0");
+    let e = refused(&deep, &["size"]);
+    assert!(
+        e.contains("core.outside_diameter_mm") && e.contains("slot_depth_mm"),
+        "{e}"
+    );
+    let both = stripped("").replace(
+        "tooth_width_mm = 5.4",
+        "tooth_width_mm = 5.4\nslot_width_mm = 8.0",
+    );
+    let e = refused(&both, &["size"]);
+    assert!(
+        e.contains("core.tooth_width_mm") && e.contains("slot pitch"),
+        "{e}"
+    );
+}
+
+#[test]
+fn limits_outside_physical_ranges_and_unworkable_voltages_are_refused() {
+    let e = refused(&stripped(""), &["size", "--tooth-t", "3"]);
+    assert!(e.contains("--tooth-t") && e.contains("0.5 to 2.4"), "{e}");
+    // 1 V on this core needs a small fraction of a turn per coil.
+    let low = stripped("").replace("line_voltage_v = 400.0", "line_voltage_v = 1.0");
+    let e = refused(&low, &["size"]);
+    assert!(
+        e.contains("no whole number of turns") && e.contains("would work"),
+        "{e}"
+    );
+    assert!(!e.contains("NaN") && !e.contains("inf"), "{e}");
+}
+
+#[test]
+fn a_flat_primary_is_sized_like_a_rotary_core() {
+    let src = "[machine]\ntopology = \"linear\"\nslots = 27\npoles = 4\n\
+               [winding]\nlayers = 2\n\
+               [core]\nslot_pitch_mm = 15.0\nstack_mm = 100.0\ntooth_width_mm = 8.0\n\
+               yoke_depth_mm = 20.0\nslot_depth_mm = 40.0\n\
+               [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+               [nameplate]\ncurrent_a = 12.0\n";
+    let z = sizing::size(&spec(src), &Request::default()).unwrap();
+    let best = &z.candidates[0];
+    assert!(best.turns_per_coil >= 1);
+    assert!(z.loading.magnetic.tooth.unwrap().peak_t <= 1.8 + 1e-12);
+    let j = z.loading.electric.unwrap().current_density_a_mm2.unwrap();
+    assert!(j.value <= j.limit);
+}
