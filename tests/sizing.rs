@@ -45,7 +45,7 @@ fn published_request() -> Request {
             ..Limits::default()
         },
         emf_ratio: 0.97,
-        awg: false,
+        ..Request::default()
     }
 }
 
@@ -287,4 +287,77 @@ fn a_flat_primary_is_sized_like_a_rotary_core() {
     assert!(z.loading.magnetic.tooth.unwrap().peak_t <= 1.8 + 1e-12);
     let j = z.loading.electric.unwrap().current_density_a_mm2.unwrap();
     assert!(j.value <= j.limit);
+}
+
+/// The pallet-shuttle primary of `layouts/` with a back-iron depth: a demo scenario, used
+/// here only for properties that hold whatever its numbers.
+fn shuttle() -> String {
+    std::fs::read_to_string("layouts/pallet-shuttle.toml")
+        .unwrap()
+        .replace(
+            "slot_depth_mm = 10.0",
+            "slot_depth_mm = 10.0\nyoke_depth_mm = 15.0",
+        )
+}
+
+#[test]
+fn a_flat_primary_sized_for_a_thrust_takes_the_most_turns_that_still_give_it() {
+    let req = Request {
+        thrust: Some((100.0, sizing::At::Slip(0.2))),
+        ..Request::default()
+    };
+    let z = sizing::size(&spec(&shuttle()), &req).unwrap();
+    let t = z.thrust.expect("thrust checked");
+    assert!(t.met && t.point.thrust_n >= 100.0, "{}", t.point.thrust_n);
+    // The written winding gives the same operating point as the sizing reported.
+    let best = &z.candidates[0];
+    assert_eq!(best.thrust_n, Some(t.point.thrust_n));
+    // One turn more per coil falls short: the bisection's bound. The wire for it is the
+    // sizing's own rule for a thrust (the largest standard wire that fits the slot,
+    // `sizing::wire_for` with no current-density limit); the thrust model (checked against
+    // published closed forms in tests/thrust*.rs) runs on that layout.
+    let layout_with = |turns: u32, wire_mm: Option<f64>| {
+        let text = shuttle()
+            .replace("turns_per_coil = 40", &format!("turns_per_coil = {turns}"))
+            .replace(
+                "connection = \"star\"",
+                &format!("connection = \"{}\"", best.connection),
+            );
+        match wire_mm {
+            Some(d) => text.replace("awg = 21", &format!("diameter_mm = {d}")),
+            None => text,
+        }
+    };
+    let n = best.turns_per_coil + 1;
+    let loose = Limits {
+        current_density_a_mm2: f64::INFINITY,
+        ..Limits::default()
+    };
+    let fit = sizing::wire_for(&wind(&layout_with(n, None)), 1e-9, &loose, false).unwrap();
+    let w = wind(&layout_with(n, Some(fit.diameter_mm)));
+    let q = beltwright::thrust::ThrustQuery {
+        current_a: None,
+        slip_from: 0.2,
+        slip_to: 0.2,
+        steps: 1,
+        end_effect: true,
+    };
+    let r = beltwright::thrust::thrust(&w, &q).unwrap();
+    assert!(r.rows[0].thrust_n < 100.0, "{}", r.rows[0].thrust_n);
+    // The plate's heat is the slip power: s × air-gap power.
+    assert!((t.plate_loss_w - 0.2 * t.point.airgap_power_w).abs() < 1e-9);
+}
+
+#[test]
+fn a_thrust_target_is_refused_where_the_model_cannot_run() {
+    let e = refused(
+        &stripped(""),
+        &["size", "--thrust-n", "100", "--at-slip", "0.1"],
+    );
+    assert!(e.contains("flat primar"), "{e}");
+    // The shuttle without its plate (the file's [secondary] comes just before [supply]).
+    let bare: String = shuttle().split("[secondary]").next().unwrap().to_string()
+        + "[supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n";
+    let e = refused(&bare, &["size", "--thrust-n", "100", "--at-speed", "3"]);
+    assert!(e.contains("[secondary]"), "{e}");
 }

@@ -97,6 +97,7 @@ const EX_INDUCTANCE: &str = examples!(
 );
 const EX_SIZE: &str = examples!(
     "beltwright size stripped-core.toml",
+    "beltwright size flat-core.toml --thrust-n 250 --at-speed 4",
     "beltwright size stripped-core.toml --tooth-t 1.7 -o rewound.toml",
 );
 const EX_LOADING: &str = examples!(
@@ -349,6 +350,10 @@ pub struct LimitArgs {
     /// Slot fill limit by insulated wire, a fraction.
     #[arg(long, default_value = "0.75", value_parser = flags::fill)]
     pub fill: f64,
+    /// Heat-transfer coefficient for the temperature-rise estimate, W/(m²·K), referred to the
+    /// core's outside surface (a flat primary's back); default 80, an estimate.
+    #[arg(long = "heat-transfer", default_value = "80", value_parser = flags::heat_transfer)]
+    pub heat_transfer: f64,
     /// EMF over phase voltage (1: no load, the highest flux; about 0.95 to 0.98 at full load).
     #[arg(long = "emf-ratio", default_value = "1", value_parser = flags::emf_ratio)]
     pub emf_ratio: f64,
@@ -363,6 +368,16 @@ pub struct SizeArgs {
     /// Wire from the AWG series instead of IEC 60317 metric sizes.
     #[arg(long)]
     pub awg: bool,
+    /// A flat primary's thrust wanted, N, at --at-slip or --at-speed: the thrust model's
+    /// current there sizes the wire, and its thrust is checked against this.
+    #[arg(long = "thrust-n", value_parser = flags::thrust, requires = "at")]
+    pub thrust_n: Option<f64>,
+    /// Slip at which the thrust is wanted.
+    #[arg(long = "at-slip", group = "at", allow_negative_numbers = true, value_parser = flags::slip)]
+    pub at_slip: Option<f64>,
+    /// Secondary speed at which the thrust is wanted, m/s.
+    #[arg(long = "at-speed", group = "at", allow_negative_numbers = true, value_parser = flags::speed)]
+    pub at_speed: Option<f64>,
     /// Write the sized winding as a layout file (the input's text with the winding's keys
     /// set), which every command takes.
     #[arg(short = 'o', long = "output")]

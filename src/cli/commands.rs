@@ -210,6 +210,7 @@ impl LimitArgs {
             yoke_t: self.yoke_t,
             current_density_a_mm2: self.current_density,
             slot_fill: self.fill,
+            heat_transfer_w_m2k: self.heat_transfer,
         }
     }
 }
@@ -226,6 +227,11 @@ fn run_size(a: SizeArgs) -> Result<Printed, Failure> {
         limits: a.limits.limits(),
         emf_ratio: a.limits.emf_ratio,
         awg: a.awg,
+        thrust: a.thrust_n.zip(
+            a.at_slip
+                .map(beltwright::sizing::At::Slip)
+                .or(a.at_speed.map(beltwright::sizing::At::Speed)),
+        ),
     };
     let sizing = beltwright::sizing::size(&spec, &req)
         .map_err(|e| Failure::input(format!("{name}: {}", e.message())))?;

@@ -218,6 +218,21 @@ fn limit(s: &str, lo: f64, hi: f64, unit: &str) -> Result<f64, String> {
     )
 }
 
+/// A thrust wanted: 0.001 N to 10 MN.
+pub fn thrust(s: &str) -> Result<f64, String> {
+    limit(s, 0.001, 1e7, "N")
+}
+
+/// A speed of a flat primary's secondary: -1000 to 1000 m/s.
+pub fn speed(s: &str) -> Result<f64, String> {
+    limit(s, -1000.0, 1000.0, "m/s")
+}
+
+/// A heat-transfer coefficient: 1 to 10 000 W/(m²·K).
+pub fn heat_transfer(s: &str) -> Result<f64, String> {
+    limit(s, 1.0, 10_000.0, "W/(m²·K)")
+}
+
 /// Peak gap flux density: 0.1 to 1.5 T.
 pub fn gap_t(s: &str) -> Result<f64, String> {
     limit(s, 0.1, 1.5, "T")

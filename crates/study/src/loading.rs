@@ -43,6 +43,9 @@ pub struct Limits {
     pub current_density_a_mm2: f64,
     /// Fill of the slot by insulated wire.
     pub slot_fill: f64,
+    /// Heat-transfer coefficient of the temperature-rise estimate, W/(m²·K) (not a limit:
+    /// the one coefficient the estimate rests on, [`HEAT_TRANSFER_W_M2K`] by default).
+    pub heat_transfer_w_m2k: f64,
 }
 
 impl Default for Limits {
@@ -57,6 +60,7 @@ impl Default for Limits {
             yoke_t: 1.6,
             current_density_a_mm2: card::CURRENT_DENSITY_LIMIT_A_MM2,
             slot_fill: card::FILL_LIMIT,
+            heat_transfer_w_m2k: HEAT_TRANSFER_W_M2K,
         }
     }
 }
@@ -99,13 +103,22 @@ pub enum Rated {
         /// True when the power factor is [`ASSUMED_POWER_FACTOR`].
         power_factor_assumed: bool,
     },
+    /// A flat primary's current at the slip it is sized for, from the thrust model.
+    ThrustModel {
+        /// Line current, A.
+        line_a: f64,
+        /// The slip.
+        slip: f64,
+    },
 }
 
 impl Rated {
     /// The line current, A.
     pub fn line_a(&self) -> f64 {
         match *self {
-            Rated::Stamped { line_a } | Rated::FromPower { line_a, .. } => line_a,
+            Rated::Stamped { line_a }
+            | Rated::FromPower { line_a, .. }
+            | Rated::ThrustModel { line_a, .. } => line_a,
         }
     }
 }
@@ -383,14 +396,14 @@ pub fn conductor_current(w: &Winding, line_a: f64) -> (f64, f64) {
     (phase, phase / w.parallel_paths.max(1) as f64)
 }
 
-/// The electric loading of `w` at its rated current, when one is stamped or follows from
-/// the power.
-pub fn electric(w: &Winding, limits: &Limits) -> Option<Electric> {
+/// The electric loading of `w` at `rated`, or when `None` at its rated current, when one
+/// is stamped or follows from the power.
+pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<Electric> {
     if w.geometry.phases != 3 {
         return None;
     }
     let d = &w.design;
-    let rated = rated_current(d.nameplate.as_ref(), d.supply.line_voltage_v)?;
+    let rated = rated.or_else(|| rated_current(d.nameplate.as_ref(), d.supply.line_voltage_v))?;
     let (phase, cond) = conductor_current(w, rated.line_a());
     let z = conductors_per_slot(w);
     let ts = w.slot_pitch_m()?;
@@ -521,14 +534,26 @@ pub fn slot_fill(w: &Winding, limits: &Limits) -> Option<Checked> {
     })
 }
 
-/// All the loadings of `w` against `limits`, the EMF `emf_ratio` times the phase voltage.
+/// All the loadings of `w` against `limits`, the EMF `emf_ratio` times the phase voltage,
+/// at its rated current.
 pub fn of(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Loading, LoadingError> {
+    of_rated(w, limits, emf_ratio, None)
+}
+
+/// [`of`] at the current `rated` (a flat primary's from its thrust model), or the rated
+/// current when `None`.
+pub fn of_rated(
+    w: &Winding,
+    limits: &Limits,
+    emf_ratio: f64,
+    rated: Option<Rated>,
+) -> Result<Loading, LoadingError> {
     crate::runs::count(crate::runs::Analysis::Loading);
     let magnetic = magnetic(w, limits, emf_ratio)?;
-    let electric = electric(w, limits);
+    let electric = electric(w, limits, rated);
     let heating = electric
         .as_ref()
-        .and_then(|e| heating(w, &magnetic, e, HEAT_TRANSFER_W_M2K));
+        .and_then(|e| heating(w, &magnetic, e, limits.heat_transfer_w_m2k));
     let slot_fill = slot_fill(w, limits);
     let mut warnings = Vec::new();
     for (part, density) in [

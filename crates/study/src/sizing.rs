@@ -42,6 +42,28 @@ pub struct Request {
     pub emf_ratio: f64,
     /// Wire from the AWG series instead of IEC 60317 metric sizes.
     pub awg: bool,
+    /// A flat primary's thrust wanted (N) at a slip or speed: the current the thrust model
+    /// gives there sizes the wire, and the thrust is checked against it.
+    pub thrust: Option<(f64, At)>,
+}
+
+/// Thrust wanted of a flat primary at a slip.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Target {
+    /// Thrust wanted, N.
+    pub thrust_n: f64,
+    /// At this slip.
+    pub slip: f64,
+}
+
+/// Where a flat primary's thrust is wanted: at a slip, or at a speed (m/s), which the field
+/// speed v_s = 2·f·τ turns into a slip.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum At {
+    /// A slip.
+    Slip(f64),
+    /// A speed of the secondary, m/s.
+    Speed(f64),
 }
 
 impl Default for Request {
@@ -50,8 +72,24 @@ impl Default for Request {
             limits: Limits::default(),
             emf_ratio: 1.0,
             awg: false,
+            thrust: None,
         }
     }
+}
+
+/// The sized flat primary at the slip it is sized for, from the thrust model.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct ThrustCheck {
+    /// What was asked.
+    pub wanted: Target,
+    /// The model's operating point there (thrust, current, power factor, efficiency).
+    pub point: crate::thrust::Row,
+    /// Power the plate turns into heat, s × air-gap power, W.
+    pub plate_loss_w: f64,
+    /// The same per square metre of plate under the primary, W/m².
+    pub plate_loss_w_m2: Option<f64>,
+    /// True when the thrust reaches the wanted thrust.
+    pub met: bool,
 }
 
 /// Why a core cannot be sized.
@@ -60,6 +98,20 @@ pub enum SizingError {
     /// A figure the sizing needs is missing.
     #[error("missing {0:?}")]
     Missing(Input),
+    /// A thrust was asked of a rotary core.
+    #[error("a thrust target is for flat primaries")]
+    ThrustNotLinear,
+    /// The thrust model cannot run on this primary (a missing plate, gap or supply).
+    #[error("the thrust model cannot run: {0}")]
+    Thrust(crate::thrust::ThrustError),
+    /// The speed asked gives a slip outside the model's range.
+    #[error("the speed asked gives a slip outside -10 to 10")]
+    SpeedOutOfReach {
+        /// Speed asked, m/s.
+        speed_m_s: f64,
+        /// The field speed v_s, m/s.
+        field_m_s: f64,
+    },
     /// No three-phase winding can be built on this core (the plan's refusal).
     #[error("no winding can be built on this core: {0}")]
     NoWinding(String),
@@ -118,8 +170,11 @@ pub struct Candidate {
     pub series_turns: f64,
     /// Flux the rounding gives away, per cent of the flux asked.
     pub flux_shortfall_percent: f64,
-    /// Conductor current at rated current, A, when a rating is known.
+    /// Conductor current at rated current (a flat primary's: the thrust model's at the
+    /// slip asked), A, when known.
     pub conductor_current_a: Option<f64>,
+    /// A flat primary's thrust at the slip asked.
+    pub thrust_n: Option<f64>,
     /// The wire, when one of at most [`MAX_STRANDS`] standard strands fits.
     pub wire: Option<WireChoice>,
 }
@@ -151,6 +206,14 @@ pub struct Sizing {
     pub candidates: Vec<Candidate>,
     /// The loadings of the chosen winding (the first candidate).
     pub loading: Loading,
+    /// A flat primary's thrust at the slip asked, against the thrust wanted.
+    pub thrust: Option<ThrustCheck>,
+    /// When no wire meets the current-density limit: the largest standard wire (1 to 4
+    /// strands) that fits the slot, which the written layout and the loadings then use.
+    pub fallback_wire: Option<WireChoice>,
+    /// The chosen conductor from the other wire series (AWG when metric was asked, and the
+    /// other way round), for shops that stock it.
+    pub other_series_wire: Option<WireChoice>,
     /// Phase resistance at 20 °C of the chosen winding (the card's), Ω.
     pub phase_resistance_20c_ohm: Option<f64>,
     /// Line-to-line resistance at 20 °C (the card's), Ω.
@@ -250,6 +313,30 @@ pub fn wire_for(w: &Winding, i: f64, limits: &Limits, awg: bool) -> Option<WireC
     })
 }
 
+/// The largest standard wire (fewest strands first) that fits the slot within the fill
+/// limit whatever the current density, when the slot area is known.
+fn largest_fitting(w: &Winding, limits: &Limits, awg: bool) -> Option<WireChoice> {
+    w.design.slot_area_m2?;
+    let loose = Limits {
+        current_density_a_mm2: f64::INFINITY,
+        ..*limits
+    };
+    wire_for(w, 1e-9, &loose, awg)
+}
+
+/// The layout's wire table for a chosen wire (grade 2 enamel, copper).
+fn spec_of(c: &WireChoice) -> WireSpec {
+    WireSpec {
+        size: match c.awg {
+            Some(n) => WireSize::Awg(n),
+            None => WireSize::Diameter(c.diameter_mm * 1e-3),
+        },
+        strands_in_hand: c.strands_in_hand,
+        insulation: Insulation::Grade(2),
+        material: Material::Copper,
+    }
+}
+
 /// Flux the rounding of turns may give away and still count as on target, per cent: 5
 /// (common practice, from memory: a rewind within 5 % of the design's turns is accepted).
 pub const SHORTFALL_TOLERANCE_PERCENT: f64 = 5.0;
@@ -268,6 +355,58 @@ fn stamped_connection(d: &Design) -> Option<Connection> {
         "y" | "star" | "wye" | "yy" => Some(Connection::Star),
         _ => None,
     }
+}
+
+/// The most turns per coil from `fewest` up whose winding (`with_turns`) still gives the
+/// wanted thrust at its slip, with that operating point: thrust at a fixed voltage falls
+/// as the turns rise (about as 1/N²), so a bisection finds it. When even `fewest` falls
+/// short, `fewest`.
+fn most_turns_for(
+    with_turns: &dyn Fn(u32) -> Winding,
+    fewest: u32,
+    t: Target,
+) -> (u32, Option<crate::thrust::Row>) {
+    let at = |n: u32| operating_point(&with_turns(n), t.slip);
+    let first = at(fewest);
+    if first.is_none_or(|p| p.thrust_n < t.thrust_n) {
+        return (fewest, first);
+    }
+    // Invariant: `lo` gives the thrust; `hi` does not (or is beyond the bound).
+    let (mut lo, mut lo_point) = (fewest, first);
+    let mut hi = fewest.saturating_mul(2).max(fewest + 1);
+    loop {
+        match at(hi) {
+            Some(p) if p.thrust_n >= t.thrust_n && hi < MAX_TURNS => {
+                (lo, lo_point) = (hi, Some(p));
+                hi = hi.saturating_mul(2).min(MAX_TURNS);
+            }
+            _ => break,
+        }
+    }
+    while hi - lo > 1 {
+        let mid = lo + (hi - lo) / 2;
+        match at(mid) {
+            Some(p) if p.thrust_n >= t.thrust_n => (lo, lo_point) = (mid, Some(p)),
+            _ => hi = mid,
+        }
+    }
+    (lo, lo_point)
+}
+
+/// A flat primary's operating point at slip `s` by the thrust model (voltage-fed, end effect
+/// included), when the model has what it needs.
+fn operating_point(w: &Winding, s: f64) -> Option<crate::thrust::Row> {
+    if w.geometry.topology != crate::winding::Topology::Linear {
+        return None;
+    }
+    let q = crate::thrust::ThrustQuery {
+        current_a: None,
+        slip_from: s,
+        slip_to: s,
+        steps: 1,
+        end_effect: true,
+    };
+    crate::thrust::thrust(w, &q).ok()?.rows.first().copied()
 }
 
 /// Size a winding for the core and nameplate of `spec` (its coil list and turns, if any,
@@ -307,6 +446,43 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     };
     let w1 = build(probe.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
     let (phi, set_by) = flux_limit(&w1, &req.limits)?;
+    let target = match req.thrust {
+        None => None,
+        Some(_) if w1.geometry.topology != crate::winding::Topology::Linear => {
+            return Err(SizingError::ThrustNotLinear);
+        }
+        Some((thrust_n, at)) => {
+            let slip = match at {
+                At::Slip(s) => s,
+                At::Speed(v) => {
+                    let vs = crate::linear::figures(&w1, Default::default())
+                        .synchronous_speed_m_s
+                        .ok_or(SizingError::Missing(Input::SlotPitch))?;
+                    let s = 1.0 - v / vs;
+                    if !(-10.0..=10.0).contains(&s) {
+                        return Err(SizingError::SpeedOutOfReach {
+                            speed_m_s: v,
+                            field_m_s: vs,
+                        });
+                    }
+                    s
+                }
+            };
+            // The model's own refusal (no plate, gap or supply) before any sizing.
+            crate::thrust::thrust(
+                &w1,
+                &crate::thrust::ThrustQuery {
+                    current_a: None,
+                    slip_from: slip,
+                    slip_to: slip,
+                    steps: 1,
+                    end_effect: true,
+                },
+            )
+            .map_err(SizingError::Thrust)?;
+            Some(Target { thrust_n, slip })
+        }
+    };
     let kw = crate::factors::fundamental(&w1).winding;
     let rated = loading::rated_current(base.nameplate.as_ref(), Some(line_v));
 
@@ -344,16 +520,48 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
             if exact < 0.5 || exact > MAX_TURNS as f64 {
                 continue;
             }
-            let turns = (exact - 1e-9).ceil().max(1.0) as u32;
-            let current = rated.map(|r| loading::conductor_current(&w, r.line_a()).1);
-            let sized = Winding {
-                coils: w
-                    .coils
-                    .iter()
-                    .map(|c| winding::Coil { turns, ..c.clone() })
-                    .collect(),
-                ..w.clone()
+            let fewest = (exact - 1e-9).ceil().max(1.0) as u32;
+            // The winding at `turns` per coil; sized for a thrust, with the largest standard
+            // wire that fits the slot (the primary's resistance, and so its thrust, depends
+            // on it), as the written layout will have it.
+            let with_turns = |turns: u32| {
+                let bare = Winding {
+                    coils: w
+                        .coils
+                        .iter()
+                        .map(|c| winding::Coil { turns, ..c.clone() })
+                        .collect(),
+                    design: Design {
+                        turns_per_coil: turns,
+                        ..w.design.clone()
+                    },
+                    ..w.clone()
+                };
+                match target {
+                    Some(_) => match largest_fitting(&bare, &req.limits, req.awg) {
+                        Some(c) => Winding {
+                            design: Design {
+                                wire: Some(spec_of(&c)),
+                                ..bare.design.clone()
+                            },
+                            ..bare
+                        },
+                        None => bare,
+                    },
+                    None => bare,
+                }
             };
+            // A flat primary sized for a thrust takes the most turns (the least flux and
+            // current) that still give it; otherwise the fewest within the flux limits.
+            let (turns, point) = match target {
+                Some(t) => most_turns_for(&with_turns, fewest, t),
+                None => (fewest, None),
+            };
+            let sized = with_turns(turns);
+            let line = point
+                .map(|p| connection.line_current(p.current_a))
+                .or(rated.map(|r| r.line_a()));
+            let current = line.map(|i| loading::conductor_current(&w, i).1);
             let wire = current.and_then(|i| wire_for(&sized, i, &req.limits, req.awg));
             candidates.push(Candidate {
                 connection,
@@ -364,6 +572,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
                 series_turns: per_turn * turns as f64,
                 flux_shortfall_percent: 100.0 * (1.0 - exact / turns as f64),
                 conductor_current_a: current,
+                thrust_n: point.map(|p| p.thrust_n),
                 wire,
             });
         }
@@ -381,14 +590,20 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     }
     // A wire that fits first; then turns on target (within the tolerance); then the
     // stamped connection; then fewer paths; then the least flux given away.
-    let wire_known = rated.is_some();
+    let wire_known = candidates.iter().any(|c| c.conductor_current_a.is_some());
     let stamped = stamped_connection(base);
+    let wanted = target.map_or(0.0, |t| t.thrust_n);
     candidates.sort_by(|a, b| {
         let fits = |c: &Candidate| !wire_known || c.wire.is_some();
-        let near = |c: &Candidate| c.flux_shortfall_percent <= SHORTFALL_TOLERANCE_PERCENT;
+        let pulls = |c: &Candidate| c.thrust_n.is_none_or(|f| f >= wanted);
+        // Sized for a thrust, the flux is lowered on purpose: only the thrust counts.
+        let near = |c: &Candidate| {
+            target.is_some() || c.flux_shortfall_percent <= SHORTFALL_TOLERANCE_PERCENT
+        };
         let as_stamped = |c: &Candidate| stamped.is_none_or(|s| s == c.connection);
-        fits(b)
-            .cmp(&fits(a))
+        pulls(b)
+            .cmp(&pulls(a))
+            .then(fits(b).cmp(&fits(a)))
             .then(near(b).cmp(&near(a)))
             .then(as_stamped(b).cmp(&as_stamped(a)))
             .then(a.parallel_paths.cmp(&b.parallel_paths))
@@ -398,15 +613,25 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
             )
     });
     let best = &candidates[0];
-    let wire = best.wire.map(|c| WireSpec {
-        size: match c.awg {
-            Some(n) => WireSize::Awg(n),
-            None => WireSize::Diameter(c.diameter_mm * 1e-3),
-        },
-        strands_in_hand: c.strands_in_hand,
-        insulation: Insulation::Grade(2),
-        material: Material::Copper,
-    });
+    // No wire meets the current-density limit: the largest that fits the slot, with the
+    // current density it then carries (the warnings say so).
+    let fallback_wire = match (best.wire, best.conductor_current_a) {
+        (None, Some(i)) => {
+            let probe = build(Design {
+                connection: best.connection,
+                parallel_paths: best.parallel_paths,
+                turns_per_coil: best.turns_per_coil,
+                ..probe.clone()
+            })
+            .map_err(|e| SizingError::NoWinding(e.to_string()))?;
+            largest_fitting(&probe, &req.limits, req.awg).map(|c| WireChoice {
+                current_density_a_mm2: i / (c.strands_in_hand as f64 * circle_area(c.diameter_mm)),
+                ..c
+            })
+        }
+        _ => None,
+    };
+    let wire = best.wire.or(fallback_wire).map(|c| spec_of(&c));
     let chosen = Design {
         connection: best.connection,
         parallel_paths: best.parallel_paths,
@@ -415,7 +640,29 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         ..probe
     };
     let w = build(chosen.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
-    let loading = loading::of(&w, &req.limits, req.emf_ratio).map_err(|e| match e {
+    let point = target.and_then(|t| operating_point(&w, t.slip));
+    let at = point.zip(target).map(|(p, t)| Rated::ThrustModel {
+        line_a: best.connection.line_current(p.current_a),
+        slip: t.slip,
+    });
+    let thrust = point.zip(target).map(|(p, t)| {
+        let plate_loss_w = (t.slip * p.airgap_power_w).max(0.0);
+        let under = w
+            .slot_pitch_m()
+            .zip(chosen.core.stack_m)
+            .map(|(ts, l)| ts * w.geometry.slots as f64 * l);
+        ThrustCheck {
+            wanted: t,
+            point: p,
+            plate_loss_w,
+            plate_loss_w_m2: under.map(|a| plate_loss_w / a),
+            met: p.thrust_n >= t.thrust_n,
+        }
+    });
+    let other_series_wire = best
+        .conductor_current_a
+        .and_then(|i| wire_for(&w, i, &req.limits, !req.awg));
+    let loading = loading::of_rated(&w, &req.limits, req.emf_ratio, at).map_err(|e| match e {
         loading::LoadingError::Missing(i) => SizingError::Missing(i),
         loading::LoadingError::NoTurns => SizingError::NoWinding(e.to_string()),
     })?;
@@ -433,6 +680,9 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         rated,
         candidates,
         loading,
+        thrust,
+        fallback_wire,
+        other_series_wire,
         phase_resistance_20c_ohm: card.phase_resistance_20c_ohm,
         line_resistance_20c_ohm: card.line_resistance_20c_ohm,
         copper_mass_kg: card.copper_mass_kg,

@@ -37,6 +37,23 @@ impl Words for SizingError {
         match self {
             SizingError::Missing(i) => format!("sizing needs {}", key_of(*i)),
             SizingError::NoWinding(why) => format!("no winding can be built on this core: {why}"),
+            SizingError::ThrustNotLinear => {
+                "--thrust-n sizes a flat primary (topology = \"linear\"); a rotary core is \
+                 sized by its flux densities alone"
+                    .into()
+            }
+            SizingError::Thrust(e) => format!("--thrust-n: {}", e.message()),
+            SizingError::SpeedOutOfReach {
+                speed_m_s,
+                field_m_s,
+            } => format!(
+                "--at-speed {} m/s is a slip outside -10 to 10 for a field speed of {} m/s; \
+                 give a speed between {} and {} m/s",
+                num(*speed_m_s, 3),
+                num(*field_m_s, 3),
+                num(-9.0 * field_m_s, 3),
+                num(11.0 * field_m_s, 3)
+            ),
             SizingError::NoWholeTurns { exact, workable_v } => format!(
                 "no whole number of turns per coil fits this voltage: the nearest connection \
                  needs {} turns per coil (at least 1 and at most {}); line voltages from {} V \
@@ -119,6 +136,11 @@ fn checked_row(t: &mut Table, what: &str, c: &Checked, unit: &str, digits: usize
 /// The rated current in words: stamped, or from the power with what was assumed.
 pub fn rated_words(r: &Rated) -> String {
     match r {
+        Rated::ThrustModel { line_a, slip } => format!(
+            "{} A line current, the thrust model's at slip {}",
+            num(*line_a, 2),
+            num(*slip, 3)
+        ),
         Rated::Stamped { line_a } => format!("{} A line current (nameplate)", num(*line_a, 2)),
         Rated::FromPower {
             line_a,
@@ -290,6 +312,7 @@ fn candidates_table(z: &Sizing) -> Table {
         ("N_ph", Align::Right),
         ("flux given away %", Align::Right),
         ("A per conductor", Align::Right),
+        ("thrust N", Align::Right),
         ("wire", Align::Left),
     ]);
     for c in &z.candidates {
@@ -302,6 +325,7 @@ fn candidates_table(z: &Sizing) -> Table {
             num(c.series_turns, 1),
             num(c.flux_shortfall_percent, 2),
             c.conductor_current_a.map(|i| num(i, 2)).unwrap_or_default(),
+            c.thrust_n.map(|f| num(f, 1)).unwrap_or_default(),
             c.wire.map(|w| wire_words(&w)).unwrap_or_else(|| {
                 if c.conductor_current_a.is_some() {
                     "none fits".into()
@@ -365,16 +389,24 @@ impl Report for Sizing {
                 super::Say(&self.flux_set_by)
             )),
         ];
-        match &best.wire {
-            Some(w) => head.push(format!("wire: {}", wire_words(w))),
-            None if self.rated.is_some() => head.push(paragraph(
+        match (&best.wire, &self.fallback_wire) {
+            (Some(w), _) => head.push(format!("wire: {}", wire_words(w))),
+            (None, Some(w)) => head.push(paragraph(&format!(
                 "wire: no standard wire of at most 4 strands carries the current within the \
-                 current-density and fill limits; more paths or a larger slot would",
+                 current-density and fill limits; the largest that fits the slot is {} (a \
+                 larger slot, a lower current or more cooling would be needed)",
+                wire_words(w)
+            ))),
+            (None, None) if best.conductor_current_a.is_some() => head.push(paragraph(
+                "wire: no standard wire of at most 4 strands fits the slot at this current",
             )),
-            None => head.push(paragraph(
-                "wire: no rated current (nameplate current_a, or power_kw), so no wire is \
-                 sized",
+            (None, None) => head.push(paragraph(
+                "wire: no rated current (nameplate current_a, or power_kw; a flat primary's \
+                 --thrust-n), so no wire is sized",
             )),
+        }
+        if let Some(w) = &self.other_series_wire {
+            head.push(format!("or from the other wire series: {}", wire_words(w)));
         }
         let mut r = Vec::new();
         if let Some(x) = self.phase_resistance_20c_ohm {
@@ -390,6 +422,41 @@ impl Report for Sizing {
             head.push(format!("copper in the coils {} kg", num(m, 2)));
         }
         s.push(Section::Lines(head));
+        if let Some(t) = &self.thrust {
+            let p = &t.point;
+            let mut lines = vec![paragraph(&format!(
+                "thrust model at slip {} ({} m/s): {} N against {} N wanted; phase current {} A, \
+                 power factor {}{}; the plate turns {} W into heat{}",
+                num(p.slip, 4),
+                num(p.speed_m_s, 3),
+                num(p.thrust_n, 1),
+                num(t.wanted.thrust_n, 1),
+                num(p.current_a, 2),
+                num(p.power_factor, 3),
+                p.efficiency
+                    .map(|e| format!(", efficiency {}", num(e, 3)))
+                    .unwrap_or_default(),
+                num(t.plate_loss_w, 0),
+                t.plate_loss_w_m2
+                    .map(|q| format!(" ({} kW/m² of plate under the primary)", num(q * 1e-3, 2)))
+                    .unwrap_or_default()
+            ))];
+            if !t.met {
+                lines.insert(
+                    0,
+                    paragraph(&format!(
+                        "WARNING: the thrust model gives {} N at slip {}, short of the {} N \
+                         wanted: within its flux limits this core cannot give it at this \
+                         voltage and slip (a longer or wider primary, a better plate or a \
+                         smaller gap would)",
+                        num(p.thrust_n, 1),
+                        num(p.slip, 4),
+                        num(t.wanted.thrust_n, 1)
+                    )),
+                );
+            }
+            s.push(Section::Lines(lines));
+        }
         s.push(caution());
         s.push(Section::Heading("Loadings of the chosen winding".into()));
         s.push(Section::Table(loading_table(&self.loading)));
