@@ -22,7 +22,7 @@ fn plan_json_has_the_contract_fields() {
     assert_eq!(c["phase"], "U");
     assert_eq!(c["go"], 1);
     assert_eq!(c["back"], 8);
-    assert_eq!(c["turns"], 14);
+    assert_eq!(c["turns"], 58); // the layout's winding.turns_per_coil
     // k_w1 of 36 slots, 4 poles, span 7/9 = 0.902 (closed forms, Say 1983).
     let kw = v["winding_factor"].as_f64().expect("winding_factor");
     assert!((kw - 0.902).abs() < 5e-4);

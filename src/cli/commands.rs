@@ -215,6 +215,25 @@ impl LimitArgs {
     }
 }
 
+/// The same wire to a nanometre (a size written in millimetres reads back within rounding).
+fn same_wire(
+    a: Option<&beltwright::design::WireSpec>,
+    b: Option<&beltwright::design::WireSpec>,
+) -> bool {
+    use beltwright::design::WireSize;
+    match (a, b) {
+        (None, None) => true,
+        (Some(a), Some(b)) => {
+            let size = match (a.size, b.size) {
+                (WireSize::Diameter(x), WireSize::Diameter(y)) => (x - y).abs() <= 1e-9,
+                (x, y) => x == y,
+            };
+            size && a.strands_in_hand == b.strands_in_hand && a.material == b.material
+        }
+        _ => false,
+    }
+}
+
 /// `beltwright size`: size the bare core, present the sizing, and write the sized layout
 /// (the input's text with the winding's keys set) when asked, after checking that it reads
 /// back as the same winding.
@@ -244,7 +263,7 @@ fn run_size(a: SizeArgs) -> Result<Printed, Failure> {
             || back.design.parallel_paths != sizing.chosen.parallel_paths
             || back.design.connection != sizing.chosen.connection
             || back.design.pitch != sizing.chosen.pitch
-            || back.design.wire != sizing.chosen.wire
+            || !same_wire(back.design.wire.as_ref(), sizing.chosen.wire.as_ref())
         {
             return Err(Failure::output(
                 "the sized layout reads back as a different winding; nothing was written"

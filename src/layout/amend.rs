@@ -21,6 +21,10 @@ pub fn amend(source: &str, d: &Design) -> Result<String, toml_edit::TomlError> {
     winding["turns_per_coil"] = value(d.turns_per_coil as i64);
     winding["parallel_paths"] = value(d.parallel_paths as i64);
     winding["connection"] = value(d.connection.to_string());
+    // A phase resistance stands in for a [wire] table; the parser takes one or the other.
+    if d.wire.is_some() {
+        winding.remove("phase_resistance_ohm");
+    }
     doc.insert("winding", Item::Table(winding));
 
     let mut supply = take(&mut doc, "supply");
@@ -65,7 +69,9 @@ fn take(doc: &mut DocumentMut, key: &str) -> Table {
         .unwrap_or_default()
 }
 
-/// A size in millimetres to the micrometre, so 0.85 is written 0.85 and not 0.8500000000000001.
+/// A size in millimetres written as a person would (0.85, not 0.8500000000000001) when that
+/// is the same size to a nanometre; otherwise as it is.
 fn round_mm(x: f64) -> f64 {
-    (x * 1e3).round() / 1e3
+    let r = (x * 1e3).round() / 1e3;
+    if (r - x).abs() <= 1e-6 { r } else { x }
 }

@@ -618,6 +618,8 @@ impl RawLayout {
         core.yoke_depth_m = sections.yoke_depth;
         core.tooth_width_m = sections.tooth_width;
         core.slot_depth_m = sections.slot_depth;
+        core.slot_width_m = sections.slot_width;
+        core.slot_bottom_width_m = sections.slot_width_bottom;
         core.stacking_factor = c.within("core", "stacking_factor", k.stacking_factor, 0.5, 1.0)?;
         Ok(core)
     }
@@ -635,20 +637,7 @@ impl RawLayout {
             let area = c.within("core", "slot_area_mm2", k.slot_area_mm2, 0.01, 1e6)?;
             d.core = self.iron(c, &d)?;
             let core = d.core;
-            let width = mm(c.within("core", "slot_width_mm", k.slot_width_mm, 0.1, 1000.0)?);
-            let (bore_w, bottom_w) = match (width, core.tooth_width_m, d.slot_pitch_m()) {
-                (Some(b), _, _) => (Some(b), Some(b)),
-                (None, Some(t), Some(p)) => {
-                    let bottom = match (d.topology, core.bore_m, core.slot_depth_m) {
-                        (Topology::Rotary, Some(dia), Some(h)) => {
-                            std::f64::consts::PI * (dia + 2.0 * h) / d.slots as f64 - t
-                        }
-                        _ => p - t,
-                    };
-                    (Some(p - t), Some(bottom))
-                }
-                _ => (None, None),
-            };
+            let (bore_w, bottom_w) = (core.slot_width_m, core.slot_bottom_width_m);
             // The slot's size: a rectangle, or for parallel-sided teeth a trapezoid taken
             // at its mean width. The usable area for the wire is `slot_area_mm2` when given,
             // else the slot's own area.
@@ -657,7 +646,13 @@ impl RawLayout {
                 _ => None,
             };
             d.slot_size_m = size;
-            d.slot_area_m2 = area.map(|a| a * 1e-6).or(size.map(|(b, h)| b * h));
+            // A slot given by its width and depth is the usable rectangle, as it always was;
+            // a slot left by parallel-sided teeth is the iron's, less liner and wedge.
+            let usable = match k.slot_width_mm {
+                Some(_) => size.map(|(b, h)| b * h),
+                None => size.and_then(|(b, h)| crate::iron::usable_area(b, h)),
+            };
+            d.slot_area_m2 = area.map(|a| a * 1e-6).or(usable);
             let rule = TurnRule::default();
             d.turn = TurnRule {
                 mean_turn_m: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
@@ -1157,6 +1152,22 @@ fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
                  is {} mm, so tooth and slot must each be narrower than that",
                 key(from[1]),
                 n(*tooth_m),
+                n(*slot_pitch_m)
+            ),
+        ),
+        GeometryError::NoSlot {
+            tooth_m,
+            slot_pitch_m,
+            pitch_from,
+        } => c.err(
+            "core",
+            0,
+            "tooth_width_mm",
+            format!(
+                "{} mm leaves no slot: with core.{} the slot pitch at the bore is {} mm, so the \
+                 tooth must be narrower than that",
+                n(*tooth_m),
+                key(*pitch_from),
                 n(*slot_pitch_m)
             ),
         ),

@@ -120,6 +120,13 @@ pub struct Core {
     /// Slot depth from the gap to the slot bottom, metres.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub slot_depth_m: Option<f64>,
+    /// Slot width at the bore (given, or the slot pitch less the tooth), metres.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub slot_width_m: Option<f64>,
+    /// Slot width at the slot bottom (wider than at the bore behind parallel-sided teeth),
+    /// metres.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub slot_bottom_width_m: Option<f64>,
     /// Steel over stack length; [`crate::iron::DEFAULT_STACKING_FACTOR`] when not given.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stacking_factor: Option<f64>,

@@ -25,6 +25,21 @@ pub const GEOMETRY_TOLERANCE: f64 = 0.02;
 /// Absolute part of [`GEOMETRY_TOLERANCE`], metres.
 pub const GEOMETRY_TOLERANCE_M: f64 = 0.2e-3;
 
+/// Slot liner thickness taken off each side and the bottom of a slot for its usable area,
+/// metres: 0.3 mm (common practice for low-voltage random windings, from memory).
+pub const LINER_M: f64 = 0.3e-3;
+
+/// Depth at the slot's mouth taken by the tooth tips, the wedge or top stick, metres:
+/// 2 mm (common practice, from memory).
+pub const WEDGE_M: f64 = 2.0e-3;
+
+/// The area a slot of mean width `b` and depth `h` (m) leaves for the wire once the liner
+/// and wedge are in: (b − 2·liner)·(h − liner − wedge), m²; `None` when nothing is left.
+pub fn usable_area(b: f64, h: f64) -> Option<f64> {
+    let (w, d) = (b - 2.0 * LINER_M, h - LINER_M - WEDGE_M);
+    (w > 0.0 && d > 0.0).then_some(w * d)
+}
+
 /// The sizes of a core as measured, metres; any may be missing.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct Measured {
@@ -75,6 +90,16 @@ pub enum GeometryError {
         tooth_m: f64,
         /// The slot pitch at the bore, m.
         slot_pitch_m: f64,
+    },
+    /// A tooth as wide as the slot pitch or wider leaves no slot.
+    #[error("tooth {tooth_m} m leaves no slot (slot pitch {slot_pitch_m} m)")]
+    NoSlot {
+        /// The tooth width given, m.
+        tooth_m: f64,
+        /// The slot pitch at the bore, m.
+        slot_pitch_m: f64,
+        /// The size the slot pitch comes from.
+        pitch_from: Size,
     },
     /// Tooth and slot widths given together do not add up to the slot pitch.
     #[error("tooth {tooth_m} m + slot {slot_m} m is not the slot pitch {slot_pitch_m} m")]
@@ -170,13 +195,13 @@ pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Section
             slot_pitch_m: p,
         });
     }
-    if let (Some(b), Some(p)) = (slot, slot_pitch)
+    if let (Some(b), Some(p), Some(t)) = (slot, slot_pitch, m.tooth_width)
         && b <= 0.0
     {
-        return Err(GeometryError::NoTooth {
-            from: [Size::ToothWidth, pitch_key],
-            tooth_m: p,
+        return Err(GeometryError::NoSlot {
+            tooth_m: t,
             slot_pitch_m: p,
+            pitch_from: pitch_key,
         });
     }
 

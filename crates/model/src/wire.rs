@@ -201,6 +201,13 @@ pub fn standard_choices(area_m2: f64, max_strands: u32, awg: bool) -> Vec<Standa
         .collect()
 }
 
+/// Fill of a slot of usable area `area` (m²) by `wires` round wires of overall diameter
+/// `d` (m): the wires' circle areas over the area (the one fill rule of the card, the
+/// loadings and the sizing; common practice of random-wound shops).
+pub fn slot_fill(wires: f64, d: f64, area: f64) -> f64 {
+    wires * circle_area(d) / area
+}
+
 /// Area of a round conductor of diameter `d`, π·d²/4, in the square of `d`'s unit: the one
 /// rule for every wire, strand and option the tool sizes.
 pub fn circle_area(d: f64) -> f64 {

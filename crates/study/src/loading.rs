@@ -48,6 +48,13 @@ pub struct Limits {
     pub heat_transfer_w_m2k: f64,
 }
 
+/// Default peak gap flux density limit, T (see [`Limits::default`]).
+pub const GAP_LIMIT_T: f64 = 0.85;
+/// Default peak tooth flux density limit, T.
+pub const TOOTH_LIMIT_T: f64 = 1.8;
+/// Default peak back-iron flux density limit, T.
+pub const YOKE_LIMIT_T: f64 = 1.6;
+
 impl Default for Limits {
     /// Gap 0.85 T, teeth 1.8 T, back iron 1.6 T: within the ranges Pyrhönen et al. 2014,
     /// Table 6.2, give for induction machines (gap 0.7–0.9 T, teeth 1.4–2.1 T, stator yoke
@@ -55,9 +62,9 @@ impl Default for Limits {
     /// (common practice). Current density and fill are the card's limits.
     fn default() -> Self {
         Limits {
-            gap_t: 0.85,
-            tooth_t: 1.8,
-            yoke_t: 1.6,
+            gap_t: GAP_LIMIT_T,
+            tooth_t: TOOTH_LIMIT_T,
+            yoke_t: YOKE_LIMIT_T,
             current_density_a_mm2: card::CURRENT_DENSITY_LIMIT_A_MM2,
             slot_fill: card::FILL_LIMIT,
             heat_transfer_w_m2k: HEAT_TRANSFER_W_M2K,
@@ -220,7 +227,8 @@ pub struct Electric {
     pub electric_loading_a_m: f64,
     /// Current density, when the wire is known.
     pub current_density_a_mm2: Option<Checked>,
-    /// Product A·J, A²/m³ ·10⁻⁹ (A/m × A/mm² / 10³), a measure of the winding's heating.
+    /// Heat load A·J in (A/mm)·(A/mm²) (the electric loading in A/mm times the current
+    /// density), the product a winding's heating follows.
     pub heat_load: Option<f64>,
 }
 
@@ -313,6 +321,37 @@ pub struct Loading {
     pub warnings: Vec<LoadingWarning>,
 }
 
+/// The line voltage and frequency a winding's loadings are taken at: the supply's, else the
+/// nameplate's. A dual-voltage winding (9 or 12 leads, two voltages stamped) is planned with
+/// its sections in parallel, so at the lower voltage whatever the supply says (the card's
+/// convention; it warns when the supply is the higher one).
+pub fn supply_of(d: &crate::design::Design) -> (Option<f64>, Option<f64>) {
+    let plate = d.nameplate.as_ref();
+    let dual = plate
+        .filter(|n| d.leads.count >= 9 && n.voltages_v.len() == 2)
+        .and_then(|n| n.voltages_v.iter().copied().reduce(f64::min));
+    let line = dual
+        .or(d.supply.line_voltage_v)
+        .or_else(|| plate.and_then(|n| n.voltages_v.first().copied()));
+    let f = d
+        .supply
+        .frequency_hz
+        .or_else(|| plate.and_then(|n| n.frequency_hz));
+    (line, f)
+}
+
+/// The phase with the fewest effective series turns N_ph·k_w1 (the highest flux per pole;
+/// every phase of a balanced winding alike), with its N_ph and k_w1.
+pub fn weakest_phase(w: &Winding) -> (f64, f64) {
+    (0..w.geometry.phases)
+        .map(|p| {
+            let kw = factors::factors_at(w, p, crate::winding::Elec::FUNDAMENTAL).winding;
+            (w.series_turns(p), kw)
+        })
+        .min_by(|a, b| (a.0 * a.1).total_cmp(&(b.0 * b.1)))
+        .unwrap_or((0.0, 0.0))
+}
+
 /// Flux per pole Φ = E/(√2·π·f·N·k_w1), Wb, for phase EMF `e` (V), frequency `f` (Hz) and
 /// effective series turns `n_kw` = N_ph·k_w1: the EMF equation, the one place it is written.
 pub fn flux_per_pole(e: f64, f: f64, n_kw: f64) -> f64 {
@@ -329,14 +368,9 @@ pub fn gap_peak(phi: f64, tau: f64, l: f64) -> f64 {
 /// `emf_ratio` times the phase voltage (1 at no load, where the flux is highest).
 pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic, LoadingError> {
     let d = &w.design;
-    let line = d
-        .supply
-        .line_voltage_v
-        .ok_or(LoadingError::Missing(Input::LineVoltage))?;
-    let f = d
-        .supply
-        .frequency_hz
-        .ok_or(LoadingError::Missing(Input::Frequency))?;
+    let (line, f) = supply_of(d);
+    let line = line.ok_or(LoadingError::Missing(Input::LineVoltage))?;
+    let f = f.ok_or(LoadingError::Missing(Input::Frequency))?;
     let tau = w
         .pole_pitch_m()
         .ok_or(LoadingError::Missing(Input::SlotPitch))?;
@@ -344,8 +378,7 @@ pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic
         .slot_pitch_m()
         .ok_or(LoadingError::Missing(Input::SlotPitch))?;
     let l = d.core.stack_m.ok_or(LoadingError::Missing(Input::Stack))?;
-    let n = w.series_turns(0);
-    let kw = factors::fundamental(w).winding;
+    let (n, kw) = weakest_phase(w);
     if n <= 0.0 || kw <= 1e-9 {
         return Err(LoadingError::NoTurns);
     }
@@ -419,7 +452,7 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
         conductors_per_slot: z,
         electric_loading_a_m: a,
         current_density_a_mm2: j,
-        heat_load: j.map(|j| a * j.value * 1e-3 * 1e-6 * 1e3),
+        heat_load: j.map(|j| a * 1e-3 * j.value),
     })
 }
 
@@ -529,7 +562,7 @@ pub fn slot_fill(w: &Winding, limits: &Limits) -> Option<Checked> {
     let area = w.design.slot_area_m2?;
     let wires = conductors_per_slot(w) as f64 * wire.strands_in_hand as f64;
     Some(Checked {
-        value: wires * crate::wire::circle_area(wire.insulated_diameter_mm * 1e-3) / area,
+        value: crate::wire::slot_fill(wires, wire.insulated_diameter_mm * 1e-3, area),
         limit: limits.slot_fill,
     })
 }

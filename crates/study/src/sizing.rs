@@ -9,14 +9,18 @@
 //! Series turns follow from the EMF equation, N_ph = k_E·V_ph/(√2·π·f·k_w1·Φ) (Say 1983,
 //! §4.3), turns per coil from N_ph = coils per phase × turns per coil / paths, rounded up to
 //! a whole turn so no density passes its limit. Every connection (star, delta) and path
-//! count the winding allows is tried; they are ranked by how much flux the rounding gives
-//! away (least first), then by whether a standard wire of at most four strands carries the
-//! current within the current-density and fill limits, then by fewer paths. The chosen
+//! count the winding allows is tried (two paths for a 9- or 12-lead winding, sized at its
+//! lower voltage); they are ranked: a flat primary's thrust reached first, then a standard
+//! wire of at most four strands that carries the current within the current-density and
+//! fill limits, then turns within 5 % of the flux asked, then the nameplate's connection,
+//! then fewer paths, then the least flux given away. The layout's own connection and paths
+//! are not constraints. A flat primary sized for a thrust takes the most turns that still
+//! give it (the least flux and current), with the largest wire that fits its slot. The chosen
 //! winding's loadings, resistance and copper mass come from [`crate::loading`] and the card:
 //! the sizing owns none of those figures.
 
 use serde::Serialize;
-use std::f64::consts::{PI, SQRT_2};
+use std::f64::consts::PI;
 
 use crate::design::{Connection, Design, Insulation, Material, WireSize, WireSpec};
 use crate::loading::{self, Limits, Loading, Rated};
@@ -98,6 +102,9 @@ pub enum SizingError {
     /// A figure the sizing needs is missing.
     #[error("missing {0:?}")]
     Missing(Input),
+    /// Sizing is for three-phase windings (the star/delta and power relations are).
+    #[error("sizing is for three-phase windings")]
+    NotThreePhase(usize),
     /// A thrust was asked of a rotary core.
     #[error("a thrust target is for flat primaries")]
     ThrustNotLinear,
@@ -225,20 +232,13 @@ pub struct Sizing {
     pub chosen: Design,
 }
 
-/// The line voltage and frequency to size for: the supply's, else the nameplate's.
+/// The line voltage and frequency to size for: [`loading::supply_of`], the loadings' rule.
 fn supply(d: &Design) -> Result<(f64, f64), SizingError> {
-    let plate = d.nameplate.as_ref();
-    let v = d
-        .supply
-        .line_voltage_v
-        .or_else(|| plate.and_then(|n| n.voltages_v.first().copied()))
-        .ok_or(SizingError::Missing(Input::LineVoltage))?;
-    let f = d
-        .supply
-        .frequency_hz
-        .or_else(|| plate.and_then(|n| n.frequency_hz))
-        .ok_or(SizingError::Missing(Input::Frequency))?;
-    Ok((v, f))
+    let (v, f) = loading::supply_of(d);
+    Ok((
+        v.ok_or(SizingError::Missing(Input::LineVoltage))?,
+        f.ok_or(SizingError::Missing(Input::Frequency))?,
+    ))
 }
 
 /// The flux per pole the core carries within `limits`, and the part that sets it.
@@ -289,7 +289,7 @@ pub fn wire_for(w: &Winding, i: f64, limits: &Limits, awg: bool) -> Option<WireC
         let over = wires::grade_overall_diameter_m(d * 1e-3, 2);
         w.design
             .slot_area_m2
-            .map(|a| z * s as f64 * circle_area(over) / a)
+            .map(|a| wires::slot_fill(z * s as f64, over, a))
     };
     (1..=MAX_STRANDS).find_map(|s| {
         let carries = |d: f64| s as f64 * circle_area(d) >= need_mm2 * (1.0 - 1e-12);
@@ -324,8 +324,8 @@ fn largest_fitting(w: &Winding, limits: &Limits, awg: bool) -> Option<WireChoice
     wire_for(w, 1e-9, &loose, awg)
 }
 
-/// The layout's wire table for a chosen wire (grade 2 enamel, copper).
-fn spec_of(c: &WireChoice) -> WireSpec {
+/// The layout's wire table for a chosen wire (grade 2 enamel, in `material`).
+fn spec_of(c: &WireChoice, material: Material) -> WireSpec {
     WireSpec {
         size: match c.awg {
             Some(n) => WireSize::Awg(n),
@@ -333,7 +333,7 @@ fn spec_of(c: &WireChoice) -> WireSpec {
         },
         strands_in_hand: c.strands_in_hand,
         insulation: Insulation::Grade(2),
-        material: Material::Copper,
+        material,
     }
 }
 
@@ -414,6 +414,9 @@ fn operating_point(w: &Winding, s: f64) -> Option<crate::thrust::Row> {
 pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     crate::runs::count(crate::runs::Analysis::Sizing);
     let base = &spec.design;
+    if base.phases != 3 {
+        return Err(SizingError::NotThreePhase(base.phases));
+    }
     let (line_v, f) = supply(base)?;
     let build = |d: Design| {
         winding::build(&Spec {
@@ -485,6 +488,8 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     };
     let kw = crate::factors::fundamental(&w1).winding;
     let rated = loading::rated_current(base.nameplate.as_ref(), Some(line_v));
+    // The layout's conductor metal, copper when it gives none.
+    let material = base.wire.map_or(Material::Copper, |w| w.material);
 
     let mut candidates = Vec::new();
     let mut nearest: Option<(f64, f64)> = None;
@@ -506,7 +511,8 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
                 continue;
             }
             let v_ph = connection.phase_voltage(line_v);
-            let n_exact = req.emf_ratio * v_ph / (SQRT_2 * PI * f * kw * phi);
+            // N_ph·k_w1 = E/(√2·π·f·Φ): the EMF equation solved for the turns.
+            let n_exact = loading::flux_per_pole(req.emf_ratio * v_ph, f, phi) / kw;
             let exact = n_exact / per_turn;
             // Distance from a usable whole number, kept for the refusal.
             let off = if exact < 0.5 {
@@ -541,7 +547,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
                     Some(_) => match largest_fitting(&bare, &req.limits, req.awg) {
                         Some(c) => Winding {
                             design: Design {
-                                wire: Some(spec_of(&c)),
+                                wire: Some(spec_of(&c, material)),
                                 ..bare.design.clone()
                             },
                             ..bare
@@ -631,7 +637,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         }
         _ => None,
     };
-    let wire = best.wire.or(fallback_wire).map(|c| spec_of(&c));
+    let wire = best.wire.or(fallback_wire).map(|c| spec_of(&c, material));
     let chosen = Design {
         connection: best.connection,
         parallel_paths: best.parallel_paths,

@@ -37,6 +37,10 @@ impl Words for SizingError {
         match self {
             SizingError::Missing(i) => format!("sizing needs {}", key_of(*i)),
             SizingError::NoWinding(why) => format!("no winding can be built on this core: {why}"),
+            SizingError::NotThreePhase(m) => format!(
+                "sizing is for three-phase windings; this core is laid out for {m} phases \
+                 (machine.phases)"
+            ),
             SizingError::ThrustNotLinear => {
                 "--thrust-n sizes a flat primary (topology = \"linear\"); a rotary core is \
                  sized by its flux densities alone"

@@ -472,16 +472,11 @@ pub fn card(w: &Winding) -> DataCard {
 
     // Wires in the fullest slot: turns × strands of every coil side in it.
     let strands = wire.as_ref().map_or(1, |x| x.strands_in_hand) as u64;
-    let mut per_slot = vec![0u64; g.slots];
-    for c in &w.coils {
-        per_slot[c.go] += c.turns as u64 * strands;
-        per_slot[c.back] += c.turns as u64 * strands;
-    }
-    let wires_per_slot = per_slot.iter().copied().max().unwrap_or(0);
+    let wires_per_slot = crate::loading::conductors_per_slot(w) * strands;
     let (fill, copper_fill) = match (&wire, w.design.slot_area_m2) {
         (Some(wr), Some(area)) => {
             let d = wr.insulated_diameter_mm * 1e-3;
-            let ins = wires_per_slot as f64 * crate::wire::circle_area(d) / area;
+            let ins = crate::wire::slot_fill(wires_per_slot as f64, d, area);
             let cu = wires_per_slot as f64 * wr.area_mm2 * 1e-6 / area;
             (Some(ins), Some(cu))
         }
