@@ -32,7 +32,7 @@ mirror!(
 );
 mirror!(
     /// Which sheet to draw.
-    SheetArg => beltwright::draw::Sheet { Slots, Connections, Star, Field, Card, Thrust }
+    SheetArg => beltwright::draw::Sheet { Slots, Connections, Star, Field, Card, Thrust, Section }
 );
 mirror!(
     /// Paper size.
@@ -336,23 +336,23 @@ pub struct AuditArgs {
 #[derive(Args)]
 pub struct LimitArgs {
     /// Peak air-gap flux density limit, T.
-    #[arg(long = "gap-t", default_value = "0.85", value_parser = flags::gap_t)]
+    #[arg(long = "gap-t", default_value_t = beltwright::loading::GAP_LIMIT_T, value_parser = flags::gap_t)]
     pub gap_t: f64,
     /// Peak tooth flux density limit at the narrowest section, T.
-    #[arg(long = "tooth-t", default_value = "1.8", value_parser = flags::iron_t)]
+    #[arg(long = "tooth-t", default_value_t = beltwright::loading::TOOTH_LIMIT_T, value_parser = flags::iron_t)]
     pub tooth_t: f64,
     /// Peak back-iron flux density limit, T.
-    #[arg(long = "yoke-t", default_value = "1.6", value_parser = flags::iron_t)]
+    #[arg(long = "yoke-t", default_value_t = beltwright::loading::YOKE_LIMIT_T, value_parser = flags::iron_t)]
     pub yoke_t: f64,
     /// Current density limit, A/mm².
-    #[arg(long = "current-density", default_value = "6", value_parser = flags::current_density)]
+    #[arg(long = "current-density", default_value_t = beltwright::card::CURRENT_DENSITY_LIMIT_A_MM2, value_parser = flags::current_density)]
     pub current_density: f64,
     /// Slot fill limit by insulated wire, a fraction.
-    #[arg(long, default_value = "0.75", value_parser = flags::fill)]
+    #[arg(long, default_value_t = beltwright::card::FILL_LIMIT, value_parser = flags::fill)]
     pub fill: f64,
     /// Heat-transfer coefficient for the temperature-rise estimate, W/(m²·K), referred to the
-    /// core's outside surface (a flat primary's back); default 80, an estimate.
-    #[arg(long = "heat-transfer", default_value = "80", value_parser = flags::heat_transfer)]
+    /// core's outside surface (a flat primary's back); the default is an estimate.
+    #[arg(long = "heat-transfer", default_value_t = beltwright::loading::HEAT_TRANSFER_W_M2K, value_parser = flags::heat_transfer)]
     pub heat_transfer: f64,
     /// EMF over phase voltage (1: no load, the highest flux; about 0.95 to 0.98 at full load).
     #[arg(long = "emf-ratio", default_value = "1", value_parser = flags::emf_ratio)]

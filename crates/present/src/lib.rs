@@ -2,7 +2,7 @@
 //! ([`output`]), as the shop's sheets in SVG, PDF and PNG ([`draw`]) and as one HTML page.
 //! Presenters read reports; they run no analysis of their own.
 
-use beltwright_model::{design, numbering, sanitize, spec, winding};
+use beltwright_model::{design, iron, numbering, sanitize, spec, winding};
 use beltwright_study::{
     assumption, audit, card, factors, field, header, inductance, linear, loading, pitch, plan,
     rewind, sizing, study, survey, thrust, warnings,

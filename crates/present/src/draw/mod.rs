@@ -17,6 +17,7 @@ pub mod export;
 pub mod field;
 pub mod page;
 pub mod palette;
+pub mod section;
 pub mod slots;
 pub mod span;
 pub mod star;
@@ -48,17 +49,20 @@ pub enum Sheet {
     Card,
     /// A flat primary's thrust, normal force and current against speed.
     Thrust,
+    /// The fullest slot to scale with its wires, the fill and the core's loadings.
+    Section,
 }
 
 impl Sheet {
     /// Every sheet, in the order a report prints them.
-    pub const ALL: [Sheet; 6] = [
+    pub const ALL: [Sheet; 7] = [
         Sheet::Slots,
         Sheet::Connections,
         Sheet::Star,
         Sheet::Field,
         Sheet::Card,
         Sheet::Thrust,
+        Sheet::Section,
     ];
 
     /// Whether the sheet has something to show for this winding (the performance sheet
@@ -66,6 +70,7 @@ impl Sheet {
     pub fn applies(self, s: &crate::study::Study) -> bool {
         match self {
             Sheet::Thrust => thrust::applies(s),
+            Sheet::Section => section::applies(s),
             _ => true,
         }
     }
@@ -81,6 +86,7 @@ impl Sheet {
             Sheet::Field => "field",
             Sheet::Card => "card",
             Sheet::Thrust => "thrust",
+            Sheet::Section => "section",
         }
     }
 }
@@ -95,5 +101,6 @@ pub fn draw(s: &crate::study::Study, sheet: Sheet, page: &Page) -> Vec<String> {
         Sheet::Field => vec![field::draw(s, page)],
         Sheet::Card => card::draw(s, page),
         Sheet::Thrust => vec![thrust::draw(s, page)],
+        Sheet::Section => vec![section::draw(s, page)],
     }
 }

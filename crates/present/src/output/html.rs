@@ -185,6 +185,10 @@ fn caption(sheet: Sheet) -> &'static str {
              backward waves."
         }
         Sheet::Card => "Data card: wire, copper, resistances, leads and acceptance figures.",
+        Sheet::Section => {
+            "Slot section: the fullest slot to scale with its liner, wedge and every wire, \
+             the fill and the core's loadings."
+        }
         Sheet::Thrust => {
             "Performance: thrust, normal force and phase current against speed, with and \
              without the end effect."
