@@ -245,7 +245,25 @@ proptest! {
         if let Ok(t) = beltwright::thrust::thrust(&w, &q) {
             prop_assert!(check(j(render(&t, Format::Json).expect("json"))));
         }
-
+        // The loadings of the winding, and a sizing of its bare core (with a flat primary's
+        // thrust target), on a core with teeth, back iron and a nameplate.
+        let cored = src.replace("stack_mm = 50.0", "stack_mm = 50.0\ntooth_width_mm = 5.0\nyoke_depth_mm = 12.0\nslot_depth_mm = 20.0")
+            + "[nameplate]\npower_kw = 1.5\n";
+        if let Ok(spec) = layout::parse(&cored, "c.toml") {
+            if let Ok(w) = winding::build(&spec) {
+                let l = beltwright::loading::report(&w, &Default::default(), 1.0);
+                if let Ok(l) = l {
+                    prop_assert!(check(j(render(&l, Format::Json).expect("json"))));
+                }
+            }
+            let req = beltwright::sizing::Request {
+                thrust: linear.then_some((20.0, beltwright::sizing::At::Slip(0.3))),
+                ..Default::default()
+            };
+            if let Ok(z) = beltwright::sizing::size(&spec, &req) {
+                prop_assert!(check(j(render(&z, Format::Json).expect("json"))));
+            }
+        }
     }
 }
 

@@ -76,6 +76,14 @@ fuzz_target!(|data: &[u8]| {
     );
     check("audit", &audit::audit(&w, None));
     check("card", &card::card(&w));
+    if let Ok(l) = beltwright::loading::report(&w, &Default::default(), 1.0) {
+        check("loading", &l);
+    }
+    if w.coils.len() <= 120
+        && let Ok(z) = beltwright::sizing::size(&spec, &Default::default())
+    {
+        check("size", &z);
+    }
     if let Ok(i) = inductance::inductance(&w, w.coils.len() <= 60) {
         check("inductance", &i);
     }
