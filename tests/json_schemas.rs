@@ -79,6 +79,23 @@ fn actual_output_validates_against_the_schemas() {
         &["layouts/pallet-shuttle.toml", "--slip", "-0.2..=1.2"],
     );
     validates("inductance", &["layouts/pallet-shuttle.toml", "--coils"]);
+    validates("loading", &["layouts/pump-rewind.toml"]);
+    validates("loading", &["layouts/pallet-shuttle.toml"]);
+    validates("size", &["layouts/stripped-core.toml"]);
+    validates(
+        "size",
+        &[
+            "layouts/pallet-shuttle.toml",
+            "--thrust-n",
+            "100",
+            "--at-slip",
+            "0.2",
+        ],
+    );
+    validates(
+        "rewind",
+        &["layouts/pump-rewind.toml", "layouts/pump-rewind.toml"],
+    );
 }
 
 // The validator itself rejects what it should (a negative control).

@@ -37,10 +37,15 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                 airgap_power_w: a.airgap_power_w,
             };
             let report = plan::plan(&w, op);
-            if let Some(dir) = &a.out {
-                write_pack(&w, &a.common.file, dir, &report)?;
+            match &a.out {
+                // The pack's sheets read the same plan: planned once.
+                Some(dir) => {
+                    let study = Study::with_plan(&w, report);
+                    write_pack(&study, &a.common.file, dir)?;
+                    Ok(present(study.plan().clone(), a.common.format))
+                }
+                None => Ok(present(report, a.common.format)),
             }
-            Ok(present(report, a.common.format))
         }
         Command::Draw(a) => {
             let kind = sheet_kind(&a.output)?;
@@ -653,12 +658,8 @@ fn wrote(paths: &[PathBuf]) -> String {
 }
 
 /// `plan --out DIR`: slot, connection and data-card sheets (SVG and PDF) and the plan JSON.
-fn write_pack(
-    w: &Winding,
-    input: &Path,
-    dir: &Path,
-    report: &plan::PlanReport,
-) -> Result<(), Failure> {
+fn write_pack(study: &Study, input: &Path, dir: &Path) -> Result<(), Failure> {
+    let report = study.plan();
     std::fs::create_dir_all(dir).map_err(|e| {
         Failure::output(format!(
             "--out {}: cannot make the folder: {e}",
@@ -674,9 +675,8 @@ fn write_pack(
     // or not at all (a full disk leaves the folder as it was).
     let mut files: Vec<(PathBuf, Vec<u8>)> = Vec::new();
     let mut svg_sets: Vec<(PathBuf, usize)> = Vec::new();
-    let study = Study::new(w, None);
     for sheet in [Sheet::Slots, Sheet::Connections, Sheet::Card] {
-        let pages = draw::draw(&study, sheet, &page);
+        let pages = draw::draw(study, sheet, &page);
         for kind in [FileKind::Svg, FileKind::Pdf] {
             let ext = if kind == FileKind::Svg { "svg" } else { "pdf" };
             let path = dir.join(format!("{stem}-{}.{ext}", sheet.name()));

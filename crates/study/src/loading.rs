@@ -317,7 +317,9 @@ pub struct Loading {
     pub heating: Option<Heating>,
     /// The limits checked against.
     pub limits: Limits,
-    /// Every limit passed.
+    /// Every limit passed, as typed facts (`limits_passed` in the JSON; the commands'
+    /// `warnings` carry them with their words).
+    #[serde(rename = "limits_passed")]
     pub warnings: Vec<LoadingWarning>,
 }
 

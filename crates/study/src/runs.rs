@@ -46,23 +46,9 @@ impl Analysis {
         Analysis::Inductance,
         Analysis::Loading,
     ];
-
-    /// Every counted analysis.
-    pub const ALL: [Analysis; 11] = [
-        Analysis::Plan,
-        Analysis::Factors,
-        Analysis::Field,
-        Analysis::FieldSnapshots,
-        Analysis::Pitch,
-        Analysis::Audit,
-        Analysis::Card,
-        Analysis::Thrust,
-        Analysis::Inductance,
-        Analysis::Loading,
-        Analysis::Sizing,
-    ];
 }
 
+/// One counter per [`Analysis`] variant.
 static RUNS: [AtomicUsize; 11] = [const { AtomicUsize::new(0) }; 11];
 
 /// Count one run of `a`.

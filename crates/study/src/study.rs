@@ -77,7 +77,16 @@ impl<'w> Study<'w> {
         self.header.get_or_init(|| header::of(self.winding))
     }
 
-    /// The plan (no operating point).
+    /// A study whose plan is `plan`, already worked out (by `plan` for its own report, at
+    /// the user's slip): the shop pack's sheets read it instead of planning again.
+    pub fn with_plan(winding: &'w Winding, plan: PlanReport) -> Self {
+        let s = Study::new(winding, None);
+        // A fresh study's plan is empty, so the set cannot fail.
+        let _ = s.plan.set(plan);
+        s
+    }
+
+    /// The plan (no operating point, unless the study was made [`Study::with_plan`]).
     pub fn plan(&self) -> &PlanReport {
         self.plan
             .get_or_init(|| plan::plan(self.winding, Default::default()))

@@ -183,6 +183,19 @@ pub fn symmetrical_components(e: &[Complex64]) -> (Complex64, Complex64, Complex
     (f / m, b / m, z / m)
 }
 
+/// Smallest forward component, relative to the phasors' mean magnitude, that counts as a
+/// working EMF: below it a set is "no EMF", not balanced (rounding in the phasor sums stays
+/// near 1e-13, a real winding's forward wave is of the order of its phasors).
+pub const WORKING_FLOOR: f64 = 1e-9;
+
+/// True when the forward component `forward` (its magnitude) of phasors `e` is a working
+/// wave: above [`WORKING_FLOOR`] of their mean magnitude. The one "no EMF" rule of the
+/// balance test and the audit's search.
+pub fn has_working_wave(forward: f64, e: &[Complex64]) -> bool {
+    let scale: f64 = e.iter().map(|x| x.norm()).sum::<f64>().max(1e-300);
+    forward > WORKING_FLOOR * scale / e.len().max(1) as f64
+}
+
 /// True when `e` is a non-zero positive-sequence set: every phasor the forward component
 /// turned by −2πk/m, within [`BALANCE_TOL`] of the forward magnitude (r.m.s. over phases).
 pub fn is_positive_sequence(e: &[Complex64]) -> bool {
@@ -192,8 +205,7 @@ pub fn is_positive_sequence(e: &[Complex64]) -> bool {
     }
     let (f, _, _) = symmetrical_components(e);
     let fm = f.norm();
-    let scale: f64 = e.iter().map(|x| x.norm()).sum::<f64>().max(1e-300);
-    if fm <= 1e-9 * scale / m as f64 {
+    if !has_working_wave(fm, e) {
         return false;
     }
     let r2: f64 = e

@@ -384,12 +384,10 @@ struct Balance {
     beta: [C; MAX_PHASES],
     /// γ = Σ β_k u_k.
     gamma: C,
-    /// Smallest forward component that counts as a working winding.
-    floor: f64,
 }
 
 impl Balance {
-    fn new(m: usize, scale: f64) -> Self {
+    fn new(m: usize) -> Self {
         let mut u = [C::new(0.0, 0.0); MAX_PHASES];
         let mut beta = [C::new(0.0, 0.0); MAX_PHASES];
         let mut gamma = C::new(0.0, 0.0);
@@ -399,13 +397,7 @@ impl Balance {
             beta[k] = C::from_polar(1.0 + 0.37 * k as f64, 0.61 + 1.13 * k as f64);
             gamma += beta[k] * u[k];
         }
-        Balance {
-            m,
-            u,
-            beta,
-            gamma,
-            floor: 1e-9 * scale.max(1.0),
-        }
+        Balance { m, u, beta, gamma }
     }
 
     /// Forward component F = (1/m) Σ S_k conj(u_k).
@@ -428,7 +420,7 @@ impl Balance {
     fn ok(&self, s: &[C]) -> bool {
         let f = self.forward(s);
         let fm = f.norm();
-        if fm <= self.floor {
+        if !crate::winding::star::has_working_wave(fm, &s[..self.m]) {
             return false;
         }
         let r2: f64 = s
@@ -523,7 +515,7 @@ pub fn search(w: &Winding) -> Search {
         .map(|c| w.coil_emf(c, Elec::FUNDAMENTAL))
         .collect();
     let scale: f64 = emf.iter().map(|e| e.norm()).sum();
-    let bal = Balance::new(m, scale);
+    let bal = Balance::new(m);
     let mut s0 = State {
         e: [C::new(0.0, 0.0); MAX_PHASES],
         t: [0.0; MAX_PHASES],
