@@ -119,6 +119,11 @@ fn loadings_of_a_rotary_core_match_the_hand_calculation() {
     assert!(close(m.gap.peak_t, gap));
     assert!(close(m.tooth.unwrap().peak_t, tooth));
     assert!(close(m.yoke.unwrap().peak_t, yoke));
+    // Mean tooth density over a pole: Φ over the 9 teeth under a pole (36/4), each
+    // 0.95·5.4 mm × 110 mm of steel; the peak is π/2 of it for a sinusoidal gap field.
+    let mean = phi / (9.0 * 0.95 * 5.4e-3 * 0.110);
+    assert!(close(m.tooth_mean_t.unwrap(), mean));
+    assert!(close(m.tooth.unwrap().peak_t, mean * PI / 2.0));
     let e = l.electric.unwrap();
     assert!(close(e.rated.line_a(), line));
     assert!(close(e.current_density_a_mm2.unwrap().value, j));

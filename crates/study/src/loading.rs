@@ -206,6 +206,10 @@ pub struct Magnetic {
     pub gap: Density,
     /// Peak tooth flux density at the narrowest section, when the tooth width is known.
     pub tooth: Option<Density>,
+    /// Mean tooth flux density over a pole at the narrowest section, Φ/((Z/2p)·k_Fe·t·L),
+    /// T: the textbooks' "mean tooth density" (the peak is π/2 of it).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tooth_mean_t: Option<f64>,
     /// Peak back-iron flux density, when its depth is known.
     pub yoke: Option<Density>,
     /// Stacking factor used.
@@ -396,8 +400,13 @@ pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic
         peak_t: phi / (2.0 * k_fe * l * h),
         limit_t: limits.yoke_t,
     });
+    let tooth_mean_t = d
+        .core
+        .tooth_width_m
+        .map(|t| phi / (w.geometry.pole_pitch_slots * k_fe * t * l));
     Ok(Magnetic {
         emf_ratio,
+        tooth_mean_t,
         phase_emf_v: e,
         frequency_hz: f,
         series_turns: n,

@@ -192,6 +192,14 @@ pub fn loading_table(l: &Loading) -> Table {
     if let Some(d) = &m.tooth {
         density_row(&mut t, "teeth, peak at narrowest", d);
     }
+    if let Some(b) = m.tooth_mean_t {
+        t.push(vec![
+            "teeth, mean over a pole".into(),
+            format!("{} T", num(b, 3)),
+            String::new(),
+            String::new(),
+        ]);
+    }
     if let Some(d) = &m.yoke {
         density_row(&mut t, "back iron, peak", d);
     }
