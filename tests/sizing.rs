@@ -289,7 +289,7 @@ fn a_flat_primary_is_sized_like_a_rotary_core() {
                [core]\nslot_pitch_mm = 15.0\nstack_mm = 100.0\ntooth_width_mm = 8.0\n\
                yoke_depth_mm = 20.0\nslot_depth_mm = 40.0\n\
                [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
-               [nameplate]\ncurrent_a = 12.0\n";
+               [nameplate]\ncurrent_a = 8.0\n";
     let z = sizing::size(&spec(src), &Request::default()).unwrap();
     // Hand calculation of the flux each part carries at its default limit (0.85, 1.8, 1.6
     // T), with the plan's pole pitch τ: gap Φ = (2/π)·0.85·τ·L; teeth
@@ -417,7 +417,9 @@ fn temperature_rise_follows_its_stated_formula() {
     assert_eq!(h.rise_k.limit, 105.0); // class F, IEC 60034-1 (from memory)
     // Heat load A·J in (A/mm)·(A/mm²).
     let j = e.current_density_a_mm2.unwrap().value;
-    assert!((e.heat_load.unwrap() / (e.electric_loading_a_m * 1e-3 * j) - 1.0).abs() < 1e-12);
+    assert!(
+        (e.heat_load_a2_mm3.unwrap() / (e.electric_loading_a_m * 1e-3 * j) - 1.0).abs() < 1e-12
+    );
 }
 
 #[test]
@@ -461,4 +463,60 @@ fn a_sized_record_loses_its_old_coils_readings_and_phase_resistance() {
     assert!(!text.contains("phase_resistance_ohm"), "{text}");
     let back = wind(&text);
     assert!(back.design.wire.is_some());
+}
+
+#[test]
+fn a_six_lead_machine_for_two_voltages_root_three_apart_is_wound_delta_for_the_lower() {
+    // 230/400 V on six leads (IEC 60034-8 marking; delta on 230 V, star on 400 V: the
+    // phase voltage is 230 V either way, IEC 60050-141's √3 between line and phase).
+    let src = stripped("").replace("\nvoltage_v = 400\n", "\nvoltage_v = [230, 400]\n");
+    let z = sizing::size(&spec(&src), &Request::default()).unwrap();
+    assert_eq!(z.star_delta_pair_v, Some((230.0, 400.0)));
+    assert!(
+        z.candidates
+            .iter()
+            .all(|c| c.connection == beltwright::design::Connection::Delta)
+    );
+    assert!(z.candidates.iter().all(|c| c.phase_voltage_v == 230.0));
+}
+
+#[test]
+fn a_thrust_at_or_above_field_speed_and_a_bare_core_to_check_are_refused() {
+    let e = refused(&shuttle(), &["size", "--thrust-n", "60", "--at-speed", "8"]);
+    assert!(e.contains("field speed") && e.contains("below"), "{e}");
+    let e = refused(&shuttle(), &["size", "--thrust-n", "60", "--at-slip", "0"]);
+    assert!(e.contains("slip"), "{e}");
+    let e = refused(&stripped(""), &["loading"]);
+    assert!(e.contains("no turns") && e.contains("size"), "{e}");
+}
+
+#[test]
+fn the_sized_wire_goes_in_and_a_thrust_sized_primary_keeps_its_current() {
+    let z = sizing::size(&spec(&stripped("")), &Request::default()).unwrap();
+    let best = &z.candidates[0];
+    let text = beltwright::layout::amend(&stripped(""), &z.chosen).unwrap();
+    let w = wind(&text);
+    let wire = beltwright::wire::Wire::of(w.design.wire.as_ref().unwrap());
+    let p = beltwright::packing::of(&w, wire.insulated_diameter_mm * 1e-3, wire.strands_in_hand)
+        .unwrap();
+    assert!(p.fits(), "{} of {}", p.laid.len(), p.wanted);
+    assert_eq!(w.coils[0].turns, best.turns_per_coil);
+    // A flat primary sized for a thrust: the written layout's nameplate carries the model's
+    // current, so its loadings check the current density the sizing reported.
+    let req = Request {
+        thrust: Some((100.0, sizing::At::Slip(0.2))),
+        ..Request::default()
+    };
+    let z = sizing::size(&spec(&shuttle()), &req).unwrap();
+    let text = beltwright::layout::amend(&shuttle(), &z.chosen).unwrap();
+    let l = loading::of(&wind(&text), &Limits::default(), 1.0).unwrap();
+    let j = l.electric.unwrap().current_density_a_mm2.unwrap().value;
+    let j0 = z
+        .loading
+        .electric
+        .unwrap()
+        .current_density_a_mm2
+        .unwrap()
+        .value;
+    assert!((j / j0 - 1.0).abs() < 1e-3, "{j} {j0}");
 }

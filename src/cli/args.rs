@@ -373,10 +373,10 @@ pub struct SizeArgs {
     #[arg(long = "thrust-n", value_parser = flags::thrust, requires = "at")]
     pub thrust_n: Option<f64>,
     /// Slip at which the thrust is wanted.
-    #[arg(long = "at-slip", group = "at", allow_negative_numbers = true, value_parser = flags::slip)]
+    #[arg(long = "at-slip", group = "at", requires = "thrust_n", allow_negative_numbers = true, value_parser = flags::slip)]
     pub at_slip: Option<f64>,
     /// Secondary speed at which the thrust is wanted, m/s.
-    #[arg(long = "at-speed", group = "at", allow_negative_numbers = true, value_parser = flags::speed)]
+    #[arg(long = "at-speed", group = "at", requires = "thrust_n", allow_negative_numbers = true, value_parser = flags::speed)]
     pub at_speed: Option<f64>,
     /// Write the sized winding as a layout file (the input's text with the winding's keys
     /// set), which every command takes.

@@ -53,13 +53,31 @@ pub fn amend(source: &str, d: &Design) -> Result<String, toml_edit::TomlError> {
         doc["wire"] = Item::Table(t);
     }
 
+    // A rating the sizing set (a flat primary's current at its thrust point).
+    let mut rated = false;
+    if let Some(n) = &d.nameplate
+        && let ([i], [v]) = (n.currents_a.as_slice(), n.voltages_v.as_slice())
+    {
+        let mut plate = take(&mut doc, "nameplate");
+        if !plate.contains_key("current_a") {
+            plate["current_a"] = value((i * 1e3).round() / 1e3);
+            plate["voltage_v"] = value(*v);
+            rated = true;
+        }
+        doc.insert("nameplate", Item::Table(plate));
+    }
     let note = if removed {
         "# Winding keys, [supply] and [wire] set by `beltwright size`; the old record's\n\
          # [[coil]] list and [measured] readings were removed (they describe the old winding).\n"
     } else {
         "# Winding keys, [supply] and [wire] set by `beltwright size`.\n"
     };
-    Ok(format!("{note}{doc}"))
+    let rated_note = if rated {
+        "# nameplate.current_a is the thrust model's line current at the slip sized for.\n"
+    } else {
+        ""
+    };
+    Ok(format!("{note}{rated_note}{doc}"))
 }
 
 /// The table `key` taken out of `doc` (it keeps its place when put back), or a new one.

@@ -5,7 +5,7 @@
 //! The presenters (`beltwright-present`) put these reports into words, tables and sheets;
 //! this crate cannot see them.
 
-use beltwright_model::{design, numbering, spec, winding, wire};
+use beltwright_model::{design, iron, numbering, spec, winding, wire};
 
 pub mod assumption;
 pub mod audit;
@@ -17,6 +17,7 @@ pub mod inductance;
 pub mod leakage;
 pub mod linear;
 pub mod loading;
+pub mod packing;
 pub mod pitch;
 pub mod plan;
 pub mod rewind;

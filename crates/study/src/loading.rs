@@ -231,9 +231,9 @@ pub struct Electric {
     pub electric_loading_a_m: f64,
     /// Current density, when the wire is known.
     pub current_density_a_mm2: Option<Checked>,
-    /// Heat load A·J in (A/mm)·(A/mm²) (the electric loading in A/mm times the current
-    /// density), the product a winding's heating follows.
-    pub heat_load: Option<f64>,
+    /// Heat load A·J in (A/mm)·(A/mm²) = A²/mm³ (the electric loading in A/mm times the
+    /// current density), the product a winding's heating follows.
+    pub heat_load_a2_mm3: Option<f64>,
 }
 
 /// The temperature-rise estimate ([`heating`]).
@@ -266,6 +266,29 @@ pub enum LoadingError {
     /// The winding has no turns or no fundamental EMF in its first phase.
     #[error("no turns or no fundamental EMF")]
     NoTurns,
+    /// The layout gives no turns (one per coil is only assumed): a bare core is sized, not
+    /// checked.
+    #[error("no turns given")]
+    TurnsAssumed,
+}
+
+/// A loading that could not be checked, and what it needs.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "snake_case")]
+pub enum Unchecked {
+    /// The teeth: a tooth or slot width.
+    Teeth,
+    /// The back iron: its depth, or the outside diameter with the slot depth.
+    BackIron,
+    /// Electric loading, current density and temperature rise: a rated current (stamped,
+    /// or the rated power).
+    Current,
+    /// Current density and fill: the wire.
+    Wire,
+    /// Fill: the slot's area or sizes.
+    SlotArea,
+    /// Temperature rise: the outside diameter (rotary) and the stack.
+    CoolingSurface,
 }
 
 /// A limit passed (or a figure that could not be checked), as a typed fact.
@@ -321,6 +344,8 @@ pub struct Loading {
     pub heating: Option<Heating>,
     /// The limits checked against.
     pub limits: Limits,
+    /// What could not be checked, for want of a size or rating.
+    pub unchecked: Vec<Unchecked>,
     /// Every limit passed, as typed facts (`limits_passed` in the JSON; the commands'
     /// `warnings` carry them with their words).
     #[serde(rename = "limits_passed")]
@@ -463,7 +488,7 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
         conductors_per_slot: z,
         electric_loading_a_m: a,
         current_density_a_mm2: j,
-        heat_load: j.map(|j| a * 1e-3 * j.value),
+        heat_load_a2_mm3: j.map(|j| a * 1e-3 * j.value),
     })
 }
 
@@ -593,6 +618,9 @@ pub fn of_rated(
     rated: Option<Rated>,
 ) -> Result<Loading, LoadingError> {
     crate::runs::count(crate::runs::Analysis::Loading);
+    if w.design.turns_assumed && !w.from_coil_list {
+        return Err(LoadingError::TurnsAssumed);
+    }
     let magnetic = magnetic(w, limits, emf_ratio)?;
     let electric = electric(w, limits, rated);
     let heating = electric
@@ -621,12 +649,37 @@ pub fn of_rated(
     if let Some(rise) = heating.map(|h| h.rise_k).filter(Checked::passed) {
         warnings.push(LoadingWarning::RiseAbove { rise });
     }
+    let d = &w.design;
+    let mut unchecked = Vec::new();
+    if magnetic.tooth.is_none() {
+        unchecked.push(Unchecked::Teeth);
+    }
+    if magnetic.yoke.is_none() {
+        unchecked.push(Unchecked::BackIron);
+    }
+    if electric.is_none() {
+        unchecked.push(Unchecked::Current);
+    }
+    if d.wire.is_none() {
+        unchecked.push(Unchecked::Wire);
+    }
+    if d.slot_area_m2.is_none() {
+        unchecked.push(Unchecked::SlotArea);
+    }
+    if electric.is_some()
+        && heating.is_none()
+        && w.geometry.topology == Topology::Rotary
+        && d.core.outside_diameter_m.is_none()
+    {
+        unchecked.push(Unchecked::CoolingSurface);
+    }
     Ok(Loading {
         magnetic,
         electric,
         slot_fill,
         heating,
         limits: *limits,
+        unchecked,
         warnings,
     })
 }

@@ -111,6 +111,15 @@ pub enum SizingError {
     /// The thrust model cannot run on this primary (a missing plate, gap or supply).
     #[error("the thrust model cannot run: {0}")]
     Thrust(crate::thrust::ThrustError),
+    /// The thrust is asked at or above the field speed (slip 0 or below: no motoring
+    /// thrust) or against the field (slip above 1).
+    #[error("a thrust is asked at slip {slip}")]
+    SlipOutOfRange {
+        /// The slip asked (from the speed, when a speed was given).
+        slip: f64,
+        /// The field speed v_s, m/s, when known.
+        field_m_s: Option<f64>,
+    },
     /// The speed asked gives a slip outside the model's range.
     #[error("the speed asked gives a slip outside -10 to 10")]
     SpeedOutOfReach {
@@ -195,6 +204,10 @@ pub struct Sizing {
     pub span: usize,
     /// How the span was chosen.
     pub span_choice: SpanChoice,
+    /// A six-lead machine for two voltages √3 apart: (lower, higher), V. It is sized delta
+    /// at the lower voltage, which is star at the higher.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub star_delta_pair_v: Option<(f64, f64)>,
     /// Fundamental winding factor at that span.
     pub winding_factor: f64,
     /// Line voltage sized for, V.
@@ -293,7 +306,12 @@ pub fn wire_for(w: &Winding, i: f64, limits: &Limits, awg: bool) -> Option<WireC
     };
     (1..=MAX_STRANDS).find_map(|s| {
         let carries = |d: f64| s as f64 * circle_area(d) >= need_mm2 * (1.0 - 1e-12);
-        let fits = |d: f64| fill_of(s, d).is_none_or(|f| f <= limits.slot_fill);
+        // Within the fill limit, and laid in rows it goes in (the section sheet's rule).
+        let fits = |d: f64| {
+            fill_of(s, d).is_none_or(|f| f <= limits.slot_fill)
+                && crate::packing::of(w, wires::grade_overall_diameter_m(d * 1e-3, 2), s)
+                    .is_none_or(|p| p.fits())
+        };
         let usable = sizes
             .iter()
             .copied()
@@ -340,6 +358,18 @@ fn spec_of(c: &WireChoice, material: Material) -> WireSpec {
 /// Flux the rounding of turns may give away and still count as on target, per cent: 5
 /// (common practice, from memory: a rewind within 5 % of the design's turns is accepted).
 pub const SHORTFALL_TOLERANCE_PERCENT: f64 = 5.0;
+
+/// The two voltages of a six-lead machine stamped for delta on the lower and star on the
+/// higher (their ratio within 3 % of √3), lower first.
+pub fn star_delta_pair(d: &Design) -> Option<(f64, f64)> {
+    let n = d.nameplate.as_ref()?;
+    if d.leads.count >= 9 || n.voltages_v.len() != 2 {
+        return None;
+    }
+    let lo = n.voltages_v.iter().copied().reduce(f64::min)?;
+    let hi = n.voltages_v.iter().copied().reduce(f64::max)?;
+    ((hi / lo / crate::design::SQRT_3 - 1.0).abs() <= 0.03).then_some((lo, hi))
+}
 
 /// The connection stamped on a plate, when it names one: "D", "delta", "Δ" or "Y", "star".
 fn stamped_connection(d: &Design) -> Option<Connection> {
@@ -418,6 +448,11 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         return Err(SizingError::NotThreePhase(base.phases));
     }
     let (line_v, f) = supply(base)?;
+    // A six-lead machine stamped with two voltages √3 apart (230/400 V) runs delta on the
+    // lower and star on the higher: either way its phases see the lower voltage, so it is
+    // sized delta at the lower voltage, never star at it.
+    let star_delta = star_delta_pair(base);
+    let line_v = star_delta.map_or(line_v, |(lo, _)| lo);
     let build = |d: Design| {
         winding::build(&Spec {
             labels: spec.labels.clone(),
@@ -471,6 +506,13 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
                     s
                 }
             };
+            if !(slip > 0.0 && slip <= 1.0) {
+                return Err(SizingError::SlipOutOfRange {
+                    slip,
+                    field_m_s: crate::linear::figures(&w1, Default::default())
+                        .synchronous_speed_m_s,
+                });
+            }
             // The model's own refusal (no plate, gap or supply) before any sizing.
             crate::thrust::thrust(
                 &w1,
@@ -493,7 +535,12 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
 
     let mut candidates = Vec::new();
     let mut nearest: Option<(f64, f64)> = None;
-    for connection in [Connection::Star, Connection::Delta] {
+    let connections: &[Connection] = if star_delta.is_some() {
+        &[Connection::Delta]
+    } else {
+        &[Connection::Star, Connection::Delta]
+    };
+    for &connection in connections {
         for paths in 1..=w1.geometry.poles.max(1) {
             let Ok(w) = build(Design {
                 connection,
@@ -638,11 +685,22 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         _ => None,
     };
     let wire = best.wire.or(fallback_wire).map(|c| spec_of(&c, material));
+    // A flat primary sized for a thrust is rated at the thrust model's current there: the
+    // written layout carries it as its nameplate current, so the card and the loadings
+    // check the same current.
+    let rated_plate = target.and_then(|_| {
+        let phase = best.conductor_current_a? * best.parallel_paths as f64;
+        let mut n = base.nameplate.clone().unwrap_or_default();
+        n.currents_a = vec![best.connection.line_current(phase)];
+        n.voltages_v = vec![line_v];
+        Some(n)
+    });
     let chosen = Design {
         connection: best.connection,
         parallel_paths: best.parallel_paths,
         turns_per_coil: best.turns_per_coil,
         wire: wire.or(base.wire),
+        nameplate: rated_plate.or(probe.nameplate.clone()),
         ..probe
     };
     let w = build(chosen.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
@@ -670,13 +728,16 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         .and_then(|i| wire_for(&w, i, &req.limits, !req.awg));
     let loading = loading::of_rated(&w, &req.limits, req.emf_ratio, at).map_err(|e| match e {
         loading::LoadingError::Missing(i) => SizingError::Missing(i),
-        loading::LoadingError::NoTurns => SizingError::NoWinding(e.to_string()),
+        loading::LoadingError::NoTurns | loading::LoadingError::TurnsAssumed => {
+            SizingError::NoWinding(e.to_string())
+        }
     })?;
     let card = crate::card::card(&w);
     Ok(Sizing {
         design: crate::header::of(&w),
         span,
         span_choice,
+        star_delta_pair_v: star_delta,
         winding_factor: kw,
         line_voltage_v: line_v,
         frequency_hz: f,

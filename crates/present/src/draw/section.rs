@@ -2,10 +2,9 @@
 //! separator and every wire at its diameter over the enamel, coloured by phase; beside it the
 //! wire, the fill and the core's loadings. Drawn when the slot's width and depth are known.
 //!
-//! The slot is parallel-sided or widens behind parallel-sided teeth (`iron`); wires are laid
-//! from the bottom in the densest (hexagonal) rows that fit between the liners, a way a
-//! winder can reach with random-wound coils. It shows whether the count fits and how; the
-//! fill figure is the card's.
+//! The slot is parallel-sided or widens behind parallel-sided teeth (`iron`); the wires lie
+//! where the study's packing rule (`packing`, which the sizing holds a wire to) lays them.
+//! It shows whether the count fits and how; the fill figure is the card's.
 
 use svg::node::element::{Circle, Group, Line, Polygon};
 
@@ -15,54 +14,16 @@ use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::iron::{LINER_M, WEDGE_M};
 use crate::output::num;
-use crate::winding::Winding;
+use crate::packing::Outline;
 
 /// Body text height, mm.
 const BODY: f64 = 3.0;
 /// Line pitch, mm.
 const LINE: f64 = 4.6;
 
-/// The slot's outline, metres: width at the gap, at the bottom, depth, opening.
-#[derive(Debug, Clone, Copy)]
-struct Outline {
-    top: f64,
-    bottom: f64,
-    depth: f64,
-    opening: f64,
-}
-
-fn outline(w: &Winding) -> Option<Outline> {
-    let c = &w.design.core;
-    let top = c.slot_width_m?;
-    Some(Outline {
-        top,
-        bottom: c.slot_bottom_width_m.unwrap_or(top),
-        depth: c.slot_depth_m?,
-        opening: w.design.slot_opening_m.unwrap_or(top).min(top),
-    })
-}
-
 /// Whether the winding's slot can be drawn (its width and depth are known).
 pub fn applies(s: &crate::study::Study) -> bool {
-    outline(s.winding()).is_some()
-}
-
-/// The coil sides of the fullest slot, bottom layer first: (phase, turns) each.
-fn fullest(w: &Winding) -> (usize, Vec<(usize, u32)>) {
-    let mut sides: Vec<Vec<(usize, usize, u32)>> = vec![Vec::new(); w.geometry.slots];
-    for c in &w.coils {
-        sides[c.go].push((c.go_layer, c.phase, c.turns));
-        sides[c.back].push((c.back_layer, c.phase, c.turns));
-    }
-    let (slot, list) = sides
-        .into_iter()
-        .enumerate()
-        .max_by_key(|(k, l)| (l.iter().map(|x| x.2).sum::<u32>(), std::cmp::Reverse(*k)))
-        .unwrap_or((0, Vec::new()));
-    let mut list = list;
-    // Layer 1 is the bottom (away from the gap): laid first.
-    list.sort_by_key(|x| std::cmp::Reverse(x.0));
-    (slot, list.into_iter().map(|x| (x.1, x.2)).collect())
+    Outline::of(s.winding()).is_some()
 }
 
 /// Draw the sheet; without a slot size it says what is missing.
@@ -70,7 +31,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     let w = s.winding();
     let mut c = Canvas::new(page, &TitleBlock::of(s, "Slot section"));
     let a = c.area;
-    let Some(o) = outline(w) else {
+    let Some(o) = Outline::of(w) else {
         c.add(Group::new().set("class", "not-available").add(label(
             a.x,
             a.y + 6.0,
@@ -83,7 +44,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     };
     let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     let card = s.card();
-    let (slot, sides) = fullest(w);
+    let (slot, sides) = crate::packing::fullest(w);
     let wire = card.wire.as_ref();
     let strands = wire.map_or(1, |x| x.strands_in_hand);
     let d_over = wire.map(|x| x.insulated_diameter_mm * 1e-3);
@@ -129,7 +90,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
             .set("stroke-width", 0.5),
     );
     // Liner (inside the sides and bottom) and the wedge line under the mouth.
-    let width_at = |y: f64| o.top + (o.bottom - o.top) * (y / o.depth);
+    let width_at = |y: f64| o.width_at(y);
     let liner = [
         (-width_at(WEDGE_M) / 2.0 + LINER_M, WEDGE_M),
         (-o.bottom / 2.0 + LINER_M, o.depth - LINER_M),
@@ -152,66 +113,42 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
             .set("stroke-dasharray", "1.5 0.8"),
     );
 
-    // Wires, bottom layer first, in hexagonal rows between the liners.
-    let needed: Vec<(usize, u64)> = sides
+    // Wires, bottom layer first, where the packing rule lays them.
+    let needed: Vec<u64> = sides
         .iter()
-        .map(|(p, t)| (*p, *t as u64 * strands as u64))
+        .map(|(_, t)| *t as u64 * strands as u64)
         .collect();
-    let total: u64 = needed.iter().map(|x| x.1).sum();
+    let total: u64 = needed.iter().sum();
     let mut drawn = 0u64;
     if let Some(dw) = d_over {
-        let mut y = o.depth - LINER_M - dw / 2.0;
-        let mut row = 0usize;
-        // Wires as (coil side, phase), side by side from the bottom.
-        let mut queue = needed
-            .iter()
-            .enumerate()
-            .flat_map(|(i, (p, n))| (0..*n).map(move |_| (i, *p)));
-        let mut current = None;
-        let mut last_side = None;
-        'rows: while y - dw / 2.0 >= WEDGE_M {
-            let half = width_at(y) / 2.0 - LINER_M - dw / 2.0;
-            let shift = if row % 2 == 1 { dw / 2.0 } else { 0.0 };
-            let mut x = -half + shift;
-            while x <= half + 1e-12 {
-                let Some((side, p)) = current.take().or_else(|| queue.next()) else {
-                    break 'rows;
-                };
-                // The next coil side starts on a fresh row, over a separator.
-                if last_side.is_some_and(|q| q != side) && x > -half + shift + 1e-12 {
-                    current = Some((side, p));
-                    break;
-                }
-                if last_side.is_some_and(|q| q != side) {
-                    g = g.add(
-                        Line::new()
-                            .set("x1", r(px(-width_at(y) / 2.0 + LINER_M)))
-                            .set("x2", r(px(width_at(y) / 2.0 - LINER_M)))
-                            .set("y1", r(py(y + dw * 0.55)))
-                            .set("y2", r(py(y + dw * 0.55)))
-                            .set("stroke", "#000")
-                            .set("stroke-width", 0.35)
-                            .set("class", "separator"),
-                    );
-                }
-                last_side = Some(side);
-                g = g.add(
-                    Circle::new()
-                        .set("cx", r(px(x)))
-                        .set("cy", r(py(y)))
-                        .set("r", r(dw / 2.0 * k * 0.96))
-                        .set("fill", pal.tint(p))
-                        .set("stroke", pal.stroke(p))
-                        .set("stroke-width", 0.2)
-                        .set("class", "wire")
-                        .set("data-phase", w.label(p)),
-                );
-                drawn += 1;
-                x += dw;
-            }
-            y -= dw * 3f64.sqrt() / 2.0;
-            row += 1;
+        let p = crate::packing::pack(&o, dw, &needed);
+        for y in &p.separators {
+            g = g.add(
+                Line::new()
+                    .set("x1", r(px(-width_at(*y) / 2.0 + LINER_M)))
+                    .set("x2", r(px(width_at(*y) / 2.0 - LINER_M)))
+                    .set("y1", r(py(*y)))
+                    .set("y2", r(py(*y)))
+                    .set("stroke", "#000")
+                    .set("stroke-width", 0.35)
+                    .set("class", "separator"),
+            );
         }
+        for l in &p.laid {
+            let phase = sides[l.side].0;
+            g = g.add(
+                Circle::new()
+                    .set("cx", r(px(l.x)))
+                    .set("cy", r(py(l.y)))
+                    .set("r", r(dw / 2.0 * k * 0.96))
+                    .set("fill", pal.tint(phase))
+                    .set("stroke", pal.stroke(phase))
+                    .set("stroke-width", 0.2)
+                    .set("class", "wire")
+                    .set("data-phase", w.label(phase)),
+            );
+        }
+        drawn = p.laid.len() as u64;
     }
 
     // Dimensions under the slot.

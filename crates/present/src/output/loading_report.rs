@@ -28,6 +28,10 @@ impl Words for LoadingError {
             LoadingError::NoTurns => {
                 "the winding has no turns or no fundamental EMF in its first phase".into()
             }
+            LoadingError::TurnsAssumed => "the layout gives no turns (winding.turns_per_coil \
+                 or a coil list), so there is nothing to check; size a bare core with \
+                 `beltwright size`"
+                .into(),
         }
     }
 }
@@ -40,6 +44,18 @@ impl Words for SizingError {
             SizingError::NotThreePhase(m) => format!(
                 "sizing is for three-phase windings; this core is laid out for {m} phases \
                  (machine.phases)"
+            ),
+            SizingError::SlipOutOfRange { slip, field_m_s } => format!(
+                "a thrust is asked at slip {}{}: a primary drives the plate only below its \
+                 field speed (slip above 0, at most 1 at standstill); give --at-slip from above \
+                 0 to 1{}",
+                num(*slip, 4),
+                field_m_s
+                    .map(|v| format!(" (field speed {} m/s)", num(v, 3)))
+                    .unwrap_or_default(),
+                field_m_s
+                    .map(|v| format!(", or --at-speed from 0 to below {} m/s", num(v, 3)))
+                    .unwrap_or_default()
             ),
             SizingError::ThrustNotLinear => {
                 "--thrust-n sizes a flat primary (topology = \"linear\"); a rotary core is \
@@ -213,6 +229,14 @@ pub fn loading_table(l: &Loading) -> Table {
         if let Some(j) = &e.current_density_a_mm2 {
             checked_row(&mut t, "current density", j, "A/mm²", 2);
         }
+        if let Some(h) = e.heat_load_a2_mm3 {
+            t.push(vec![
+                "heat load A·J".into(),
+                format!("{} A²/mm³", num(h, 0)),
+                String::new(),
+                String::new(),
+            ]);
+        }
     }
     if let Some(f) = &l.slot_fill {
         let pct = Checked {
@@ -248,12 +272,31 @@ pub fn loading_notes(l: &Loading) -> Vec<String> {
             num(e.conductor_current_a, 2),
             e.conductors_per_slot
         )));
-    } else {
-        v.push(
-            "no rated current (nameplate current_a, or power_kw with the voltage): no electric \
-             loading, current density or temperature rise"
-                .into(),
-        );
+    }
+    for u in &l.unchecked {
+        v.push(paragraph(&format!(
+            "not checked: {}",
+            match u {
+                crate::loading::Unchecked::Teeth => {
+                    "the teeth (give core.tooth_width_mm or core.slot_width_mm)"
+                }
+                crate::loading::Unchecked::BackIron => {
+                    "the back iron (give core.yoke_depth_mm, or core.outside_diameter_mm with \
+                     core.slot_depth_mm)"
+                }
+                crate::loading::Unchecked::Current => {
+                    "electric loading, current density and temperature rise (give \
+                     nameplate.current_a, or nameplate.power_kw)"
+                }
+                crate::loading::Unchecked::Wire => "current density and fill (give a [wire] table)",
+                crate::loading::Unchecked::SlotArea => {
+                    "slot fill (give core.slot_area_mm2, or the slot's sizes)"
+                }
+                crate::loading::Unchecked::CoolingSurface => {
+                    "temperature rise (give core.outside_diameter_mm)"
+                }
+            }
+        )));
     }
     if let Some(h) = &l.heating {
         v.push(paragraph(&format!(
@@ -315,7 +358,8 @@ impl Report for LoadingReport {
 }
 
 fn candidates_table(z: &Sizing) -> Table {
-    let mut t = Table::new(&[
+    let thrust = z.candidates.iter().any(|c| c.thrust_n.is_some());
+    let mut columns = vec![
         ("connection", Align::Left),
         ("paths", Align::Right),
         ("V phase", Align::Right),
@@ -326,9 +370,13 @@ fn candidates_table(z: &Sizing) -> Table {
         ("A per conductor", Align::Right),
         ("thrust N", Align::Right),
         ("wire", Align::Left),
-    ]);
+    ];
+    if !thrust {
+        columns.remove(8);
+    }
+    let mut t = Table::new(&columns);
     for c in &z.candidates {
-        t.push(vec![
+        let mut row = vec![
             c.connection.to_string(),
             c.parallel_paths.to_string(),
             num(c.phase_voltage_v, 1),
@@ -345,7 +393,11 @@ fn candidates_table(z: &Sizing) -> Table {
                     String::new()
                 }
             }),
-        ]);
+        ];
+        if !thrust {
+            row.remove(8);
+        }
+        t.push(row);
     }
     t
 }
@@ -432,6 +484,17 @@ impl Report for Sizing {
         }
         if let Some(m) = self.copper_mass_kg {
             head.push(format!("copper in the coils {} kg", num(m, 2)));
+        }
+        if let Some((lo, hi)) = self.star_delta_pair_v {
+            head.push(paragraph(&format!(
+                "stamped {} V / {} V on six leads: wound delta for {} V, which is star for {} V \
+                 (the phases see {} V either way)",
+                num(lo, 0),
+                num(hi, 0),
+                num(lo, 0),
+                num(hi, 0),
+                num(lo, 0)
+            )));
         }
         s.push(Section::Lines(head));
         if let Some(t) = &self.thrust {
