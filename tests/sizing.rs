@@ -520,3 +520,19 @@ fn the_sized_wire_goes_in_and_a_thrust_sized_primary_keeps_its_current() {
         .value;
     assert!((j / j0 - 1.0).abs() < 1e-3, "{j} {j0}");
 }
+
+#[test]
+fn a_rating_the_core_cannot_carry_says_what_it_can() {
+    // 55 kW on the 5.5 kW core: no wire meets the current-density limit; the largest that
+    // goes in carries J, so the power within the limit is 55 kW × J_limit / J (current
+    // scales with power at the same voltage, efficiency and power factor).
+    let big = stripped("").replace("power_kw = 5.5", "power_kw = 55");
+    let z = sizing::size(&spec(&big), &Request::default()).unwrap();
+    let j = z
+        .fallback_wire
+        .expect("the largest wire that goes in")
+        .current_density_a_mm2;
+    let p = z.power_within_limit_w.expect("a power within the limit");
+    assert!((p / (55_000.0 * 6.0 / j) - 1.0).abs() < 1e-12);
+    assert!(p < 55_000.0);
+}

@@ -231,6 +231,11 @@ pub struct Sizing {
     /// When no wire meets the current-density limit: the largest standard wire (1 to 4
     /// strands) that fits the slot, which the written layout and the loadings then use.
     pub fallback_wire: Option<WireChoice>,
+    /// When the largest wire that goes in carries the rated current above the current-density
+    /// limit: the rated power at which it would not, W (the current scales with the power
+    /// at the same voltage, efficiency and power factor).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_within_limit_w: Option<f64>,
     /// The chosen conductor from the other wire series (AWG when metric was asked, and the
     /// other way round), for shops that stock it.
     pub other_series_wire: Option<WireChoice>,
@@ -749,6 +754,9 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         loading,
         thrust,
         fallback_wire,
+        power_within_limit_w: fallback_wire
+            .zip(base.nameplate.as_ref().and_then(|n| n.power_w))
+            .map(|(c, p)| p * req.limits.current_density_a_mm2 / c.current_density_a_mm2),
         other_series_wire,
         phase_resistance_20c_ohm: card.phase_resistance_20c_ohm,
         line_resistance_20c_ohm: card.line_resistance_20c_ohm,

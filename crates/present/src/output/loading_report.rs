@@ -469,6 +469,14 @@ impl Report for Sizing {
                  --thrust-n), so no wire is sized",
             )),
         }
+        if let Some(p) = self.power_within_limit_w {
+            head.push(paragraph(&format!(
+                "within {} A/mm² this core carries about {} kW at this voltage with the largest \
+                 wire that goes in (the nameplate asks for more)",
+                num(self.loading.limits.current_density_a_mm2, 1),
+                num(p * 1e-3, 2)
+            )));
+        }
         if let Some(w) = &self.other_series_wire {
             head.push(format!("or from the other wire series: {}", wire_words(w)));
         }
