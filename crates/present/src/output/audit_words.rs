@@ -49,8 +49,33 @@ fn path_move(m: &PathMove) -> String {
     }
 }
 
-/// A finding's facts in words.
+/// A finding's facts in words: each group of facts has its own function.
 pub fn words(f: &Fact) -> String {
+    match f {
+        Fact::ReversedCoil { .. }
+        | Fact::ReversedGroup { .. }
+        | Fact::WrongPhase { .. }
+        | Fact::ReversedPhase { .. }
+        | Fact::LeadsSwapped { .. }
+        | Fact::CoilsSwapped { .. }
+        | Fact::GroupWrongPhase { .. }
+        | Fact::CoilWrongSlots { .. } => connection_words(f),
+        Fact::PathMoves { .. } | Fact::PathDiffers { .. } => path_words(f),
+        Fact::EmptySlots { .. }
+        | Fact::OverfilledSlots { .. }
+        | Fact::TurnsDiffer { .. }
+        | Fact::SpanDiffers { .. } => slot_words(f),
+        Fact::NoFundamental | Fact::Unbalanced { .. } | Fact::MeasuredResistance { .. } => {
+            balance_words(f)
+        }
+        Fact::CoresDiffer { .. }
+        | Fact::DiffersFromDesign { .. }
+        | Fact::MissingFromRecord { .. } => design_words(f),
+    }
+}
+
+/// The words of the connection faults: coils, groups, phases and leads reversed, swapped or in the wrong phase or slots.
+fn connection_words(f: &Fact) -> String {
     match f {
         Fact::ReversedCoil { coil: c } => format!(
             "{} is connected backwards: reconnect it so that current enters at slot {} and \
@@ -154,6 +179,14 @@ pub fn words(f: &Fact) -> String {
                 ""
             },
         ),
+        // `words` sends only this group's facts here.
+        _ => String::new(),
+    }
+}
+
+/// The words of the parallel paths.
+fn path_words(f: &Fact) -> String {
+    match f {
         Fact::PathMoves { phase, moves } => format!(
             "the parallel paths of phase {phase} do not match, so a current circulates between \
              them: {}",
@@ -174,6 +207,14 @@ pub fn words(f: &Fact) -> String {
             num(*angle_deg, 1),
             num(*circulating_percent, 2)
         ),
+        // `words` sends only this group's facts here.
+        _ => String::new(),
+    }
+}
+
+/// The words of the slots' contents: empty or overfilled slots, turns and spans.
+fn slot_words(f: &Fact) -> String {
+    match f {
         Fact::EmptySlots {
             empty,
             partly_filled,
@@ -234,6 +275,14 @@ pub fn words(f: &Fact) -> String {
             "coil {coil} spans {span} where the others of its group span {usual}: a slot \
              number was probably recorded wrong (in at slot {go}, out at slot {back})"
         ),
+        // `words` sends only this group's facts here.
+        _ => String::new(),
+    }
+}
+
+/// The words of the balance and the measured resistances.
+fn balance_words(f: &Fact) -> String {
+    match f {
         Fact::NoFundamental => "no fundamental EMF: the coil groups are not connected \
                                 alternately (every other group must be reversed), or the \
                                 coils were recorded in one direction; check the group \
@@ -315,6 +364,14 @@ pub fn words(f: &Fact) -> String {
                 suggestion.message()
             )
         }
+        // `words` sends only this group's facts here.
+        _ => String::new(),
+    }
+}
+
+/// The words of the comparison with the intended design.
+fn design_words(f: &Fact) -> String {
+    match f {
         Fact::CoresDiffer {
             design_slots,
             record_slots,
@@ -356,6 +413,8 @@ pub fn words(f: &Fact) -> String {
             "the intended design has a coil of phase {phase} in at slot {go} and out at slot \
              {back} that the record lacks"
         ),
+        // `words` sends only this group's facts here.
+        _ => String::new(),
     }
 }
 
