@@ -247,3 +247,69 @@ fn a_speed_range_gives_the_rows_of_its_slips() {
     ]);
     assert_eq!(by_speed["rows"], by_slip["rows"]);
 }
+
+// Every assumption checked against the inputs. Skin depth δ = √(2/(ω·μ0·σ)) (e.g. J. D.
+// Jackson, *Classical Electrodynamics*, 3rd ed., §8.1) for aluminium of IEC 60889,
+// σ = 1/0.028264 MS/m, at 50 Hz: 11.97 mm; a 20 mm plate is thicker, thin only below
+// slip (δ/20 mm)². A 100 mm plate under an 80 mm stack is not narrower; a 60 mm one is.
+#[test]
+fn the_models_assumptions_are_checked_against_the_inputs() {
+    use beltwright::assumption::Assumption;
+    let thick = wind(
+        "[machine]\ntopology = \"linear\"\nslots = 29\npoles = 4\n\
+          [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+          [core]\nslot_pitch_mm = 12.0\nstack_mm = 80.0\nairgap_mm = 3.0\n\
+          [wire]\ndiameter_mm = 0.5\n\
+          [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+          [secondary]\nmaterial = \"aluminium\"\nthickness_mm = 20.0\nwidth_mm = 60.0\n",
+    );
+    let r = thrust::thrust(&thick, &query(None, true)).unwrap();
+    let sigma = 1.0 / 0.028264e-6;
+    let delta = (2.0 / (2.0 * PI * 50.0 * MU0 * sigma)).sqrt();
+    assert!((delta * 1e3 - 11.97).abs() < 0.005, "{delta}");
+    let mut seen = 0;
+    for a in &r.assumptions {
+        match a {
+            Assumption::PlateThickerThanSkinDepth {
+                skin_depth_mm,
+                thin_below_slip,
+                ..
+            } => {
+                assert!((skin_depth_mm / (delta * 1e3) - 1.0).abs() < 1e-12);
+                assert!((thin_below_slip / (delta / 0.020).powi(2) - 1.0).abs() < 1e-12);
+                seen += 1;
+            }
+            Assumption::PlateNarrowerThanStack { plate_mm, stack_mm } => {
+                assert_eq!((*plate_mm, *stack_mm), (60.0, 80.0));
+                seen += 1;
+            }
+            Assumption::PlateConductivity { ms_m } => {
+                assert!((ms_m - sigma * 1e-6).abs() < 1e-9);
+                seen += 1;
+            }
+            Assumption::PrimaryCurrentDensity { density_a_mm2, .. } => {
+                // The sweep's largest phase current over one 0.5 mm strand (one path).
+                let i = r.rows.iter().map(|x| x.current_a).fold(0.0, f64::max);
+                let j = i / (PI / 4.0 * 0.25);
+                assert!((density_a_mm2 / j - 1.0).abs() < 1e-12);
+                seen += 1;
+            }
+            Assumption::PlateHeatingAtStandstill { watts, w_cm2 } => {
+                // All the gap power at slip 1, over 29 × 12 mm of primary × the 60 mm plate.
+                let p = r.rows.last().unwrap();
+                assert_eq!(p.slip, 1.0);
+                assert!((watts / p.airgap_power_w - 1.0).abs() < 1e-12);
+                assert!((w_cm2 / (watts / (34.8 * 6.0)) - 1.0).abs() < 1e-12);
+                seen += 1;
+            }
+            _ => {}
+        }
+    }
+    assert_eq!(seen, 5, "{:?}", r.assumptions);
+    // A 4 mm plate wider than the stack raises neither of the plate's warnings.
+    let r = thrust::thrust(&shuttle(""), &query(None, true)).unwrap();
+    assert!(!r.assumptions.iter().any(|a| matches!(
+        a,
+        Assumption::PlateThickerThanSkinDepth { .. } | Assumption::PlateNarrowerThanStack { .. }
+    )));
+}

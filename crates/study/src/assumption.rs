@@ -63,4 +63,43 @@ pub enum Assumption {
     },
     /// No differential leakage could be worked out (no working wave): X1 leaves it out.
     NoDifferentialLeakage,
+    /// The plate's conductivity the model used, at 20 °C.
+    PlateConductivity {
+        /// MS/m.
+        ms_m: f64,
+    },
+    /// The plate is narrower than the stack: the edge factor takes it as wide as the stack.
+    PlateNarrowerThanStack {
+        /// Plate width, mm.
+        plate_mm: f64,
+        /// Stack width, mm.
+        stack_mm: f64,
+    },
+    /// The plate is thicker than its skin depth at the supply frequency, so the thin-plate
+    /// model holds only at low slips.
+    PlateThickerThanSkinDepth {
+        /// Plate thickness, mm.
+        thickness_mm: f64,
+        /// Skin depth at the supply frequency (standstill), mm.
+        skin_depth_mm: f64,
+        /// The slip below which the plate is thinner than its skin depth.
+        thin_below_slip: f64,
+    },
+    /// The primary's current density at the largest current of the sweep passes the
+    /// card's limit.
+    PrimaryCurrentDensity {
+        /// A/mm².
+        density_a_mm2: f64,
+        /// The limit, A/mm².
+        limit_a_mm2: f64,
+        /// At this slip.
+        slip: f64,
+    },
+    /// What the plate turns into heat at standstill (slip 1, all the gap power).
+    PlateHeatingAtStandstill {
+        /// W.
+        watts: f64,
+        /// W/cm² of plate under the primary.
+        w_cm2: f64,
+    },
 }

@@ -514,6 +514,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     }
     let s_max = (lo + hi) / 2.0;
     let f_max = at(s_max);
+    let checked = checks(w, &md, feed, &rows, query.end_effect);
     Ok(ThrustReport {
         design: crate::header::of(w),
         title: w.labels.title.clone(),
@@ -532,11 +533,74 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         max_thrust_n: f_max,
         max_thrust_slip: s_max,
         assumptions: {
-            let mut a = md.assumptions;
+            let mut a = md.assumptions.clone();
             a.push(Assumption::MagneticGap { mm: md.g * 1e3 });
+            a.extend(checked);
             a
         },
     })
+}
+
+/// The model's assumptions checked against the inputs: the plate's conductivity as used, a
+/// plate narrower than the stack, thicker than its skin depth, the primary's current
+/// density at the sweep's largest current, and the plate's heat at standstill.
+fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<Assumption> {
+    let mut a = Vec::new();
+    let d = &w.design;
+    let Some(sec) = d.secondary else {
+        return a;
+    };
+    a.push(Assumption::PlateConductivity {
+        ms_m: sec.conductivity_s_m * 1e-6,
+    });
+    let stack = d.core.stack_m.unwrap_or(0.0);
+    let plate = sec.width_m.unwrap_or(stack);
+    if plate < stack {
+        a.push(Assumption::PlateNarrowerThanStack {
+            plate_mm: plate * 1e3,
+            stack_mm: stack * 1e3,
+        });
+    }
+    // Skin depth δ = √(2/(ω·μ0·σ)) at the supply frequency; at slip s the plate sees s·f,
+    // so it is thinner than δ/√s below s = (δ/t)² (the classical skin depth, e.g.
+    // Jackson, Classical Electrodynamics, §8.1).
+    let omega = 2.0 * PI * d.supply.frequency_hz.unwrap_or(0.0);
+    let delta = (2.0 / (omega * MU0 * sec.conductivity_s_m)).sqrt();
+    if omega > 0.0 && sec.thickness_m > delta {
+        a.push(Assumption::PlateThickerThanSkinDepth {
+            thickness_mm: sec.thickness_m * 1e3,
+            skin_depth_mm: delta * 1e3,
+            thin_below_slip: (delta / sec.thickness_m).powi(2),
+        });
+    }
+    if let Some(spec) = &d.wire {
+        let area = crate::wire::Wire::of(spec).conductor_area_mm2;
+        let limit = crate::card::CURRENT_DENSITY_LIMIT_A_MM2;
+        if let Some(r) = rows
+            .iter()
+            .max_by(|x, y| x.current_a.total_cmp(&y.current_a))
+        {
+            let j = r.current_a / w.parallel_paths.max(1) as f64 / area;
+            if j > limit {
+                a.push(Assumption::PrimaryCurrentDensity {
+                    density_a_mm2: j,
+                    limit_a_mm2: limit,
+                    slip: r.slip,
+                });
+            }
+        }
+    }
+    let standstill = point(md, feed, 1.0, end);
+    let under = w
+        .slot_pitch_m()
+        .map_or(0.0, |ts| ts * w.geometry.slots as f64 * plate.min(stack));
+    if standstill.airgap_power_w.is_finite() && under > 0.0 {
+        a.push(Assumption::PlateHeatingAtStandstill {
+            watts: standstill.airgap_power_w,
+            w_cm2: standstill.airgap_power_w / (under * 1e4),
+        });
+    }
+    a
 }
 
 #[cfg(test)]

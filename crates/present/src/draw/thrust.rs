@@ -53,7 +53,28 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
 }
 
 fn sheet(with: &ThrustReport, a: Rect) -> Group {
-    let notes_h = 22.0;
+    let notes = format!(
+        "v_s = {} m/s; G = {}; k_C = {}; edge factor {}; g_e = {} mm; L_m = {} mH; R2' = {} \
+         ohm. Largest thrust {} N at slip {}. Model: {}",
+        num(with.synchronous_speed_m_s, 3),
+        num(with.goodness_factor, 3),
+        num(with.carter_coefficient, 4),
+        num(with.edge_factor, 4),
+        num(with.effective_gap_mm, 3),
+        num(with.magnetizing_inductance_h * 1e3, 3),
+        num(with.secondary_resistance_ohm, 4),
+        num(with.max_thrust_n, 1),
+        num(with.max_thrust_slip, 3),
+        with.assumptions
+            .iter()
+            .map(Words::message)
+            .collect::<Vec<_>>()
+            .join("; ")
+    );
+    // The notes take the lines they need (at least the 22 mm they always had); the charts
+    // share the rest.
+    let lines = text::wrap(&notes, 2.6, a.w);
+    let notes_h = (4.0 + lines.len() as f64 * 3.6).max(22.0);
     let gap = 6.0;
     let chart_h = (a.h - notes_h - gap) / 2.0;
     let pts = |rows: &[crate::thrust::Row], f: &dyn Fn(&crate::thrust::Row) -> f64| {
@@ -122,26 +143,8 @@ fn sheet(with: &ThrustReport, a: Rect) -> Group {
         .set("class", "performance")
         .add(top)
         .add(bottom);
-    let notes = format!(
-        "v_s = {} m/s; G = {}; k_C = {}; edge factor {}; g_e = {} mm; L_m = {} mH; R2' = {} \
-         ohm. Largest thrust {} N at slip {}. Model: {}",
-        num(with.synchronous_speed_m_s, 3),
-        num(with.goodness_factor, 3),
-        num(with.carter_coefficient, 4),
-        num(with.edge_factor, 4),
-        num(with.effective_gap_mm, 3),
-        num(with.magnetizing_inductance_h * 1e3, 3),
-        num(with.secondary_resistance_ohm, 4),
-        num(with.max_thrust_n, 1),
-        num(with.max_thrust_slip, 3),
-        with.assumptions
-            .iter()
-            .map(Words::message)
-            .collect::<Vec<_>>()
-            .join("; ")
-    );
     let mut y = a.bottom() - notes_h + 3.0;
-    for l in text::wrap(&notes, 2.6, a.w) {
+    for l in lines {
         g = g.add(label(a.x, y, 2.6, Anchor::Start, &l));
         y += 3.6;
     }

@@ -205,8 +205,9 @@ impl fmt::Display for Say<'_, Assumption> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self.0 {
             Assumption::ThrustModel => f.write_str(
-                "thin plate, unsaturated iron, secondary leakage neglected, plate wider than the \
-                 stack, sinusoidal fields (a first estimate, not a test result)",
+                "thin plate, unsaturated iron, secondary leakage neglected, plate at least as wide \
+                 as the stack, sinusoidal fields (a first estimate, not a test result; each is \
+                 checked against the inputs below)",
             ),
             Assumption::NoBackIron => f.write_str(
                 "no back iron: taken as a double-sided pair of primaries, gap 2 x clearance + \
@@ -246,6 +247,50 @@ impl fmt::Display for Say<'_, Assumption> {
                 "goodness factor {} is outside the range of about 1 to 50 the circuit model \
                  stands for: its thrust and speed figures are an extrapolation",
                 num(*goodness, 3)
+            ),
+            Assumption::PlateConductivity { ms_m } => write!(
+                f,
+                "the plate's conductivity is taken as {} MS/m (at 20 °C; a warm plate conducts \
+                 less and gives less thrust at a given slip)",
+                num(*ms_m, 3)
+            ),
+            Assumption::PlateNarrowerThanStack { plate_mm, stack_mm } => write!(
+                f,
+                "the plate ({} mm) is narrower than the stack ({} mm); the edge factor takes \
+                 it as wide as the stack, so thrust is overstated",
+                num(*plate_mm, 1),
+                num(*stack_mm, 1)
+            ),
+            Assumption::PlateThickerThanSkinDepth {
+                thickness_mm,
+                skin_depth_mm,
+                thin_below_slip,
+            } => write!(
+                f,
+                "the plate ({} mm) is thicker than its skin depth at the supply frequency ({} \
+                 mm): the thin-plate model holds only below slip {}",
+                num(*thickness_mm, 2),
+                num(*skin_depth_mm, 2),
+                num(*thin_below_slip, 3)
+            ),
+            Assumption::PrimaryCurrentDensity {
+                density_a_mm2,
+                limit_a_mm2,
+                slip,
+            } => write!(
+                f,
+                "the primary's current density reaches {} A/mm² at slip {}, above the {} A/mm² \
+                 a winding carries continuously: run there only briefly",
+                num(*density_a_mm2, 2),
+                num(*slip, 3),
+                num(*limit_a_mm2, 1)
+            ),
+            Assumption::PlateHeatingAtStandstill { watts, w_cm2 } => write!(
+                f,
+                "at standstill the plate turns {} W into heat, {} W/cm² of plate under the \
+                 primary",
+                num(*watts, 0),
+                num(*w_cm2, 2)
             ),
             Assumption::GapLargeAgainstPitch { ratio } => write!(
                 f,
