@@ -100,6 +100,10 @@ const EX_SIZE: &str = examples!(
     "beltwright size flat-core.toml --thrust-n 250 --at-speed 4",
     "beltwright size stripped-core.toml --tooth-t 1.7 -o rewound.toml",
 );
+const EX_TEMPLATE: &str = examples!(
+    "beltwright template record -o as-found.toml",
+    "beltwright template rotary > stator.toml",
+);
 const EX_LOADING: &str = examples!(
     "beltwright loading pump-rewind.toml",
     "beltwright loading old-record.toml --yoke-t 1.5 --format json",
@@ -204,6 +208,10 @@ pub enum Command {
     /// and an estimated temperature rise of a winding with its turns, against limits.
     #[command(after_help = EX_LOADING)]
     Loading(LoadingArgs),
+    /// Write a starting layout with every key commented: a rotary stator, a flat primary, or
+    /// an as-found record written by coil groups.
+    #[command(after_help = EX_TEMPLATE)]
+    Template(TemplateArgs),
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EX_REWIND)]
     Rewind(RewindArgs),
@@ -380,6 +388,27 @@ pub struct SizeArgs {
     pub at_speed: Option<f64>,
     /// Write the sized winding as a layout file (the input's text with the winding's keys
     /// set), which every command takes.
+    #[arg(short = 'o', long = "output")]
+    pub output: Option<PathBuf>,
+}
+
+/// Which starting layout.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum TemplateKind {
+    /// A rotary stator to plan or size.
+    Rotary,
+    /// A flat (linear) primary over its plate.
+    Flat,
+    /// An as-found or as-wound record, by coil groups.
+    Record,
+}
+
+#[derive(Args)]
+pub struct TemplateArgs {
+    /// The kind of layout.
+    #[arg(value_enum)]
+    pub kind: TemplateKind,
+    /// Write it to this file (a new file; without it, to standard output).
     #[arg(short = 'o', long = "output")]
     pub output: Option<PathBuf>,
 }

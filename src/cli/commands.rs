@@ -195,6 +195,32 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Audit(a) => run_audit(a),
         Command::Rewind(a) => run_rewind(a),
         Command::Size(a) => run_size(a),
+        Command::Template(a) => {
+            let text = match a.kind {
+                TemplateKind::Rotary => layout::templates::ROTARY,
+                TemplateKind::Flat => layout::templates::FLAT,
+                TemplateKind::Record => layout::templates::RECORD,
+            };
+            match &a.output {
+                None => Ok(say(text.to_string())),
+                Some(out) => {
+                    if out.exists() {
+                        return Err(Failure::input(format!(
+                            "-o {}: the file exists; give a new name (a template never \
+                             overwrites a layout)",
+                            out.display()
+                        )));
+                    }
+                    write_set(
+                        &[(out.clone(), text.as_bytes().to_vec())],
+                        &Vec::new,
+                        &[],
+                        "-o",
+                    )?;
+                    Ok(say(format!("wrote {}\n", out.display())))
+                }
+            }
+        }
         Command::Loading(a) => {
             let w = load(&a.common.file)?;
             let r = beltwright::loading::report(&w, &a.limits.limits(), a.limits.emf_ratio)

@@ -6,6 +6,16 @@
 mod amend;
 mod raw;
 
+/// Starting layouts with every key commented, for `beltwright template`.
+pub mod templates {
+    /// A rotary stator to plan or size.
+    pub const ROTARY: &str = include_str!("templates/rotary.toml");
+    /// A flat primary over its plate.
+    pub const FLAT: &str = include_str!("templates/flat.toml");
+    /// An as-found record written by coil groups.
+    pub const RECORD: &str = include_str!("templates/record.toml");
+}
+
 pub use amend::amend;
 
 use thiserror::Error;

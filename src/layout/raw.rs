@@ -28,6 +28,8 @@ pub struct RawLayout {
     job: Option<RawJob>,
     #[serde(default)]
     coil: Vec<RawCoil>,
+    #[serde(default)]
+    group: Vec<RawGroup>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -179,6 +181,23 @@ struct RawDrawing {
     colours: Option<Vec<String>>,
 }
 
+/// A coil group written at once: `coils` coils of one phase from slot `first`, each `step`
+/// slots on from the last, of span `span` (lap), or nested around one centre with spans
+/// `span`, `span − 2`, ... (concentric).
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawGroup {
+    phase: String,
+    first: i64,
+    coils: i64,
+    span: i64,
+    step: Option<i64>,
+    shape: Option<Style>,
+    polarity: Option<String>,
+    turns: Option<i64>,
+    path: Option<i64>,
+}
+
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawCoil {
@@ -199,7 +218,7 @@ impl Checker<'_> {
     fn err(&self, table: &str, index: usize, key: &str, message: String) -> LayoutError {
         let dotted = match table {
             "" => key.to_string(),
-            "coil" => format!("coil[{}].{key}", index + 1),
+            "coil" | "group" => format!("{table}[{}].{key}", index + 1),
             t => format!("{t}.{key}"),
         };
         LayoutError::Invalid {
@@ -545,7 +564,162 @@ impl RawLayout {
                 path,
             });
         }
+        for (i, g) in self.group.iter().enumerate() {
+            self.expand(
+                c,
+                i,
+                g,
+                phase_labels,
+                slots,
+                turns_per_coil,
+                parallel_paths,
+                &mut coils,
+            )?;
+        }
         Ok(coils)
+    }
+
+    /// One `[[group]]` as its coils, appended to `coils` after the `[[coil]]` entries, each
+    /// checked as a listed coil is: exactly the coils a coil-by-coil record of it gives.
+    #[allow(clippy::too_many_arguments)]
+    fn expand(
+        &self,
+        c: &Checker,
+        i: usize,
+        g: &RawGroup,
+        phase_labels: &[String],
+        slots: usize,
+        turns_per_coil: u32,
+        parallel_paths: usize,
+        coils: &mut Vec<CoilEntry>,
+    ) -> Result<(), LayoutError> {
+        let err = |key: &str, message: String| Err(c.err("group", i, key, message));
+        let Some(phase) = phase_labels.iter().position(|l| *l == g.phase) else {
+            return err(
+                "phase",
+                format!(
+                    "{:?} is not a phase of this machine; use one of {}",
+                    g.phase,
+                    phase_labels.join(", ")
+                ),
+            );
+        };
+        let z = slots as i64;
+        if !(1..=z).contains(&g.first) {
+            return err(
+                "first",
+                format!(
+                    "slot {} is outside the core; slots are numbered 1 to {slots}",
+                    g.first
+                ),
+            );
+        }
+        let room = MAX_COILS.saturating_sub(coils.len()) as i64;
+        if !(1..=room.min(z)).contains(&g.coils) {
+            return err(
+                "coils",
+                format!(
+                    "{} is not valid; give 1 to {} coils in a group",
+                    g.coils,
+                    room.min(z)
+                ),
+            );
+        }
+        if !(1..z).contains(&g.span) {
+            return err(
+                "span",
+                format!(
+                    "{} is not valid; a coil spans 1 to {} slot pitches",
+                    g.span,
+                    z - 1
+                ),
+            );
+        }
+        let step = g.step.unwrap_or(1);
+        if !(1..z).contains(&step) {
+            return err(
+                "step",
+                format!("{step} is not valid; give 1 to {} slot pitches", z - 1),
+            );
+        }
+        let concentric = g.shape == Some(Style::Concentric);
+        if concentric && g.span - 2 * (g.coils - 1) < 1 {
+            return err(
+                "span",
+                format!(
+                    "{} concentric coils need an outer span of at least {}",
+                    g.coils,
+                    2 * g.coils - 1
+                ),
+            );
+        }
+        let reversed = match g.polarity.as_deref() {
+            None | Some("+") => false,
+            Some("-") => true,
+            Some(other) => {
+                return err(
+                    "polarity",
+                    format!("{other:?} is not a polarity; write \"+\" or \"-\" (wound backwards)"),
+                );
+            }
+        };
+        let turns = match g.turns {
+            None => turns_per_coil,
+            Some(t) if (1..=MAX_TURNS as i64).contains(&t) => t as u32,
+            Some(t) => {
+                return err(
+                    "turns",
+                    format!("{t} is not valid; give a whole number from 1 to {MAX_TURNS}"),
+                );
+            }
+        };
+        let path = match g.path {
+            None => 0,
+            Some(p) if p >= 1 && p <= parallel_paths as i64 => p as usize - 1,
+            Some(p) => {
+                return err(
+                    "path",
+                    format!(
+                        "path {p} does not exist; winding.parallel_paths = {parallel_paths}, so \
+                         give 1 to {parallel_paths}"
+                    ),
+                );
+            }
+        };
+        let linear = self.machine.topology == Topology::Linear;
+        // A slot number from 1; on a closed core it wraps past slot Z to slot 1.
+        let slot = |n: i64, key: &str| -> Result<usize, LayoutError> {
+            if linear && n > z {
+                return Err(c.err(
+                    "group",
+                    i,
+                    key,
+                    format!(
+                        "the group reaches slot {n}, beyond slot {slots} of this flat primary; \
+                         give a smaller first slot, span or coil count"
+                    ),
+                ));
+            }
+            Ok(((n - 1).rem_euclid(z)) as usize)
+        };
+        for k in 0..g.coils {
+            let (go, back) = if concentric {
+                (g.first + k, g.first + g.span - k)
+            } else {
+                let go = g.first + k * step;
+                (go, go + g.span)
+            };
+            let (go, back) = (slot(go, "coils")?, slot(back, "span")?);
+            let (go, back) = if reversed { (back, go) } else { (go, back) };
+            coils.push(CoilEntry {
+                phase,
+                go,
+                back,
+                turns,
+                path,
+            });
+        }
+        Ok(())
     }
 
     /// `[drawing] colours`: one "#rrggbb" per phase.
@@ -743,7 +917,9 @@ impl RawLayout {
         let w = &self.winding;
         // One turn is assumed where neither the winding nor every listed coil gives turns.
         d.turns_assumed = w.turns_per_coil.is_none()
-            && (self.coil.is_empty() || self.coil.iter().any(|c| c.turns.is_none()));
+            && ((self.coil.is_empty() && self.group.is_empty())
+                || self.coil.iter().any(|c| c.turns.is_none())
+                || self.group.iter().any(|g| g.turns.is_none()));
         if w.phase_resistance_ohm.is_some() && self.wire.is_some() {
             return Err(c.err(
                 "winding",
