@@ -313,3 +313,28 @@ fn the_models_assumptions_are_checked_against_the_inputs() {
         Assumption::PlateThickerThanSkinDepth { .. } | Assumption::PlateNarrowerThanStack { .. }
     )));
 }
+
+// At synchronism the thrust is zero and at standstill the speed is: the mechanical output
+// F·v is zero at both ends (definition of the two points), so the efficiency reads 0 at
+// both, in a sweep that crosses them as in one that starts on them.
+#[test]
+fn efficiency_reads_the_same_at_synchronism_and_standstill_in_every_range() {
+    for (from, to, steps) in [(-0.2, 1.2, 7), (0.0, 1.0, 20), (-1.0, 2.0, 30)] {
+        let q = ThrustQuery {
+            current_a: None,
+            slip_from: from,
+            slip_to: to,
+            steps,
+            end_effect: true,
+        };
+        let r = thrust::thrust(&shuttle(""), &q).unwrap();
+        for end in [0.0, 1.0] {
+            let row = r
+                .rows
+                .iter()
+                .find(|x| x.slip == end)
+                .unwrap_or_else(|| panic!("{from}..{to}: no row at slip {end}"));
+            assert_eq!(row.efficiency, Some(0.0), "{from}..{to} at slip {end}");
+        }
+    }
+}

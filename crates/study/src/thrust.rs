@@ -444,7 +444,9 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     let thrust = p_gap / md.vs;
     let p_in = md.m * (z * i1.norm_sqr()).re;
     let p_out = thrust * v;
-    let efficiency = (p_out > 0.0 && p_in > 0.0 && p_out <= p_in).then(|| p_out / p_in);
+    // Motoring from synchronism (0) to standstill (0 as well): output over input.
+    let efficiency = ((0.0..=1.0).contains(&s) && p_in > 0.0 && p_out >= 0.0 && p_out <= p_in)
+        .then(|| p_out / p_in);
     // Normal force from the current sheets (peak linear current densities).
     let sheet =
         |i: f64| md.m * 2f64.sqrt() * c.effective_turns * i / (c.pole_pairs * c.pole_pitch_m);
@@ -466,6 +468,22 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     }
 }
 
+/// Slip `k` of `steps` from `a` to `b`; a step that lands on synchronism (0) or standstill
+/// (1) is that slip exactly, not the rounding dust beside it (which would read as a tiny
+/// generating or plugging slip).
+fn grid_slip(a: f64, b: f64, steps: usize, k: usize) -> f64 {
+    let s = a + (b - a) * k as f64 / steps as f64;
+    for exact in [0.0, 1.0] {
+        if (a - exact) * (b - exact) < 0.0 {
+            let at = (exact - a) / (b - a) * steps as f64;
+            if (k as f64 - at).abs() < 1e-9 {
+                return exact;
+            }
+        }
+    }
+    s
+}
+
 /// Thrust, normal force, current, power factor and efficiency over a slip range.
 pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustError> {
     let md = model(w)?;
@@ -485,7 +503,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     let (a, b) = (query.slip_from, query.slip_to);
     let sweep = |end_effect: bool| -> Vec<Row> {
         (0..=steps)
-            .map(|k| point(&md, feed, a + (b - a) * k as f64 / steps as f64, end_effect))
+            .map(|k| point(&md, feed, grid_slip(a, b, steps, k), end_effect))
             .collect()
     };
     let rows = sweep(query.end_effect);

@@ -4,7 +4,7 @@
 use svg::node::element::{Group, Polyline};
 
 use super::page::{Rect, rule};
-use super::text::{Anchor, label, r};
+use super::text::{self, Anchor, label, r};
 use crate::output::num;
 
 /// Axis text height, mm (ISO 3098: at least 2.5 mm).
@@ -104,7 +104,7 @@ pub fn chart(b: Rect, title: &str, x_title: &str, y_title: &str, series: &[Serie
         x_title,
     ));
     g = g.add(label(left, top - 1.2, TICK, Anchor::Start, y_title));
-    // Lines and legend (top right, one line each).
+    // Lines, and their keys in one row above the plot.
     for (i, s) in series.iter().enumerate() {
         let path: Vec<String> = s
             .points
@@ -122,12 +122,17 @@ pub fn chart(b: Rect, title: &str, x_title: &str, y_title: &str, series: &[Serie
             line = line.set("stroke-dasharray", s.dash);
         }
         g = g.add(line);
-        // One line needs no key: the chart's title names it.
+        // One line needs no key: the chart's title names it. The keys stand in one row
+        // above the plot, right-aligned on the line of the axis title, clear of every curve.
         if series.len() == 1 {
             continue;
         }
-        let ly = top + 2.0 + i as f64 * (TICK + 1.6);
-        let lx = right - 60.0;
+        let widths: Vec<f64> = series
+            .iter()
+            .map(|s| 10.0 + text::width(s.name, TICK) + 6.0)
+            .collect();
+        let lx = right - widths[i..].iter().sum::<f64>() + 6.0;
+        let ly = top - 1.2 - TICK * 0.35;
         let mut key = rule(lx, ly, lx + 8.0, ly, 0.6).set("stroke", s.colour);
         if !s.dash.is_empty() {
             key = key.set("stroke-dasharray", s.dash);

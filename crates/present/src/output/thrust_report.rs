@@ -81,6 +81,13 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
         s.push(Section::Table(table_every(this, every)));
         let mut notes: Vec<String> =
             vec!["slip below 0: generating; above 1: plugging (braking against the field)".into()];
+        if this.rows.iter().any(|r| r.power_factor < 0.0) {
+            notes.push(
+                "a negative power factor: the primary returns real power to the supply there \
+                 (generating beyond its losses)"
+                    .into(),
+            );
+        }
         notes.extend(
             this.assumptions
                 .iter()
@@ -99,7 +106,7 @@ fn table_every(report: &ThrustReport, every: usize) -> Table {
             ("slip", Align::Right),
             ("speed m/s", Align::Right),
             ("thrust N", Align::Right),
-            ("normal N", Align::Right),
+            ("normal N (+ attracts)", Align::Right),
             ("current A", Align::Right),
             ("power factor", Align::Right),
             ("efficiency", Align::Right),
