@@ -229,6 +229,70 @@ impl Checker<'_> {
         }
     }
 
+    /// A coil's (or group's) phase by its label, entry `i` of `table`.
+    fn phase_of(
+        &self,
+        table: &str,
+        i: usize,
+        label: &str,
+        labels: &[String],
+    ) -> Result<usize, LayoutError> {
+        labels.iter().position(|l| l == label).ok_or_else(|| {
+            self.err(
+                table,
+                i,
+                "phase",
+                format!(
+                    "{label:?} is not a phase of this machine; use one of {}",
+                    labels.join(", ")
+                ),
+            )
+        })
+    }
+
+    /// A coil's (or group's) turns: as given, within 1..=MAX_TURNS, or `default`.
+    fn turns_of(
+        &self,
+        table: &str,
+        i: usize,
+        turns: Option<i64>,
+        default: u32,
+    ) -> Result<u32, LayoutError> {
+        match turns {
+            None => Ok(default),
+            Some(t) if (1..=MAX_TURNS as i64).contains(&t) => Ok(t as u32),
+            Some(t) => Err(self.err(
+                table,
+                i,
+                "turns",
+                format!("{t} is not valid; give a whole number from 1 to {MAX_TURNS}"),
+            )),
+        }
+    }
+
+    /// A coil's (or group's) parallel path, 0-based: as given (from 1), or the first.
+    fn path_of(
+        &self,
+        table: &str,
+        i: usize,
+        path: Option<i64>,
+        paths: usize,
+    ) -> Result<usize, LayoutError> {
+        match path {
+            None => Ok(0),
+            Some(p) if p >= 1 && p <= paths as i64 => Ok(p as usize - 1),
+            Some(p) => Err(self.err(
+                table,
+                i,
+                "path",
+                format!(
+                    "path {p} does not exist; winding.parallel_paths = {paths}, so give 1 to \
+                     {paths}"
+                ),
+            )),
+        }
+    }
+
     /// An integer in `lo..=hi`, else an error that says so.
     fn range(
         &self,
@@ -489,21 +553,7 @@ impl RawLayout {
         }
         let mut coils = Vec::with_capacity(self.coil.len());
         for (i, rc) in self.coil.iter().enumerate() {
-            let phase = phase_labels
-                .iter()
-                .position(|l| *l == rc.phase)
-                .ok_or_else(|| {
-                    c.err(
-                        "coil",
-                        i,
-                        "phase",
-                        format!(
-                            "{:?} is not a phase of this machine; use one of {}",
-                            rc.phase,
-                            phase_labels.join(", ")
-                        ),
-                    )
-                })?;
+            let phase = c.phase_of("coil", i, &rc.phase, phase_labels)?;
             let slot = |key: &str, v: i64| {
                 if v < 1 || v > slots as i64 {
                     Err(c.err(
@@ -529,33 +579,8 @@ impl RawLayout {
                     ),
                 ));
             }
-            let turns = match rc.turns {
-                None => turns_per_coil,
-                Some(t) if (1..=MAX_TURNS as i64).contains(&t) => t as u32,
-                Some(t) => {
-                    return Err(c.err(
-                        "coil",
-                        i,
-                        "turns",
-                        format!("{t} is not valid; give a whole number from 1 to {MAX_TURNS}"),
-                    ));
-                }
-            };
-            let path = match rc.path {
-                None => 0,
-                Some(p) if p >= 1 && p <= parallel_paths as i64 => p as usize - 1,
-                Some(p) => {
-                    return Err(c.err(
-                        "coil",
-                        i,
-                        "path",
-                        format!(
-                            "path {p} does not exist; winding.parallel_paths = {parallel_paths}, \
-                             so give 1 to {parallel_paths}"
-                        ),
-                    ));
-                }
-            };
+            let turns = c.turns_of("coil", i, rc.turns, turns_per_coil)?;
+            let path = c.path_of("coil", i, rc.path, parallel_paths)?;
             coils.push(CoilEntry {
                 phase,
                 go,
@@ -594,16 +619,7 @@ impl RawLayout {
         coils: &mut Vec<CoilEntry>,
     ) -> Result<(), LayoutError> {
         let err = |key: &str, message: String| Err(c.err("group", i, key, message));
-        let Some(phase) = phase_labels.iter().position(|l| *l == g.phase) else {
-            return err(
-                "phase",
-                format!(
-                    "{:?} is not a phase of this machine; use one of {}",
-                    g.phase,
-                    phase_labels.join(", ")
-                ),
-            );
-        };
+        let phase = c.phase_of("group", i, &g.phase, phase_labels)?;
         let z = slots as i64;
         if !(1..=z).contains(&g.first) {
             return err(
@@ -663,29 +679,8 @@ impl RawLayout {
                 );
             }
         };
-        let turns = match g.turns {
-            None => turns_per_coil,
-            Some(t) if (1..=MAX_TURNS as i64).contains(&t) => t as u32,
-            Some(t) => {
-                return err(
-                    "turns",
-                    format!("{t} is not valid; give a whole number from 1 to {MAX_TURNS}"),
-                );
-            }
-        };
-        let path = match g.path {
-            None => 0,
-            Some(p) if p >= 1 && p <= parallel_paths as i64 => p as usize - 1,
-            Some(p) => {
-                return err(
-                    "path",
-                    format!(
-                        "path {p} does not exist; winding.parallel_paths = {parallel_paths}, so \
-                         give 1 to {parallel_paths}"
-                    ),
-                );
-            }
-        };
+        let turns = c.turns_of("group", i, g.turns, turns_per_coil)?;
+        let path = c.path_of("group", i, g.path, parallel_paths)?;
         let linear = self.machine.topology == Topology::Linear;
         // A slot number from 1; on a closed core it wraps past slot Z to slot 1.
         let slot = |n: i64, key: &str| -> Result<usize, LayoutError> {

@@ -448,14 +448,10 @@ pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic
     })
 }
 
-/// Turns in the fullest slot (every coil side in it).
+/// Turns in the fullest slot (every coil side in it): the slot `packing::fullest` finds.
 pub fn conductors_per_slot(w: &Winding) -> u64 {
-    let mut per_slot = vec![0u64; w.geometry.slots];
-    for c in &w.coils {
-        per_slot[c.go] += c.turns as u64;
-        per_slot[c.back] += c.turns as u64;
-    }
-    per_slot.into_iter().max().unwrap_or(0)
+    let (_, sides) = crate::packing::fullest(w);
+    sides.iter().map(|(_, t)| *t as u64).sum()
 }
 
 /// Phase and conductor current for a rated line current: the one rule the card and the

@@ -431,17 +431,7 @@ fn most_turns_for(
 /// A flat primary's operating point at slip `s` by the thrust model (voltage-fed, end effect
 /// included), when the model has what it needs.
 fn operating_point(w: &Winding, s: f64) -> Option<crate::thrust::Row> {
-    if w.geometry.topology != crate::winding::Topology::Linear {
-        return None;
-    }
-    let q = crate::thrust::ThrustQuery {
-        current_a: None,
-        slip_from: s,
-        slip_to: s,
-        steps: 1,
-        end_effect: true,
-    };
-    crate::thrust::thrust(w, &q).ok()?.rows.first().copied()
+    crate::thrust::point_at(w, s).ok()
 }
 
 /// Size a winding for the core and nameplate of `spec` (its coil list and turns, if any,
@@ -519,17 +509,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
                 });
             }
             // The model's own refusal (no plate, gap or supply) before any sizing.
-            crate::thrust::thrust(
-                &w1,
-                &crate::thrust::ThrustQuery {
-                    current_a: None,
-                    slip_from: slip,
-                    slip_to: slip,
-                    steps: 1,
-                    end_effect: true,
-                },
-            )
-            .map_err(SizingError::Thrust)?;
+            crate::thrust::point_at(&w1, slip).map_err(SizingError::Thrust)?;
             Some(Target { thrust_n, slip })
         }
     };
@@ -716,10 +696,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     });
     let thrust = point.zip(target).map(|(p, t)| {
         let plate_loss_w = (t.slip * p.airgap_power_w).max(0.0);
-        let under = w
-            .slot_pitch_m()
-            .zip(chosen.core.stack_m)
-            .map(|(ts, l)| ts * w.geometry.slots as f64 * l);
+        let under = crate::thrust::plate_area_under_m2(&w);
         ThrustCheck {
             wanted: t,
             point: p,

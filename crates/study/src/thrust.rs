@@ -468,6 +468,30 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     }
 }
 
+/// One operating point of the voltage-fed primary at slip `s`, end effect included: the
+/// model built once and one point of it, for a caller that needs a single slip (the
+/// sizing's search over turns), without the sweep and the largest-thrust search.
+pub fn point_at(w: &Winding, s: f64) -> Result<Row, ThrustError> {
+    let md = model(w)?;
+    let v = w
+        .design
+        .supply
+        .line_voltage_v
+        .ok_or(ThrustError::Missing(Input::LineVoltage))?;
+    let feed = Feed::Voltage {
+        phase_voltage_v: w.design.connection.phase_voltage(v),
+    };
+    Ok(point(&md, feed, s, true))
+}
+
+/// The plate's area under the primary, m²: the primary's length (slots × slot pitch) times
+/// the narrower of plate and stack. The one rule for the plate's heat per area.
+pub fn plate_area_under_m2(w: &Winding) -> Option<f64> {
+    let stack = w.design.core.stack_m?;
+    let plate = w.design.secondary.and_then(|s| s.width_m).unwrap_or(stack);
+    Some(w.slot_pitch_m()? * w.geometry.slots as f64 * plate.min(stack))
+}
+
 /// Slip `k` of `steps` from `a` to `b`; a step that lands on synchronism (0) or standstill
 /// (1) is that slip exactly, not the rounding dust beside it (which would read as a tiny
 /// generating or plugging slip).
@@ -608,11 +632,15 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
             }
         }
     }
-    let standstill = point(md, feed, 1.0, end);
-    let under = w
-        .slot_pitch_m()
-        .map_or(0.0, |ts| ts * w.geometry.slots as f64 * plate.min(stack));
-    if standstill.airgap_power_w.is_finite() && under > 0.0 {
+    // At standstill all the gap power heats the plate: the sweep's row there, if it has one.
+    let standstill = rows
+        .iter()
+        .find(|r| r.slip == 1.0)
+        .copied()
+        .unwrap_or_else(|| point(md, feed, 1.0, end));
+    if let Some(under) = plate_area_under_m2(w).filter(|a| *a > 0.0)
+        && standstill.airgap_power_w.is_finite()
+    {
         a.push(Assumption::PlateHeatingAtStandstill {
             watts: standstill.airgap_power_w,
             w_cm2: standstill.airgap_power_w / (under * 1e4),
