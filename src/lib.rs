@@ -9,8 +9,8 @@
 pub use beltwright_model::{design, iron, numbering, sanitize, spec, winding, wire};
 pub use beltwright_present::{draw, output, safety};
 pub use beltwright_study::{
-    assumption, audit, card, factors, field, header, inductance, leakage, linear, loading, packing,
-    pitch, plan, rewind, runs, sizing, study, survey, thrust, warnings,
+    assumption, audit, card, factors, field, header, inductance, layers, leakage, linear, loading,
+    packing, pitch, plan, rewind, runs, sizing, study, survey, thrust, warnings,
 };
 
 pub mod layout;

@@ -3,7 +3,8 @@
 use serde::Deserialize;
 
 use crate::design::{
-    Design, Insulation, Leads, Marking, Material, Measured, Secondary, TurnRule, WireSize, WireSpec,
+    BACKING_STEEL_MS_M, BACKING_STEEL_PERMEABILITY, Backing, Design, Insulation, Leads, Marking,
+    Material, Measured, Secondary, TurnRule, WireSize, WireSpec,
 };
 
 use super::{
@@ -55,6 +56,7 @@ struct RawWinding {
     leads: Option<i64>,
     marking: Option<Marking>,
     phase_resistance_ohm: Option<f64>,
+    temperature_c: Option<f64>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -104,6 +106,10 @@ struct RawSecondary {
     thickness_mm: f64,
     width_mm: Option<f64>,
     back_iron: Option<bool>,
+    temperature_c: Option<f64>,
+    backing_thickness_mm: Option<f64>,
+    backing_conductivity_ms_m: Option<f64>,
+    backing_permeability: Option<f64>,
 }
 
 /// Plate metals with a tabulated conductivity.
@@ -932,6 +938,9 @@ impl RawLayout {
             1e-6,
             1e6,
         )?;
+        d.winding_temperature_c = c
+            .within("winding", "temperature_c", w.temperature_c, -50.0, 250.0)?
+            .unwrap_or(20.0);
         let count = c.range(
             "winding",
             "leads",
@@ -993,7 +1002,71 @@ impl RawLayout {
                     crate::card::wire::PLATE_ALUMINIUM_S_M
                 }
             };
+            let alpha = match s.material {
+                Some(PlateMaterial::Copper) => crate::card::wire::COPPER.alpha_per_k,
+                // Aluminium's coefficient also for a plate given by its conductivity alone
+                // (copper's, 0.00393, differs by 3 %).
+                _ => crate::card::wire::ALUMINIUM.alpha_per_k,
+            };
+            let backing_keys =
+                s.backing_conductivity_ms_m.is_some() || s.backing_permeability.is_some();
+            if backing_keys && s.backing_thickness_mm.is_none() {
+                return Err(c.err(
+                    "secondary",
+                    0,
+                    "backing_thickness_mm",
+                    "the backing's conductivity and permeability need its thickness; give \
+                     backing_thickness_mm, or leave all three out for ideal back iron"
+                        .into(),
+                ));
+            }
+            if s.backing_thickness_mm.is_some() && s.back_iron == Some(false) {
+                return Err(c.err(
+                    "secondary",
+                    0,
+                    "backing_thickness_mm",
+                    "a plate between two primaries (back_iron = false) has no backing; remove \
+                     backing_thickness_mm or set back_iron = true"
+                        .into(),
+                ));
+            }
+            let backing = match c.within(
+                "secondary",
+                "backing_thickness_mm",
+                s.backing_thickness_mm,
+                0.1,
+                500.0,
+            )? {
+                Some(t) => Some(Backing {
+                    thickness_m: t * 1e-3,
+                    conductivity_s_m: c
+                        .within(
+                            "secondary",
+                            "backing_conductivity_ms_m",
+                            s.backing_conductivity_ms_m,
+                            0.0,
+                            60.0,
+                        )?
+                        .unwrap_or(BACKING_STEEL_MS_M)
+                        * 1e6,
+                    relative_permeability: c
+                        .within(
+                            "secondary",
+                            "backing_permeability",
+                            s.backing_permeability,
+                            1.0,
+                            100_000.0,
+                        )?
+                        .unwrap_or(BACKING_STEEL_PERMEABILITY),
+                }),
+                None => None,
+            };
             d.secondary = Some(Secondary {
+                temperature_c: c
+                    .within("secondary", "temperature_c", s.temperature_c, -50.0, 400.0)?
+                    .unwrap_or(20.0),
+                alpha_per_k: alpha,
+                backing,
                 conductivity_s_m: conductivity,
                 thickness_m: c
                     .within(

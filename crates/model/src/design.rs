@@ -344,8 +344,44 @@ pub struct Secondary {
     pub thickness_m: f64,
     /// Plate width across the direction of travel, metres (the stack width when not given).
     pub width_m: Option<f64>,
-    /// True when the plate lies on back iron (single-sided machine).
+    /// True when the plate lies on back iron (single-sided machine); false for a plate
+    /// between two primaries facing each other, both excited (a double-sided pair).
     pub back_iron: bool,
+    /// The plate's working temperature, °C (20 when not given).
+    pub temperature_c: f64,
+    /// The plate metal's temperature coefficient of resistance at 20 °C, 1/K.
+    pub alpha_per_k: f64,
+    /// The steel behind the plate when its thickness is given; `None` with back iron is
+    /// ideal iron (infinitely permeable, not conducting).
+    pub backing: Option<Backing>,
+}
+
+impl Secondary {
+    /// The plate's conductivity at its working temperature, S/m: σ_20/(1 + α·(T − 20))
+    /// (the linear law of IEC 60028 and IEC 60889 for the tabulated metals).
+    pub fn conductivity_hot_s_m(&self) -> f64 {
+        self.conductivity_s_m / (1.0 + self.alpha_per_k * (self.temperature_c - 20.0))
+    }
+}
+
+/// A mild-steel backing's conductivity when only its thickness is given, MS/m (from
+/// memory: low-carbon steels lie about 5 to 7 MS/m at 20 °C; the lower end).
+pub const BACKING_STEEL_MS_M: f64 = 5.0;
+
+/// A mild-steel backing's relative permeability when only its thickness is given (from
+/// memory: a moderate-flux figure for mild steel; the model takes the steel as linear).
+pub const BACKING_STEEL_PERMEABILITY: f64 = 500.0;
+
+/// A steel backing of given thickness behind the plate (a single-sided machine's
+/// secondary iron, when it is not taken as ideal).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Backing {
+    /// Thickness, metres.
+    pub thickness_m: f64,
+    /// Electrical conductivity, S/m.
+    pub conductivity_s_m: f64,
+    /// Relative permeability (a constant: the steel is taken as unsaturated).
+    pub relative_permeability: f64,
 }
 
 /// Lead-marking scheme on the terminal box.
@@ -440,6 +476,9 @@ pub struct Design {
     pub nameplate: Option<Nameplate>,
     /// The shop's job data.
     pub job: Option<Job>,
+    /// The winding's working temperature, °C, for the flat primary's resistance (20 when
+    /// not given).
+    pub winding_temperature_c: f64,
 }
 
 impl Design {
@@ -476,6 +515,7 @@ impl Design {
             turns_assumed: false,
             nameplate: None,
             job: None,
+            winding_temperature_c: 20.0,
         }
     }
 

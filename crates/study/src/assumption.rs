@@ -8,8 +8,27 @@ pub enum Assumption {
     /// The flat primary's model: thin plate, unsaturated iron, secondary leakage neglected,
     /// plate wider than the stack, sinusoidal fields.
     ThrustModel,
-    /// No back iron behind the plate: a double-sided pair of primaries.
+    /// No back iron behind the plate: a double-sided pair of equal primaries fed alike.
     NoBackIron,
+    /// The field model's own assumptions (the layer method of `layers`).
+    FieldModel,
+    /// The working temperatures the resistance and the plate's conductivity are taken at.
+    Temperatures {
+        /// Winding, °C.
+        winding_c: f64,
+        /// Plate, °C.
+        plate_c: f64,
+    },
+    /// The steel backing is thin enough to saturate: its peak flux density (half the flux
+    /// per pole through its section) above the limit.
+    BackingSaturates {
+        /// Peak flux density in the backing, T.
+        tesla: f64,
+        /// The limit, T.
+        limit_tesla: f64,
+        /// Backing thickness, mm.
+        thickness_mm: f64,
+    },
     /// No slot opening given: Carter's coefficient 1.
     NoSlotOpening,
     /// No plate width given: as wide as the stack.
@@ -63,7 +82,7 @@ pub enum Assumption {
     },
     /// No differential leakage could be worked out (no working wave): X1 leaves it out.
     NoDifferentialLeakage,
-    /// The plate's conductivity the model used, at 20 °C.
+    /// The plate's conductivity the model used, at the plate's temperature.
     PlateConductivity {
         /// MS/m.
         ms_m: f64,

@@ -14,6 +14,7 @@ pub mod factors;
 pub mod field;
 pub mod header;
 pub mod inductance;
+pub mod layers;
 pub mod leakage;
 pub mod linear;
 pub mod loading;

@@ -72,9 +72,10 @@ pub enum Input {
     Stack,
 }
 
-/// The gap the flux crosses, one rule for `thrust` and `inductance`: the clearance, plus
-/// the plate (with steel behind it), or twice the clearance and the plate (a plate between
-/// two primaries); without a plate the clearance alone. Carter's coefficient from the slot
+/// The gap the flux crosses, one rule for `thrust`, `inductance` and the field model: the
+/// clearance, plus the plate (with steel behind it), or the clearance and half the plate
+/// (a plate between two equal primaries fed alike: each primary's gap reaches the plate's
+/// mid-plane, where the field's symmetry acts as iron); without a plate the clearance. Carter's coefficient from the slot
 /// opening (none given: 1) makes it the effective gap g_e = k_C·g.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Gap {
@@ -93,9 +94,11 @@ pub fn gap(w: &Winding) -> Result<Gap, ThrustError> {
     let ts = w
         .slot_pitch_m()
         .ok_or(ThrustError::Missing(Input::SlotPitch))?;
+    // A pair's field is mirror-symmetric about the plate's mid-plane (no tangential
+    // field there, as on iron): each primary's gap reaches to it.
     let g = match d.secondary {
         Some(s) if s.back_iron => clearance + s.thickness_m,
-        Some(s) => 2.0 * clearance + s.thickness_m,
+        Some(s) => clearance + s.thickness_m / 2.0,
         None => clearance,
     };
     let carter = match d.slot_opening_m {
@@ -157,7 +160,8 @@ pub struct Circuit {
     pub effective_turns: f64,
     /// Pole pairs p (half-integer for odd-pole primaries).
     pub pole_pairs: f64,
-    /// Primary resistance per phase at 20 °C, ohms.
+    /// Primary resistance per phase at the winding's temperature (`[winding] temperature_c`,
+    /// 20 °C when not given), ohms.
     pub r1_ohm: f64,
     /// Primary leakage reactance per phase (slot + end + differential), ohms.
     pub x1_ohm: f64,
@@ -228,6 +232,8 @@ pub struct ThrustReport {
     /// The same slips without Duncan's end effect, as a long primary would run (empty when
     /// the end effect is left out: then `rows` are those).
     pub long_primary_rows: Vec<Row>,
+    /// The finite primary's own field by the layer method, at the same slips.
+    pub field_model: crate::layers::FieldModel,
     /// Largest thrust in the slip range and its slip.
     pub max_thrust_n: f64,
     /// Slip of the largest thrust.
@@ -268,19 +274,27 @@ pub fn duncan_f(q: f64) -> f64 {
 }
 
 /// Everything fixed by the winding and the plate, before any slip.
-struct Model {
-    circuit: Circuit,
+pub(crate) struct Model {
+    pub(crate) circuit: Circuit,
     g: f64,
     kc: f64,
     edge: f64,
-    ge: f64,
+    pub(crate) ge: f64,
     lm: f64,
-    vs: f64,
+    pub(crate) vs: f64,
     m: f64,
+    /// 2 for a plate between two primaries (thrust and power of both), else 1.
+    sides: f64,
     assumptions: Vec<Assumption>,
 }
 
-fn model(w: &Winding) -> Result<Model, ThrustError> {
+/// Mechanical output over electrical input while motoring (0 ≤ s ≤ 1, both powers
+/// positive, output within input); `None` otherwise. One rule for both models.
+pub(crate) fn efficiency(s: f64, p_in: f64, p_out: f64) -> Option<f64> {
+    ((0.0..=1.0).contains(&s) && p_in > 0.0 && p_out >= 0.0 && p_out <= p_in).then(|| p_out / p_in)
+}
+
+pub(crate) fn model(w: &Winding) -> Result<Model, ThrustError> {
     let geo = &w.geometry;
     if geo.topology != Topology::Linear {
         return Err(ThrustError::NotLinear);
@@ -305,7 +319,7 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
         .stack_m
         .ok_or(ThrustError::Missing(Input::Stack))?;
     let tau = ts * geo.pole_pitch_slots;
-    let mut assumptions = vec![Assumption::ThrustModel];
+    let mut assumptions = vec![Assumption::ThrustModel, Assumption::FieldModel];
     if !sec.back_iron {
         assumptions.push(Assumption::NoBackIron);
     }
@@ -329,11 +343,15 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
     // Three-phase form generalised to m phases: L_m = 2m·μ0·τ·W·(N·k_w1)²/(π²·p·g_e).
     let lm = 2.0 * m * MU0 * tau * width * nkw * nkw / (PI * PI * p * ge);
     let xm = omega * lm;
-    let goodness =
-        MU0 * omega * tau * tau * sec.conductivity_s_m * edge * sec.thickness_m / (PI * PI * ge);
+    let sides = if sec.back_iron { 1.0 } else { 2.0 };
+    // Per primary: a pair's primary drives half the plate (see [`gap`]).
+    let goodness = MU0 * omega * tau * tau * sec.conductivity_hot_s_m() * edge * sec.thickness_m
+        / sides
+        / (PI * PI * ge);
     let r2 = xm / goodness;
+    let hot = 1.0 + crate::wire::COPPER.alpha_per_k * (d.winding_temperature_c - 20.0);
     let r1 = match phase_resistances_20c(w) {
-        Some(r) => r.iter().sum::<f64>() / r.len().max(1) as f64,
+        Some(r) => r.iter().sum::<f64>() / r.len().max(1) as f64 * hot,
         None => {
             assumptions.push(Assumption::NoPrimaryResistance);
             0.0
@@ -381,6 +399,7 @@ fn model(w: &Winding) -> Result<Model, ThrustError> {
         lm,
         vs: 2.0 * f * tau,
         m,
+        sides,
         assumptions,
     })
 }
@@ -441,12 +460,13 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     // Air-gap power m·|I2|²·R2'/s = m·|I1|²·(s/R2')/|ym + y2|²: the same, without the
     // division by s.
     let p_gap = md.m * i1.norm_sqr() * (s / c.r2_ohm) / ysum.norm_sqr();
+    // A pair: both primaries' thrust and power (each primary's circuit is the same).
+    let p_gap = p_gap * md.sides;
     let thrust = p_gap / md.vs;
-    let p_in = md.m * (z * i1.norm_sqr()).re;
+    let p_in = md.m * (z * i1.norm_sqr()).re * md.sides;
     let p_out = thrust * v;
     // Motoring from synchronism (0) to standstill (0 as well): output over input.
-    let efficiency = ((0.0..=1.0).contains(&s) && p_in > 0.0 && p_out >= 0.0 && p_out <= p_in)
-        .then(|| p_out / p_in);
+    let efficiency = efficiency(s, p_in, p_out);
     // Normal force from the current sheets (peak linear current densities).
     let sheet =
         |i: f64| md.m * 2f64.sqrt() * c.effective_turns * i / (c.pole_pairs * c.pole_pitch_m);
@@ -557,6 +577,14 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     let s_max = (lo + hi) / 2.0;
     let f_max = at(s_max);
     let checked = checks(w, &md, feed, &rows, query.end_effect);
+    let slips: Vec<f64> = rows.iter().map(|r| r.slip).collect();
+    let mut field_model = crate::layers::field_model(w, feed, &slips)?;
+    field_model.standstill_thrust_ratio = rows
+        .iter()
+        .zip(&field_model.rows)
+        .find(|(c, _)| c.slip == 1.0 && c.thrust_n != 0.0)
+        .map(|(c, f)| f.thrust_n / c.thrust_n);
+    field_model.max_thrust_ratio = (f_max != 0.0).then(|| field_model.max_thrust_n / f_max);
     Ok(ThrustReport {
         design: crate::header::of(w),
         title: w.labels.title.clone(),
@@ -572,6 +600,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         circuit: md.circuit,
         rows,
         long_primary_rows,
+        field_model,
         max_thrust_n: f_max,
         max_thrust_slip: s_max,
         assumptions: {
@@ -593,8 +622,36 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
         return a;
     };
     a.push(Assumption::PlateConductivity {
-        ms_m: sec.conductivity_s_m * 1e-6,
+        ms_m: sec.conductivity_hot_s_m() * 1e-6,
     });
+    a.push(Assumption::Temperatures {
+        winding_c: d.winding_temperature_c,
+        plate_c: sec.temperature_c,
+    });
+    // A steel backing of given thickness carries half the flux per pole through its
+    // section (the back-iron rule of `loading`), at the largest flux: synchronism on the
+    // long-primary circuit, where no secondary current opposes the magnetising current.
+    if let Some(b) = sec.backing {
+        let c = &md.circuit;
+        let e = match feed {
+            Feed::Voltage { phase_voltage_v } => {
+                let z = Complex64::new(c.r1_ohm, c.x1_ohm + c.xm_ohm);
+                phase_voltage_v * c.xm_ohm / z.norm()
+            }
+            Feed::Current { phase_current_a } => phase_current_a * c.xm_ohm,
+        };
+        let f = c.omega / (2.0 * PI);
+        let phi = crate::loading::flux_per_pole(e, f, c.effective_turns);
+        let tesla = phi / (2.0 * b.thickness_m * c.width_m);
+        let limit = crate::loading::YOKE_LIMIT_T;
+        if tesla > limit {
+            a.push(Assumption::BackingSaturates {
+                tesla,
+                limit_tesla: limit,
+                thickness_mm: b.thickness_m * 1e3,
+            });
+        }
+    }
     let stack = d.core.stack_m.unwrap_or(0.0);
     let plate = sec.width_m.unwrap_or(stack);
     if plate < stack {
@@ -607,7 +664,7 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
     // so it is thinner than δ/√s below s = (δ/t)² (the classical skin depth, e.g.
     // Jackson, Classical Electrodynamics, §8.1).
     let omega = 2.0 * PI * d.supply.frequency_hz.unwrap_or(0.0);
-    let delta = (2.0 / (omega * MU0 * sec.conductivity_s_m)).sqrt();
+    let delta = (2.0 / (omega * MU0 * sec.conductivity_hot_s_m())).sqrt();
     if omega > 0.0 && sec.thickness_m > delta {
         a.push(Assumption::PlateThickerThanSkinDepth {
             thickness_mm: sec.thickness_m * 1e3,

@@ -127,12 +127,28 @@ pub fn chart(b: Rect, title: &str, x_title: &str, y_title: &str, series: &[Serie
         if series.len() == 1 {
             continue;
         }
+        // The last keys that fit right of the axis title; those before them in a second
+        // row above, right of the chart's title (on a narrow page).
         let widths: Vec<f64> = series
             .iter()
             .map(|s| 10.0 + text::width(s.name, TICK) + 6.0)
             .collect();
-        let lx = right - widths[i..].iter().sum::<f64>() + 6.0;
-        let ly = top - 1.2 - TICK * 0.35;
+        let room = right - (left + text::width(y_title, TICK) + 4.0);
+        let mut first_low = series.len();
+        while first_low > 0 && widths[first_low - 1..].iter().sum::<f64>() - 6.0 <= room {
+            first_low -= 1;
+        }
+        let (lx, ly) = if i >= first_low {
+            (
+                right - widths[i..].iter().sum::<f64>() + 6.0,
+                top - 1.2 - TICK * 0.35,
+            )
+        } else {
+            (
+                right - widths[i..first_low].iter().sum::<f64>() + 6.0,
+                top - 1.2 - TICK * 0.35 - (TICK + 1.2),
+            )
+        };
         let mut key = rule(lx, ly, lx + 8.0, ly, 0.6).set("stroke", s.colour);
         if !s.dash.is_empty() {
             key = key.set("stroke-dasharray", s.dash);

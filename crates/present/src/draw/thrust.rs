@@ -12,7 +12,7 @@ use crate::output::num;
 use crate::thrust::ThrustReport;
 
 /// Okabe–Ito black, vermillion and blue (M. Okabe, K. Ito, "Color Universal Design", 2008).
-const INK: [&str; 3] = ["#000000", "#D55E00", "#0072B2"];
+const INK: [&str; 4] = ["#000000", "#D55E00", "#0072B2", "#009E73"];
 
 /// Whether the winding carries what the performance model needs.
 pub fn applies(s: &crate::study::Study) -> bool {
@@ -55,7 +55,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
 fn sheet(with: &ThrustReport, a: Rect) -> Group {
     let notes = format!(
         "v_s = {} m/s; G = {}; k_C = {}; edge factor {}; g_e = {} mm; L_m = {} mH; R2' = {} \
-         ohm. Largest thrust {} N at slip {}. Model: {}",
+         ohm. Largest thrust {} N at slip {} (circuit), {} N at slip {} (field model). Model: {}",
         num(with.synchronous_speed_m_s, 3),
         num(with.goodness_factor, 3),
         num(with.carter_coefficient, 4),
@@ -65,6 +65,8 @@ fn sheet(with: &ThrustReport, a: Rect) -> Group {
         num(with.secondary_resistance_ohm, 4),
         num(with.max_thrust_n, 1),
         num(with.max_thrust_slip, 3),
+        num(with.field_model.max_thrust_n, 1),
+        num(with.field_model.max_thrust_slip, 3),
         with.assumptions
             .iter()
             .map(Words::message)
@@ -99,10 +101,21 @@ fn sheet(with: &ThrustReport, a: Rect) -> Group {
             },
         ]
     };
-    let [thrust_with, thrust_without] =
-        both(["thrust, with end effect", "thrust, no end effect"], &|r| {
-            r.thrust_n
-        });
+    let [thrust_with, thrust_without] = both(["thrust, circuit", "circuit, no end effect"], &|r| {
+        r.thrust_n
+    });
+    // The finite primary's own field (layer method): the fourth ink, long dashes.
+    let field = |name: &'static str, f: &dyn Fn(&crate::layers::FieldRow) -> f64| Series {
+        name,
+        points: with
+            .field_model
+            .rows
+            .iter()
+            .map(|r| (r.speed_m_s, f(r)))
+            .collect(),
+        colour: INK[3],
+        dash: "5 1.5",
+    };
     let top = chart(
         Rect {
             x: a.x,
@@ -116,8 +129,9 @@ fn sheet(with: &ThrustReport, a: Rect) -> Group {
         &[
             thrust_with,
             thrust_without,
+            field("thrust, field model", &|r| r.thrust_n),
             Series {
-                name: "normal force (attraction +)",
+                name: "normal force, circuit (+ attracts)",
                 points: pts(&with.rows, &|r| r.normal_force_n),
                 colour: INK[2],
                 dash: "0.8 1.2",
@@ -134,10 +148,18 @@ fn sheet(with: &ThrustReport, a: Rect) -> Group {
         "Phase current against speed",
         "secondary speed, m/s",
         "current, A",
-        &both(
-            ["current, with end effect", "current, no end effect"],
-            &|r| r.current_a,
-        ),
+        &{
+            let [a, b] = both(["current, circuit", "circuit, no end effect"], &|r| {
+                r.current_a
+            });
+            [
+                a,
+                b,
+                field("field model, largest phase", &|r| {
+                    r.phase_currents_a.iter().copied().fold(0.0, f64::max)
+                }),
+            ]
+        },
     );
     let mut g = Group::new()
         .set("class", "performance")

@@ -78,7 +78,11 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
             ),
         ];
         s.push(Section::Lines(lines.iter().map(|l| paragraph(l)).collect()));
+        s.push(Section::Heading(
+            "Equivalent circuit (per phase, sinusoidal field)".into(),
+        ));
         s.push(Section::Table(table_every(this, every)));
+        s.extend(field_sections(this, every));
         let mut notes: Vec<String> =
             vec!["slip below 0: generating; above 1: plugging (braking against the field)".into()];
         if this.rows.iter().any(|r| r.power_factor < 0.0) {
@@ -97,6 +101,71 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
         s.push(super::caution());
         s
     }
+}
+
+/// The field model's lines and table, beside the circuit's.
+fn field_sections(report: &ThrustReport, every: usize) -> Vec<Section> {
+    let fm = &report.field_model;
+    let mut lines = vec![format!(
+        "largest thrust {} N at slip {}{}",
+        num(fm.max_thrust_n, 2),
+        num(fm.max_thrust_slip, 4),
+        fm.max_thrust_ratio.map_or(String::new(), |r| format!(
+            ", {} of the circuit's",
+            num(r, 3)
+        ))
+    )];
+    if let Some(r) = fm.standstill_thrust_ratio {
+        lines.push(format!(
+            "at standstill the field model gives {} of the circuit's thrust",
+            num(r, 3)
+        ));
+    }
+    lines.push(format!(
+        "per phase: R1 = {} ohm, slot and end leakage {} ohm; {} wavenumbers up to {} 1/m \
+         over a {} m window",
+        num(fm.r1_ohm, 4),
+        num(fm.x_leakage_ohm, 4),
+        fm.wavenumbers,
+        num(fm.k_max_per_m, 0),
+        num(fm.window_m, 3)
+    ));
+    if fm.double_sided {
+        lines.push(
+            "two primaries: thrust, power and heat of both; normal force is each primary's \
+             pull toward the plate"
+                .into(),
+        );
+    }
+    let mut t = Table::new(&[
+        ("slip", Align::Right),
+        ("thrust N", Align::Right),
+        ("normal N (+ attracts)", Align::Right),
+        ("phase currents A", Align::Right),
+        ("power factor", Align::Right),
+        ("efficiency", Align::Right),
+        ("plate heat W", Align::Right),
+    ]);
+    for r in fm.rows.iter().step_by(every.max(1)) {
+        t.push(vec![
+            num(r.slip, 4),
+            num(r.thrust_n, 2),
+            num(r.normal_force_n, 2),
+            r.phase_currents_a
+                .iter()
+                .map(|i| num(*i, 2))
+                .collect::<Vec<_>>()
+                .join(" "),
+            num(r.power_factor, 3),
+            r.efficiency.map_or(String::new(), |e| num(e, 3)),
+            num(r.secondary_loss_w, 1),
+        ]);
+    }
+    vec![
+        Section::Heading("Field of the finite primary (layer method)".into()),
+        Section::Lines(lines.iter().map(|l| paragraph(l)).collect()),
+        Section::Table(t),
+    ]
 }
 
 /// The performance table with every `every`-th operating point.

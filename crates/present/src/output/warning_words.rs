@@ -205,13 +205,41 @@ impl fmt::Display for Say<'_, Assumption> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self.0 {
             Assumption::ThrustModel => f.write_str(
-                "thin plate, unsaturated iron, secondary leakage neglected, plate at least as wide \
+                "circuit: thin plate, unsaturated iron, secondary leakage neglected, plate at least as wide \
                  as the stack, sinusoidal fields (a first estimate, not a test result; each is \
                  checked against the inputs below)",
             ),
             Assumption::NoBackIron => f.write_str(
-                "no back iron: taken as a double-sided pair of primaries, gap 2 x clearance + \
-                 plate",
+                "no back iron: a plate between two equal primaries fed alike; each primary's \
+                 gap reaches the plate's mid-plane, thrust and power are of both, the normal \
+                 force is each primary's pull (zero net on a centred plate)",
+            ),
+            Assumption::FieldModel => f.write_str(
+                "field model: the finite primary's slot currents as a current sheet, Fourier \
+                 transformed, over a two-dimensional gap and plate (skin effect included); \
+                 primary iron infinitely permeable and taken as reaching past the primary's \
+                 ends; slots smoothed by Carter's coefficient; edge effect by the \
+                 Russell-Norsworthy factor of each wavelength; backing steel linear",
+            ),
+            Assumption::Temperatures { winding_c, plate_c } => write!(
+                f,
+                "winding at {} °C, plate at {} °C ([winding] temperature_c, [secondary] \
+                 temperature_c; 20 °C when not given)",
+                num(*winding_c, 1),
+                num(*plate_c, 1)
+            ),
+            Assumption::BackingSaturates {
+                tesla,
+                limit_tesla,
+                thickness_mm,
+            } => write!(
+                f,
+                "the {} mm backing carries about {} T at the largest flux, above the {} T \
+                 back-iron limit: it saturates, while the models take it as linear, so thrust \
+                 and normal force are overstated",
+                num(*thickness_mm, 2),
+                num(*tesla, 2),
+                num(*limit_tesla, 2)
             ),
             Assumption::NoSlotOpening => {
                 f.write_str("no slot opening given: Carter's coefficient 1")
@@ -250,8 +278,8 @@ impl fmt::Display for Say<'_, Assumption> {
             ),
             Assumption::PlateConductivity { ms_m } => write!(
                 f,
-                "the plate's conductivity is taken as {} MS/m (at 20 °C; a warm plate conducts \
-                 less and gives less thrust at a given slip)",
+                "the plate's conductivity is taken as {} MS/m at its temperature (a warm plate \
+                 conducts less and gives less thrust at a given slip)",
                 num(*ms_m, 3)
             ),
             Assumption::PlateNarrowerThanStack { plate_mm, stack_mm } => write!(
@@ -268,7 +296,8 @@ impl fmt::Display for Say<'_, Assumption> {
             } => write!(
                 f,
                 "the plate ({} mm) is thicker than its skin depth at the supply frequency ({} \
-                 mm): the thin-plate model holds only below slip {}",
+                 mm): the circuit's thin-plate model holds only below slip {} (the field model \
+                 takes the skin effect)",
                 num(*thickness_mm, 2),
                 num(*skin_depth_mm, 2),
                 num(*thin_below_slip, 3)
@@ -295,7 +324,8 @@ impl fmt::Display for Say<'_, Assumption> {
             Assumption::GapLargeAgainstPitch { ratio } => write!(
                 f,
                 "the magnetic gap is {} of the pole pitch, not small against it (above 0.1): \
-                 the one-dimensional gap overstates thrust and normal force",
+                 the circuit's one-dimensional gap overstates thrust and normal force (the \
+                 field model takes the gap in two dimensions)",
                 num(*ratio, 3)
             ),
             Assumption::CoilMatrixOmitted { coils, limit } => write!(

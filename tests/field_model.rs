@@ -1,0 +1,326 @@
+//! The flat primary's field by the layer method against closed forms, an independent
+//! transfer-matrix solution, the energy balance and its own convergence.
+
+use beltwright::layers::{Far, Sheet, face_ratio};
+use beltwright::layout;
+use beltwright::thrust::{self, Feed, MU0, ThrustQuery};
+use beltwright::winding::{self, Winding};
+use num_complex::Complex64 as C;
+use std::f64::consts::PI;
+
+fn wind(src: &str) -> Winding {
+    let spec = layout::parse(src, "test.toml").unwrap_or_else(|e| panic!("{e}"));
+    winding::build(&spec).unwrap_or_else(|e| panic!("{e}"))
+}
+
+/// A flat primary of `poles` poles, q = 2, span 5 of 6, 12 mm slot pitch, 3 mm clearance
+/// over a plate `plate` mm thick, with `secondary_extra` keys in `[secondary]`.
+fn primary(poles: usize, plate: f64, secondary_extra: &str) -> Winding {
+    let slots = poles * 6 + 5;
+    wind(&format!(
+        "[machine]\ntopology = \"linear\"\nslots = {slots}\npoles = {poles}\n\
+         [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+         [core]\nslot_pitch_mm = 12.0\nstack_mm = 80.0\nairgap_mm = 3.0\n\
+         slot_opening_mm = 3.0\nslot_width_mm = 6.0\nslot_depth_mm = 10.0\n\
+         [wire]\nawg = 21\n\
+         [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+         [secondary]\nmaterial = \"aluminium\"\nthickness_mm = {plate}\nwidth_mm = 120.0\n\
+         {secondary_extra}\n"
+    ))
+}
+
+const SIGMA: f64 = 35.4e6;
+const OMEGA: f64 = 2.0 * PI * 50.0;
+
+// One wave over a thin plate on ideal iron, the gap small against the wavelength: the
+// layers give R(0) = −(k²·g/μ0)·(1 + j·s·G) with G = μ0·σ·d·ω·s⁰/(k²·g), g = air + plate,
+// Laithwaite's goodness factor (E. R. Laithwaite, "The goodness of a machine", Proc. IEE
+// 1965; the one-dimensional sheet the equivalent circuit stands for). The corrections are
+// of order (1 + s·G)²·(k·g)², so at k·g = 1e-4 and G = 14 the two agree to about 2e-6.
+#[test]
+fn one_wave_over_a_thin_plate_is_the_goodness_factor_sheet() {
+    let k = 10.0; // 1/m: τ = π/k = 314 mm
+    let (air, d) = (0.9e-5, 0.1e-5);
+    let g = air + d;
+    for s in [0.05, 0.3, 1.0] {
+        let r = face_ratio(k, s * OMEGA, SIGMA, d, (k * air).tanh(), Far::Iron);
+        let gf = MU0 * SIGMA * d * OMEGA / (k * k * g);
+        let want = C::new(1.0, s * gf) * (-(k * k) * g / MU0);
+        assert!(
+            ((r - want) / want).norm() < 1e-5 && ((r.re - want.re) / want.re).abs() < 1e-5,
+            "s = {s}: {r} against {want} (G = {gf})"
+        );
+    }
+}
+
+// Without a conductor the gap is two iron surfaces with the current sheet on one: Laplace's
+// equation gives A(0) = μ0·K̂·coth(k·g)/k, so R(0) = −k·tanh(k·g)/μ0 exactly; it tends to
+// the one-dimensional −k²g/μ0 as k·g → 0 (the circuit's gap).
+#[test]
+fn the_gap_alone_is_the_closed_form_between_two_irons() {
+    for (k, g) in [(5.0, 0.01), (40.0, 0.01), (300.0, 0.004)] {
+        let r = face_ratio(k, OMEGA, 0.0, 0.002, (k * (g - 0.002)).tanh(), Far::Iron);
+        let want = -k * (k * g).tanh() / MU0;
+        assert!((r.re / want - 1.0).abs() < 1e-12 && r.im.abs() < 1e-9 * want.abs());
+    }
+    let (k, g) = (1.0, 1e-4);
+    let r = face_ratio(k, OMEGA, 0.0, 0.0, (k * g).tanh(), Far::Iron);
+    assert!((r.re / (-k * k * g / MU0) - 1.0).abs() < 1e-8);
+}
+
+// A plate many skin depths thick right on the primary face is a conducting half-space:
+// R(0) = −γ/μ0 with γ = √(k² + jωμ0σ·s), the surface impedance of a half-space in a
+// travelling field (R. L. Stoll, *The Analysis of Eddy Currents*, 1974, ch. 2, from memory).
+#[test]
+fn a_thick_plate_is_a_conducting_half_space() {
+    for (k, s) in [(10.0, 1.0), (100.0, 0.2), (3.0, 0.02)] {
+        let gamma = C::new(k * k, OMEGA * MU0 * SIGMA * s).sqrt();
+        let d = 60.0 / gamma.re;
+        let r = face_ratio(k, s * OMEGA, SIGMA, d, (k * 1e-12).tanh(), Far::Iron);
+        let want = -gamma / MU0;
+        assert!(((r - want) / want).norm() < 1e-9, "{r} against {want}");
+    }
+}
+
+/// The same layers by an independent route: 2×2 transfer matrices of (A, H_x) through each
+/// layer, [cosh γt, (μ/γ)·sinh γt; (γ/μ)·sinh γt, cosh γt] (the multilayer travelling-wave
+/// formulation of J. Greig and E. M. Freeman, Proc. IEE 1967, and E. M. Freeman, Proc. IEE
+/// 1968, from memory), from the primary face to air reaching infinity.
+fn transfer_matrix_ratio(k: f64, sw: f64, layers: &[(f64, f64, f64)]) -> C {
+    // Unknown (A0, H0) at the face; carry the two columns of the identity and ask that the
+    // field above the last layer decays: H = −(|k|/μ0)·A there.
+    let mut m = [
+        [C::new(1.0, 0.0), C::new(0.0, 0.0)],
+        [C::new(0.0, 0.0), C::new(1.0, 0.0)],
+    ];
+    for &(t, sigma, mu) in layers {
+        let g = C::new(k * k, mu * sigma * sw).sqrt();
+        let (ch, sh) = ((g * t).cosh(), (g * t).sinh());
+        let l = [[ch, sh * mu / g], [sh * g / mu, ch]];
+        let mut n = [[C::new(0.0, 0.0); 2]; 2];
+        for i in 0..2 {
+            for j in 0..2 {
+                n[i][j] = l[i][0] * m[0][j] + l[i][1] * m[1][j];
+            }
+        }
+        m = n;
+    }
+    // H_top + (|k|/μ0)·A_top = 0 with (A_top, H_top) = M·(1, R): solve for R = H0/A0.
+    let c = k.abs() / MU0;
+    -(m[1][0] + c * m[0][0]) / (m[1][1] + c * m[0][1])
+}
+
+// The recursion of the ratio R and the transfer matrices agree for an air gap, a plate,
+// a conducting permeable steel backing and air beyond, at several waves and slips.
+#[test]
+fn the_layers_agree_with_transfer_matrices_through_a_steel_backing() {
+    let (air, d) = (0.003, 0.004);
+    let (tb, sb, mur) = (0.006, 5e6, 300.0);
+    for (k, s) in [(20.0, 1.0), (43.6, 0.1), (200.0, -0.3), (-43.6, 1.9)] {
+        let sw = s * OMEGA;
+        let ours = face_ratio(
+            k,
+            sw,
+            SIGMA,
+            d,
+            (k.abs() * air).tanh(),
+            Far::Steel {
+                t: tb,
+                sigma: sb,
+                mu: mur * MU0,
+            },
+        );
+        let theirs = transfer_matrix_ratio(
+            k,
+            sw,
+            &[(air, 0.0, MU0), (d, SIGMA, MU0), (tb, sb, mur * MU0)],
+        );
+        assert!(
+            ((ours - theirs) / theirs).norm() < 1e-10,
+            "k = {k}, s = {s}: {ours} against {theirs}"
+        );
+    }
+}
+
+fn slips() -> Vec<f64> {
+    (0..=10).map(|i| -0.2 + 1.6 * i as f64 / 10.0).collect()
+}
+
+// Energy: at every slip, electrical input = copper loss + mechanical power F·v + the heat
+// in plate and backing. The heat is integrated as σ·|s_k·ω·A|² through each layer, a route
+// independent of the gap power and the Maxwell-stress thrust (Poynting's theorem).
+#[test]
+fn input_is_copper_plus_output_plus_secondary_heat_at_every_slip() {
+    let w = primary(
+        4,
+        4.0,
+        "backing_thickness_mm = 5.0\nbacking_conductivity_ms_m = 5.0\nbacking_permeability = 300",
+    );
+    let phase_v = 400.0 / 3f64.sqrt();
+    for feed in [
+        Feed::Voltage {
+            phase_voltage_v: phase_v,
+        },
+        Feed::Current {
+            phase_current_a: 10.0,
+        },
+    ] {
+        let sl = slips();
+        let sheet = Sheet::new(&w, feed, &sl).expect("model");
+        for s in sl {
+            let row = sheet.point(s);
+            let amps = sheet.currents_at(s);
+            let (plate, backing) = sheet.layer_losses(s, &amps);
+            assert!(backing > 0.0 && plate > 0.0);
+            let balance = row.copper_loss_w + row.thrust_n * row.speed_m_s + plate + backing;
+            assert!(
+                (row.input_w - balance).abs() < 1e-6 * row.input_w.abs().max(1.0),
+                "s = {s}: input {} against {balance}",
+                row.input_w
+            );
+            assert!((row.secondary_loss_w - plate - backing).abs() < 1e-6 * row.input_w.abs());
+        }
+    }
+}
+
+// The integrals over the wavenumber are converged: twice the window and twice the
+// wavenumber range change thrust, normal force and current by less than 0.1 %.
+#[test]
+fn the_wavenumber_grid_is_converged() {
+    for w in [primary(2, 4.0, ""), primary(4, 6.0, "back_iron = false")] {
+        let feed = Feed::Voltage {
+            phase_voltage_v: 230.0,
+        };
+        let sl = [0.0, 0.05, 0.3, 1.0];
+        let a = Sheet::new(&w, feed, &sl).expect("model");
+        let b = Sheet::with_grid(&w, feed, &sl, 2.0).expect("model");
+        for s in sl {
+            let (x, y) = (a.point(s), b.point(s));
+            let scale = y.thrust_n.abs().max(0.02 * y.normal_force_n.abs());
+            assert!((x.thrust_n - y.thrust_n).abs() < 1e-3 * scale, "s = {s}");
+            assert!((x.normal_force_n - y.normal_force_n).abs() < 1e-3 * y.normal_force_n.abs());
+            assert!((x.phase_currents_a[0] / y.phase_currents_a[0] - 1.0).abs() < 1e-3);
+        }
+    }
+}
+
+// A long primary tends to the periodic machine: at standstill the field model's thrust
+// over the circuit's long-primary figure (current-fed, no end effect: the goodness-factor
+// sheet) approaches 1 as 1 − c/p with the pole pairs p, the ends' share of the primary.
+// With a gap small against the pole pitch (k·g_e ≈ 0.02, so the two-dimensional gap is
+// the one-dimensional one to 1e-4), extrapolating 24 and 48 poles to infinitely many
+// (Richardson, in 1/p) leaves the space harmonics' own thrust, well under 0.5 %.
+#[test]
+fn a_long_primary_tends_to_the_goodness_factor_sheet() {
+    let q = ThrustQuery {
+        current_a: Some(10.0),
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 4,
+        end_effect: false,
+    };
+    let ratio = |poles: usize| -> f64 {
+        let slots = poles * 6 + 5;
+        let w = wind(&format!(
+            "[machine]\ntopology = \"linear\"\nslots = {slots}\npoles = {poles}\n\
+             [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+             [core]\nslot_pitch_mm = 12.0\nstack_mm = 80.0\nairgap_mm = 0.3\n\
+             [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+             [secondary]\nmaterial = \"aluminium\"\nthickness_mm = 0.2\nwidth_mm = 400.0\n"
+        ));
+        let r = thrust::thrust(&w, &q).expect("model");
+        let (c, f) = (&r.rows[4], &r.field_model.rows[4]);
+        assert_eq!(c.slip, 1.0);
+        f.thrust_n / c.thrust_n
+    };
+    let (r8, r24, r48) = (ratio(8), ratio(24), ratio(48));
+    assert!(r8 < r24 && r24 < r48 && r48 < 1.0, "{r8} {r24} {r48}");
+    let limit = 2.0 * r48 - r24;
+    assert!((limit - 1.0).abs() < 0.005, "{r24} {r48} → {limit}");
+}
+
+// A plate between two equal primaries fed alike: by the mirror symmetry of their field
+// about the plate's mid-plane (B_x = 0 there, as on ideal iron), the pair pushes with twice
+// what one primary does over half the plate on ideal iron at the same clearance; the
+// normal force is each primary's own pull.
+#[test]
+fn a_pair_pushes_with_both_primaries() {
+    let q = ThrustQuery {
+        current_a: None,
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 4,
+        end_effect: true,
+    };
+    let pair = thrust::thrust(&primary(4, 6.0, "back_iron = false"), &q).expect("pair");
+    let half = thrust::thrust(&primary(4, 3.0, ""), &q).expect("one side");
+    for (p, h) in pair.field_model.rows.iter().zip(&half.field_model.rows) {
+        assert!((p.thrust_n - 2.0 * h.thrust_n).abs() < 1e-9 * h.thrust_n.abs().max(1.0));
+        assert!((p.normal_force_n - h.normal_force_n).abs() < 1e-9 * h.normal_force_n.abs());
+    }
+    for (p, h) in pair.rows.iter().zip(&half.rows) {
+        assert!((p.thrust_n - 2.0 * h.thrust_n).abs() < 1e-9 * h.thrust_n.abs().max(1.0));
+    }
+}
+
+// The working temperatures: the plate's conductivity falls as 1/(1 + α·ΔT) with α = 0.00403
+// for aluminium (IEC 60889), the winding's resistance rises as 1 + 0.00393·ΔT (IEC 60028).
+#[test]
+fn temperatures_set_the_resistance_and_the_plate_conductivity() {
+    let q = ThrustQuery {
+        current_a: Some(10.0),
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 2,
+        end_effect: true,
+    };
+    let cold = thrust::thrust(&primary(4, 4.0, ""), &q).expect("cold");
+    let w = {
+        let mut w = primary(4, 4.0, "temperature_c = 100.0");
+        w.design.winding_temperature_c = 75.0;
+        w
+    };
+    let hot = thrust::thrust(&w, &q).expect("hot");
+    let r = hot.circuit.r1_ohm / cold.circuit.r1_ohm;
+    assert!((r - (1.0 + 0.00393 * 55.0)).abs() < 1e-12, "{r}");
+    let g = hot.goodness_factor / cold.goodness_factor;
+    assert!((g - 1.0 / (1.0 + 0.00403 * 80.0)).abs() < 1e-12, "{g}");
+    let said = serde_json::to_string(&hot.assumptions).expect("json");
+    assert!(said.contains("\"winding_c\":75.0") && said.contains("\"plate_c\":100.0"));
+}
+
+// A thin steel backing saturates: half the flux per pole through a 0.5 mm section passes
+// the back-iron limit, and the report says so with its figure; 20 mm does not.
+#[test]
+fn a_thin_backing_is_reported_as_saturating() {
+    let q = ThrustQuery {
+        current_a: None,
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 2,
+        end_effect: true,
+    };
+    let says = |t: f64| -> bool {
+        let w = primary(4, 4.0, &format!("backing_thickness_mm = {t}"));
+        let r = thrust::thrust(&w, &q).expect("model");
+        r.assumptions.iter().any(|a| {
+            matches!(a, beltwright::assumption::Assumption::BackingSaturates { tesla, .. } if *tesla > 1.6)
+        })
+    };
+    assert!(says(0.5));
+    assert!(!says(20.0));
+}
+
+// The backing's conductivity or permeability without its thickness is refused, naming the
+// key that is missing.
+#[test]
+fn a_backing_without_its_thickness_is_refused() {
+    let src = "[machine]\ntopology = \"linear\"\nslots = 29\npoles = 4\n\
+               [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+               [core]\nslot_pitch_mm = 12.0\nstack_mm = 80.0\nairgap_mm = 3.0\n\
+               [secondary]\nthickness_mm = 4.0\nbacking_permeability = 300\n";
+    let e = layout::parse(src, "t.toml")
+        .expect_err("refused")
+        .to_string();
+    assert!(e.contains("backing_thickness_mm"), "{e}");
+}
