@@ -147,6 +147,24 @@ pub struct Sheet {
     k_max: f64,
 }
 
+/// Principal square root by the half-angle formulas: one hypot and two real roots, without
+/// the polar form's atan2, sin and cos (the layers need one per wavenumber and slip).
+#[inline]
+fn sqrt_c(z: C) -> C {
+    let r = z.norm();
+    if r == 0.0 {
+        return C::new(0.0, 0.0);
+    }
+    // The larger part from the sum that does not cancel, the other as y/(2·larger).
+    if z.re >= 0.0 {
+        let re = ((r + z.re) / 2.0).sqrt();
+        C::new(re, z.im / (2.0 * re))
+    } else {
+        let im = ((r - z.re) / 2.0).sqrt().copysign(z.im);
+        C::new(z.im / (2.0 * im), im)
+    }
+}
+
 /// Complex tanh that neither overflows nor loses the sign for large real parts.
 fn tanh_c(z: C) -> C {
     if z.re < 0.0 {
@@ -202,9 +220,9 @@ impl Sheet {
         let length = z as f64 * ts;
         let window = (2.0 * length + 10.0 * reach) * refine;
         let dk = 2.0 * PI / window;
-        // Eight slot-harmonic bands either side: the sheet's spectrum beyond is under the
-        // opening's sinc and the gap's e^(−|k|g).
-        let k_max = (8.0 * 2.0 * PI / ts).max(24.0 * k1) * refine;
+        // Four slot-harmonic bands either side: the sheet's spectrum beyond is under the
+        // opening's sinc and the gap's e^(−|k|g) (the convergence test doubles it).
+        let k_max = (4.0 * 2.0 * PI / ts).max(24.0 * k1) * refine;
         let half = (k_max / dk).ceil() as usize;
         let n = 2 * half;
         let ks: Vec<f64> = (0..n)
@@ -221,7 +239,9 @@ impl Sheet {
         let b0 = d
             .slot_opening_m
             .or(d.slot_size_m.map(|(b, _)| b))
-            .unwrap_or(0.0)
+            // Neither given: half the slot pitch (common practice for a slot's width;
+            // a current filament of no width would have no finite inductance).
+            .unwrap_or(ts / 2.0)
             .min(ts);
         let mut khat = vec![C::new(0.0, 0.0); n * m];
         for j in 0..z {
@@ -460,12 +480,12 @@ impl Sheet {
             let plate_top = match self.far {
                 Far::Iron => C::new(0.0, 0.0),
                 Far::Steel { t, sigma, mu } => {
-                    let g = C::new(k * k, mu * sigma * sw).sqrt();
+                    let g = sqrt_c(C::new(k * k, mu * sigma * sw));
                     through(air_top, g, mu, tanh_c(g * t))
                 }
             };
             let sig_p = self.sigma * self.edge[i];
-            let gp = C::new(k * k, MU0 * sig_p * sw).sqrt();
+            let gp = sqrt_c(C::new(k * k, MU0 * sig_p * sw));
             let plate_bottom = through(plate_top, gp, MU0, tanh_c(gp * self.plate_t));
             // A at the face per unit K̂, then up through the air to the plate.
             let a0 = -1.0
@@ -479,7 +499,7 @@ impl Sheet {
             let (ip, a_steel) = layer(a_plate, plate_top, gp, MU0, self.plate_t);
             plate += sig_p * sw * sw * ip * ksq;
             if let Far::Steel { t, sigma, mu } = self.far {
-                let g = C::new(k * k, mu * sigma * sw).sqrt();
+                let g = sqrt_c(C::new(k * k, mu * sigma * sw));
                 let (ib, _) = layer(a_steel, air_top, g, mu, t);
                 back += sigma * sw * sw * ib * ksq;
             }
@@ -524,11 +544,11 @@ pub fn face_ratio(k: f64, sw: f64, sigma: f64, plate_t: f64, th_air: f64, far: F
     let mut r = match far {
         Far::Iron => C::new(0.0, 0.0),
         Far::Steel { t, sigma, mu } => {
-            let g = C::new(k * k, mu * sigma * sw).sqrt();
+            let g = sqrt_c(C::new(k * k, mu * sigma * sw));
             through(C::new(-ak / MU0, 0.0), g, mu, tanh_c(g * t))
         }
     };
-    let g = C::new(k * k, MU0 * sigma * sw).sqrt();
+    let g = sqrt_c(C::new(k * k, MU0 * sigma * sw));
     r = through(r, g, MU0, tanh_c(g * plate_t));
     through(r, C::new(ak, 0.0), MU0, C::new(th_air, 0.0))
 }
