@@ -10,7 +10,7 @@ pub use beltwright_model::{design, iron, numbering, sanitize, spec, winding, wir
 pub use beltwright_present::{draw, output, safety};
 pub use beltwright_study::{
     assumption, audit, card, factors, field, header, inductance, layers, leakage, linear, loading,
-    packing, pitch, plan, rewind, runs, sizing, study, survey, thrust, warnings,
+    packing, pitch, plan, plates, rewind, runs, sizing, study, survey, thrust, warnings,
 };
 
 pub mod layout;

@@ -79,6 +79,14 @@ fn actual_output_validates_against_the_schemas() {
         &["layouts/pallet-shuttle.toml", "--slip", "-0.2..=1.2"],
     );
     validates("inductance", &["layouts/pallet-shuttle.toml", "--coils"]);
+    validates(
+        "plates",
+        &[
+            "layouts/pallet-shuttle.toml",
+            "--metal",
+            "aluminium,copper,20",
+        ],
+    );
     validates("loading", &["layouts/pump-rewind.toml"]);
     validates("loading", &["layouts/pallet-shuttle.toml"]);
     validates("size", &["layouts/stripped-core.toml"]);

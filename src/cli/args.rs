@@ -91,6 +91,10 @@ const EX_THRUST: &str = examples!(
     "beltwright thrust primary.toml --slip 0..=1 --steps 10",
     "beltwright thrust primary.toml --speed 0..=4 --current 12",
 );
+const EX_PLATES: &str = examples!(
+    "beltwright plates primary.toml --thickness-mm 3,4,6 --metal aluminium,copper",
+    "beltwright plates primary.toml --clearance-mm 2,3,4 --current 10,20 --chart plates.pdf",
+);
 const EX_INDUCTANCE: &str = examples!(
     "beltwright inductance primary.toml",
     "beltwright inductance stator.toml --coils --format json",
@@ -183,8 +187,13 @@ pub enum Command {
     /// slip, from the winding and the secondary plate (edge and end effects included).
     #[command(after_help = EX_THRUST)]
     Thrust(ThrustArgs),
-    /// Phase (and coil) inductances by winding functions; a flat primary's unbalance under
-    /// balanced voltages, and its other layouts ranked by it.
+    /// Compare a flat primary's plates, clearances and currents: standstill thrust, peak
+    /// thrust and its speed, and the plate's heat, for every combination asked.
+    #[command(after_help = EX_PLATES)]
+    Plates(PlatesArgs),
+    /// Phase (and coil) inductances (a flat primary's by the layer method, a closed core's by
+    /// winding functions); a flat primary's unbalance under balanced voltages, and its other
+    /// layouts ranked by it.
     #[command(after_help = EX_INDUCTANCE)]
     Inductance(InductanceArgs),
     /// Print shell completions for bash, zsh, fish, elvish or PowerShell.
@@ -311,6 +320,28 @@ pub struct ThrustArgs {
     /// Leave out the longitudinal end effect, to see what the ends cost.
     #[arg(long = "no-end-effect")]
     pub no_end_effect: bool,
+}
+
+#[derive(Args)]
+pub struct PlatesArgs {
+    #[command(flatten)]
+    pub common: Common,
+    /// Plate thicknesses to compare, mm, e.g. 3,4,6 (default: the layout's).
+    #[arg(long = "thickness-mm", value_delimiter = ',', value_parser = flags::plate_thickness)]
+    pub thickness_mm: Vec<f64>,
+    /// Plate metals: aluminium, copper, or a conductivity in MS/m, e.g. aluminium,copper,28
+    /// (default: the layout's plate).
+    #[arg(long, value_delimiter = ',', value_parser = flags::plate_metal)]
+    pub metal: Vec<beltwright::plates::Metal>,
+    /// Mechanical clearances to compare, mm (default: the layout's airgap_mm).
+    #[arg(long = "clearance-mm", value_delimiter = ',', value_parser = flags::clearance)]
+    pub clearance_mm: Vec<f64>,
+    /// Phase currents to compare, A r.m.s. (default: fed from the supply voltage).
+    #[arg(long, value_delimiter = ',', value_parser = flags::current)]
+    pub current: Vec<f64>,
+    /// Also draw the comparison as a sheet: .svg, .pdf or .png.
+    #[arg(long)]
+    pub chart: Option<PathBuf>,
 }
 
 #[derive(Args)]

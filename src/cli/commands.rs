@@ -182,6 +182,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             Ok(Box::new(move |out: &mut dyn Write| out.write_all(&buf)))
         }
         Command::Thrust(a) => run_thrust(a),
+        Command::Plates(a) => run_plates(a),
         Command::Inductance(a) => {
             let w = load(&a.common.file)?;
             let r = beltwright::inductance::inductance(&w, a.coils).map_err(|e| {
@@ -346,6 +347,37 @@ fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {
     };
     let r = beltwright::thrust::thrust(&w, &q)
         .map_err(|e| Failure::input(format!("{}: {}", a.common.file.display(), e.message())))?;
+    Ok(present(r, a.common.format))
+}
+
+fn run_plates(a: PlatesArgs) -> Result<Printed, Failure> {
+    let w = load(&a.common.file)?;
+    let q = beltwright::plates::PlateQuery {
+        thickness_mm: a.thickness_mm,
+        metal: a.metal,
+        clearance_mm: a.clearance_mm,
+        current_a: a.current,
+    };
+    let r = beltwright::plates::plates(&w, &q).map_err(|e| {
+        let why = match &e {
+            beltwright::plates::PlatesError::Thrust(t) => t.message(),
+            other => other.to_string(),
+        };
+        Failure::input(format!("{}: {why}", a.common.file.display()))
+    })?;
+    if let Some(out) = &a.chart {
+        let kind = FileKind::of_path(out).ok_or_else(|| {
+            Failure::input(format!(
+                "--chart {}: give a file name ending in .svg, .pdf or .png",
+                out.display()
+            ))
+        })?;
+        let study = beltwright::study::Study::new(&w, None);
+        let page = page_of(PaperArg::A4, false);
+        let svg = draw::plates::draw(&study, &r, &page);
+        let paths = write_sheet(&[svg], kind, out, &a.common.file, 150.0)?;
+        note(&wrote(&paths));
+    }
     Ok(present(r, a.common.format))
 }
 

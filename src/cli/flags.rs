@@ -258,6 +258,38 @@ pub fn emf_ratio(s: &str) -> Result<f64, String> {
     limit(s, 0.8, 1.1, "(EMF over phase voltage)")
 }
 
+/// A plate thickness, mm (the layout's range for `secondary.thickness_mm`).
+pub fn plate_thickness(s: &str) -> Result<f64, String> {
+    number_where(
+        s,
+        |t| (0.05..=200.0).contains(&t),
+        "give a plate thickness from 0.05 to 200 mm",
+    )
+}
+
+/// A mechanical clearance, mm.
+pub fn clearance(s: &str) -> Result<f64, String> {
+    number_where(
+        s,
+        |g| (0.01..=1000.0).contains(&g),
+        "give a clearance from 0.01 to 1000 mm",
+    )
+}
+
+/// A plate metal: aluminium, copper, or a conductivity in MS/m (the layout's range).
+pub fn plate_metal(s: &str) -> Result<beltwright::plates::Metal, String> {
+    match s.trim().to_ascii_lowercase().as_str() {
+        "aluminium" | "aluminum" => Ok(beltwright::plates::Metal::Aluminium),
+        "copper" => Ok(beltwright::plates::Metal::Copper),
+        _ => number_where(
+            s,
+            |v| (0.1..=100.0).contains(&v),
+            "give aluminium, copper, or a conductivity from 0.1 to 100 MS/m",
+        )
+        .map(|ms_m| beltwright::plates::Metal::Conductivity { ms_m }),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

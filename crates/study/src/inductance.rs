@@ -1,5 +1,11 @@
-//! Phase (and coil) inductances by the winding-function method, and the open primary's
-//! phase unbalance under balanced line voltages.
+//! Phase (and coil) inductances, and the open primary's phase unbalance under balanced
+//! line voltages.
+//!
+//! A flat primary's inductances are the layer method's of `layers::gap_inductances`, the
+//! same matrix the thrust report's field model works with (the plate at rest): a
+//! two-dimensional gap, the primary iron's potential floating so that its flux closes in
+//! it. A closed core's are by winding functions, and they are the flat primary's
+//! one-dimensional limit (a test holds the two together as g/τ → 0):
 //!
 //! With n_i(x) the turns function of phase i (the running sum of its slot conductors along
 //! the gap, current entering at each coil's go side) and N_i = n_i − ⟨n_i⟩ its winding
@@ -197,8 +203,9 @@ fn negative_percent(i: &[Complex64]) -> f64 {
     }
 }
 
-/// Gap matrix (H) of the phases, effective gap (m) and stack (m).
-fn phase_matrix(w: &Winding) -> Result<(Vec<Vec<f64>>, f64), ThrustError> {
+/// Gap matrix (H) of conductor sets `c[slot][set]` by winding functions over the effective
+/// gap: a closed core's inductances, and a flat primary's one-dimensional limit.
+pub fn winding_function_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, ThrustError> {
     let ge = effective_gap_m(w)?;
     let width = w
         .design
@@ -208,20 +215,41 @@ fn phase_matrix(w: &Winding) -> Result<(Vec<Vec<f64>>, f64), ThrustError> {
     let ts = w
         .slot_pitch_m()
         .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
-    let m = w.geometry.phases;
-    let c = conductors(w, |i| w.coils[i].phase, m);
     let k = MU0 * width * ts / ge;
-    let g = gram(w, &c);
-    Ok((
-        g.iter()
-            .map(|r| {
-                r.iter()
-                    .map(|x| x * k / (w.parallel_paths as f64).powi(2))
-                    .collect()
-            })
-            .collect(),
-        ge,
-    ))
+    Ok(gram(w, c)
+        .iter()
+        .map(|r| r.iter().map(|x| x * k).collect())
+        .collect())
+}
+
+/// The gap matrix (H) of conductor sets `c[slot][set]`: the layer method's on a flat
+/// primary, winding functions on a closed core.
+fn set_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, ThrustError> {
+    match w.geometry.topology {
+        Topology::Linear => {
+            let sets = c.first().map_or(0, Vec::len);
+            let by_set: Vec<Vec<f64>> = (0..sets)
+                .map(|s| c.iter().map(|slot| slot[s]).collect())
+                .collect();
+            crate::layers::gap_inductances(w, &by_set)
+        }
+        Topology::Rotary => winding_function_matrix(w, c),
+    }
+}
+
+/// Conductors of each phase in every slot per ampere of phase current (each path carrying
+/// 1/a of it): `c[slot][phase]`.
+pub fn phase_conductors(w: &Winding) -> Vec<Vec<f64>> {
+    let a = w.parallel_paths.max(1) as f64;
+    conductors(w, |i| w.coils[i].phase, w.geometry.phases)
+        .into_iter()
+        .map(|r| r.into_iter().map(|x| x / a).collect())
+        .collect()
+}
+
+/// Gap matrix (H) of the phases, effective gap (m) and stack (m).
+fn phase_matrix(w: &Winding) -> Result<(Vec<Vec<f64>>, f64), ThrustError> {
+    Ok((set_matrix(w, &phase_conductors(w))?, effective_gap_m(w)?))
 }
 
 /// Negative-sequence current (% of positive) of a three-phase winding under balanced
@@ -292,16 +320,11 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
             limit: MAX_COIL_MATRIX,
         });
     }
-    let coil = (coil_matrix && w.coils.len() <= MAX_COIL_MATRIX).then(|| {
-        let c = conductors(w, |i| i, w.coils.len());
-        let g = gram(w, &c);
-        let width = w.design.core.stack_m.unwrap_or(0.0);
-        let ts = w.slot_pitch_m().unwrap_or(0.0);
-        let k = MU0 * width * ts / ge;
-        g.iter()
-            .map(|r| r.iter().map(|x| x * k).collect())
-            .collect()
-    });
+    let coil = if coil_matrix && w.coils.len() <= MAX_COIL_MATRIX {
+        Some(set_matrix(w, &conductors(w, |i| i, w.coils.len()))?)
+    } else {
+        None
+    };
     let ranking = if w.geometry.topology == Topology::Linear {
         rank_layouts(w, r1, leak)
     } else {
@@ -325,39 +348,57 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
     })
 }
 
-/// Every layout `plan` can make on the same flat primary (pole counts with q of at least
-/// one half, single and double layer at the default span), ranked by unbalance.
+/// The layouts a builder can choose on the same flat primary (its slot count, pole count
+/// and pole pitch kept): single layer, and double layer at every span up to the pole
+/// pitch, ranked by unbalance, with the user's own layout among them (marked).
 fn rank_layouts(w: &Winding, r1: f64, leak: f64) -> Vec<LayoutRank> {
     let g = &w.geometry;
     let mut out = Vec::new();
-    for layers in [1usize, 2] {
-        for poles in 1..=(g.slots / 2).min(48) {
-            let design = Design {
-                topology: Topology::Linear,
-                slots: g.slots,
-                poles,
+    if let Some((_, pct)) = unbalance(w, r1, leak) {
+        out.push(LayoutRank {
+            poles: g.poles,
+            layers: g.layers,
+            pitch: w.pitch,
+            negative_sequence_current_percent: pct,
+            this_layout: true,
+        });
+    }
+    let longest = g.pole_pitch_slots.ceil().max(1.0) as usize;
+    let choices = std::iter::once((1usize, None)).chain((1..=longest).map(|y| (2usize, Some(y))));
+    for (layers, pitch) in choices {
+        let design = Design {
+            topology: Topology::Linear,
+            slots: g.slots,
+            poles: g.poles,
+            layers,
+            pitch,
+            style: Style::Lap,
+            parallel_paths: 1,
+            skew_slots: 0.0,
+            ..w.design.clone()
+        };
+        let Ok(cand) = winding::synthesize(&design) else {
+            continue;
+        };
+        if !cand.is_balanced() && layers == 2 {
+            continue;
+        }
+        let same = !w.from_coil_list && layers == g.layers && cand.pitch == w.pitch;
+        if same
+            || out
+                .iter()
+                .any(|r| r.layers == layers && r.pitch == cand.pitch)
+        {
+            continue;
+        }
+        if let Some((_, pct)) = unbalance(&cand, r1, leak) {
+            out.push(LayoutRank {
+                poles: g.poles,
                 layers,
-                pitch: None,
-                style: Style::Lap,
-                parallel_paths: 1,
-                skew_slots: 0.0,
-                ..w.design.clone()
-            };
-            let Ok(cand) = winding::synthesize(&design) else {
-                continue;
-            };
-            if !cand.is_balanced() && layers == 2 {
-                continue;
-            }
-            if let Some((_, pct)) = unbalance(&cand, r1, leak) {
-                out.push(LayoutRank {
-                    poles,
-                    layers,
-                    pitch: cand.pitch,
-                    negative_sequence_current_percent: pct,
-                    this_layout: poles == g.poles && layers == g.layers && cand.pitch == w.pitch,
-                });
-            }
+                pitch: cand.pitch,
+                negative_sequence_current_percent: pct,
+                this_layout: false,
+            });
         }
     }
     out.sort_by(|a, b| {

@@ -120,6 +120,8 @@ pub enum Far {
 /// Everything fixed before any slip: the sheet's spectrum and the layers.
 pub struct Sheet {
     m: usize,
+    /// The phases and, last, the primary iron's floating magnetic potential.
+    sets: usize,
     ks: Vec<f64>,
     /// K̂_q*·K̂_p per wavenumber, at [i·m² + q·m + p].
     prod: Vec<C>,
@@ -163,6 +165,140 @@ fn sqrt_c(z: C) -> C {
         let im = ((r - z.re) / 2.0).sqrt().copysign(z.im);
         C::new(z.im / (2.0 * im), im)
     }
+}
+
+/// The wavenumbers a flat primary's sheet is resolved on, and its slots' spread.
+struct Grid {
+    ks: Vec<f64>,
+    dk: f64,
+    ts: f64,
+    b0: f64,
+    length: f64,
+    k_max: f64,
+    window: f64,
+}
+
+impl Grid {
+    /// Midpoint wavenumbers ±(n + ½)·Δk: Δk = 2π/Λ with the window Λ = 2·L + 10·`reach`
+    /// (the primary's length L twice, and ten times how far its field reaches beyond it),
+    /// up to four slot-harmonic bands 4·2π/τ_s (at least 24·k_1); both `refine` times.
+    fn of(w: &Winding, reach: f64, refine: f64) -> Result<Grid, ThrustError> {
+        let ts = w
+            .slot_pitch_m()
+            .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
+        let d = &w.design;
+        let k1 = PI / (ts * w.geometry.pole_pitch_slots);
+        let length = w.geometry.slots as f64 * ts;
+        let window = (2.0 * length + 10.0 * reach) * refine;
+        let dk = 2.0 * PI / window;
+        // Four slot-harmonic bands either side: the sheet's spectrum beyond is under the
+        // opening's sinc and the gap's e^(−|k|g) (the convergence test doubles it).
+        let k_max = (4.0 * 2.0 * PI / ts).max(24.0 * k1) * refine;
+        let half = (k_max / dk).ceil() as usize;
+        let ks = (0..2 * half)
+            .map(|i| (i as f64 + 0.5 - half as f64) * dk)
+            .collect();
+        let b0 = d
+            .slot_opening_m
+            .or(d.slot_size_m.map(|(b, _)| b))
+            // Neither given: half the slot pitch (common practice for a slot's width;
+            // a current filament of no width would have no finite inductance).
+            .unwrap_or(ts / 2.0)
+            .min(ts);
+        Ok(Grid {
+            ks,
+            dk,
+            ts,
+            b0,
+            length,
+            k_max,
+            window,
+        })
+    }
+
+    /// K̂ of each set of slot conductors `sets[set][slot]` at every wavenumber, each slot's
+    /// current spread over b0, and last the primary iron's floating potential: at
+    /// `[i·(S + 1) + set]`.
+    ///
+    /// The primary iron ends at x = 0 and x = Z·τ_s; its magnetic potential floats, set so
+    /// that no net flux leaves it through the gap (the flux closes in the primary core). A
+    /// potential ψ on the primary iron against the iron beyond its ends is a step in the
+    /// turns function there: a sheet ψ·[δ(x) − δ(x − Z·τ_s)], one more set, whose flux
+    /// linkage must vanish; the step is spread over a slot pitch, the end tooth.
+    fn spectra(&self, sets: &[Vec<f64>]) -> Vec<C> {
+        let s = sets.len();
+        let n = self.ks.len();
+        let w = s + 1;
+        let mut khat = vec![C::new(0.0, 0.0); n * w];
+        let slots = sets.first().map_or(0, Vec::len);
+        for j in 0..slots {
+            if sets.iter().all(|u| u[j] == 0.0) {
+                continue;
+            }
+            let x = (j as f64 + 0.5) * self.ts;
+            let step = C::from_polar(1.0, self.dk * x);
+            let mut e = C::new(0.0, 0.0);
+            for (i, k) in self.ks.iter().enumerate() {
+                // Exact every 256 steps, so the recurrence cannot drift.
+                if i % 256 == 0 {
+                    e = C::from_polar(1.0, k * x);
+                }
+                for (p, u) in sets.iter().enumerate() {
+                    khat[i * w + p] += e * u[j];
+                }
+                e *= step;
+            }
+        }
+        let sinc = |a: f64| if a.abs() < 1e-12 { 1.0 } else { a.sin() / a };
+        for (i, k) in self.ks.iter().enumerate() {
+            let spread = sinc(k * self.b0 / 2.0);
+            for p in 0..s {
+                khat[i * w + p] *= spread;
+            }
+            khat[i * w + s] = (1.0 - C::from_polar(1.0, k * self.length)) * sinc(k * self.ts / 2.0);
+        }
+        khat
+    }
+}
+
+/// The gap's inductance matrix, H, of conductor sets `sets[set][slot]` (conductors per
+/// ampere of the set's current) on a flat primary, with no current in the secondary (the
+/// plate as a non-conductor, as at rest on direct current): the layer method's
+/// L_ij = (W/2π)·∫ μ0·coth(|k|·g_e)/|k| · K̂_i*·K̂_j dk over the effective gap g_e on ideal
+/// iron, the primary's floating potential eliminated (L_ij − L_iψ·L_ψj/L_ψψ). The one
+/// phase matrix of `inductance` and of the field model with the plate at rest.
+pub fn gap_inductances(w: &Winding, sets: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, ThrustError> {
+    let ge = crate::thrust::gap(w)?.effective_m;
+    let width = w
+        .design
+        .core
+        .stack_m
+        .ok_or(ThrustError::Missing(crate::thrust::Input::Stack))?;
+    let grid = Grid::of(w, 4.0 * ge, 1.0)?;
+    let khat = grid.spectra(sets);
+    let n = sets.len() + 1;
+    let mut l = vec![vec![0.0; n]; n];
+    for (i, k) in grid.ks.iter().enumerate() {
+        let ak = k.abs();
+        let wk = MU0 / (ak * (ak * ge).tanh());
+        let row = &khat[i * n..(i + 1) * n];
+        for a in 0..n {
+            for b in 0..=a {
+                l[a][b] += wk * (row[a].conj() * row[b]).re;
+            }
+        }
+    }
+    let scale = width * grid.dk / (2.0 * PI);
+    // Filled below the diagonal; read symmetrically.
+    let at = |a: usize, b: usize| l[a.max(b)][a.min(b)] * scale;
+    let e = n - 1;
+    Ok((0..e)
+        .map(|a| {
+            (0..e)
+                .map(|b| at(a, b) - at(a, e) * at(e, b) / at(e, e))
+                .collect()
+        })
+        .collect())
 }
 
 /// Complex tanh that neither overflows nor loses the sign for large real parts.
@@ -217,17 +353,10 @@ impl Sheet {
         // τ·G·|1 − s|/π (the end-effect length of Duncan's Q), at the slowest decay asked.
         let reach_slip = slips.iter().map(|s| (1.0 - s).abs()).fold(0.0f64, f64::max);
         let reach = tau * (c.xm_ohm / c.r2_ohm).max(1.0) * reach_slip.max(0.05) / PI + 4.0 * air;
-        let length = z as f64 * ts;
-        let window = (2.0 * length + 10.0 * reach) * refine;
-        let dk = 2.0 * PI / window;
-        // Four slot-harmonic bands either side: the sheet's spectrum beyond is under the
-        // opening's sinc and the gap's e^(−|k|g) (the convergence test doubles it).
-        let k_max = (4.0 * 2.0 * PI / ts).max(24.0 * k1) * refine;
-        let half = (k_max / dk).ceil() as usize;
-        let n = 2 * half;
-        let ks: Vec<f64> = (0..n)
-            .map(|i| (i as f64 + 0.5 - half as f64) * dk)
-            .collect();
+        let grid = Grid::of(w, reach, refine)?;
+        let (ks, k_max, window) = (grid.ks.clone(), grid.k_max, grid.window);
+        let dk = grid.dk;
+        let n = ks.len();
         // Conductors per slot for unit current in each phase (per path).
         let unit: Vec<Vec<f64>> = (0..m)
             .map(|p| {
@@ -236,44 +365,14 @@ impl Sheet {
                 slot_currents(w, &cur).iter().map(|x| x.re).collect()
             })
             .collect();
-        let b0 = d
-            .slot_opening_m
-            .or(d.slot_size_m.map(|(b, _)| b))
-            // Neither given: half the slot pitch (common practice for a slot's width;
-            // a current filament of no width would have no finite inductance).
-            .unwrap_or(ts / 2.0)
-            .min(ts);
-        let mut khat = vec![C::new(0.0, 0.0); n * m];
-        for j in 0..z {
-            if unit.iter().all(|u| u[j] == 0.0) {
-                continue;
-            }
-            let x = (j as f64 + 0.5) * ts;
-            let step = C::from_polar(1.0, dk * x);
-            let mut e = C::new(0.0, 0.0);
-            for (i, k) in ks.iter().enumerate() {
-                // Exact every 256 steps, so the recurrence cannot drift.
-                if i % 256 == 0 {
-                    e = C::from_polar(1.0, k * x);
-                }
-                for p in 0..m {
-                    khat[i * m + p] += e * unit[p][j];
-                }
-                e *= step;
-            }
-        }
-        let mut prod = vec![C::new(0.0, 0.0); n * m * m];
-        for (i, k) in ks.iter().enumerate() {
-            let arg = k * b0 / 2.0;
-            let spread = if arg.abs() < 1e-12 {
-                1.0
-            } else {
-                arg.sin() / arg
-            };
-            for q in 0..m {
-                for p in 0..m {
-                    prod[i * m * m + q * m + p] =
-                        khat[i * m + q].conj() * khat[i * m + p] * (spread * spread);
+        let khat = grid.spectra(&unit);
+        let sets = m + 1;
+        let mut prod = vec![C::new(0.0, 0.0); n * sets * sets];
+        for i in 0..n {
+            let row = &khat[i * sets..(i + 1) * sets];
+            for q in 0..sets {
+                for p in 0..sets {
+                    prod[i * sets * sets + q * sets + p] = row[q].conj() * row[p];
                 }
             }
         }
@@ -322,6 +421,7 @@ impl Sheet {
         };
         Ok(Sheet {
             m,
+            sets,
             ks,
             prod,
             edge,
@@ -361,7 +461,7 @@ impl Sheet {
     /// The gap's phase inductance matrix (complex: the secondary's reaction included) and
     /// the thrust and attraction matrices, at secondary speed `v`.
     fn matrices(&self, v: f64) -> [Vec<C>; 3] {
-        let mm = self.m * self.m;
+        let mm = self.sets * self.sets;
         let mut l = vec![C::new(0.0, 0.0); mm];
         let mut fx = vec![C::new(0.0, 0.0); mm];
         let mut fy = vec![C::new(0.0, 0.0); mm];
@@ -382,15 +482,29 @@ impl Sheet {
         [l, fx, fy]
     }
 
-    /// The phase impedance matrix at speed `v`: jω·L from the field plus R1 + jX_σ on
-    /// the diagonal.
+    /// The impedance matrix of the phases and the floating potential: jω·L from the field,
+    /// plus R1 + jX_σ on the phases' diagonal.
     fn impedance(&self, l: &[C]) -> Vec<C> {
-        let m = self.m;
+        let n = self.sets;
         let mut z: Vec<C> = l.iter().map(|x| C::new(0.0, self.omega) * x).collect();
-        for q in 0..m {
-            z[q * m + q] += C::new(self.r1, self.x_leak);
+        for q in 0..self.m {
+            z[q * n + q] += C::new(self.r1, self.x_leak);
         }
         z
+    }
+
+    /// The phase currents and, last, the floating potential, for impedance matrix `z`.
+    fn drive(&self, z: &[C]) -> Vec<C> {
+        let (m, n) = (self.m, self.sets);
+        match &self.volts {
+            Some(vs) => solve(z, vs, m, self.star).unwrap_or_else(|| vec![C::new(0.0, 0.0); n]),
+            None => {
+                let mut x = self.amps.clone();
+                let linked: C = (0..m).map(|p| z[m * n + p] * x[p]).sum();
+                x.push(-linked / z[m * n + m]);
+                x
+            }
+        }
     }
 
     /// The operating point at slip `s`.
@@ -398,34 +512,31 @@ impl Sheet {
         let v = (1.0 - s) * self.vs;
         let [l, fx, fy] = self.matrices(v);
         let z = self.impedance(&l);
-        let m = self.m;
-        let amps = match &self.volts {
-            Some(vs) => solve(&z, vs, m, self.star).unwrap_or_else(|| vec![C::new(0.0, 0.0); m]),
-            None => self.amps.clone(),
-        };
+        let (m, n) = (self.m, self.sets);
+        let amps = self.drive(&z);
         let quad = |a: &[C]| -> C {
             let mut t = C::new(0.0, 0.0);
-            for q in 0..m {
-                for p in 0..m {
-                    t += amps[q].conj() * a[q * m + p] * amps[p];
+            for q in 0..n {
+                for p in 0..n {
+                    t += amps[q].conj() * a[q * n + p] * amps[p];
                 }
             }
             t
         };
         let volts: Vec<C> = (0..m)
-            .map(|q| (0..m).map(|p| z[q * m + p] * amps[p]).sum())
+            .map(|q| (0..n).map(|p| z[q * n + p] * amps[p]).sum())
             .collect();
         let emf: Vec<f64> = (0..m)
             .map(|q| {
-                (0..m)
-                    .map(|p| C::new(0.0, self.omega) * l[q * m + p] * amps[p])
+                (0..n)
+                    .map(|p| C::new(0.0, self.omega) * l[q * n + p] * amps[p])
                     .sum::<C>()
                     .norm()
             })
             .collect();
         let input: f64 = (0..m).map(|q| (volts[q] * amps[q].conj()).re).sum();
         let apparent: f64 = (0..m).map(|q| volts[q].norm() * amps[q].norm()).sum();
-        let copper: f64 = amps.iter().map(|i| i.norm_sqr() * self.r1).sum();
+        let copper: f64 = amps[..m].iter().map(|i| i.norm_sqr() * self.r1).sum();
         let thrust = quad(&fx).re * self.sides;
         let gap = (C::new(0.0, self.omega) * quad(&l)).re * self.sides;
         let input = input * self.sides;
@@ -436,7 +547,7 @@ impl Sheet {
             speed_m_s: v,
             thrust_n: thrust,
             normal_force_n: quad(&fy).re,
-            phase_currents_a: amps.iter().map(|i| i.norm()).collect(),
+            phase_currents_a: amps[..m].iter().map(|i| i.norm()).collect(),
             phase_emf_v: emf,
             input_w: input,
             copper_loss_w: copper,
@@ -451,11 +562,19 @@ impl Sheet {
         }
     }
 
-    /// The phase impedance matrix at slip `s`, ohms (row q, column p).
+    /// The phase impedance matrix at slip `s` as the terminals see it, ohms (row q, column
+    /// p): the floating potential eliminated, Z_qp − Z_qψ·Z_ψp/Z_ψψ.
     pub fn impedance_at(&self, s: f64) -> Vec<Vec<C>> {
         let [l, _, _] = self.matrices((1.0 - s) * self.vs);
         let z = self.impedance(&l);
-        z.chunks(self.m).map(<[C]>::to_vec).collect()
+        let (m, n) = (self.m, self.sets);
+        (0..m)
+            .map(|q| {
+                (0..m)
+                    .map(|p| z[q * n + p] - z[q * n + m] * z[m * n + p] / z[m * n + m])
+                    .collect()
+            })
+            .collect()
     }
 
     /// The plate's and the backing's heat at slip `s` under phase currents `amps`, W, by
@@ -463,7 +582,7 @@ impl Sheet {
     /// energy balance. Per primary.
     pub fn layer_losses(&self, s: f64, amps: &[C]) -> (f64, f64) {
         let v = (1.0 - s) * self.vs;
-        let m = self.m;
+        let m = self.sets;
         let mm = m * m;
         let (mut plate, mut back) = (0.0, 0.0);
         for (i, &k) in self.ks.iter().enumerate() {
@@ -507,16 +626,11 @@ impl Sheet {
         (plate * self.scale, back * self.scale)
     }
 
-    /// The current phasors the model drives at slip `s` (solved when voltage-fed).
+    /// The current phasors the model drives at slip `s` (solved when voltage-fed), and
+    /// last the primary iron's floating potential.
     pub fn currents_at(&self, s: f64) -> Vec<C> {
         let [l, _, _] = self.matrices((1.0 - s) * self.vs);
-        let z = self.impedance(&l);
-        match &self.volts {
-            Some(vs) => {
-                solve(&z, vs, self.m, self.star).unwrap_or_else(|| vec![C::new(0.0, 0.0); self.m])
-            }
-            None => self.amps.clone(),
-        }
+        self.drive(&self.impedance(&l))
     }
 
     /// Wavenumbers, the largest, and the window.
@@ -607,56 +721,54 @@ fn layer(a_b: C, r_top: C, g: C, mu: f64, t: f64) -> (f64, C) {
     (integral, a_t)
 }
 
-/// Phase currents from phase voltages `v` through impedance matrix `z`: a star with its
-/// point floating (Σ I = 0, the star point's voltage an unknown) or a delta (each phase on
-/// its line voltage). `None` when the system is singular.
+/// Phase currents and the floating potential from phase voltages `v` through the
+/// impedance matrix `z` of the m phases and the potential (last, with no voltage): a star
+/// with its point floating (Σ I = 0, the star point's voltage an unknown) or a delta (each
+/// phase on its line voltage). `None` when the system is singular.
 fn solve(z: &[C], v: &[C], m: usize, star: bool) -> Option<Vec<C>> {
-    let n = if star { m + 1 } else { m };
-    let mut a = vec![C::new(0.0, 0.0); n * (n + 1)];
-    for q in 0..m {
-        for p in 0..m {
-            a[q * (n + 1) + p] = z[q * m + p];
+    let sets = m + 1;
+    let n = if star { sets + 1 } else { sets };
+    let w = n + 1;
+    let mut a = vec![C::new(0.0, 0.0); n * w];
+    for q in 0..sets {
+        for p in 0..sets {
+            a[q * w + p] = z[q * sets + p];
         }
-        if star {
-            a[q * (n + 1) + m] = C::new(1.0, 0.0);
+        if q < m {
+            if star {
+                a[q * w + sets] = C::new(1.0, 0.0);
+            }
+            a[q * w + n] = v[q];
         }
-        a[q * (n + 1) + n] = v[q];
     }
     if star {
         for p in 0..m {
-            a[m * (n + 1) + p] = C::new(1.0, 0.0);
+            a[sets * w + p] = C::new(1.0, 0.0);
         }
     }
-    // Gaussian elimination with partial pivoting.
+    // Gauss–Jordan elimination with partial pivoting.
     for col in 0..n {
-        let piv = (col..n).max_by(|x, y| {
-            a[x * (n + 1) + col]
-                .norm()
-                .total_cmp(&a[y * (n + 1) + col].norm())
-        })?;
-        if a[piv * (n + 1) + col].norm() == 0.0 {
+        let piv =
+            (col..n).max_by(|x, y| a[x * w + col].norm().total_cmp(&a[y * w + col].norm()))?;
+        if a[piv * w + col].norm() == 0.0 {
             return None;
         }
         if piv != col {
-            for c in 0..=n {
-                a.swap(piv * (n + 1) + c, col * (n + 1) + c);
+            for c in 0..w {
+                a.swap(piv * w + c, col * w + c);
             }
         }
         for r in 0..n {
             if r != col {
-                let f = a[r * (n + 1) + col] / a[col * (n + 1) + col];
-                for c in col..=n {
-                    let t = a[col * (n + 1) + c];
-                    a[r * (n + 1) + c] -= f * t;
+                let f = a[r * w + col] / a[col * w + col];
+                for c in col..w {
+                    let t = a[col * w + c];
+                    a[r * w + c] -= f * t;
                 }
             }
         }
     }
-    Some(
-        (0..m)
-            .map(|p| a[p * (n + 1) + n] / a[p * (n + 1) + p])
-            .collect(),
-    )
+    Some((0..sets).map(|p| a[p * w + n] / a[p * w + p]).collect())
 }
 
 /// The field model over the slips of the circuit's table, with its largest thrust.

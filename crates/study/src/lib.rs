@@ -21,6 +21,7 @@ pub mod loading;
 pub mod packing;
 pub mod pitch;
 pub mod plan;
+pub mod plates;
 pub mod rewind;
 pub mod runs;
 pub mod sizing;

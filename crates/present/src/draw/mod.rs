@@ -17,6 +17,7 @@ pub mod export;
 pub mod field;
 pub mod page;
 pub mod palette;
+pub mod plates;
 pub mod section;
 pub mod slots;
 pub mod span;

@@ -378,6 +378,25 @@ impl<'a> ThrustJson<'a> {
     }
 }
 
+/// `plates --format json`.
+#[derive(Serialize, JsonSchema)]
+pub struct PlatesJson<'a> {
+    #[serde(flatten)]
+    opening: Opening,
+    #[serde(flatten)]
+    report: &'a crate::plates::PlatesReport,
+}
+
+impl<'a> PlatesJson<'a> {
+    /// The JSON form of `report`.
+    pub fn of(report: &'a crate::plates::PlatesReport) -> Self {
+        PlatesJson {
+            opening: Opening::default(),
+            report,
+        }
+    }
+}
+
 /// `inductance --format json`.
 #[derive(Serialize, JsonSchema)]
 pub struct InductanceJson<'a> {

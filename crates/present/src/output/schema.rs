@@ -20,6 +20,7 @@ pub fn all() -> Vec<(&'static str, Value)> {
         ("rewind", v(schema_for!(RewindJson))),
         ("card", v(schema_for!(CardJson))),
         ("thrust", v(schema_for!(ThrustJson))),
+        ("plates", v(schema_for!(PlatesJson))),
         ("inductance", v(schema_for!(InductanceJson))),
         ("loading", v(schema_for!(LoadingJson))),
         ("size", v(schema_for!(SizingJson))),

@@ -204,7 +204,10 @@ impl Report for InductanceReport {
 
     fn sections(&self) -> Vec<Section> {
         let mut s = Vec::from(super::opening(
-            "Inductances by winding functions",
+            match self.topology {
+                crate::winding::Topology::Linear => "Inductances by the layer method",
+                crate::winding::Topology::Rotary => "Inductances by winding functions",
+            },
             &self.design,
         ));
         s.push(Section::Lines(vec![
@@ -280,6 +283,60 @@ impl Report for InductanceReport {
             let mut r = vec![p.clone()];
             r.extend(row.iter().map(|x| num(x * 1e3, 5)));
             t.push(r);
+        }
+        t
+    }
+}
+
+impl Report for crate::plates::PlatesReport {
+    fn json(&self) -> impl serde::Serialize + '_ {
+        super::json::PlatesJson::of(self)
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        let mut s = Vec::from(super::opening("Plate, clearance and current", &self.design));
+        s.push(Section::Lines(
+            [format!(
+                "each choice by the field of the finite primary (layer method), synchronous \
+                 speed {} m/s; heat at standstill is all the power the plate takes",
+                num(self.synchronous_speed_m_s, 3)
+            )]
+            .iter()
+            .map(|l| paragraph(l))
+            .collect(),
+        ));
+        s.push(Section::Table(self.main_table()));
+        s.push(super::caution());
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("plate mm", Align::Right),
+            ("MS/m", Align::Right),
+            ("clearance mm", Align::Right),
+            ("feed", Align::Left),
+            ("standstill N", Align::Right),
+            ("peak N", Align::Right),
+            ("at m/s", Align::Right),
+            ("heat W", Align::Right),
+            ("W/cm²", Align::Right),
+            ("current A", Align::Right),
+        ]);
+        for c in &self.choices {
+            t.push(vec![
+                num(c.thickness_mm, 3),
+                num(c.conductivity_ms_m, 3),
+                num(c.clearance_mm, 3),
+                c.current_a
+                    .map_or("supply".to_string(), |i| format!("{} A", num(i, 3))),
+                num(c.standstill_thrust_n, 1),
+                num(c.peak_thrust_n, 1),
+                num(c.peak_speed_m_s, 3),
+                num(c.standstill_heat_w, 0),
+                c.standstill_heat_w_cm2.map_or(String::new(), |h| num(h, 2)),
+                num(c.standstill_current_a, 2),
+            ]);
         }
         t
     }
