@@ -186,7 +186,8 @@ fn input_is_copper_plus_output_plus_secondary_heat_at_every_slip() {
 }
 
 // The integrals over the wavenumber are converged: twice the window and twice the
-// wavenumber range change thrust, normal force and current by less than 0.1 %.
+// wavenumber range change thrust, normal force and current by less than 0.1 % (thrust
+// against the larger of itself and 2 % of the normal force, where it passes through zero).
 #[test]
 fn the_wavenumber_grid_is_converged() {
     let bare = wind(
@@ -196,10 +197,20 @@ fn the_wavenumber_grid_is_converged() {
          [supply]\nfrequency_hz = 60.0\nline_voltage_v = 400.0\n\
          [secondary]\nmaterial = \"copper\"\nthickness_mm = 3.0\n",
     );
+    // A small clearance over a copper plate: the slot harmonics still reach the plate and
+    // drag it at speed (the range follows the gap, e^(−2|k|·g_air)).
+    let close = wind(
+        "[machine]\ntopology = \"linear\"\nslots = 29\npoles = 4\n\
+         [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+         [core]\nslot_pitch_mm = 40.0\nstack_mm = 80.0\nairgap_mm = 0.5\nslot_opening_mm = 3.0\n\
+         [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+         [secondary]\nmaterial = \"copper\"\nthickness_mm = 6.0\n",
+    );
     for w in [
         primary(2, 4.0, ""),
         primary(4, 6.0, "back_iron = false"),
         bare,
+        close,
     ] {
         let feed = Feed::Voltage {
             phase_voltage_v: 230.0,
@@ -388,9 +399,10 @@ fn the_field_model_and_inductance_share_one_matrix() {
 // The flat primary's layer matrix tends to the winding-function matrix of a gap
 // one-dimensional across (Schmitz and Novotny 1965; the mean of each turns function taken
 // over the primary, the same closure of the flux in the primary core the floating
-// potential gives). At a 1 mm gap (k_1·g_e ≈ 0.05) they differ by the two-dimensional
-// fringing, (k·g)²/3 at the fundamental, and the slot harmonics beyond four bands: under
-// 0.5 % in every entry. At 3 mm the fringing adds inductance: the layers give more.
+// potential gives). The two-dimensional gap adds (k·g)²/3 to each harmonic's permeance,
+// summed over harmonics up to k ≈ 1/g: a difference of order g/τ_s. At a 0.1 mm gap every
+// entry agrees within 0.1 % (what is left is the spread of each slot's current over its
+// 0.2 mm opening); at 1 mm the fringing adds more than 0.5 %.
 #[test]
 fn flat_inductances_tend_to_winding_functions_as_the_gap_closes() {
     let both = |gap: f64| {
@@ -406,17 +418,46 @@ fn flat_inductances_tend_to_winding_functions_as_the_gap_closes() {
         let layers = beltwright::layers::gap_inductances(&w, &sets).expect("layers");
         (wf, layers)
     };
-    let (wf, layers) = both(1.0);
+    let (wf, layers) = both(0.1);
     for q in 0..3 {
         for p in 0..3 {
             assert!(
-                (layers[q][p] / wf[q][p] - 1.0).abs() < 0.005,
+                (layers[q][p] / wf[q][p] - 1.0).abs() < 0.001,
                 "{q}{p}: {} against {}",
                 layers[q][p],
                 wf[q][p]
             );
         }
     }
-    let (wf, layers) = both(3.0);
-    assert!(layers[0][0] > wf[0][0] * 1.01);
+    let (wf, layers) = both(1.0);
+    assert!(layers[0][0] > wf[0][0] * 1.005);
+}
+
+// A long pole pitch over a good plate at a small clearance asks for millions of
+// wavenumbers (a field trailing kilometres, waves shorter than the gap): the grid is
+// bounded at MAX_WAVENUMBERS, the figures stay finite, and the report says what was cut.
+#[test]
+fn a_huge_grid_is_bounded_and_said() {
+    let w = wind(
+        "[machine]\ntopology = \"linear\"\nslots = 29\npoles = 4\n\
+         [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
+         [core]\nslot_pitch_mm = 200.0\nstack_mm = 400.0\nairgap_mm = 1.0\n\
+         [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
+         [secondary]\nmaterial = \"copper\"\nthickness_mm = 10.0\nwidth_mm = 600.0\n",
+    );
+    let q = ThrustQuery {
+        current_a: Some(10.0),
+        slip_from: 0.0,
+        slip_to: 1.0,
+        steps: 1,
+        end_effect: true,
+    };
+    let r = thrust::thrust(&w, &q).expect("model");
+    assert!(r.field_model.wavenumbers <= beltwright::layers::MAX_WAVENUMBERS);
+    assert!(r.field_model.window_m < r.field_model.window_wanted_m);
+    assert!(r.field_model.rows.iter().all(|x| x.thrust_n.is_finite()));
+    assert!(r.assumptions.iter().any(|a| matches!(
+        a,
+        beltwright::assumption::Assumption::FieldGridBounded { .. }
+    )));
 }

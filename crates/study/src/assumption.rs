@@ -19,6 +19,18 @@ pub enum Assumption {
         /// Plate, °C.
         plate_c: f64,
     },
+    /// The field model's wavenumbers were bounded: its window (how far the plate's field is
+    /// followed) and its range (the shortest waves) are shorter than the inputs ask.
+    FieldGridBounded {
+        /// Window used, m.
+        window_m: f64,
+        /// Window the field's reach asked for, m.
+        wanted_m: f64,
+        /// Largest wavenumber used, 1/m.
+        k_max: f64,
+        /// Largest wavenumber the gap and slots asked for, 1/m.
+        wanted_k_max: f64,
+    },
     /// The steel backing is thin enough to saturate: its peak flux density (half the flux
     /// per pole through its section) above the limit.
     BackingSaturates {

@@ -95,8 +95,14 @@ pub struct FieldModel {
     pub wavenumbers: usize,
     /// Largest wavenumber, 1/m.
     pub k_max_per_m: f64,
+    /// The largest wavenumber the gap and slots asked for; beyond `k_max_per_m` when the
+    /// wavenumbers were capped at `MAX_WAVENUMBERS`.
+    pub k_max_wanted_per_m: f64,
     /// Length over which the field is resolved (2π/Δk), m.
     pub window_m: f64,
+    /// The window the field's reach asked for; longer than `window_m` when the wavenumbers
+    /// were capped at `MAX_WAVENUMBERS` (the field trailing further is not resolved).
+    pub window_wanted_m: f64,
     /// True for a plate between two primaries (each primary's half solved by symmetry).
     pub double_sided: bool,
 }
@@ -146,7 +152,9 @@ pub struct Sheet {
     amps: Vec<C>,
     star: bool,
     window: f64,
+    wanted: f64,
     k_max: f64,
+    wanted_k: f64,
 }
 
 /// Principal square root by the half-angle formulas: one hypot and two real roots, without
@@ -176,25 +184,40 @@ struct Grid {
     length: f64,
     k_max: f64,
     window: f64,
+    /// The window the field's reach asks for (longer than `window` when capped).
+    wanted: f64,
+    /// The range the gap and slots ask for (beyond `k_max` when capped).
+    wanted_k: f64,
 }
+
+/// The most wavenumbers a sheet is resolved on: 131 072 (with four phases' products about
+/// 34 MB, and some 10 ms a speed on one core).
+pub const MAX_WAVENUMBERS: usize = 1 << 17;
 
 impl Grid {
     /// Midpoint wavenumbers ±(n + ½)·Δk: Δk = 2π/Λ with the window Λ = 2·L + 10·`reach`
     /// (the primary's length L twice, and ten times how far its field reaches beyond it),
-    /// up to four slot-harmonic bands 4·2π/τ_s (at least 24·k_1); both `refine` times.
-    fn of(w: &Winding, reach: f64, refine: f64) -> Result<Grid, ThrustError> {
+    /// up to four slot-harmonic bands 4·2π/τ_s, at least 24·k_1 and at least `k_floor`
+    /// (what the gap asks); both `refine` times.
+    fn of(w: &Winding, reach: f64, k_floor: f64, refine: f64) -> Result<Grid, ThrustError> {
         let ts = w
             .slot_pitch_m()
             .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
         let d = &w.design;
         let k1 = PI / (ts * w.geometry.pole_pitch_slots);
         let length = w.geometry.slots as f64 * ts;
-        let window = (2.0 * length + 10.0 * reach) * refine;
-        let dk = 2.0 * PI / window;
+        let wanted = (2.0 * length + 10.0 * reach) * refine;
         // Four slot-harmonic bands either side: the sheet's spectrum beyond is under the
         // opening's sinc and the gap's e^(−|k|g) (the convergence test doubles it).
-        let k_max = (4.0 * 2.0 * PI / ts).max(24.0 * k1) * refine;
-        let half = (k_max / dk).ceil() as usize;
+        let wanted_k = (4.0 * 2.0 * PI / ts).max(24.0 * k1).max(k_floor) * refine;
+        // At most MAX_WAVENUMBERS (memory and time stay bounded whatever the plate): window
+        // and range are both shortened by the same factor, and the report says so.
+        let shrink = (wanted_k * wanted / PI / MAX_WAVENUMBERS as f64)
+            .sqrt()
+            .max(1.0);
+        let (window, k_max) = (wanted / shrink, wanted_k / shrink);
+        let dk = 2.0 * PI / window;
+        let half = ((k_max / dk).ceil() as usize).clamp(1, MAX_WAVENUMBERS / 2);
         let ks = (0..2 * half)
             .map(|i| (i as f64 + 0.5 - half as f64) * dk)
             .collect();
@@ -213,6 +236,8 @@ impl Grid {
             length,
             k_max,
             window,
+            wanted,
+            wanted_k,
         })
     }
 
@@ -274,13 +299,19 @@ pub fn gap_inductances(w: &Winding, sets: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, 
         .core
         .stack_m
         .ok_or(ThrustError::Missing(crate::thrust::Input::Stack))?;
-    let grid = Grid::of(w, 4.0 * ge, 1.0)?;
+    // The field model's grid rule, its air layer above a plate of that thickness (the
+    // same wavenumbers reach the plate's face).
+    let air = w.design.secondary.map_or(ge, |s| {
+        let sides = if s.back_iron { 1.0 } else { 2.0 };
+        (ge - s.thickness_m / sides).max(1e-6)
+    });
+    let grid = Grid::of(w, 4.0 * air, 8.0 / air, 1.0)?;
     let khat = grid.spectra(sets);
     let n = sets.len() + 1;
     let mut l = vec![vec![0.0; n]; n];
     for (i, k) in grid.ks.iter().enumerate() {
-        let ak = k.abs();
-        let wk = MU0 / (ak * (ak * ge).tanh());
+        // The one layer rule with nothing conducting: −1/R = μ0·coth(|k|·g_e)/|k|.
+        let wk = (-1.0 / face_ratio(*k, 0.0, 0.0, 0.0, (k.abs() * ge).tanh(), Far::Iron)).re;
         let row = &khat[i * n..(i + 1) * n];
         for a in 0..n {
             for b in 0..=a {
@@ -352,9 +383,11 @@ impl Sheet {
         // How far the plate's reaction trails the primary: the entry wave's length
         // τ·G·|1 − s|/π (the end-effect length of Duncan's Q), at the slowest decay asked.
         let reach_slip = slips.iter().map(|s| (1.0 - s).abs()).fold(0.0f64, f64::max);
-        let reach = tau * (c.xm_ohm / c.r2_ohm).max(1.0) * reach_slip.max(0.05) / PI + 4.0 * air;
-        let grid = Grid::of(w, reach, refine)?;
+        let reach = tau * (c.xm_ohm / c.r2_ohm) * reach_slip.max(0.05) / PI + 4.0 * air;
+        // Every wave that still reaches the plate: e^(−2|k|·g_air) below e^(−16) beyond.
+        let grid = Grid::of(w, reach, 8.0 / air, refine)?;
         let (ks, k_max, window) = (grid.ks.clone(), grid.k_max, grid.window);
+        let (wanted, wanted_k) = (grid.wanted, grid.wanted_k);
         let dk = grid.dk;
         let n = ks.len();
         // Conductors per slot for unit current in each phase (per path).
@@ -440,7 +473,9 @@ impl Sheet {
             amps,
             star,
             window,
+            wanted,
             k_max,
+            wanted_k,
         })
     }
 
@@ -633,9 +668,16 @@ impl Sheet {
         self.drive(&self.impedance(&l))
     }
 
-    /// Wavenumbers, the largest, and the window.
-    pub fn grid(&self) -> (usize, f64, f64) {
-        (self.ks.len(), self.k_max, self.window)
+    /// Wavenumbers, the largest and the largest asked for, the window and the window
+    /// asked for.
+    pub fn grid(&self) -> (usize, f64, f64, f64, f64) {
+        (
+            self.ks.len(),
+            self.k_max,
+            self.wanted_k,
+            self.window,
+            self.wanted,
+        )
     }
 
     /// True for a double-sided pair.
@@ -800,7 +842,7 @@ pub fn field_model(w: &Winding, feed: Feed, slips: &[f64]) -> Result<FieldModel,
         }
     }
     let s_max = (lo + hi) / 2.0;
-    let (n, k_max, window) = sheet.grid();
+    let (n, k_max, wanted_k, window, wanted) = sheet.grid();
     let (r1, x_leak) = sheet.r1_x_leak();
     Ok(FieldModel {
         max_thrust_n: at(s_max).max(rows[best].thrust_n),
@@ -822,6 +864,8 @@ pub fn field_model(w: &Winding, feed: Feed, slips: &[f64]) -> Result<FieldModel,
         wavenumbers: n,
         k_max_per_m: k_max,
         window_m: window,
+        window_wanted_m: wanted,
+        k_max_wanted_per_m: wanted_k,
         double_sided: sheet.double_sided(),
     })
 }

@@ -585,6 +585,15 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         .find(|(c, _)| c.slip == 1.0 && c.thrust_n != 0.0)
         .map(|(c, f)| f.thrust_n / c.thrust_n);
     field_model.max_thrust_ratio = (f_max != 0.0).then(|| field_model.max_thrust_n / f_max);
+    let mut checked = checked;
+    if field_model.window_wanted_m > field_model.window_m * (1.0 + 1e-9) {
+        checked.push(Assumption::FieldGridBounded {
+            window_m: field_model.window_m,
+            wanted_m: field_model.window_wanted_m,
+            k_max: field_model.k_max_per_m,
+            wanted_k_max: field_model.k_max_wanted_per_m,
+        });
+    }
     Ok(ThrustReport {
         design: crate::header::of(w),
         title: w.labels.title.clone(),

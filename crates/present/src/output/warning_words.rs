@@ -228,6 +228,21 @@ impl fmt::Display for Say<'_, Assumption> {
                 num(*winding_c, 1),
                 num(*plate_c, 1)
             ),
+            Assumption::FieldGridBounded {
+                window_m,
+                wanted_m,
+                k_max,
+                wanted_k_max,
+            } => write!(
+                f,
+                "the field model's wavenumbers are bounded: it follows the plate's field over {} \
+                 m of the {} m asked, and waves up to {} of the {} 1/m asked; its end effect at \
+                 low slip and its slot-harmonic drag are understated",
+                num(*window_m, 3),
+                num(*wanted_m, 3),
+                num(*k_max, 0),
+                num(*wanted_k_max, 0)
+            ),
             Assumption::BackingSaturates {
                 tesla,
                 limit_tesla,
