@@ -28,8 +28,9 @@
 //! - Transverse edge effect: the plate's conductivity times the Russell–Norsworthy factor
 //!   at each wave's own pole pitch π/|k| (the circuit's rule, per wavenumber).
 //!
-//! Assumptions (each stated in the report): the primary iron is infinitely permeable and is
-//! taken as reaching beyond the primary's ends (only the current sheet is finite); slots
+//! Assumptions (each stated in the report): the primary iron is infinitely permeable, its
+//! magnetic potential floats so that its flux closes in it, and the face beyond its ends is
+//! taken as unexcited iron (only the primary's sheet and its iron's potential are finite); slots
 //! are smoothed by Carter's coefficient on the gap, as in the circuit (the air layer is the
 //! circuit's effective gap less the plate); the backing steel is linear; a double-sided
 //! pair is two equal primaries fed alike, whose field is mirror-symmetric about the plate's

@@ -72,7 +72,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 num(this.secondary_resistance_ohm, 4)
             ),
             format!(
-                "largest thrust {} N at slip {}",
+                "largest thrust {} N at slip {} (circuit)",
                 num(this.max_thrust_n, 2),
                 num(this.max_thrust_slip, 4)
             ),

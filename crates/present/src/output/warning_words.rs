@@ -217,8 +217,9 @@ impl fmt::Display for Say<'_, Assumption> {
             Assumption::FieldModel => f.write_str(
                 "field model: the finite primary's slot currents as a current sheet, Fourier \
                  transformed, over a two-dimensional gap and plate (skin effect included); \
-                 primary iron infinitely permeable and taken as reaching past the primary's \
-                 ends; slots smoothed by Carter's coefficient; edge effect by the \
+                 primary iron infinitely permeable, its magnetic potential floating so that \
+                 its flux closes in it, and the face beyond its ends taken as unexcited iron; \
+                 slots smoothed by Carter's coefficient; edge effect by the \
                  Russell-Norsworthy factor of each wavelength; backing steel linear",
             ),
             Assumption::Temperatures { winding_c, plate_c } => write!(
