@@ -170,8 +170,8 @@ fn input_is_copper_plus_output_plus_secondary_heat_at_every_slip() {
         let sl = slips();
         let sheet = Sheet::new(&w, feed, &sl).expect("model");
         for s in sl {
-            let row = sheet.point(s);
-            let amps = sheet.currents_at(s);
+            let row = sheet.point(s).expect("point");
+            let amps = sheet.currents_at(s).expect("currents");
             let (plate, backing) = sheet.layer_losses(s, &amps);
             assert!(backing > 0.0 && plate > 0.0);
             let balance = row.copper_loss_w + row.thrust_n * row.speed_m_s + plate + backing;
@@ -202,7 +202,7 @@ fn the_wavenumber_grid_is_converged() {
     let close = wind(
         "[machine]\ntopology = \"linear\"\nslots = 29\npoles = 4\n\
          [winding]\nlayers = 2\npitch = 5\nturns_per_coil = 40\n\
-         [core]\nslot_pitch_mm = 40.0\nstack_mm = 80.0\nairgap_mm = 0.5\nslot_opening_mm = 3.0\n\
+         [core]\nslot_pitch_mm = 20.0\nstack_mm = 80.0\nairgap_mm = 0.5\nslot_opening_mm = 3.0\n\
          [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
          [secondary]\nmaterial = \"copper\"\nthickness_mm = 6.0\n",
     );
@@ -219,7 +219,13 @@ fn the_wavenumber_grid_is_converged() {
         let a = Sheet::new(&w, feed, &sl).expect("model");
         let b = Sheet::with_grid(&w, feed, &sl, 2.0).expect("model");
         for s in sl {
-            let (x, y) = (a.point(s), b.point(s));
+            let (x, y) = (a.point(s).expect("point"), b.point(s).expect("point"));
+            // The finer grid is twice as long and twice as wide (not bounded).
+            let (ga, gb) = (a.grid(), b.grid());
+            assert!(
+                (gb.1 / ga.1 - 2.0).abs() < 1e-9 && (gb.3 / ga.3 - 2.0).abs() < 1e-9,
+                "{ga:?} {gb:?}"
+            );
             let scale = y.thrust_n.abs().max(0.02 * y.normal_force_n.abs());
             assert!(
                 (x.thrust_n - y.thrust_n).abs() < 1e-3 * scale,
@@ -272,10 +278,46 @@ fn a_long_primary_tends_to_the_goodness_factor_sheet() {
     assert!((limit - 1.0).abs() < 0.005, "{r24} {r48} → {limit}");
 }
 
-// A plate between two equal primaries fed alike: by the mirror symmetry of their field
-// about the plate's mid-plane (B_x = 0 there, as on ideal iron), the pair pushes with twice
-// what one primary does over half the plate on ideal iron at the same clearance; the
-// normal force is each primary's own pull.
+// A plate between two equal primaries fed alike, one wave solved whole: the two current
+// sheets on two irons (H_x = −K at the lower face, +K at the upper: their B_y add through the
+// plate) across air, the whole plate and air, by transfer matrices. The lower face's Â/K̂
+// equals what the layer rule gives one primary over half the plate on ideal iron (the
+// mirror-plane model the report uses for a pair).
+#[test]
+fn a_pair_solved_whole_is_the_mirror_plane_model() {
+    let (air, d) = (0.002, 0.006);
+    for (k, s) in [(20.0, 1.0), (43.6, 0.1), (150.0, -0.4), (-43.6, 1.7)] {
+        let sw = s * OMEGA;
+        // Transfer matrix of (A, H_x) through air, plate, air.
+        let mut m = [
+            [C::new(1.0, 0.0), C::new(0.0, 0.0)],
+            [C::new(0.0, 0.0), C::new(1.0, 0.0)],
+        ];
+        for (t, sigma) in [(air, 0.0), (d, SIGMA), (air, 0.0)] {
+            let g = C::new(k * k, MU0 * sigma * sw).sqrt();
+            let (ch, sh) = ((g * t).cosh(), (g * t).sinh());
+            let l = [[ch, sh * MU0 / g], [sh * g / MU0, ch]];
+            let mut n = [[C::new(0.0, 0.0); 2]; 2];
+            for i in 0..2 {
+                for j in 0..2 {
+                    n[i][j] = l[i][0] * m[0][j] + l[i][1] * m[1][j];
+                }
+            }
+            m = n;
+        }
+        // (A_H, H_H) = M·(A0, −K) with H_H = +K: A0/K = (1 + M11)/M10.
+        let whole = (1.0 + m[1][1]) / m[1][0];
+        let mirror = -1.0 / face_ratio(k, sw, SIGMA, d / 2.0, (k.abs() * air).tanh(), Far::Iron);
+        assert!(
+            ((whole - mirror) / mirror).norm() < 1e-10,
+            "k = {k}, s = {s}: {whole} against {mirror}"
+        );
+    }
+}
+
+// The report's pair: twice the thrust of one primary over half the plate on ideal iron at
+// the same clearance, and the normal force each primary's own pull (the mirror-plane model
+// checked above).
 #[test]
 fn a_pair_pushes_with_both_primaries() {
     let q = ThrustQuery {
@@ -358,10 +400,11 @@ fn a_backing_without_its_thickness_is_refused() {
     assert!(e.contains("backing_thickness_mm"), "{e}");
 }
 
-// One inductance: the field model's phase impedance with the plate at rest and not
-// conducting is R1 + jX_σ on the diagonal plus jω times the very matrix `inductance`
-// reports (both from `layers`; the two grids differ, so agreement to 1e-6 also shows each
-// is resolved).
+// One inductance: the field model's phase impedance with the plate not conducting is
+// R1 + jX_σ on the diagonal plus jω times the very matrix `inductance` reports. Both are on
+// the same grid (one rule); what this checks is the two routes through it: the field
+// model's complex matrices with the floating potential eliminated at the terminals
+// (`impedance_at`), and `gap_inductances`' real integral with its own elimination.
 #[test]
 fn the_field_model_and_inductance_share_one_matrix() {
     let mut w = primary(3, 4.0, "");
@@ -415,7 +458,7 @@ fn flat_inductances_tend_to_winding_functions_as_the_gap_closes() {
         let c = beltwright::inductance::phase_conductors(&w);
         let wf = beltwright::inductance::winding_function_matrix(&w, &c).expect("1-D");
         let sets: Vec<Vec<f64>> = (0..3).map(|s| c.iter().map(|r| r[s]).collect()).collect();
-        let layers = beltwright::layers::gap_inductances(&w, &sets).expect("layers");
+        let (layers, _) = beltwright::layers::gap_inductances(&w, &sets).expect("layers");
         (wf, layers)
     };
     let (wf, layers) = both(0.1);

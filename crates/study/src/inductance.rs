@@ -224,7 +224,7 @@ pub fn winding_function_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Vec<Vec<f6
 
 /// The gap matrix (H) of conductor sets `c[slot][set]`: the layer method's on a flat
 /// primary, winding functions on a closed core.
-fn set_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, ThrustError> {
+fn set_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Matrix, ThrustError> {
     match w.geometry.topology {
         Topology::Linear => {
             let sets = c.first().map_or(0, Vec::len);
@@ -233,7 +233,7 @@ fn set_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, ThrustError>
                 .collect();
             crate::layers::gap_inductances(w, &by_set)
         }
-        Topology::Rotary => winding_function_matrix(w, c),
+        Topology::Rotary => winding_function_matrix(w, c).map(|m| (m, None)),
     }
 }
 
@@ -248,7 +248,10 @@ pub fn phase_conductors(w: &Winding) -> Vec<Vec<f64>> {
 }
 
 /// Gap matrix (H) of the phases, effective gap (m) and stack (m).
-fn phase_matrix(w: &Winding) -> Result<(Vec<Vec<f64>>, f64), ThrustError> {
+/// A gap matrix, H, and where its grid was cut short (flat primaries).
+type Matrix = (Vec<Vec<f64>>, Option<crate::layers::GridCut>);
+
+fn phase_matrix(w: &Winding) -> Result<(Matrix, f64), ThrustError> {
     Ok((set_matrix(w, &phase_conductors(w))?, effective_gap_m(w)?))
 }
 
@@ -258,7 +261,7 @@ fn unbalance(w: &Winding, r1: f64, leak: f64) -> Option<(Vec<Complex64>, f64)> {
     if w.geometry.phases != 3 {
         return None;
     }
-    let (l, _) = phase_matrix(w).ok()?;
+    let ((l, _), _) = phase_matrix(w).ok()?;
     let f = w.design.supply.frequency_hz.unwrap_or(50.0);
     let omega = 2.0 * PI * f;
     let z: Vec<Vec<Complex64>> = (0..3)
@@ -284,7 +287,7 @@ fn unbalance(w: &Winding, r1: f64, leak: f64) -> Option<(Vec<Complex64>, f64)> {
 /// The inductance report of a winding.
 pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, ThrustError> {
     crate::runs::count(crate::runs::Analysis::Inductance);
-    let (matrix, ge) = phase_matrix(w)?;
+    let ((matrix, cut), ge) = phase_matrix(w)?;
     let m = w.geometry.phases;
     let mut assumptions = Vec::new();
     // Positive-sequence inductance: the eigenvalue Σ_j L_0j·a^j of a circulant matrix; for
@@ -320,11 +323,20 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
             limit: MAX_COIL_MATRIX,
         });
     }
-    let coil = if coil_matrix && w.coils.len() <= MAX_COIL_MATRIX {
-        Some(set_matrix(w, &conductors(w, |i| i, w.coils.len()))?)
+    let (coil, coil_cut) = if coil_matrix && w.coils.len() <= MAX_COIL_MATRIX {
+        let (m, c) = set_matrix(w, &conductors(w, |i| i, w.coils.len()))?;
+        (Some(m), c)
     } else {
-        None
+        (None, None)
     };
+    if let Some(c) = cut.or(coil_cut) {
+        assumptions.push(crate::assumption::Assumption::FieldGridBounded {
+            window_m: c.window_m,
+            wanted_m: c.wanted_m,
+            k_max: c.k_max,
+            wanted_k_max: c.wanted_k_max,
+        });
+    }
     let ranking = if w.geometry.topology == Topology::Linear {
         rank_layouts(w, r1, leak)
     } else {

@@ -191,16 +191,58 @@ struct Grid {
     wanted_k: f64,
 }
 
-/// The most wavenumbers a sheet is resolved on: 131 072 (with four phases' products about
-/// 34 MB, and some 10 ms a speed on one core).
+/// The most wavenumbers a three-phase sheet is resolved on: 131 072 (its products about
+/// 34 MB, some 10 ms a speed on one core). With more sets (phases, coils) fewer, so that
+/// memory stays the same: see [`Grid::most_for`].
 pub const MAX_WAVENUMBERS: usize = 1 << 17;
 
+/// Where the grid was cut short of what the inputs ask.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct GridCut {
+    /// Window used, m.
+    pub window_m: f64,
+    /// Window asked for, m.
+    pub wanted_m: f64,
+    /// Largest wavenumber used, 1/m.
+    pub k_max: f64,
+    /// Largest wavenumber asked for, 1/m.
+    pub wanted_k_max: f64,
+}
+
 impl Grid {
+    /// The most wavenumbers for `sets` sets whose products are kept (`square`, the field
+    /// model: N·sets² ≤ 16·MAX) or only whose spectra are (N·sets ≤ 4·MAX).
+    fn most_for(sets: usize, square: bool) -> usize {
+        let sets = sets.max(1);
+        if square {
+            MAX_WAVENUMBERS * 16 / (sets * sets)
+        } else {
+            MAX_WAVENUMBERS * 4 / sets
+        }
+        .clamp(256, MAX_WAVENUMBERS)
+    }
+
+    /// The cut, when window or range is short of what was asked.
+    fn cut(&self) -> Option<GridCut> {
+        (self.wanted > self.window * (1.0 + 1e-9)).then_some(GridCut {
+            window_m: self.window,
+            wanted_m: self.wanted,
+            k_max: self.k_max,
+            wanted_k_max: self.wanted_k,
+        })
+    }
+
     /// Midpoint wavenumbers ±(n + ½)·Δk: Δk = 2π/Λ with the window Λ = 2·L + 10·`reach`
     /// (the primary's length L twice, and ten times how far its field reaches beyond it),
     /// up to four slot-harmonic bands 4·2π/τ_s, at least 24·k_1 and at least `k_floor`
     /// (what the gap asks); both `refine` times.
-    fn of(w: &Winding, reach: f64, k_floor: f64, refine: f64) -> Result<Grid, ThrustError> {
+    fn of(
+        w: &Winding,
+        reach: f64,
+        k_floor: f64,
+        refine: f64,
+        most: usize,
+    ) -> Result<Grid, ThrustError> {
         let ts = w
             .slot_pitch_m()
             .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
@@ -211,14 +253,13 @@ impl Grid {
         // Four slot-harmonic bands either side: the sheet's spectrum beyond is under the
         // opening's sinc and the gap's e^(−|k|g) (the convergence test doubles it).
         let wanted_k = (4.0 * 2.0 * PI / ts).max(24.0 * k1).max(k_floor) * refine;
-        // At most MAX_WAVENUMBERS (memory and time stay bounded whatever the plate): window
-        // and range are both shortened by the same factor, and the report says so.
-        let shrink = (wanted_k * wanted / PI / MAX_WAVENUMBERS as f64)
-            .sqrt()
-            .max(1.0);
+        // At most `most` wavenumbers (memory and time stay bounded whatever the plate):
+        // window and range are both shortened by the same factor, and the report says so.
+        let most = most.max(2);
+        let shrink = (wanted_k * wanted / PI / most as f64).sqrt().max(1.0);
         let (window, k_max) = (wanted / shrink, wanted_k / shrink);
         let dk = 2.0 * PI / window;
-        let half = ((k_max / dk).ceil() as usize).clamp(1, MAX_WAVENUMBERS / 2);
+        let half = ((k_max / dk).ceil() as usize).clamp(1, most / 2);
         let ks = (0..2 * half)
             .map(|i| (i as f64 + 0.5 - half as f64) * dk)
             .collect();
@@ -256,9 +297,9 @@ impl Grid {
         let n = self.ks.len();
         let w = s + 1;
         let mut khat = vec![C::new(0.0, 0.0); n * w];
-        let slots = sets.first().map_or(0, Vec::len);
+        let slots = sets.iter().map(Vec::len).max().unwrap_or(0);
         for j in 0..slots {
-            if sets.iter().all(|u| u[j] == 0.0) {
+            if sets.iter().all(|u| u.get(j).is_none_or(|x| *x == 0.0)) {
                 continue;
             }
             let x = (j as f64 + 0.5) * self.ts;
@@ -270,7 +311,7 @@ impl Grid {
                     e = C::from_polar(1.0, k * x);
                 }
                 for (p, u) in sets.iter().enumerate() {
-                    khat[i * w + p] += e * u[j];
+                    khat[i * w + p] += e * u.get(j).copied().unwrap_or(0.0);
                 }
                 e *= step;
             }
@@ -293,7 +334,10 @@ impl Grid {
 /// L_ij = (W/2π)·∫ μ0·coth(|k|·g_e)/|k| · K̂_i*·K̂_j dk over the effective gap g_e on ideal
 /// iron, the primary's floating potential eliminated (L_ij − L_iψ·L_ψj/L_ψψ). The one
 /// phase matrix of `inductance` and of the field model with the plate at rest.
-pub fn gap_inductances(w: &Winding, sets: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, ThrustError> {
+pub fn gap_inductances(
+    w: &Winding,
+    sets: &[Vec<f64>],
+) -> Result<(Vec<Vec<f64>>, Option<GridCut>), ThrustError> {
     let ge = crate::thrust::gap(w)?.effective_m;
     let width = w
         .design
@@ -306,7 +350,13 @@ pub fn gap_inductances(w: &Winding, sets: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, 
         let sides = if s.back_iron { 1.0 } else { 2.0 };
         (ge - s.thickness_m / sides).max(1e-6)
     });
-    let grid = Grid::of(w, 4.0 * air, 8.0 / air, 1.0)?;
+    let grid = Grid::of(
+        w,
+        4.0 * air,
+        8.0 / air,
+        1.0,
+        Grid::most_for(sets.len() + 1, false),
+    )?;
     let khat = grid.spectra(sets);
     let n = sets.len() + 1;
     let mut l = vec![vec![0.0; n]; n];
@@ -324,13 +374,14 @@ pub fn gap_inductances(w: &Winding, sets: &[Vec<f64>]) -> Result<Vec<Vec<f64>>, 
     // Filled below the diagonal; read symmetrically.
     let at = |a: usize, b: usize| l[a.max(b)][a.min(b)] * scale;
     let e = n - 1;
-    Ok((0..e)
+    let matrix = (0..e)
         .map(|a| {
             (0..e)
                 .map(|b| at(a, b) - at(a, e) * at(e, b) / at(e, e))
                 .collect()
         })
-        .collect())
+        .collect();
+    Ok((matrix, grid.cut()))
 }
 
 /// Complex tanh that neither overflows nor loses the sign for large real parts.
@@ -386,7 +437,7 @@ impl Sheet {
         let reach_slip = slips.iter().map(|s| (1.0 - s).abs()).fold(0.0f64, f64::max);
         let reach = tau * (c.xm_ohm / c.r2_ohm) * reach_slip.max(0.05) / PI + 4.0 * air;
         // Every wave that still reaches the plate: e^(−2|k|·g_air) below e^(−16) beyond.
-        let grid = Grid::of(w, reach, 8.0 / air, refine)?;
+        let grid = Grid::of(w, reach, 8.0 / air, refine, Grid::most_for(m + 1, true))?;
         let (ks, k_max, window) = (grid.ks.clone(), grid.k_max, grid.window);
         let (wanted, wanted_k) = (grid.wanted, grid.wanted_k);
         let dk = grid.dk;
@@ -529,27 +580,33 @@ impl Sheet {
         z
     }
 
-    /// The phase currents and, last, the floating potential, for impedance matrix `z`.
-    fn drive(&self, z: &[C]) -> Vec<C> {
+    /// The phase currents and, last, the floating potential, for impedance matrix `z`;
+    /// an error when the equations have no single solution.
+    fn drive(&self, z: &[C], slip: f64) -> Result<Vec<C>, ThrustError> {
         let (m, n) = (self.m, self.sets);
-        match &self.volts {
-            Some(vs) => solve(z, vs, m, self.star).unwrap_or_else(|| vec![C::new(0.0, 0.0); n]),
+        let x = match &self.volts {
+            Some(vs) => solve(z, vs, m, self.star),
             None => {
-                let mut x = self.amps.clone();
-                let linked: C = (0..m).map(|p| z[m * n + p] * x[p]).sum();
-                x.push(-linked / z[m * n + m]);
-                x
+                let own = z[m * n + m];
+                (own.norm() > 0.0).then(|| {
+                    let mut x = self.amps.clone();
+                    let linked: C = (0..m).map(|p| z[m * n + p] * x[p]).sum();
+                    x.push(-linked / own);
+                    x
+                })
             }
-        }
+        };
+        x.filter(|x| x.iter().all(|c| c.re.is_finite() && c.im.is_finite()))
+            .ok_or(ThrustError::NoSolution { slip })
     }
 
     /// The operating point at slip `s`.
-    pub fn point(&self, s: f64) -> FieldRow {
+    pub fn point(&self, s: f64) -> Result<FieldRow, ThrustError> {
         let v = (1.0 - s) * self.vs;
         let [l, fx, fy] = self.matrices(v);
         let z = self.impedance(&l);
         let (m, n) = (self.m, self.sets);
-        let amps = self.drive(&z);
+        let amps = self.drive(&z, s)?;
         let quad = |a: &[C]| -> C {
             let mut t = C::new(0.0, 0.0);
             for q in 0..n {
@@ -578,7 +635,7 @@ impl Sheet {
         let input = input * self.sides;
         let copper = copper * self.sides;
         let out = thrust * v;
-        FieldRow {
+        Ok(FieldRow {
             slip: s,
             speed_m_s: v,
             thrust_n: thrust,
@@ -595,7 +652,7 @@ impl Sheet {
                 1.0
             },
             efficiency: crate::thrust::efficiency(s, input, out),
-        }
+        })
     }
 
     /// The phase impedance matrix at slip `s` as the terminals see it, ohms (row q, column
@@ -607,7 +664,14 @@ impl Sheet {
         (0..m)
             .map(|q| {
                 (0..m)
-                    .map(|p| z[q * n + p] - z[q * n + m] * z[m * n + p] / z[m * n + m])
+                    .map(|p| {
+                        let own = z[m * n + m];
+                        if own.norm() > 0.0 {
+                            z[q * n + p] - z[q * n + m] * z[m * n + p] / own
+                        } else {
+                            z[q * n + p]
+                        }
+                    })
                     .collect()
             })
             .collect()
@@ -664,9 +728,9 @@ impl Sheet {
 
     /// The current phasors the model drives at slip `s` (solved when voltage-fed), and
     /// last the primary iron's floating potential.
-    pub fn currents_at(&self, s: f64) -> Vec<C> {
+    pub fn currents_at(&self, s: f64) -> Result<Vec<C>, ThrustError> {
         let [l, _, _] = self.matrices((1.0 - s) * self.vs);
-        self.drive(&self.impedance(&l))
+        self.drive(&self.impedance(&l), s)
     }
 
     /// Wavenumbers, the largest and the largest asked for, the window and the window
@@ -679,6 +743,16 @@ impl Sheet {
             self.window,
             self.wanted,
         )
+    }
+
+    /// Where the grid was cut short of what the inputs ask.
+    pub fn cut(&self) -> Option<GridCut> {
+        (self.wanted > self.window * (1.0 + 1e-9)).then_some(GridCut {
+            window_m: self.window,
+            wanted_m: self.wanted,
+            k_max: self.k_max,
+            wanted_k_max: self.wanted_k,
+        })
     }
 
     /// True for a double-sided pair.
@@ -816,22 +890,25 @@ fn solve(z: &[C], v: &[C], m: usize, star: bool) -> Option<Vec<C>> {
 
 /// The field model over the slips of the circuit's table, with its largest thrust.
 pub fn field_model(w: &Winding, feed: Feed, slips: &[f64]) -> Result<FieldModel, ThrustError> {
+    if slips.is_empty() {
+        return Err(ThrustError::NoSolution { slip: f64::NAN });
+    }
     let sheet = Sheet::new(w, feed, slips)?;
-    let rows: Vec<FieldRow> = slips.iter().map(|s| sheet.point(*s)).collect();
-    let (a, b) = (
-        slips.first().copied().unwrap_or(0.0),
-        slips.last().copied().unwrap_or(1.0),
-    );
-    // The largest thrust: the table's best row, then golden-section refinement.
+    let rows = slips
+        .iter()
+        .map(|s| sheet.point(*s))
+        .collect::<Result<Vec<FieldRow>, ThrustError>>()?;
+    // The largest thrust: the table's best row, then golden-section refinement between its
+    // neighbours (a point without a solution counts as no thrust there).
     let best = (0..rows.len())
         .max_by(|x, y| rows[*x].thrust_n.total_cmp(&rows[*y].thrust_n))
         .unwrap_or(0);
-    let (mut lo, mut hi) = (
-        slips[best.saturating_sub(1)].min(slips[(best + 1).min(rows.len() - 1)]),
-        slips[best.saturating_sub(1)].max(slips[(best + 1).min(rows.len() - 1)]),
+    let (n0, n1) = (
+        slips[best.saturating_sub(1)],
+        slips[(best + 1).min(rows.len() - 1)],
     );
-    let _ = (a, b);
-    let at = |s: f64| sheet.point(s).thrust_n;
+    let (mut lo, mut hi) = (n0.min(n1), n0.max(n1));
+    let at = |s: f64| sheet.point(s).map_or(f64::NEG_INFINITY, |r| r.thrust_n);
     let phi = (5f64.sqrt() - 1.0) / 2.0;
     for _ in 0..40 {
         let x1 = hi - phi * (hi - lo);

@@ -85,6 +85,9 @@ pub struct PlateChoice {
     pub standstill_current_a: f64,
     /// Thrust against speed, (m/s, N), standstill to synchronism.
     pub curve: Vec<(f64, f64)>,
+    /// True when the field model's wavenumbers were bounded for this choice (its window or
+    /// range short of what the inputs ask: see the thrust report's `FieldGridBounded`).
+    pub grid_bounded: bool,
 }
 
 /// The comparison.
@@ -202,6 +205,7 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
                 standstill_heat_w: still.secondary_loss_w,
                 standstill_heat_w_cm2: area.map(|a| still.secondary_loss_w / (a * 1e4)),
                 standstill_current_a: still.phase_currents_a.iter().copied().fold(0.0, f64::max),
+                grid_bounded: fm.window_wanted_m > fm.window_m * (1.0 + 1e-9),
                 curve: fm.rows.iter().map(|r| (r.speed_m_s, r.thrust_n)).collect(),
             })
         })

@@ -53,6 +53,12 @@ pub enum ThrustError {
     /// The winding has no fundamental.
     #[error("the winding has no fundamental EMF, so no working wave to drive the plate")]
     NoFundamental,
+    /// The field model's phase equations have no single solution at this slip.
+    #[error("the field model's phase equations have no solution at slip {slip}")]
+    NoSolution {
+        /// The slip (not a number when no slip was asked).
+        slip: f64,
+    },
 }
 
 /// An input of the flat-primary models that a layout may leave out.

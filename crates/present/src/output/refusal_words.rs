@@ -244,6 +244,14 @@ impl Words for crate::thrust::ThrustError {
             ThrustError::NoFundamental => {
                 "the winding has no fundamental EMF, so no working wave to drive the plate".into()
             }
+            ThrustError::NoSolution { slip } if slip.is_finite() => format!(
+                "the field model's phase equations have no single solution at slip {} (the \
+                 winding's phases are not independent there)",
+                crate::output::num(*slip, 4)
+            ),
+            ThrustError::NoSolution { .. } => {
+                "the field model needs at least one slip to work at".into()
+            }
             ThrustError::Missing(input) => format!(
                 "the model needs {}",
                 match input {

@@ -306,6 +306,13 @@ impl Report for crate::plates::PlatesReport {
             .collect(),
         ));
         s.push(Section::Table(self.main_table()));
+        if self.choices.iter().any(|c| c.grid_bounded) {
+            s.push(Section::Lines(vec![paragraph(
+                "* the field model's wavenumbers were bounded for this choice: its end effect at \
+                 low slip and its slot-harmonic drag are understated (see `thrust` on that \
+                 layout for the figures)",
+            )]));
+        }
         s.push(super::caution());
         s
     }
@@ -325,7 +332,11 @@ impl Report for crate::plates::PlatesReport {
         ]);
         for c in &self.choices {
             t.push(vec![
-                num(c.thickness_mm, 3),
+                format!(
+                    "{}{}",
+                    if c.grid_bounded { "*" } else { "" },
+                    num(c.thickness_mm, 3)
+                ),
                 num(c.conductivity_ms_m, 3),
                 num(c.clearance_mm, 3),
                 c.current_a
