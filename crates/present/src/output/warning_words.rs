@@ -217,7 +217,7 @@ impl fmt::Display for Say<'_, Assumption> {
             Assumption::FieldModel => f.write_str(
                 "field model: the finite primary's slot currents as a current sheet, Fourier \
                  transformed, over a two-dimensional gap and plate (skin effect included); \
-                 primary iron infinitely permeable, its magnetic potential floating so that \
+                 primary iron ideal (no magnetic drop in it), its potential floating so that \
                  its flux closes in it, and the face beyond its ends taken as unexcited iron; \
                  slots smoothed by Carter's coefficient; edge effect by the \
                  Russell-Norsworthy factor of each wavelength; backing steel linear",
