@@ -294,7 +294,7 @@ fn the_models_assumptions_are_checked_against_the_inputs() {
                 assert!((density_a_mm2 / j - 1.0).abs() < 1e-12);
                 seen += 1;
             }
-            Assumption::PlateHeatingAtStandstill { watts, w_cm2 } => {
+            Assumption::PlateHeatingAtStandstill { watts, w_cm2, .. } => {
                 // All the gap power at slip 1, over 29 × 12 mm of primary × the 60 mm plate.
                 let p = r.rows.last().unwrap();
                 assert_eq!(p.slip, 1.0);
@@ -337,4 +337,28 @@ fn efficiency_reads_the_same_at_synchronism_and_standstill_in_every_range() {
             assert_eq!(row.efficiency, Some(0.0), "{from}..{to} at slip {end}");
         }
     }
+}
+
+// With the end effect the gap field is what the reduced magnetising reactance
+// X_m·(1 − f(Q)) carries (Duncan 1983; our reading of the circuit, docs/theory.md): the
+// attraction at synchronism is that of the sheet |I_m|·(1 − f(Q)), and so below the long
+// primary's, although the magnetising current is higher.
+#[test]
+fn the_end_effect_weakens_the_attraction() {
+    let w = shuttle("slot_opening_mm = 3.0");
+    let with = thrust::thrust(&w, &query(None, true)).expect("model");
+    let without = thrust::thrust(&w, &query(None, false)).expect("model");
+    let (a, b) = (&with.rows[0], &without.rows[0]);
+    assert_eq!(a.slip, 0.0);
+    assert!(a.current_a > b.current_a);
+    assert!(
+        a.normal_force_n < b.normal_force_n,
+        "{} {}",
+        a.normal_force_n,
+        b.normal_force_n
+    );
+    // At s = 0 there is no secondary current: attraction ∝ (|I_m|·(1 − f(Q)))², I_m = I1.
+    let q = a.end_effect_q.expect("Q at speed");
+    let ratio = (a.current_a * (1.0 - thrust::duncan_f(q)) / b.current_a).powi(2);
+    assert!((a.normal_force_n / b.normal_force_n / ratio - 1.0).abs() < 1e-9);
 }

@@ -327,17 +327,18 @@ pub struct PlatesArgs {
     #[command(flatten)]
     pub common: Common,
     /// Plate thicknesses to compare, mm, e.g. 3,4,6 (default: the layout's).
-    #[arg(long = "thickness-mm", value_delimiter = ',', value_parser = flags::plate_thickness)]
+    #[arg(long = "thickness-mm", allow_hyphen_values = true, value_delimiter = ',', value_parser = flags::plate_thickness)]
     pub thickness_mm: Vec<f64>,
-    /// Plate metals: aluminium, copper, or a conductivity in MS/m, e.g. aluminium,copper,28
-    /// (default: the layout's plate).
+    /// Plate metals: aluminium, copper, or a conductivity in MS/m at 20 °C, e.g.
+    /// aluminium,copper,28 (default: the layout's plate; each taken at the plate's
+    /// temperature).
     #[arg(long, value_delimiter = ',', value_parser = flags::plate_metal)]
     pub metal: Vec<beltwright::plates::Metal>,
     /// Mechanical clearances to compare, mm (default: the layout's airgap_mm).
-    #[arg(long = "clearance-mm", value_delimiter = ',', value_parser = flags::clearance)]
+    #[arg(long = "clearance-mm", allow_hyphen_values = true, value_delimiter = ',', value_parser = flags::clearance)]
     pub clearance_mm: Vec<f64>,
     /// Phase currents to compare, A r.m.s. (default: fed from the supply voltage).
-    #[arg(long, value_delimiter = ',', value_parser = flags::current)]
+    #[arg(long, allow_hyphen_values = true, value_delimiter = ',', value_parser = flags::current)]
     pub current: Vec<f64>,
     /// Also draw the comparison as a sheet: .svg, .pdf or .png.
     #[arg(long)]

@@ -1010,6 +1010,22 @@ impl RawLayout {
             };
             let backing_keys =
                 s.backing_conductivity_ms_m.is_some() || s.backing_permeability.is_some();
+            if (backing_keys || s.backing_thickness_mm.is_some()) && s.back_iron == Some(false) {
+                return Err(c.err(
+                    "secondary",
+                    0,
+                    if s.backing_thickness_mm.is_some() {
+                        "backing_thickness_mm"
+                    } else if s.backing_conductivity_ms_m.is_some() {
+                        "backing_conductivity_ms_m"
+                    } else {
+                        "backing_permeability"
+                    },
+                    "a plate between two primaries (back_iron = false) has no backing; remove \
+                     the backing_ keys or set back_iron = true"
+                        .into(),
+                ));
+            }
             if backing_keys && s.backing_thickness_mm.is_none() {
                 return Err(c.err(
                     "secondary",
@@ -1017,16 +1033,6 @@ impl RawLayout {
                     "backing_thickness_mm",
                     "the backing's conductivity and permeability need its thickness; give \
                      backing_thickness_mm, or leave all three out for ideal back iron"
-                        .into(),
-                ));
-            }
-            if s.backing_thickness_mm.is_some() && s.back_iron == Some(false) {
-                return Err(c.err(
-                    "secondary",
-                    0,
-                    "backing_thickness_mm",
-                    "a plate between two primaries (back_iron = false) has no backing; remove \
-                     backing_thickness_mm or set back_iron = true"
                         .into(),
                 ));
             }

@@ -128,9 +128,13 @@ pub enum Assumption {
     },
     /// What the plate turns into heat at standstill (slip 1, all the gap power).
     PlateHeatingAtStandstill {
-        /// W.
+        /// W, by the circuit.
         watts: f64,
-        /// W/cm² of plate under the primary.
+        /// W/cm² of plate under the primary, by the circuit.
         w_cm2: f64,
+        /// W, by the field model (null before it has run).
+        field_watts: Option<f64>,
+        /// W/cm², by the field model.
+        field_w_cm2: Option<f64>,
     },
 }

@@ -39,6 +39,8 @@ pub struct LayoutRank {
     pub layers: usize,
     /// Coil span.
     pub pitch: usize,
+    /// Fundamental winding factor k_w1 of the layout (what the span costs in EMF).
+    pub winding_factor: f64,
     /// Negative-sequence current, per cent of positive, under balanced line voltages.
     pub negative_sequence_current_percent: f64,
     /// True for the layout of the file.
@@ -304,9 +306,13 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
         })
         .sum::<f64>()
         / m as f64;
-    let r1 = crate::card::phase_resistances_20c(w)
-        .map(|r| r.iter().sum::<f64>() / r.len().max(1) as f64)
-        .unwrap_or(0.0);
+    let r1 = match crate::card::phase_resistances_20c(w) {
+        Some(r) => r.iter().sum::<f64>() / r.len().max(1) as f64,
+        None => {
+            assumptions.push(crate::assumption::Assumption::NoPrimaryResistance);
+            0.0
+        }
+    };
     let leak = crate::thrust::leakage_h(w)
         .map(|(s, e)| s + e)
         .unwrap_or(0.0);
@@ -371,6 +377,7 @@ fn rank_layouts(w: &Winding, r1: f64, leak: f64) -> Vec<LayoutRank> {
             poles: g.poles,
             layers: g.layers,
             pitch: w.pitch,
+            winding_factor: crate::factors::fundamental(w).winding,
             negative_sequence_current_percent: pct,
             this_layout: true,
         });
@@ -408,6 +415,7 @@ fn rank_layouts(w: &Winding, r1: f64, leak: f64) -> Vec<LayoutRank> {
                 poles: g.poles,
                 layers,
                 pitch: cand.pitch,
+                winding_factor: crate::factors::fundamental(&cand).winding,
                 negative_sequence_current_percent: pct,
                 this_layout: false,
             });

@@ -85,6 +85,10 @@ pub struct PlateChoice {
     pub standstill_current_a: f64,
     /// Thrust against speed, (m/s, N), standstill to synchronism.
     pub curve: Vec<(f64, f64)>,
+    /// What this choice breaks: a saturating backing, the primary's current density at
+    /// standstill (the field model's largest phase current).
+    #[serde(skip)]
+    pub warnings: Vec<crate::assumption::Assumption>,
     /// True when the field model's wavenumbers were bounded for this choice (its window or
     /// range short of what the inputs ask: see the thrust report's `FieldGridBounded`).
     pub grid_bounded: bool,
@@ -101,6 +105,8 @@ pub struct PlatesReport {
     pub synchronous_speed_m_s: f64,
     /// Every combination, in the order asked (thickness, metal, clearance, current).
     pub choices: Vec<PlateChoice>,
+    /// True for a plate between two primaries: thrust and heat of both.
+    pub double_sided: bool,
 }
 
 /// Why a comparison cannot be made.
@@ -191,6 +197,13 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
             };
             let fm = field_model(&w2, feed, &slips)?;
             let still = &fm.rows[0];
+            let largest = still.phase_currents_a.iter().copied().fold(0.0, f64::max);
+            let md = crate::thrust::model(&w2)?;
+            let warnings: Vec<crate::assumption::Assumption> =
+                crate::thrust::backing_saturation(&w2, &md, feed)
+                    .into_iter()
+                    .chain(crate::thrust::current_density(&w2, largest, 1.0))
+                    .collect();
             let vs = fm.rows.last().map_or(0.0, |r| r.speed_m_s);
             let area = crate::thrust::plate_area_under_m2(&w2).filter(|a| *a > 0.0);
             Ok(PlateChoice {
@@ -205,6 +218,7 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
                 standstill_heat_w: still.secondary_loss_w,
                 standstill_heat_w_cm2: area.map(|a| still.secondary_loss_w / (a * 1e4)),
                 standstill_current_a: still.phase_currents_a.iter().copied().fold(0.0, f64::max),
+                warnings,
                 grid_bounded: fm.window_wanted_m > fm.window_m * (1.0 + 1e-9),
                 curve: fm.rows.iter().map(|r| (r.speed_m_s, r.thrust_n)).collect(),
             })
@@ -219,5 +233,6 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
             .zip(d.supply.frequency_hz)
             .map_or(0.0, |(tau, f)| 2.0 * f * tau),
         choices,
+        double_sided: own.is_some_and(|s| !s.back_iron),
     })
 }

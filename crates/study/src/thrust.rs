@@ -436,7 +436,7 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     let c = &md.circuit;
     let v = (1.0 - s) * md.vs;
     // Magnetising branch, with Duncan's modification at this speed.
-    let (zm, q) = if end {
+    let (zm, q, fq) = if end {
         let q = if v.abs() > 0.0 {
             c.length_m * c.r2_ohm / (md.lm * v.abs())
         } else {
@@ -446,9 +446,10 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
         (
             Complex64::new(c.r2_ohm * fq, c.xm_ohm * (1.0 - fq)),
             Some(q).filter(|q| q.is_finite()),
+            fq,
         )
     } else {
-        (Complex64::new(0.0, c.xm_ohm), None)
+        (Complex64::new(0.0, c.xm_ohm), None, 0.0)
     };
     // Secondary branch R2'/s, worked in admittances so that no slip, however small,
     // overflows: y2 = s/R2' (zero at s = 0, where it carries no current), ym = 1/Zm.
@@ -476,7 +477,10 @@ fn point(md: &Model, feed: Feed, s: f64, end: bool) -> Row {
     // Normal force from the current sheets (peak linear current densities).
     let sheet =
         |i: f64| md.m * 2f64.sqrt() * c.effective_turns * i / (c.pole_pairs * c.pole_pitch_m);
-    let (jm, j2) = (sheet(im.norm()), sheet(i2.norm()));
+    // With the end effect the gap field is what the reduced magnetising reactance
+    // X_m·(1 − f(Q)) carries (the R2'·f(Q) part is the end eddy loss): the magnetising
+    // sheet that attracts is |I_m|·(1 − f(Q)).
+    let (jm, j2) = (sheet(im.norm() * (1.0 - fq)), sheet(i2.norm()));
     let kg = PI * md.ge / c.pole_pitch_m;
     let area = c.length_m * c.width_m;
     let normal = area * (MU0 * jm * jm / (4.0 * kg * kg) - MU0 * j2 * j2 / 4.0);
@@ -592,6 +596,21 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         .map(|(c, f)| f.thrust_n / c.thrust_n);
     field_model.max_thrust_ratio = (f_max != 0.0).then(|| field_model.max_thrust_n / f_max);
     let mut checked = checked;
+    // The plate's heat at standstill by the field model beside the circuit's.
+    if let Some(still) = field_model.rows.iter().find(|r| r.slip == 1.0) {
+        let under = plate_area_under_m2(w).filter(|a| *a > 0.0);
+        for a in checked.iter_mut() {
+            if let Assumption::PlateHeatingAtStandstill {
+                field_watts,
+                field_w_cm2,
+                ..
+            } = a
+            {
+                *field_watts = Some(still.secondary_loss_w);
+                *field_w_cm2 = under.map(|u| still.secondary_loss_w / (u * 1e4));
+            }
+        }
+    }
     if field_model.window_wanted_m > field_model.window_m * (1.0 + 1e-9) {
         checked.push(Assumption::FieldGridBounded {
             window_m: field_model.window_m,
@@ -627,6 +646,44 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     })
 }
 
+/// A steel backing of given thickness carries half the flux per pole through its section
+/// (the back-iron rule of `loading`), at the largest flux: synchronism on the long-primary
+/// circuit, where no secondary current opposes the magnetising current. The warning when
+/// that passes the back-iron limit.
+pub(crate) fn backing_saturation(w: &Winding, md: &Model, feed: Feed) -> Option<Assumption> {
+    let b = w.design.secondary?.backing?;
+    let c = &md.circuit;
+    let e = match feed {
+        Feed::Voltage { phase_voltage_v } => {
+            let z = Complex64::new(c.r1_ohm, c.x1_ohm + c.xm_ohm);
+            phase_voltage_v * c.xm_ohm / z.norm()
+        }
+        Feed::Current { phase_current_a } => phase_current_a * c.xm_ohm,
+    };
+    let f = c.omega / (2.0 * PI);
+    let phi = crate::loading::flux_per_pole(e, f, c.effective_turns);
+    let tesla = phi / (2.0 * b.thickness_m * c.width_m);
+    let limit = crate::loading::YOKE_LIMIT_T;
+    (tesla > limit).then_some(Assumption::BackingSaturates {
+        tesla,
+        limit_tesla: limit,
+        thickness_mm: b.thickness_m * 1e3,
+    })
+}
+
+/// The warning when phase current `amps` (at slip `slip`) passes the card's current
+/// density in the layout's wire.
+pub(crate) fn current_density(w: &Winding, amps: f64, slip: f64) -> Option<Assumption> {
+    let area = crate::wire::Wire::of(w.design.wire.as_ref()?).conductor_area_mm2;
+    let limit = crate::card::CURRENT_DENSITY_LIMIT_A_MM2;
+    let j = amps / w.parallel_paths.max(1) as f64 / area;
+    (j > limit).then_some(Assumption::PrimaryCurrentDensity {
+        density_a_mm2: j,
+        limit_a_mm2: limit,
+        slip,
+    })
+}
+
 /// The model's assumptions checked against the inputs: the plate's conductivity as used, a
 /// plate narrower than the stack, thicker than its skin depth, the primary's current
 /// density at the sweep's largest current, and the plate's heat at standstill.
@@ -643,30 +700,7 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
         winding_c: d.winding_temperature_c,
         plate_c: sec.temperature_c,
     });
-    // A steel backing of given thickness carries half the flux per pole through its
-    // section (the back-iron rule of `loading`), at the largest flux: synchronism on the
-    // long-primary circuit, where no secondary current opposes the magnetising current.
-    if let Some(b) = sec.backing {
-        let c = &md.circuit;
-        let e = match feed {
-            Feed::Voltage { phase_voltage_v } => {
-                let z = Complex64::new(c.r1_ohm, c.x1_ohm + c.xm_ohm);
-                phase_voltage_v * c.xm_ohm / z.norm()
-            }
-            Feed::Current { phase_current_a } => phase_current_a * c.xm_ohm,
-        };
-        let f = c.omega / (2.0 * PI);
-        let phi = crate::loading::flux_per_pole(e, f, c.effective_turns);
-        let tesla = phi / (2.0 * b.thickness_m * c.width_m);
-        let limit = crate::loading::YOKE_LIMIT_T;
-        if tesla > limit {
-            a.push(Assumption::BackingSaturates {
-                tesla,
-                limit_tesla: limit,
-                thickness_mm: b.thickness_m * 1e3,
-            });
-        }
-    }
+    a.extend(backing_saturation(w, md, feed));
     let stack = d.core.stack_m.unwrap_or(0.0);
     let plate = sec.width_m.unwrap_or(stack);
     if plate < stack {
@@ -687,22 +721,11 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
             thin_below_slip: (delta / sec.thickness_m).powi(2),
         });
     }
-    if let Some(spec) = &d.wire {
-        let area = crate::wire::Wire::of(spec).conductor_area_mm2;
-        let limit = crate::card::CURRENT_DENSITY_LIMIT_A_MM2;
-        if let Some(r) = rows
-            .iter()
-            .max_by(|x, y| x.current_a.total_cmp(&y.current_a))
-        {
-            let j = r.current_a / w.parallel_paths.max(1) as f64 / area;
-            if j > limit {
-                a.push(Assumption::PrimaryCurrentDensity {
-                    density_a_mm2: j,
-                    limit_a_mm2: limit,
-                    slip: r.slip,
-                });
-            }
-        }
+    if let Some(r) = rows
+        .iter()
+        .max_by(|x, y| x.current_a.total_cmp(&y.current_a))
+    {
+        a.extend(current_density(w, r.current_a, r.slip));
     }
     // At standstill all the gap power heats the plate: the sweep's row there, if it has one.
     let standstill = rows
@@ -716,6 +739,8 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
         a.push(Assumption::PlateHeatingAtStandstill {
             watts: standstill.airgap_power_w,
             w_cm2: standstill.airgap_power_w / (under * 1e4),
+            field_watts: None,
+            field_w_cm2: None,
         });
     }
     a

@@ -18,13 +18,19 @@ const SHOWN: usize = 7;
 pub fn draw(s: &crate::study::Study, report: &PlatesReport, page: &Page) -> String {
     let mut c = Canvas::new(page, &TitleBlock::of(s, "Plate choice"));
     let a = c.area;
-    let shown = report.choices.len().min(SHOWN);
-    let mut notes: Vec<String> = report
-        .choices
+    // With more choices than curves, curves spread evenly over the list (first and last
+    // among them), each keyed by its number in the table.
+    let total = report.choices.len();
+    let picked: Vec<usize> = if total <= SHOWN {
+        (0..total).collect()
+    } else {
+        (0..SHOWN).map(|i| i * (total - 1) / (SHOWN - 1)).collect()
+    };
+    let shown = picked.len();
+    let mut notes: Vec<String> = picked
         .iter()
-        .take(shown)
-        .enumerate()
-        .map(|(i, ch)| {
+        .map(|&i| {
+            let ch = &report.choices[i];
             format!(
                 "{}: plate {} mm at {} MS/m, clearance {} mm, {}; standstill {} N, peak {} N at {} \
                  m/s, plate heat at standstill {} W",
@@ -46,8 +52,8 @@ pub fn draw(s: &crate::study::Study, report: &PlatesReport, page: &Page) -> Stri
         .collect();
     if report.choices.len() > shown {
         notes.push(format!(
-            "the curves of the first {shown} of {} choices; every choice is in the text, JSON \
-             and CSV table",
+            "curves of {shown} of the {} choices, spread over the list; every choice is in the \
+             text, JSON and CSV table",
             report.choices.len()
         ));
     }
@@ -61,17 +67,15 @@ pub fn draw(s: &crate::study::Study, report: &PlatesReport, page: &Page) -> Stri
         lines.extend(text::wrap(n, 2.6, a.w));
     }
     let notes_h = 4.0 + lines.len() as f64 * 3.6;
-    let names: Vec<String> = (1..=shown).map(|i| i.to_string()).collect();
-    let series: Vec<Series> = report
-        .choices
+    let names: Vec<String> = picked.iter().map(|i| (i + 1).to_string()).collect();
+    let series: Vec<Series> = picked
         .iter()
-        .take(shown)
         .enumerate()
-        .map(|(i, ch)| Series {
-            name: &names[i],
-            points: ch.curve.clone(),
-            colour: OKABE_ITO[i],
-            dash: if i == 0 { "" } else { DASHES[i] },
+        .map(|(k, &i)| Series {
+            name: &names[k],
+            points: report.choices[i].curve.clone(),
+            colour: OKABE_ITO[k],
+            dash: if k == 0 { "" } else { DASHES[k] },
         })
         .collect();
     let mut g = Group::new().set("class", "plates").add(chart(

@@ -385,6 +385,9 @@ pub struct PlatesJson<'a> {
     opening: Opening,
     #[serde(flatten)]
     report: &'a crate::plates::PlatesReport,
+    /// What a choice breaks, in words, each "choice N: ..." (N counting from 1 in the
+    /// order of `choices`).
+    warnings: Vec<String>,
 }
 
 impl<'a> PlatesJson<'a> {
@@ -393,6 +396,7 @@ impl<'a> PlatesJson<'a> {
         PlatesJson {
             opening: Opening::default(),
             report,
+            warnings: super::thrust_report::plate_warnings(report),
         }
     }
 }

@@ -72,9 +72,10 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 num(this.secondary_resistance_ohm, 4)
             ),
             format!(
-                "largest thrust {} N at slip {} (circuit)",
+                "largest thrust {} N at slip {} (circuit){}",
                 num(this.max_thrust_n, 2),
-                num(this.max_thrust_slip, 4)
+                num(this.max_thrust_slip, 4),
+                range_end(this, this.max_thrust_slip)
             ),
         ];
         s.push(Section::Lines(lines.iter().map(|l| paragraph(l)).collect()));
@@ -103,13 +104,43 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
     }
 }
 
+/// ", at the end of the slips asked" when the largest thrust lies on the range's end (the
+/// peak may lie beyond it).
+fn range_end(report: &ThrustReport, slip: f64) -> &'static str {
+    let ends = [report.rows.first(), report.rows.last()];
+    if ends
+        .iter()
+        .flatten()
+        .any(|r| (r.slip - slip).abs() < 1e-6 && r.slip != 1.0)
+    {
+        ", at the end of the slips asked (the peak may lie beyond)"
+    } else {
+        ""
+    }
+}
+
+/// What each choice of a plate comparison breaks, "choice N: ..." (N from 1).
+pub fn plate_warnings(report: &crate::plates::PlatesReport) -> Vec<String> {
+    report
+        .choices
+        .iter()
+        .enumerate()
+        .flat_map(|(i, c)| {
+            c.warnings
+                .iter()
+                .map(move |a| format!("choice {}: {}", i + 1, a.message()))
+        })
+        .collect()
+}
+
 /// The field model's lines and table, beside the circuit's.
 fn field_sections(report: &ThrustReport, every: usize) -> Vec<Section> {
     let fm = &report.field_model;
     let mut lines = vec![format!(
-        "largest thrust {} N at slip {}{}",
+        "largest thrust {} N at slip {}{}{}",
         num(fm.max_thrust_n, 2),
         num(fm.max_thrust_slip, 4),
+        range_end(report, fm.max_thrust_slip),
         fm.max_thrust_ratio.map_or(String::new(), |r| format!(
             ", {} of the circuit's",
             num(r, 3)
@@ -249,19 +280,21 @@ impl Report for InductanceReport {
                 ("poles", Align::Right),
                 ("layers", Align::Right),
                 ("span", Align::Right),
+                ("k_w1", Align::Right),
                 ("negative sequence %", Align::Right),
-                ("", Align::Left),
+                ("layout", Align::Left),
             ]);
             for r in &self.ranking {
                 t.push(vec![
                     r.poles.to_string(),
                     r.layers.to_string(),
                     r.pitch.to_string(),
+                    num(r.winding_factor, 4),
                     num(r.negative_sequence_current_percent, 3),
                     if r.this_layout {
                         "this layout".into()
                     } else {
-                        String::new()
+                        "other".into()
                     },
                 ]);
             }
@@ -306,6 +339,17 @@ impl Report for crate::plates::PlatesReport {
             .collect(),
         ));
         s.push(Section::Table(self.main_table()));
+        let mut notes = Vec::new();
+        if self.double_sided {
+            notes.push(
+                "two primaries: thrust and heat are of both, the current each primary's"
+                    .to_string(),
+            );
+        }
+        notes.extend(plate_warnings(self));
+        if !notes.is_empty() {
+            s.push(Section::Lines(notes.iter().map(|l| paragraph(l)).collect()));
+        }
         if self.choices.iter().any(|c| c.grid_bounded) {
             s.push(Section::Lines(vec![paragraph(
                 "* the field model's wavenumbers were bounded for this choice: its end effect at \

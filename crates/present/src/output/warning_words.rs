@@ -330,13 +330,28 @@ impl fmt::Display for Say<'_, Assumption> {
                 num(*slip, 3),
                 num(*limit_a_mm2, 1)
             ),
-            Assumption::PlateHeatingAtStandstill { watts, w_cm2 } => write!(
-                f,
-                "at standstill the plate turns {} W into heat, {} W/cm² of plate under the \
-                 primary",
-                num(*watts, 0),
-                num(*w_cm2, 2)
-            ),
+            Assumption::PlateHeatingAtStandstill {
+                watts,
+                w_cm2,
+                field_watts,
+                field_w_cm2,
+            } => {
+                write!(
+                    f,
+                    "at standstill the plate turns {} W into heat by the circuit, {} W/cm² of \
+                     plate under the primary",
+                    num(*watts, 0),
+                    num(*w_cm2, 2)
+                )?;
+                if let Some(fw) = field_watts {
+                    write!(f, "; {} W by the field model", num(*fw, 0))?;
+                    if let Some(fc) = field_w_cm2 {
+                        write!(f, ", {} W/cm²", num(*fc, 2))?;
+                    }
+                }
+                Ok(())
+            }
+
             Assumption::GapLargeAgainstPitch { ratio } => write!(
                 f,
                 "the magnetic gap is {} of the pole pitch, not small against it (above 0.1): \
