@@ -34,4 +34,18 @@ impl Table {
     pub fn push(&mut self, row: Vec<String>) {
         self.rows.push(row);
     }
+
+    /// Add columns on the right, `cells[i]` continuing row i (rows without cells get
+    /// empty ones, so every row stays as wide as the headers).
+    pub fn extend_columns(&mut self, columns: &[(&str, Align)], cells: Vec<Vec<String>>) {
+        self.headers.extend(columns.iter().map(|c| c.0.to_string()));
+        self.align.extend(columns.iter().map(|c| c.1));
+        let mut more = cells.into_iter();
+        for row in &mut self.rows {
+            let add = more
+                .next()
+                .unwrap_or_else(|| vec![String::new(); columns.len()]);
+            row.extend(add);
+        }
+    }
 }

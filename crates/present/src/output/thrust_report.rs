@@ -15,8 +15,33 @@ impl Report for ThrustReport {
         sections_every(self, 1)
     }
 
+    /// The spreadsheet's table: the circuit's columns, then the field model's at the same
+    /// slips (each heading says which model).
     fn main_table(&self) -> Table {
-        table_every(self, 1)
+        let mut t = table_every(self, 1);
+        t.extend_columns(
+            &[
+                ("field model thrust N", Align::Right),
+                ("field model normal N (+ attracts)", Align::Right),
+                ("field model largest phase current A", Align::Right),
+                ("field model power factor", Align::Right),
+                ("field model plate heat W", Align::Right),
+            ],
+            self.field_model
+                .rows
+                .iter()
+                .map(|r| {
+                    vec![
+                        num(r.thrust_n, 2),
+                        num(r.normal_force_n, 2),
+                        num(r.phase_currents_a.iter().copied().fold(0.0, f64::max), 3),
+                        num(r.power_factor, 3),
+                        num(r.secondary_loss_w, 1),
+                    ]
+                })
+                .collect(),
+        );
+        t
     }
 }
 
