@@ -88,9 +88,8 @@ fn a_thick_plate_is_a_conducting_half_space() {
 /// layer, [cosh γt, (μ/γ)·sinh γt; (γ/μ)·sinh γt, cosh γt] (the multilayer travelling-wave
 /// formulation of J. Greig and E. M. Freeman, Proc. IEE 1967, and E. M. Freeman, Proc. IEE
 /// 1968, from memory), from the primary face to air reaching infinity.
-fn transfer_matrix_ratio(k: f64, sw: f64, layers: &[(f64, f64, f64)]) -> C {
-    // Unknown (A0, H0) at the face; carry the two columns of the identity and ask that the
-    // field above the last layer decays: H = −(|k|/μ0)·A there.
+/// The 2×2 transfer matrix of (A, H_x) through `layers` (thickness, σ, μ), first to last.
+fn transfer(k: f64, sw: f64, layers: &[(f64, f64, f64)]) -> [[C; 2]; 2] {
     let mut m = [
         [C::new(1.0, 0.0), C::new(0.0, 0.0)],
         [C::new(0.0, 0.0), C::new(1.0, 0.0)],
@@ -107,6 +106,13 @@ fn transfer_matrix_ratio(k: f64, sw: f64, layers: &[(f64, f64, f64)]) -> C {
         }
         m = n;
     }
+    m
+}
+
+fn transfer_matrix_ratio(k: f64, sw: f64, layers: &[(f64, f64, f64)]) -> C {
+    // Unknown (A0, H0) at the face; carry the two columns of the identity and ask that the
+    // field above the last layer decays: H = −(|k|/μ0)·A there.
+    let m = transfer(k, sw, layers);
     // H_top + (|k|/μ0)·A_top = 0 with (A_top, H_top) = M·(1, R): solve for R = H0/A0.
     let c = k.abs() / MU0;
     -(m[1][0] + c * m[0][0]) / (m[1][1] + c * m[0][1])
@@ -289,22 +295,7 @@ fn a_pair_solved_whole_is_the_mirror_plane_model() {
     for (k, s) in [(20.0, 1.0), (43.6, 0.1), (150.0, -0.4), (-43.6, 1.7)] {
         let sw = s * OMEGA;
         // Transfer matrix of (A, H_x) through air, plate, air.
-        let mut m = [
-            [C::new(1.0, 0.0), C::new(0.0, 0.0)],
-            [C::new(0.0, 0.0), C::new(1.0, 0.0)],
-        ];
-        for (t, sigma) in [(air, 0.0), (d, SIGMA), (air, 0.0)] {
-            let g = C::new(k * k, MU0 * sigma * sw).sqrt();
-            let (ch, sh) = ((g * t).cosh(), (g * t).sinh());
-            let l = [[ch, sh * MU0 / g], [sh * g / MU0, ch]];
-            let mut n = [[C::new(0.0, 0.0); 2]; 2];
-            for i in 0..2 {
-                for j in 0..2 {
-                    n[i][j] = l[i][0] * m[0][j] + l[i][1] * m[1][j];
-                }
-            }
-            m = n;
-        }
+        let m = transfer(k, sw, &[(air, 0.0, MU0), (d, SIGMA, MU0), (air, 0.0, MU0)]);
         // (A_H, H_H) = M·(A0, −K) with H_H = +K: A0/K = (1 + M11)/M10.
         let whole = (1.0 + m[1][1]) / m[1][0];
         let mirror = -1.0 / face_ratio(k, sw, SIGMA, d / 2.0, (k.abs() * air).tanh(), Far::Iron);

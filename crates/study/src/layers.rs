@@ -907,19 +907,8 @@ pub fn field_model(w: &Winding, feed: Feed, slips: &[f64]) -> Result<FieldModel,
         slips[best.saturating_sub(1)],
         slips[(best + 1).min(rows.len() - 1)],
     );
-    let (mut lo, mut hi) = (n0.min(n1), n0.max(n1));
     let at = |s: f64| sheet.point(s).map_or(f64::NEG_INFINITY, |r| r.thrust_n);
-    let phi = (5f64.sqrt() - 1.0) / 2.0;
-    for _ in 0..40 {
-        let x1 = hi - phi * (hi - lo);
-        let x2 = lo + phi * (hi - lo);
-        if at(x1) >= at(x2) {
-            hi = x2;
-        } else {
-            lo = x1;
-        }
-    }
-    let s_max = (lo + hi) / 2.0;
+    let s_max = crate::thrust::golden_max(&at, n0, n1, 40);
     let (n, k_max, wanted_k, window, wanted) = sheet.grid();
     let (r1, x_leak) = sheet.r1_x_leak();
     Ok(FieldModel {

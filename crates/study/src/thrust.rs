@@ -294,6 +294,23 @@ pub(crate) struct Model {
     assumptions: Vec<Assumption>,
 }
 
+/// The abscissa of the largest `f` between `lo` and `hi` by `steps` golden-section steps
+/// (f unimodal there: the caller brackets its best grid point by its neighbours).
+pub(crate) fn golden_max(f: &dyn Fn(f64) -> f64, lo: f64, hi: f64, steps: usize) -> f64 {
+    let (mut lo, mut hi) = (lo.min(hi), lo.max(hi));
+    let phi = (5f64.sqrt() - 1.0) / 2.0;
+    for _ in 0..steps {
+        let x1 = hi - phi * (hi - lo);
+        let x2 = lo + phi * (hi - lo);
+        if f(x1) >= f(x2) {
+            hi = x2;
+        } else {
+            lo = x1;
+        }
+    }
+    (lo + hi) / 2.0
+}
+
 /// Mechanical output over electrical input while motoring (0 ≤ s ≤ 1, both powers
 /// positive, output within input); `None` otherwise. One rule for both models.
 pub(crate) fn efficiency(s: f64, p_in: f64, p_out: f64) -> Option<f64> {
@@ -573,18 +590,12 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     let best = (0..=n)
         .max_by(|x, y| at(grid(*x)).total_cmp(&at(grid(*y))))
         .unwrap_or(0);
-    let (mut lo, mut hi) = (grid(best.saturating_sub(1)), grid((best + 1).min(n)));
-    let phi = (5f64.sqrt() - 1.0) / 2.0;
-    for _ in 0..80 {
-        let x1 = hi - phi * (hi - lo);
-        let x2 = lo + phi * (hi - lo);
-        if at(x1) >= at(x2) {
-            hi = x2;
-        } else {
-            lo = x1;
-        }
-    }
-    let s_max = (lo + hi) / 2.0;
+    let s_max = golden_max(
+        &at,
+        grid(best.saturating_sub(1)),
+        grid((best + 1).min(n)),
+        80,
+    );
     let f_max = at(s_max);
     let checked = checks(w, &md, feed, &rows, query.end_effect);
     let slips: Vec<f64> = rows.iter().map(|r| r.slip).collect();
