@@ -242,10 +242,9 @@ fn set_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Matrix, ThrustError> {
 /// Conductors of each phase in every slot per ampere of phase current (each path carrying
 /// 1/a of it): `c[slot][phase]`.
 pub fn phase_conductors(w: &Winding) -> Vec<Vec<f64>> {
-    let a = w.parallel_paths.max(1) as f64;
-    conductors(w, |i| w.coils[i].phase, w.geometry.phases)
-        .into_iter()
-        .map(|r| r.into_iter().map(|x| x / a).collect())
+    let sets = crate::layers::phase_sets(w);
+    (0..w.geometry.slots)
+        .map(|j| sets.iter().map(|u| u[j]).collect())
         .collect()
 }
 

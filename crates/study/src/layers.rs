@@ -328,6 +328,19 @@ impl Grid {
     }
 }
 
+/// Conductors of every slot per ampere of each phase's current (each path carrying 1/a of
+/// it), `[phase][slot]`: the slot-current rule (`star::slot_currents`) for unit currents.
+pub fn phase_sets(w: &Winding) -> Vec<Vec<f64>> {
+    let m = w.geometry.phases;
+    (0..m)
+        .map(|p| {
+            let mut cur = vec![C::new(0.0, 0.0); m];
+            cur[p] = C::new(1.0, 0.0);
+            slot_currents(w, &cur).iter().map(|x| x.re).collect()
+        })
+        .collect()
+}
+
 /// The gap's inductance matrix, H, of conductor sets `sets[set][slot]` (conductors per
 /// ampere of the set's current) on a flat primary, with no current in the secondary (the
 /// plate as a non-conductor, as at rest on direct current): the layer method's
@@ -443,13 +456,7 @@ impl Sheet {
         let dk = grid.dk;
         let n = ks.len();
         // Conductors per slot for unit current in each phase (per path).
-        let unit: Vec<Vec<f64>> = (0..m)
-            .map(|p| {
-                let mut cur = vec![C::new(0.0, 0.0); m];
-                cur[p] = C::new(1.0, 0.0);
-                slot_currents(w, &cur).iter().map(|x| x.re).collect()
-            })
-            .collect();
+        let unit = phase_sets(w);
         let khat = grid.spectra(&unit);
         let sets = m + 1;
         let mut prod = vec![C::new(0.0, 0.0); n * sets * sets];
@@ -745,16 +752,6 @@ impl Sheet {
         )
     }
 
-    /// Where the grid was cut short of what the inputs ask.
-    pub fn cut(&self) -> Option<GridCut> {
-        (self.wanted > self.window * (1.0 + 1e-9)).then_some(GridCut {
-            window_m: self.window,
-            wanted_m: self.wanted,
-            k_max: self.k_max,
-            wanted_k_max: self.wanted_k,
-        })
-    }
-
     /// True for a double-sided pair.
     pub fn double_sided(&self) -> bool {
         self.sides > 1.0
@@ -911,13 +908,15 @@ pub fn field_model(w: &Winding, feed: Feed, slips: &[f64]) -> Result<FieldModel,
     let s_max = crate::thrust::golden_max(&at, n0, n1, 40);
     let (n, k_max, wanted_k, window, wanted) = sheet.grid();
     let (r1, x_leak) = sheet.r1_x_leak();
+    let refined = at(s_max);
+    let (max_thrust_n, max_thrust_slip) = if refined >= rows[best].thrust_n {
+        (refined, s_max)
+    } else {
+        (rows[best].thrust_n, rows[best].slip)
+    };
     Ok(FieldModel {
-        max_thrust_n: at(s_max).max(rows[best].thrust_n),
-        max_thrust_slip: if at(s_max) >= rows[best].thrust_n {
-            s_max
-        } else {
-            rows[best].slip
-        },
+        max_thrust_n,
+        max_thrust_slip,
         rows,
         standstill_thrust_ratio: None,
         max_thrust_ratio: None,
