@@ -108,6 +108,16 @@ const EX_TEMPLATE: &str = examples!(
     "beltwright template record -o as-found.toml",
     "beltwright template rotary > stator.toml",
 );
+const EX_BOOK: &str = examples!(
+    "beltwright book add as-found.toml --remark \"came in burnt, phase V\"",
+    "beltwright book add rewound.toml --record 12 --stage as-wound",
+    "beltwright book find --slots 36 --poles 4 --power-kw 5..8",
+    "beltwright book find --bore-mm 120..130 --stack-mm 110 --voltage 460 --format json",
+    "beltwright book show 12",
+    "beltwright book export 12 -o job-12.toml",
+    "beltwright book dump -o book-backup.jsonl",
+    "beltwright --help  (the book is BELTWRIGHT_BOOK, else --db, else the data folder)",
+);
 const EX_LOADING: &str = examples!(
     "beltwright loading pump-rewind.toml",
     "beltwright loading old-record.toml --yoke-t 1.5 --format json",
@@ -146,6 +156,8 @@ Examples (stator.toml, primary.toml and the others stand for your own layout fil
   beltwright draw stator.toml --sheet connections --page a3 -o connections.pdf
   beltwright report stator.toml -o stator.html
   beltwright plan stator.toml --out shop-pack
+  beltwright book add as-found.toml
+  beltwright book find --slots 36 --poles 4 --power-kw 5..8
 
 Caution: windings run at mains voltage. Work on them de-energised, test insulation
 before energising, and follow local electrical codes and qualified practice.";
@@ -221,6 +233,10 @@ pub enum Command {
     /// an as-found record written by coil groups.
     #[command(after_help = EX_TEMPLATE)]
     Template(TemplateArgs),
+    /// The shop's record book: file layouts with their nameplate, job and readings, and
+    /// find them again by core and nameplate (SQLite file, or a PostgreSQL server).
+    #[command(after_help = EX_BOOK)]
+    Book(BookArgs),
     /// Turns per coil and wire size for a changed design on the same core.
     #[command(after_help = EX_REWIND)]
     Rewind(RewindArgs),
@@ -443,6 +459,150 @@ pub struct TemplateArgs {
     /// Write it to this file (a new file; without it, to standard output).
     #[arg(short = 'o', long = "output")]
     pub output: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct BookArgs {
+    /// The book: an SQLite file, or a postgres:// URL (default: BELTWRIGHT_BOOK, else
+    /// book.sqlite in the platform's data folder under beltwright/).
+    #[arg(long, global = true)]
+    pub db: Option<String>,
+    /// Seconds to wait for another process's lock on the book before giving up.
+    #[arg(long, global = true, default_value_t = 10.0, value_parser = flags::wait_seconds)]
+    pub wait: f64,
+    #[command(subcommand)]
+    pub action: BookAction,
+}
+
+/// Where in a motor's history an entry belongs.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum StageArg {
+    /// A planned winding.
+    Design,
+    /// The winding as it came in.
+    AsFound,
+    /// The winding as it went out.
+    AsWound,
+}
+
+impl From<StageArg> for beltwright::record::Stage {
+    fn from(a: StageArg) -> Self {
+        match a {
+            StageArg::Design => Self::Design,
+            StageArg::AsFound => Self::AsFound,
+            StageArg::AsWound => Self::AsWound,
+        }
+    }
+}
+
+#[derive(Subcommand)]
+pub enum BookAction {
+    /// File a layout (design, as-found or as-wound record) with its nameplate, job and
+    /// readings; it is planned first, and refused with the reason if it does not plan.
+    Add {
+        /// Layout file (TOML).
+        file: PathBuf,
+        /// Stage (default: as-found for a coil list, design otherwise).
+        #[arg(long, value_enum)]
+        stage: Option<StageArg>,
+        /// Add to this record (a later stage of the same motor, or a correction: a stage it
+        /// already has gets a new version, the old one kept).
+        #[arg(long, value_parser = flags::record_number)]
+        record: Option<i64>,
+        /// Why it is filed, or what a correction corrects.
+        #[arg(long)]
+        remark: Option<String>,
+        /// Who files it (default: the login name).
+        #[arg(long)]
+        by: Option<String>,
+    },
+    /// Find records by core, winding and nameplate; the most similar when none matches.
+    Find(Box<FindArgs>),
+    /// One record: its history (every stage and correction) and the card of its latest entry.
+    Show {
+        /// Record number.
+        #[arg(value_parser = flags::record_number)]
+        record: i64,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+        format: FormatArg,
+    },
+    /// Write an entry's layout back exactly as filed, for every other command to take.
+    Export {
+        /// Record number.
+        #[arg(value_parser = flags::record_number)]
+        record: i64,
+        /// Stage (default: the latest: as-wound, else as-found, else design).
+        #[arg(long, value_enum)]
+        stage: Option<StageArg>,
+        /// Version (default: the latest of the stage).
+        #[arg(long)]
+        version: Option<u32>,
+        /// Write it to this file (without it, to standard output).
+        #[arg(short = 'o', long = "output")]
+        output: Option<PathBuf>,
+    },
+    /// Back up the whole book as JSON lines, one entry a line, oldest first.
+    Dump {
+        /// Write it to this file (without it, to standard output).
+        #[arg(short = 'o', long = "output")]
+        output: Option<PathBuf>,
+    },
+    /// Load a backup made by `dump`: entries keep their numbers; identical ones already
+    /// in the book are skipped; all or nothing.
+    Load {
+        /// JSON-lines backup.
+        file: PathBuf,
+    },
+}
+
+#[derive(Args)]
+pub struct FindArgs {
+    /// Slots: a number or a range such as 36 or 30..40 (every range below alike).
+    #[arg(long, value_parser = flags::figure_range)]
+    pub slots: Option<(f64, f64)>,
+    /// Poles.
+    #[arg(long, value_parser = flags::figure_range)]
+    pub poles: Option<(f64, f64)>,
+    /// Layers.
+    #[arg(long, value_parser = flags::figure_range)]
+    pub layers: Option<(f64, f64)>,
+    /// Coil span in slot pitches.
+    #[arg(long, value_parser = flags::figure_range)]
+    pub pitch: Option<(f64, f64)>,
+    /// Turns per coil.
+    #[arg(long, value_parser = flags::figure_range)]
+    pub turns: Option<(f64, f64)>,
+    /// Bare wire diameter, mm.
+    #[arg(long = "wire-mm", value_parser = flags::figure_range)]
+    pub wire_mm: Option<(f64, f64)>,
+    /// Bore, mm.
+    #[arg(long = "bore-mm", value_parser = flags::figure_range)]
+    pub bore_mm: Option<(f64, f64)>,
+    /// Stack length, mm.
+    #[arg(long = "stack-mm", value_parser = flags::figure_range)]
+    pub stack_mm: Option<(f64, f64)>,
+    /// Rated power, kW.
+    #[arg(long = "power-kw", value_parser = flags::figure_range)]
+    pub power_kw: Option<(f64, f64)>,
+    /// Rated voltage, V (either of a dual-voltage pair).
+    #[arg(long, value_parser = flags::figure_range)]
+    pub voltage: Option<(f64, f64)>,
+    /// Frequency, Hz.
+    #[arg(long, value_parser = flags::figure_range)]
+    pub frequency: Option<(f64, f64)>,
+    /// Frame as stamped (case, spaces and dashes ignored).
+    #[arg(long)]
+    pub frame: Option<String>,
+    /// A word or phrase in the title or the notes (repeat for several; all must appear).
+    #[arg(long)]
+    pub text: Vec<String>,
+    /// Most records listed.
+    #[arg(long, default_value_t = 10, value_parser = flags::listed)]
+    pub limit: usize,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = FormatArg::Text)]
+    pub format: FormatArg,
 }
 
 #[derive(Args)]

@@ -196,6 +196,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Audit(a) => run_audit(a),
         Command::Rewind(a) => run_rewind(a),
         Command::Size(a) => run_size(a),
+        Command::Book(a) => super::book::run(a),
         Command::Template(a) => {
             let text = match a.kind {
                 TemplateKind::Rotary => layout::templates::ROTARY,
@@ -585,7 +586,12 @@ fn load(path: &Path) -> Result<Winding, Failure> {
 }
 
 /// A winding refused after parsing, with the key (and its line) the refusal is about.
-fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::PlanError) -> Failure {
+pub(super) fn plan_failure(
+    name: &str,
+    source: &str,
+    spec: &layout::Spec,
+    e: &winding::PlanError,
+) -> Failure {
     use winding::PlanError;
     let (table, index, key) = match e {
         PlanError::Paths(_) => ("winding", 0, "parallel_paths"),
@@ -607,7 +613,7 @@ fn plan_failure(name: &str, source: &str, spec: &layout::Spec, e: &winding::Plan
 }
 
 /// Read and validate a layout file, keeping its text for line numbers.
-fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, String), Failure> {
+pub(super) fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, String), Failure> {
     let name = path.display().to_string();
     let source = files::read_layout(path)?;
     let spec = layout::parse(&source, &name).map_err(|e| Failure::input(e.to_string()))?;

@@ -64,6 +64,11 @@ pub fn read_layout(path: &Path) -> Result<String, Failure> {
         .map_err(|_| Failure::input(format!("{name}: the layout file is not UTF-8 text")))
 }
 
+/// A whole text file (UTF-8), for inputs read whole that are not layouts (a backup).
+pub fn read_text(path: &Path) -> std::io::Result<String> {
+    std::fs::read_to_string(path)
+}
+
 /// The same file, compared by the canonical path of its folder and its name, so a target
 /// that does not exist yet is compared too.
 fn same_file(a: &Path, b: &Path) -> bool {

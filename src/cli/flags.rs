@@ -290,6 +290,54 @@ pub fn plate_metal(s: &str) -> Result<beltwright::plates::Metal, String> {
     }
 }
 
+/// Seconds to wait for a lock: 0 to 3600.
+pub fn wait_seconds(s: &str) -> Result<f64, String> {
+    number_where(
+        s,
+        |x| (0.0..=3600.0).contains(&x),
+        "give a wait from 0 to 3600 seconds",
+    )
+}
+
+/// A record number: 1 or more.
+pub fn record_number(s: &str) -> Result<i64, String> {
+    s.trim()
+        .parse::<i64>()
+        .ok()
+        .filter(|x| *x >= 1)
+        .ok_or_else(|| "give a record number (1 or more), as `book find` lists them".into())
+}
+
+/// How many records a search lists: 1 to 10 000.
+pub fn listed(s: &str) -> Result<usize, String> {
+    whole_where(
+        s,
+        |n| (1..=10_000).contains(&n),
+        "give a count from 1 to 10000",
+    )
+}
+
+/// A figure a search asks for: one value (`36`) or a closed range (`30..40`), each a
+/// number of 0 or more.
+pub fn figure_range(s: &str) -> Result<(f64, f64), String> {
+    let valid = "give a number of 0 or more, or a range like 30..40";
+    let one = |t: &str| number_where(t, |x| (0.0..=1e9).contains(&x), valid);
+    match s.split_once("..") {
+        Some((a, b)) => {
+            let (lo, hi) = (one(a)?, one(b.trim_start_matches('='))?);
+            if lo > hi {
+                return Err(format!(
+                    "{} is above {}: give the range low..high",
+                    short(lo),
+                    short(hi)
+                ));
+            }
+            Ok((lo, hi))
+        }
+        None => one(s).map(|x| (x, x)),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

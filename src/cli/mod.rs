@@ -2,6 +2,7 @@
 //! status.
 
 pub mod args;
+pub mod book;
 pub mod commands;
 pub mod files;
 pub mod flags;

@@ -22,6 +22,7 @@ pub mod packing;
 pub mod pitch;
 pub mod plan;
 pub mod plates;
+pub mod record;
 pub mod rewind;
 pub mod runs;
 pub mod sizing;

@@ -3,6 +3,7 @@
 
 mod audit_report;
 pub mod audit_words;
+pub mod book_report;
 mod card_report;
 mod choose_report;
 mod csv;
