@@ -82,6 +82,13 @@ pub enum BookError {
          written and every record already in the book is kept"
     )]
     Full { place: String, detail: String },
+    /// The system failed a read or write under the book (a quota, a file-size limit, a
+    /// failing disk).
+    #[error(
+        "{place}: the system refused a read or write of the book ({detail}); nothing of this \
+         command was written and every record already in the book is kept"
+    )]
+    Io { place: String, detail: String },
     /// A read before anything was filed.
     #[error("{place}: there is no record book here yet; file one with `beltwright book add FILE`")]
     Missing { place: String },
@@ -327,6 +334,13 @@ fn entry_of(place: &str, r: Vec<Val>) -> Result<Entry, BookError> {
     let remark = next().text();
     let content_hash = next().text().unwrap_or_default();
     let layout = next().text().unwrap_or_default();
+    // The layout is kept with its hash: a page damaged under it shows here.
+    if self::content_hash(&layout) != content_hash {
+        return Err(damaged(
+            place,
+            &format!("entry {id}'s layout no longer gives its content hash"),
+        ));
+    }
     let figures: Figures = serde_json::from_str(&next().text().unwrap_or_default())
         .map_err(|e| damaged(place, &format!("entry {id}'s figures do not read: {e}")))?;
     let readings = match next().text() {

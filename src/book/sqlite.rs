@@ -91,6 +91,7 @@ fn classify(place: &str, wait: Duration, e: rusqlite::Error) -> BookError {
         Some(ErrorCode::NotADatabase | ErrorCode::DatabaseCorrupt) => {
             BookError::Damaged { place, detail }
         }
+        Some(ErrorCode::SystemIoFailure) => BookError::Io { place, detail },
         Some(ErrorCode::CannotOpen | ErrorCode::PermissionDenied) => {
             BookError::ReadOnly { place, detail }
         }

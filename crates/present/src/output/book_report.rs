@@ -191,10 +191,11 @@ pub struct RecordView<'a> {
 }
 
 /// `book show --format json`.
-#[derive(Serialize)]
+#[derive(Serialize, JsonSchema)]
 pub struct RecordJson<'a> {
     #[serde(flatten)]
     opening: Opening,
+    /// The record's number.
     record: i64,
     /// Every entry, oldest first, without the layout text (`book export` gives that).
     entries: Vec<EntryJson<'a>>,
@@ -203,17 +204,27 @@ pub struct RecordJson<'a> {
 }
 
 /// One entry without its layout text.
-#[derive(Serialize)]
+#[derive(Serialize, JsonSchema)]
 pub struct EntryJson<'a> {
+    /// The entry's number.
     id: i64,
+    /// design, as-found or as-wound.
     stage: &'static str,
+    /// 1, then one more per correction.
     version: u32,
+    /// The entry this one corrects.
     supersedes: Option<i64>,
+    /// When it was filed, UTC (RFC 3339).
     added_at: &'a str,
+    /// Who filed it.
     added_by: &'a str,
+    /// Why it was filed or corrected.
     remark: Option<&'a str>,
+    /// SHA-256 of the layout text, hex.
     content_hash: &'a str,
+    /// The figures worked out when it was filed.
     figures: &'a beltwright_study::record::Figures,
+    /// The readings at acceptance (the layout's `[measured]` table).
     readings: Option<&'a serde_json::Value>,
 }
 

@@ -24,5 +24,12 @@ pub fn all() -> Vec<(&'static str, Value)> {
         ("inductance", v(schema_for!(InductanceJson))),
         ("loading", v(schema_for!(LoadingJson))),
         ("size", v(schema_for!(SizingJson))),
+        ("book-find", v(schema_for!(super::book_report::FoundJson))),
+        ("book-show", v(schema_for!(super::book_report::RecordJson))),
+        // One line of `book dump`: the backup format `book load` reads.
+        (
+            "book-entry",
+            v(schema_for!(beltwright_study::record::Entry)),
+        ),
     ]
 }
