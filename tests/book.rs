@@ -934,3 +934,76 @@ fn the_book_json_validates_against_its_schemas() {
         common::schema_check(&v, &schema("book-entry"), "book dump").expect("valid");
     }
 }
+
+#[test]
+fn an_export_or_backup_never_replaces_the_book_itself() {
+    let b = sqlite();
+    b.ok(&["add", s(&layouts()[0])]);
+    let Backend::File { path, .. } = &b else {
+        unreachable!()
+    };
+    let before = std::fs::read(path).expect("book");
+    for args in [
+        vec!["dump", "-o", s(path)],
+        vec!["export", "1", "-o", s(path)],
+    ] {
+        let out = b.run(&args);
+        assert_eq!(out.status.code(), Some(2), "{args:?}");
+        assert!(String::from_utf8_lossy(&out.stderr).contains("a file being read"));
+    }
+    assert_eq!(std::fs::read(path).expect("book"), before);
+    assert_eq!(b.count(), 1);
+}
+
+#[test]
+fn a_book_of_an_earlier_schema_is_migrated_with_its_records_kept() {
+    use beltwright::book::schema::{Dialect, MIGRATIONS, SCHEMA_VERSION};
+    let tmp = tempfile::tempdir().expect("temp dir");
+    let first = &MIGRATIONS[0];
+    assert_eq!(first.0, 1);
+    for b in backends() {
+        // A book as the first release made it: schema 1, with one record filed by it.
+        b.ok(&["add", s(&layouts()[0])]);
+        let dump = b.ok(&["dump"]);
+        let file = write(tmp.path(), "old.jsonl", &dump);
+        let reset = "DROP TABLE entries; DROP TABLE records; DROP TABLE book_schema;";
+        let make = |d: Dialect| {
+            format!(
+                "{reset} CREATE TABLE book_schema (version BIGINT NOT NULL, applied_at TEXT NOT \
+                 NULL); {} INSERT INTO book_schema VALUES (1, 'first release');",
+                d.ddl(first.1)
+            )
+        };
+        let version = match &b {
+            Backend::File { path, .. } => {
+                let c = rusqlite::Connection::open(path).expect("open");
+                c.execute_batch(&make(Dialect::Sqlite)).expect("schema 1");
+                Box::new(move || -> i64 {
+                    c.query_row("SELECT max(version) FROM book_schema", [], |r| r.get(0))
+                        .expect("version")
+                }) as Box<dyn Fn() -> i64>
+            }
+            Backend::Server { url, .. } => {
+                let c = std::cell::RefCell::new(
+                    postgres::Client::connect(url, postgres::NoTls).expect("connect"),
+                );
+                c.borrow_mut()
+                    .batch_execute(&make(Dialect::Postgres))
+                    .expect("schema 1");
+                Box::new(move || -> i64 {
+                    c.borrow_mut()
+                        .query_one("SELECT max(version) FROM book_schema", &[])
+                        .expect("version")
+                        .get(0)
+                })
+            }
+        };
+        assert_eq!(version(), 1);
+        // Reading an old book needs the migration, a write: `load` makes it.
+        b.ok(&["load", s(&file)]);
+        assert_eq!(version(), SCHEMA_VERSION);
+        assert_eq!(b.ok(&["dump"]), dump);
+        b.ok(&["add", s(&layouts()[1])]);
+        assert_eq!(b.count(), 2);
+    }
+}

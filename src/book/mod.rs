@@ -151,7 +151,8 @@ pub enum Val {
 }
 
 impl Val {
-    fn int(&self) -> Option<i64> {
+    /// The value as a whole number, if it is a number.
+    pub fn int(&self) -> Option<i64> {
         match self {
             Val::I(x) => *x,
             Val::F(x) => x.map(|v| v as i64),
@@ -593,9 +594,11 @@ impl Book {
     pub fn find(&mut self, c: &Criteria, limit: usize) -> Result<Found, BookError> {
         let db = &mut *self.db;
         let d = db.dialect();
+        // Every correction supersedes exactly one entry (versions are unique per record
+        // and stage), so the current entries are all less those superseded.
         let searched = rows(
             db,
-            &format!("SELECT count(*) FROM entries e WHERE {CURRENT}"),
+            "SELECT count(*) - count(supersedes) FROM entries",
             &[],
             &[Ty::I],
         )?
@@ -614,6 +617,10 @@ impl Book {
                     Val::F(Some(s.low)),
                     Val::F(Some(s.high)),
                 ]);
+            } else if s.low == s.high {
+                // An equality lets the index go on to the next column.
+                clauses.push(format!("e.{} = ?", column(*k)));
+                params.push(Val::F(Some(s.low)));
             } else {
                 clauses.push(format!("e.{} BETWEEN ? AND ?", column(*k)));
                 params.extend([Val::F(Some(s.low)), Val::F(Some(s.high))]);
@@ -662,7 +669,27 @@ impl Book {
             });
         }
         // Nothing matches every criterion: score every current entry by its columns alone
-        // (no JSON read), keep the best, then read those entries whole.
+        // (no JSON read, no allocation in the score), keep the best, then read those
+        // entries whole. The few superseded entries are known first and passed over.
+        let mut superseded = std::collections::HashSet::new();
+        db.each(
+            "SELECT supersedes FROM entries WHERE supersedes IS NOT NULL",
+            &[],
+            &[Ty::I],
+            &mut |r| {
+                if let Some(x) = r.first().and_then(Val::int) {
+                    superseded.insert(x);
+                }
+                Ok(())
+            },
+        )?;
+        let text_col = |name: &str, wanted: bool| {
+            if wanted {
+                format!("e.{name}")
+            } else {
+                "CAST(NULL AS TEXT)".to_string()
+            }
+        };
         let mut scored: Vec<(f64, i64)> = Vec::new();
         let tys = [
             Ty::I,
@@ -686,13 +713,19 @@ impl Book {
             &format!(
                 "SELECT e.id, e.slots, e.poles, e.layers, e.pitch, e.turns, e.wire_mm, \
                  e.bore_mm, e.stack_mm, e.power_kw, e.voltage_v, e.voltage2_v, \
-                 e.frequency_hz, e.frame, e.title, e.notes FROM entries e WHERE {CURRENT}"
+                 e.frequency_hz, {}, {}, {} FROM entries e",
+                text_col("frame", c.frame.is_some()),
+                text_col("title", !c.text.is_empty()),
+                text_col("notes", !c.text.is_empty()),
             ),
             &[],
             &tys,
             &mut |r| {
                 let mut it = r.into_iter();
                 let id = it.next().and_then(|v| v.int()).unwrap_or(0);
+                if superseded.contains(&id) {
+                    return Ok(());
+                }
                 let mut f = || it.next().and_then(|v| v.real());
                 let k = Keys {
                     slots: f(),
@@ -710,7 +743,7 @@ impl Book {
                     title: it.next().and_then(Val::text),
                     notes: it.next().and_then(Val::text),
                 };
-                scored.push((record::likeness(c, &k).score, id));
+                scored.push((record::score(c, &k), id));
                 Ok(())
             },
         )?;

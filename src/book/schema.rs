@@ -4,7 +4,7 @@
 //! between SQLite and PostgreSQL are filled in by [`Dialect::ddl`].
 
 /// The newest book schema this build knows.
-pub const SCHEMA_VERSION: i64 = 1;
+pub const SCHEMA_VERSION: i64 = 2;
 
 /// The SQL spoken by a back end.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -64,9 +64,10 @@ impl Dialect {
 
 /// The migrations, oldest first: `(version, statements)`. Never edit one that has shipped;
 /// add the next.
-pub const MIGRATIONS: &[(i64, &str)] = &[(
-    1,
-    "CREATE TABLE records (
+pub const MIGRATIONS: &[(i64, &str)] = &[
+    (
+        1,
+        "CREATE TABLE records (
         id {key},
         opened_at TEXT NOT NULL
     );
@@ -109,4 +110,10 @@ pub const MIGRATIONS: &[(i64, &str)] = &[(
     CREATE INDEX entries_hash ON entries (content_hash);
     CREATE INDEX entries_supersedes ON entries (supersedes);
     CREATE INDEX entries_record ON entries (record);",
-)];
+    ),
+    // The usual search, a core and a rating (slots, poles, power), read from one index.
+    (
+        2,
+        "CREATE INDEX entries_core_power ON entries (slots, poles, power_kw);",
+    ),
+];

@@ -51,6 +51,14 @@ fn place(db: Option<&str>) -> Result<Place, Failure> {
         })
 }
 
+/// The book's own file, which no output may replace.
+fn book_file(place: &Place) -> Vec<&Path> {
+    match place {
+        Place::File(p) => vec![p.as_path()],
+        Place::Server(_) => Vec::new(),
+    }
+}
+
 fn say(text: String) -> Printed {
     Box::new(move |out: &mut dyn Write| out.write_all(text.as_bytes()))
 }
@@ -137,7 +145,7 @@ pub fn run(a: BookArgs) -> Result<Printed, Failure> {
                     write_set(
                         &[(out.clone(), e.layout.clone().into_bytes())],
                         &Vec::new,
-                        &[],
+                        &book_file(&place),
                         "-o",
                     )?;
                     Ok(say(format!(
@@ -165,7 +173,7 @@ pub fn run(a: BookArgs) -> Result<Printed, Failure> {
             match output {
                 None => Ok(Box::new(move |out: &mut dyn Write| out.write_all(&bytes))),
                 Some(out) => {
-                    write_set(&[(out.clone(), bytes)], &Vec::new, &[], "-o")?;
+                    write_set(&[(out.clone(), bytes)], &Vec::new, &book_file(&place), "-o")?;
                     Ok(say(format!("wrote {} ({n} entries)\n", out.display())))
                 }
             }

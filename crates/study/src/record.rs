@@ -431,76 +431,115 @@ fn show_range(s: &Span) -> String {
     }
 }
 
-/// How near `k` comes to `c`: each criterion missed costs its weight times a miss in 0..1
-/// (a count missed by any amount costs at least half; a measure costs its relative miss
-/// over 20 %, capped at 1; an unknown figure costs 1), and the score is one less the cost
-/// over the weights asked for.
-pub fn likeness(c: &Criteria, k: &Keys) -> Likeness {
-    let mut cost = 0.0;
-    let mut total = 0.0;
-    let mut differs = Vec::new();
-    let n = crate::numbering::short;
+/// One criterion as a record meets it: which, its weight, and the share of the weight it
+/// costs (0 when met).
+enum Miss<'c> {
+    /// A figure's range.
+    Range(Key, &'c Span),
+    /// The frame.
+    Frame(&'c str),
+    /// A word of the free text.
+    Text(&'c str),
+}
+
+/// Walk the criteria of `c` against `k`, calling `each` with every criterion, its weight
+/// and its cost share: the one rule of likeness, read by [`score`] (no allocation, for
+/// scanning a whole book) and by [`likeness`] (with the differences in words).
+///
+/// Each criterion missed costs its weight times a share in 0..1: a count missed by any
+/// amount at least half (0.5 + 0.5·min(1, miss/20 %)); a measure its relative miss over
+/// 20 %, capped at 1; an unknown figure, a different frame or a word not found all of it.
+fn walk<'c>(c: &'c Criteria, k: &Keys, each: &mut dyn FnMut(Miss<'c>, f64, f64)) {
     for (key, span) in &c.ranges {
-        let w = key.weight();
-        total += w;
-        let values: Vec<f64> = key.values(k).into_iter().flatten().collect();
-        if values.is_empty() {
-            cost += w;
-            differs.push(Difference {
-                key: key_name(*key).into(),
-                asked: show_range(span),
-                found: "unknown".into(),
-            });
-            continue;
+        let mut best = f64::INFINITY;
+        let mut known = false;
+        for x in key.values(k).into_iter().flatten() {
+            known = true;
+            best = best.min(span.relative_miss(x));
         }
-        let miss = values
-            .iter()
-            .map(|&x| span.relative_miss(x))
-            .fold(f64::INFINITY, f64::min);
-        if miss > 0.0 {
-            let part = if key.is_count() {
-                0.5 + 0.5 * (miss / 0.2).min(1.0)
-            } else {
-                (miss / 0.2).min(1.0)
-            };
-            cost += w * part;
-            differs.push(Difference {
-                key: key_name(*key).into(),
-                asked: show_range(span),
-                found: values.iter().map(|&x| n(x)).collect::<Vec<_>>().join("/"),
-            });
-        }
+        let share = if !known {
+            1.0
+        } else if best <= 0.0 {
+            0.0
+        } else if key.is_count() {
+            0.5 + 0.5 * (best / 0.2).min(1.0)
+        } else {
+            (best / 0.2).min(1.0)
+        };
+        each(Miss::Range(*key, span), key.weight(), share);
     }
     if let Some(frame) = &c.frame {
-        let w = 3.0;
-        total += w;
         let same = k
             .frame
             .as_deref()
             .is_some_and(|f| frame_key(f) == frame_key(frame));
-        if !same {
-            cost += w;
-            differs.push(Difference {
-                key: "frame".into(),
-                asked: frame.clone(),
-                found: k.frame.clone().unwrap_or_else(|| "unknown".into()),
-            });
-        }
+        each(
+            Miss::Frame(frame),
+            FRAME_WEIGHT,
+            if same { 0.0 } else { 1.0 },
+        );
     }
     for word in &c.text {
-        let w = 1.0;
-        total += w;
-        if !text_holds(k, word) {
-            cost += w;
-            differs.push(Difference {
-                key: "text".into(),
-                asked: word.clone(),
-                found: "not in title or notes".into(),
-            });
-        }
+        let found = text_holds(k, word);
+        each(Miss::Text(word), TEXT_WEIGHT, if found { 0.0 } else { 1.0 });
     }
-    let score = if total > 0.0 { 1.0 - cost / total } else { 1.0 };
-    Likeness { score, differs }
+}
+
+/// Weight of the frame in a likeness: as much as the stack (the frame fixes the core's
+/// outside, not its bore or length).
+const FRAME_WEIGHT: f64 = 3.0;
+/// Weight of each word of the free text.
+const TEXT_WEIGHT: f64 = 1.0;
+
+/// The likeness score of `k` against `c` alone (see [`likeness`]), without allocating.
+pub fn score(c: &Criteria, k: &Keys) -> f64 {
+    let (mut cost, mut total) = (0.0, 0.0);
+    walk(c, k, &mut |_, w, share| {
+        total += w;
+        cost += w * share;
+    });
+    if total > 0.0 { 1.0 - cost / total } else { 1.0 }
+}
+
+/// How near `k` comes to `c`: the score (one less the weighted cost of the criteria
+/// missed over the weights asked for; see [`walk`] for the costs) and every criterion
+/// missed, with what was asked and what the record has.
+pub fn likeness(c: &Criteria, k: &Keys) -> Likeness {
+    let n = crate::numbering::short;
+    let mut differs = Vec::new();
+    walk(c, k, &mut |m, _, share| {
+        if share <= 0.0 {
+            return;
+        }
+        differs.push(match m {
+            Miss::Range(key, span) => {
+                let values: Vec<String> = key.values(k).into_iter().flatten().map(n).collect();
+                Difference {
+                    key: key_name(key).into(),
+                    asked: show_range(span),
+                    found: if values.is_empty() {
+                        "unknown".into()
+                    } else {
+                        values.join("/")
+                    },
+                }
+            }
+            Miss::Frame(f) => Difference {
+                key: "frame".into(),
+                asked: f.to_string(),
+                found: k.frame.clone().unwrap_or_else(|| "unknown".into()),
+            },
+            Miss::Text(w) => Difference {
+                key: "text".into(),
+                asked: w.to_string(),
+                found: "not in title or notes".into(),
+            },
+        });
+    });
+    Likeness {
+        score: score(c, k),
+        differs,
+    }
 }
 
 /// True when `word` appears, without regard to case, in the title or the notes of `k`.
