@@ -348,6 +348,13 @@ fn a_held_back_frame_finds_the_same_core_at_another_voltage_first() {
         let differs = hits[0]["likeness"]["differs"].as_array().expect("differs");
         assert_eq!(differs.len(), 1);
         assert_eq!(differs[0]["key"], "voltage_v");
+        // The free text finds it by its customer and job number too.
+        let customer = f["customer"].as_str().expect("customer").to_uppercase();
+        let by_text = b.json(&[
+            "find", "--text", &customer, "--text", "j-1000", "--format", "json",
+        ]);
+        assert_eq!(by_text["exact"], true);
+        assert_eq!(by_text["hits"][0]["record"], 41);
         // Best first.
         let scores: Vec<f64> = hits
             .iter()

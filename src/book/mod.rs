@@ -384,14 +384,6 @@ fn column(k: Key) -> &'static str {
     }
 }
 
-/// The lowered title and notes the free-text search looks in.
-fn search_text(f: &Figures) -> String {
-    let mut s = f.title.clone().unwrap_or_default().to_lowercase();
-    s.push('\n');
-    s.push_str(&f.notes.clone().unwrap_or_default().to_lowercase());
-    s
-}
-
 impl Book {
     /// Open the book at `place`, waiting up to `wait` for another process's lock, and
     /// bring its tables up to this version's schema (a write; a read-only command on a
@@ -707,16 +699,14 @@ impl Book {
             Ty::F,
             Ty::T,
             Ty::T,
-            Ty::T,
         ];
         db.each(
             &format!(
                 "SELECT e.id, e.slots, e.poles, e.layers, e.pitch, e.turns, e.wire_mm, \
                  e.bore_mm, e.stack_mm, e.power_kw, e.voltage_v, e.voltage2_v, \
-                 e.frequency_hz, {}, {}, {} FROM entries e",
+                 e.frequency_hz, {}, {} FROM entries e",
                 text_col("frame", c.frame.is_some()),
-                text_col("title", !c.text.is_empty()),
-                text_col("notes", !c.text.is_empty()),
+                text_col("search_text", !c.text.is_empty()),
             ),
             &[],
             &tys,
@@ -740,8 +730,7 @@ impl Book {
                     voltages_v: [f(), f()],
                     frequency_hz: f(),
                     frame: it.next().and_then(Val::text),
-                    title: it.next().and_then(Val::text),
-                    notes: it.next().and_then(Val::text),
+                    text: it.next().and_then(Val::text),
                 };
                 scored.push((record::score(c, &k), id));
                 Ok(())
@@ -977,7 +966,7 @@ fn insert(
         Val::T(f.frame.as_deref().map(record::frame_key)),
         t(f.title.as_deref()),
         t(f.notes.as_deref()),
-        Val::T(Some(search_text(f))),
+        Val::T(Some(record::search_text(f))),
     ]);
     let marks = vec!["?"; params.len()].join(", ");
     let r = rows(

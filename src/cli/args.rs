@@ -594,7 +594,8 @@ pub struct FindArgs {
     /// Frame as stamped (case, spaces and dashes ignored).
     #[arg(long)]
     pub frame: Option<String>,
-    /// A word or phrase in the title or the notes (repeat for several; all must appear).
+    /// A word or phrase in the title, notes, job number, customer or technician (repeat
+    /// for several; all must appear).
     #[arg(long)]
     pub text: Vec<String>,
     /// Most records listed.

@@ -347,10 +347,24 @@ pub struct Keys {
     pub frequency_hz: Option<f64>,
     /// Frame.
     pub frame: Option<String>,
-    /// Title and notes, for the free-text search.
-    pub title: Option<String>,
-    /// Notes.
-    pub notes: Option<String>,
+    /// What the free text is looked for in ([`search_text`]).
+    pub text: Option<String>,
+}
+
+/// What a free-text search looks in: the title, the notes, the job number, the customer
+/// and the technician, lowered, one per line.
+pub fn search_text(f: &Figures) -> String {
+    [
+        &f.title,
+        &f.notes,
+        &f.job_number,
+        &f.customer,
+        &f.technician,
+    ]
+    .into_iter()
+    .map(|t| t.as_deref().unwrap_or_default().to_lowercase())
+    .collect::<Vec<_>>()
+    .join("\n")
 }
 
 impl Keys {
@@ -369,20 +383,20 @@ impl Keys {
             voltages_v: [f.voltages_v.first().copied(), f.voltages_v.get(1).copied()],
             frequency_hz: f.frequency_hz,
             frame: f.frame.clone(),
-            title: f.title.clone(),
-            notes: f.notes.clone(),
+            text: Some(search_text(f)),
         }
     }
 }
 
-/// What a search asks for: ranges of figures, a frame, and words in the title or notes.
+/// What a search asks for: ranges of figures, a frame, and words of free text.
 #[derive(Debug, Clone, Default, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Criteria {
     /// Ranges asked for, one per key.
     pub ranges: Vec<(Key, Span)>,
     /// Frame, compared without case or spaces.
     pub frame: Option<String>,
-    /// Words that must all appear in the title or the notes (without case).
+    /// Words that must all appear in the title, notes, job number, customer or technician
+    /// (without case).
     pub text: Vec<String>,
 }
 
@@ -532,7 +546,7 @@ pub fn likeness(c: &Criteria, k: &Keys) -> Likeness {
             Miss::Text(w) => Difference {
                 key: "text".into(),
                 asked: w.to_string(),
-                found: "not in title or notes".into(),
+                found: "not in title, notes, job, customer or technician".into(),
             },
         });
     });
@@ -542,13 +556,11 @@ pub fn likeness(c: &Criteria, k: &Keys) -> Likeness {
     }
 }
 
-/// True when `word` appears, without regard to case, in the title or the notes of `k`.
+/// True when `word` appears, without regard to case, in the text `k` is searched by.
 pub fn text_holds(k: &Keys, word: &str) -> bool {
-    let w = word.to_lowercase();
-    [&k.title, &k.notes]
-        .into_iter()
-        .flatten()
-        .any(|t| t.to_lowercase().contains(&w))
+    k.text
+        .as_deref()
+        .is_some_and(|t| t.contains(&word.to_lowercase()))
 }
 
 /// The command line's and the JSON's name of a key.
@@ -642,7 +654,7 @@ mod tests {
             bore_mm: Some(125.0),
             voltages_v: [Some(230.0), Some(400.0)],
             frame: Some("132 M".into()),
-            title: Some("Pump motor".into()),
+            text: Some("pump motor".into()),
             ..Keys::default()
         }
     }
