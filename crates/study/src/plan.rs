@@ -110,8 +110,11 @@ pub struct PlanReport {
     pub periodicity: Option<usize>,
     /// True when the winding has no half-turn symmetry: unbalanced magnetic pull.
     pub unbalanced_pull: Option<bool>,
-    /// Phases equal and 2π/m apart at the fundamental.
+    /// Phases equal and 2π/m apart at the fundamental, in either sequence.
     pub balanced: bool,
+    /// The phase sequence of a balanced winding: positive (the field travels towards rising
+    /// slot numbers with U, V, W on lines 1, 2, 3) or negative; null when unbalanced.
+    pub sequence: Option<crate::winding::star::Sequence>,
     /// Fundamental winding factor k_w1.
     pub winding_factor: f64,
     /// Fundamental factors in full.
@@ -266,6 +269,7 @@ pub fn plan(w: &Winding, op: Operating) -> PlanReport {
         periodicity: (g.topology == Topology::Rotary).then(|| w.periodicity()),
         unbalanced_pull: (g.topology == Topology::Rotary).then(|| !w.balanced_pull()),
         balanced: w.is_balanced(),
+        sequence: w.balance(),
         winding_factor: fundamental.winding,
         fundamental,
         coils,

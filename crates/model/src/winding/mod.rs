@@ -372,9 +372,23 @@ impl Winding {
         n as f64 / self.parallel_paths as f64
     }
 
-    /// True when every phase EMF at the fundamental has the same magnitude and the phases
-    /// follow each other by 2π/m in sequence order (positive sequence).
+    /// The phase sequence when every phase EMF at the fundamental has the same magnitude
+    /// and the phases follow each other by 2π/m, in either order; `None` when they do not.
+    /// Balance and sequence are two facts: a negative sequence is a balanced winding whose
+    /// field travels the other way (a two-speed winding's higher pole count, or two phases'
+    /// leads exchanged), put right by exchanging two supply leads.
+    pub fn balance(&self) -> Option<star::Sequence> {
+        star::sequence_of(&self.phase_emfs(Elec::FUNDAMENTAL))
+    }
+
+    /// True when the phase EMFs are balanced, in either sequence ([`Winding::balance`]).
     pub fn is_balanced(&self) -> bool {
+        self.balance().is_some()
+    }
+
+    /// True when the phase EMFs are balanced in positive sequence (V lags U): what
+    /// synthesis makes, and what the audit's smallest fix restores.
+    pub fn is_positive_balanced(&self) -> bool {
         star::is_positive_sequence(&self.phase_emfs(Elec::FUNDAMENTAL))
     }
 

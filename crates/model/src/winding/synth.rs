@@ -141,7 +141,7 @@ fn check_rotary_span(z: usize, y: usize) -> Result<usize, PlanError> {
 }
 
 fn ensure_balanced(w: Winding, why: impl Fn() -> Refusal) -> Result<Winding, PlanError> {
-    if w.is_balanced() {
+    if w.is_positive_balanced() {
         Ok(w)
     } else {
         Err(PlanError::Infeasible(why()))
@@ -186,7 +186,7 @@ fn linear_double(bp: &Design) -> Result<Winding, PlanError> {
         let geom = Geometry::linear(z, n, poles, m, 2);
         let coils = double_layer_coils(&geom, n, y, bp.turns_per_coil);
         let w = blank_winding(bp, geom, y, coils);
-        w.is_balanced().then_some(w)
+        w.is_positive_balanced().then_some(w)
     };
     match bp.pitch {
         Some(y) => attempt(y).ok_or_else(|| PlanError::Infeasible(linear_refusal(bp, y))),
@@ -401,7 +401,7 @@ fn alternate_coils(bp: &Design, geom: &Geometry, y: usize) -> Option<Winding> {
             })
             .collect();
         let w = blank_winding(bp, geom.clone(), s, coils);
-        (w.is_balanced() && w.empty_slots().is_empty()).then_some(w)
+        (w.is_positive_balanced() && w.empty_slots().is_empty()).then_some(w)
     };
     // Of the odd spans that work, the one of highest k_w1 (the nearer the pole pitch on a
     // tie, as the candidates come in that order).

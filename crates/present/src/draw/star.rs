@@ -333,8 +333,10 @@ fn phase_phasors(w: &Winding, pal: &Palette, b: Rect) -> Group {
         ));
         y += 3.6;
     }
-    let verdict = if w.is_balanced() {
+    let verdict = if w.is_positive_balanced() {
         "Phases equal and evenly spaced: balanced."
+    } else if w.is_balanced() {
+        "Balanced, in negative sequence: the field travels the other way (exchange two supply leads)."
     } else {
         "Phases NOT balanced: check the coil list before winding."
     };

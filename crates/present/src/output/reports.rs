@@ -42,7 +42,13 @@ impl Report for PlanReport {
             num(self.fundamental.distribution, 4),
             num(self.fundamental.pitch, 4),
             num(self.fundamental.skew, 4),
-            if self.balanced { "yes" } else { "NO" },
+            match (self.balanced, self.sequence) {
+                (true, Some(crate::winding::star::Sequence::Negative)) =>
+                    "yes, in NEGATIVE sequence (the field travels the other way: exchange two \
+                     supply leads to reverse it)",
+                (true, _) => "yes",
+                (false, _) => "NO",
+            },
             self.periodicity
                 .map(|t| format!(
                     "; periodicity {t}{}",

@@ -164,7 +164,8 @@ pub struct AuditReport {
     pub layers: usize,
     /// Parallel paths.
     pub parallel_paths: usize,
-    /// Phase EMFs equal and 360°/m apart in positive sequence at the fundamental.
+    /// Phase EMFs equal and 360°/m apart at the fundamental, in either sequence (the
+    /// sequence is `sequence`; a negative one with balanced EMFs is balanced).
     pub balanced: bool,
     /// No finding at all.
     pub sound: bool,
@@ -792,7 +793,7 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         poles: g.poles,
         layers: g.layers,
         parallel_paths: w.parallel_paths,
-        balanced: found.balanced,
+        balanced: w.is_balanced(),
         sound: findings.is_empty(),
         sequence: bal.sequence,
         travel,

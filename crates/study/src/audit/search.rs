@@ -1007,7 +1007,7 @@ mod tests {
     fn is_fix(w: &Winding, fix: &[Edit]) -> bool {
         let f = apply_fix(w, fix);
         let t: Vec<f64> = (0..3).map(|k| f.series_turns(k)).collect();
-        f.is_balanced() && t.iter().all(|&x| x == t[0])
+        f.is_positive_balanced() && t.iter().all(|&x| x == t[0])
     }
 
     /// Brute force over every pair (additive pairs on different coils, additive then
