@@ -101,10 +101,16 @@ pub enum BookError {
     /// The server cannot be reached.
     #[error("{place}: cannot reach the PostgreSQL server ({detail})")]
     Unreachable { place: String, detail: String },
+    /// The server answered but refused the login or the database.
+    #[error(
+        "{place}: the server refused the connection ({detail}); check the user, password and \
+         database named in the URL"
+    )]
+    Refused { place: String, detail: String },
     /// The server went away during the command.
     #[error(
         "{place}: the connection to the server was lost during the command ({detail}); the \
-         unfinished write was rolled back by the server, nothing of it was kept"
+         server rolls back an unfinished write, so nothing of this command was kept"
     )]
     Lost { place: String, detail: String },
     /// No such record.
@@ -130,6 +136,7 @@ impl BookError {
             | BookError::Newer { .. }
             | BookError::Missing { .. }
             | BookError::BadUrl { .. }
+            | BookError::Refused { .. }
             | BookError::NoRecord(_)
             | BookError::NoEntry { .. }
             | BookError::Backup { .. } => 2,
@@ -199,8 +206,12 @@ trait Db {
         cols: &[Ty],
         f: &mut dyn FnMut(Vec<Val>) -> Result<(), BookError>,
     ) -> Result<(), BookError>;
-    /// Begin a write transaction (SQLite takes the write lock at once).
+    /// Begin a write transaction. Writers are serialised: SQLite takes its write lock at
+    /// once, PostgreSQL a transaction-scoped advisory lock on the book, so a duplicate
+    /// check, a version number or a migration is never raced by another writer.
     fn begin(&mut self) -> Result<(), BookError>;
+    /// Begin a read-only transaction: every statement of one search sees one snapshot.
+    fn begin_read(&mut self) -> Result<(), BookError>;
     /// Whether the book's tables exist: `book_schema`'s version, or None for an empty book
     /// (Err when the place holds other tables and so is not a book).
     fn schema_version(&mut self) -> Result<Option<i64>, BookError>;
@@ -416,17 +427,12 @@ impl Book {
         let d = self.db.dialect();
         self.db.begin()?;
         let result = (|| {
+            // Two benches opening a new book at once: the first migrates under the write
+            // lock `begin` took, the other waits for it and then finds the work done.
             self.db.batch(
                 "CREATE TABLE IF NOT EXISTS book_schema (version BIGINT NOT NULL, \
                  applied_at TEXT NOT NULL)",
             )?;
-            if d == Dialect::Postgres {
-                // Two benches opening a new server book at once: one migrates, the other
-                // waits here and then finds it done.
-                self.db
-                    .exec("SELECT pg_advisory_xact_lock(7312604)", &[])
-                    .map(|_| ())?;
-            }
             let now = rows(
                 &mut *self.db,
                 "SELECT max(version) FROM book_schema",
@@ -462,13 +468,25 @@ impl Book {
         self.finish(result)
     }
 
-    /// Commit when `result` is Ok, roll back otherwise.
+    /// Commit when `result` is Ok, roll back otherwise (also when the commit fails). A
+    /// connection lost during the commit itself leaves its outcome unknown, and says so.
     fn finish<T>(&mut self, result: Result<T, BookError>) -> Result<T, BookError> {
         match result {
-            Ok(v) => {
-                self.db.batch("COMMIT")?;
-                Ok(v)
-            }
+            Ok(v) => match self.db.batch("COMMIT") {
+                Ok(()) => Ok(v),
+                Err(BookError::Lost { place, detail }) => Err(BookError::Other {
+                    place,
+                    detail: format!(
+                        "the connection was lost while the server committed ({detail}); the \
+                         write may or may not have been kept: look with `beltwright book \
+                         find` or `show` before repeating it"
+                    ),
+                }),
+                Err(e) => {
+                    let _ = self.db.batch("ROLLBACK");
+                    Err(e)
+                }
+            },
             Err(e) => {
                 let _ = self.db.batch("ROLLBACK");
                 Err(e)
@@ -584,6 +602,12 @@ impl Book {
     /// Find the current entries matching `c`, newest first; when none matches every
     /// criterion, the `limit` most similar instead.
     pub fn find(&mut self, c: &Criteria, limit: usize) -> Result<Found, BookError> {
+        self.db.begin_read()?;
+        let result = self.find_inside(c, limit);
+        self.finish(result)
+    }
+
+    fn find_inside(&mut self, c: &Criteria, limit: usize) -> Result<Found, BookError> {
         let db = &mut *self.db;
         let d = db.dialect();
         // Every correction supersedes exactly one entry (versions are unique per record
@@ -822,15 +846,21 @@ impl Book {
             }
             let had = rows(
                 db,
-                "SELECT content_hash, record FROM entries WHERE id = ?",
+                "SELECT content_hash, record, stage, version FROM entries WHERE id = ?",
                 &[Val::I(Some(e.id))],
-                &[Ty::T, Ty::I],
+                &[Ty::T, Ty::I, Ty::T, Ty::I],
             )?;
             if let Some(r) = had.into_iter().next() {
                 let mut it = r.into_iter();
                 let hash = it.next().and_then(Val::text).unwrap_or_default();
                 let record = it.next().and_then(|v| v.int()).unwrap_or(0);
-                if hash == e.content_hash && record == e.record {
+                let stage = it.next().and_then(Val::text).unwrap_or_default();
+                let version = it.next().and_then(|v| v.int()).unwrap_or(0);
+                if hash == e.content_hash
+                    && record == e.record
+                    && stage == e.stage.name()
+                    && version == i64::from(e.version)
+                {
                     out.skipped += 1;
                     continue;
                 }
@@ -855,19 +885,45 @@ impl Book {
                     &[Val::I(Some(e.record)), Val::T(Some(e.added_at.clone()))],
                 )?;
             }
+            let taken = rows(
+                db,
+                "SELECT id FROM entries WHERE record = ? AND stage = ? AND version = ?",
+                &[
+                    Val::I(Some(e.record)),
+                    Val::T(Some(e.stage.name().to_string())),
+                    Val::I(Some(i64::from(e.version))),
+                ],
+                &[Ty::I],
+            )?;
+            if let Some(other) = taken.first().and_then(|r| r[0].int()) {
+                return Err(BookError::Backup {
+                    line,
+                    detail: format!(
+                        "record {} already has {} version {} as entry {other}; load the \
+                         backup into a new book (--db)",
+                        e.record,
+                        e.stage.name(),
+                        e.version
+                    ),
+                });
+            }
             if let Some(s) = e.supersedes {
                 let n = rows(
                     db,
-                    "SELECT count(*) FROM entries WHERE id = ?",
-                    &[Val::I(Some(s))],
+                    "SELECT count(*) FROM entries WHERE id = ? AND record = ? AND stage = ?",
+                    &[
+                        Val::I(Some(s)),
+                        Val::I(Some(e.record)),
+                        Val::T(Some(e.stage.name().to_string())),
+                    ],
                     &[Ty::I],
                 )?;
                 if n.first().and_then(|r| r[0].int()).unwrap_or(0) == 0 {
                     return Err(BookError::Backup {
                         line,
                         detail: format!(
-                            "entry {} corrects entry {s}, which is neither in the book nor \
-                             earlier in the backup",
+                            "entry {} corrects entry {s}, which is not an entry of the same \
+                             record and stage in the book or earlier in the backup",
                             e.id
                         ),
                     });

@@ -1,6 +1,6 @@
-//! The book's tables, as numbered migrations: a book is brought up to [`SCHEMA_VERSION`] one
-//! migration at a time, each in its own transaction, and a book from a newer version is
-//! refused rather than read wrongly. Written once for both back ends; the words that differ
+//! The book's tables, as numbered migrations: a book is brought up to [`SCHEMA_VERSION`] by
+//! the migrations it lacks, in order, all in one transaction (all or none), and a book
+//! from a newer version is refused rather than read wrongly. Written once for both back ends; the words that differ
 //! between SQLite and PostgreSQL are filled in by [`Dialect::ddl`].
 
 /// The newest book schema this build knows.
@@ -53,7 +53,8 @@ impl Dialect {
             .replace("{real}", real)
     }
 
-    /// Position of `needle` in `hay` (1-based, 0 when absent), in this dialect.
+    /// A condition true when the bound text occurs in the column `hay`, in this dialect
+    /// (a plain substring test: `%` and `_` are themselves, unlike in LIKE).
     pub fn contains(self, hay: &str) -> String {
         match self {
             Dialect::Sqlite => format!("instr({hay}, ?) > 0"),

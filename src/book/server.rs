@@ -28,12 +28,26 @@ pub fn without_password(url: &str) -> String {
         Some((a, h)) => (Some(a), h),
         None => (None, rest),
     };
-    match auth {
+    let shown = match auth {
         Some(a) => match a.split_once(':') {
             Some((user, _)) => format!("{scheme}://{user}:***@{host}"),
             None => format!("{scheme}://{a}@{host}"),
         },
         None => url.to_string(),
+    };
+    // A password given as a parameter (`?password=...`) is hidden too.
+    match shown.split_once('?') {
+        Some((base, query)) => {
+            let q: Vec<String> = query
+                .split('&')
+                .map(|kv| match kv.split_once('=') {
+                    Some((k, _)) if k.eq_ignore_ascii_case("password") => format!("{k}=***"),
+                    _ => kv.to_string(),
+                })
+                .collect();
+            format!("{base}?{}", q.join("&"))
+        }
+        None => shown,
     }
 }
 
@@ -61,12 +75,32 @@ impl Server {
             place: place.clone(),
             detail: chain(&e),
         })?;
+        if config.get_ssl_mode() == postgres::config::SslMode::Require {
+            return Err(BookError::BadUrl {
+                place,
+                detail: "sslmode=require asks for TLS, which this build does not speak; use \
+                         the server on a trusted network or through a local socket"
+                    .into(),
+            });
+        }
         config
             .application_name("beltwright")
             .connect_timeout(wait.max(Duration::from_secs(1)));
-        let client = config.connect(NoTls).map_err(|e| BookError::Unreachable {
-            place: place.clone(),
-            detail: chain(&e),
+        let client = config.connect(NoTls).map_err(|e| {
+            let detail = chain(&e);
+            // The server answered and said no (login, password, database): the URL is
+            // wrong. Anything else: the server was not reached.
+            if e.code().is_some() {
+                BookError::Refused {
+                    place: place.clone(),
+                    detail,
+                }
+            } else {
+                BookError::Unreachable {
+                    place: place.clone(),
+                    detail,
+                }
+            }
         })?;
         let mut s = Server {
             client,
@@ -87,37 +121,40 @@ impl Server {
 
 /// The error the server or the connection gave, as the book's kinds.
 fn classify(place: &str, wait: Duration, e: postgres::Error) -> BookError {
-    {
-        let place = place.to_string();
-        let detail = chain(&e);
-        if e.is_closed() {
+    let place = place.to_string();
+    let detail = chain(&e);
+    if e.is_closed() {
+        return BookError::Lost { place, detail };
+    }
+    if let Some(c) = e.code() {
+        return if *c == SqlState::ADMIN_SHUTDOWN
+            || *c == SqlState::CRASH_SHUTDOWN
+            || *c == SqlState::CANNOT_CONNECT_NOW
+        {
+            BookError::Lost { place, detail }
+        } else if *c == SqlState::DISK_FULL {
+            BookError::Full { place, detail }
+        } else if *c == SqlState::READ_ONLY_SQL_TRANSACTION {
+            BookError::ReadOnly { place, detail }
+        } else if *c == SqlState::LOCK_NOT_AVAILABLE {
+            BookError::Busy {
+                place,
+                waited_s: wait.as_secs_f64(),
+            }
+        } else {
+            BookError::Other { place, detail }
+        };
+    }
+    // No answer from the server: the connection broke under the command when the cause is
+    // the socket; anything else (a value the client could not send) is ours.
+    let mut src: Option<&(dyn std::error::Error + 'static)> = std::error::Error::source(&e);
+    while let Some(x) = src {
+        if x.is::<std::io::Error>() {
             return BookError::Lost { place, detail };
         }
-        if let Some(code) = e.code() {
-            let c = code.clone();
-            return if c == SqlState::ADMIN_SHUTDOWN
-                || c == SqlState::CRASH_SHUTDOWN
-                || c == SqlState::CANNOT_CONNECT_NOW
-            {
-                BookError::Lost { place, detail }
-            } else if c == SqlState::DISK_FULL || c == SqlState::OUT_OF_MEMORY {
-                BookError::Full { place, detail }
-            } else if c == SqlState::READ_ONLY_SQL_TRANSACTION
-                || c == SqlState::INSUFFICIENT_PRIVILEGE
-            {
-                BookError::ReadOnly { place, detail }
-            } else if c == SqlState::LOCK_NOT_AVAILABLE {
-                BookError::Busy {
-                    place,
-                    waited_s: wait.as_secs_f64(),
-                }
-            } else {
-                BookError::Other { place, detail }
-            };
-        }
-        // No answer from the server at all: the connection broke under the command.
-        BookError::Lost { place, detail }
+        src = x.source();
     }
+    BookError::Other { place, detail }
 }
 
 fn boxed(v: &Val) -> Box<dyn ToSql + Sync> {
@@ -190,7 +227,13 @@ impl Db for Server {
     }
 
     fn begin(&mut self) -> Result<(), BookError> {
-        self.batch("BEGIN")
+        // One writer at a time on the book, for the transaction's life (lock_timeout bounds
+        // the wait), as SQLite's write lock does.
+        self.batch("BEGIN; SELECT pg_advisory_xact_lock(7312604)")
+    }
+
+    fn begin_read(&mut self) -> Result<(), BookError> {
+        self.batch("BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY")
     }
 
     fn schema_version(&mut self) -> Result<Option<i64>, BookError> {

@@ -40,6 +40,12 @@ impl Sqlite {
                     detail: "that is a folder or device, not a file".into(),
                 });
             }
+            (Err(e), _) if e.kind() != std::io::ErrorKind::NotFound => {
+                return Err(BookError::Other {
+                    place,
+                    detail: format!("cannot look at the book file: {e}"),
+                });
+            }
             (Err(_), Access::Read) => return Err(BookError::Missing { place }),
             (Err(_), Access::Write) => {
                 if let Some(dir) = path.parent().filter(|d| !d.as_os_str().is_empty()) {
@@ -58,6 +64,25 @@ impl Sqlite {
         let conn =
             Connection::open_with_flags(path, flags).map_err(|e| classify(&place, wait, e))?;
         let mut db = Sqlite { conn, place, wait };
+        if access == Access::Read && db.batch("SELECT 1 FROM sqlite_master LIMIT 1").is_err() {
+            // A WAL book in a folder this user cannot write: SQLite cannot make the shared
+            // memory file a reader needs. With no log waiting to be folded in (the last
+            // writer folds it in when it closes), the file alone is the whole book, and it
+            // is read as an unchanging file.
+            let wal = std::path::PathBuf::from(format!("{}-wal", path.display()));
+            if std::fs::metadata(&wal).map_or(true, |m| m.len() == 0) {
+                let uri = format!("file:{}?immutable=1", uri_path(path));
+                let conn = Connection::open_with_flags(
+                    uri,
+                    OpenFlags::SQLITE_OPEN_READ_ONLY
+                        | OpenFlags::SQLITE_OPEN_URI
+                        | OpenFlags::SQLITE_OPEN_NO_MUTEX,
+                )
+                .map_err(|e| classify(&db.place, wait, e))?;
+                db.conn = conn;
+                return Ok(db);
+            }
+        }
         db.conn
             .busy_timeout(wait)
             .map_err(|e| classify(&db.place, wait, e))?;
@@ -75,6 +100,20 @@ impl Sqlite {
         db.batch("PRAGMA synchronous = FULL; PRAGMA foreign_keys = ON;")?;
         Ok(db)
     }
+}
+
+/// `path` for an SQLite `file:` URI: absolute, with the characters a URI reserves
+/// escaped.
+fn uri_path(path: &Path) -> String {
+    let abs = std::path::absolute(path).unwrap_or_else(|_| path.to_path_buf());
+    let mut out = String::new();
+    for b in abs.to_string_lossy().bytes() {
+        match b {
+            b'%' | b'?' | b'#' => out.push_str(&format!("%{b:02X}")),
+            _ => out.push(b as char),
+        }
+    }
+    out
 }
 
 /// The error SQLite gave, as the book's kinds.
@@ -176,6 +215,10 @@ impl Db for Sqlite {
 
     fn begin(&mut self) -> Result<(), BookError> {
         self.batch("BEGIN IMMEDIATE")
+    }
+
+    fn begin_read(&mut self) -> Result<(), BookError> {
+        self.batch("BEGIN")
     }
 
     fn schema_version(&mut self) -> Result<Option<i64>, BookError> {

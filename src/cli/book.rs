@@ -51,10 +51,14 @@ fn place(db: Option<&str>) -> Result<Place, Failure> {
         })
 }
 
-/// The book's own file, which no output may replace.
-fn book_file(place: &Place) -> Vec<&Path> {
+/// The book's own files (the file, its write-ahead log and shared memory), which no
+/// output may replace.
+fn book_files(place: &Place) -> Vec<PathBuf> {
     match place {
-        Place::File(p) => vec![p.as_path()],
+        Place::File(p) => ["", "-wal", "-shm"]
+            .iter()
+            .map(|end| PathBuf::from(format!("{}{end}", p.display())))
+            .collect(),
         Place::Server(_) => Vec::new(),
     }
 }
@@ -145,7 +149,10 @@ pub fn run(a: BookArgs) -> Result<Printed, Failure> {
                     write_set(
                         &[(out.clone(), e.layout.clone().into_bytes())],
                         &Vec::new,
-                        &book_file(&place),
+                        &book_files(&place)
+                            .iter()
+                            .map(PathBuf::as_path)
+                            .collect::<Vec<_>>(),
                         "-o",
                     )?;
                     Ok(say(format!(
@@ -173,7 +180,15 @@ pub fn run(a: BookArgs) -> Result<Printed, Failure> {
             match output {
                 None => Ok(Box::new(move |out: &mut dyn Write| out.write_all(&bytes))),
                 Some(out) => {
-                    write_set(&[(out.clone(), bytes)], &Vec::new, &book_file(&place), "-o")?;
+                    write_set(
+                        &[(out.clone(), bytes)],
+                        &Vec::new,
+                        &book_files(&place)
+                            .iter()
+                            .map(PathBuf::as_path)
+                            .collect::<Vec<_>>(),
+                        "-o",
+                    )?;
                     Ok(say(format!("wrote {} ({n} entries)\n", out.display())))
                 }
             }
@@ -259,12 +274,23 @@ fn pick(h: &record::History, stage: Option<Stage>, version: Option<u32>) -> Resu
             .filter(|e| e.stage == s)
             .max_by_key(|e| e.version)
             .cloned(),
-        (s, Some(v)) => h
+        (Some(s), Some(v)) => h
             .entries
             .iter()
-            .filter(|e| s.is_none_or(|s| e.stage == s))
-            .find(|e| e.version == v)
+            .find(|e| e.stage == s && e.version == v)
             .cloned(),
+        (None, Some(v)) => {
+            let of: Vec<&Entry> = h.entries.iter().filter(|e| e.version == v).collect();
+            if of.len() > 1 {
+                let stages: Vec<&str> = of.iter().map(|e| e.stage.name()).collect();
+                return Err(Failure::input(format!(
+                    "record {} has a version {v} of {}: give --stage",
+                    h.record,
+                    stages.join(" and ")
+                )));
+            }
+            of.first().map(|e| (*e).clone())
+        }
     };
     found.ok_or_else(|| {
         let have: Vec<String> = h

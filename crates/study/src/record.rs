@@ -278,7 +278,8 @@ impl Key {
 
     /// How much a miss on this figure counts against a record's likeness: the core
     /// (slots, bore, stack) most, since a shop looks first for the same iron; the winding
-    /// and the rating less, since those are what a rewind may change (common practice).
+    /// and the rating less, since those are what a rewind may change. These weights and
+    /// the 20 % scale of a miss are this tool's own convention, from no published source.
     pub fn weight(self) -> f64 {
         match self {
             Key::Slots | Key::BoreMm => 4.0,
@@ -580,7 +581,9 @@ pub fn key_name(k: Key) -> &'static str {
     }
 }
 
-/// One record found: its latest entry's figures and how near it came.
+/// One current entry found (each stage's latest version, so a record with a design, an
+/// as-found and an as-wound entry can come up to three times): its figures and how near
+/// it came.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Hit {
     /// The entry's number.
