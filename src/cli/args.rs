@@ -108,6 +108,10 @@ const EX_TEMPLATE: &str = examples!(
     "beltwright template record -o as-found.toml",
     "beltwright template rotary > stator.toml",
 );
+const EX_SPEEDS: &str = examples!(
+    "beltwright speeds two-speed-fan.toml",
+    "beltwright speeds two-speed-fan.toml --format json",
+);
 const EX_BOOK: &str = examples!(
     "beltwright book add as-found.toml --remark \"came in burnt, phase V\"",
     "beltwright book add rewound.toml --record 12 --stage as-wound",
@@ -233,6 +237,10 @@ pub enum Command {
     /// an as-found record written by coil groups.
     #[command(after_help = EX_TEMPLATE)]
     Template(TemplateArgs),
+    /// Both speeds of a pole-changing winding (one winding, 1:2, consequent poles): factors,
+    /// field and sequence at each pole count, the flux-density ratio and the connections.
+    #[command(after_help = EX_SPEEDS)]
+    Speeds(SpeedsArgs),
     /// The shop's record book: file layouts with their nameplate, job and readings, and
     /// find them again by core and nameplate (SQLite file, or a PostgreSQL server).
     #[command(after_help = EX_BOOK)]
@@ -459,6 +467,12 @@ pub struct TemplateArgs {
     /// Write it to this file (a new file; without it, to standard output).
     #[arg(short = 'o', long = "output")]
     pub output: Option<PathBuf>,
+}
+
+#[derive(Args)]
+pub struct SpeedsArgs {
+    #[command(flatten)]
+    pub common: Common,
 }
 
 #[derive(Args)]

@@ -197,6 +197,26 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Rewind(a) => run_rewind(a),
         Command::Size(a) => run_size(a),
         Command::Book(a) => super::book::run(a),
+        Command::Speeds(a) => {
+            let w = load(&a.common.file)?;
+            let name = a.common.file.display();
+            let report = beltwright::speeds::speeds(&w).map_err(|e| {
+                use beltwright::speeds::SpeedsError;
+                Failure::input(match e {
+                    SpeedsError::NotPoleChanging => format!(
+                        "{name}: not a pole-changing winding; give winding.pole_change = \
+                         \"delta-double-star\" (constant torque) or \"star-double-star\" \
+                         (variable torque)"
+                    ),
+                    SpeedsError::Unbalanced { poles } => format!(
+                        "{name}: the phases are not balanced at {poles} poles; a \
+                         pole-changing winding needs whole slots per pole and phase at the \
+                         lower pole count (machine.slots a multiple of 3 × machine.poles)"
+                    ),
+                })
+            })?;
+            Ok(present(report, a.common.format))
+        }
         Command::Template(a) => {
             let text = match a.kind {
                 TemplateKind::Rotary => layout::templates::ROTARY,

@@ -57,6 +57,7 @@ struct RawWinding {
     marking: Option<Marking>,
     phase_resistance_ohm: Option<f64>,
     temperature_c: Option<f64>,
+    pole_change: Option<crate::design::PoleChange>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -802,6 +803,64 @@ impl RawLayout {
     /// The optional design tables, added to the core design `d`: wire, copper rule, slot
     /// area, gap, secondary, leads and measured values, each checked against its physical
     /// range.
+    /// A pole-changing winding (`winding.pole_change`) needs a rotary core, three phases, an
+    /// integral-slot layout at `machine.poles` (so both halves of each phase lie at the same
+    /// electrical places at twice the poles) and the connection left to the pole change.
+    fn pole_change_fits(&self, c: &Checker, d: &Design) -> Result<(), LayoutError> {
+        let t = "winding";
+        if d.topology != Topology::Rotary {
+            return Err(c.err(
+                t,
+                0,
+                "pole_change",
+                "a pole-changing winding is for a rotary core; a flat primary changes speed \
+                 by its supply frequency"
+                    .into(),
+            ));
+        }
+        if self.winding.connection.is_some() {
+            return Err(c.err(
+                t,
+                0,
+                "connection",
+                "the pole change sets the connection at each speed (series delta or star at \
+                 the lower speed, double star at the higher); remove winding.connection"
+                    .into(),
+            ));
+        }
+        if self.winding.parallel_paths.is_some_and(|p| p != 1) {
+            return Err(c.err(
+                t,
+                0,
+                "parallel_paths",
+                "a pole-changing winding's halves are its paths (in series at the lower \
+                 speed, in parallel at the higher); remove winding.parallel_paths"
+                    .into(),
+            ));
+        }
+        let m = d.phases;
+        let step = m * d.poles;
+        if m != 3 || !d.slots.is_multiple_of(step) || 2 * d.poles > MAX_POLES {
+            let near: Vec<String> = (1..=4).map(|k| (k * 3 * d.poles).to_string()).collect();
+            return Err(c.err(
+                "machine",
+                0,
+                "slots",
+                format!(
+                    "a pole-changing winding for {} and {} poles needs three phases and a \
+                     slot count that is a multiple of 3 × {} (whole slots per pole and phase \
+                     at {} poles), e.g. {}",
+                    d.poles,
+                    2 * d.poles,
+                    d.poles,
+                    d.poles,
+                    near.join(", ")
+                ),
+            ));
+        }
+        Ok(())
+    }
+
     fn shop_data(&self, c: &Checker, mut d: Design) -> Result<Design, LayoutError> {
         let mm = |v: Option<f64>| v.map(|x| x * 1e-3);
         let parallel_paths = d.parallel_paths;
@@ -941,6 +1000,10 @@ impl RawLayout {
         d.winding_temperature_c = c
             .within("winding", "temperature_c", w.temperature_c, -50.0, 250.0)?
             .unwrap_or(20.0);
+        if let Some(pc) = w.pole_change {
+            self.pole_change_fits(c, &d)?;
+            d.pole_change = Some(pc);
+        }
         let count = c.range(
             "winding",
             "leads",

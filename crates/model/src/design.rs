@@ -479,6 +479,27 @@ pub struct Design {
     /// The winding's working temperature, °C, for the flat primary's resistance (20 when
     /// not given).
     pub winding_temperature_c: f64,
+    /// A one-winding two-speed connection: the coils laid out at `poles` also serve twice
+    /// as many poles (consequent poles), each phase's halves in series for the higher
+    /// count and in parallel, one half reversed, for the lower.
+    pub pole_change: Option<PoleChange>,
+}
+
+/// How a pole-changing winding (two speeds in the ratio 1:2 from one winding, consequent
+/// poles) is connected at its two speeds. Each phase is in two halves: in series for the
+/// higher pole count (the lower speed), in parallel with one half reversed, as a double
+/// star, for the lower pole count (the higher speed).
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "kebab-case")]
+pub enum PoleChange {
+    /// Series delta at the lower speed, double star at the higher: the constant-torque
+    /// connection by the standards' naming.
+    DeltaDoubleStar,
+    /// Series star at the lower speed, double star at the higher: the variable-torque
+    /// connection (fans, pumps).
+    StarDoubleStar,
 }
 
 impl Design {
@@ -516,6 +537,7 @@ impl Design {
             nameplate: None,
             job: None,
             winding_temperature_c: 20.0,
+            pole_change: None,
         }
     }
 

@@ -26,6 +26,7 @@ pub mod record;
 pub mod rewind;
 pub mod runs;
 pub mod sizing;
+pub mod speeds;
 pub mod study;
 pub mod survey;
 pub mod thrust;

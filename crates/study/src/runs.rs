@@ -29,6 +29,8 @@ pub enum Analysis {
     Loading,
     /// `sizing::size`.
     Sizing,
+    /// `speeds::speeds`.
+    Speeds,
 }
 
 impl Analysis {
@@ -49,7 +51,7 @@ impl Analysis {
 }
 
 /// One counter per [`Analysis`] variant.
-static RUNS: [AtomicUsize; 11] = [const { AtomicUsize::new(0) }; 11];
+static RUNS: [AtomicUsize; 12] = [const { AtomicUsize::new(0) }; 12];
 
 /// Count one run of `a`.
 pub fn count(a: Analysis) {

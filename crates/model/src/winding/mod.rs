@@ -5,6 +5,7 @@
 mod feasible;
 mod groups;
 mod order;
+pub mod pole_change;
 pub mod schedule;
 pub mod star;
 mod synth;

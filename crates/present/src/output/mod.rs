@@ -15,6 +15,7 @@ mod refusal_words;
 pub(crate) mod reports;
 pub mod schema;
 mod span_words;
+pub mod speeds_report;
 mod table;
 mod text;
 mod thrust_report;

@@ -24,6 +24,7 @@ pub fn all() -> Vec<(&'static str, Value)> {
         ("inductance", v(schema_for!(InductanceJson))),
         ("loading", v(schema_for!(LoadingJson))),
         ("size", v(schema_for!(SizingJson))),
+        ("speeds", v(schema_for!(super::speeds_report::SpeedsJson))),
         ("book-find", v(schema_for!(super::book_report::FoundJson))),
         ("book-show", v(schema_for!(super::book_report::RecordJson))),
         // One line of `book dump`: the backup format `book load` reads.

@@ -1,0 +1,151 @@
+//! How the two speeds of a pole-changing winding read.
+
+use schemars::JsonSchema;
+use serde::Serialize;
+
+use super::json::Opening;
+use super::reports::paragraph;
+use super::{Align, Report, Section, Table, num};
+use crate::speeds::{Duty, Joined, Speed, SpeedsReport};
+use crate::winding::star::Sequence;
+
+/// `speeds --format json`.
+#[derive(Serialize, JsonSchema)]
+pub struct SpeedsJson<'a> {
+    #[serde(flatten)]
+    opening: Opening,
+    #[serde(flatten)]
+    report: &'a SpeedsReport,
+}
+
+fn joined(j: Joined) -> &'static str {
+    match j {
+        Joined::SeriesDelta => "series delta",
+        Joined::SeriesStar => "series star",
+        Joined::DoubleStar => "double star",
+    }
+}
+
+fn sequence(s: Option<Sequence>) -> &'static str {
+    match s {
+        Some(Sequence::Positive) => "positive",
+        Some(Sequence::Negative) => "negative",
+        None => "-",
+    }
+}
+
+fn waves(s: &Speed, label: &str) -> Table {
+    let mut t = Table::new(&[
+        ("order", Align::Right),
+        ("forward %", Align::Right),
+        ("backward %", Align::Right),
+    ]);
+    for r in s.rows.iter().filter(|r| r.forward.max(r.backward) >= 0.005) {
+        t.push(vec![
+            num(r.order.get(), 3),
+            num(100.0 * r.forward, 2),
+            num(100.0 * r.backward, 2),
+        ]);
+    }
+    t.headers[0] = format!("order at {label}");
+    t
+}
+
+impl Report for SpeedsReport {
+    fn json(&self) -> impl Serialize + '_ {
+        SpeedsJson {
+            opening: Opening::default(),
+            report: self,
+        }
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        let mut s = Vec::from(super::opening("Two speeds from one winding", &self.design));
+        let (lo, hi) = (&self.low_speed, &self.high_speed);
+        let duty = match self.duty {
+            Duty::ConstantTorque => "constant torque",
+            Duty::VariableTorque => "variable torque",
+        };
+        let mut lines = vec![paragraph(&format!(
+            "pole-changing by consequent poles: {} poles ({}) and {} poles ({}), the {} \
+             connection by the standards' naming",
+            lo.poles,
+            joined(lo.joined),
+            hi.poles,
+            joined(hi.joined),
+            duty
+        ))];
+        lines.push(paragraph(&format!(
+            "mean gap flux density at {} poles is {} times that at {} poles, at the same line \
+             voltage and frequency (from k_w1 and the connection); choose the turns for the \
+             speed whose density is higher",
+            lo.poles,
+            num(self.flux_ratio, 3),
+            hi.poles
+        )));
+        s.push(Section::Lines(lines));
+        s.push(Section::Table(self.main_table()));
+        s.push(Section::Heading("Connections".into()));
+        let mut t = Table::new(&[
+            ("poles", Align::Right),
+            ("L1", Align::Left),
+            ("L2", Align::Left),
+            ("L3", Align::Left),
+            ("join together", Align::Left),
+            ("leave open, insulated", Align::Left),
+        ]);
+        for c in &self.connections {
+            let mut row = vec![c.poles.to_string()];
+            row.extend(c.lines.iter().map(|l| l.lead.clone()));
+            row.push(c.joined.join(" + "));
+            row.push(c.open.join(", "));
+            t.push(row);
+        }
+        s.push(Section::Table(t));
+        if let Some(c) = self.connections.iter().find(|c| c.lines_exchanged) {
+            s.push(Section::Lines(vec![paragraph(&format!(
+                "at {} poles the phase sequence of the winding is reversed (the nature of the \
+                 consequent-pole connection), so two supply lines are exchanged there, as \
+                 above, for both speeds to turn the same way",
+                c.poles
+            ))]));
+        }
+        s.push(Section::Heading("Waves at each speed".into()));
+        s.push(Section::Table(waves(lo, &format!("{} poles", lo.poles))));
+        s.push(Section::Table(waves(hi, &format!("{} poles", hi.poles))));
+        s.push(super::caution());
+        s
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("speed", Align::Left),
+            ("poles", Align::Right),
+            ("joined", Align::Left),
+            ("rpm", Align::Right),
+            ("k_d", Align::Right),
+            ("k_p", Align::Right),
+            ("k_w1", Align::Right),
+            ("sequence", Align::Left),
+            ("series turns", Align::Right),
+            ("THD %", Align::Right),
+            ("sigma_d %", Align::Right),
+        ]);
+        for (name, sp) in [("lower", &self.low_speed), ("higher", &self.high_speed)] {
+            t.push(vec![
+                name.into(),
+                sp.poles.to_string(),
+                joined(sp.joined).into(),
+                sp.synchronous_rpm.map_or(String::new(), |r| num(r, 0)),
+                num(sp.fundamental.distribution.abs(), 4),
+                num(sp.fundamental.pitch.abs(), 4),
+                num(sp.fundamental.winding.abs(), 4),
+                sequence(sp.sequence).into(),
+                num(sp.series_turns_per_phase, 1),
+                num(100.0 * sp.thd, 2),
+                num(100.0 * sp.differential_leakage, 3),
+            ]);
+        }
+        t
+    }
+}

@@ -1,0 +1,243 @@
+//! Both speeds of a pole-changing winding (one winding, two speeds in the ratio 1:2 by
+//! consequent poles): the factors, field, sequence and series turns at each pole count,
+//! the ratio of gap flux densities between the speeds for its connection, and the lead
+//! connections at each speed.
+//!
+//! The winding is laid out at the lower pole count 2p (the higher speed, double star); the
+//! higher count 4p (the lower speed, series delta or star) is the same coils with the
+//! reversed half of each phase turned back ([`pole_change::at_double_poles`]). With the
+//! same line voltage U and frequency at both speeds, each phase's EMF E = √2·π·f·N·k_w1·Φ
+//! (Say 1983, §4.3) and the mean gap density B = Φ·(poles)/(π·D·L) give the ratio of gap
+//! densities, lower speed over higher:
+//!   series delta / double star:  B_4p / B_2p = √3 · k_w1(2p) / k_w1(4p)
+//!   series star / double star:   B_4p / B_2p = k_w1(2p) / k_w1(4p)
+//! (at 4p all of a phase's N turns in series carry U (delta) or U/√3 (star); at 2p half of
+//! them carry U/√3; the pole count doubles the density per flux and halves the flux).
+
+use serde::Serialize;
+
+use crate::design::PoleChange;
+use crate::factors::{self, FactorRow};
+use crate::field::{self, FieldOptions, WaveRow, balanced_currents};
+use crate::header::{self, DesignHeader};
+use crate::winding::pole_change;
+use crate::winding::star::Sequence;
+use crate::winding::{Elec, Winding};
+
+/// How the phases are joined at one speed.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "kebab-case")]
+pub enum Joined {
+    /// Both halves in series, the phases in delta.
+    SeriesDelta,
+    /// Both halves in series, the phases in star.
+    SeriesStar,
+    /// The halves in parallel (one reversed), the phases in star: double star.
+    DoubleStar,
+}
+
+/// One speed of a pole-changing winding.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Speed {
+    /// Poles at this speed.
+    pub poles: usize,
+    /// How the phases are joined.
+    pub joined: Joined,
+    /// Synchronous speed at the supply frequency, rpm (when the frequency is known).
+    pub synchronous_rpm: Option<f64>,
+    /// Fundamental factors at this pole count.
+    pub fundamental: FactorRow,
+    /// Phase EMFs equal and 120° apart at this pole count, in either sequence.
+    pub balanced: bool,
+    /// Their sequence with U, V, W in order (negative: the field runs backward unless two
+    /// supply lines are exchanged at this speed).
+    pub sequence: Option<Sequence>,
+    /// Turns in series in one phase at this connection (both halves in series, or one).
+    pub series_turns_per_phase: f64,
+    /// Total harmonic distortion of the MMF at this pole count (currents in the winding's
+    /// own sequence).
+    pub thd: f64,
+    /// Differential leakage σ_d at this pole count.
+    pub differential_leakage: f64,
+    /// The MMF's waves at this pole count, orders relative to its working wave (even orders
+    /// included: a span other than the higher count's pole pitch leaves a second harmonic).
+    pub rows: Vec<WaveRow>,
+}
+
+/// One supply line's place at one speed.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, schemars::JsonSchema)]
+pub struct LineLead {
+    /// Supply line: "L1", "L2", "L3".
+    pub line: String,
+    /// The lead it goes to.
+    pub lead: String,
+}
+
+/// The connection at one speed: the lines on their leads, and what the other leads do.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct SpeedConnection {
+    /// Poles at this speed.
+    pub poles: usize,
+    /// The supply lines on their leads.
+    pub lines: Vec<LineLead>,
+    /// The leads joined together (the double star's star point), if any.
+    pub joined: Vec<String>,
+    /// The leads left open, each insulated apart.
+    pub open: Vec<String>,
+    /// True when two lines are exchanged at this speed so that both speeds turn the same way.
+    pub lines_exchanged: bool,
+}
+
+/// The standards' name of a pole-changing connection (IEC and NEMA usage, from memory).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "kebab-case")]
+pub enum Duty {
+    /// Series delta / double star.
+    ConstantTorque,
+    /// Series star / double star.
+    VariableTorque,
+}
+
+/// Both speeds of a pole-changing winding.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct SpeedsReport {
+    /// The winding as laid out (the higher speed's pole count).
+    pub design: DesignHeader,
+    /// The connection.
+    pub pole_change: PoleChange,
+    /// Its name by the standards' usage (not derived from the flux ratio).
+    pub duty: Duty,
+    /// The lower speed: twice the poles, halves in series.
+    pub low_speed: Speed,
+    /// The higher speed: the poles as laid out, double star.
+    pub high_speed: Speed,
+    /// Mean gap flux density at the lower speed over that at the higher, at the same line
+    /// voltage and frequency.
+    pub flux_ratio: f64,
+    /// The connection at each speed: lower speed first.
+    pub connections: Vec<SpeedConnection>,
+    /// Lead names as marked: IEC 60034-8 (1U ... 2W) or NEMA (T1 ... T6).
+    pub marking: crate::design::Marking,
+}
+
+/// Why a winding has no two speeds to report.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SpeedsError {
+    /// The layout has no `winding.pole_change`.
+    #[error("not a pole-changing winding")]
+    NotPoleChanging,
+    /// The phases are not balanced at one of the pole counts.
+    #[error("unbalanced at {poles} poles")]
+    Unbalanced {
+        /// The pole count at which the phases are not balanced.
+        poles: usize,
+    },
+}
+
+fn speed(w: &Winding, joined: Joined, turns_in_series: f64) -> Result<Speed, SpeedsError> {
+    let poles = w.geometry.poles;
+    let sequence = w.balance();
+    let Some(seq) = sequence else {
+        return Err(SpeedsError::Unbalanced { poles });
+    };
+    let opts = FieldOptions {
+        currents: balanced_currents(w.geometry.phases, seq),
+        ..FieldOptions::balanced(w)
+    };
+    let f = field::field(w, &opts).map_err(|_| SpeedsError::Unbalanced { poles })?;
+    let rpm = w
+        .design
+        .supply
+        .frequency_hz
+        .or_else(|| w.design.nameplate.as_ref().and_then(|n| n.frequency_hz))
+        .map(|hz| 120.0 * hz / poles as f64);
+    Ok(Speed {
+        poles,
+        joined,
+        synchronous_rpm: rpm,
+        fundamental: factors::factors_at(w, 0, Elec::FUNDAMENTAL),
+        balanced: true,
+        sequence,
+        series_turns_per_phase: turns_in_series,
+        thd: f.thd,
+        differential_leakage: f.differential_leakage,
+        rows: f.rows,
+    })
+}
+
+/// Lead names at the lower (prefix 1) and higher (prefix 2) speed: IEC 60034-8's 1U, 1V,
+/// 1W / 2U, 2V, 2W, or NEMA's T1, T2, T3 / T4, T5, T6 (from memory).
+fn lead(marking: crate::design::Marking, speed: usize, phase: usize) -> String {
+    match marking {
+        crate::design::Marking::Iec => format!("{speed}{}", ["U", "V", "W"][phase.min(2)]),
+        crate::design::Marking::Nema => format!("T{}", 3 * (speed - 1) + phase + 1),
+    }
+}
+
+/// Both speeds of `w`, a pole-changing winding (`design.pole_change`).
+pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
+    crate::runs::count(crate::runs::Analysis::Speeds);
+    let pc = w.design.pole_change.ok_or(SpeedsError::NotPoleChanging)?;
+    let low = pole_change::at_double_poles(w);
+    let phase_turns: f64 = w
+        .coils
+        .iter()
+        .filter(|c| c.phase == 0)
+        .map(|c| f64::from(c.turns))
+        .sum();
+    let (joined_low, duty) = match pc {
+        PoleChange::DeltaDoubleStar => (Joined::SeriesDelta, Duty::ConstantTorque),
+        PoleChange::StarDoubleStar => (Joined::SeriesStar, Duty::VariableTorque),
+    };
+    let low_speed = speed(&low, joined_low, phase_turns)?;
+    let high_speed = speed(w, Joined::DoubleStar, phase_turns / 2.0)?;
+    let kw = |s: &Speed| s.fundamental.winding.abs();
+    let ratio = kw(&high_speed) / kw(&low_speed);
+    let flux_ratio = match pc {
+        PoleChange::DeltaDoubleStar => 3f64.sqrt() * ratio,
+        PoleChange::StarDoubleStar => ratio,
+    };
+    let marking = w.design.leads.marking;
+    let lines = |speed: usize, exchanged: bool| -> Vec<LineLead> {
+        let order = if exchanged { [0, 2, 1] } else { [0, 1, 2] };
+        order
+            .iter()
+            .enumerate()
+            .map(|(l, &p)| LineLead {
+                line: format!("L{}", l + 1),
+                lead: lead(marking, speed, p),
+            })
+            .collect()
+    };
+    let trio = |speed: usize| (0..3).map(|p| lead(marking, speed, p)).collect::<Vec<_>>();
+    // Each speed's lines are exchanged when its sequence differs from the other's, at the
+    // lower speed by convention, so both speeds turn the way the higher speed does on
+    // L1, L2, L3.
+    let exchange = low_speed.sequence != high_speed.sequence;
+    let connections = vec![
+        SpeedConnection {
+            poles: low_speed.poles,
+            lines: lines(1, exchange),
+            joined: Vec::new(),
+            open: trio(2),
+            lines_exchanged: exchange,
+        },
+        SpeedConnection {
+            poles: high_speed.poles,
+            lines: lines(2, false),
+            joined: trio(1),
+            open: Vec::new(),
+            lines_exchanged: false,
+        },
+    ];
+    Ok(SpeedsReport {
+        design: header::of(w),
+        pole_change: pc,
+        duty,
+        low_speed,
+        high_speed,
+        flux_ratio,
+        connections,
+        marking,
+    })
+}
