@@ -167,3 +167,29 @@ fn the_json_validates_against_its_schema() {
         common::schema_check(&speeds(&text), &schema, "speeds").expect("valid");
     }
 }
+
+#[test]
+fn the_card_and_connection_sheet_do_not_give_one_speeds_leads() {
+    // A single-speed star/delta lead table or diagram would wire a two-speed winding
+    // wrongly: the card says where both speeds' connections are, and the sheet says so in
+    // place of the diagram.
+    let card = common::json(&["card", "layouts/fan-two-speed.toml", "--format", "json"]);
+    assert!(card["leads"].is_null(), "{}", card["leads"]);
+    assert!(card["line_resistance_20c_ohm"].is_null());
+    let words = card["warnings"].to_string();
+    assert!(words.contains("pole-changing"), "{words}");
+    let dir = tempfile::tempdir().expect("temp dir");
+    let svg = dir.path().join("c.svg");
+    let out = common::run(&[
+        "draw",
+        "layouts/fan-two-speed.toml",
+        "--sheet",
+        "connections",
+        "-o",
+        svg.to_str().expect("path"),
+    ]);
+    assert!(out.status.success());
+    let text = std::fs::read_to_string(&svg).expect("sheet");
+    assert!(text.contains("POLE-CHANGING WINDING"));
+    assert!(!text.contains("linked to make the star point"));
+}

@@ -118,6 +118,55 @@ fn columns(w: &Winding) -> Vec<(&'static str, f64)> {
     c
 }
 
+/// In place of the diagram on a pole-changing winding's sheet: what the halves are and
+/// where each speed's connection is given.
+fn pole_change_notice(w: &Winding, groups: &[CoilGroup], at: Rect) -> Group {
+    let poles = w.geometry.poles;
+    let halves = |sign: i8| -> String {
+        groups
+            .iter()
+            .enumerate()
+            .filter(|(_, g)| g.polarity == sign)
+            .map(|(i, g)| format!("G{} {}", i + 1, w.label(g.phase)))
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    let lines = [
+        format!(
+            "POLE-CHANGING WINDING, {} and {poles} poles: do not connect it as one speed.",
+            2 * poles
+        ),
+        "Each phase is two halves: its forward groups and its reversed groups.".to_string(),
+        format!("Forward groups: {}.", halves(1)),
+        format!("Reversed groups: {}.", halves(-1)),
+        "Series (lower speed) and double star (higher speed): the lines, links and open"
+            .to_string(),
+        "leads of each speed are given by `beltwright speeds` for this layout.".to_string(),
+        "The schedule gives each group's coils in winding order, as for any winding.".to_string(),
+    ];
+    let mut g = Group::new().add(
+        Rectangle::new()
+            .set("x", at.x)
+            .set("y", at.y)
+            .set("width", at.w.min(180.0))
+            .set("height", 8.0 + 5.0 * lines.len() as f64)
+            .set("fill", "none")
+            .set("stroke", "black")
+            .set("stroke-width", 0.6),
+    );
+    for (k, l) in lines.iter().enumerate() {
+        let size = if k == 0 { 3.2 } else { 2.8 };
+        g = g.add(label(
+            at.x + 3.0,
+            at.y + 7.0 + 5.0 * k as f64,
+            size,
+            Anchor::Start,
+            l,
+        ));
+    }
+    g
+}
+
 /// Draw the connection sheet; the schedule continues on further pages when needed.
 pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
     let w = s.winding();
@@ -181,7 +230,13 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
         },
         h: if stacked { diagram_h } else { a.h },
     };
-    canvas.add(connection_diagram(w, scheme, &pal, &groups, diagram));
+    match w.design.pole_change {
+        // A pole-changing winding's halves are joined differently at each speed: a
+        // single-speed diagram here would wire it wrongly, so the sheet says where the
+        // two speeds' connections are instead of drawing one.
+        Some(_) => canvas.add(pole_change_notice(w, &groups, diagram)),
+        None => canvas.add(connection_diagram(w, scheme, &pal, &groups, diagram)),
+    }
     let sched_box = if stacked {
         Rect {
             x: a.x,

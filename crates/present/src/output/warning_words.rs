@@ -61,6 +61,12 @@ impl Words for CardWarning {
             CardWarning::NotThreePhase => {
                 "lead markings and line resistances are given for three-phase windings only".into()
             }
+            CardWarning::PoleChanging { poles } => format!(
+                "a pole-changing winding ({} and {poles} poles): no single-speed lead table or \
+                 line resistance here; both speeds' leads (1U...2W or T1...T6) and how to \
+                 connect each are in `beltwright speeds`",
+                2 * poles
+            ),
             CardWarning::PathWithoutCoils { phase, path, paths } => {
                 if *paths > 1 {
                     format!(

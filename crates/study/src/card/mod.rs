@@ -60,6 +60,12 @@ pub enum CardWarning {
     NoWire,
     /// Lead schemes and line resistances are for three-phase windings only.
     NotThreePhase,
+    /// A pole-changing winding: the single-speed lead scheme and line resistance do not
+    /// apply; both speeds' leads and connections are the `speeds` report's.
+    PoleChanging {
+        /// Poles as laid out (the higher speed).
+        poles: usize,
+    },
     /// A path (or a whole phase) of the record holds no coils, so its resistance, and the
     /// resistances between leads that include it, cannot be worked out.
     PathWithoutCoils {
@@ -450,7 +456,13 @@ pub fn card(w: &Winding) -> DataCard {
     if !three {
         warnings.push(CardWarning::NotThreePhase);
     }
-    let line = planned_line_resistances(w).map(|l| (l[0] + l[1] + l[2]) / 3.0);
+    let pole_changing = w.design.pole_change.is_some();
+    if pole_changing {
+        warnings.push(CardWarning::PoleChanging { poles: g.poles });
+    }
+    let line = planned_line_resistances(w)
+        .filter(|_| !pole_changing)
+        .map(|l| (l[0] + l[1] + l[2]) / 3.0);
 
     let (mass, mass_phase, mass_coil) = match (&wire, &lengths) {
         (Some(wr), Some(ls)) => {
@@ -491,7 +503,7 @@ pub fn card(w: &Winding) -> DataCard {
         });
     }
 
-    let lead_scheme = three.then(|| {
+    let lead_scheme = (three && !pole_changing).then(|| {
         let sec = paths.as_ref().and_then(|r| sections(w, r));
         leads::scheme(
             w.design.leads,
