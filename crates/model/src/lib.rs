@@ -10,6 +10,7 @@
 pub mod design;
 pub mod factors;
 pub mod iron;
+pub mod network;
 pub mod numbering;
 pub mod sanitize;
 pub mod spec;

@@ -44,8 +44,12 @@ pub struct DesignHeader {
     pub turns_assumed: bool,
     /// Parallel paths per phase.
     pub parallel_paths: usize,
-    /// Star or delta.
+    /// Star or delta (a pole-changing winding's is in `pole_change`).
     pub connection: Connection,
+    /// A pole-changing winding's connection: laid out at `poles`, it also serves twice as
+    /// many (see the `speeds` report).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub pole_change: Option<crate::design::PoleChange>,
     /// Fundamental winding factor k_w1.
     pub winding_factor: f64,
     /// True when the coils come from a recorded coil list rather than synthesis.
@@ -76,6 +80,7 @@ pub fn of(w: &Winding) -> DesignHeader {
         turns_assumed: w.design.turns_assumed,
         parallel_paths: w.parallel_paths,
         connection: w.design.connection,
+        pole_change: w.design.pole_change,
         winding_factor: factors::fundamental(w).winding,
         recorded: w.from_coil_list,
     }

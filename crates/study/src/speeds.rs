@@ -20,7 +20,7 @@ use crate::design::PoleChange;
 use crate::factors::{self, FactorRow};
 use crate::field::{self, FieldOptions, WaveRow, balanced_currents};
 use crate::header::{self, DesignHeader};
-use crate::winding::pole_change;
+use crate::winding::pole_change::{self, Lead};
 use crate::winding::star::Sequence;
 use crate::winding::{Elec, Winding};
 
@@ -165,15 +165,6 @@ fn speed(w: &Winding, joined: Joined, turns_in_series: f64) -> Result<Speed, Spe
     })
 }
 
-/// Lead names at the lower (prefix 1) and higher (prefix 2) speed: IEC 60034-8's 1U, 1V,
-/// 1W / 2U, 2V, 2W, or NEMA's T1, T2, T3 / T4, T5, T6 (from memory).
-fn lead(marking: crate::design::Marking, speed: usize, phase: usize) -> String {
-    match marking {
-        crate::design::Marking::Iec => format!("{speed}{}", ["U", "V", "W"][phase.min(2)]),
-        crate::design::Marking::Nema => format!("T{}", 3 * (speed - 1) + phase + 1),
-    }
-}
-
 /// Both speeds of `w`, a pole-changing winding (`design.pole_change`).
 pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
     crate::runs::count(crate::runs::Analysis::Speeds);
@@ -198,37 +189,37 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
         PoleChange::StarDoubleStar => ratio,
     };
     let marking = w.design.leads.marking;
-    let lines = |speed: usize, exchanged: bool| -> Vec<LineLead> {
-        let order = if exchanged { [0, 2, 1] } else { [0, 1, 2] };
-        order
-            .iter()
-            .enumerate()
-            .map(|(l, &p)| LineLead {
-                line: format!("L{}", l + 1),
-                lead: lead(marking, speed, p),
-            })
-            .collect()
-    };
-    let trio = |speed: usize| (0..3).map(|p| lead(marking, speed, p)).collect::<Vec<_>>();
     // Each speed's lines are exchanged when its sequence differs from the other's, at the
     // lower speed by convention, so both speeds turn the way the higher speed does on
     // L1, L2, L3.
     let exchange = low_speed.sequence != high_speed.sequence;
+    let on_board = |board: &pole_change::Board, poles: usize, exchanged: bool| {
+        let order = if exchanged { [0, 2, 1] } else { [0, 1, 2] };
+        let lines = order
+            .iter()
+            .enumerate()
+            .map(|(l, &k)| LineLead {
+                line: format!("L{}", l + 1),
+                lead: board.lines[k].name(marking),
+            })
+            .collect();
+        let used: Vec<Lead> = board.lines.iter().chain(board.linked).copied().collect();
+        let open = (0..3)
+            .flat_map(|p| [Lead::End(p), Lead::Tap(p)])
+            .filter(|l| !used.contains(l))
+            .map(|l| l.name(marking))
+            .collect::<Vec<_>>();
+        SpeedConnection {
+            poles,
+            lines,
+            joined: board.linked.iter().map(|l| l.name(marking)).collect(),
+            open,
+            lines_exchanged: exchanged,
+        }
+    };
     let connections = vec![
-        SpeedConnection {
-            poles: low_speed.poles,
-            lines: lines(1, exchange),
-            joined: Vec::new(),
-            open: trio(2),
-            lines_exchanged: exchange,
-        },
-        SpeedConnection {
-            poles: high_speed.poles,
-            lines: lines(2, false),
-            joined: trio(1),
-            open: Vec::new(),
-            lines_exchanged: false,
-        },
+        on_board(&pole_change::LOW_SPEED, low_speed.poles, exchange),
+        on_board(&pole_change::HIGH_SPEED, high_speed.poles, false),
     ];
     Ok(SpeedsReport {
         design: header::of(w),

@@ -13,6 +13,7 @@ use crate::header::{self, DesignHeader};
 use crate::inductance::{self, InductanceReport};
 use crate::pitch::{self, PitchGoal, PitchReport};
 use crate::plan::{self, PlanReport};
+use crate::speeds::{self, SpeedsError, SpeedsReport};
 use crate::thrust::{self, ThrustError, ThrustQuery, ThrustReport};
 use crate::winding::{Topology, Winding};
 
@@ -45,6 +46,7 @@ pub struct Study<'w> {
     field: OnceLock<Result<FieldReport, FieldError>>,
     snapshots: OnceLock<Result<Vec<Snapshot>, FieldError>>,
     pitch: OnceLock<PitchReport>,
+    speeds: OnceLock<Option<Result<SpeedsReport, SpeedsError>>>,
 }
 
 impl<'w> Study<'w> {
@@ -64,6 +66,7 @@ impl<'w> Study<'w> {
             field: OnceLock::new(),
             snapshots: OnceLock::new(),
             pitch: OnceLock::new(),
+            speeds: OnceLock::new(),
         }
     }
 
@@ -165,6 +168,21 @@ impl<'w> Study<'w> {
             })
             .as_ref()
             .map(Vec::as_slice)
+    }
+
+    /// Both speeds of a pole-changing winding, or why there are none; `None` for a
+    /// one-speed winding.
+    pub fn speeds(&self) -> Option<Result<&SpeedsReport, &SpeedsError>> {
+        self.speeds
+            .get_or_init(|| {
+                self.winding
+                    .design
+                    .pole_change
+                    .is_some()
+                    .then(|| speeds::speeds(self.winding))
+            })
+            .as_ref()
+            .map(Result::as_ref)
     }
 
     /// Every span compared, for the usual goal: orders 5, 7, 11 and 13 suppressed with

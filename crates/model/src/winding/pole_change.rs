@@ -30,3 +30,106 @@ pub fn at_double_poles(w: &Winding) -> Winding {
     }
     d
 }
+
+/// The six leads of a pole-changing winding, as network nodes: the three ends of the series
+/// connection (`End`, marked 1U 1V 1W or T1 T2 T3: the lower speed's line leads) and the
+/// three taps between each phase's halves (`Tap`, 2U 2V 2W or T4 T5 T6). A star-connected
+/// winding has its star point inside as a seventh node.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Lead {
+    /// The end of phase `0..3`'s series connection.
+    End(usize),
+    /// The tap between phase `0..3`'s halves.
+    Tap(usize),
+}
+
+impl Lead {
+    /// Node number in [`six_leads`]: ends 0..3, taps 3..6 (the star point is 6).
+    pub fn node(self) -> usize {
+        match self {
+            Lead::End(p) => p % 3,
+            Lead::Tap(p) => 3 + p % 3,
+        }
+    }
+
+    /// The lead's marking: IEC 60034-8's 1U 1V 1W / 2U 2V 2W (the number rises with the
+    /// speed), NEMA's T1 T2 T3 / T4 T5 T6 for one-winding two-speed motors (both from
+    /// memory; each tap numbered after its own phase, our convention).
+    pub fn name(self, marking: crate::design::Marking) -> String {
+        let (speed, p) = match self {
+            Lead::End(p) => (1, p % 3),
+            Lead::Tap(p) => (2, p % 3),
+        };
+        match marking {
+            crate::design::Marking::Iec => format!("{speed}{}", ["U", "V", "W"][p]),
+            crate::design::Marking::Nema => format!("T{}", 3 * (speed - 1) + p + 1),
+        }
+    }
+}
+
+/// The leads the supply lines L1, L2, L3 go on at one speed, and the leads linked together
+/// there (the rest are left open, each insulated apart).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Board {
+    /// The leads of L1, L2, L3, before any exchange for the direction of rotation.
+    pub lines: [Lead; 3],
+    /// The leads linked into the double star's second star point (none at the lower speed).
+    pub linked: &'static [Lead],
+}
+
+/// The lower speed (twice the poles): the lines on the ends, the halves of each phase in
+/// series, the taps open.
+pub const LOW_SPEED: Board = Board {
+    lines: [Lead::End(0), Lead::End(1), Lead::End(2)],
+    linked: &[],
+};
+
+/// The higher speed (the poles as laid out): the lines on the taps, the ends linked, so each
+/// phase's halves run in parallel from its tap, one of them backwards: a double star.
+pub const HIGH_SPEED: Board = Board {
+    lines: [Lead::Tap(0), Lead::Tap(1), Lead::Tap(2)],
+    linked: &[Lead::End(0), Lead::End(1), Lead::End(2)],
+};
+
+/// Each phase's halves between the leads: (phase, reversed, from, to), `None` being the
+/// star point. The reversed half (the groups [`at_double_poles`] turns back) runs from the
+/// phase's end to its tap, the forward half from the tap on to the next phase's end (series
+/// delta) or to the star point (series star).
+pub fn six_leads_halves(
+    connection: crate::design::PoleChange,
+) -> [(usize, bool, Option<Lead>, Option<Lead>); 6] {
+    use crate::design::PoleChange;
+    let on = |p: usize| match connection {
+        PoleChange::DeltaDoubleStar => Some(Lead::End((p + 1) % 3)),
+        PoleChange::StarDoubleStar => None,
+    };
+    let half = |k: usize| {
+        let p = k / 2;
+        if k.is_multiple_of(2) {
+            (p, true, Some(Lead::End(p)), Some(Lead::Tap(p)))
+        } else {
+            (p, false, Some(Lead::Tap(p)), on(p))
+        }
+    };
+    [half(0), half(1), half(2), half(3), half(4), half(5)]
+}
+
+/// The winding between its six leads as a resistor network (nodes [`Lead::node`], the
+/// star point 6), from each phase's reversed and forward halves at one temperature (ohms).
+pub fn six_leads(
+    connection: crate::design::PoleChange,
+    reversed_ohm: [f64; 3],
+    forward_ohm: [f64; 3],
+) -> crate::network::Network {
+    let node = |l: Option<Lead>| l.map_or(6, Lead::node);
+    let mut n = crate::network::Network::new(7);
+    for (p, reversed, from, to) in six_leads_halves(connection) {
+        let ohm = if reversed {
+            reversed_ohm[p]
+        } else {
+            forward_ohm[p]
+        };
+        n.add(node(from), node(to), ohm);
+    }
+    n
+}

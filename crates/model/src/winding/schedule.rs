@@ -5,9 +5,16 @@
 //! Conventions (common practice): every group is wound the same way, start at its left
 //! slot and finish at its right; a reversed group (coils reaching backwards from their go
 //! sides) is connected finish first. Groups of one path are joined in slot order.
+//!
+//! A pole-changing winding's lanes are its halves, not its paths: each phase's reversed
+//! groups and its forward groups, each run from the phase's tap as the coil list writes it
+//! (the way the double star feeds them), to the phase's own end lead (the reversed half)
+//! or on to the next phase's end or the star point (the forward half), as
+//! [`super::pole_change::six_leads_halves`] joins them.
 
 use serde::Serialize;
 
+use super::pole_change::{Lead, six_leads_halves};
 use super::{CoilGroup, Winding};
 use crate::numbering::{CoilNo, GroupNo, PathNo, SlotNo};
 
@@ -20,11 +27,46 @@ pub struct Lane {
     pub path: usize,
     /// Indices into the coil-group list, in connection order.
     pub groups: Vec<usize>,
+    /// Where the lane starts.
+    pub start: LaneEnd,
+    /// Where it finishes.
+    pub finish: LaneEnd,
 }
 
-/// Every lane: each phase, each path.
+/// Where a lane starts or finishes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LaneEnd {
+    /// Its path's own start or finish lead, named by the lead scheme.
+    Path,
+    /// One of a pole-changing winding's six leads.
+    Six(Lead),
+    /// The star point inside a series-star pole-changing winding.
+    StarPoint,
+}
+
+/// Every lane: each phase, each path (each half of a pole-changing winding's phases).
 pub fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<Lane> {
     let mut out = Vec::new();
+    if let Some(pc) = w.design.pole_change {
+        for (phase, reversed, from, to) in six_leads_halves(pc) {
+            let end = |l: Option<Lead>| l.map_or(LaneEnd::StarPoint, LaneEnd::Six);
+            // Each half runs from its tap as the coil list writes it.
+            let (start, finish) = if reversed { (to, from) } else { (from, to) };
+            out.push(Lane {
+                phase,
+                path: 0,
+                groups: groups
+                    .iter()
+                    .enumerate()
+                    .filter(|(_, g)| g.phase == phase && (g.polarity < 0) == reversed)
+                    .map(|(i, _)| i)
+                    .collect(),
+                start: end(start),
+                finish: end(finish),
+            });
+        }
+        return out;
+    }
     for phase in 0..w.geometry.phases {
         for path in 0..w.parallel_paths.max(1) {
             let gs: Vec<usize> = groups
@@ -37,6 +79,8 @@ pub fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<Lane> {
                 phase,
                 path,
                 groups: gs,
+                start: LaneEnd::Path,
+                finish: LaneEnd::Path,
             });
         }
     }
@@ -78,6 +122,13 @@ pub enum FinishTo {
     },
     /// The finish lead of its path.
     Lead,
+    /// One of a pole-changing winding's six leads, as marked (its half ends there).
+    SixLead {
+        /// The lead: 1U, 1V, 1W (T1, T2, T3 under NEMA).
+        lead: String,
+    },
+    /// The star point inside a series-star pole-changing winding.
+    StarPoint,
 }
 
 /// One coil of the winding schedule, in connection order.
@@ -122,7 +173,13 @@ pub fn schedule(w: &Winding, groups: &[CoilGroup]) -> Vec<ScheduleRow> {
                         coil: CoilNo::at(current_order(&groups[next])[0]),
                     }
                 } else {
-                    FinishTo::Lead
+                    match lane.finish {
+                        LaneEnd::Path => FinishTo::Lead,
+                        LaneEnd::Six(l) => FinishTo::SixLead {
+                            lead: l.name(w.design.leads.marking),
+                        },
+                        LaneEnd::StarPoint => FinishTo::StarPoint,
+                    }
                 };
                 let coil = &w.coils[c];
                 out.push(ScheduleRow {
@@ -175,7 +232,7 @@ mod tests {
                     FinishTo::Coil { coil } | FinishTo::Group { coil, .. } => {
                         assert_eq!(*coil, pair[1].coil)
                     }
-                    FinishTo::Lead => {}
+                    FinishTo::Lead | FinishTo::SixLead { .. } | FinishTo::StarPoint => {}
                 }
             }
         }

@@ -19,7 +19,7 @@ use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::card::leads::LeadScheme;
 use crate::design::Marking;
-use crate::winding::schedule::{FinishTo, Lane, ScheduleRow, lanes, schedule};
+use crate::winding::schedule::{FinishTo, Lane, LaneEnd, ScheduleRow, lanes, schedule};
 use crate::winding::{CoilGroup, Connection, Winding, coil_groups};
 
 pub use crate::winding::schedule::group_ends;
@@ -61,27 +61,32 @@ fn path_lead(w: &Winding, k: usize, p: usize, end: u8) -> (String, bool) {
     (format!("{}{end}", w.label(k)), false)
 }
 
+/// Marking of a lane's start (1) or finish (2): its path's lead, or on a pole-changing
+/// winding the lead or star point its half runs to.
+pub fn lane_terminal(w: &Winding, lane: &Lane, end: u8) -> String {
+    match if end == 1 { lane.start } else { lane.finish } {
+        LaneEnd::Path => path_terminal(w, lane.phase, lane.path, end),
+        LaneEnd::Six(l) => l.name(w.design.leads.marking),
+        LaneEnd::StarPoint => "star point (inside)".into(),
+    }
+}
+
 /// Where each path's leads leave the core: (lead marking, slot from 1, start?) for the start
 /// of the first group and the finish of the last, in connection order.
 pub fn lead_slots(w: &Winding) -> Vec<(String, usize, bool)> {
     let groups = coil_groups(w);
     let mut out = Vec::new();
-    for Lane {
-        phase: k,
-        path: p,
-        groups: gs,
-    } in lanes(w, &groups)
-    {
-        let (Some(&first), Some(&last)) = (gs.first(), gs.last()) else {
+    for lane in lanes(w, &groups) {
+        let (Some(&first), Some(&last)) = (lane.groups.first(), lane.groups.last()) else {
             continue;
         };
         out.push((
-            path_terminal(w, k, p, 1),
+            lane_terminal(w, &lane, 1),
             group_ends(w, &groups[first]).0 + 1,
             true,
         ));
         out.push((
-            path_terminal(w, k, p, 2),
+            lane_terminal(w, &lane, 2),
             group_ends(w, &groups[last]).1 + 1,
             false,
         ));
@@ -98,6 +103,8 @@ fn finish_words(w: &Winding, e: &ScheduleRow) -> String {
             (name, true) => format!("{name} (inside)"),
             (name, false) => format!("lead {name}"),
         },
+        FinishTo::SixLead { ref lead } => format!("lead {lead}"),
+        FinishTo::StarPoint => "star point".into(),
     }
 }
 
@@ -116,55 +123,6 @@ fn columns(w: &Winding) -> Vec<(&'static str, f64)> {
     }
     c.push(("Finish to", 18.0));
     c
-}
-
-/// In place of the diagram on a pole-changing winding's sheet: what the halves are and
-/// where each speed's connection is given.
-fn pole_change_notice(w: &Winding, groups: &[CoilGroup], at: Rect) -> Group {
-    let poles = w.geometry.poles;
-    let halves = |sign: i8| -> String {
-        groups
-            .iter()
-            .enumerate()
-            .filter(|(_, g)| g.polarity == sign)
-            .map(|(i, g)| format!("G{} {}", i + 1, w.label(g.phase)))
-            .collect::<Vec<_>>()
-            .join(", ")
-    };
-    let lines = [
-        format!(
-            "POLE-CHANGING WINDING, {} and {poles} poles: do not connect it as one speed.",
-            2 * poles
-        ),
-        "Each phase is two halves: its forward groups and its reversed groups.".to_string(),
-        format!("Forward groups: {}.", halves(1)),
-        format!("Reversed groups: {}.", halves(-1)),
-        "Series (lower speed) and double star (higher speed): the lines, links and open"
-            .to_string(),
-        "leads of each speed are given by `beltwright speeds` for this layout.".to_string(),
-        "The schedule gives each group's coils in winding order, as for any winding.".to_string(),
-    ];
-    let mut g = Group::new().add(
-        Rectangle::new()
-            .set("x", at.x)
-            .set("y", at.y)
-            .set("width", at.w.min(180.0))
-            .set("height", 8.0 + 5.0 * lines.len() as f64)
-            .set("fill", "none")
-            .set("stroke", "black")
-            .set("stroke-width", 0.6),
-    );
-    for (k, l) in lines.iter().enumerate() {
-        let size = if k == 0 { 3.2 } else { 2.8 };
-        g = g.add(label(
-            at.x + 3.0,
-            at.y + 7.0 + 5.0 * k as f64,
-            size,
-            Anchor::Start,
-            l,
-        ));
-    }
-    g
 }
 
 /// Draw the connection sheet; the schedule continues on further pages when needed.
@@ -230,11 +188,13 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
         },
         h: if stacked { diagram_h } else { a.h },
     };
-    match w.design.pole_change {
-        // A pole-changing winding's halves are joined differently at each speed: a
-        // single-speed diagram here would wire it wrongly, so the sheet says where the
-        // two speeds' connections are instead of drawing one.
-        Some(_) => canvas.add(pole_change_notice(w, &groups, diagram)),
+    // A pole-changing winding's halves are joined differently at each speed: a
+    // single-speed diagram here would wire it wrongly, so the sheet draws the halves
+    // between the six leads and each speed's board instead.
+    match s.speeds() {
+        Some(report) => canvas.add(super::two_speed::connection(
+            w, &groups, report, &pal, diagram,
+        )),
         None => canvas.add(connection_diagram(w, scheme, &pal, &groups, diagram)),
     }
     let sched_box = if stacked {
@@ -465,6 +425,9 @@ fn diagram_height(
     groups: &[CoilGroup],
     width: f64,
 ) -> f64 {
+    if w.design.pole_change.is_some() {
+        return super::two_speed::height(width);
+    }
     boards_height(w, scheme, width) + lanes_height(w, groups, width)
 }
 
@@ -524,6 +487,12 @@ fn diagram_scale(
     width: f64,
     height: f64,
 ) -> f64 {
+    if w.design.pole_change.is_some() {
+        // Drawn at printed size when it fits, else not beside the schedule.
+        let fits =
+            width >= super::two_speed::MIN_WIDTH && super::two_speed::height(width) <= height;
+        return if fits { 1.0 } else { 0.0 };
+    }
     arrangement(w, scheme, groups, width, height).scale
 }
 
@@ -566,6 +535,7 @@ fn connection_diagram(
         phase: k,
         path: p,
         groups: gs,
+        ..
     } in &lanes
     {
         let bare = |end: u8| path_lead(w, *k, *p, end).0;

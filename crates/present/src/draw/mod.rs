@@ -26,6 +26,7 @@ pub mod tables;
 mod text;
 pub mod thrust;
 pub mod title;
+pub mod two_speed;
 
 pub use export::{ExportError, FileKind};
 pub use page::{Orientation, Page, PaperSize};

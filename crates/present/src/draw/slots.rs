@@ -586,17 +586,11 @@ fn lead_end(
     let mut out = Group::new().set("class", "lead-end");
     let label_y = band_top + MIN_TEXT + 0.5;
     let mut leads: Vec<(f64, usize, String)> = Vec::new();
-    for (
-        lane,
-        crate::winding::schedule::Lane {
-            phase: k,
-            path: p,
-            groups: gs,
-        },
-    ) in crate::winding::schedule::lanes(w, &groups)
+    for (lane, this) in crate::winding::schedule::lanes(w, &groups)
         .into_iter()
         .enumerate()
     {
+        let (k, gs) = (this.phase, &this.groups);
         let y = band_top + 3.0 * MIN_TEXT + 3.0 + lane as f64 * LANE + LANE / 2.0;
         let start_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).0;
         let finish_of = |gi: usize| super::connections::group_ends(w, &groups[gi]).1;
@@ -614,7 +608,7 @@ fn lead_end(
         if let (Some(&first), Some(&last)) = (gs.first(), gs.last()) {
             for (slot, end) in [(start_of(first), 1u8), (finish_of(last), 2u8)] {
                 let x = x_of(slot as f64);
-                let name = super::connections::path_terminal(w, k, p, end);
+                let name = super::connections::lane_terminal(w, &this, end);
                 leads.push((x, k, name));
             }
         }

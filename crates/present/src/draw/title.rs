@@ -70,7 +70,13 @@ impl TitleBlock {
             page: (1, 1),
             fields: vec![
                 ("Slots Z", h.slots.to_string()),
-                ("Poles 2p", h.poles.to_string()),
+                (
+                    "Poles 2p",
+                    match h.pole_change {
+                        Some(_) => format!("{}/{}", 2 * h.poles, h.poles),
+                        None => h.poles.to_string(),
+                    },
+                ),
                 ("Span y", span),
                 ("Layers", h.layers.to_string()),
                 (
@@ -86,7 +92,14 @@ impl TitleBlock {
                     },
                 ),
                 ("Paths a", h.parallel_paths.to_string()),
-                ("Connection", h.connection.to_string()),
+                (
+                    "Connection",
+                    match h.pole_change {
+                        Some(crate::design::PoleChange::DeltaDoubleStar) => "delta/YY".into(),
+                        Some(crate::design::PoleChange::StarDoubleStar) => "star/YY".into(),
+                        None => h.connection.to_string(),
+                    },
+                ),
                 ("k_w1", num(h.winding_factor, 4)),
                 ("Tool", format!("beltwright {}", env!("CARGO_PKG_VERSION"))),
             ],

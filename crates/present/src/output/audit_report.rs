@@ -63,6 +63,27 @@ impl Report for AuditReport {
             )
         };
         head.push(paragraph(&waves));
+        if let Some(o) = &self.other_speed {
+            head.push(paragraph(&format!(
+                "at {} poles, the other speed (halves in series{}): balanced {}; sequence {}; \
+                 backward field {}% of forward, magnitudes spread {}%",
+                o.poles,
+                if o.after_fix {
+                    ", with the fix made"
+                } else {
+                    ""
+                },
+                if o.balanced { "yes" } else { "NO" },
+                match o.sequence {
+                    Sequence::Positive => "positive",
+                    Sequence::Negative =>
+                        "negative, as consequent poles give it (two lines are exchanged on that \
+                         speed's board)",
+                },
+                num(o.backward_percent, 2),
+                num(o.magnitude_spread_percent, 2),
+            )));
+        }
         if self.fix_edits > 0 {
             head.push(format!(
                 "smallest fix: {}{}",

@@ -65,9 +65,10 @@ pub fn words(f: &Fact) -> String {
         | Fact::OverfilledSlots { .. }
         | Fact::TurnsDiffer { .. }
         | Fact::SpanDiffers { .. } => slot_words(f),
-        Fact::NoFundamental | Fact::Unbalanced { .. } | Fact::MeasuredResistance { .. } => {
-            balance_words(f)
-        }
+        Fact::NoFundamental
+        | Fact::Unbalanced { .. }
+        | Fact::UnbalancedAtOtherSpeed { .. }
+        | Fact::MeasuredResistance { .. } => balance_words(f),
         Fact::CoresDiffer { .. }
         | Fact::DiffersFromDesign { .. }
         | Fact::MissingFromRecord { .. } => design_words(f),
@@ -288,6 +289,18 @@ fn balance_words(f: &Fact) -> String {
                                 coils were recorded in one direction; check the group \
                                 connections against the connection sheet"
             .into(),
+        Fact::UnbalancedAtOtherSpeed {
+            poles,
+            backward_percent,
+            spread_percent,
+        } => format!(
+            "balanced as laid out but not at {poles} poles, the other speed (backward field {}% \
+             of forward, magnitudes spread {}%): a coil or group sits where the halves in \
+             series do not repeat at the higher pole count; compare the record with the \
+             design slot by slot (audit --intended)",
+            num(*backward_percent, 2),
+            num(*spread_percent, 2),
+        ),
         Fact::Unbalanced {
             backward_percent,
             spread_percent,
@@ -420,7 +433,10 @@ fn design_words(f: &Fact) -> String {
 
 impl fmt::Display for Say<'_, crate::audit::Travel> {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        let starts: Vec<String> = self.0.starts.iter().map(|l| format!("{l}1")).collect();
+        let starts: Vec<String> = match &self.0.line_leads {
+            Some(leads) => leads.clone(),
+            None => self.0.starts.iter().map(|l| format!("{l}1")).collect(),
+        };
         let kind = match self.0.topology {
             crate::winding::Topology::Rotary => "the field rotates",
             crate::winding::Topology::Linear => "the field travels",

@@ -176,6 +176,9 @@ impl Report for DataCard {
             s.extend(lead_sections(l));
         }
         s.extend(section_readings(self));
+        if let Some(six) = &self.six_leads {
+            s.extend(six_lead_sections(six));
+        }
 
         s.extend(acceptance_sections(self));
         if !self.warnings.is_empty() {
@@ -528,6 +531,54 @@ fn section_readings(card: &DataCard) -> Vec<Section> {
         }
         s.push(Section::Table(t));
     }
+    s
+}
+
+/// A pole-changing winding's halves and the readings between its six leads.
+fn six_lead_sections(six: &crate::card::two_speed::SixLeads) -> Vec<Section> {
+    let mut s = vec![Section::Heading(
+        "Six leads (pole-changing), readings at 20 C".into(),
+    )];
+    let mut halves = Table::new(&[
+        ("phase", Align::Left),
+        ("half end-tap ohm", Align::Right),
+        ("half from tap ohm", Align::Right),
+    ]);
+    for h in &six.halves {
+        halves.push(vec![
+            h.phase.clone(),
+            ohms(h.reversed_ohm),
+            ohms(h.forward_ohm),
+        ]);
+    }
+    s.push(Section::Table(halves));
+    let mut t = Table::new(&[
+        ("board", Align::Left),
+        ("between", Align::Left),
+        ("ohm", Align::Right),
+    ]);
+    for r in &six.delivered {
+        t.push(vec![
+            "as delivered, nothing linked".into(),
+            format!("{}-{}", r.between[0], r.between[1]),
+            ohms(r.ohm),
+        ]);
+    }
+    for sp in &six.speeds {
+        let board = if sp.linked.is_empty() {
+            format!("{} poles, others open", sp.poles)
+        } else {
+            format!("{} poles, {} linked", sp.poles, sp.linked.join("+"))
+        };
+        for r in &sp.lines {
+            t.push(vec![
+                board.clone(),
+                format!("{}-{}", r.between[0], r.between[1]),
+                ohms(r.ohm),
+            ]);
+        }
+    }
+    s.push(Section::Table(t));
     s
 }
 

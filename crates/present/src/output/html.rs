@@ -128,8 +128,8 @@ pub struct Part {
 /// Every report of a winding's study, in the order the HTML page and the PDF report both
 /// print them.
 pub struct Parts {
-    /// Plan, audit (recorded windings), card, performance and inductance (flat
-    /// primaries), factors, field, spans.
+    /// Plan, audit (recorded windings), card, both speeds (pole-changing windings),
+    /// performance and inductance (flat primaries), factors, field, spans.
     pub parts: Vec<Part>,
 }
 
@@ -147,6 +147,9 @@ pub fn parts(s: &Study) -> Parts {
         add("Audit of the coil list", a.sections());
     }
     add("Data card", s.card().sections());
+    if let Some(Ok(sp)) = s.speeds() {
+        add("Two speeds", sp.sections());
+    }
     if let Ok(t) = s.thrust() {
         add(
             "Performance of the flat primary",

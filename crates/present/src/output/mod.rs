@@ -226,8 +226,12 @@ pub fn design_pieces(h: &crate::header::DesignHeader) -> Vec<Vec<Piece>> {
             Piece::Text(format!("{kind}: ")),
             Piece::Fact("slots", h.slots.to_string()),
             Piece::Text(format!(
-                " slots, {} poles, {} phases{}",
+                " slots, {} poles{}, {} phases{}",
                 h.poles,
+                match h.pole_change {
+                    Some(_) => format!(" (and {} by pole changing)", 2 * h.poles),
+                    None => String::new(),
+                },
                 h.phases,
                 if h.recorded {
                     " (recorded coil list)"
@@ -246,7 +250,15 @@ pub fn design_pieces(h: &crate::header::DesignHeader) -> Vec<Vec<Piece>> {
             Piece::Text(format!(
                 "{turns}, {}, {} connection; k_w1 = ",
                 crate::numbering::count(h.parallel_paths, "path", "paths"),
-                h.connection,
+                match h.pole_change {
+                    Some(crate::design::PoleChange::DeltaDoubleStar) => {
+                        "delta / double-star".to_string()
+                    }
+                    Some(crate::design::PoleChange::StarDoubleStar) => {
+                        "star / double-star".to_string()
+                    }
+                    None => h.connection.to_string(),
+                },
             )),
             Piece::Fact("kw1", num(h.winding_factor, 4)),
         ],

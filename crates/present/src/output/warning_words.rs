@@ -63,8 +63,8 @@ impl Words for CardWarning {
             }
             CardWarning::PoleChanging { poles } => format!(
                 "a pole-changing winding ({} and {poles} poles): no single-speed lead table or \
-                 line resistance here; both speeds' leads (1U...2W or T1...T6) and how to \
-                 connect each are in `beltwright speeds`",
+                 line resistance here; the six leads' readings are under 'Six leads', and how \
+                 to connect each speed is on the connection sheet and in `beltwright speeds`",
                 2 * poles
             ),
             CardWarning::PathWithoutCoils { phase, path, paths } => {

@@ -197,6 +197,15 @@ pub enum Fact {
         /// The pair search hit its work limit.
         truncated: bool,
     },
+    /// A pole-changing winding balanced as laid out but not at its other pole count.
+    UnbalancedAtOtherSpeed {
+        /// Poles at the other speed.
+        poles: usize,
+        /// Backward field there, per cent of the larger wave.
+        backward_percent: f64,
+        /// Spread of the phase magnitudes there, per cent.
+        spread_percent: f64,
+    },
     /// Measured resistances unbalanced or off the card.
     MeasuredResistance {
         /// How the readings were taken.

@@ -65,6 +65,8 @@ pub enum FindingKind {
     GroupWrongPhase,
     /// A coil laid in (or recorded with) the wrong slots.
     CoilWrongSlots,
+    /// A pole-changing winding balanced as laid out but not at its other pole count.
+    UnbalancedAtOtherSpeed,
 }
 
 /// One thing wrong with the winding, and what to do about it. Its words (`message()`, and
@@ -95,6 +97,10 @@ pub struct Travel {
     pub sequence: Sequence,
     /// Slots Z.
     pub slots: usize,
+    /// The leads the lines go on when they are not the phase starts: a pole-changing
+    /// winding's taps (2U, 2V, 2W or T4, T5, T6) at the poles it is laid out for.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub line_leads: Option<Vec<String>>,
 }
 
 /// A phasor at one harmonic order.
@@ -210,6 +216,10 @@ pub struct AuditReport {
     pub findings: Vec<Finding>,
     /// Measured resistances against the data card, when `[measured]` is given.
     pub resistance: Option<crate::card::measured::ResistanceCheck>,
+    /// A pole-changing winding's other speed: the record at twice its poles, halves in
+    /// series.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub other_speed: Option<OtherSpeed>,
 }
 
 /// Angle in (−180, 180] degrees, rounding dust removed.
@@ -779,12 +789,23 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         findings.extend(c.findings.iter().cloned());
     }
     findings.extend(odd_spans(w, &fix));
+    let other = other_speed(w, &fixed).map(|(o, f)| {
+        findings.extend(f);
+        o
+    });
     let g = &w.geometry;
     let travel = Travel {
         starts: w.design.phase_labels.clone(),
         topology: g.topology,
         sequence: bal.sequence,
         slots: g.slots,
+        line_leads: w.design.pole_change.map(|_| {
+            crate::winding::pole_change::HIGH_SPEED
+                .lines
+                .iter()
+                .map(|l| l.name(w.design.leads.marking))
+                .collect()
+        }),
     };
     AuditReport {
         design: crate::header::of(w),
@@ -812,7 +833,67 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         intended,
         findings,
         resistance,
+        other_speed: other,
     }
+}
+
+/// A pole-changing record judged at its other pole count (twice the poles, halves in
+/// series: [`crate::winding::pole_change::at_double_poles`]). A coil list says which half
+/// a coil is in only by its direction (the reversed groups are one half), so a record is
+/// judged there once it is balanced as laid out: as found, or with the audit's fix made.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct OtherSpeed {
+    /// Poles at that speed.
+    pub poles: usize,
+    /// True when judged with the audit's fix made (the record as found is unbalanced as
+    /// laid out).
+    pub after_fix: bool,
+    /// Phase EMFs equal and 120° apart there, in either sequence.
+    pub balanced: bool,
+    /// Their sequence (negative is what consequent poles give: two lines are exchanged on
+    /// that speed's board).
+    pub sequence: Sequence,
+    /// Backward field there, per cent of the larger wave.
+    pub backward_percent: f64,
+    /// Spread of the phase magnitudes there, per cent.
+    pub magnitude_spread_percent: f64,
+}
+
+/// The other speed of a pole-changing record (`w` as found, or `fixed` when only the fix
+/// balances it as laid out), and a finding when it is unbalanced there although balanced
+/// as laid out (a fault the layout's own count does not show). `None` for a one-speed
+/// winding, or a record no fix balances.
+fn other_speed(w: &Winding, fixed: &Winding) -> Option<(OtherSpeed, Option<Finding>)> {
+    w.design.pole_change?;
+    let (judged, after_fix) = if w.is_balanced() {
+        (w, false)
+    } else if fixed.is_balanced() {
+        (fixed, true)
+    } else {
+        return None;
+    };
+    let d = crate::winding::pole_change::at_double_poles(judged);
+    let b = balance(&d);
+    let other = OtherSpeed {
+        poles: d.geometry.poles,
+        after_fix,
+        balanced: d.is_balanced(),
+        sequence: b.sequence,
+        backward_percent: pct(b.backward.min(b.forward), b.forward.max(b.backward)),
+        magnitude_spread_percent: b.spread,
+    };
+    let finding = (!other.balanced).then(|| Finding {
+        kind: FindingKind::UnbalancedAtOtherSpeed,
+        coils: Vec::new(),
+        slots: Vec::new(),
+        phases: Vec::new(),
+        detail: Fact::UnbalancedAtOtherSpeed {
+            poles: other.poles,
+            backward_percent: other.backward_percent,
+            spread_percent: other.magnitude_spread_percent,
+        },
+    });
+    Some((other, finding))
 }
 
 fn pct(x: f64, of: f64) -> f64 {

@@ -13,6 +13,7 @@
 
 pub mod leads;
 pub mod measured;
+pub mod two_speed;
 pub use beltwright_model::wire;
 
 use serde::Serialize;
@@ -61,7 +62,8 @@ pub enum CardWarning {
     /// Lead schemes and line resistances are for three-phase windings only.
     NotThreePhase,
     /// A pole-changing winding: the single-speed lead scheme and line resistance do not
-    /// apply; both speeds' leads and connections are the `speeds` report's.
+    /// apply; the six leads' readings are [`DataCard::six_leads`], each speed's connection
+    /// the `speeds` report's.
     PoleChanging {
         /// Poles as laid out (the higher speed).
         poles: usize,
@@ -231,6 +233,10 @@ pub struct DataCard {
     /// Each section's resistance between its own leads at 20 °C (6, 9 and 12 leads).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub sections: Vec<measured::SectionFigure>,
+    /// A pole-changing winding's halves and the readings between its six leads, as
+    /// delivered and on each speed's board, at 20 °C.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub six_leads: Option<two_speed::SixLeads>,
     /// The former of each coil shape (needs the stack and slot pitch).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub formers: Vec<Former>,
@@ -631,6 +637,7 @@ pub fn card(w: &Winding) -> DataCard {
                 ..f
             })
             .collect(),
+        six_leads: two_speed::six_leads(w),
         formers,
         nameplate: w.design.nameplate.clone(),
         job: w.design.job.clone(),
