@@ -82,6 +82,36 @@ fn both_speeds_match_the_closed_forms() {
     }
 }
 
+#[test]
+fn every_span_at_both_speeds_matches_the_closed_forms_and_the_best_is_the_fairest() {
+    // The span table against k_d·k_p at each count (as above) for every span up to the
+    // higher speed's pole pitch; the best span, worked out here from the closed forms, is
+    // the one whose smaller k_w1 is largest (the report's stated criterion, ours).
+    for (z, p) in [(36usize, 2usize), (48, 4), (72, 4)] {
+        let r = speeds(&layout(z, p, z / (2 * p), "star-double-star"));
+        let q = (z / (3 * p)) as u32;
+        let alpha = PI * p as f64 / z as f64;
+        let tau_hi = z as f64 / p as f64;
+        let kd_hi = closed::distribution(q, 1.0, alpha);
+        let kd_lo = closed::distribution(q, 1.0, 2.0 * alpha);
+        let rows = r["spans"].as_array().expect("spans");
+        assert_eq!(rows.len(), z / p, "every span 1..=tau");
+        let mut best = (0usize, -1.0f64);
+        for row in rows {
+            let y = row["span"].as_u64().expect("span") as usize;
+            let hi = kd_hi * (y as f64 * PI / (2.0 * tau_hi)).sin();
+            let lo = kd_lo * (y as f64 * PI / tau_hi).sin().abs();
+            let got = |k: &str| row[k].as_f64().expect(k);
+            close(got("high_speed_winding_factor"), hi, "k_w1 higher speed");
+            close(got("low_speed_winding_factor"), lo, "k_w1 lower speed");
+            if hi.min(lo) > best.1 + 1e-12 {
+                best = (y, hi.min(lo));
+            }
+        }
+        assert_eq!(r["best_span"].as_u64(), Some(best.0 as u64), "{z}/{p}");
+    }
+}
+
 /// The strongest wave of order 2 at the lower speed, relative to its working wave.
 fn second(r: &Value) -> f64 {
     r["low_speed"]["rows"]
@@ -320,4 +350,85 @@ fn an_as_found_two_speed_record_is_judged_at_both_speeds() {
         kinds(&a)
     );
     assert_eq!(a["other_speed"]["balanced"], false);
+}
+
+#[test]
+fn the_pole_change_survey_finds_what_fits_and_the_fairest_span() {
+    // Whole slots per pole and phase at the higher speed's poles (Z a multiple of 3·2p) is
+    // what fits; each fitting row's span and factors against the closed forms, the best
+    // worked out here as in the span table's test.
+    let v = common::json(&[
+        "survey",
+        "--slots",
+        "24..=48",
+        "--poles",
+        "2..=8",
+        "--pole-change",
+        "--format",
+        "json",
+    ]);
+    let schema: Value = serde_json::from_str(
+        &std::fs::read_to_string("docs/schemas/survey-two-speed.schema.json").expect("schema file"),
+    )
+    .expect("json");
+    common::schema_check(&v, &schema, "survey-two-speed").expect("valid");
+    let rows = v["rows"].as_array().expect("rows");
+    assert_eq!(rows.len(), 25 * 4, "every slot count, poles 2, 4, 6, 8");
+    let mut fitting = 0;
+    for r in rows {
+        let z = r["slots"].as_u64().expect("slots") as usize;
+        let p = r["poles"].as_u64().expect("poles") as usize;
+        let fits = z.is_multiple_of(3 * p);
+        assert_eq!(r["fits"], fits, "{z}/{p}");
+        assert_eq!(r["low_speed_poles"].as_u64(), Some(2 * p as u64));
+        if !fits {
+            assert!(r["best_span"].is_null());
+            continue;
+        }
+        fitting += 1;
+        let q = (z / (3 * p)) as u32;
+        let alpha = PI * p as f64 / z as f64;
+        let tau = z as f64 / p as f64;
+        let kd_hi = closed::distribution(q, 1.0, alpha);
+        let kd_lo = closed::distribution(q, 1.0, 2.0 * alpha);
+        let both = |y: usize| {
+            (
+                kd_lo * (y as f64 * PI / tau).sin().abs(),
+                kd_hi * (y as f64 * PI / (2.0 * tau)).sin(),
+            )
+        };
+        let mut best = (0, -1.0);
+        for y in 1..=z / p {
+            let (lo, hi) = both(y);
+            if lo.min(hi) > best.1 + 1e-12 {
+                best = (y, lo.min(hi));
+            }
+        }
+        assert_eq!(r["best_span"].as_u64(), Some(best.0 as u64), "{z}/{p}");
+        let (lo, hi) = both(best.0);
+        close(
+            r["low_speed_winding_factor"].as_f64().expect("lo"),
+            lo,
+            "k_w1 lower",
+        );
+        close(
+            r["high_speed_winding_factor"].as_f64().expect("hi"),
+            hi,
+            "k_w1 higher",
+        );
+    }
+    // 24..=48 holds multiples of 6 (2 poles): 5, of 12: 3, of 18: 1, of 24: 2.
+    assert_eq!(fitting, 11);
+    // A flat primary or another phase count is refused with the reason.
+    let out = common::run(&[
+        "survey",
+        "--slots",
+        "24",
+        "--poles",
+        "2",
+        "--pole-change",
+        "--topology",
+        "linear",
+    ]);
+    assert_eq!(out.status.code(), Some(2));
 }

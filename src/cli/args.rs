@@ -721,6 +721,10 @@ pub struct SurveyArgs {
     /// Keep only feasible combinations.
     #[arg(long)]
     pub feasible: bool,
+    /// Survey pole-changing windings instead (one winding, poles and twice the poles):
+    /// which combinations fit, the best span and k_w1 at both speeds.
+    #[arg(long = "pole-change")]
+    pub pole_change: bool,
     /// Sort order.
     #[arg(long, value_enum, default_value_t = SortArg::Slots)]
     pub sort: SortArg,

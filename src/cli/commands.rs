@@ -562,6 +562,27 @@ fn survey(a: SurveyArgs) -> Result<Printed, Failure> {
             TopologyArg::Linear => Topology::Linear,
         },
     };
+    if a.pole_change {
+        if query.phases != 3 || query.topology != Topology::Rotary {
+            return Err(Failure::input(
+                "--pole-change surveys three-phase rotary cores (a flat primary changes speed \
+                 by its supply frequency); drop --phases and --topology linear"
+                    .to_string(),
+            ));
+        }
+        let mut report = survey::two_speed::two_speed(&query);
+        if a.feasible {
+            report.rows.retain(|r| r.fits);
+        }
+        if let Some(k) = a.min_kw {
+            report.rows.retain(|r| {
+                r.low_speed_winding_factor
+                    .zip(r.high_speed_winding_factor)
+                    .is_some_and(|(l, h)| l.min(h) >= k)
+            });
+        }
+        return Ok(present(report, a.format));
+    }
     let n = survey::combinations(&query).len() as u64;
     // On a terminal any survey that may take a second shows its progress.
     // Off a terminal nothing is shown and nothing is counted: a hidden bar's inc() still

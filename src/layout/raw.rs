@@ -838,9 +838,8 @@ impl RawLayout {
                     .into(),
             ));
         }
-        let m = d.phases;
-        let step = m * d.poles;
-        if m != 3 || !d.slots.is_multiple_of(step) || 2 * d.poles > MAX_POLES {
+        if !crate::winding::pole_change::fits(d.slots, d.poles, d.phases) || 2 * d.poles > MAX_POLES
+        {
             let near: Vec<String> = (1..=4).map(|k| (k * 3 * d.poles).to_string()).collect();
             return Err(c.err(
                 "machine",

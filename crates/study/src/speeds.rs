@@ -98,6 +98,22 @@ pub enum Duty {
     VariableTorque,
 }
 
+/// One span of a pole-changing winding at both pole counts.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct SpanAtBoth {
+    /// Span in slots.
+    pub span: usize,
+    /// Fundamental winding factor at the lower speed (twice the poles).
+    pub low_speed_winding_factor: f64,
+    /// Fundamental winding factor at the higher speed (the poles as laid out).
+    pub high_speed_winding_factor: f64,
+    /// The smaller of the two: what the span is chosen by.
+    pub smaller: f64,
+    /// Mean gap flux density at the lower speed over that at the higher, for the
+    /// connection, at this span; `None` where the lower speed has no fundamental.
+    pub flux_ratio: Option<f64>,
+}
+
 /// Both speeds of a pole-changing winding.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SpeedsReport {
@@ -118,6 +134,11 @@ pub struct SpeedsReport {
     pub connections: Vec<SpeedConnection>,
     /// Lead names as marked: IEC 60034-8 (1U ... 2W) or NEMA (T1 ... T6).
     pub marking: crate::design::Marking,
+    /// Every span up to the higher speed's pole pitch, at both pole counts.
+    pub spans: Vec<SpanAtBoth>,
+    /// The span whose smaller k_w1 is largest (the shorter of equals: less copper), our
+    /// criterion; `None` when no span can be laid out.
+    pub best_span: Option<usize>,
 }
 
 /// Why a winding has no two speeds to report.
@@ -183,11 +204,9 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
     let low_speed = speed(&low, joined_low, phase_turns)?;
     let high_speed = speed(w, Joined::DoubleStar, phase_turns / 2.0)?;
     let kw = |s: &Speed| s.fundamental.winding.abs();
-    let ratio = kw(&high_speed) / kw(&low_speed);
-    let flux_ratio = match pc {
-        PoleChange::DeltaDoubleStar => 3f64.sqrt() * ratio,
-        PoleChange::StarDoubleStar => ratio,
-    };
+    let flux_ratio = flux_ratio(pc, kw(&low_speed), kw(&high_speed));
+    let spans = spans_at_both(w);
+    let best_span = best_span(&spans);
     let marking = w.design.leads.marking;
     // Each speed's lines are exchanged when its sequence differs from the other's, at the
     // lower speed by convention, so both speeds turn the way the higher speed does on
@@ -230,5 +249,57 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
         flux_ratio,
         connections,
         marking,
+        spans,
+        best_span,
     })
+}
+
+/// B(4p)/B(2p) for the connection from the fundamental factors at 4p (`low`) and 2p
+/// (`high`): √3·k_w1(2p)/k_w1(4p) for series delta, k_w1(2p)/k_w1(4p) for series star.
+pub fn flux_ratio(pc: PoleChange, low: f64, high: f64) -> f64 {
+    let ratio = high / low;
+    match pc {
+        PoleChange::DeltaDoubleStar => 3f64.sqrt() * ratio,
+        PoleChange::StarDoubleStar => ratio,
+    }
+}
+
+/// Every span from 1 to the higher speed's pole pitch (whole slots), each synthesized at
+/// the poles as laid out and judged there and at twice the poles; spans the synthesis
+/// refuses are left out.
+pub fn spans_at_both(w: &Winding) -> Vec<SpanAtBoth> {
+    let Some(pc) = w.design.pole_change else {
+        return Vec::new();
+    };
+    let pitch = w.geometry.slots / w.geometry.poles.max(1);
+    (1..=pitch)
+        .filter_map(|y| {
+            let high = crate::winding::with_span(w, y).ok()?;
+            let low = pole_change::at_double_poles(&high);
+            let kh = factors::factors_at(&high, 0, Elec::FUNDAMENTAL)
+                .winding
+                .abs();
+            let kl = factors::factors_at(&low, 0, Elec::FUNDAMENTAL)
+                .winding
+                .abs();
+            Some(SpanAtBoth {
+                span: y,
+                low_speed_winding_factor: kl,
+                high_speed_winding_factor: kh,
+                smaller: kl.min(kh),
+                flux_ratio: (kl > 1e-9).then(|| flux_ratio(pc, kl, kh)),
+            })
+        })
+        .collect()
+}
+
+/// The span whose smaller k_w1 is largest; the shorter of equals (within 1e-12).
+pub fn best_span(spans: &[SpanAtBoth]) -> Option<usize> {
+    let mut best: Option<&SpanAtBoth> = None;
+    for s in spans {
+        if best.is_none_or(|b| s.smaller > b.smaller + 1e-12) {
+            best = Some(s);
+        }
+    }
+    best.map(|b| b.span)
 }

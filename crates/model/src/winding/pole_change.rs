@@ -14,6 +14,14 @@
 
 use super::{Geometry, Winding};
 
+/// Whether `slots` can carry a pole-changing winding for `poles` and twice as many: three
+/// phases, an even pole count, and whole slots per pole and phase at `poles`, so each
+/// phase's two halves (180° apart there) fall at the same electrical places at twice the
+/// poles and both counts balance.
+pub fn fits(slots: usize, poles: usize, phases: usize) -> bool {
+    phases == 3 && poles >= 2 && poles.is_multiple_of(2) && slots.is_multiple_of(phases * poles)
+}
+
 /// `w` (a rotary winding at its own pole count) at twice the poles, with the coils of its
 /// reversed groups turned back, as the series connection of a pole-changing winding
 /// joins them.

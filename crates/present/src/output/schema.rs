@@ -25,6 +25,10 @@ pub fn all() -> Vec<(&'static str, Value)> {
         ("loading", v(schema_for!(LoadingJson))),
         ("size", v(schema_for!(SizingJson))),
         ("speeds", v(schema_for!(super::speeds_report::SpeedsJson))),
+        (
+            "survey-two-speed",
+            v(schema_for!(super::speeds_report::TwoSpeedSurveyJson)),
+        ),
         ("book-find", v(schema_for!(super::book_report::FoundJson))),
         ("book-show", v(schema_for!(super::book_report::RecordJson))),
         // One line of `book dump`: the backup format `book load` reads.

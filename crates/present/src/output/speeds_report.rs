@@ -110,6 +110,40 @@ impl Report for SpeedsReport {
                 c.poles
             ))]));
         }
+        if !self.spans.is_empty() {
+            s.push(Section::Heading("Spans at both speeds".into()));
+            let mut t = Table::new(&[
+                ("span", Align::Right),
+                ("k_w1 lower speed", Align::Right),
+                ("k_w1 higher speed", Align::Right),
+                ("smaller", Align::Right),
+                ("flux ratio", Align::Right),
+                ("", Align::Left),
+            ]);
+            for sp in &self.spans {
+                let mut marks = Vec::new();
+                if self.best_span == Some(sp.span) {
+                    marks.push("best");
+                }
+                if sp.span == self.design.pitch {
+                    marks.push("this layout");
+                }
+                t.push(vec![
+                    sp.span.to_string(),
+                    num(sp.low_speed_winding_factor, 4),
+                    num(sp.high_speed_winding_factor, 4),
+                    num(sp.smaller, 4),
+                    sp.flux_ratio.map_or("-".into(), |r| num(r, 3)),
+                    marks.join(", "),
+                ]);
+            }
+            s.push(Section::Table(t));
+            s.push(Section::Lines(vec![paragraph(
+                "best: the span whose smaller k_w1 is largest, the shorter of equals (our \
+                 criterion: the weaker speed sets the turns and the copper); flux ratio: \
+                 mean gap flux density at the lower speed over the higher's",
+            )]));
+        }
         s.push(Section::Heading("Waves at each speed".into()));
         s.push(Section::Table(waves(lo, &format!("{} poles", lo.poles))));
         s.push(Section::Table(waves(hi, &format!("{} poles", hi.poles))));
@@ -144,6 +178,67 @@ impl Report for SpeedsReport {
                 num(sp.series_turns_per_phase, 1),
                 num(100.0 * sp.thd, 2),
                 num(100.0 * sp.differential_leakage, 3),
+            ]);
+        }
+        t
+    }
+}
+
+/// `survey --pole-change --format json`.
+#[derive(Serialize, JsonSchema)]
+pub struct TwoSpeedSurveyJson<'a> {
+    #[serde(flatten)]
+    opening: Opening,
+    #[serde(flatten)]
+    report: &'a crate::survey::two_speed::TwoSpeedSurvey,
+}
+
+impl Report for crate::survey::two_speed::TwoSpeedSurvey {
+    fn json(&self) -> impl Serialize + '_ {
+        TwoSpeedSurveyJson {
+            opening: Opening::default(),
+            report: self,
+        }
+    }
+
+    fn sections(&self) -> Vec<Section> {
+        let fitting = self.rows.iter().filter(|r| r.fits).count();
+        vec![
+            Section::Heading(format!(
+                "Pole-changing survey (one winding, 1:2, consequent poles): {} combinations, \
+                 {fitting} fit",
+                self.rows.len()
+            )),
+            Section::Lines(vec![paragraph(
+                "poles: lower speed / higher speed; fits: whole slots per pole and phase \
+                     at the higher speed's poles, so both counts balance; span: the span whose \
+                     smaller k_w1 is largest (the shorter of equals, our criterion); \
+                     `beltwright speeds` gives every span of one layout",
+            )]),
+            Section::Table(self.main_table()),
+        ]
+    }
+
+    fn main_table(&self) -> Table {
+        let mut t = Table::new(&[
+            ("slots", Align::Right),
+            ("poles", Align::Right),
+            ("layers", Align::Right),
+            ("fits", Align::Left),
+            ("span", Align::Right),
+            ("k_w1 lower speed", Align::Right),
+            ("k_w1 higher speed", Align::Right),
+        ]);
+        let f = |x: Option<f64>| x.map_or("-".into(), |v| num(v, 4));
+        for r in &self.rows {
+            t.push(vec![
+                r.slots.to_string(),
+                format!("{}/{}", r.low_speed_poles, r.poles),
+                r.layers.to_string(),
+                if r.fits { "yes" } else { "no" }.into(),
+                r.best_span.map_or("-".into(), |s| s.to_string()),
+                f(r.low_speed_winding_factor),
+                f(r.high_speed_winding_factor),
             ]);
         }
         t

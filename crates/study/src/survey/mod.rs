@@ -15,6 +15,7 @@ use serde::Serialize;
 use crate::design::Design;
 use crate::numbering::fraction;
 mod spans;
+pub mod two_speed;
 
 use crate::winding::star::{order_amplitude, roots_of_unity};
 use crate::winding::{
