@@ -275,7 +275,7 @@ fn fan_record(edit: impl Fn(&mut Vec<(String, u64, u64)>)) -> String {
     edit(&mut coils);
     let mut s = std::fs::read_to_string("layouts/fan-two-speed.toml").expect("example");
     s = s.replace(
-        "pitch = 9             # full pitch at 4 poles, half pitch at 2\n",
+        "pitch = 11            # the span whose smaller k_w1 is largest (`beltwright speeds`)\n",
         "",
     );
     for (phase, go, back) in coils {
@@ -339,8 +339,8 @@ fn an_as_found_two_speed_record_is_judged_at_both_speeds() {
     // Two extra coils in phase U half a revolution apart, both forward: their EMFs cancel
     // at 2 poles (180° apart) and add at 4 poles (360°), so only the other speed shows it.
     let (code, a) = audit(&fan_record(|c| {
-        c.push(("U".into(), 1, 10));
-        c.push(("U".into(), 19, 28));
+        c.push(("U".into(), 1, 12));
+        c.push(("U".into(), 19, 30));
     }));
     assert_eq!(code, Some(1));
     assert_eq!(a["balanced"], true, "{:#}", a["findings"]);
@@ -431,4 +431,27 @@ fn the_pole_change_survey_finds_what_fits_and_the_fairest_span() {
         "linear",
     ]);
     assert_eq!(out.status.code(), Some(2));
+}
+
+#[test]
+fn the_winding_factor_warning_judges_both_speeds_and_not_one_pole_pitch() {
+    // k_w1 at 2 poles with span 9 of 18: k_d·sin(45°) = 0.9561·0.7071 = 0.676 < 0.7 (the
+    // closed forms above); at span 11 both counts are above 0.78 and nothing is said, and a
+    // span half the 2-pole pitch is not "far from the pole pitch" for a two-speed winding.
+    let plan = |y: usize| {
+        let f = common::temp_layout(&layout(36, 2, y, "star-double-star"));
+        common::json(&["plan", f.path().to_str().expect("path"), "--format", "json"])
+    };
+    let w = plan(9)["warnings"].clone();
+    let list = w.as_array().expect("warnings");
+    assert_eq!(list.len(), 1, "{w:#}");
+    assert_eq!(list[0]["kind"], "low_winding_factor");
+    assert_eq!(list[0]["poles"], 2);
+    assert!(
+        list[0]["message"]
+            .as_str()
+            .expect("message")
+            .contains("at 2 poles")
+    );
+    assert_eq!(plan(11)["warnings"], serde_json::json!([]));
 }

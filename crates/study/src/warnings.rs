@@ -33,6 +33,9 @@ pub enum DesignWarning {
         winding_factor: f64,
         /// The floor.
         floor: f64,
+        /// A pole-changing winding's pole count at which k_w1 is this low.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        poles: Option<usize>,
     },
     /// An open single-layer primary whose uniform pulsating component exceeds the working
     /// wave.
@@ -50,6 +53,21 @@ pub fn design_warnings(w: &Winding) -> Vec<DesignWarning> {
     let tau = w.geometry.pole_pitch_slots;
     let ratio = w.pitch as f64 / tau;
     let tooth = w.pitch == 1 && w.design.style == Style::Lap;
+    if w.design.pole_change.is_some() {
+        // A pole-changing winding's span is chosen for both pole counts (`speeds` compares
+        // them): no pole pitch of one count judges it; k_w1 is judged at each.
+        let low = crate::winding::pole_change::at_double_poles(w);
+        for (x, kw) in [(w, kw), (&low, factors::fundamental(&low).winding)] {
+            if kw.abs() < KW1_FLOOR {
+                out.push(DesignWarning::LowWindingFactor {
+                    winding_factor: kw.abs(),
+                    floor: KW1_FLOOR,
+                    poles: Some(x.geometry.poles),
+                });
+            }
+        }
+        return out;
+    }
     if !tooth && !(SPAN_BAND.0..=SPAN_BAND.1).contains(&ratio) {
         out.push(DesignWarning::SpanFarFromPolePitch {
             span: w.pitch,
@@ -61,6 +79,7 @@ pub fn design_warnings(w: &Winding) -> Vec<DesignWarning> {
         out.push(DesignWarning::LowWindingFactor {
             winding_factor: kw,
             floor: KW1_FLOOR,
+            poles: None,
         });
     }
     out

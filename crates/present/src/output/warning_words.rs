@@ -28,10 +28,17 @@ impl Words for DesignWarning {
             DesignWarning::LowWindingFactor {
                 winding_factor,
                 floor,
+                poles,
             } => format!(
-                "k_w1 = {} is below {}: most of the copper does no useful work",
+                "k_w1 = {}{} is below {}: most of the copper does no useful work{}",
                 num(*winding_factor, 3),
-                num(*floor, 2)
+                poles.map_or(String::new(), |p| format!(" at {p} poles")),
+                num(*floor, 2),
+                if poles.is_some() {
+                    " at that speed; `beltwright speeds` compares every span at both"
+                } else {
+                    ""
+                }
             ),
             DesignWarning::PulsatingExceedsWorking { ratio } => format!(
                 "the open ends' pulsating field is {} times the working wave: use a double \
