@@ -469,7 +469,8 @@ fn check_connection_counts(name: &str, w: &Winding) {
     );
     let m = w.geometry.phases;
     // A pole-changing winding's sheet has no one-speed diagram (boards, lanes, group
-    // boxes) but a notice in its place (tests/speeds.rs); its schedule is checked here.
+    // boxes) but its halves and speed boards (tests/two_speed_sheet.rs); its schedule is
+    // checked here.
     let diagram = w.design.pole_change.is_none();
     let mut schedule = Vec::new();
     for (n, svg) in pages.iter().enumerate() {

@@ -56,4 +56,21 @@ fn the_report_of_a_recorded_flat_primary_runs_each_analysis_once() {
     for (a, was) in Analysis::OF_A_WINDING.iter().zip(before) {
         assert_eq!(runs(*a) - was, 1, "{a:?} ran {} times", runs(*a) - was);
     }
+
+    // A pole-changing winding adds its two speeds (read by the connection sheet and the
+    // page's "Two speeds" part): worked out once too, with the card beside it.
+    let source = std::fs::read_to_string("layouts/fan-two-speed.toml").expect("example");
+    let fan = build(&parse(&source, "fan-two-speed.toml").expect("layout")).expect("winding");
+    let counted = [Analysis::Speeds, Analysis::Card, Analysis::Plan];
+    let before: Vec<usize> = counted.iter().map(|&a| runs(a)).collect();
+    let study = Study::new(&fan, None);
+    let page = html::document(&study);
+    assert!(page.contains("Two speeds"));
+    let _ = html::parts(&study);
+    for s in Sheet::ALL.into_iter().filter(|s| s.applies(&study)) {
+        let _ = draw::draw(&study, s, &Page::default());
+    }
+    for (a, was) in counted.iter().zip(before) {
+        assert_eq!(runs(*a) - was, 1, "{a:?} ran {} times", runs(*a) - was);
+    }
 }

@@ -58,12 +58,19 @@ fn both_speeds_match_the_closed_forms() {
             close(f(hi, "pitch"), kp_hi, "k_p at the higher speed");
             close(f(lo, "distribution"), kd_lo, "k_d at the lower speed");
             close(f(lo, "pitch"), kp_lo, "k_p at the lower speed");
-            // Balanced at both; the lower speed's sequence reversed, its lines exchanged.
+            // Balanced at both; the lower speed's sequence reversed by nature.
             assert_eq!(hi["balanced"], true);
             assert_eq!(lo["balanced"], true);
             assert_eq!(hi["sequence"], "positive");
             assert_eq!(lo["sequence"], "negative");
-            assert_eq!(r["connections"][0]["lines_exchanged"], true);
+            // The standards' tables turn both speeds the same way: nothing exchanged.
+            for c in 0..2 {
+                assert_eq!(r["connections"][c]["lines_exchanged"], false);
+            }
+            assert_eq!(
+                r["connections"][0]["towards_rising_slots"],
+                r["connections"][1]["towards_rising_slots"]
+            );
             // Series turns: all of a phase at the lower speed, half at the higher.
             let turns = (z * 10 / 3) as f64;
             assert_eq!(lo["series_turns_per_phase"].as_f64(), Some(turns));
@@ -150,7 +157,7 @@ fn the_example_reads_as_a_shop_would_want_it() {
     for want in [
         "4 poles (series star) and 2 poles (double star)",
         "variable torque",
-        "two supply lines are exchanged",
+        "both speeds turn the field the same way",
         "1U + 1V + 1W",
         "CAUTION",
     ] {
@@ -170,6 +177,13 @@ fn what_cannot_change_poles_is_refused_with_what_would() {
             layout(36, 2, 9, "delta-double-star")
                 .replace("pole_change", "connection = \"delta\"\npole_change"),
             "remove winding.connection",
+        ),
+        (
+            format!(
+                "{}\n[measured]\nline_resistance_ohm = [1.0, 1.0, 1.0]\n",
+                layout(36, 2, 9, "delta-double-star")
+            ),
+            "measured.line_resistance_ohm",
         ),
     ];
     for (text, says) in cases {
@@ -235,7 +249,7 @@ fn the_card_gives_the_six_leads_readings_of_both_connections() {
             }
         }
         assert_eq!(d[0]["between"], serde_json::json!(["1U", "1V"]));
-        assert_eq!(d[3]["between"], serde_json::json!(["2U", "2V"]));
+        assert_eq!(d[3]["between"], serde_json::json!(["2U", "2W"]));
         let speeds = six["speeds"].as_array().expect("speeds");
         assert_eq!(speeds[0]["poles"], 4);
         assert_eq!(speeds[1]["poles"], 2);
@@ -274,10 +288,12 @@ fn fan_record(edit: impl Fn(&mut Vec<(String, u64, u64)>)) -> String {
         .collect();
     edit(&mut coils);
     let mut s = std::fs::read_to_string("layouts/fan-two-speed.toml").expect("example");
-    s = s.replace(
-        "pitch = 11            # the span whose smaller k_w1 is largest (`beltwright speeds`)\n",
-        "",
-    );
+    // A coil list takes no span: drop the design's `pitch` line.
+    s = s
+        .lines()
+        .filter(|l| !l.trim_start().starts_with("pitch"))
+        .map(|l| format!("{l}\n"))
+        .collect();
     for (phase, go, back) in coils {
         s.push_str(&format!(
             "\n[[coil]]\nphase = \"{phase}\"\ngo = {go}\nback = {back}\nturns = 14\n"

@@ -7,7 +7,9 @@
 //! The networks here are a winding's sections between its leads: a few nodes, so a dense
 //! elimination is all it needs.
 
-/// Resistors between numbered nodes, with some nodes linked together.
+/// Resistors between numbered nodes, with some nodes linked together. Nodes are numbered
+/// from 0 below the count given to [`Network::new`]; a number beyond it is a programming
+/// error and panics.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Network {
     /// Each node's representative once links are made.
@@ -52,7 +54,8 @@ impl Network {
     }
 
     /// Ohms between nodes `a` and `b`: 0 when they are linked, `None` when no path of
-    /// finite, positive resistances joins them.
+    /// finite, positive resistances joins them. A resistor of 0 Ω (or not finite) counts as
+    /// open, not as a link: links are made with [`Network::linked`].
     pub fn between(&self, a: usize, b: usize) -> Option<f64> {
         let (a, b) = (self.find(a), self.find(b));
         if a == b {
@@ -104,10 +107,12 @@ impl Network {
         let ia = index(a)?;
         g[ia][k] = 1.0;
         // Gaussian elimination with partial pivoting; the matrix is a grounded Laplacian
-        // of a connected network, so it is positive definite.
+        // of a connected network, so it is positive definite. A pivot below 1e-12 of the
+        // largest conductance is taken as singular.
+        let scale = live.iter().map(|&(_, _, r)| 1.0 / r).fold(0.0, f64::max);
         for col in 0..k {
             let piv = (col..k).max_by(|&x, &y| g[x][col].abs().total_cmp(&g[y][col].abs()))?;
-            if g[piv][col].abs() < 1e-300 {
+            if g[piv][col].abs() <= 1e-12 * scale || g[piv][col].is_nan() {
                 return None;
             }
             g.swap(col, piv);

@@ -86,6 +86,9 @@ pub struct SpeedConnection {
     pub open: Vec<String>,
     /// True when two lines are exchanged at this speed so that both speeds turn the same way.
     pub lines_exchanged: bool,
+    /// With L1, L2, L3 in positive sequence as given here, the field runs towards rising
+    /// slot numbers (false: towards falling ones).
+    pub towards_rising_slots: bool,
 }
 
 /// The standards' name of a pole-changing connection (IEC and NEMA usage, from memory).
@@ -208,11 +211,17 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
     let spans = spans_at_both(w);
     let best_span = best_span(&spans);
     let marking = w.design.leads.marking;
-    // Each speed's lines are exchanged when its sequence differs from the other's, at the
-    // lower speed by convention, so both speeds turn the way the higher speed does on
-    // L1, L2, L3.
-    let exchange = low_speed.sequence != high_speed.sequence;
-    let on_board = |board: &pole_change::Board, poles: usize, exchanged: bool| {
+    // Which way each board turns the field: the winding's sequence at that pole count, and
+    // whether the board feeds the phases in order. The standards' tables turn both speeds
+    // the same way; if a winding ever made them differ, two lines are exchanged at the
+    // lower speed so that both turn as the higher speed does.
+    let rising = |board: &pole_change::Board, seq: Option<Sequence>| {
+        (seq == Some(Sequence::Positive)) == pole_change::feeds_in_order(board)
+    };
+    let low_rising = rising(&pole_change::LOW_SPEED, low_speed.sequence);
+    let high_rising = rising(&pole_change::HIGH_SPEED, high_speed.sequence);
+    let exchange = low_rising != high_rising;
+    let on_board = |board: &pole_change::Board, poles: usize, exchanged: bool, rising: bool| {
         let order = if exchanged { [0, 2, 1] } else { [0, 1, 2] };
         let lines = order
             .iter()
@@ -224,7 +233,7 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
             .collect();
         let used: Vec<Lead> = board.lines.iter().chain(board.linked).copied().collect();
         let open = (0..3)
-            .flat_map(|p| [Lead::End(p), Lead::Tap(p)])
+            .flat_map(|p| [Lead::end(p), Lead::tap(p)])
             .filter(|l| !used.contains(l))
             .map(|l| l.name(marking))
             .collect::<Vec<_>>();
@@ -234,11 +243,22 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
             joined: board.linked.iter().map(|l| l.name(marking)).collect(),
             open,
             lines_exchanged: exchanged,
+            towards_rising_slots: rising != exchanged,
         }
     };
     let connections = vec![
-        on_board(&pole_change::LOW_SPEED, low_speed.poles, exchange),
-        on_board(&pole_change::HIGH_SPEED, high_speed.poles, false),
+        on_board(
+            &pole_change::LOW_SPEED,
+            low_speed.poles,
+            exchange,
+            low_rising,
+        ),
+        on_board(
+            &pole_change::HIGH_SPEED,
+            high_speed.poles,
+            false,
+            high_rising,
+        ),
     ];
     Ok(SpeedsReport {
         design: header::of(w),

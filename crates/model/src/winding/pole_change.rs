@@ -41,8 +41,9 @@ pub fn at_double_poles(w: &Winding) -> Winding {
 
 /// The six leads of a pole-changing winding, as network nodes: the three ends of the series
 /// connection (`End`, marked 1U 1V 1W or T1 T2 T3: the lower speed's line leads) and the
-/// three taps between each phase's halves (`Tap`, 2U 2V 2W or T4 T5 T6). A star-connected
-/// winding has its star point inside as a seventh node.
+/// three taps between each phase's halves (`Tap`, 2U 2W 2V or T4 T6 T5 for phases U, V,
+/// W: see [`Lead::name`]). A star-connected winding has its star point inside as a seventh
+/// node. Build them with [`Lead::end`] and [`Lead::tap`], which keep the phase in 0..3.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Lead {
     /// The end of phase `0..3`'s series connection.
@@ -52,6 +53,23 @@ pub enum Lead {
 }
 
 impl Lead {
+    /// The end of phase `p` (taken modulo 3).
+    pub const fn end(p: usize) -> Lead {
+        Lead::End(p % 3)
+    }
+
+    /// The tap of phase `p` (taken modulo 3).
+    pub const fn tap(p: usize) -> Lead {
+        Lead::Tap(p % 3)
+    }
+
+    /// The phase the lead belongs to.
+    pub fn phase(self) -> usize {
+        match self {
+            Lead::End(p) | Lead::Tap(p) => p % 3,
+        }
+    }
+
     /// Node number in [`six_leads`]: ends 0..3, taps 3..6 (the star point is 6).
     pub fn node(self) -> usize {
         match self {
@@ -60,17 +78,22 @@ impl Lead {
         }
     }
 
-    /// The lead's marking: IEC 60034-8's 1U 1V 1W / 2U 2V 2W (the number rises with the
-    /// speed), NEMA's T1 T2 T3 / T4 T5 T6 for one-winding two-speed motors (both from
-    /// memory; each tap numbered after its own phase, our convention).
+    /// The lead's marking. The standards' connection tables for one-winding two-speed
+    /// motors put L1, L2, L3 on 1U, 1V, 1W (NEMA T1, T2, T3) at the lower speed and on 2W,
+    /// 2U, 2V (T6, T4, T5) at the higher (IEC 60034-8 and NEMA MG 1, from memory; repair
+    /// handbooks print the same tables). The lower speed's sequence is negative (every angle
+    /// doubles: V, 120° after U, is 240° after it), so for both tables to turn the field the
+    /// same way the higher one must feed the phases in odd order: the taps are named so,
+    /// phase U's tap 2U (T4), phase V's 2W (T6), phase W's 2V (T5). `tests/two_speed_sheet.rs`
+    /// checks the rotation from the sheet alone.
     pub fn name(self, marking: crate::design::Marking) -> String {
-        let (speed, p) = match self {
+        let (speed, letter) = match self {
             Lead::End(p) => (1, p % 3),
-            Lead::Tap(p) => (2, p % 3),
+            Lead::Tap(p) => (2, [0, 2, 1][p % 3]),
         };
         match marking {
-            crate::design::Marking::Iec => format!("{speed}{}", ["U", "V", "W"][p]),
-            crate::design::Marking::Nema => format!("T{}", 3 * (speed - 1) + p + 1),
+            crate::design::Marking::Iec => format!("{speed}{}", ["U", "V", "W"][letter]),
+            crate::design::Marking::Nema => format!("T{}", 3 * (speed - 1) + letter + 1),
         }
     }
 }
@@ -79,25 +102,35 @@ impl Lead {
 /// there (the rest are left open, each insulated apart).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Board {
-    /// The leads of L1, L2, L3, before any exchange for the direction of rotation.
+    /// The leads of L1, L2, L3 (the standards' table; `speeds` exchanges two only if the
+    /// computed rotations differ, which these tables never give).
     pub lines: [Lead; 3],
-    /// The leads linked into the double star's second star point (none at the lower speed).
+    /// The leads linked together (the higher speed's ends: its second star point in star /
+    /// double star, its only one in delta / double star).
     pub linked: &'static [Lead],
 }
 
-/// The lower speed (twice the poles): the lines on the ends, the halves of each phase in
+/// The lower speed (twice the poles): L1, L2, L3 on 1U, 1V, 1W, the halves of each phase in
 /// series, the taps open.
 pub const LOW_SPEED: Board = Board {
-    lines: [Lead::End(0), Lead::End(1), Lead::End(2)],
+    lines: [Lead::end(0), Lead::end(1), Lead::end(2)],
     linked: &[],
 };
 
-/// The higher speed (the poles as laid out): the lines on the taps, the ends linked, so each
-/// phase's halves run in parallel from its tap, one of them backwards: a double star.
+/// The higher speed (the poles as laid out): L1, L2, L3 on 2W, 2U, 2V (the taps of phases
+/// V, U, W), the ends linked, so each phase's halves run in parallel from its tap, one of
+/// them backwards: a double star.
 pub const HIGH_SPEED: Board = Board {
-    lines: [Lead::Tap(0), Lead::Tap(1), Lead::Tap(2)],
-    linked: &[Lead::End(0), Lead::End(1), Lead::End(2)],
+    lines: [Lead::tap(1), Lead::tap(0), Lead::tap(2)],
+    linked: &[Lead::end(0), Lead::end(1), Lead::end(2)],
 };
+
+/// True when L1, L2, L3 in positive sequence on `board` feed the phases in positive order
+/// (U, V, W or a cyclic shift of it).
+pub fn feeds_in_order(board: &Board) -> bool {
+    let p = board.lines.map(Lead::phase);
+    (p[1] + 3 - p[0]) % 3 == 1 && (p[2] + 3 - p[1]) % 3 == 1
+}
 
 /// Each phase's halves between the leads: (phase, reversed, from, to), `None` being the
 /// star point. The reversed half (the groups [`at_double_poles`] turns back) runs from the
@@ -108,15 +141,15 @@ pub fn six_leads_halves(
 ) -> [(usize, bool, Option<Lead>, Option<Lead>); 6] {
     use crate::design::PoleChange;
     let on = |p: usize| match connection {
-        PoleChange::DeltaDoubleStar => Some(Lead::End((p + 1) % 3)),
+        PoleChange::DeltaDoubleStar => Some(Lead::end(p + 1)),
         PoleChange::StarDoubleStar => None,
     };
     let half = |k: usize| {
         let p = k / 2;
         if k.is_multiple_of(2) {
-            (p, true, Some(Lead::End(p)), Some(Lead::Tap(p)))
+            (p, true, Some(Lead::end(p)), Some(Lead::tap(p)))
         } else {
-            (p, false, Some(Lead::Tap(p)), on(p))
+            (p, false, Some(Lead::tap(p)), on(p))
         }
     };
     [half(0), half(1), half(2), half(3), half(4), half(5)]

@@ -31,6 +31,9 @@ pub struct Lane {
     pub start: LaneEnd,
     /// Where it finishes.
     pub finish: LaneEnd,
+    /// On a pole-changing winding, whether this half is the reversed one (its current
+    /// reverses between the speeds); `None` for a path.
+    pub reversed_half: Option<bool>,
 }
 
 /// Where a lane starts or finishes.
@@ -63,6 +66,7 @@ pub fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<Lane> {
                     .collect(),
                 start: end(start),
                 finish: end(finish),
+                reversed_half: Some(reversed),
             });
         }
         return out;
@@ -81,6 +85,7 @@ pub fn lanes(w: &Winding, groups: &[CoilGroup]) -> Vec<Lane> {
                 groups: gs,
                 start: LaneEnd::Path,
                 finish: LaneEnd::Path,
+                reversed_half: None,
             });
         }
     }

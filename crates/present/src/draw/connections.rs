@@ -426,7 +426,7 @@ fn diagram_height(
     width: f64,
 ) -> f64 {
     if w.design.pole_change.is_some() {
-        return super::two_speed::height(width);
+        return super::two_speed::height(w, groups, width);
     }
     boards_height(w, scheme, width) + lanes_height(w, groups, width)
 }
@@ -488,10 +488,12 @@ fn diagram_scale(
     height: f64,
 ) -> f64 {
     if w.design.pole_change.is_some() {
-        // Drawn at printed size when it fits, else not beside the schedule.
-        let fits =
-            width >= super::two_speed::MIN_WIDTH && super::two_speed::height(width) <= height;
-        return if fits { 1.0 } else { 0.0 };
+        // Drawn at printed size only: how nearly it fits, so the page gives it the room
+        // (fewer schedule columns beside it) where it does not.
+        let need_h = super::two_speed::height(w, groups, width);
+        return (width / super::two_speed::MIN_WIDTH)
+            .min(height / need_h)
+            .clamp(0.0, 1.0);
     }
     arrangement(w, scheme, groups, width, height).scale
 }

@@ -14,7 +14,7 @@ use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use crate::design::PoleChange;
 use crate::speeds::{Joined, SpeedConnection, SpeedsError, SpeedsReport};
-use crate::winding::pole_change::{Lead, six_leads_halves};
+use crate::winding::pole_change::{self, Lead, six_leads_halves};
 use crate::winding::schedule::lanes;
 use crate::winding::{CoilGroup, Winding};
 
@@ -110,16 +110,18 @@ fn board(
     }
     let row_end = y + 22.0;
     let row_tap = y + 34.0;
-    let col = |p: usize| x + 9.0 + PITCH * p as f64;
+    let col = |j: usize| x + 9.0 + PITCH * j as f64;
+    // The block as the standards' tables read: the lower speed's line leads in the upper
+    // row, the higher speed's in the lower, each in the order L1, L2, L3 take them.
+    let rows = [
+        (pole_change::LOW_SPEED.lines, row_end, true),
+        (pole_change::HIGH_SPEED.lines, row_tap, false),
+    ];
     let place = |name: &str| -> Option<(f64, f64, bool)> {
-        (0..3).find_map(|p| {
-            if Lead::End(p).name(marking) == name {
-                Some((col(p), row_end, true))
-            } else if Lead::Tap(p).name(marking) == name {
-                Some((col(p), row_tap, false))
-            } else {
-                None
-            }
+        rows.iter().find_map(|(leads, y, upper)| {
+            (0..3)
+                .find(|&j| leads[j].name(marking) == name)
+                .map(|j| (col(j), *y, *upper))
         })
     };
     // Links first, under the terminals.
@@ -135,11 +137,10 @@ fn board(
                 .set("fill", "#555555"),
         );
     }
-    for p in 0..3 {
-        for lead in [Lead::End(p), Lead::Tap(p)] {
+    for (leads, ty, _) in &rows {
+        for (j, lead) in leads.iter().enumerate() {
             let name = lead.name(marking);
-            let (tx, ty, _) = place(&name).unwrap_or((col(p), row_end, true));
-            g = g.add(terminal(tx, ty, &name, c.open.contains(&name)));
+            g = g.add(terminal(col(j), *ty, &name, c.open.contains(&name)));
         }
     }
     for l in &c.lines {
@@ -235,7 +236,7 @@ fn schematic(
         );
     }
     for p in 0..3 {
-        for lead in [Lead::End(p), Lead::Tap(p)] {
+        for lead in [Lead::end(p), Lead::tap(p)] {
             let (x, y) = at(Some(lead));
             g = g.add(
                 Circle::new()
@@ -259,7 +260,7 @@ fn schematic(
                 }
                 // A star's taps: on the side of the arm away from the halves' labels.
                 (Lead::Tap(q), PoleChange::StarDoubleStar) => {
-                    let n = normal(at(Some(Lead::End(q))), at(Some(Lead::Tap(q))));
+                    let n = normal(at(Some(Lead::end(q))), at(Some(Lead::tap(q))));
                     (-4.5 * n.0, -4.5 * n.1)
                 }
             };
@@ -292,15 +293,105 @@ fn joined_words(j: Joined) -> &'static str {
     }
 }
 
-/// Height the drawing needs at `width`, mm.
-pub fn height(width: f64) -> f64 {
-    let boards_beside = width >= 2.0 * BOARD_W + 80.0;
-    let body = if boards_beside {
-        BOARD_H + 10.0
+/// Whether the boards stand side by side (else one above the other) at `width`.
+fn boards_beside(width: f64) -> bool {
+    width >= 2.0 * RADIUS + 22.0 + 2.0 * BOARD_W + 8.0
+}
+
+/// Height of the boards' band, mm.
+fn boards_height(width: f64) -> f64 {
+    if boards_beside(width) {
+        BOARD_H + 14.0
     } else {
-        2.0 * (BOARD_H + 12.0)
+        2.0 * (BOARD_H + 12.0) + 2.0
+    }
+}
+
+/// The notes under the drawing, wrapped to `width`: each half from its tap, the rotation,
+/// and the cautions of a two-speed board. Without the report, room for the longer
+/// rotation note.
+fn notes(
+    w: &Winding,
+    groups: &[CoilGroup],
+    report: Option<&SpeedsReport>,
+    width: f64,
+) -> Vec<String> {
+    let marking = w.design.leads.marking;
+    let mut notes = Vec::new();
+    for lane in lanes(w, groups) {
+        let reversed = lane.reversed_half.unwrap_or(false);
+        let through = if lane.groups.is_empty() {
+            "no groups".to_string()
+        } else {
+            group_list(&lane.groups.iter().map(|i| i + 1).collect::<Vec<_>>())
+        };
+        notes.push(format!(
+            "Half {}{}: from {} through {} to {}{}.",
+            w.label(lane.phase),
+            if reversed { "-" } else { "+" },
+            lane_terminal(w, &lane, 1),
+            through,
+            lane_terminal(w, &lane, 2),
+            if reversed {
+                " (its current reverses between the speeds)"
+            } else {
+                ""
+            },
+        ));
+    }
+    let exchanged = report.and_then(|r| r.connections.iter().find(|c| c.lines_exchanged));
+    match (report, exchanged) {
+        (_, Some(c)) => notes.push(format!(
+            "At {} poles two lines are exchanged on the board (as drawn) so that both speeds \
+             turn the same way.",
+            c.poles
+        )),
+        (Some(_), None) => notes.push(
+            "With L1, L2, L3 in order both boards turn the field the same way; to reverse it, \
+             exchange the same two lines at both speeds."
+                .into(),
+        ),
+        (None, None) => notes.push(
+            "At 00 poles two lines are exchanged on the board (as drawn) so that both speeds \
+             turn the same way; to reverse, exchange the same two lines at both speeds."
+                .into(),
+        ),
+    }
+    let ends: Vec<String> = (0..3).map(|p| Lead::end(p).name(marking)).collect();
+    notes.push(format!(
+        "Never link {} while the lines are on them: that shorts the supply. The speed switch \
+         must break one board before it makes the other.",
+        ends.join(", ")
+    ));
+    notes.push(
+        "Leads left open are live while the motor runs: insulate each one apart from the \
+         others and from earth."
+            .into(),
+    );
+    notes
+        .iter()
+        .flat_map(|n| text::wrap(n, SIZE, width - 2.0))
+        .collect()
+}
+
+/// Height the drawing needs at `width`, mm: the heading, the boards and the notes.
+pub fn height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
+    let head = text::wrap(&heading(w), 3.1, width - 2.0).len() as f64 * LINE;
+    4.0 + head + boards_height(width) + notes(w, groups, None, width).len() as f64 * LINE
+}
+
+/// The drawing's first line.
+fn heading(w: &Winding) -> String {
+    let poles = w.geometry.poles;
+    let (kind, duty) = match w.design.pole_change {
+        Some(PoleChange::DeltaDoubleStar) => ("delta / double star", "constant torque"),
+        _ => ("star / double star", "variable torque"),
     };
-    12.0 + body + 8.0 * LINE
+    format!(
+        "POLE-CHANGING WINDING, {} and {poles} poles ({kind}, {duty}): connect each speed \
+         only as drawn.",
+        2 * poles
+    )
 }
 
 /// The two-speed connection drawn in `at`.
@@ -311,21 +402,12 @@ pub fn connection(
     pal: &Palette,
     at: Rect,
 ) -> Group {
-    let poles = w.geometry.poles;
     let mut g = Group::new().set("class", "two-speed");
     let Some(pc) = w.design.pole_change else {
         return g;
     };
-    let (kind, duty) = match pc {
-        PoleChange::DeltaDoubleStar => ("delta / double star", "constant torque"),
-        PoleChange::StarDoubleStar => ("star / double star", "variable torque"),
-    };
-    let head = format!(
-        "POLE-CHANGING WINDING, {} and {poles} poles ({kind}, {duty}): connect each speed only as drawn.",
-        2 * poles
-    );
     let mut y = at.y + 4.0;
-    for l in text::wrap(&head, 3.1, at.w - 2.0) {
+    for l in text::wrap(&heading(w), 3.1, at.w - 2.0) {
         g = g.add(label(at.x, y, 3.1, Anchor::Start, &l));
         y += LINE;
     }
@@ -350,7 +432,7 @@ pub fn connection(
     g = g.add(schematic(w, groups, pc, pal, cx, cy, radius));
     let marking = w.design.leads.marking;
     let speeds = [&report.low_speed, &report.high_speed];
-    let beside = at.w >= 2.0 * BOARD_W + 80.0;
+    let beside = boards_beside(at.w);
     for (k, (c, s)) in report.connections.iter().zip(speeds).enumerate() {
         let name = if k == 0 {
             "LOWER SPEED"
@@ -377,47 +459,10 @@ pub fn connection(
         };
         g = g.add(board(c, &heading, marking, bx, by));
     }
-    y += if beside {
-        BOARD_H + 14.0
-    } else {
-        2.0 * (BOARD_H + 12.0) + 2.0
-    };
-    let mut notes = Vec::new();
-    for lane in lanes(w, groups) {
-        let reversed = lane.groups.first().is_some_and(|&i| groups[i].polarity < 0);
-        notes.push(format!(
-            "Half {}{}: from {} through {} to {}{}.",
-            w.label(lane.phase),
-            if reversed { "-" } else { "+" },
-            lane_terminal(w, &lane, 1),
-            group_list(&lane.groups.iter().map(|i| i + 1).collect::<Vec<_>>()),
-            lane_terminal(w, &lane, 2),
-            if reversed {
-                " (its current reverses between the speeds)"
-            } else {
-                ""
-            },
-        ));
-    }
-    if let Some(c) = report.connections.iter().find(|c| c.lines_exchanged) {
-        notes.push(format!(
-            "At {} poles two lines are exchanged on the board (as drawn) so that both speeds turn the same way.",
-            c.poles
-        ));
-    }
-    let ends: Vec<String> = (0..3).map(|p| Lead::End(p).name(marking)).collect();
-    notes.push(format!(
-        "Never link {} while the lines are on them: that shorts the supply. The speed switch must break one board before it makes the other.",
-        ends.join(", ")
-    ));
-    notes.push(
-        "Leads left open at a speed are insulated apart from each other and from earth.".into(),
-    );
-    for n in notes {
-        for l in text::wrap(&n, SIZE, at.w - 2.0) {
-            g = g.add(label(at.x, y, SIZE, Anchor::Start, &l));
-            y += LINE;
-        }
+    y += boards_height(at.w);
+    for l in notes(w, groups, Some(report), at.w) {
+        g = g.add(label(at.x, y, SIZE, Anchor::Start, &l));
+        y += LINE;
     }
     g
 }

@@ -66,7 +66,7 @@ impl Report for AuditReport {
         if let Some(o) = &self.other_speed {
             head.push(paragraph(&format!(
                 "at {} poles, the other speed (halves in series{}): balanced {}; sequence {}; \
-                 backward field {}% of forward, magnitudes spread {}%",
+                 the other rotating wave {}% of the working one, magnitudes spread {}%",
                 o.poles,
                 if o.after_fix {
                     ", with the fix made"
@@ -80,7 +80,7 @@ impl Report for AuditReport {
                         "negative, as consequent poles give it (two lines are exchanged on that \
                          speed's board)",
                 },
-                num(o.backward_percent, 2),
+                num(o.minor_wave_percent, 2),
                 num(o.magnitude_spread_percent, 2),
             )));
         }

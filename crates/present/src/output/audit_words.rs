@@ -291,14 +291,20 @@ fn balance_words(f: &Fact) -> String {
             .into(),
         Fact::UnbalancedAtOtherSpeed {
             poles,
-            backward_percent,
+            after_fix,
+            minor_wave_percent,
             spread_percent,
         } => format!(
-            "balanced as laid out but not at {poles} poles, the other speed (backward field {}% \
-             of forward, magnitudes spread {}%): a coil or group sits where the halves in \
+            "{} not at {poles} poles, the other speed (the other rotating wave {}% of the \
+             working one, magnitudes spread {}%): a coil or group sits where the halves in \
              series do not repeat at the higher pole count; compare the record with the \
              design slot by slot (audit --intended)",
-            num(*backward_percent, 2),
+            if *after_fix {
+                "with the fix above made, balanced as laid out but"
+            } else {
+                "balanced as laid out but"
+            },
+            num(*minor_wave_percent, 2),
             num(*spread_percent, 2),
         ),
         Fact::Unbalanced {

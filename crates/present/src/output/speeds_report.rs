@@ -104,10 +104,22 @@ impl Report for SpeedsReport {
         s.push(Section::Table(t));
         if let Some(c) = self.connections.iter().find(|c| c.lines_exchanged) {
             s.push(Section::Lines(vec![paragraph(&format!(
-                "at {} poles the phase sequence of the winding is reversed (the nature of the \
-                 consequent-pole connection), so two supply lines are exchanged there, as \
-                 above, for both speeds to turn the same way",
+                "at {} poles two supply lines are exchanged, as above, for both speeds to turn \
+                 the same way",
                 c.poles
+            ))]));
+        } else if let Some(c) = self.connections.first() {
+            s.push(Section::Lines(vec![paragraph(&format!(
+                "with L1, L2, L3 in order as above, both speeds turn the field the same way \
+                 (towards {} slot numbers): the lower speed's phase sequence is reversed by \
+                 nature (every angle doubles) and the higher speed's table feeds the taps in \
+                 the order that matches it; to reverse the motor, exchange the same two \
+                 lines at both speeds",
+                if c.towards_rising_slots {
+                    "rising"
+                } else {
+                    "falling"
+                }
             ))]));
         }
         if !self.spans.is_empty() {

@@ -70,8 +70,9 @@ impl Words for CardWarning {
             }
             CardWarning::PoleChanging { poles } => format!(
                 "a pole-changing winding ({} and {poles} poles): no single-speed lead table or \
-                 line resistance here; the six leads' readings are under 'Six leads', and how \
-                 to connect each speed is on the connection sheet and in `beltwright speeds`",
+                 line resistance here; the readings between the six leads are under 'Six \
+                 leads' (when the wire and the core's sizes are given), and how to connect \
+                 each speed is on the connection sheet and in `beltwright speeds`",
                 2 * poles
             ),
             CardWarning::PathWithoutCoils { phase, path, paths } => {

@@ -201,8 +201,11 @@ pub enum Fact {
     UnbalancedAtOtherSpeed {
         /// Poles at the other speed.
         poles: usize,
-        /// Backward field there, per cent of the larger wave.
-        backward_percent: f64,
+        /// Judged with the audit's fix made (the record as found is unbalanced as laid
+        /// out).
+        after_fix: bool,
+        /// The smaller of the two rotating waves there, per cent of the larger.
+        minor_wave_percent: f64,
         /// Spread of the phase magnitudes there, per cent.
         spread_percent: f64,
     },

@@ -853,8 +853,9 @@ pub struct OtherSpeed {
     /// Their sequence (negative is what consequent poles give: two lines are exchanged on
     /// that speed's board).
     pub sequence: Sequence,
-    /// Backward field there, per cent of the larger wave.
-    pub backward_percent: f64,
+    /// The smaller of the forward and backward waves there, per cent of the larger (the
+    /// sequence is negative there by nature, so the working wave is the backward one).
+    pub minor_wave_percent: f64,
     /// Spread of the phase magnitudes there, per cent.
     pub magnitude_spread_percent: f64,
 }
@@ -879,7 +880,7 @@ fn other_speed(w: &Winding, fixed: &Winding) -> Option<(OtherSpeed, Option<Findi
         after_fix,
         balanced: d.is_balanced(),
         sequence: b.sequence,
-        backward_percent: pct(b.backward.min(b.forward), b.forward.max(b.backward)),
+        minor_wave_percent: pct(b.backward.min(b.forward), b.forward.max(b.backward)),
         magnitude_spread_percent: b.spread,
     };
     let finding = (!other.balanced).then(|| Finding {
@@ -889,7 +890,8 @@ fn other_speed(w: &Winding, fixed: &Winding) -> Option<(OtherSpeed, Option<Findi
         phases: Vec::new(),
         detail: Fact::UnbalancedAtOtherSpeed {
             poles: other.poles,
-            backward_percent: other.backward_percent,
+            after_fix,
+            minor_wave_percent: other.minor_wave_percent,
             spread_percent: other.magnitude_spread_percent,
         },
     });

@@ -317,18 +317,22 @@ pub fn path_resistances(w: &Winding) -> Option<Vec<Vec<f64>>> {
     let m = w.geometry.phases;
     let a = w.parallel_paths.max(1);
     if let Some(wire) = w.design.wire.as_ref().map(Wire::of) {
-        let rho = metal(wire.material).resistivity_ohm_m;
-        let area = wire.conductor_area_m2();
         let mut r = vec![vec![0.0; a]; m];
         for c in &w.coils {
-            let l = mean_turn_m(w, w.span(c).unsigned_abs() as f64)?;
-            r[c.phase][c.path.min(a - 1)] += rho * c.turns as f64 * l / area;
+            r[c.phase][c.path.min(a - 1)] += coil_resistance_20c(w, c, &wire)?;
         }
         return Some(r);
     }
     w.design
         .phase_resistance_ohm
         .map(|rp| vec![vec![rp * a as f64; a]; m])
+}
+
+/// Resistance at 20 °C of coil `c` wound with `wire`: ρ·N·l_mt/A, with the mean turn of
+/// its span ([`mean_turn_m`]); `None` without the sizes a mean turn needs.
+pub fn coil_resistance_20c(w: &Winding, c: &crate::winding::Coil, wire: &Wire) -> Option<f64> {
+    let l = mean_turn_m(w, w.span(c).unsigned_abs() as f64)?;
+    Some(metal(wire.material).resistivity_ohm_m * f64::from(c.turns) * l / wire.conductor_area_m2())
 }
 
 /// Phase resistances at 20 °C (each phase's paths in parallel), ohms; `None` when a phase

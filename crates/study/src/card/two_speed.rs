@@ -43,7 +43,8 @@ pub struct SpeedReadings {
     pub poles: usize,
     /// The leads linked on this board.
     pub linked: Vec<String>,
-    /// Between the line leads L1–L2, L2–L3, L3–L1 (before any exchange of lines).
+    /// Between the leads the board puts L1 and L2, L2 and L3, L3 and L1 on (the standards'
+    /// table, before any exchange of lines).
     pub lines: Vec<LeadReading>,
 }
 
@@ -70,14 +71,10 @@ pub fn six_leads(w: &Winding) -> Option<SixLeads> {
     }
     let (mut rev, mut fwd) = ([0.0; 3], [0.0; 3]);
     if let Some(wire) = w.design.wire.as_ref().map(crate::wire::Wire::of) {
-        let rho = crate::wire::metal(wire.material).resistivity_ohm_m;
-        let area = wire.conductor_area_m2();
         for c in &w.coils {
-            let span = w.span(c);
-            let l = super::mean_turn_m(w, span.unsigned_abs() as f64)?;
-            let r = rho * f64::from(c.turns) * l / area;
-            let half = if span < 0 { &mut rev } else { &mut fwd };
-            half[c.phase.min(2)] += r;
+            let r = super::coil_resistance_20c(w, c, &wire)?;
+            let half = if w.span(c) < 0 { &mut rev } else { &mut fwd };
+            half[c.phase % 3] += r;
         }
     } else {
         // A phase resistance given without wire: each half is half of it.
@@ -97,13 +94,13 @@ pub fn six_leads(w: &Winding) -> Option<SixLeads> {
     };
     let mut delivered = Vec::new();
     for p in 0..3 {
-        delivered.push(reading(&net, Lead::End(p), Lead::End(p + 1))?);
+        delivered.push(reading(&net, Lead::end(p), Lead::end(p + 1))?);
     }
     for p in 0..3 {
-        delivered.push(reading(&net, Lead::Tap(p), Lead::Tap(p + 1))?);
+        delivered.push(reading(&net, Lead::tap(p), Lead::tap(p + 1))?);
     }
     for p in 0..3 {
-        delivered.push(reading(&net, Lead::End(p), Lead::Tap(p))?);
+        delivered.push(reading(&net, Lead::end(p), Lead::tap(p))?);
     }
     let on = |board: &Board, poles: usize| -> Option<SpeedReadings> {
         let nodes: Vec<usize> = board.linked.iter().map(|l| l.node()).collect();
