@@ -435,6 +435,18 @@ fn the_pole_change_survey_finds_what_fits_and_the_fairest_span() {
     }
     // 24..=48 holds multiples of 6 (2 poles): 5, of 12: 3, of 18: 1, of 24: 2.
     assert_eq!(fitting, 11);
+    // A survey past its work bound is refused with what would do, not left to run for
+    // minutes (600..=1200 slots at 2 and 4 poles is 5.1e7 of the 1e8 allowed).
+    let out = common::run(&[
+        "survey",
+        "--slots",
+        "12..=5000",
+        "--poles",
+        "2",
+        "--pole-change",
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("narrow --slots or --poles"));
     // A flat primary or another phase count is refused with the reason.
     let out = common::run(&[
         "survey",

@@ -570,6 +570,15 @@ fn survey(a: SurveyArgs) -> Result<Printed, Failure> {
                     .to_string(),
             ));
         }
+        let work = survey::two_speed::work(&query);
+        if work > survey::two_speed::MAX_WORK {
+            return Err(Failure::input(format!(
+                "this survey would synthesize {} span-slots (every span of every fitting \
+                 combination); at most {} in one survey; narrow --slots or --poles",
+                beltwright::numbering::short(work),
+                beltwright::numbering::short(survey::two_speed::MAX_WORK)
+            )));
+        }
         let mut report = survey::two_speed::two_speed(&query);
         if a.feasible {
             report.rows.retain(|r| r.fits);
