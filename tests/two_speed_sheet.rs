@@ -12,13 +12,15 @@
 //! must then make one rotating wave at its own pole pairs (the other direction's wave
 //! vanishes, a balanced winding's property: any machines text, e.g. Say, *Alternating
 //! Current Machines*, ch. on the rotating field), both speeds must turn the same way, and
-//! no line may be linked to another.
+//! no line may be linked to another. The winding schedule (the rows a winder joins coils
+//! by) must end each half where the drawing puts its end.
 
 use std::collections::BTreeMap;
 use std::f64::consts::PI;
 
 use beltwright::draw::{self, Page, Sheet};
 use beltwright::layout;
+use beltwright::winding::schedule::FinishTo;
 use beltwright::winding::{self, Winding, coil_groups};
 use num_complex::Complex64 as C;
 
@@ -210,6 +212,31 @@ fn check(src: &str, name: &str) {
         .iter()
         .map(|(_, l)| l.as_str())
         .collect();
+    // The schedule the winder follows ends each half where the drawing says: the last coil
+    // of a half's last group goes to the half's end lead (or the star point), every other
+    // group of the half to the next one.
+    let rows = winding::schedule::schedule(&w, &groups);
+    for h in &halves {
+        let end = if taps.iter().any(|t| *t == h.from) {
+            &h.to
+        } else {
+            &h.from
+        };
+        for (k, g) in h.groups.iter().enumerate() {
+            let last = rows
+                .iter()
+                .rfind(|r| r.group.get() == *g)
+                .unwrap_or_else(|| panic!("{name}: group {g} not in the schedule"));
+            match (&last.finish_to, h.groups.get(k + 1)) {
+                (FinishTo::Group { group, .. }, Some(next)) => {
+                    assert_eq!(group.get(), *next, "{name}: G{g} joins the wrong group")
+                }
+                (FinishTo::SixLead { lead }, None) => assert_eq!(lead, end, "{name}: G{g}"),
+                (FinishTo::StarPoint, None) => assert_eq!(end, "star point", "{name}: G{g}"),
+                (other, next) => panic!("{name}: G{g} finishes to {other:?}, next {next:?}"),
+            }
+        }
+    }
     let mut turning = Vec::new();
     for b in &boards {
         // Every lead is on a line, linked or open, and only one of these.
