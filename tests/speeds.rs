@@ -146,6 +146,28 @@ fn a_span_off_the_higher_counts_pole_pitch_leaves_even_orders() {
 }
 
 #[test]
+fn the_span_tables_second_order_is_the_fields() {
+    // The span table's order 2 (from the winding factor, 100·k_w2/(2·k_w1)) against the
+    // field's own spectrum at the lower speed (the MMF staircase's Fourier series, worked
+    // out apart from the factors), for every span of two cores.
+    for (z, p) in [(36usize, 2usize), (48, 4)] {
+        let table = speeds(&layout(z, p, z / (2 * p), "star-double-star"));
+        for row in table["spans"].as_array().expect("spans") {
+            let y = row["span"].as_u64().expect("span") as usize;
+            if row["low_speed_winding_factor"].as_f64().expect("k") < 1e-6 {
+                continue;
+            }
+            let field = 100.0 * second(&speeds(&layout(z, p, y, "star-double-star")));
+            let got = row["low_speed_second_percent"].as_f64().expect("order 2");
+            assert!(
+                (got - field).abs() < 1e-9,
+                "{z}/{p} span {y}: {got} against {field}"
+            );
+        }
+    }
+}
+
+#[test]
 fn the_example_reads_as_a_shop_would_want_it() {
     let out = common::run(&["speeds", "layouts/fan-two-speed.toml"]);
     assert!(out.status.success());

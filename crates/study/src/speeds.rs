@@ -112,6 +112,10 @@ pub struct SpanAtBoth {
     pub high_speed_winding_factor: f64,
     /// The smaller of the two: what the span is chosen by.
     pub smaller: f64,
+    /// The lower speed's MMF wave of order 2, per cent of its working wave:
+    /// 100·|k_w2|/(2·|k_w1|) (a wave's amplitude goes as k_wν/ν; order 2 is no multiple of
+    /// 3, so three balanced phases keep it). Zero at the lower speed's full pitch.
+    pub low_speed_second_percent: f64,
     /// Mean gap flux density at the lower speed over that at the higher, for the
     /// connection, at this span; `None` where the lower speed has no fundamental.
     pub flux_ratio: Option<f64>,
@@ -302,11 +306,17 @@ pub fn spans_at_both(w: &Winding) -> Vec<SpanAtBoth> {
             let kl = factors::factors_at(&low, 0, Elec::FUNDAMENTAL)
                 .winding
                 .abs();
+            let k2 = factors::factors_at(&low, 0, Elec(2.0)).winding.abs();
             Some(SpanAtBoth {
                 span: y,
                 low_speed_winding_factor: kl,
                 high_speed_winding_factor: kh,
                 smaller: kl.min(kh),
+                low_speed_second_percent: if kl > 1e-9 {
+                    100.0 * k2 / (2.0 * kl)
+                } else {
+                    0.0
+                },
                 flux_ratio: (kl > 1e-9).then(|| flux_ratio(pc, kl, kh)),
             })
         })

@@ -129,6 +129,7 @@ impl Report for SpeedsReport {
                 ("k_w1 lower speed", Align::Right),
                 ("k_w1 higher speed", Align::Right),
                 ("smaller", Align::Right),
+                ("order 2 % lower speed", Align::Right),
                 ("flux ratio", Align::Right),
                 ("", Align::Left),
             ]);
@@ -145,6 +146,7 @@ impl Report for SpeedsReport {
                     num(sp.low_speed_winding_factor, 4),
                     num(sp.high_speed_winding_factor, 4),
                     num(sp.smaller, 4),
+                    num(sp.low_speed_second_percent, 2),
                     sp.flux_ratio.map_or("-".into(), |r| num(r, 3)),
                     marks.join(", "),
                 ]);
@@ -152,8 +154,10 @@ impl Report for SpeedsReport {
             s.push(Section::Table(t));
             s.push(Section::Lines(vec![paragraph(
                 "best: the span whose smaller k_w1 is largest, the shorter of equals (our \
-                 criterion: the weaker speed sets the turns and the copper); flux ratio: \
-                 mean gap flux density at the lower speed over the higher's",
+                 criterion: the weaker speed sets the turns and the copper); order 2: the \
+                 even wave a span off the lower speed's pole pitch leaves (noise and \
+                 parasitic torque), weigh it beside k_w1; flux ratio: mean gap flux density \
+                 at the lower speed over the higher's",
             )]));
         }
         s.push(Section::Heading("Waves at each speed".into()));
