@@ -87,6 +87,9 @@ fuzz_target!(|data: &[u8]| {
     if let Ok(i) = inductance::inductance(&w, w.coils.len() <= 60) {
         check("inductance", &i);
     }
+    if let Ok(s) = beltwright::speeds::speeds(&w) {
+        check("speeds", &s);
+    }
     let html = beltwright::output::html::document(&beltwright::study::Study::new(&w, None));
     if !USER_SPELLS.load(std::sync::atomic::Ordering::Relaxed) {
         assert!(!html.contains("NaN"), "NaN on the HTML page");
