@@ -296,6 +296,29 @@ fn every_sheet_of_every_example_layout_parses_renders_and_stays_on_the_page() {
 }
 
 #[test]
+fn a_two_speed_connection_sheet_fits_beside_a_long_schedule() {
+    // Larger two-speed windings need more schedule columns: the drawing (at printed size
+    // only) must then take the room it needs, never overprint the schedule or run off the
+    // frame, on every paper and both orientations.
+    for (slots, poles, pitch) in [(48, 4, 7), (72, 4, 11), (72, 2, 22)] {
+        let text = format!(
+            "title = \"Invented two-speed test motor\"\n[machine]\ntopology = \"rotary\"\n\
+             slots = {slots}\npoles = {poles}\n[winding]\nlayers = 2\npitch = {pitch}\n\
+             turns_per_coil = 12\npole_change = \"delta-double-star\"\n"
+        );
+        let name = format!("{slots}/{poles} two-speed");
+        let spec = layout::parse(&text, &name).unwrap_or_else(|e| panic!("{name}: {e}"));
+        let w = winding::build(&spec).unwrap_or_else(|e| panic!("{name}: {e}"));
+        for size in [PaperSize::A4, PaperSize::A3, PaperSize::Letter] {
+            for orientation in [Orientation::Landscape, Orientation::Portrait] {
+                let page = Page { size, orientation };
+                check_sheet_renders(&name, &w, Sheet::Connections, &page);
+            }
+        }
+    }
+}
+
+#[test]
 fn sheets_fit_portrait_a3_and_letter_too() {
     for (name, w) in example_layouts() {
         for size in [PaperSize::A4, PaperSize::A3, PaperSize::Letter] {

@@ -321,6 +321,16 @@ fn check(src: &str, name: &str) {
         turning[0], turning[1],
         "{name}: the speeds turn opposite ways"
     );
+    // The report says which way each board turns the field: the sheet's own field agrees.
+    let report = beltwright::speeds::speeds(&w).unwrap_or_else(|e| panic!("{name}: {e}"));
+    for (k, c) in report.connections.iter().enumerate() {
+        assert_eq!(c.poles, boards[k].poles, "{name}");
+        assert_eq!(
+            c.towards_rising_slots, turning[k],
+            "{name} at {} poles: the report's direction is not the field's",
+            c.poles
+        );
+    }
 }
 
 fn fan(slots: usize, poles: usize, pitch: usize, connection: &str, marking: &str) -> String {
@@ -361,7 +371,8 @@ fn each_speed_board_makes_one_rotating_wave_and_both_turn_alike() {
 fn the_boards_are_the_standards_tables() {
     // One-winding two-speed motors: lower speed L1 1U, L2 1V, L3 1W (NEMA T1, T2, T3), taps
     // open; higher speed L1 2W, L2 2U, L3 2V (T6, T4, T5) with 1U, 1V, 1W (T1, T2, T3)
-    // joined (IEC 60034-8, NEMA MG 1: from memory; repair handbooks print the same tables).
+    // joined (NEMA MG 1 and IEC 60034-8 usage, from memory; a reviewer found the same tables
+    // in EASA's Electrical Engineering Handbook, two-speed single-winding motors).
     // With these tables `each_speed_board_makes_one_rotating_wave_and_both_turn_alike`
     // shows both speeds turn the same way, so a starter wired to them needs no exchange.
     for (marking, low, high, ends, taps) in [

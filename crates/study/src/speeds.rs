@@ -49,8 +49,9 @@ pub struct Speed {
     pub fundamental: FactorRow,
     /// Phase EMFs equal and 120° apart at this pole count, in either sequence.
     pub balanced: bool,
-    /// Their sequence with U, V, W in order (negative: the field runs backward unless two
-    /// supply lines are exchanged at this speed).
+    /// Their sequence with U, V, W in order (negative at the lower speed by nature: every
+    /// angle doubles). Which way each board turns the field is its connection's
+    /// `towards_rising_slots`.
     pub sequence: Option<Sequence>,
     /// Turns in series in one phase at this connection (both halves in series, or one).
     pub series_turns_per_phase: f64,

@@ -488,12 +488,16 @@ fn diagram_scale(
     height: f64,
 ) -> f64 {
     if w.design.pole_change.is_some() {
-        // Drawn at printed size only: how nearly it fits, so the page gives it the room
-        // (fewer schedule columns beside it) where it does not.
+        // Drawn at printed size only: 1 where it fits; otherwise how nearly, held below the
+        // page's 0.85 "near full size", so a width where it does not fit is never taken
+        // and the best of the others is ranked by it.
         let need_h = super::two_speed::height(w, groups, width);
-        return (width / super::two_speed::MIN_WIDTH)
-            .min(height / need_h)
-            .clamp(0.0, 1.0);
+        let ratio = (width / super::two_speed::MIN_WIDTH).min(height / need_h);
+        return if ratio >= 1.0 {
+            1.0
+        } else {
+            ratio.clamp(0.0, 0.84)
+        };
     }
     arrangement(w, scheme, groups, width, height).scale
 }

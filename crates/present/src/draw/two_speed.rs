@@ -307,15 +307,18 @@ fn boards_height(width: f64) -> f64 {
     }
 }
 
+/// The note on the direction of rotation the drawing carries.
+#[derive(Clone, Copy)]
+enum Rotation {
+    /// Two lines are exchanged on the board of this many poles.
+    Exchanged(usize),
+    /// Both boards turn the field alike with L1, L2, L3 in order.
+    InOrder,
+}
+
 /// The notes under the drawing, wrapped to `width`: each half from its tap, the rotation,
-/// and the cautions of a two-speed board. Without the report, room for the longer
-/// rotation note.
-fn notes(
-    w: &Winding,
-    groups: &[CoilGroup],
-    report: Option<&SpeedsReport>,
-    width: f64,
-) -> Vec<String> {
+/// and the cautions of a two-speed board.
+fn notes(w: &Winding, groups: &[CoilGroup], rotation: Rotation, width: f64) -> Vec<String> {
     let marking = w.design.leads.marking;
     let mut notes = Vec::new();
     for lane in lanes(w, groups) {
@@ -339,24 +342,15 @@ fn notes(
             },
         ));
     }
-    let exchanged = report.and_then(|r| r.connections.iter().find(|c| c.lines_exchanged));
-    match (report, exchanged) {
-        (_, Some(c)) => notes.push(format!(
-            "At {} poles two lines are exchanged on the board (as drawn) so that both speeds \
-             turn the same way.",
-            c.poles
-        )),
-        (Some(_), None) => notes.push(
-            "With L1, L2, L3 in order both boards turn the field the same way; to reverse it, \
-             exchange the same two lines at both speeds."
-                .into(),
+    notes.push(match rotation {
+        Rotation::Exchanged(poles) => format!(
+            "At {poles} poles two lines are exchanged on the board (as drawn) so that both \
+             speeds turn the same way."
         ),
-        (None, None) => notes.push(
-            "At 00 poles two lines are exchanged on the board (as drawn) so that both speeds \
-             turn the same way; to reverse, exchange the same two lines at both speeds."
-                .into(),
-        ),
-    }
+        Rotation::InOrder => "With L1, L2, L3 in order both boards turn the field the same \
+                              way; to reverse it, exchange the same two lines at both speeds."
+            .into(),
+    });
     let ends: Vec<String> = (0..3).map(|p| Lead::end(p).name(marking)).collect();
     notes.push(format!(
         "Never link {} while the lines are on them: that shorts the supply. The speed switch \
@@ -374,10 +368,16 @@ fn notes(
         .collect()
 }
 
-/// Height the drawing needs at `width`, mm: the heading, the boards and the notes.
+/// Height the drawing needs at `width`, mm: the heading, the boards and the notes (with
+/// whichever rotation note takes more lines).
 pub fn height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
     let head = text::wrap(&heading(w), 3.1, width - 2.0).len() as f64 * LINE;
-    4.0 + head + boards_height(width) + notes(w, groups, None, width).len() as f64 * LINE
+    let lines = [Rotation::Exchanged(2 * w.geometry.poles), Rotation::InOrder]
+        .into_iter()
+        .map(|r| notes(w, groups, r, width).len())
+        .max()
+        .unwrap_or(0);
+    4.0 + head + boards_height(width) + lines as f64 * LINE
 }
 
 /// The drawing's first line.
@@ -460,7 +460,11 @@ pub fn connection(
         g = g.add(board(c, &heading, marking, bx, by));
     }
     y += boards_height(at.w);
-    for l in notes(w, groups, Some(report), at.w) {
+    let rotation = match report.connections.iter().find(|c| c.lines_exchanged) {
+        Some(c) => Rotation::Exchanged(c.poles),
+        None => Rotation::InOrder,
+    };
+    for l in notes(w, groups, rotation, at.w) {
         g = g.add(label(at.x, y, SIZE, Anchor::Start, &l));
         y += LINE;
     }

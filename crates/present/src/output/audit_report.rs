@@ -77,8 +77,8 @@ impl Report for AuditReport {
                 match o.sequence {
                     Sequence::Positive => "positive",
                     Sequence::Negative =>
-                        "negative, as consequent poles give it (two lines are exchanged on that \
-                         speed's board)",
+                        "negative, as consequent poles give it (the standard boards allow for \
+                         it)",
                 },
                 num(o.minor_wave_percent, 2),
                 num(o.magnitude_spread_percent, 2),

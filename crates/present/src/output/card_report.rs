@@ -541,8 +541,8 @@ fn six_lead_sections(six: &crate::card::two_speed::SixLeads) -> Vec<Section> {
     )];
     let mut halves = Table::new(&[
         ("phase", Align::Left),
-        ("half - (end to tap) ohm", Align::Right),
-        ("half + (from tap) ohm", Align::Right),
+        ("half - (tap to end) ohm", Align::Right),
+        ("half + (tap onward) ohm", Align::Right),
     ]);
     for h in &six.halves {
         halves.push(vec![

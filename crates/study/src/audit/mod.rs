@@ -850,11 +850,11 @@ pub struct OtherSpeed {
     pub after_fix: bool,
     /// Phase EMFs equal and 120° apart there, in either sequence.
     pub balanced: bool,
-    /// Their sequence (negative is what consequent poles give: two lines are exchanged on
-    /// that speed's board).
+    /// Their sequence (negative is what consequent poles give a record laid out in positive
+    /// sequence; the standard boards allow for it).
     pub sequence: Sequence,
     /// The smaller of the forward and backward waves there, per cent of the larger (the
-    /// sequence is negative there by nature, so the working wave is the backward one).
+    /// working wave is whichever is larger).
     pub minor_wave_percent: f64,
     /// Spread of the phase magnitudes there, per cent.
     pub magnitude_spread_percent: f64,

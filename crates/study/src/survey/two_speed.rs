@@ -39,9 +39,9 @@ pub struct TwoSpeedSurvey {
     pub rows: Vec<TwoSpeedRow>,
 }
 
-/// Largest [`work`] one pole-changing survey takes on: about 3 s on the 2-core machine in a
-/// release build (measured: 600..=1200 slots, 2 and 4 poles, 5.1e7, 14.5 s in a debug
-/// build).
+/// Largest [`work`] one pole-changing survey takes on (measured on the 2-core machine:
+/// 600..=1200 slots at 2 and 4 poles is 5.3e7 and took 14.5 s in a debug build, so the
+/// bound is about half a minute there; a release build was not timed).
 pub const MAX_WORK: f64 = 1.0e8;
 
 /// The survey's work: Σ over the combinations that fit of spans × slots (each span is a
