@@ -188,15 +188,22 @@ fn waves(w: &Winding, i: &[C], nu: f64) -> (f64, f64) {
     (fwd.norm(), bwd.norm())
 }
 
-fn check(src: &str, name: &str) {
+/// The winding of layout `src` and the first page of its connection sheet.
+fn sheet(src: &str, name: &str) -> (Winding, String) {
     let spec = layout::parse(src, name).unwrap_or_else(|e| panic!("{name}: {e}"));
     let w = winding::build(&spec).unwrap_or_else(|e| panic!("{name}: {e}"));
-    let svg = &draw::draw(
+    let mut pages = draw::draw(
         &beltwright::study::Study::new(&w, None),
         Sheet::Connections,
         &Page::default(),
-    )[0];
-    let (halves, boards) = read(svg);
+    );
+    assert!(!pages.is_empty(), "{name}: no connection sheet");
+    (w, pages.swap_remove(0))
+}
+
+fn check(src: &str, name: &str) {
+    let (w, svg) = sheet(src, name);
+    let (halves, boards) = read(&svg);
     assert_eq!(halves.len(), 6, "{name}: two halves per phase");
     assert_eq!(boards.len(), 2, "{name}: a board per speed");
     // Every group is in exactly one half.
@@ -393,15 +400,8 @@ fn the_boards_are_the_standards_tables() {
     ] {
         for connection in ["delta-double-star", "star-double-star"] {
             let name = format!("{connection} {marking}");
-            let spec = layout::parse(&fan(36, 2, 11, connection, marking), &name)
-                .unwrap_or_else(|e| panic!("{name}: {e}"));
-            let w = winding::build(&spec).unwrap_or_else(|e| panic!("{name}: {e}"));
-            let svg = &draw::draw(
-                &beltwright::study::Study::new(&w, None),
-                Sheet::Connections,
-                &Page::default(),
-            )[0];
-            let (_, boards) = read(svg);
+            let (_, svg) = sheet(&fan(36, 2, 11, connection, marking), &name);
+            let (_, boards) = read(&svg);
             let lines = |b: &Board| {
                 b.lines
                     .iter()
