@@ -83,11 +83,13 @@ impl Lead {
     /// 2U, 2V (T6, T4, T5) at the higher (NEMA MG 1 and IEC 60034-8 usage, from memory; a
     /// reviewer found the same tables printed in EASA's *Electrical Engineering Handbook*,
     /// three-phase two-speed single-winding motors; IEC diagrams also print the higher
-    /// speed as 2U, 2V, 2W on L1, L2, L3, a cyclic shift that turns the same way). The lower speed's sequence is negative (every angle
-    /// doubles: V, 120° after U, is 240° after it), so for both tables to turn the field the
-    /// same way the higher one must feed the phases in odd order: the taps are named so,
-    /// phase U's tap 2U (T4), phase V's 2W (T6), phase W's 2V (T5). `tests/two_speed_sheet.rs`
-    /// checks the rotation from the sheet alone.
+    /// speed as 2U, 2V, 2W on L1, L2, L3, a cyclic shift that turns the same way).
+    ///
+    /// The lower speed's sequence is negative (every angle doubles: V, 120° after U, is
+    /// 240° after it), so for both tables to turn the field the same way the higher one
+    /// must feed the phases in odd order: the taps are named so, phase U's tap 2U (T4),
+    /// phase V's 2W (T6), phase W's 2V (T5). `tests/two_speed_sheet.rs` checks the
+    /// rotation from the sheet alone.
     pub fn name(self, marking: crate::design::Marking) -> String {
         let (speed, letter) = match self {
             Lead::End(p) => (1, p % 3),
