@@ -102,6 +102,16 @@ pub enum Duty {
     VariableTorque,
 }
 
+impl Duty {
+    /// The name of connection `pc` (not derived from its flux ratio).
+    pub fn of(pc: PoleChange) -> Duty {
+        match pc {
+            PoleChange::DeltaDoubleStar => Duty::ConstantTorque,
+            PoleChange::StarDoubleStar => Duty::VariableTorque,
+        }
+    }
+}
+
 /// One span of a pole-changing winding at both pole counts.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct SpanAtBoth {
@@ -205,10 +215,11 @@ pub fn speeds(w: &Winding) -> Result<SpeedsReport, SpeedsError> {
         .filter(|c| c.phase == 0)
         .map(|c| f64::from(c.turns))
         .sum();
-    let (joined_low, duty) = match pc {
-        PoleChange::DeltaDoubleStar => (Joined::SeriesDelta, Duty::ConstantTorque),
-        PoleChange::StarDoubleStar => (Joined::SeriesStar, Duty::VariableTorque),
+    let joined_low = match pc {
+        PoleChange::DeltaDoubleStar => Joined::SeriesDelta,
+        PoleChange::StarDoubleStar => Joined::SeriesStar,
     };
+    let duty = Duty::of(pc);
     let low_speed = speed(&low, joined_low, phase_turns)?;
     let high_speed = speed(w, Joined::DoubleStar, phase_turns / 2.0)?;
     let kw = |s: &Speed| s.fundamental.winding.abs();

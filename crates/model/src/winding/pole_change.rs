@@ -22,6 +22,13 @@ pub fn fits(slots: usize, poles: usize, phases: usize) -> bool {
     phases == 3 && poles >= 2 && poles.is_multiple_of(2) && slots.is_multiple_of(phases * poles)
 }
 
+/// Whether coil `c` of `w` is in its phase's reversed half: the coils reaching backwards
+/// from their go sides (the reversed groups as laid out), whose current reverses between
+/// the speeds.
+pub fn in_reversed_half(w: &Winding, c: &super::Coil) -> bool {
+    w.span(c) < 0
+}
+
 /// `w` (a rotary winding at its own pole count) at twice the poles, with the coils of its
 /// reversed groups turned back, as the series connection of a pole-changing winding
 /// joins them.
@@ -31,7 +38,7 @@ pub fn at_double_poles(w: &Winding) -> Winding {
     d.geometry = Geometry::rotary(g.slots, 2 * g.poles, g.phases, g.layers);
     d.design.poles = 2 * g.poles;
     for (c, old) in d.coils.iter_mut().zip(&w.coils) {
-        if w.span(old) < 0 {
+        if in_reversed_half(w, old) {
             std::mem::swap(&mut c.go, &mut c.back);
             std::mem::swap(&mut c.go_layer, &mut c.back_layer);
         }

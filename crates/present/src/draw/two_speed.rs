@@ -13,9 +13,10 @@ use super::page::{Rect, rule};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use crate::design::PoleChange;
-use crate::speeds::{Joined, SpeedConnection, SpeedsError, SpeedsReport};
+use crate::output::speeds_report;
+use crate::speeds::{Duty, SpeedConnection, SpeedsError, SpeedsReport};
 use crate::winding::pole_change::{self, Lead, six_leads_halves};
-use crate::winding::schedule::lanes;
+use crate::winding::schedule::{Lane, lanes};
 use crate::winding::{CoilGroup, Winding};
 
 /// Radius of the schematic (centre to an end lead), mm.
@@ -33,19 +34,11 @@ pub const MIN_WIDTH: f64 = 2.0 * RADIUS + 22.0 + BOARD_W + 4.0;
 /// Terminal pitch on a board, mm.
 const PITCH: f64 = 16.0;
 
-/// The groups of phase `p` in one half: reversed (`true`) or forward, as "G2 G4".
-fn half_groups(groups: &[CoilGroup], p: usize, reversed: bool) -> Vec<usize> {
-    groups
+/// A lane's groups as the sheet numbers them, "G2 G4".
+fn group_list(lane: &Lane) -> String {
+    lane.groups
         .iter()
-        .enumerate()
-        .filter(|(_, g)| g.phase == p && (g.polarity < 0) == reversed)
-        .map(|(i, _)| i + 1)
-        .collect()
-}
-
-fn group_list(ids: &[usize]) -> String {
-    ids.iter()
-        .map(|i| format!("G{i}"))
+        .map(|i| format!("G{}", i + 1))
         .collect::<Vec<_>>()
         .join(" ")
 }
@@ -187,12 +180,11 @@ fn schematic(
     pal: &Palette,
     cx: f64,
     cy: f64,
-    radius: f64,
 ) -> Group {
     let marking = w.design.leads.marking;
     let mut g = Group::new().set("class", "speed-schematic");
     let at = |n: Option<Lead>| match n {
-        Some(l) => schematic_place(pc, l, radius),
+        Some(l) => schematic_place(pc, l, RADIUS),
         None => (0.0, 0.0),
     };
     let name = |n: Option<Lead>| n.map_or("star point".to_string(), |l| l.name(marking));
@@ -208,9 +200,9 @@ fn schematic(
             _ => n,
         }
     };
-    for (p, reversed, from, to) in six_leads_halves(pc) {
+    // The schedule's lanes are the same halves, in the same order.
+    for ((p, reversed, from, to), lane) in six_leads_halves(pc).into_iter().zip(lanes(w, groups)) {
         let (a, b) = (at(from), at(to));
-        let ids = half_groups(groups, p, reversed);
         let (mx, my) = ((a.0 + b.0) / 2.0, (a.1 + b.1) / 2.0);
         let n = normal(a, b);
         g = g.add(
@@ -220,7 +212,7 @@ fn schematic(
                 .set("data-from", name(from))
                 .set("data-to", name(to))
                 .set("data-reversed", u8::from(reversed))
-                .set("data-groups", group_list(&ids))
+                .set("data-groups", group_list(&lane))
                 .add(
                     rule(cx + a.0, cy + a.1, cx + b.0, cy + b.1, 1.1)
                         .set("stroke", pal.stroke(p))
@@ -248,13 +240,8 @@ fn schematic(
                     .set("stroke-width", 0.5),
             );
             let (dx, dy) = match (lead, pc) {
-                // Ends: outward from the centre.
-                (Lead::End(_), _) => {
-                    let len = x.hypot(y).max(1e-9);
-                    (5.0 * x / len, 5.0 * y / len)
-                }
-                // A delta's taps: outward from their side's middle.
-                (Lead::Tap(_), PoleChange::DeltaDoubleStar) => {
+                // Ends, and a delta's taps: outward from the centre.
+                (Lead::End(_), _) | (Lead::Tap(_), PoleChange::DeltaDoubleStar) => {
                     let len = x.hypot(y).max(1e-9);
                     (5.0 * x / len, 5.0 * y / len)
                 }
@@ -283,14 +270,6 @@ fn schematic(
         );
     }
     g
-}
-
-fn joined_words(j: Joined) -> &'static str {
-    match j {
-        Joined::SeriesDelta => "halves in series, delta",
-        Joined::SeriesStar => "halves in series, star",
-        Joined::DoubleStar => "double star",
-    }
 }
 
 /// Whether the boards stand side by side (else one above the other) at `width`.
@@ -326,7 +305,7 @@ fn notes(w: &Winding, groups: &[CoilGroup], rotation: Rotation, width: f64) -> V
         let through = if lane.groups.is_empty() {
             "no groups".to_string()
         } else {
-            group_list(&lane.groups.iter().map(|i| i + 1).collect::<Vec<_>>())
+            group_list(&lane)
         };
         notes.push(format!(
             "Half {}{}: from {} through {} to {}{}.",
@@ -383,13 +362,15 @@ pub fn height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
 /// The drawing's first line.
 fn heading(w: &Winding) -> String {
     let poles = w.geometry.poles;
-    let (kind, duty) = match w.design.pole_change {
-        Some(PoleChange::DeltaDoubleStar) => ("delta / double star", "constant torque"),
-        _ => ("star / double star", "variable torque"),
-    };
+    let kind = w.design.pole_change.map_or(String::new(), |pc| {
+        format!(
+            " ({}, {})",
+            speeds_report::connection_words(pc),
+            speeds_report::duty_words(Duty::of(pc))
+        )
+    });
     format!(
-        "POLE-CHANGING WINDING, {} and {poles} poles ({kind}, {duty}): connect each speed \
-         only as drawn.",
+        "POLE-CHANGING WINDING, {} and {poles} poles{kind}: connect each speed only as drawn.",
         2 * poles
     )
 }
@@ -429,7 +410,7 @@ pub fn connection(
     };
     let radius = RADIUS;
     let (cx, cy) = (at.x + radius + 8.0, y + radius + 6.0);
-    g = g.add(schematic(w, groups, pc, pal, cx, cy, radius));
+    g = g.add(schematic(w, groups, pc, pal, cx, cy));
     let marking = w.design.leads.marking;
     let speeds = [&report.low_speed, &report.high_speed];
     let beside = boards_beside(at.w);
@@ -444,7 +425,7 @@ pub fn connection(
         });
         let heading = vec![
             format!("{name}: {} poles{rpm}", c.poles),
-            joined_words(s.joined).to_string(),
+            speeds_report::joined(s.joined).to_string(),
         ];
         let (bx, by) = if beside {
             (

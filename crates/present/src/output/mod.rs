@@ -251,12 +251,7 @@ pub fn design_pieces(h: &crate::header::DesignHeader) -> Vec<Vec<Piece>> {
                 "{turns}, {}, {} connection; k_w1 = ",
                 crate::numbering::count(h.parallel_paths, "path", "paths"),
                 match h.pole_change {
-                    Some(crate::design::PoleChange::DeltaDoubleStar) => {
-                        "delta / double-star".to_string()
-                    }
-                    Some(crate::design::PoleChange::StarDoubleStar) => {
-                        "star / double-star".to_string()
-                    }
+                    Some(pc) => speeds_report::connection_words(pc).to_string(),
                     None => h.connection.to_string(),
                 },
             )),

@@ -18,11 +18,28 @@ pub struct SpeedsJson<'a> {
     report: &'a SpeedsReport,
 }
 
-fn joined(j: Joined) -> &'static str {
+/// How the phases are joined at one speed, in words.
+pub(crate) fn joined(j: Joined) -> &'static str {
     match j {
         Joined::SeriesDelta => "series delta",
         Joined::SeriesStar => "series star",
         Joined::DoubleStar => "double star",
+    }
+}
+
+/// The standards' name of a connection, in words.
+pub(crate) fn duty_words(d: Duty) -> &'static str {
+    match d {
+        Duty::ConstantTorque => "constant torque",
+        Duty::VariableTorque => "variable torque",
+    }
+}
+
+/// A pole-changing connection's name in words: "delta / double star", "star / double star".
+pub(crate) fn connection_words(pc: crate::design::PoleChange) -> &'static str {
+    match pc {
+        crate::design::PoleChange::DeltaDoubleStar => "delta / double star",
+        crate::design::PoleChange::StarDoubleStar => "star / double star",
     }
 }
 
@@ -62,10 +79,7 @@ impl Report for SpeedsReport {
     fn sections(&self) -> Vec<Section> {
         let mut s = Vec::from(super::opening("Two speeds from one winding", &self.design));
         let (lo, hi) = (&self.low_speed, &self.high_speed);
-        let duty = match self.duty {
-            Duty::ConstantTorque => "constant torque",
-            Duty::VariableTorque => "variable torque",
-        };
+        let duty = duty_words(self.duty);
         let mut lines = vec![paragraph(&format!(
             "pole-changing by consequent poles: {} poles ({}) and {} poles ({}), the {} \
              connection by the standards' naming",

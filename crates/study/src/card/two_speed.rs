@@ -20,7 +20,8 @@ use crate::winding::pole_change::{self, Board, Lead};
 pub struct Halves {
     /// Phase label.
     pub phase: String,
-    /// The half from the phase's end to its tap (the groups the double star reverses), ohms.
+    /// The half from the phase's end to its tap (the reversed groups as laid out, whose
+    /// current reverses between the speeds), ohms.
     pub reversed_ohm: f64,
     /// The half from the tap on (to the next phase's end in delta, to the star point in
     /// star), ohms.
@@ -73,7 +74,11 @@ pub fn six_leads(w: &Winding) -> Option<SixLeads> {
     if let Some(wire) = w.design.wire.as_ref().map(crate::wire::Wire::of) {
         for c in &w.coils {
             let r = super::coil_resistance_20c(w, c, &wire)?;
-            let half = if w.span(c) < 0 { &mut rev } else { &mut fwd };
+            let half = if pole_change::in_reversed_half(w, c) {
+                &mut rev
+            } else {
+                &mut fwd
+            };
             half[c.phase % 3] += r;
         }
     } else {
