@@ -10,8 +10,8 @@ pub use beltwright_model::{design, iron, numbering, sanitize, spec, winding, wir
 pub use beltwright_present::{draw, output, safety};
 pub use beltwright_study::{
     assumption, audit, card, factors, field, header, inductance, layers, leakage, linear, loading,
-    packing, pitch, plan, plates, record, rewind, runs, sizing, speeds, study, survey, thrust,
-    warnings,
+    packing, pitch, plan, plates, record, rewind, runs, single_phase, sizing, speeds, study,
+    survey, thrust, warnings,
 };
 
 pub mod book;

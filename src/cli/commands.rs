@@ -29,6 +29,9 @@ use super::args::*;
 const SURVEY_PLANNED_WORK: f64 = 2.5e7;
 
 pub fn run(cli: Cli) -> Result<Printed, Failure> {
+    if let Some(done) = super::single_phase::route(&cli) {
+        return done;
+    }
     match cli.command {
         Command::Plan(a) => {
             let w = load(&a.common.file)?;
@@ -625,7 +628,7 @@ fn present<R: Report + 'static>(report: R, format: impl Into<Format>) -> Printed
 }
 
 /// Lines of text for stdout.
-fn say(text: String) -> Printed {
+pub(super) fn say(text: String) -> Printed {
     Box::new(move |out: &mut dyn Write| out.write_all(text.as_bytes()))
 }
 
@@ -645,6 +648,7 @@ pub(super) fn plan_failure(
     use winding::PlanError;
     let (table, index, key) = match e {
         PlanError::Paths(_) => ("winding", 0, "parallel_paths"),
+        PlanError::SinglePhase(r) => single_phase_key(r),
         PlanError::Overfilled(o) => ("coil", o.coils.first().map_or(0, |c| c.index()), "go"),
         PlanError::Infeasible(_) if spec.design.pitch.is_some() && spec.coils.is_empty() => {
             ("winding", 0, "pitch")
@@ -662,6 +666,20 @@ pub(super) fn plan_failure(
     Failure::input(format!("{name}{line}: {dotted}: {}", e.message()))
 }
 
+/// The layout key a single-phase refusal is about.
+fn single_phase_key(
+    r: &winding::single_phase::SinglePhaseRefusal,
+) -> (&'static str, usize, &'static str) {
+    use winding::single_phase::{MAIN, SinglePhaseRefusal as R};
+    let table = |p: usize| if p == MAIN { "main" } else { "aux" };
+    match r {
+        R::SlotsPerPole { .. } => ("machine", 0, "slots"),
+        R::TooManyCoils { part, .. } => (table(*part), 0, "coils_per_group"),
+        R::TurnsList { part, .. } | R::TooFewTurns { part, .. } => (table(*part), 0, "turns"),
+        R::Layers { .. } => ("winding", 0, "layers"),
+    }
+}
+
 /// Read and validate a layout file, keeping its text for line numbers.
 pub(super) fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, String), Failure> {
     let name = path.display().to_string();
@@ -671,7 +689,7 @@ pub(super) fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, Str
 }
 
 /// Write one sheet's pages in `kind` to `path` (and `NAME-2.ext`... for SVG/PNG pages).
-fn write_sheet(
+pub(super) fn write_sheet(
     pages: &[String],
     kind: FileKind,
     path: &Path,
@@ -744,7 +762,7 @@ fn sheet_files(
 }
 
 /// The output kind named by a sheet file's extension.
-fn sheet_kind(output: &Path) -> Result<FileKind, Failure> {
+pub(super) fn sheet_kind(output: &Path) -> Result<FileKind, Failure> {
     FileKind::of_path(output).ok_or_else(|| {
         Failure::input(format!(
             "-o {}: give a file name ending in .svg, .pdf or .png (report also takes .html)",
@@ -753,7 +771,7 @@ fn sheet_kind(output: &Path) -> Result<FileKind, Failure> {
     })
 }
 
-fn page_of(size: PaperArg, portrait: bool) -> Page {
+pub(super) fn page_of(size: PaperArg, portrait: bool) -> Page {
     Page {
         size: size.into(),
         orientation: if portrait {
@@ -764,7 +782,7 @@ fn page_of(size: PaperArg, portrait: bool) -> Page {
     }
 }
 
-fn wrote(paths: &[PathBuf]) -> String {
+pub(super) fn wrote(paths: &[PathBuf]) -> String {
     paths
         .iter()
         .map(|p| format!("wrote {}\n", p.display()))

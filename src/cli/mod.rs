@@ -6,6 +6,7 @@ pub mod book;
 pub mod commands;
 pub mod files;
 pub mod flags;
+pub mod single_phase;
 
 use std::io::Write;
 

@@ -2,6 +2,8 @@
 
 use serde::Deserialize;
 
+mod single_phase;
+
 use crate::design::{
     BACKING_STEEL_MS_M, BACKING_STEEL_PERMEABILITY, Backing, Design, Insulation, Leads, Marking,
     Material, Measured, Secondary, TurnRule, WireSize, WireSpec,
@@ -31,6 +33,10 @@ pub struct RawLayout {
     coil: Vec<RawCoil>,
     #[serde(default)]
     group: Vec<RawGroup>,
+    main: Option<single_phase::RawPart>,
+    aux: Option<single_phase::RawPart>,
+    capacitor: Option<single_phase::RawCapacitor>,
+    circuit: Option<single_phase::RawCircuit>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -58,6 +64,7 @@ struct RawWinding {
     phase_resistance_ohm: Option<f64>,
     temperature_c: Option<f64>,
     pole_change: Option<crate::design::PoleChange>,
+    grading: Option<crate::design::Grading>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -96,6 +103,8 @@ struct RawWire {
 struct RawMeasured {
     line_resistance_ohm: Option<Vec<f64>>,
     section_resistance_ohm: Option<Vec<f64>>,
+    main_resistance_ohm: Option<f64>,
+    aux_resistance_ohm: Option<f64>,
     temperature_c: Option<f64>,
 }
 
@@ -406,18 +415,45 @@ impl RawLayout {
             MAX_PHASES as i64,
             "phase count",
         )?;
-        if phases < 3 || phases % 2 == 0 {
+        let single = phases == 1;
+        if !single && (phases < 3 || phases % 2 == 0) {
             return Err(c.err(
                 "machine",
                 0,
                 "phases",
                 format!(
                     "{phases} phases are not supported; give an odd phase count of 3 or more \
-                     (3 for a three-phase winding)"
+                     (3 for a three-phase winding), or 1 for a single-phase stator with \
+                     [main] and [aux] tables"
                 ),
             ));
         }
-        let phase_labels = phase_labels(&c, m.phase_labels.as_deref(), phases)?;
+        if !single && let Some(table) = self.has_single_phase_tables() {
+            return Err(c.err(
+                "machine",
+                0,
+                "phases",
+                format!(
+                    "[{table}] belongs to a single-phase stator; give phases = 1, or remove \
+                     [{table}]"
+                ),
+            ));
+        }
+        if !single && self.winding.grading.is_some() {
+            return Err(c.err(
+                "winding",
+                0,
+                "grading",
+                "grading shares a single-phase group's turns; remove it, or give phases = 1".into(),
+            ));
+        }
+        // A single-phase stator's coil list holds its main and auxiliary windings.
+        let coil_phases = if single { 2 } else { phases };
+        let phase_labels = if single && m.phase_labels.is_none() {
+            vec!["main".to_string(), "aux".to_string()]
+        } else {
+            phase_labels(&c, m.phase_labels.as_deref(), coil_phases)?
+        };
 
         let w = &self.winding;
         let layers = c.range("winding", "layers", w.layers, 1, 2, "layer count")?;
@@ -493,9 +529,13 @@ impl RawLayout {
             },
         )?;
 
+        let mut design = design;
+        if single {
+            self.single_phase(&c, &mut design)?;
+        }
         let coils = self.coil_list(&c, &phase_labels, slots, turns_per_coil, parallel_paths)?;
 
-        let colours = self.colours(&c, phases)?;
+        let colours = self.colours(&c, coil_phases)?;
 
         Ok(Spec {
             labels: crate::design::Labels {
@@ -1164,6 +1204,23 @@ impl RawLayout {
             }
             Ok(())
         };
+        if self.machine.phases == Some(1) {
+            return self.single_phase_readings(c, m);
+        }
+        if m.main_resistance_ohm.is_some() || m.aux_resistance_ohm.is_some() {
+            return Err(c.err(
+                "measured",
+                0,
+                if m.main_resistance_ohm.is_some() {
+                    "main_resistance_ohm"
+                } else {
+                    "aux_resistance_ohm"
+                },
+                "main and auxiliary readings belong to a single-phase stator; give \
+                 line_resistance_ohm or section_resistance_ohm"
+                    .into(),
+            ));
+        }
         if d.pole_change.is_some() {
             // Its leads are not a star or delta's: line readings worked back as one would
             // condemn a sound winding.
@@ -1264,6 +1321,8 @@ impl RawLayout {
         Ok(Measured {
             line_resistance_ohm: line,
             section_resistance_ohm: sections,
+            main_resistance_ohm: None,
+            aux_resistance_ohm: None,
             temperature_c: c
                 .within("measured", "temperature_c", m.temperature_c, -60.0, 250.0)?
                 .unwrap_or(20.0),

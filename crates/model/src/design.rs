@@ -238,6 +238,11 @@ pub struct Measured {
     /// star machine's second sections meet inside, so their three values are the readings
     /// T7-T8, T8-T9, T9-T7 (U5-V5 ... in IEC marking) between their free ends.
     pub section_resistance_ohm: Option<Vec<f64>>,
+    /// A single-phase stator's main winding across its own leads (both sections in
+    /// series), ohms.
+    pub main_resistance_ohm: Option<f64>,
+    /// A single-phase stator's auxiliary winding across its own leads, ohms.
+    pub aux_resistance_ohm: Option<f64>,
     /// Winding temperature at the measurement, °C.
     pub temperature_c: f64,
 }
@@ -483,6 +488,99 @@ pub struct Design {
     /// as many poles (consequent poles), each phase's halves in series for the higher
     /// count and in parallel, one half reversed, for the lower.
     pub pole_change: Option<PoleChange>,
+    /// A single-phase winding (`machine.phases = 1`): a main and an auxiliary winding 90
+    /// electrical degrees apart, held as two phases of the coil list (main first).
+    pub single_phase: Option<SinglePhase>,
+}
+
+/// A single-phase stator's two windings and how the auxiliary is fed.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct SinglePhase {
+    /// The main winding.
+    pub main: PartSpec,
+    /// The auxiliary (starting or capacitor) winding.
+    pub aux: PartSpec,
+    /// How a group's turns are shared among its concentric coils.
+    pub grading: Grading,
+    /// What is in series with the auxiliary winding.
+    pub capacitor: CapacitorDuty,
+    /// Slip at which a run capacitor is to balance the field; from the nameplate's speed
+    /// when not given.
+    pub slip: Option<f64>,
+    /// The motor's equivalent circuit referred to the main winding, for the capacitor.
+    pub circuit: Option<Circuit>,
+    /// Main winding in two equal sections (dual voltage) or one.
+    pub main_sections: u8,
+    /// The auxiliary winding's wire, when it differs from the main's (`[wire]`).
+    pub aux_wire: Option<WireSpec>,
+    /// The auxiliary winding's resistance at 20 °C given directly, ohms.
+    pub aux_resistance_ohm: Option<f64>,
+}
+
+/// One winding of a single-phase stator: how many concentric coils each pole's group has
+/// (the largest spans that fit about its axis; all of them when not given) and its turns.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct PartSpec {
+    /// Coils in each pole's group, largest span first.
+    pub coils_per_group: Option<usize>,
+    /// Turns of the group, shared by the grading, or of each coil, largest span first.
+    pub turns: PartTurns,
+}
+
+/// A group's turns: a total shared among its coils by the grading, or given coil by coil.
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "kebab-case")]
+pub enum PartTurns {
+    /// Turns of one pole's group, all its coils together.
+    PerGroup(u32),
+    /// Turns of each coil of a group, largest span first.
+    PerCoil(Vec<u32>),
+}
+
+/// How a group's turns are shared among its concentric coils.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Grading {
+    /// Turns in proportion to the sine of each coil's half span, so the conductors of a
+    /// pole approach a sinusoidal distribution.
+    Sine,
+    /// Equal turns in every coil.
+    Equal,
+}
+
+/// What is in series with the auxiliary winding.
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
+)]
+#[serde(rename_all = "kebab-case")]
+pub enum CapacitorDuty {
+    /// A permanent run capacitor: the auxiliary stays in circuit.
+    Run,
+    /// A start capacitor, cut out by a switch near running speed.
+    Start,
+    /// A start capacitor for starting and a run capacitor that stays in circuit.
+    StartAndRun,
+    /// No capacitor: a resistance split-phase start.
+    None,
+}
+
+/// The equivalent circuit of the motor referred to the main winding (the per-phase circuit
+/// of the balanced two-phase machine: the single-phase circuit's halves doubled), ohms.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct Circuit {
+    /// Magnetizing reactance X_m.
+    pub magnetizing_reactance_ohm: f64,
+    /// Rotor resistance R_2' at working temperature.
+    pub rotor_resistance_ohm: f64,
+    /// Rotor leakage reactance X_2'.
+    pub rotor_reactance_ohm: f64,
+    /// Main winding's leakage reactance X_1m.
+    pub main_leakage_reactance_ohm: f64,
+    /// Auxiliary winding's leakage reactance X_1a; a²·X_1m when not given (same slots,
+    /// leakage in proportion to turns squared).
+    pub aux_leakage_reactance_ohm: Option<f64>,
 }
 
 /// How a pole-changing winding (two speeds in the ratio 1:2 from one winding, consequent
@@ -538,6 +636,7 @@ impl Design {
             job: None,
             winding_temperature_c: 20.0,
             pole_change: None,
+            single_phase: None,
         }
     }
 

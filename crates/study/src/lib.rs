@@ -25,6 +25,7 @@ pub mod plates;
 pub mod record;
 pub mod rewind;
 pub mod runs;
+pub mod single_phase;
 pub mod sizing;
 pub mod speeds;
 pub mod study;

@@ -31,6 +31,8 @@ pub enum Analysis {
     Sizing,
     /// `speeds::speeds`.
     Speeds,
+    /// `single_phase::study`.
+    SinglePhase,
 }
 
 impl Analysis {
@@ -51,7 +53,7 @@ impl Analysis {
 }
 
 /// One counter per [`Analysis`] variant.
-static RUNS: [AtomicUsize; 12] = [const { AtomicUsize::new(0) }; 12];
+static RUNS: [AtomicUsize; 13] = [const { AtomicUsize::new(0) }; 13];
 
 /// Count one run of `a`.
 pub fn count(a: Analysis) {

@@ -13,6 +13,7 @@ use crate::header::{self, DesignHeader};
 use crate::inductance::{self, InductanceReport};
 use crate::pitch::{self, PitchGoal, PitchReport};
 use crate::plan::{self, PlanReport};
+use crate::single_phase::{self, SinglePhaseReport};
 use crate::speeds::{self, SpeedsError, SpeedsReport};
 use crate::thrust::{self, ThrustError, ThrustQuery, ThrustReport};
 use crate::winding::{Topology, Winding};
@@ -47,6 +48,7 @@ pub struct Study<'w> {
     snapshots: OnceLock<Result<Vec<Snapshot>, FieldError>>,
     pitch: OnceLock<PitchReport>,
     speeds: OnceLock<Option<Result<SpeedsReport, SpeedsError>>>,
+    single_phase: OnceLock<Option<SinglePhaseReport>>,
 }
 
 impl<'w> Study<'w> {
@@ -67,6 +69,7 @@ impl<'w> Study<'w> {
             snapshots: OnceLock::new(),
             pitch: OnceLock::new(),
             speeds: OnceLock::new(),
+            single_phase: OnceLock::new(),
         }
     }
 
@@ -110,6 +113,15 @@ impl<'w> Study<'w> {
     /// model's own test, no report needed), and, for a recorded coil list, without audit
     /// findings.
     pub fn sound(&self) -> Soundness {
+        // A single-phase stator's two windings are not phases of one balanced set: its
+        // own audit judges it.
+        if let Some(sp) = self.single_phase() {
+            return if sp.findings.is_empty() {
+                Soundness::Sound
+            } else {
+                Soundness::Findings
+            };
+        }
         if !self.winding.is_balanced() {
             Soundness::Unbalanced
         } else if self.audit().is_some_and(|a| !a.sound) {
@@ -183,6 +195,13 @@ impl<'w> Study<'w> {
             })
             .as_ref()
             .map(Result::as_ref)
+    }
+
+    /// A single-phase stator's study; `None` for a polyphase winding.
+    pub fn single_phase(&self) -> Option<&SinglePhaseReport> {
+        self.single_phase
+            .get_or_init(|| single_phase::study(self.winding))
+            .as_ref()
     }
 
     /// Every span compared, for the usual goal: orders 5, 7, 11 and 13 suppressed with

@@ -7,6 +7,7 @@ mod groups;
 mod order;
 pub mod pole_change;
 pub mod schedule;
+pub mod single_phase;
 pub mod star;
 mod synth;
 
@@ -38,6 +39,9 @@ pub enum PlanError {
     /// The requested parallel path count would make circulating currents.
     #[error("the parallel path count would drive circulating currents")]
     Paths(PathChoice),
+    /// A single-phase stator's windings cannot be laid out as asked.
+    #[error("the single-phase windings cannot be laid out as asked")]
+    SinglePhase(single_phase::SinglePhaseRefusal),
 }
 
 /// Why no balanced winding exists for a design, with the numbers that say what would work.

@@ -18,6 +18,10 @@ pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
     if !spec.coils.is_empty() {
         return from_coil_list(spec, true);
     }
+    if spec.design.single_phase.is_some() {
+        return super::single_phase::synthesize(&spec.design, &spec.labels)
+            .map_err(PlanError::SinglePhase);
+    }
     let mut w = synthesize_explained(&spec.design, true)?;
     w.labels = spec.labels.clone();
     Ok(w)
@@ -627,7 +631,13 @@ fn single_layer_spans(geom: &Geometry, plus: &[Vec<usize>], minus: &[Vec<usize>]
 /// fill are checked.
 fn from_coil_list(spec: &Spec, strict: bool) -> Result<Winding, PlanError> {
     let d = &spec.design;
-    let (z, poles, m, layers) = (d.slots, d.poles, d.phases, d.layers);
+    let (z, poles, layers) = (d.slots, d.poles, d.layers);
+    // A single-phase stator's coil list holds its two windings as two phases.
+    let m = if d.single_phase.is_some() {
+        2
+    } else {
+        d.phases
+    };
     let rough = |e: &CoilEntry| -> usize {
         let d = e.back.abs_diff(e.go);
         match spec.design.topology {

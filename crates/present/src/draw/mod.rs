@@ -71,6 +71,9 @@ impl Sheet {
     /// needs a flat primary with its plate and gap); a report leaves out those that do not.
     pub fn applies(self, s: &crate::study::Study) -> bool {
         match self {
+            // A single-phase stator's sheets are its own (`draw` sets its plan and card as
+            // pages): these sheets' notes speak of a polyphase winding's phases.
+            _ if s.single_phase().is_some() => false,
             Sheet::Thrust => thrust::applies(s),
             Sheet::Section => section::applies(s),
             _ => true,

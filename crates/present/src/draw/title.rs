@@ -97,6 +97,7 @@ impl TitleBlock {
                     match h.pole_change {
                         Some(crate::design::PoleChange::DeltaDoubleStar) => "delta/YY".into(),
                         Some(crate::design::PoleChange::StarDoubleStar) => "star/YY".into(),
+                        None if s.single_phase().is_some() => "1-phase main+aux".into(),
                         None => h.connection.to_string(),
                     },
                 ),

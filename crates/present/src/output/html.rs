@@ -142,6 +142,28 @@ pub fn parts(s: &Study) -> Parts {
             sections,
         })
     };
+    if let Some(sp) = s.single_phase() {
+        use super::single_phase_report::{SinglePhaseView, View};
+        let w = s.winding();
+        let mut views = vec![("Plan", View::Plan)];
+        if w.from_coil_list || !sp.findings.is_empty() {
+            views.push(("Audit of the coil list", View::Audit));
+        }
+        views.extend([
+            ("Data card", View::Card),
+            ("Winding factors", View::Factors),
+            ("Travelling field", View::Field),
+        ]);
+        for (title, view) in views {
+            let v = SinglePhaseView {
+                report: sp,
+                winding: w,
+                view,
+            };
+            add(title, v.sections());
+        }
+        return Parts { parts: out };
+    }
     add("Plan", s.plan().sections());
     if let Some(a) = s.audit() {
         add("Audit of the coil list", a.sections());
@@ -268,7 +290,16 @@ pub fn document(s: &Study) -> String {
     // The shared design header, with the slot count and k_w1 marked for readers and tests.
     let h = s.header();
     out.push_str("<div id=\"summary\">\n");
-    for line in super::design_pieces(h) {
+    // A single-phase stator's summary is its own study's (the polyphase header speaks of
+    // phases, belts and a connection it does not have).
+    let lines = match s.single_phase() {
+        Some(sp) => super::single_phase_report::summary(sp)
+            .into_iter()
+            .map(|l| vec![super::Piece::Text(l)])
+            .collect(),
+        None => super::design_pieces(h),
+    };
+    for line in lines {
         let mut l = String::new();
         for piece in &line {
             match piece {

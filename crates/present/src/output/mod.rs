@@ -14,6 +14,7 @@ mod loading_report;
 mod refusal_words;
 pub(crate) mod reports;
 pub mod schema;
+pub mod single_phase_report;
 mod span_words;
 pub mod speeds_report;
 mod table;

@@ -228,7 +228,59 @@ impl Words for PlanError {
             PlanError::Infeasible(r) => r.message(),
             PlanError::Overfilled(o) => o.message(),
             PlanError::Paths(p) => p.message(),
+            PlanError::SinglePhase(r) => single_phase_refusal(r),
         }
+    }
+}
+
+/// A single-phase layout's refusal, with what would work.
+fn single_phase_refusal(r: &crate::winding::single_phase::SinglePhaseRefusal) -> String {
+    use crate::winding::single_phase::{MAIN, SinglePhaseRefusal as R};
+    let part = |p: usize| if p == MAIN { "main" } else { "aux" };
+    let list = |v: &[usize]| {
+        v.iter()
+            .map(usize::to_string)
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    match r {
+        R::SlotsPerPole { slots, poles } => format!(
+            "{slots} slots do not divide into {poles} poles of two or more slots each; a \
+             single-phase stator needs a slot count that is a multiple of the pole count"
+        ),
+        R::TooManyCoils {
+            part: p,
+            asked,
+            spans,
+        } => format!(
+            "{asked} coils per group asked of the {} winding; about its axis the spans {} \
+             fit, so give from 1 to {} coils",
+            part(*p),
+            list(spans),
+            spans.len()
+        ),
+        R::TurnsList {
+            part: p,
+            given,
+            coils,
+        } => format!(
+            "{given} turn counts given for the {} winding's {coils} coils per group; give \
+             one per coil, largest span first",
+            part(*p)
+        ),
+        R::TooFewTurns {
+            part: p,
+            turns,
+            coils,
+        } => format!(
+            "{turns} turns cannot be shared among the {} winding's {coils} coils per \
+             group; give at least {coils}",
+            part(*p)
+        ),
+        R::Layers { needed, layers } => format!(
+            "the main and auxiliary coils put {needed} sides in one slot but layers = \
+             {layers}; set layers = {needed} or give fewer coils per group"
+        ),
     }
 }
 

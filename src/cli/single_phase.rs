@@ -1,0 +1,146 @@
+//! Single-phase layouts: the commands that serve them read the one single-phase study;
+//! the polyphase ones say what to use instead.
+
+use std::path::Path;
+
+use beltwright::draw;
+use beltwright::output::Report;
+use beltwright::output::single_phase_report::{SinglePhaseView, View};
+use beltwright::study::Study;
+use beltwright::winding::Winding;
+
+use super::args::{Cli, Command};
+use super::commands::{page_of, read_spec_source, say, sheet_kind, write_sheet, wrote};
+use super::files::write_set;
+use super::{Failure, Printed};
+
+/// The file a command reads, when it reads one layout.
+fn file_of(c: &Command) -> Option<(&Path, &'static str)> {
+    Some(match c {
+        Command::Plan(a) => (&a.common.file, "plan"),
+        Command::Factors(a) => (&a.common.file, "factors"),
+        Command::Field(a) => (&a.common.file, "field"),
+        Command::Card(a) => (&a.file, "card"),
+        Command::Audit(a) => (&a.common.file, "audit"),
+        Command::Draw(a) => (&a.file, "draw"),
+        Command::Report(a) => (&a.file, "report"),
+        Command::Pitch(a) => (&a.common.file, "pitch"),
+        Command::Thrust(a) => (&a.common.file, "thrust"),
+        Command::Plates(a) => (&a.common.file, "plates"),
+        Command::Inductance(a) => (&a.common.file, "inductance"),
+        Command::Speeds(a) => (&a.common.file, "speeds"),
+        Command::Loading(a) => (&a.common.file, "loading"),
+        _ => return None,
+    })
+}
+
+/// A single-phase layout's command, or `None` when the layout is not single-phase (or
+/// cannot be read: the command's own path then says why).
+pub fn route(cli: &Cli) -> Option<Result<Printed, Failure>> {
+    let (path, name) = file_of(&cli.command)?;
+    let (spec, file, source) = read_spec_source(path).ok()?;
+    spec.design.single_phase.as_ref()?;
+    Some(run(cli, name, &spec, &file, &source))
+}
+
+fn run(
+    cli: &Cli,
+    name: &str,
+    spec: &beltwright::spec::Spec,
+    file: &str,
+    source: &str,
+) -> Result<Printed, Failure> {
+    let w = beltwright::winding::build_lenient(spec)
+        .map_err(|e| super::commands::plan_failure(file, source, spec, &e))?;
+    let study = Study::new(&w, None);
+    let Some(report) = study.single_phase() else {
+        return Err(Failure::input(format!("{file}: not a single-phase layout")));
+    };
+    let view = |v: View, format| -> Printed {
+        let r = report.clone();
+        let w2: Winding = w.clone();
+        Box::new(move |out: &mut dyn std::io::Write| {
+            let v = SinglePhaseView {
+                report: &r,
+                winding: &w2,
+                view: v,
+            };
+            beltwright::output::write(&v, format, out)
+        })
+    };
+    match &cli.command {
+        Command::Plan(a) if a.out.is_none() => Ok(view(View::Plan, a.common.format.into())),
+        Command::Factors(a) => Ok(view(View::Factors, a.common.format.into())),
+        Command::Field(a) if a.svg.is_none() => Ok(view(View::Field, a.common.format.into())),
+        Command::Card(a) => Ok(view(View::Card, a.format.into())),
+        Command::Audit(a) if a.intended.is_none() => {
+            let printed = view(View::Audit, a.common.format.into());
+            if report.findings.is_empty() {
+                Ok(printed)
+            } else {
+                Err(Failure {
+                    message: format!(
+                        "{file}: the audit found {}; see the findings",
+                        beltwright::numbering::count(report.findings.len(), "problem", "problems")
+                    ),
+                    status: 1,
+                    report: Some(printed),
+                })
+            }
+        }
+        Command::Draw(a) => {
+            let kind = sheet_kind(&a.output)?;
+            let pages = sheets(&study, &w, &page_of(a.page, a.portrait));
+            let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
+            Ok(say(wrote(&written)))
+        }
+        Command::Report(a) if a.intended.is_none() => {
+            let Some(out) = &a.output else {
+                return Ok(view(View::Plan, beltwright::output::Format::Text));
+            };
+            if out
+                .extension()
+                .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
+            {
+                let html = beltwright::output::html::document(&study);
+                write_set(
+                    &[(out.to_path_buf(), html.into_bytes())],
+                    &Vec::new,
+                    &[a.file.as_path()],
+                    "-o",
+                )?;
+                return Ok(say(wrote(std::slice::from_ref(out))));
+            }
+            let kind = sheet_kind(out)?;
+            let pages = sheets(&study, &w, &page_of(a.page, a.portrait));
+            let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
+            Ok(say(wrote(&written)))
+        }
+        _ => Err(Failure::input(format!(
+            "{file}: a single-phase stator (machine.phases = 1); `{name}` with these options is \
+             for polyphase windings. Use plan, factors, field, card, audit, draw or report on \
+             it"
+        ))),
+    }
+}
+
+/// A single-phase stator's sheets: its plan (windings, coils, capacitor, lead tables) and
+/// card set as pages with the title block and caution, then its slot diagram.
+pub fn sheets(study: &Study, w: &Winding, page: &draw::Page) -> Vec<String> {
+    let Some(r) = study.single_phase() else {
+        return Vec::new();
+    };
+    let mut pages = Vec::new();
+    for (title, v) in [
+        ("single-phase plan", View::Plan),
+        ("single-phase card", View::Card),
+    ] {
+        let view = SinglePhaseView {
+            report: r,
+            winding: w,
+            view: v,
+        };
+        pages.extend(draw::tables::draw(study, title, &view.sections(), page));
+    }
+    pages
+}
