@@ -47,6 +47,18 @@ fn validates(cmd: &str, args: &[&str]) {
 }
 
 #[test]
+fn single_phase_views_validate_against_their_schema() {
+    let s = schema("single-phase");
+    for cmd in ["plan", "factors", "field", "card", "audit"] {
+        let out = common::run(&[cmd, "layouts/pump-capacitor.toml", "--format", "json"]);
+        let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+        if let Err(e) = check(&v, &s, "single-phase") {
+            panic!("{cmd}: {e}");
+        }
+    }
+}
+
+#[test]
 fn actual_output_validates_against_the_schemas() {
     let _ = json;
     for l in [

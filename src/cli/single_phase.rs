@@ -124,17 +124,14 @@ fn run(
     }
 }
 
-/// A single-phase stator's sheets: its plan (windings, coils, capacitor, lead tables) and
-/// card set as pages with the title block and caution, then its slot diagram.
+/// A single-phase stator's sheets: its plan (windings, coils, capacitor, lead tables),
+/// card, factors and field set as pages with the title block and caution.
 pub fn sheets(study: &Study, w: &Winding, page: &draw::Page) -> Vec<String> {
     let Some(r) = study.single_phase() else {
         return Vec::new();
     };
     let mut pages = Vec::new();
-    for (title, v) in [
-        ("single-phase plan", View::Plan),
-        ("single-phase card", View::Card),
-    ] {
+    for (title, v) in beltwright::output::single_phase_report::SHEET_VIEWS {
         let view = SinglePhaseView {
             report: r,
             winding: w,

@@ -81,7 +81,9 @@ impl TitleBlock {
                 ("Layers", h.layers.to_string()),
                 (
                     "Turns/coil",
-                    if h.mixed_turns.is_empty() {
+                    if s.single_phase().is_some() {
+                        "graded".into()
+                    } else if h.mixed_turns.is_empty() {
                         h.turns_per_coil.to_string()
                     } else {
                         format!(
@@ -97,7 +99,7 @@ impl TitleBlock {
                     match h.pole_change {
                         Some(crate::design::PoleChange::DeltaDoubleStar) => "delta/YY".into(),
                         Some(crate::design::PoleChange::StarDoubleStar) => "star/YY".into(),
-                        None if s.single_phase().is_some() => "1-phase main+aux".into(),
+                        None if s.single_phase().is_some() => "1-phase".into(),
                         None => h.connection.to_string(),
                     },
                 ),

@@ -249,6 +249,25 @@ pub fn document(s: &Study) -> String {
     body.push_str("<section id=\"sheets\">\n<h2>Sheets</h2>\n");
     let page = Page::default();
     let mut n = 0;
+    // A single-phase stator's sheets: its plan and card set as pages.
+    if let Some(sp) = s.single_phase() {
+        use super::single_phase_report::{SHEET_VIEWS, SinglePhaseView};
+        for (title, view) in SHEET_VIEWS {
+            let v = SinglePhaseView {
+                report: sp,
+                winding: w,
+                view,
+            };
+            for svg in draw::tables::draw(s, title, &v.sections(), &page) {
+                n += 1;
+                let _ = writeln!(
+                    body,
+                    "<figure class=\"sheet\" id=\"sheet-{n}\">\n{}\n<figcaption>Figure {n}. The {title}, as a sheet.</figcaption>\n</figure>",
+                    svg.trim_start()
+                );
+            }
+        }
+    }
     for sheet in Sheet::ALL.into_iter().filter(|sheet| sheet.applies(s)) {
         let pages = draw::draw(s, sheet, &page);
         let count = pages.len();
@@ -293,10 +312,19 @@ pub fn document(s: &Study) -> String {
     // A single-phase stator's summary is its own study's (the polyphase header speaks of
     // phases, belts and a connection it does not have).
     let lines = match s.single_phase() {
-        Some(sp) => super::single_phase_report::summary(sp)
-            .into_iter()
-            .map(|l| vec![super::Piece::Text(l)])
-            .collect(),
+        Some(sp) => {
+            let mut l: Vec<Vec<super::Piece>> = super::single_phase_report::summary(sp)
+                .into_iter()
+                .map(|l| vec![super::Piece::Text(l)])
+                .collect();
+            l.push(vec![
+                super::Piece::Text("slots ".into()),
+                super::Piece::Fact("slots", sp.slots.to_string()),
+                super::Piece::Text("; main winding k_w1 = ".into()),
+                super::Piece::Fact("kw1", crate::numbering::num(sp.main.winding_factor, 4)),
+            ]);
+            l
+        }
         None => super::design_pieces(h),
     };
     for line in lines {

@@ -29,6 +29,11 @@ pub fn all() -> Vec<(&'static str, Value)> {
             "survey-two-speed",
             v(schema_for!(super::speeds_report::TwoSpeedSurveyJson)),
         ),
+        // Every view (plan, factors, field, card, audit) of a single-phase stator.
+        (
+            "single-phase",
+            v(schema_for!(super::single_phase_report::SinglePhaseJson)),
+        ),
         ("book-find", v(schema_for!(super::book_report::FoundJson))),
         ("book-show", v(schema_for!(super::book_report::RecordJson))),
         // One line of `book dump`: the backup format `book load` reads.

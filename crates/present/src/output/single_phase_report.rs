@@ -13,6 +13,15 @@ use crate::single_phase::{
 };
 use crate::winding::Winding;
 
+/// The views a single-phase stator's sheets set as pages, with their sheet names: the
+/// `draw` command and the HTML page both draw these.
+pub const SHEET_VIEWS: [(&str, View); 4] = [
+    ("single-phase plan", View::Plan),
+    ("single-phase card", View::Card),
+    ("single-phase factors", View::Factors),
+    ("single-phase field", View::Field),
+];
+
 /// Which command's view of the study.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum View {
