@@ -247,18 +247,22 @@ pub fn synthesize(design: &Design, labels: &Labels) -> Result<Winding, SinglePha
     Ok(w)
 }
 
+/// Middle of a coil in slot pitches from slot 1's centre, across the core's end where the
+/// coil wraps: the axis of the group it belongs to.
+pub fn coil_middle(w: &Winding, coil: &Coil) -> f64 {
+    let z = w.geometry.slots as f64;
+    let mid = (coil.go + coil.back) as f64 / 2.0;
+    if coil.go.abs_diff(coil.back) > w.geometry.slots / 2 {
+        (mid + z / 2.0) % z
+    } else {
+        mid
+    }
+}
+
 /// Which section (0 or 1) of a two-section main winding a main coil belongs to: the first
 /// half of the poles' groups, then the second.
 pub fn main_section(w: &Winding, coil: &Coil) -> usize {
     let s = w.geometry.slots / w.geometry.poles.max(1);
-    // The group's pole from the coil's middle position.
-    let mid = (coil.go + coil.back) as f64 / 2.0;
-    let far = coil.go.abs_diff(coil.back) > w.geometry.slots / 2;
-    let mid = if far {
-        (mid + w.geometry.slots as f64 / 2.0) % w.geometry.slots as f64
-    } else {
-        mid
-    };
-    let pole = (mid / s as f64).floor() as usize;
+    let pole = (coil_middle(w, coil) / s as f64).floor() as usize;
     usize::from(pole >= w.geometry.poles / 2)
 }

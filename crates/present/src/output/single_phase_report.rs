@@ -484,13 +484,10 @@ impl Report for SinglePhaseView<'_> {
             }
             View::Audit => {
                 if r.findings.is_empty() {
-                    s.push(Section::Lines(vec![
+                    s.push(Section::Lines(vec![paragraph(
                         "sound: every coil agrees with its winding, the axes are in \
-                         quadrature, and the readings given are within 5 % of the card"
-                            .split_whitespace()
-                            .collect::<Vec<_>>()
-                            .join(" "),
-                    ]));
+                         quadrature, and the readings given are within 5 % of the card",
+                    )]));
                 } else {
                     s.push(Section::Items(
                         r.findings.iter().map(finding_words).collect(),

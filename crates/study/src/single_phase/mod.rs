@@ -11,7 +11,7 @@ use serde::Serialize;
 use crate::card::coil_resistance_20c;
 use crate::card::measured::FAR_PERCENT;
 use crate::design::{CapacitorDuty, Marking};
-use crate::winding::single_phase::{AUX, MAIN, main_section};
+use crate::winding::single_phase::{AUX, MAIN, coil_middle, main_section};
 use crate::winding::{Elec, Winding};
 use crate::wire::{Wire, metal};
 use capacitor::Motor;
@@ -247,11 +247,16 @@ pub struct SinglePhaseReport {
 
 /// Turns-weighted EMF of a winding and of one section of the main.
 fn emf(w: &Winding, part: usize, order: Elec, section: Option<usize>) -> Complex64 {
-    w.coils
-        .iter()
-        .filter(|c| c.phase == part && section.is_none_or(|s| main_section(w, c) == s))
-        .map(|c| w.coil_emf(c, order))
-        .sum()
+    match section {
+        // One path: the phase EMF is the turns-weighted sum over the winding's coils.
+        None => w.phase_emf(part, order),
+        Some(sec) => w
+            .coils
+            .iter()
+            .filter(|c| c.phase == part && main_section(w, c) == sec)
+            .map(|c| w.coil_emf(c, order))
+            .sum(),
+    }
 }
 
 /// A winding's summary.
@@ -260,15 +265,7 @@ fn part(w: &Winding, p: usize, wire: Option<Wire>, given_ohm: Option<f64>, secti
     let series: u32 = coils.iter().map(|c| c.turns).sum();
     let kw = |nu: u32| emf(w, p, Elec(nu as f64), None).norm() / f64::from(series.max(1));
     // The first group: the coils sharing the first coil's middle.
-    let mid = |c: &crate::winding::Coil| {
-        let z = w.geometry.slots as f64;
-        let m = (c.go + c.back) as f64 / 2.0;
-        if c.go.abs_diff(c.back) > w.geometry.slots / 2 {
-            (m + z / 2.0) % z
-        } else {
-            m
-        }
-    };
+    let mid = |c: &crate::winding::Coil| coil_middle(w, c);
     let mut first: Vec<(usize, u32)> = coils
         .first()
         .map(|c0| {
@@ -429,24 +426,20 @@ pub fn study(w: &Winding) -> Option<SinglePhaseReport> {
         let d = (e_main.arg() - e_aux.arg()).to_degrees();
         (d + 540.0).rem_euclid(360.0) - 180.0
     };
-    let (cap, missing) = match capacitor_study(w, &main, &aux, ratio, parallel) {
+    let motor = motor(w, &main, &aux, ratio, parallel);
+    let (cap, missing) = match motor.and_then(|m| capacitor_study(w, &m)) {
         Ok(c) => (Some(c), None),
         Err(m) => (None, Some(m)),
     };
     // Currents for the spectrum: per unit of the main's, the auxiliary's as the run
     // capacitor makes it, or in exact quadrature (I_a·a = j·I_m, the aux ahead).
-    let (feed, i_aux) = match cap.as_ref().and_then(|c| c.run.as_ref()) {
-        Some(run) => {
-            let m = motor(w, &main, &aux, ratio, parallel).ok();
-            match m {
-                Some(m) => {
-                    let st = m.with_capacitor(run.at.slip, run.microfarads);
-                    (Feed::RunCapacitor, st.aux / st.main / parallel)
-                }
-                None => (Feed::Quadrature, Complex64::i() / ratio / parallel),
-            }
+    let quadrature = Complex64::i() / ratio / parallel;
+    let (feed, i_aux) = match (&motor, cap.as_ref().and_then(|c| c.run.as_ref())) {
+        (Ok(m), Some(run)) => {
+            let st = m.with_capacitor(run.at.slip, run.microfarads);
+            (Feed::RunCapacitor, st.aux / st.main / parallel)
         }
-        None => (Feed::Quadrature, Complex64::i() / ratio / parallel),
+        _ => (Feed::Quadrature, quadrature),
     };
     // A main of two sections in parallel carries half its current in each: per unit main
     // current, each coil of the main carries 1/parallel.
@@ -564,19 +557,12 @@ fn running(m: &Motor, s: f64, series: Option<Complex64>) -> Running {
     }
 }
 
-fn capacitor_study(
-    w: &Winding,
-    main: &Part,
-    aux: &Part,
-    ratio: f64,
-    parallel: f64,
-) -> Result<CapacitorStudy, CapacitorMissing> {
+fn capacitor_study(w: &Winding, m: &Motor) -> Result<CapacitorStudy, CapacitorMissing> {
     let sp = w
         .design
         .single_phase
         .as_ref()
         .ok_or(CapacitorMissing::Circuit)?;
-    let m = motor(w, main, aux, ratio, parallel)?;
     let slip = match sp.slip {
         Some(s) => s,
         None => {
@@ -607,13 +593,13 @@ fn capacitor_study(
         let uf = m.least_backward_uf(slip);
         Choice {
             microfarads: uf,
-            at: running(&m, slip, cap(uf)),
+            at: running(m, slip, cap(uf)),
         }
     });
     let start = if starts {
         m.quadrature_at_start_uf().map(|uf| Choice {
             microfarads: uf,
-            at: running(&m, 1.0, cap(uf)),
+            at: running(m, 1.0, cap(uf)),
         })
     } else {
         None
@@ -622,14 +608,14 @@ fn capacitor_study(
     let slips = SLIPS
         .iter()
         .map(|&s| match (&run, &start, sp.capacitor) {
-            (Some(r), _, _) => running(&m, s, cap(r.microfarads)),
+            (Some(r), _, _) => running(m, s, cap(r.microfarads)),
             // After the start the auxiliary is cut out: the main alone; at standstill the
             // start connection.
-            (None, Some(st), _) if s >= 1.0 => running(&m, s, cap(st.microfarads)),
+            (None, Some(st), _) if s >= 1.0 => running(m, s, cap(st.microfarads)),
             (None, _, CapacitorDuty::None) if s >= 1.0 => {
-                running(&m, s, Some(Complex64::new(0.0, 0.0)))
+                running(m, s, Some(Complex64::new(0.0, 0.0)))
             }
-            _ => running(&m, s, None),
+            _ => running(m, s, None),
         })
         .collect();
     Ok(CapacitorStudy {
