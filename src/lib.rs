@@ -11,7 +11,7 @@ pub use beltwright_present::{draw, output, safety};
 pub use beltwright_study::{
     assumption, audit, card, factors, field, header, inductance, layers, leakage, linear, loading,
     packing, pitch, plan, plates, record, rewind, runs, single_phase, sizing, speeds, study,
-    survey, thrust, warnings,
+    survey, thrust, two_winding, warnings,
 };
 
 pub mod book;

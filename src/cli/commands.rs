@@ -32,6 +32,9 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
     if let Some(done) = super::single_phase::route(&cli) {
         return done;
     }
+    if let Some(done) = super::two_winding::route(&cli) {
+        return done;
+    }
     match cli.command {
         Command::Plan(a) => {
             let w = load(&a.common.file)?;
@@ -635,6 +638,12 @@ pub(super) fn say(text: String) -> Printed {
 /// Read and validate a layout file and build its winding.
 fn load(path: &Path) -> Result<Winding, Failure> {
     let (spec, name, source) = read_spec_source(path)?;
+    if spec.second.is_some() {
+        return Err(Failure::input(format!(
+            "{name}: two windings in one core ([second_winding]); this command works on one \
+             winding. Plan, factors, field, card, audit, draw and report serve the pair"
+        )));
+    }
     winding::build(&spec).map_err(|e| plan_failure(&name, &source, &spec, &e))
 }
 
@@ -680,11 +689,25 @@ fn single_phase_key(
     }
 }
 
-/// Read and validate a layout file, keeping its text for line numbers.
+/// Read and validate a layout file, keeping its text for line numbers. Each file is read
+/// once in a run: the routing of a single-phase or two-winding stator and the command that
+/// serves it see the same text, even if the file changes in between.
 pub(super) fn read_spec_source(path: &Path) -> Result<(layout::Spec, String, String), Failure> {
+    type Read = (PathBuf, layout::Spec, String, String);
+    static READ: std::sync::Mutex<Vec<Read>> = std::sync::Mutex::new(Vec::new());
+    let mut read = READ.lock().unwrap_or_else(|poisoned| poisoned.into_inner());
+    if let Some((_, spec, name, source)) = read.iter().find(|r| r.0 == path) {
+        return Ok((spec.clone(), name.clone(), source.clone()));
+    }
     let name = path.display().to_string();
     let source = files::read_layout(path)?;
     let spec = layout::parse(&source, &name).map_err(|e| Failure::input(e.to_string()))?;
+    read.push((
+        path.to_path_buf(),
+        spec.clone(),
+        name.clone(),
+        source.clone(),
+    ));
     Ok((spec, name, source))
 }
 

@@ -7,6 +7,7 @@ pub mod commands;
 pub mod files;
 pub mod flags;
 pub mod single_phase;
+pub mod two_winding;
 
 use std::io::Write;
 

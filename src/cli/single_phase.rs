@@ -15,7 +15,7 @@ use super::files::write_set;
 use super::{Failure, Printed};
 
 /// The file a command reads, when it reads one layout.
-fn file_of(c: &Command) -> Option<(&Path, &'static str)> {
+pub(super) fn file_of(c: &Command) -> Option<(&Path, &'static str)> {
     Some(match c {
         Command::Plan(a) => (&a.common.file, "plan"),
         Command::Factors(a) => (&a.common.file, "factors"),

@@ -25,7 +25,7 @@ use crate::design::{Connection, Core, Style, Supply, Topology};
 pub use raw::RawLayout;
 
 pub use beltwright_model::spec::{
-    CoilEntry, MAX_COILS, MAX_PHASES, MAX_POLES, MAX_SLOTS, MAX_TURNS, Spec,
+    CoilEntry, MAX_COILS, MAX_PHASES, MAX_POLES, MAX_SLOTS, MAX_TURNS, SecondWinding, Sharing, Spec,
 };
 
 /// Why a layout file was refused.
@@ -59,7 +59,7 @@ pub fn parse(source: &str, file: &str) -> Result<Spec, LayoutError> {
         file: file.to_string(),
         message: syntax_message(source, &e),
     })?;
-    raw.validate(source, file)
+    raw.validate_windings(source, file)
 }
 
 /// The parser's message, reduced to one readable line with the line and key in front.

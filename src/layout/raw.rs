@@ -3,6 +3,7 @@
 use serde::Deserialize;
 
 mod single_phase;
+mod two_winding;
 
 use crate::design::{
     BACKING_STEEL_MS_M, BACKING_STEEL_PERMEABILITY, Backing, Design, Insulation, Leads, Marking,
@@ -37,6 +38,7 @@ pub struct RawLayout {
     aux: Option<single_phase::RawPart>,
     capacitor: Option<single_phase::RawCapacitor>,
     circuit: Option<single_phase::RawCircuit>,
+    second_winding: Option<two_winding::RawSecond>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -87,7 +89,7 @@ struct RawCore {
     end_factor: Option<f64>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Default, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawWire {
     diameter_mm: Option<f64>,
@@ -212,6 +214,7 @@ struct RawGroup {
     polarity: Option<String>,
     turns: Option<i64>,
     path: Option<i64>,
+    winding: Option<i64>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -222,6 +225,7 @@ struct RawCoil {
     back: i64,
     turns: Option<i64>,
     path: Option<i64>,
+    winding: Option<i64>,
 }
 
 /// Builds [`LayoutError::Invalid`] with the line looked up in the source.
@@ -544,6 +548,7 @@ impl RawLayout {
             },
             design,
             coils,
+            second: None,
         })
     }
 
@@ -1074,6 +1079,7 @@ impl RawLayout {
         d.leads = Leads {
             count: count as u8,
             marking: w.marking.unwrap_or_default(),
+            speed: 0,
         };
         if let Some(m) = &self.measured {
             d.measured = Some(self.measured(c, m, &d)?);

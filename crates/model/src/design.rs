@@ -409,6 +409,9 @@ pub struct Leads {
     pub count: u8,
     /// Marking scheme.
     pub marking: Marking,
+    /// In a two-winding motor, the speed this winding serves numbered from the lowest (1
+    /// or 2), which its markings carry; 0 for a machine of one winding.
+    pub speed: u8,
 }
 
 impl Default for Leads {
@@ -416,6 +419,7 @@ impl Default for Leads {
         Leads {
             count: 6,
             marking: Marking::Iec,
+            speed: 0,
         }
     }
 }

@@ -40,6 +40,35 @@ pub struct Spec {
     pub design: Design,
     /// Explicit coil list (replaces synthesis) when non-empty.
     pub coils: Vec<CoilEntry>,
+    /// A second, separate winding in the same slots (a two-winding motor), or `None`.
+    pub second: Option<Box<SecondWinding>>,
+}
+
+/// A second winding of its own pole count and connection in the same core: a two-winding
+/// (two-speed) motor. Each winding is planned, balanced and drawn apart.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SecondWinding {
+    /// The second winding as a layout of its own: the same core, supply and wire, its own
+    /// poles, `[winding]` choices, readings and (for a record) coils.
+    pub spec: Spec,
+    /// How the two windings share the slots.
+    pub sharing: Sharing,
+}
+
+/// The speed numbers of two windings of `poles` poles each: the one with more poles runs
+/// slower and is speed 1, the other speed 2 (IEC 60034-8 numbers the speeds of a
+/// multi-speed motor from the lowest; from memory).
+pub fn speed_numbers(poles: [usize; 2]) -> [u8; 2] {
+    if poles[0] > poles[1] { [1, 2] } else { [2, 1] }
+}
+
+/// How two separate windings share one core's slots.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, schemars::JsonSchema)]
+#[serde(rename_all = "kebab-case")]
+pub enum Sharing {
+    /// Each winding in its own layers of every slot: the first at the bottom of the
+    /// slot, the second above it, nearer the bore.
+    Layers,
 }
 
 impl Spec {
@@ -49,6 +78,7 @@ impl Spec {
             labels: Labels::default(),
             design,
             coils: Vec::new(),
+            second: None,
         }
     }
 }

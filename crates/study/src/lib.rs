@@ -31,4 +31,5 @@ pub mod speeds;
 pub mod study;
 pub mod survey;
 pub mod thrust;
+pub mod two_winding;
 pub mod warnings;

@@ -33,6 +33,8 @@ pub enum Analysis {
     Speeds,
     /// `single_phase::study`.
     SinglePhase,
+    /// `two_winding::TwoStudy::report`.
+    TwoWinding,
 }
 
 impl Analysis {
@@ -53,7 +55,7 @@ impl Analysis {
 }
 
 /// One counter per [`Analysis`] variant.
-static RUNS: [AtomicUsize; 13] = [const { AtomicUsize::new(0) }; 13];
+static RUNS: [AtomicUsize; 14] = [const { AtomicUsize::new(0) }; 14];
 
 /// Count one run of `a`.
 pub fn count(a: Analysis) {

@@ -453,6 +453,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
             labels: spec.labels.clone(),
             design: d,
             coils: Vec::new(),
+            second: None,
         })
     };
     let probe = Design {

@@ -184,12 +184,7 @@ fn speed(w: &Winding, joined: Joined, turns_in_series: f64) -> Result<Speed, Spe
         ..FieldOptions::balanced(w)
     };
     let f = field::field(w, &opts).map_err(|_| SpeedsError::Unbalanced { poles })?;
-    let rpm = w
-        .design
-        .supply
-        .frequency_hz
-        .or_else(|| w.design.nameplate.as_ref().and_then(|n| n.frequency_hz))
-        .map(|hz| 120.0 * hz / poles as f64);
+    let rpm = synchronous_rpm(w, poles);
     Ok(Speed {
         poles,
         joined,
@@ -344,4 +339,14 @@ pub fn best_span(spans: &[SpanAtBoth]) -> Option<usize> {
         }
     }
     best.map(|b| b.span)
+}
+
+/// Synchronous speed of `poles` poles at the supply's (or nameplate's) frequency, rpm:
+/// n_s = 120·f/2p (common practice).
+pub fn synchronous_rpm(w: &Winding, poles: usize) -> Option<f64> {
+    w.design
+        .supply
+        .frequency_hz
+        .or_else(|| w.design.nameplate.as_ref().and_then(|n| n.frequency_hz))
+        .map(|hz| 120.0 * hz / poles as f64)
 }

@@ -153,7 +153,7 @@ impl Report for AuditReport {
                 ("measured across", Align::Left),
                 ("ohm at 20 C", Align::Right),
                 ("card ohm", Align::Right),
-                ("against median %", Align::Right),
+                ("from median %", Align::Right),
                 ("verdict", Align::Left),
             ]);
             for j in &r.judged {

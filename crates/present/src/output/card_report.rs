@@ -633,7 +633,7 @@ fn acceptance_sections(card: &DataCard) -> Vec<Section> {
             ("across", Align::Left),
             ("ohm at 20 C", Align::Right),
             ("card ohm", Align::Right),
-            ("against median %", Align::Right),
+            ("from median %", Align::Right),
         ]);
         for j in &m.judged {
             t.push(vec![

@@ -230,25 +230,9 @@ pub fn document(s: &Study) -> String {
             w.geometry.topology, w.geometry.slots, w.geometry.poles
         )
     });
-    let mut body = String::new();
-    let mut toc: Vec<(String, String)> = Vec::new();
     let report = parts(s);
-    for part in &report.parts {
-        let id = id_of(&part.title);
-        toc.push((id.clone(), part.title.clone()));
-        let _ = writeln!(
-            body,
-            "<section id=\"{id}\">\n<h2>{}</h2>",
-            escape(&part.title)
-        );
-        sections(&mut body, &part.sections);
-        body.push_str("</section>\n");
-    }
-    // Every sheet, one figure per page.
-    toc.push(("sheets".into(), "Sheets".into()));
-    body.push_str("<section id=\"sheets\">\n<h2>Sheets</h2>\n");
     let page = Page::default();
-    let mut n = 0;
+    let mut figures: Vec<(String, String)> = Vec::new();
     // A single-phase stator's sheets: its plan and card set as pages.
     if let Some(sp) = s.single_phase() {
         use super::single_phase_report::{SHEET_VIEWS, SinglePhaseView};
@@ -259,56 +243,12 @@ pub fn document(s: &Study) -> String {
                 view,
             };
             for svg in draw::tables::draw(s, title, &v.sections(), &page) {
-                n += 1;
-                let _ = writeln!(
-                    body,
-                    "<figure class=\"sheet\" id=\"sheet-{n}\">\n{}\n<figcaption>Figure {n}. The {title}, as a sheet.</figcaption>\n</figure>",
-                    svg.trim_start()
-                );
+                figures.push((svg, format!("The {title}, as a sheet.")));
             }
         }
     }
-    for sheet in Sheet::ALL.into_iter().filter(|sheet| sheet.applies(s)) {
-        let pages = draw::draw(s, sheet, &page);
-        let count = pages.len();
-        for (k, svg) in pages.iter().enumerate() {
-            n += 1;
-            let label = if count > 1 {
-                format!("{} (page {} of {count})", caption(sheet), k + 1)
-            } else {
-                caption(sheet).to_string()
-            };
-            let _ = writeln!(
-                body,
-                "<figure class=\"sheet\" id=\"sheet-{n}\">\n{}\n<figcaption>Figure {n}. {}</figcaption>\n</figure>",
-                svg.trim_start(),
-                escape(&label)
-            );
-        }
-    }
-    body.push_str("</section>\n");
-
-    let mut out = String::with_capacity(body.len() + 4096);
-    out.push_str("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
-    out.push_str("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
-    let _ = writeln!(out, "<title>{}</title>", escape(&title));
-    let _ = writeln!(out, "<style>{STYLE}</style>\n</head>\n<body>");
-    let _ = writeln!(out, "<header>\n<h1>{}</h1>", escape(&title));
-    let _ = writeln!(
-        out,
-        "<p class=\"caution\" role=\"note\">{}</p>",
-        escape(CAUTION)
-    );
-    if s.sound() != Soundness::Sound {
-        out.push_str(
-            "<p class=\"caution\" role=\"alert\" id=\"unsound\">NOT A SOUND WINDING: the \
-             audit below has findings. Do not wind or connect from this report until they are \
-             cleared.</p>\n",
-        );
-    }
+    figures.extend(sheet_figures(s, &page, ""));
     // The shared design header, with the slot count and k_w1 marked for readers and tests.
-    let h = s.header();
-    out.push_str("<div id=\"summary\">\n");
     // A single-phase stator's summary is its own study's (the polyphase header speaks of
     // phases, belts and a connection it does not have).
     let lines = match s.single_phase() {
@@ -325,11 +265,159 @@ pub fn document(s: &Study) -> String {
             ]);
             l
         }
-        None => super::design_pieces(h),
+        None => super::design_pieces(s.header()),
     };
+    assemble(
+        &title,
+        &lines,
+        s.sound() == Soundness::Sound,
+        &report.parts,
+        &figures,
+    )
+}
+
+/// Every sheet that applies to the study `s`, with its caption (after `prefix`).
+fn sheet_figures(s: &Study, page: &Page, prefix: &str) -> Vec<(String, String)> {
+    let mut figures = Vec::new();
+    for sheet in Sheet::ALL.into_iter().filter(|sheet| sheet.applies(s)) {
+        let pages = draw::draw(s, sheet, page);
+        let count = pages.len();
+        for (k, svg) in pages.into_iter().enumerate() {
+            let label = if count > 1 {
+                format!("{prefix}{} (page {} of {count})", caption(sheet), k + 1)
+            } else {
+                format!("{prefix}{}", caption(sheet))
+            };
+            figures.push((svg, label));
+        }
+    }
+    figures
+}
+
+/// The HTML report of two windings in one core: the pair's report, then each winding's
+/// parts and sheets under its name.
+pub fn document_two(t: &crate::two_winding::TwoStudy) -> String {
+    use super::two_winding_report::{pair_sections, part_line, summary};
+    let r = t.report();
+    let first = t.studies()[0].winding();
+    let title = first.labels.title.clone().unwrap_or_else(|| {
+        format!(
+            "{} core, {} slots, two windings",
+            first.geometry.topology, first.geometry.slots
+        )
+    });
+    let page = Page::default();
+    let mut all = vec![Part {
+        title: "Two windings in one core".into(),
+        sections: pair_sections(r),
+    }];
+    let mut figures = Vec::new();
+    for (i, s) in t.studies().iter().enumerate() {
+        let name = format!("{}-pole winding", r.windings[i].poles);
+        let mut own = parts(s).parts;
+        if let Some(p) = own.first_mut() {
+            p.sections
+                .insert(0, Section::Lines(vec![part_line(i, &r.windings[i])]));
+        }
+        all.extend(own.into_iter().map(|p| Part {
+            title: format!("{name}: {}", p.title),
+            sections: p.sections,
+        }));
+        figures.extend(
+            sheet_figures(s, &page, &format!("{name}. "))
+                .into_iter()
+                .map(|(svg, label)| (scoped(&svg, &format!("w{}-", i + 1)), label)),
+        );
+    }
+    let pair_page = super::two_winding_report::pair_sections(r);
+    let pair_svgs = draw::tables::draw(&t.studies()[0], "two windings", &pair_page, &page);
+    let mut with_pair: Vec<(String, String)> = pair_svgs
+        .into_iter()
+        .map(|svg| (svg, "The two windings, as a sheet.".to_string()))
+        .collect();
+    with_pair.extend(figures);
+    let mut lines: Vec<Vec<super::Piece>> = summary(r)
+        .into_iter()
+        .map(|l| vec![super::Piece::Text(l)])
+        .collect();
+    lines.push(vec![
+        super::Piece::Text("slots ".into()),
+        super::Piece::Fact("slots", first.geometry.slots.to_string()),
+        super::Piece::Text("; first winding k_w1 = ".into()),
+        super::Piece::Fact(
+            "kw1",
+            crate::numbering::num(r.windings[0].winding_factor, 4),
+        ),
+    ]);
+    let sound = r.findings.is_empty() && t.studies().iter().all(|s| s.sound() == Soundness::Sound);
+    assemble(&title, &lines, sound, &all, &with_pair)
+}
+
+/// A sheet's ids (and the references to them) prefixed, so that the same sheet of two
+/// windings can sit on one page with every id unique.
+fn scoped(svg: &str, prefix: &str) -> String {
+    svg.replace("id=\"", &format!("id=\"{prefix}"))
+        .replace("url(#", &format!("url(#{prefix}"))
+}
+
+/// One self-contained page: the header with the caution and summary, the contents, each
+/// part, every figure, the foot.
+fn assemble(
+    title: &str,
+    lines: &[Vec<super::Piece>],
+    sound: bool,
+    parts: &[Part],
+    figures: &[(String, String)],
+) -> String {
+    let mut body = String::new();
+    let mut toc: Vec<(String, String)> = Vec::new();
+    for part in parts {
+        let id = id_of(&part.title);
+        toc.push((id.clone(), part.title.clone()));
+        let _ = writeln!(
+            body,
+            "<section id=\"{id}\">\n<h2>{}</h2>",
+            escape(&part.title)
+        );
+        sections(&mut body, &part.sections);
+        body.push_str("</section>\n");
+    }
+    // Every sheet, one figure per page.
+    toc.push(("sheets".into(), "Sheets".into()));
+    body.push_str("<section id=\"sheets\">\n<h2>Sheets</h2>\n");
+    for (k, (svg, label)) in figures.iter().enumerate() {
+        let n = k + 1;
+        let _ = writeln!(
+            body,
+            "<figure class=\"sheet\" id=\"sheet-{n}\">\n{}\n<figcaption>Figure {n}. {}</figcaption>\n</figure>",
+            svg.trim_start(),
+            escape(label)
+        );
+    }
+    body.push_str("</section>\n");
+
+    let mut out = String::with_capacity(body.len() + 4096);
+    out.push_str("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
+    out.push_str("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
+    let _ = writeln!(out, "<title>{}</title>", escape(title));
+    let _ = writeln!(out, "<style>{STYLE}</style>\n</head>\n<body>");
+    let _ = writeln!(out, "<header>\n<h1>{}</h1>", escape(title));
+    let _ = writeln!(
+        out,
+        "<p class=\"caution\" role=\"note\">{}</p>",
+        escape(CAUTION)
+    );
+    if !sound {
+        out.push_str(
+            "<p class=\"caution\" role=\"alert\" id=\"unsound\">NOT A SOUND WINDING: the \
+             audit below has findings. Do not wind or connect from this report until they are \
+             cleared.</p>\n",
+        );
+    }
+    out.push_str("<div id=\"summary\">\n");
     for line in lines {
         let mut l = String::new();
-        for piece in &line {
+        for piece in line {
             match piece {
                 super::Piece::Text(t) => l.push_str(&escape(t)),
                 super::Piece::Fact(id, t) => {

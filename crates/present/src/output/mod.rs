@@ -20,6 +20,7 @@ pub mod speeds_report;
 mod table;
 mod text;
 mod thrust_report;
+pub mod two_winding_report;
 pub mod warning_words;
 
 pub use card_report::{configuration_name, connection_words, rating_words};

@@ -34,6 +34,11 @@ pub fn all() -> Vec<(&'static str, Value)> {
             "single-phase",
             v(schema_for!(super::single_phase_report::SinglePhaseJson)),
         ),
+        // Every view (plan, factors, field, card, audit) of two windings in one core.
+        (
+            "two-winding",
+            v(schema_for!(super::two_winding_report::TwoWindingJson)),
+        ),
         ("book-find", v(schema_for!(super::book_report::FoundJson))),
         ("book-show", v(schema_for!(super::book_report::RecordJson))),
         // One line of `book dump`: the backup format `book load` reads.

@@ -14,7 +14,8 @@ impl Exporter for Text {
                     if i > 0 {
                         out.write_all(b"\n")?;
                     }
-                    writeln!(out, "{}", crate::sanitize::clean(h))?;
+                    // A long title makes a long heading: wrapped like a paragraph.
+                    self::lines(std::slice::from_ref(h), 2, out)?;
                 }
                 Section::Lines(lines) | Section::Design(lines) | Section::Caution(lines) => {
                     self::lines(lines, 0, out)?;

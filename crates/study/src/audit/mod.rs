@@ -799,13 +799,22 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         topology: g.topology,
         sequence: bal.sequence,
         slots: g.slots,
-        line_leads: w.design.pole_change.map(|_| {
-            crate::winding::pole_change::HIGH_SPEED
-                .lines
-                .iter()
-                .map(|l| l.name(w.design.leads.marking))
-                .collect()
-        }),
+        line_leads: match (w.design.pole_change, w.design.leads.speed) {
+            (Some(_), _) => Some(
+                crate::winding::pole_change::HIGH_SPEED
+                    .lines
+                    .iter()
+                    .map(|l| l.name(w.design.leads.marking))
+                    .collect(),
+            ),
+            // A winding of a two-winding motor: its leads carry its speed's number.
+            (None, 1..) => Some(
+                (0..3)
+                    .map(|p| crate::card::leads::section_lead(w.design.leads, p, 0, false).0)
+                    .collect(),
+            ),
+            (None, 0) => None,
+        },
     };
     AuditReport {
         design: crate::header::of(w),

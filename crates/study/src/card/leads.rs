@@ -98,11 +98,26 @@ pub fn section_lead(leads: Leads, p: usize, s: usize, finish: bool) -> (String, 
         (leads.count, s, e),
         (3, _, End::Finish) | (9, 1, End::Finish)
     );
-    (name(leads.marking, leads.count, p % 3, s, e), inside)
+    (name(leads, p % 3, s, e), inside)
 }
 
-/// Name of the end of section `s` (0 or 1) of phase `p` (0..3).
-fn name(marking: Marking, count: u8, p: usize, s: usize, e: End) -> String {
+/// Name of the end of section `s` (0 or 1) of phase `p` (0..3), with the speed a winding
+/// of a two-winding motor serves: IEC 60034-8 writes the speed's number in front (1U1,
+/// 2U1); NEMA MG 1 numbers the higher speed's leads from T11 (both from memory).
+fn name(leads: Leads, p: usize, s: usize, e: End) -> String {
+    let base = own_name(leads.marking, leads.count, p, s, e);
+    match (leads.speed, leads.marking) {
+        (0, _) => base,
+        (n, Marking::Iec) => format!("{n}{base}"),
+        (n, Marking::Nema) => match base.strip_prefix('T').and_then(|t| t.parse::<u32>().ok()) {
+            Some(t) => format!("T{}", t + 10 * (u32::from(n) - 1)),
+            None => base,
+        },
+    }
+}
+
+/// Name of the end of section `s` (0 or 1) of phase `p` (0..3) of a one-winding machine.
+fn own_name(marking: Marking, count: u8, p: usize, s: usize, e: End) -> String {
     match marking {
         Marking::Nema => {
             if count == 3 {
@@ -196,7 +211,7 @@ pub fn scheme(
     topology: crate::design::Topology,
 ) -> LeadScheme {
     let (m, n) = (leads.marking, leads.count);
-    let nm = |p: usize, s: usize, e: End| name(m, n, p, s, e);
+    let nm = |p: usize, s: usize, e: End| name(leads, p, s, e);
     let sections = if n >= 9 { 2 } else { 1 };
     let mut terminals = Vec::new();
     let mut internal: Vec<Vec<String>> = Vec::new();
@@ -355,6 +370,13 @@ pub fn scheme(
     };
     for c in &mut configs {
         c.as_planned = c.connection == planned && c.sections == planned_sections;
+    }
+    // A winding of a two-winding motor is wired only as planned, by its own speed's
+    // contactor: the other connections of its leads are not a choice on that machine.
+    if leads.speed != 0 {
+        configs.retain(|c| c.as_planned);
+    }
+    for c in &mut configs {
         c.line_voltage_v = line_voltage_v.map(|v| {
             let by_sections = match (planned_sections, c.sections) {
                 (Sections::Parallel, Sections::Series) => 2.0,
@@ -400,6 +422,7 @@ mod tests {
             Leads {
                 count: n,
                 marking: m,
+                speed: 0,
             },
             c,
             None,

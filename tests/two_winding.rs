@@ -1,0 +1,321 @@
+//! Two separate windings in one core (a two-winding, two-speed motor), against closed forms:
+//! - the flux a winding links in another's gap field is computed by the study from the
+//!   stepped MMF of the slot currents (`two_winding::phase_linkages`); here the same linkage
+//!   is summed as a Fourier series of the slot currents, each order's MMF c_n/(jn) and
+//!   linkage (e^{jnθ_b} − e^{jnθ_g})/(jn), folded onto the S discrete orders with
+//!   Σ_k 1/(r + kS)² = (π/S)²/sin²(πr/S) (Abramowitz and Stegun 4.3.92, from memory);
+//! - a winding of p pole pairs on a core whose windings are integral-slot links only the
+//!   mechanical orders p·μ, μ odd, and a balanced three-phase winding's MMF has no triplen
+//!   orders (any machines text, e.g. Say, *Alternating Current Machines*, ch. 4): so 4 and 6
+//!   poles on 36 slots (orders 2ν against 3μ, never equal with ν, μ odd) do not couple at
+//!   all, while a 12-pole field reaches a 4-pole winding only at its triplen orders, whose
+//!   EMFs are in phase in all three phases (zero sequence): round a delta they add to three
+//!   times one phase's;
+//! - with the 12-pole winding full pitch at q = 1 (k_w = 1 at every odd order) and the
+//!   4-pole winding at span 7 of 9, q = 3 (|k_w| = 1/3 at orders 3, 15, 21, 33, ... by Say's
+//!   k_p = sin(ν·y·π/(2τ)) and k_d = sin(ν·q·α/2)/(q·sin(ν·α/2))), the idle 4-pole phase
+//!   links N_4·(1/3)/N_12 of what the running 12-pole phase links: 192/3/264 = 8/33.
+
+mod common;
+
+use beltwright::layout;
+use beltwright::two_winding::{Finding, TwoStudy, phase_linkages};
+use beltwright::winding::{self, Winding, star};
+use num_complex::Complex64;
+use serde_json::Value;
+use std::f64::consts::PI;
+
+const HOIST: &str = "layouts/hoist-two-winding.toml";
+const RECORD: &str = "layouts/hoist-two-winding-as-found.toml";
+
+fn pair(text: &str) -> (Winding, Winding, beltwright::spec::Sharing) {
+    let spec = layout::parse(text, "test.toml").unwrap_or_else(|e| panic!("{e}"));
+    let second = spec.second.clone().expect("a second winding");
+    (
+        winding::build(&spec).unwrap_or_else(|e| panic!("{e}")),
+        winding::build(&second.spec).unwrap_or_else(|e| panic!("{e}")),
+        second.sharing,
+    )
+}
+
+fn two(
+    slots: usize,
+    first: (usize, usize, usize, &str),
+    second: (usize, usize, usize, &str),
+) -> String {
+    let (p1, l1, y1, c1) = first;
+    let (p2, l2, y2, c2) = second;
+    format!(
+        "[machine]\ntopology = \"rotary\"\nslots = {slots}\npoles = {p1}\n\n\
+         [winding]\nlayers = {l1}\npitch = {y1}\nturns_per_coil = 10\nconnection = \"{c1}\"\n\n\
+         [second_winding]\npoles = {p2}\nlayers = {l2}\npitch = {y2}\nturns_per_coil = 30\n\
+         connection = \"{c2}\"\n\n[supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n"
+    )
+}
+
+/// The same linkage as `phase_linkages`, by the folded Fourier series.
+fn by_series(running: &Winding, idle: &Winding) -> Vec<Complex64> {
+    let m = running.geometry.phases;
+    let ops: Vec<Complex64> = (0..m).map(|k| star::phase_operator(k, m)).collect();
+    let slot = star::slot_currents(running, &ops);
+    let s = slot.len();
+    let e =
+        |n: usize, k: usize| Complex64::from_polar(1.0, 2.0 * PI * (n * k % s) as f64 / s as f64);
+    let c: Vec<Complex64> = (0..s)
+        .map(|r| {
+            slot.iter()
+                .enumerate()
+                .map(|(k, i)| i * e(r, k).conj())
+                .sum()
+        })
+        .collect();
+    let a = idle.parallel_paths as f64;
+    let mut out = vec![Complex64::new(0.0, 0.0); idle.geometry.phases];
+    for coil in &idle.coils {
+        let mut l = Complex64::new(0.0, 0.0);
+        for (r, cr) in c.iter().enumerate().skip(1) {
+            let fold = 1.0 / (PI * r as f64 / s as f64).sin().powi(2);
+            l += cr * (e(r, coil.back) - e(r, coil.go)) * fold;
+        }
+        // −(S/4π²)·Σ c_r·(…)·(π/S)²/sin² in slot pitches.
+        out[coil.phase] += -l / (4.0 * s as f64) * (coil.turns as f64 / a);
+    }
+    out
+}
+
+#[test]
+fn linkages_agree_with_the_fourier_series() {
+    for text in [
+        two(36, (4, 2, 7, "delta"), (12, 1, 3, "star")),
+        two(36, (4, 2, 8, "star"), (6, 2, 5, "delta")),
+        two(48, (4, 2, 10, "star"), (16, 2, 2, "star")),
+        two(54, (6, 2, 8, "delta"), (10, 2, 5, "star")),
+        two(24, (2, 2, 9, "star"), (8, 1, 3, "delta")),
+    ] {
+        let (w1, w2, _) = pair(&text);
+        for (r, i) in [(&w1, &w2), (&w2, &w1), (&w1, &w1), (&w2, &w2)] {
+            let stepped = phase_linkages(r, i);
+            let series = by_series(r, i);
+            let scale = phase_linkages(r, r)
+                .iter()
+                .map(|x| x.norm())
+                .fold(0.0, f64::max);
+            for (a, b) in stepped.iter().zip(&series) {
+                assert!(
+                    (a - b).norm() < 1e-9 * scale,
+                    "{text}: stepped {a} against series {b}"
+                );
+            }
+        }
+    }
+}
+
+#[test]
+fn windings_of_four_and_six_poles_do_not_couple() {
+    let (w1, w2, sharing) = pair(&two(36, (4, 2, 8, "delta"), (6, 2, 5, "delta")));
+    let t = TwoStudy::new([&w1, &w2], [None, None], sharing);
+    for c in &t.report().couplings {
+        assert!(c.phase_ratio < 1e-12, "{c:?}");
+        assert!(c.loop_ratio < 1e-12, "{c:?}");
+    }
+    assert!(t.report().findings.is_empty(), "{:?}", t.report().findings);
+}
+
+#[test]
+fn a_twelve_pole_field_drives_a_zero_sequence_emf_round_the_four_pole_delta() {
+    // The example with its 4-pole delta closed inside (three leads).
+    let text = std::fs::read_to_string(HOIST)
+        .expect("example")
+        .replace("leads = 6 ", "leads = 3 ");
+    let (w1, w2, sharing) = pair(&text);
+    let t = TwoStudy::new([&w1, &w2], [None, None], sharing);
+    let r = t.report();
+    let c = &r.couplings[1];
+    assert_eq!((c.running, c.idle), (1, 0));
+    assert!(
+        (c.phase_ratio - 8.0 / 33.0).abs() < 1e-12,
+        "{}",
+        c.phase_ratio
+    );
+    assert!((c.loop_ratio - 3.0 * c.phase_ratio).abs() < 1e-12);
+    // At 400 V in star, each 12-pole phase is at 400/√3 V.
+    let loop_v = 400.0 / 3f64.sqrt() * 8.0 / 11.0;
+    assert!((c.loop_v.expect("volts") - loop_v).abs() < 1e-9);
+    // The other way the orders never meet: the 12-pole winding sees nothing.
+    assert!(r.couplings[0].phase_ratio < 1e-12);
+    assert!(matches!(
+        r.findings.as_slice(),
+        [Finding::ClosedDeltaLoop {
+            running: 1,
+            idle: 0,
+            ..
+        }]
+    ));
+    // Brought out open (six leads), the delta is the contactor's to keep open: no finding.
+    let (w1, w2, sharing) = pair(&std::fs::read_to_string(HOIST).expect("example"));
+    let t = TwoStudy::new([&w1, &w2], [None, None], sharing);
+    assert!(t.report().findings.is_empty(), "{:?}", t.report().findings);
+    // The command says so and exits 1.
+    let f = common::temp_layout(&text);
+    let out = common::run(&["audit", f.path().to_str().expect("path")]);
+    assert_eq!(out.status.code(), Some(1));
+    let said = String::from_utf8_lossy(&out.stdout);
+    assert!(said.contains("round its delta"), "{said}");
+}
+
+#[test]
+fn the_example_plans_both_windings_balanced_with_their_speeds_leads() {
+    let v = common::json(&["plan", HOIST, "--format", "json"]);
+    assert_eq!(v["kind"], "two-winding");
+    // The contract's plan fields are the first winding's, the second's are its own.
+    assert_eq!(v["balanced"], true);
+    assert_eq!(v["second_winding"]["balanced"], true);
+    assert_eq!(v["coils"].as_array().map(Vec::len), Some(36));
+    assert_eq!(
+        v["second_winding"]["coils"].as_array().map(Vec::len),
+        Some(18)
+    );
+    let parts = v["pair"]["windings"].as_array().expect("windings");
+    // IEC 60034-8 numbers the speeds from the lowest in front of the marks; the 4-pole
+    // winding is the high speed (from memory).
+    assert_eq!(parts[0]["poles"], 4);
+    assert_eq!(parts[0]["speed"], "high");
+    assert_eq!(parts[1]["speed"], "low");
+    let leads = |i: usize| -> Vec<String> {
+        parts[i]["leads"]
+            .as_array()
+            .expect("leads")
+            .iter()
+            .map(|x| x.as_str().expect("name").to_string())
+            .collect()
+    };
+    assert_eq!(leads(0), ["2U1", "2V1", "2W1", "2U2", "2V2", "2W2"]);
+    assert_eq!(leads(1), ["1U", "1V", "1W"]);
+    // Both windings' wire in every slot: the pair's fill is the sum of each card's.
+    let fill = |w: &Value| w["slot_fill"].as_f64().expect("fill");
+    let card = common::json(&["card", HOIST, "--format", "json"]);
+    let sum = fill(&card) + fill(&card["second_winding"]);
+    assert!((card["pair"]["slot_fill"].as_f64().expect("pair fill") - sum).abs() < 1e-12);
+    assert!(common::run(&["audit", HOIST]).status.success());
+}
+
+#[test]
+fn nema_marks_the_high_speed_winding_from_t11() {
+    // NEMA MG 1's two-winding scheme: T1–T3 the low speed, T11–T13 the high (from memory).
+    let text = std::fs::read_to_string(HOIST)
+        .expect("example")
+        .replace("leads = 6 ", "leads = 3 ")
+        .replace(
+            "connection = \"delta\"",
+            "connection = \"star\"\nmarking = \"nema\"",
+        );
+    let f = common::temp_layout(&text);
+    let v = common::json(&["plan", f.path().to_str().expect("path"), "--format", "json"]);
+    let parts = v["pair"]["windings"].as_array().expect("windings");
+    assert_eq!(parts[0]["leads"], serde_json::json!(["T11", "T12", "T13"]));
+    assert_eq!(parts[1]["leads"], serde_json::json!(["T1", "T2", "T3"]));
+}
+
+#[test]
+fn the_held_back_record_has_one_reversed_coil_in_the_twelve_pole_winding() {
+    let out = common::run(&["audit", RECORD, "--format", "json"]);
+    assert_eq!(out.status.code(), Some(1));
+    let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+    // The 4-pole winding as found is sound; the 12-pole has exactly the reversed coil.
+    assert_eq!(v["sound"], true);
+    let found = v["second_winding"]["findings"]
+        .as_array()
+        .expect("findings");
+    assert_eq!(found.len(), 1, "{found:?}");
+    assert_eq!(found[0]["kind"], "reversed_coil");
+    let message = found[0]["message"].as_str().expect("message");
+    assert!(message.contains("slot 22"), "{message}");
+    assert_eq!(v["all_sound"], false);
+    // Against the design, the same coil and nothing else.
+    let out = common::run(&["audit", RECORD, "--intended", HOIST, "--format", "json"]);
+    let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+    assert_eq!(v["sound"], true);
+    assert_eq!(v["second_winding"]["sound"], false);
+}
+
+#[test]
+fn bad_two_winding_layouts_exit_2_naming_the_key() {
+    let base = std::fs::read_to_string(HOIST).expect("example");
+    for (from, to, key) in [
+        ("poles = 12", "poles = 4", "second_winding.poles"),
+        ("poles = 12", "poles = 11", "second_winding.poles"),
+        ("pitch = 3 ", "pitch = 40 ", "second_winding.pitch"),
+        ("leads = 6 ", "leads = 9 ", "winding.leads"),
+        ("sharing = \"layers\"", "sharing = \"slots\"", "sharing"),
+        (
+            "turns_per_coil = 44",
+            "turns_per_coil = 44\nbogus = 1",
+            "bogus",
+        ),
+        (
+            "[winding]",
+            "[winding]\npole_change = \"star-double-star\"",
+            "winding.pole_change",
+        ),
+    ] {
+        assert!(base.contains(from), "{from}");
+        let f = common::temp_layout(&base.replacen(from, to, 1));
+        let out = common::run(&["plan", f.path().to_str().expect("path")]);
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{to}: {err}");
+        assert!(err.contains(key), "{to}: {err}");
+    }
+    // A coil of a second winding the layout does not have.
+    let f = common::temp_layout(&format!(
+        "{}\n[[coil]]\nwinding = 3\nphase = \"U\"\ngo = 1\nback = 4\n",
+        base
+    ));
+    let out = common::run(&["plan", f.path().to_str().expect("path")]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("coil[1].winding"));
+    // Commands for one winding say what serves the pair.
+    let out = common::run(&["pitch", HOIST]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("two windings"));
+}
+
+#[test]
+fn sheets_and_the_page_carry_both_windings() {
+    let dir = tempfile::tempdir().expect("dir");
+    let html = dir.path().join("hoist.html");
+    let out = common::run(&["report", HOIST, "-o", html.to_str().expect("path")]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let page = std::fs::read_to_string(&html).expect("page");
+    for want in [
+        "Two windings in one core",
+        "4-pole winding: Plan",
+        "12-pole winding: Plan",
+        "4-pole winding, bottom",
+        "12-pole winding, top",
+        "2U1",
+        "1U",
+    ] {
+        assert!(page.contains(want), "{want}");
+    }
+    assert!(!page.contains("id=\"unsound\""));
+    let svg = dir.path().join("c.svg");
+    let out = common::run(&[
+        "draw",
+        HOIST,
+        "--sheet",
+        "connections",
+        "-o",
+        svg.to_str().expect("path"),
+    ]);
+    assert!(out.status.success());
+    // One connection sheet per winding: the second written as c-2.svg.
+    let second = std::fs::read_to_string(dir.path().join("c-2.svg")).expect("second sheet");
+    assert!(
+        second.contains("1U"),
+        "the 12-pole sheet marks its leads 1U"
+    );
+}
