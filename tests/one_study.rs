@@ -73,4 +73,30 @@ fn the_report_of_a_recorded_flat_primary_runs_each_analysis_once() {
     for (a, was) in counted.iter().zip(before) {
         assert_eq!(runs(*a) - was, 1, "{a:?} ran {} times", runs(*a) - was);
     }
+
+    // Two windings in one core: the page reads each winding's study and the pair's report,
+    // each worked out once (each winding's analyses once per winding).
+    let source = std::fs::read_to_string("layouts/hoist-two-winding.toml").expect("example");
+    let spec = parse(&source, "hoist-two-winding.toml").expect("layout");
+    let second = spec.second.clone().expect("second winding");
+    let (one, two) = (
+        build(&spec).expect("first"),
+        build(&second.spec).expect("second"),
+    );
+    let counted = [
+        Analysis::TwoWinding,
+        Analysis::Card,
+        Analysis::Plan,
+        Analysis::Factors,
+        Analysis::Field,
+        Analysis::Pitch,
+    ];
+    let before: Vec<usize> = counted.iter().map(|&a| runs(a)).collect();
+    let pair = beltwright::two_winding::TwoStudy::new([&one, &two], [None, None], second.sharing);
+    let page = html::document_two(&pair, Some("hoist"));
+    assert!(page.contains("Two windings in one core"));
+    for (a, was) in counted.iter().zip(before) {
+        let want = if *a == Analysis::TwoWinding { 1 } else { 2 };
+        assert_eq!(runs(*a) - was, want, "{a:?} ran {} times", runs(*a) - was);
+    }
 }

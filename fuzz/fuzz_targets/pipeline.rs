@@ -74,6 +74,49 @@ fuzz_target!(|data: &[u8]| {
         user.contains("nan") || user.contains("inf"),
         std::sync::atomic::Ordering::Relaxed,
     );
+    // A single-phase stator's five views and a two-winding core's, each under its schema.
+    {
+        let study = beltwright::study::Study::new(&w, None);
+        if let Some(sp) = study.single_phase() {
+            use beltwright::output::single_phase_report::{SinglePhaseView, View};
+            for view in [
+                View::Plan,
+                View::Factors,
+                View::Field,
+                View::Card,
+                View::Audit,
+            ] {
+                check(
+                    "single-phase",
+                    &SinglePhaseView {
+                        report: sp,
+                        winding: &w,
+                        view,
+                    },
+                );
+            }
+        }
+    }
+    if let Some(second) = &spec.second
+        && second.spec.design.slots <= 240
+        && let Ok(w2) = beltwright::winding::build_lenient(&second.spec)
+    {
+        use beltwright::output::two_winding_report::{TwoWindingView, View};
+        let pair = beltwright::two_winding::TwoStudy::new([&w, &w2], [None, None], second.sharing);
+        for view in [
+            View::Plan,
+            View::Factors,
+            View::Field,
+            View::Card,
+            View::Audit,
+        ] {
+            check("two-winding", &TwoWindingView { study: &pair, view });
+        }
+        let html = beltwright::output::html::document_two(&pair, None);
+        if !USER_SPELLS.load(std::sync::atomic::Ordering::Relaxed) {
+            assert!(!html.contains("NaN"), "NaN on the two-winding page");
+        }
+    }
     check("audit", &audit::audit(&w, None));
     check("card", &card::card(&w));
     if let Ok(l) = beltwright::loading::report(&w, &Default::default(), 1.0) {
@@ -102,13 +145,16 @@ fuzz_target!(|data: &[u8]| {
     if let Ok(f) = field::field(&w, &field::FieldOptions::balanced(&w)) {
         check("field", &f);
     }
-    check("pitch", &pitch::compare(
-        &w,
-        &pitch::PitchGoal {
-            suppress: vec![5.0, 7.0],
-            min_fundamental: 0.9,
-        },
-    ));
+    check(
+        "pitch",
+        &pitch::compare(
+            &w,
+            &pitch::PitchGoal {
+                suppress: vec![5.0, 7.0],
+                min_fundamental: 0.9,
+            },
+        ),
+    );
     // Current-fed and voltage-fed, over the working range and at slips far too small for
     // R2'/s to be formed directly.
     for (from, to) in [(-0.2, 1.2), (1e-300, 1e-150)] {
@@ -126,7 +172,11 @@ fuzz_target!(|data: &[u8]| {
         }
     }
     for sheet in Sheet::ALL {
-        for svg in draw::draw(&beltwright::study::Study::new(&w, None), sheet, &Page::default()) {
+        for svg in draw::draw(
+            &beltwright::study::Study::new(&w, None),
+            sheet,
+            &Page::default(),
+        ) {
             roxmltree::Document::parse(&svg).expect("well-formed SVG");
         }
     }

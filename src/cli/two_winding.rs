@@ -137,7 +137,8 @@ fn run(cli: &Cli, name: &str, spec: &Spec, file: &str, source: &str) -> Result<P
                 .extension()
                 .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
             {
-                let html = beltwright::output::html::document_two(&study);
+                let html =
+                    beltwright::output::html::document_two(&study, spec.labels.title.as_deref());
                 write_set(
                     &[(out.to_path_buf(), html.into_bytes())],
                     &Vec::new,
@@ -150,7 +151,12 @@ fn run(cli: &Cli, name: &str, spec: &Spec, file: &str, source: &str) -> Result<P
             for p in &inputs {
                 check_output(out, &[p], "-o")?;
             }
-            let pages = sheets(&study, &page_of(a.page, a.portrait), kind);
+            let pages = sheets(
+                &study,
+                spec.labels.title.as_deref(),
+                &page_of(a.page, a.portrait),
+                kind,
+            );
             let written = write_sheet(&pages, kind, out, &a.file, a.dpi)?;
             Ok(say(wrote(&written)))
         }
@@ -164,10 +170,9 @@ fn run(cli: &Cli, name: &str, spec: &Spec, file: &str, source: &str) -> Result<P
 
 /// The pair's pages: its own tables, then each winding's sheets (a PDF also carries each
 /// winding's tables, as for one winding).
-fn sheets(study: &TwoStudy, page: &Page, kind: FileKind) -> Vec<String> {
-    let r = study.report();
-    let first = &study.studies()[0];
-    let mut pages = draw::tables::draw(first, "two windings", &words::pair_sections(r), page);
+fn sheets(study: &TwoStudy, title: Option<&str>, page: &Page, kind: FileKind) -> Vec<String> {
+    let block = draw::title::TitleBlock::of_pair(study, title, "two windings");
+    let mut pages = draw::tables::draw_under(&block, &words::pair_sections(study.report()), page);
     for s in study.studies() {
         if kind == FileKind::Pdf {
             for part in beltwright::output::html::parts(s)

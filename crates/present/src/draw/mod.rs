@@ -96,6 +96,16 @@ impl Sheet {
     }
 }
 
+/// What a sheet's ids carry besides its own name and page, so that the same sheet of the
+/// two windings of one core can sit side by side on a page: "" for a machine of one
+/// winding, "-speed1" or "-speed2" for a winding of a two-winding motor.
+pub fn id_scope(w: &crate::winding::Winding) -> String {
+    match w.design.leads.speed {
+        0 => String::new(),
+        n => format!("-speed{n}"),
+    }
+}
+
 /// Draw one sheet of a winding: one SVG document per page (the connection sheet continues
 /// its schedule on further pages when a winding has many coils).
 pub fn draw(s: &crate::study::Study, sheet: Sheet, page: &Page) -> Vec<String> {

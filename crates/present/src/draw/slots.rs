@@ -455,7 +455,7 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid, range: std::ops::Range<usize>) -> 
             }
         }
         // Coils: every coil whose span reaches into this row, clipped to the row.
-        let clip_id = format!("slots-row{}", row + 1);
+        let clip_id = format!("slots-row{}{}", row + 1, super::id_scope(w));
         defs = defs.add(
             ClipPath::new().set("id", clip_id.clone()).add(
                 Rectangle::new()

@@ -36,7 +36,13 @@ pub fn draw(
     sections: &[Section],
     page: &Page,
 ) -> Vec<String> {
-    let probe = Canvas::new(page, &TitleBlock::of(s, sheet));
+    draw_under(&TitleBlock::of(s, sheet), sections, page)
+}
+
+/// Set `sections` on pages of `page` size under the title block `block` (its page numbers
+/// set page by page).
+pub fn draw_under(block: &TitleBlock, sections: &[Section], page: &Page) -> Vec<String> {
+    let probe = Canvas::new(page, block);
     let area = probe.area;
     let items = layout(sections, area.w);
     // Fill pages top to bottom; a table too tall for a page is split between rows.
@@ -84,7 +90,7 @@ pub fn draw(
         .into_iter()
         .enumerate()
         .map(|(i, items)| {
-            let mut block = TitleBlock::of(s, sheet);
+            let mut block = block.clone();
             block.page = (i + 1, n);
             let mut c = Canvas::new(page, &block);
             let a: Rect = c.area;

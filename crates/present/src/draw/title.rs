@@ -28,6 +28,8 @@ pub struct TitleBlock {
     /// Job and nameplate cells (job, customer, date, rating, frame), a row of their own
     /// above the title when the layout gives any.
     pub shop: Vec<(&'static str, String)>,
+    /// What the caption ids carry besides the sheet and page (`draw::id_scope`).
+    pub scope: String,
 }
 
 const LABEL: f64 = 1.8;
@@ -68,6 +70,7 @@ impl TitleBlock {
             }),
             sheet: sheet.to_string(),
             page: (1, 1),
+            scope: super::id_scope(w),
             fields: vec![
                 ("Slots Z", h.slots.to_string()),
                 (
@@ -109,6 +112,54 @@ impl TitleBlock {
         }
     }
 
+    /// The block of a two-winding core's own sheet: each field gives both windings'
+    /// values, the first's first ("4/12" poles), and the shop's cells are the first's.
+    pub fn of_pair(t: &crate::two_winding::TwoStudy, title: Option<&str>, sheet: &str) -> Self {
+        let [a, b] = t.studies().each_ref().map(|s| TitleBlock::of(s, sheet));
+        let both = |name: &str| -> String {
+            let get = |blk: &TitleBlock| {
+                blk.fields
+                    .iter()
+                    .find(|f| f.0 == name)
+                    .map(|f| f.1.clone())
+                    .unwrap_or_default()
+            };
+            let (x, y) = (get(&a), get(&b));
+            if x == y { x } else { format!("{x}/{y}") }
+        };
+        let fields = a
+            .fields
+            .iter()
+            .map(|(name, _)| (*name, both(name)))
+            .collect();
+        let unsound = (!t.report().findings.is_empty()).then(|| {
+            "NOT A SOUND PAIR OF WINDINGS: see what to act on. Do not wind or connect from \
+             these sheets until it is cleared."
+                .to_string()
+        });
+        // Each winding's rating where the two differ.
+        let shop = a
+            .shop
+            .iter()
+            .zip(&b.shop)
+            .map(|((name, x), (_, y))| match *name {
+                "Rating" if x != y && y != "-" => (*name, format!("{x} / {y}")),
+                _ => (*name, x.clone()),
+            })
+            .collect();
+        TitleBlock {
+            title: title
+                .map(str::to_string)
+                .unwrap_or_else(|| format!("rotary core, {} slots, two windings", both("Slots Z"))),
+            sheet: sheet.to_string(),
+            page: (1, 1),
+            fields,
+            unsound,
+            shop,
+            scope: String::new(),
+        }
+    }
+
     /// The SVG document title: layout title and sheet.
     pub fn document_title(&self) -> String {
         format!("{} - {}", self.title, self.sheet)
@@ -117,7 +168,12 @@ impl TitleBlock {
     /// Draw the block and caution inside `frame`, along its foot. Returns the group and the
     /// height taken from the frame.
     pub fn draw(&self, frame: Rect) -> (Group, f64) {
-        let scope = format!("{}-{}", crate::sanitize::slug(&self.sheet), self.page.0);
+        let scope = format!(
+            "{}-{}{}",
+            crate::sanitize::slug(&self.sheet),
+            self.page.0,
+            self.scope
+        );
         let bw = BLOCK_W.min(frame.w);
         let bx = frame.right() - bw;
         let rows = if self.shop.is_empty() { 2.0 } else { 3.0 };

@@ -296,11 +296,12 @@ fn sheet_figures(s: &Study, page: &Page, prefix: &str) -> Vec<(String, String)> 
 
 /// The HTML report of two windings in one core: the pair's report, then each winding's
 /// parts and sheets under its name.
-pub fn document_two(t: &crate::two_winding::TwoStudy) -> String {
-    use super::two_winding_report::{pair_sections, part_line, summary};
+pub fn document_two(t: &crate::two_winding::TwoStudy, title: Option<&str>) -> String {
+    use super::two_winding_report::{pair_sections, part_line};
     let r = t.report();
     let first = t.studies()[0].winding();
-    let title = first.labels.title.clone().unwrap_or_else(|| {
+    let given = title;
+    let title = given.map(str::to_string).unwrap_or_else(|| {
         format!(
             "{} core, {} slots, two windings",
             first.geometry.topology, first.geometry.slots
@@ -323,22 +324,21 @@ pub fn document_two(t: &crate::two_winding::TwoStudy) -> String {
             title: format!("{name}: {}", p.title),
             sections: p.sections,
         }));
-        figures.extend(
-            sheet_figures(s, &page, &format!("{name}. "))
-                .into_iter()
-                .map(|(svg, label)| (scoped(&svg, &format!("w{}-", i + 1)), label)),
-        );
+        figures.extend(sheet_figures(s, &page, &format!("{name}. ")));
     }
-    let pair_page = super::two_winding_report::pair_sections(r);
-    let pair_svgs = draw::tables::draw(&t.studies()[0], "two windings", &pair_page, &page);
+    let block = draw::title::TitleBlock::of_pair(t, given, "two windings");
+    let pair_svgs = draw::tables::draw_under(&block, &all[0].sections, &page);
     let mut with_pair: Vec<(String, String)> = pair_svgs
         .into_iter()
         .map(|svg| (svg, "The two windings, as a sheet.".to_string()))
         .collect();
     with_pair.extend(figures);
-    let mut lines: Vec<Vec<super::Piece>> = summary(r)
-        .into_iter()
-        .map(|l| vec![super::Piece::Text(l)])
+    // Which winding is which; the rest of the pair's summary is its part's.
+    let mut lines: Vec<Vec<super::Piece>> = r
+        .windings
+        .iter()
+        .enumerate()
+        .map(|(i, p)| vec![super::Piece::Text(part_line(i, p))])
         .collect();
     lines.push(vec![
         super::Piece::Text("slots ".into()),
@@ -351,13 +351,6 @@ pub fn document_two(t: &crate::two_winding::TwoStudy) -> String {
     ]);
     let sound = r.findings.is_empty() && t.studies().iter().all(|s| s.sound() == Soundness::Sound);
     assemble(&title, &lines, sound, &all, &with_pair)
-}
-
-/// A sheet's ids (and the references to them) prefixed, so that the same sheet of two
-/// windings can sit on one page with every id unique.
-fn scoped(svg: &str, prefix: &str) -> String {
-    svg.replace("id=\"", &format!("id=\"{prefix}"))
-        .replace("url(#", &format!("url(#{prefix}"))
 }
 
 /// One self-contained page: the header with the caution and summary, the contents, each
