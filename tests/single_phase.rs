@@ -407,3 +407,25 @@ fn bad_single_phase_input_says_what_would_work() {
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("single-phase"));
 }
+
+#[test]
+fn the_working_slip_comes_from_the_nameplate_speed_or_says_why_not() {
+    let base = std::fs::read_to_string("layouts/pump-capacitor.toml").expect("example");
+    assert!(base.contains("slip = 0.06\n") && base.contains("speed_rpm = 1410.0"));
+    // Without capacitor.slip, 1410 rpm on 4 poles at 50 Hz is s = 1 − 1410/1500 = 0.06.
+    let from_plate = json("card", &base.replace("slip = 0.06\n", ""));
+    let cap = &from_plate["single_phase"]["capacitor"];
+    assert!((cap["run_slip"].as_f64().expect("slip") - 0.06).abs() < 1e-12);
+    // 1500 rpm is synchronous speed itself: no working slip, and the reason says so.
+    for speed in ["1500.0", "1620.0", "600.0"] {
+        let v = json(
+            "card",
+            &base
+                .replace("slip = 0.06\n", "")
+                .replace("speed_rpm = 1410.0", &format!("speed_rpm = {speed}")),
+        );
+        assert_eq!(v["single_phase"]["capacitor_missing"], "nameplate-speed", "{speed}");
+        let said = v["capacitor_missing_message"].as_str().expect("message");
+        assert!(said.contains("not a running speed"), "{speed}: {said}");
+    }
+}

@@ -158,6 +158,12 @@ pub fn missing_words(m: CapacitorMissing) -> &'static str {
         CapacitorMissing::Slip => {
             "no capacitor is worked out: give capacitor.slip or nameplate.speed_rpm"
         }
+        CapacitorMissing::NameplateSpeed => {
+            "no capacitor is worked out: nameplate.speed_rpm is not a running speed of this \
+             core (at or above synchronous speed for machine.poles at the supply's \
+             frequency, or below half of it); check the speed and the poles, or give \
+             capacitor.slip"
+        }
     }
 }
 

@@ -159,6 +159,9 @@ pub enum CapacitorMissing {
     Resistance,
     /// No slip: neither `[capacitor] slip` nor a nameplate speed.
     Slip,
+    /// The nameplate speed gives no working slip (0 < s < 0.5) at the core's poles and the
+    /// supply's frequency: at or above synchronous speed, or below half of it.
+    NameplateSpeed,
 }
 
 /// One row of a lead table: what goes to a line or is joined.
@@ -575,7 +578,7 @@ fn capacitor_study(w: &Winding, m: &Motor) -> Result<CapacitorStudy, CapacitorMi
             let ns = 60.0 * m.hz / m.pole_pairs;
             let s = 1.0 - n / ns;
             if !(s > 0.0 && s < 0.5) {
-                return Err(CapacitorMissing::Slip);
+                return Err(CapacitorMissing::NameplateSpeed);
             }
             s
         }
