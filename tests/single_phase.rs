@@ -429,3 +429,21 @@ fn the_working_slip_comes_from_the_nameplate_speed_or_says_why_not() {
         assert!(said.contains("not a running speed"), "{speed}: {said}");
     }
 }
+
+#[test]
+fn the_held_back_pump_record_has_its_one_reversed_auxiliary_coil_found() {
+    let out = common::run(&[
+        "audit",
+        "layouts/pump-capacitor-as-found.toml",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(out.status.code(), Some(1));
+    let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+    let found = v["findings"].as_array().expect("findings");
+    assert_eq!(found.len(), 1, "{found:?}");
+    assert_eq!(found[0]["kind"], "coil_reversed");
+    assert_eq!(found[0]["winding"], "aux");
+    // The 15th coil of the record (the auxiliary's third) is the one written 10 → 15.
+    assert_eq!(found[0]["coil"], 15);
+}
