@@ -424,7 +424,10 @@ fn the_working_slip_comes_from_the_nameplate_speed_or_says_why_not() {
                 .replace("slip = 0.06\n", "")
                 .replace("speed_rpm = 1410.0", &format!("speed_rpm = {speed}")),
         );
-        assert_eq!(v["single_phase"]["capacitor_missing"], "nameplate-speed", "{speed}");
+        assert_eq!(
+            v["single_phase"]["capacitor_missing"], "nameplate-speed",
+            "{speed}"
+        );
         let said = v["capacitor_missing_message"].as_str().expect("message");
         assert!(said.contains("not a running speed"), "{speed}: {said}");
     }
@@ -446,4 +449,61 @@ fn the_held_back_pump_record_has_its_one_reversed_auxiliary_coil_found() {
     assert_eq!(found[0]["winding"], "aux");
     // The 15th coil of the record (the auxiliary's third) is the one written 10 → 15.
     assert_eq!(found[0]["coil"], 15);
+}
+
+#[test]
+fn the_connection_and_slot_sheets_carry_the_single_phase_leads_and_capacitor() {
+    let dir = tempfile::tempdir().expect("dir");
+    let svg = |sheet: &str| -> String {
+        let out = dir.path().join(format!("{sheet}.svg"));
+        let run = common::run(&[
+            "draw",
+            "layouts/pump-capacitor.toml",
+            "--sheet",
+            sheet,
+            "-o",
+            out.to_str().expect("path"),
+        ]);
+        assert!(
+            run.status.success(),
+            "{}",
+            String::from_utf8_lossy(&run.stderr)
+        );
+        std::fs::read_to_string(out).expect("sheet")
+    };
+    // IEC 60034-8 marks (from memory): main U1-U2, auxiliary Z1-Z2; both rotations'
+    // tables, the circuit with the run capacitor the study chose.
+    let c = svg("connections");
+    for want in [
+        "U1",
+        "U2",
+        "Z1",
+        "Z2",
+        "L1 to U1 + Z1",
+        "L1 to U1 + Z2",
+        "µF",
+        "main winding",
+    ] {
+        assert!(c.contains(want), "connections: {want}");
+    }
+    assert!(
+        !c.contains("star point"),
+        "no three-phase board on a single-phase sheet"
+    );
+    let s = svg("slots");
+    assert!(s.contains("Leads: U1 in at slot 1"), "slots: lead names");
+    assert!(
+        !s.contains("not balanced"),
+        "slots: no polyphase balance note"
+    );
+    // The star of slots is a polyphase sheet.
+    let out = common::run(&[
+        "draw",
+        "layouts/pump-capacitor.toml",
+        "--sheet",
+        "star",
+        "-o",
+        dir.path().join("x.svg").to_str().expect("path"),
+    ]);
+    assert_eq!(out.status.code(), Some(2));
 }

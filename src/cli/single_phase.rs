@@ -90,7 +90,36 @@ fn run(
         }
         Command::Draw(a) => {
             let kind = sheet_kind(&a.output)?;
-            let pages = sheets(&study, &w, &page_of(a.page, a.portrait));
+            let page = page_of(a.page, a.portrait);
+            let sheet: draw::Sheet = a.sheet.into();
+            let pages = match sheet {
+                draw::Sheet::Slots | draw::Sheet::Connections => draw::draw(&study, sheet, &page),
+                draw::Sheet::Card | draw::Sheet::Field => {
+                    let view = if sheet == draw::Sheet::Card {
+                        View::Card
+                    } else {
+                        View::Field
+                    };
+                    let (title, _) = beltwright::output::single_phase_report::SHEET_VIEWS
+                        .into_iter()
+                        .find(|(_, v)| *v == view)
+                        .unwrap_or(("single-phase sheet", view));
+                    let v = SinglePhaseView {
+                        report: report_of(&study)?,
+                        winding: &w,
+                        view,
+                    };
+                    draw::tables::draw(&study, title, &v.sections(), &page)
+                }
+                other => {
+                    return Err(Failure::input(format!(
+                        "{file}: --sheet {} is for polyphase windings; a single-phase stator \
+                         has the slots, connections, card and field sheets (report -o draws \
+                         them all)",
+                        other.name()
+                    )));
+                }
+            };
             let written = write_sheet(&pages, kind, &a.output, &a.file, a.dpi)?;
             Ok(say(wrote(&written)))
         }
@@ -124,8 +153,18 @@ fn run(
     }
 }
 
+/// The study's single-phase report.
+fn report_of<'a>(
+    study: &'a Study,
+) -> Result<&'a beltwright::single_phase::SinglePhaseReport, Failure> {
+    study
+        .single_phase()
+        .ok_or_else(|| Failure::input("not a single-phase layout".to_string()))
+}
+
 /// A single-phase stator's sheets: its plan (windings, coils, capacitor, lead tables),
-/// card, factors and field set as pages with the title block and caution.
+/// card, factors and field set as pages with the title block and caution, then its slot
+/// and connection sheets.
 pub fn sheets(study: &Study, w: &Winding, page: &draw::Page) -> Vec<String> {
     let Some(r) = study.single_phase() else {
         return Vec::new();
@@ -139,5 +178,11 @@ pub fn sheets(study: &Study, w: &Winding, page: &draw::Page) -> Vec<String> {
         };
         pages.extend(draw::tables::draw(study, title, &view.sections(), page));
     }
+    pages.extend(
+        draw::Sheet::ALL
+            .into_iter()
+            .filter(|s| s.applies(study))
+            .flat_map(|s| draw::draw(study, s, page)),
+    );
     pages
 }

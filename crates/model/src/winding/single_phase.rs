@@ -266,3 +266,17 @@ pub fn main_section(w: &Winding, coil: &Coil) -> usize {
     let pole = (coil_middle(w, coil) / s as f64).floor() as usize;
     usize::from(pole >= w.geometry.poles / 2)
 }
+
+/// The lead names of a single-phase stator: main start and end (a two-section main: the
+/// first section's start and end, then the second's), auxiliary start and end. IEC
+/// 60034-8: main U1-U2 (second section U5-U6, by analogy; from memory), auxiliary Z1-Z2;
+/// NEMA MG 1: main T1-T4 (sections T1-T2, T3-T4), auxiliary T5-T8 (from memory).
+pub fn lead_names(marking: crate::design::Marking, sections: u8) -> &'static [&'static str] {
+    use crate::design::Marking;
+    match (marking, sections) {
+        (Marking::Iec, 1) => &["U1", "U2", "Z1", "Z2"],
+        (Marking::Iec, _) => &["U1", "U2", "U5", "U6", "Z1", "Z2"],
+        (Marking::Nema, 1) => &["T1", "T4", "T5", "T8"],
+        (Marking::Nema, _) => &["T1", "T2", "T3", "T4", "T5", "T8"],
+    }
+}

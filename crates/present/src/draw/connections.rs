@@ -58,6 +58,20 @@ fn path_lead(w: &Winding, k: usize, p: usize, end: u8) -> (String, bool) {
     if w.geometry.phases == 3 {
         return crate::card::leads::section_lead(w.design.leads, k, p, end == 2);
     }
+    if let Some(sp) = &w.design.single_phase {
+        // Main start and end (a two-section main: the first's start, the second's end),
+        // auxiliary start and end.
+        let names =
+            crate::winding::single_phase::lead_names(w.design.leads.marking, sp.main_sections);
+        let n = names.len();
+        let i = match (k, end) {
+            (0, 1) => 0,
+            (0, _) => n - 3,
+            (_, 1) => n - 2,
+            _ => n - 1,
+        };
+        return (names[i].to_string(), false);
+    }
     (format!("{}{end}", w.label(k)), false)
 }
 
@@ -125,11 +139,26 @@ fn columns(w: &Winding) -> Vec<(&'static str, f64)> {
     c
 }
 
+/// Where a connection sheet's terminal boards come from.
+#[derive(Clone, Copy)]
+enum Boards<'a> {
+    /// A three-phase winding's lead scheme (the card's).
+    Three(&'a LeadScheme),
+    /// A single-phase stator's lead tables (its study's).
+    Single(&'a crate::single_phase::SinglePhaseReport),
+    /// Neither: one board of the phase ends.
+    Ends,
+}
+
 /// Draw the connection sheet; the schedule continues on further pages when needed.
 pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
     let w = s.winding();
-    // The boards are drawn from the card's own lead scheme (three-phase windings).
-    let scheme = s.card().leads.as_ref();
+    // The boards are drawn from the card's own lead scheme (three-phase windings), or a
+    // single-phase stator's lead tables.
+    let scheme = match s.single_phase() {
+        Some(sp) => Boards::Single(sp),
+        None => s.card().leads.as_ref().map_or(Boards::Ends, Boards::Three),
+    };
     let groups = coil_groups(w);
     let entries = schedule(w, &groups);
     let cols = columns(w);
@@ -395,15 +424,15 @@ fn lanes_height(w: &Winding, groups: &[CoilGroup], width: f64) -> f64 {
 }
 
 /// Height of the heading and terminal boards, drawn at printed size `width` wide, mm.
-fn boards_height(w: &Winding, scheme: Option<&LeadScheme>, width: f64) -> f64 {
+fn boards_height(w: &Winding, scheme: Boards<'_>, width: f64) -> f64 {
     let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     board(w, scheme, &pal, width).1 + 4.0
 }
 
 /// Width the boards take set beside the lanes (their natural width, or a column for the
 /// single board of another phase count), mm.
-fn boards_width(w: &Winding, scheme: Option<&LeadScheme>) -> f64 {
-    let Some(scheme) = scheme.filter(|_| w.geometry.phases == 3) else {
+fn boards_width(w: &Winding, scheme: Boards<'_>) -> f64 {
+    let Boards::Three(scheme) = scheme else {
         return 0.0;
     };
     super::board::natural_width(scheme, w.design.connection).max(70.0)
@@ -419,12 +448,7 @@ struct Arrangement {
 }
 
 /// Height of the whole diagram drawn `width` wide at full size, boards above, mm.
-fn diagram_height(
-    w: &Winding,
-    scheme: Option<&LeadScheme>,
-    groups: &[CoilGroup],
-    width: f64,
-) -> f64 {
+fn diagram_height(w: &Winding, scheme: Boards<'_>, groups: &[CoilGroup], width: f64) -> f64 {
     if w.design.pole_change.is_some() {
         return super::two_speed::height(w, groups, width);
     }
@@ -435,7 +459,7 @@ fn diagram_height(
 /// larger scale (boards above when both draw at full size).
 fn arrangement(
     w: &Winding,
-    scheme: Option<&LeadScheme>,
+    scheme: Boards<'_>,
     groups: &[CoilGroup],
     width: f64,
     height: f64,
@@ -482,7 +506,7 @@ fn arrangement(
 /// they fit at full size; the boards and their words are always drawn at printed size).
 fn diagram_scale(
     w: &Winding,
-    scheme: Option<&LeadScheme>,
+    scheme: Boards<'_>,
     groups: &[CoilGroup],
     width: f64,
     height: f64,
@@ -505,7 +529,7 @@ fn diagram_scale(
 /// Terminal board, then one lane per phase and path with the groups in connection order.
 fn connection_diagram(
     w: &Winding,
-    scheme: Option<&LeadScheme>,
+    scheme: Boards<'_>,
     pal: &Palette,
     groups: &[CoilGroup],
     b: Rect,
@@ -551,7 +575,10 @@ fn connection_diagram(
             .set("data-path", p + 1)
             .set("data-start", bare(1))
             .set("data-finish", bare(2));
-        let name = if w.parallel_paths > 1 {
+        let name = if w.design.single_phase.is_some() {
+            // A single-phase stator's two windings are not phases.
+            format!("{} winding", w.label(*k))
+        } else if w.parallel_paths > 1 {
             format!("Phase {}, path {}", w.label(*k), p + 1)
         } else {
             format!("Phase {}", w.label(*k))
@@ -756,9 +783,11 @@ fn groups_note(w: &Winding) -> String {
 /// The terminal boards and the words above them, and the height they take (mm). A
 /// three-phase winding's boards come from its lead scheme ([`super::board`]); other phase
 /// counts get one board of their own phase ends.
-fn board(w: &Winding, scheme: Option<&LeadScheme>, pal: &Palette, width: f64) -> (Group, f64) {
-    let Some(scheme) = scheme.filter(|_| w.geometry.phases == 3) else {
-        return phase_board(w, pal, width);
+fn board(w: &Winding, scheme: Boards<'_>, pal: &Palette, width: f64) -> (Group, f64) {
+    let scheme = match scheme {
+        Boards::Three(s) if w.geometry.phases == 3 => s,
+        Boards::Single(sp) => return super::single_phase::board(sp, width),
+        _ => return phase_board(w, pal, width),
     };
     let mut g = Group::new().set("class", "terminal-board");
     let mut y = 6.6;

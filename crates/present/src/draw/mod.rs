@@ -19,6 +19,7 @@ pub mod page;
 pub mod palette;
 pub mod plates;
 pub mod section;
+pub mod single_phase;
 pub mod slots;
 pub mod span;
 pub mod star;
@@ -71,8 +72,11 @@ impl Sheet {
     /// needs a flat primary with its plate and gap); a report leaves out those that do not.
     pub fn applies(self, s: &crate::study::Study) -> bool {
         match self {
-            // A single-phase stator's sheets are its own (`draw` sets its plan and card as
-            // pages): these sheets' notes speak of a polyphase winding's phases.
+            // A single-phase stator's slot and connection sheets speak of its main and
+            // auxiliary windings and lead tables; its card and field are its own pages
+            // (`single_phase_report::SHEET_VIEWS`), and the star of slots and slot section
+            // speak of a polyphase winding's phases and card.
+            Sheet::Slots | Sheet::Connections if s.single_phase().is_some() => true,
             _ if s.single_phase().is_some() => false,
             Sheet::Thrust => thrust::applies(s),
             Sheet::Section => section::applies(s),

@@ -190,7 +190,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
             let mut block = TitleBlock::of(s, "Slot layout");
             block.page = (k + 1, pages);
             let mut canvas = Canvas::new(page, &block);
-            canvas.add(header(w, &s.plan().figures, &pal, area));
+            canvas.add(header(w, s.single_phase(), &s.plan().figures, &pal, area));
             let first = k * per_page;
             let body = Group::new()
                 .set("class", "core")
@@ -212,7 +212,13 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
 
 /// Legend, travelling-field arrow, counts and leads across the top of the sheet; a banner
 /// when the winding is not sound.
-fn header(w: &Winding, figures: &crate::linear::Figures, pal: &Palette, area: Rect) -> Group {
+fn header(
+    w: &Winding,
+    single: Option<&crate::single_phase::SinglePhaseReport>,
+    figures: &crate::linear::Figures,
+    pal: &Palette,
+    area: Rect,
+) -> Group {
     let mut g = Group::new().set("class", "legend");
     let mut x = area.x;
     let y = area.y + 3.0;
@@ -222,7 +228,8 @@ fn header(w: &Winding, figures: &crate::linear::Figures, pal: &Palette, area: Re
         g = g.add(label(x + 10.0, y, MIN_TEXT, Anchor::Start, name));
         x += 12.0 + text::width(name, MIN_TEXT);
     }
-    let empty = if w.half_filled_slots().is_empty() {
+    // (A single-phase stator's empty layers are noted on the counts line below.)
+    let empty = if single.is_some() || w.half_filled_slots().is_empty() {
         ""
     } else {
         "  Crossed column: empty layer (half-filled end slot)."
@@ -265,15 +272,24 @@ fn header(w: &Winding, figures: &crate::linear::Figures, pal: &Palette, area: Re
         ),
         _ => "speed: give [core] sizes and [supply] frequency_hz".to_string(),
     };
+    // A single-phase stator's field turns as its lead table says (the auxiliary's
+    // current leading, through the capacitor), not by a supply sequence.
+    let dir = single.map_or(dir, |sp| Some(sp.towards_rising_slots));
     let (text_dir, arrow) = match dir {
         Some(true) => ("towards higher slot numbers", Some(true)),
         Some(false) => ("towards lower slot numbers", Some(false)),
         None => ("direction unclear: the phases are not balanced", None),
     };
-    let caption = format!(
-        "{what}, supply sequence {}: {text_dir}; {speed}",
-        sequence.join("-")
-    );
+    let caption = match single {
+        Some(_) => format!(
+            "{what}, leads as the connection sheet's first table (the capacitor in the \
+             auxiliary): {text_dir}; {speed}"
+        ),
+        None => format!(
+            "{what}, supply sequence {}: {text_dir}; {speed}",
+            sequence.join("-")
+        ),
+    };
     let ax = area.x;
     if let Some(forward) = arrow {
         let (x1, x2) = if forward {
@@ -345,6 +361,12 @@ fn header(w: &Winding, figures: &crate::linear::Figures, pal: &Palette, area: Re
             .join(" or "),
         crate::numbering::noun_for(&sizes, "coil", "coils")
     );
+    // Concentric groups of two windings leave a layer empty here and there.
+    let counts = if single.is_some() {
+        format!("{counts}. Crossed column: empty layer.")
+    } else {
+        counts
+    };
     let y3 = area.y + 14.0;
     g = g.add(
         label(
@@ -835,7 +857,9 @@ fn bracket(
     }
     let sign = if polarity > 0 { "+" } else { "\u{2212}" };
     let full = format!("{} {}{}", number + 1, w.label(phase), sign);
-    let room = (x1 - x0).max(p) + 0.6 * p;
+    // Its own bracket's width (a slot pitch at least, less a little): two one-coil groups
+    // side by side then keep their labels apart.
+    let room = (x1 - x0).max(0.9 * p);
     let size = MIN_TEXT;
     let text_s = if text::width(&full, size) <= room {
         full

@@ -243,6 +243,26 @@ fn way(rising: bool) -> &'static str {
     if rising { "rising" } else { "falling" }
 }
 
+/// One lead table in a sentence, as the connection sheet writes it.
+pub fn board_sentence(b: &Board) -> String {
+    let supply = match b.voltage.as_str() {
+        "low" => "Lower voltage",
+        "high" => "Higher voltage",
+        _ => "Supply",
+    };
+    let joined = if b.joined.is_empty() {
+        String::new()
+    } else {
+        format!("; join {} and insulate", b.joined.join(" + "))
+    };
+    format!(
+        "{supply}, field toward {} slots: L1 to {}; N to {}{joined}.",
+        way(b.towards_rising_slots),
+        b.l1.join(" + "),
+        b.l2.join(" + ")
+    )
+}
+
 /// The lead tables.
 pub fn boards_table(boards: &[Board]) -> Table {
     let mut t = Table::new(&[

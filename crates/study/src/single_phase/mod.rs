@@ -10,7 +10,7 @@ use serde::Serialize;
 
 use crate::card::coil_resistance_20c;
 use crate::card::measured::FAR_PERCENT;
-use crate::design::{CapacitorDuty, Marking};
+use crate::design::CapacitorDuty;
 use crate::winding::single_phase::{AUX, MAIN, coil_middle, main_section};
 use crate::winding::{Elec, Winding};
 use crate::wire::{Wire, metal};
@@ -346,17 +346,6 @@ fn waves(w: &Winding, nu: u32, i: [Complex64; 2]) -> (f64, f64) {
     (rising, falling)
 }
 
-/// The lead names: main start and end, a second section's, auxiliary start and end.
-fn lead_names(marking: Marking, sections: u8) -> Vec<String> {
-    let v: &[&str] = match (marking, sections) {
-        (Marking::Iec, 1) => &["U1", "U2", "Z1", "Z2"],
-        (Marking::Iec, _) => &["U1", "U2", "U5", "U6", "Z1", "Z2"],
-        (Marking::Nema, 1) => &["T1", "T4", "T5", "T8"],
-        (Marking::Nema, _) => &["T1", "T2", "T3", "T4", "T5", "T8"],
-    };
-    v.iter().map(|s| s.to_string()).collect()
-}
-
 /// The lead tables. With the auxiliary's start on the main's start's line the field
 /// travels `same_way_rising`; exchanging the auxiliary's leads reverses it. A two-section
 /// main: the sections in parallel with the auxiliary on the line at the lower voltage; in
@@ -466,7 +455,11 @@ pub fn study(w: &Winding) -> Option<SinglePhaseReport> {
     // auxiliary) and the aux's start on the main's start's line, the field goes from the
     // aux axis toward the main's.
     let same_way_rising = shift < 0.0;
-    let leads = lead_names(w.design.leads.marking, sp.main_sections);
+    let leads: Vec<String> =
+        crate::winding::single_phase::lead_names(w.design.leads.marking, sp.main_sections)
+            .iter()
+            .map(|s| s.to_string())
+            .collect();
     let mut findings = audit(w, shift, &main, &aux, sp.main_sections);
     findings.sort_by_key(|f| matches!(f, Finding::Resistance { .. }));
     Some(SinglePhaseReport {
