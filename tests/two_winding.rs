@@ -14,7 +14,8 @@
 //! - with the 12-pole winding full pitch at q = 1 (k_w = 1 at every odd order) and the
 //!   4-pole winding at span 7 of 9, q = 3 (|k_w| = 1/3 at orders 3, 15, 21, 33, ... by Say's
 //!   k_p = sin(ν·y·π/(2τ)) and k_d = sin(ν·q·α/2)/(q·sin(ν·α/2))), the idle 4-pole phase
-//!   links N_4·(1/3)/N_12 of what the running 12-pole phase links: 192/3/264 = 8/33.
+//!   links N_4·(1/3)/N_12 of what the running 12-pole phase links: in the example
+//!   (36 coils of 23 turns, 18 of 72) 276/3/432 = 23/108.
 
 mod common;
 
@@ -116,9 +117,47 @@ fn windings_of_four_and_six_poles_do_not_couple() {
     let t = TwoStudy::new([&w1, &w2], [None, None], sharing);
     for c in &t.report().couplings {
         assert!(c.phase_ratio < 1e-12, "{c:?}");
-        assert!(c.loop_ratio < 1e-12, "{c:?}");
+        assert!(c.loop_ratio.expect("deltas") < 1e-12, "{c:?}");
     }
     assert!(t.report().findings.is_empty(), "{:?}", t.report().findings);
+}
+
+#[test]
+fn parallel_paths_half_a_core_apart_circulate_under_an_odd_order_field() {
+    // The 4-pole winding in two paths, one pole pair each, half the core apart; the
+    // 6-pole field's mechanical order 3 turns through 3·180° between them, so the two
+    // paths' EMFs are equal and opposite (closed form): the phase as a whole links
+    // nothing, yet a current circulates between its paths.
+    let text = two(36, (4, 2, 8, "star"), (6, 2, 5, "star")).replacen(
+        "connection = \"star\"",
+        "connection = \"star\"\nparallel_paths = 2",
+        1,
+    );
+    let (w1, w2, sharing) = pair(&text);
+    assert_eq!(w1.parallel_paths, 2);
+    let paths = beltwright::two_winding::path_linkages(&w2, &w1);
+    let scale = phase_linkages(&w2, &w2)[0].norm();
+    for p in &paths {
+        assert!((p[0] + p[1]).norm() < 1e-9 * scale, "{p:?}");
+        assert!(p[0].norm() > 1e-3 * scale, "{p:?}");
+    }
+    let t = TwoStudy::new([&w1, &w2], [None, None], sharing);
+    let r = t.report();
+    assert!(r.couplings[1].phase_ratio < 1e-12);
+    assert!(matches!(
+        r.findings.as_slice(),
+        [Finding::PathsCirculate {
+            running: 1,
+            idle: 0,
+            ..
+        }]
+    ));
+    // Each winding's own sheets then say it is not sound to wind from.
+    assert!(
+        t.studies()
+            .iter()
+            .all(|s| s.sound() == beltwright::study::Soundness::Pair)
+    );
 }
 
 #[test]
@@ -133,13 +172,17 @@ fn a_twelve_pole_field_drives_a_zero_sequence_emf_round_the_four_pole_delta() {
     let c = &r.couplings[1];
     assert_eq!((c.running, c.idle), (1, 0));
     assert!(
-        (c.phase_ratio - 8.0 / 33.0).abs() < 1e-12,
+        (c.phase_ratio - 23.0 / 108.0).abs() < 1e-12,
         "{}",
         c.phase_ratio
     );
-    assert!((c.loop_ratio - 3.0 * c.phase_ratio).abs() < 1e-12);
+    let loop_ratio = c.loop_ratio.expect("a delta");
+    assert!((loop_ratio - 3.0 * c.phase_ratio).abs() < 1e-12);
+    // All of it zero sequence: the loop current takes it up, nothing is left between the
+    // closed delta's leads.
+    assert!(c.line_ratio.expect("closed delta") < 1e-12);
     // At 400 V in star, each 12-pole phase is at 400/√3 V.
-    let loop_v = 400.0 / 3f64.sqrt() * 8.0 / 11.0;
+    let loop_v = 400.0 / 3f64.sqrt() * 3.0 * 23.0 / 108.0;
     assert!((c.loop_v.expect("volts") - loop_v).abs() < 1e-9);
     // The other way the orders never meet: the 12-pole winding sees nothing.
     assert!(r.couplings[0].phase_ratio < 1e-12);
@@ -221,8 +264,8 @@ fn the_held_back_record_has_one_reversed_coil_in_the_twelve_pole_winding() {
     let out = common::run(&["audit", RECORD, "--format", "json"]);
     assert_eq!(out.status.code(), Some(1));
     let v: Value = serde_json::from_slice(&out.stdout).expect("json");
-    // The 4-pole winding as found is sound; the 12-pole has exactly the reversed coil.
-    assert_eq!(v["sound"], true);
+    // The 4-pole winding as found has no findings; the 12-pole exactly the reversed coil.
+    assert_eq!(v["findings"].as_array().map(Vec::len), Some(0));
     let found = v["second_winding"]["findings"]
         .as_array()
         .expect("findings");
@@ -230,11 +273,12 @@ fn the_held_back_record_has_one_reversed_coil_in_the_twelve_pole_winding() {
     assert_eq!(found[0]["kind"], "reversed_coil");
     let message = found[0]["message"].as_str().expect("message");
     assert!(message.contains("slot 22"), "{message}");
-    assert_eq!(v["all_sound"], false);
+    // The top level's verdict is the whole core's.
+    assert_eq!(v["sound"], false);
     // Against the design, the same coil and nothing else.
     let out = common::run(&["audit", RECORD, "--intended", HOIST, "--format", "json"]);
     let v: Value = serde_json::from_slice(&out.stdout).expect("json");
-    assert_eq!(v["sound"], true);
+    assert_eq!(v["findings"].as_array().map(Vec::len), Some(0));
     assert_eq!(v["second_winding"]["sound"], false);
 }
 
@@ -248,8 +292,8 @@ fn bad_two_winding_layouts_exit_2_naming_the_key() {
         ("leads = 6 ", "leads = 9 ", "winding.leads"),
         ("sharing = \"layers\"", "sharing = \"slots\"", "sharing"),
         (
-            "turns_per_coil = 44",
-            "turns_per_coil = 44\nbogus = 1",
+            "turns_per_coil = 72",
+            "turns_per_coil = 72\nbogus = 1",
             "bogus",
         ),
         (
@@ -317,5 +361,45 @@ fn sheets_and_the_page_carry_both_windings() {
     assert!(
         second.contains("1U"),
         "the 12-pole sheet marks its leads 1U"
+    );
+}
+
+#[test]
+fn the_second_winding_keeps_its_own_wire_and_rating_and_refusals_name_its_lines() {
+    let base = std::fs::read_to_string(HOIST).expect("example");
+    // The first winding's insulated diameter and strands are not the second's wire.
+    let text = base.replacen(
+        "diameter_mm = 1.12",
+        "diameter_mm = 1.12\ninsulated_diameter_mm = 1.25\nstrands_in_hand = 2",
+        1,
+    );
+    let f = common::temp_layout(&text);
+    let card = common::json(&["card", f.path().to_str().expect("path"), "--format", "json"]);
+    assert_eq!(card["wire"]["strands_in_hand"], 2);
+    let second = &card["second_winding"]["wire"];
+    assert_eq!(second["strands_in_hand"], 1);
+    assert!((second["diameter_mm"].as_f64().expect("d") - 1.06).abs() < 1e-9);
+    assert!(second["insulated_diameter_mm"].as_f64().expect("ins") < 1.2);
+    // Its rating is its own, not the first winding's connection or efficiency.
+    let plate = &card["second_winding"]["nameplate"];
+    assert_eq!(plate["power_w"], 1100.0);
+    assert!(
+        plate.get("connection").is_none_or(Value::is_null),
+        "{plate}"
+    );
+    // A bad value written in [second_winding] is named there, with its own line.
+    let bad = base.replacen("current_a = 4.8", "current_a = -3.0", 1);
+    let line = bad
+        .lines()
+        .position(|l| l.starts_with("current_a = -3.0"))
+        .expect("line")
+        + 1;
+    let f = common::temp_layout(&bad);
+    let out = common::run(&["plan", f.path().to_str().expect("path")]);
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(
+        err.contains(&format!("line {line}: second_winding.current_a")),
+        "{err}"
     );
 }

@@ -100,14 +100,14 @@ fn run(cli: &Cli, name: &str, spec: &Spec, file: &str, source: &str) -> Result<P
         Command::Card(a) => view(View::Card, a.format.into()),
         Command::Audit(a) => {
             let printed = view(View::Audit, a.common.format.into())?;
-            let r = study.report();
-            if r.findings.is_empty() {
+            if study.report().findings.is_empty() {
                 Ok(printed)
             } else {
+                let n = words::problems(&study).max(1);
                 Err(Failure {
                     message: format!(
                         "{file}: the audit found {}; see the findings",
-                        beltwright::numbering::count(r.findings.len(), "problem", "problems")
+                        beltwright::numbering::count(n, "problem", "problems")
                     ),
                     status: 1,
                     report: Some(printed),

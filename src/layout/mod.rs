@@ -145,6 +145,12 @@ pub fn locate(source: &str, table: &str, index: usize, key: &str) -> Option<usiz
     let mut in_wanted = table.is_empty();
     for (n, line) in source.lines().enumerate() {
         let t = line.trim();
+        // A table header may carry a comment after it: `[[coil]]   # found backwards`.
+        let t = if t.starts_with('[') {
+            t.split('#').next().unwrap_or(t).trim()
+        } else {
+            t
+        };
         if let Some(rest) = t.strip_prefix("[[") {
             let current = rest.trim_end_matches("]]").trim();
             if current == table {
@@ -180,5 +186,9 @@ mod tests {
         assert_eq!(locate(src, "machine", 0, "slots"), Some(3));
         assert_eq!(locate(src, "coil", 1, "go"), Some(7));
         assert_eq!(locate(src, "coil", 2, "go"), None);
+        let commented =
+            "[second_winding]   # above the first\npoles = 12\n[[coil]] # odd\ngo = 3\n";
+        assert_eq!(locate(commented, "second_winding", 0, "poles"), Some(2));
+        assert_eq!(locate(commented, "coil", 0, "go"), Some(4));
     }
 }

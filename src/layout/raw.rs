@@ -16,7 +16,7 @@ use super::{
 };
 
 /// Top level of a layout file (contract: `../shared/design.md`).
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct RawLayout {
     title: Option<String>,
@@ -41,7 +41,7 @@ pub struct RawLayout {
     second_winding: Option<two_winding::RawSecond>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawMachine {
     topology: Topology,
@@ -51,7 +51,7 @@ struct RawMachine {
     phase_labels: Option<Vec<String>>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawWinding {
     layers: i64,
@@ -69,7 +69,7 @@ struct RawWinding {
     grading: Option<crate::design::Grading>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawCore {
     slot_pitch_mm: Option<f64>,
@@ -89,7 +89,7 @@ struct RawCore {
     end_factor: Option<f64>,
 }
 
-#[derive(Debug, Default, Deserialize)]
+#[derive(Debug, Clone, Default, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawWire {
     diameter_mm: Option<f64>,
@@ -100,7 +100,7 @@ struct RawWire {
     material: Option<Material>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawMeasured {
     line_resistance_ohm: Option<Vec<f64>>,
@@ -110,7 +110,7 @@ struct RawMeasured {
     temperature_c: Option<f64>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawSecondary {
     material: Option<PlateMaterial>,
@@ -133,7 +133,7 @@ enum PlateMaterial {
     Copper,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawSupply {
     frequency_hz: Option<f64>,
@@ -141,7 +141,7 @@ struct RawSupply {
 }
 
 /// A number, or a list of numbers (one per rated voltage).
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(untagged)]
 enum OneOrMore {
     One(f64),
@@ -158,7 +158,7 @@ impl OneOrMore {
 }
 
 /// Text, or a TOML date written bare (`date = 2026-12-03`).
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(untagged)]
 enum TextOrDate {
     Text(String),
@@ -166,7 +166,7 @@ enum TextOrDate {
     Date(toml::value::Datetime),
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Default, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawNameplate {
     power_kw: Option<f64>,
@@ -183,7 +183,7 @@ struct RawNameplate {
     service_factor: Option<f64>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawJob {
     number: Option<TextOrDate>,
@@ -193,7 +193,7 @@ struct RawJob {
     notes: Option<String>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawDrawing {
     colours: Option<Vec<String>>,
@@ -202,7 +202,7 @@ struct RawDrawing {
 /// A coil group written at once: `coils` coils of one phase from slot `first`, each `step`
 /// slots on from the last, of span `span` (lap), or nested around one centre with spans
 /// `span`, `span − 2`, ... (concentric).
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawGroup {
     phase: String,
@@ -217,7 +217,7 @@ struct RawGroup {
     winding: Option<i64>,
 }
 
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawCoil {
     phase: String,

@@ -49,6 +49,9 @@ pub struct Study<'w> {
     pitch: OnceLock<PitchReport>,
     speeds: OnceLock<Option<Result<SpeedsReport, SpeedsError>>>,
     single_phase: OnceLock<Option<SinglePhaseReport>>,
+    /// Set when this winding shares its core with another and the pair's report found
+    /// something between the two (`two_winding::TwoStudy`).
+    pair_findings: OnceLock<()>,
 }
 
 impl<'w> Study<'w> {
@@ -70,7 +73,14 @@ impl<'w> Study<'w> {
             pitch: OnceLock::new(),
             speeds: OnceLock::new(),
             single_phase: OnceLock::new(),
+            pair_findings: OnceLock::new(),
         }
+    }
+
+    /// Mark this winding's core as having findings between its two windings: its sheets
+    /// then say it is not sound to wind from.
+    pub fn mark_pair_findings(&self) {
+        let _ = self.pair_findings.set(());
     }
 
     /// The winding studied.
@@ -126,6 +136,8 @@ impl<'w> Study<'w> {
             Soundness::Unbalanced
         } else if self.audit().is_some_and(|a| !a.sound) {
             Soundness::Findings
+        } else if self.pair_findings.get().is_some() {
+            Soundness::Pair
         } else {
             Soundness::Sound
         }
@@ -226,4 +238,7 @@ pub enum Soundness {
     Unbalanced,
     /// A recorded coil list whose audit has findings.
     Findings,
+    /// One of two windings in a core whose pair's report has findings (between the
+    /// windings, or the slots they share).
+    Pair,
 }

@@ -32,14 +32,20 @@ impl<'w> TwoStudy<'w> {
         intended: [Option<&'w Winding>; 2],
         sharing: Sharing,
     ) -> Self {
-        TwoStudy {
+        let t = TwoStudy {
             studies: [
                 Study::new(windings[0], intended[0]),
                 Study::new(windings[1], intended[1]),
             ],
             sharing,
             report: OnceLock::new(),
+        };
+        // Each winding's sheets say so when the pair has findings between the windings:
+        // the report is worked out now, once, so that no sheet is drawn before it.
+        if t.report().findings.iter().any(Finding::between) {
+            t.studies.iter().for_each(Study::mark_pair_findings);
         }
+        t
     }
 
     /// Each winding's own study, the first winding's first.
@@ -106,28 +112,39 @@ pub struct Part {
 
 /// What the running winding induces in the idle one, from the gap field of its balanced
 /// currents (the stepped MMF of its slot currents over a smooth gap; the rotor's damping of
-/// the field's harmonics is not counted, so the figures are upper estimates).
+/// the field's harmonics is not counted, so the figures are upper estimates). Each ratio
+/// is over the running winding's own phase EMF, which its rated phase voltage stands for.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Coupling {
     /// The running winding (0 the first).
     pub running: usize,
     /// The idle winding.
     pub idle: usize,
-    /// The idle winding's largest phase EMF over the running winding's own phase EMF.
+    /// The idle winding's largest phase EMF, across the phase's own ends.
     pub phase_ratio: f64,
-    /// The sum of the idle winding's three phase EMFs taken round a delta, over the
-    /// running winding's phase EMF: zero when they cancel.
-    pub loop_ratio: f64,
-    /// Largest EMF between two of the idle winding's line leads, over the running phase EMF.
-    pub line_ratio: f64,
+    /// The largest EMF between two parallel paths of one idle phase: paths joined at
+    /// their ends carry a current between them when it is not zero.
+    pub path_ratio: f64,
+    /// The sum of the idle winding's three phase EMFs taken round a delta (zero sequence);
+    /// `None` for a star.
+    pub loop_ratio: Option<f64>,
+    /// Largest EMF between two of the idle winding's line leads: a star's phase EMFs less
+    /// one another; a delta closed inside, each phase less the loop's share (the loop
+    /// current takes up the rest); `None` for a delta brought out open, whose leads of
+    /// different phases are not joined.
+    pub line_ratio: Option<f64>,
     /// The idle winding's largest phase EMF at the running winding's rated voltage, V.
     pub idle_phase_v: Option<f64>,
+    /// Between two parallel paths of one phase, V.
+    pub path_v: Option<f64>,
     /// Largest EMF between two idle line leads, V.
     pub idle_line_v: Option<f64>,
     /// The EMF round the idle winding's delta, V.
     pub loop_v: Option<f64>,
     /// How the idle winding is connected.
     pub idle_connection: Connection,
+    /// The idle winding's parallel paths per phase.
+    pub idle_paths: usize,
     /// True when the idle winding is a delta closed inside the machine (three leads): a
     /// loop EMF then drives a current whatever the contactors do.
     pub closed_inside: bool,
@@ -149,6 +166,18 @@ pub enum Finding {
         /// Its loop EMF at rated voltage, V.
         loop_v: Option<f64>,
     },
+    /// The idle winding's parallel paths of one phase have different EMFs: a current
+    /// circulates between them while the other speed runs.
+    PathsCirculate {
+        /// The running winding (0 the first).
+        running: usize,
+        /// The idle winding.
+        idle: usize,
+        /// Largest EMF between two paths over the running phase EMF.
+        path_ratio: f64,
+        /// It at rated voltage, V.
+        path_v: Option<f64>,
+    },
     /// Both windings' wire does not go into the slots.
     SlotsOverfull {
         /// Fill of the fullest slot by both windings' insulated wire.
@@ -168,6 +197,19 @@ pub enum Finding {
         /// How many.
         problems: usize,
     },
+}
+
+impl Finding {
+    /// True for a finding between the two windings (or the slots they share), rather than
+    /// one winding's own.
+    pub fn between(&self) -> bool {
+        matches!(
+            self,
+            Finding::ClosedDeltaLoop { .. }
+                | Finding::PathsCirculate { .. }
+                | Finding::SlotsOverfull { .. }
+        )
+    }
 }
 
 /// The report on a two-winding core.
@@ -196,22 +238,16 @@ pub struct TwoWindingReport {
 
 fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
     let w = [studies[0].winding(), studies[1].winding()];
-    let low = if w[0].geometry.poles > w[1].geometry.poles {
-        0
-    } else {
-        1
-    };
     let windings: Vec<Part> = (0..2)
         .map(|i| {
             let s = &studies[i];
             let wi = w[i];
-            // Speed 1 is the lower (the layout's numbering, `spec::speed_numbers`).
-            let speed = match wi.design.leads.speed {
-                1 => Speed::Low,
-                2 => Speed::High,
-                _ if i == low => Speed::Low,
-                _ => Speed::High,
-            };
+            // Speed 1 is the lower (`spec::speed_numbers`, the one rule).
+            let speed =
+                match crate::spec::speed_numbers([w[0].geometry.poles, w[1].geometry.poles])[i] {
+                    1 => Speed::Low,
+                    _ => Speed::High,
+                };
             Part {
                 poles: wi.geometry.poles,
                 speed,
@@ -251,12 +287,23 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
     };
     let mut findings = Vec::new();
     for c in &couplings {
-        if c.closed_inside && c.loop_ratio > CANCELS {
+        if let Some(l) = c.loop_ratio
+            && c.closed_inside
+            && l > CANCELS
+        {
             findings.push(Finding::ClosedDeltaLoop {
                 running: c.running,
                 idle: c.idle,
-                loop_ratio: c.loop_ratio,
+                loop_ratio: l,
                 loop_v: c.loop_v,
+            });
+        }
+        if c.path_ratio > CANCELS {
+            findings.push(Finding::PathsCirculate {
+                running: c.running,
+                idle: c.idle,
+                path_ratio: c.path_ratio,
+                path_v: c.path_v,
             });
         }
     }
@@ -297,49 +344,85 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
 /// The EMFs `running`'s balanced currents induce in `idle`'s phases, over its own.
 fn coupling(running: &Winding, idle: &Winding, r: usize, i: usize) -> Coupling {
     let own = phase_linkages(running, running);
-    let induced = phase_linkages(running, idle);
+    let paths = path_linkages(running, idle);
+    let induced: Vec<Complex64> = paths.iter().map(|p| mean(p)).collect();
     let reference = own.iter().map(|e| e.norm()).sum::<f64>() / own.len().max(1) as f64;
     let ratio = |x: f64| if reference > 0.0 { x / reference } else { 0.0 };
     let phase_ratio = ratio(induced.iter().map(|e| e.norm()).fold(0.0, f64::max));
-    let loop_ratio = ratio(induced.iter().sum::<Complex64>().norm());
-    let m = induced.len();
-    let line_ratio = ratio(
-        (0..m)
-            .map(|k| {
-                let v = induced[k] - induced[(k + 1) % m];
-                let v = match idle.design.connection {
-                    // Between two leads of a delta is one phase; of a star, two in series.
-                    Connection::Delta => induced[k],
-                    Connection::Star => v,
-                };
-                v.norm()
+    let path_ratio = ratio(
+        paths
+            .iter()
+            .flat_map(|p| {
+                p.iter()
+                    .flat_map(move |a| p.iter().map(move |b| (a - b).norm()))
             })
             .fold(0.0, f64::max),
     );
+    let zero = induced.iter().sum::<Complex64>();
+    let m = induced.len();
+    let closed_inside = idle.design.connection == Connection::Delta && idle.design.leads.count == 3;
+    let loop_ratio = (idle.design.connection == Connection::Delta).then(|| ratio(zero.norm()));
+    let line_ratio = match idle.design.connection {
+        // Between two leads of a star: two phases in series, each from its end.
+        Connection::Star => Some(
+            (0..m)
+                .map(|k| (induced[k] - induced[(k + 1) % m]).norm())
+                .fold(0.0, f64::max),
+        ),
+        // A closed delta: the loop current takes up the zero-sequence EMF, leaving each
+        // phase's share across the leads its ends are joined to.
+        Connection::Delta if closed_inside => Some(
+            induced
+                .iter()
+                .map(|e| (e - zero / m as f64).norm())
+                .fold(0.0, f64::max),
+        ),
+        Connection::Delta => None,
+    }
+    .map(ratio);
     let phase_v = running
         .design
         .supply
         .line_voltage_v
         .map(|u| running.design.connection.phase_voltage(u));
+    let volts = |x: Option<f64>| phase_v.zip(x).map(|(v, x)| v * x);
     Coupling {
         running: r,
         idle: i,
         phase_ratio,
+        path_ratio,
         loop_ratio,
         line_ratio,
-        idle_phase_v: phase_v.map(|v| v * phase_ratio),
-        idle_line_v: phase_v.map(|v| v * line_ratio),
-        loop_v: phase_v.map(|v| v * loop_ratio),
+        idle_phase_v: volts(Some(phase_ratio)),
+        path_v: volts(Some(path_ratio)),
+        idle_line_v: volts(line_ratio),
+        loop_v: volts(loop_ratio),
         idle_connection: idle.design.connection,
-        closed_inside: idle.design.connection == Connection::Delta && idle.design.leads.count == 3,
+        idle_paths: idle.parallel_paths,
+        closed_inside,
     }
 }
 
+fn mean(v: &[Complex64]) -> Complex64 {
+    v.iter().sum::<Complex64>() / v.len().max(1) as f64
+}
+
 /// Flux linkage of each of `idle`'s phases (per unit phase current, per unit of
-/// μ0·r·l/g) in the gap field of `running`'s balanced positive-sequence currents: the
-/// stepped MMF of its slot currents, held at zero mean round the closed core (Gauss: the
-/// flux leaving the rotor is zero), integrated between each coil's sides.
+/// μ0·r·l/g) in the gap field of `running`'s balanced positive-sequence currents: the mean
+/// of its paths' ([`path_linkages`]), which is the phase's EMF when the paths agree.
 pub fn phase_linkages(running: &Winding, idle: &Winding) -> Vec<Complex64> {
+    path_linkages(running, idle)
+        .iter()
+        .map(|p| mean(p))
+        .collect()
+}
+
+/// Flux linkage of each parallel path of each of `idle`'s phases, `[phase][path]`, in the
+/// gap field of `running`'s balanced positive-sequence currents: the stepped MMF of its
+/// slot currents, held at zero mean round the closed core (Gauss: the flux leaving the
+/// rotor is zero), integrated between each coil's sides. Both windings are on one core:
+/// `idle`'s slots are `running`'s (a coil outside them links nothing).
+pub fn path_linkages(running: &Winding, idle: &Winding) -> Vec<Vec<Complex64>> {
     let m = running.geometry.phases;
     let currents: Vec<Complex64> = (0..m).map(|k| phase_operator(k, m)).collect();
     let slot = slot_currents(running, &currents);
@@ -351,18 +434,24 @@ pub fn phase_linkages(running: &Winding, idle: &Winding) -> Vec<Complex64> {
         sum += c;
         mmf.push(sum);
     }
-    let mean = mmf.iter().sum::<Complex64>() / s as f64;
+    let mean_mmf = mmf.iter().sum::<Complex64>() / s.max(1) as f64;
     // ∫ F dθ from slot 0 to each slot, in slot pitches.
     let mut at = Vec::with_capacity(s);
     let mut acc = Complex64::new(0.0, 0.0);
     for f in &mmf {
         at.push(acc);
-        acc += f - mean;
+        acc += f - mean_mmf;
     }
-    let a = idle.parallel_paths.max(1) as f64;
-    let mut out = vec![Complex64::new(0.0, 0.0); idle.geometry.phases];
+    let mut out =
+        vec![vec![Complex64::new(0.0, 0.0); idle.parallel_paths.max(1)]; idle.geometry.phases];
     for c in &idle.coils {
-        out[c.phase] += (at[c.back] - at[c.go]) * (c.turns as f64 / a);
+        if let (Some(b), Some(g), Some(path)) = (
+            at.get(c.back),
+            at.get(c.go),
+            out.get_mut(c.phase).and_then(|p| p.get_mut(c.path)),
+        ) {
+            *path += (b - g) * c.turns as f64;
+        }
     }
     out
 }

@@ -9,7 +9,7 @@ use crate::design::{
 use crate::layout::{LayoutError, MAX_TURNS};
 
 /// `[main]` or `[aux]`: one winding of a single-phase stator.
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub(super) struct RawPart {
     coils_per_group: Option<i64>,
@@ -23,7 +23,7 @@ pub(super) struct RawPart {
 }
 
 /// A group's turns: a total to be graded, or one count per coil.
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(untagged)]
 enum RawTurns {
     Total(i64),
@@ -31,7 +31,7 @@ enum RawTurns {
 }
 
 /// `[capacitor]`: what is in series with the auxiliary winding.
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub(super) struct RawCapacitor {
     duty: CapacitorDuty,
@@ -39,7 +39,7 @@ pub(super) struct RawCapacitor {
 }
 
 /// `[circuit]`: the motor's equivalent circuit referred to the main winding.
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub(super) struct RawCircuit {
     magnetizing_reactance_ohm: f64,

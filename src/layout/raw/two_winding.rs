@@ -12,7 +12,7 @@ use beltwright_model::spec::{SecondWinding, Sharing, Spec, speed_numbers};
 
 /// `[second_winding]`: the second winding's pole count and its `[winding]` choices, with
 /// the readings and nameplate figures that are its own.
-#[derive(Debug, Deserialize)]
+#[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub(super) struct RawSecond {
     poles: i64,
@@ -30,6 +30,7 @@ pub(super) struct RawSecond {
     current_a: Option<f64>,
     speed_rpm: Option<f64>,
     power_kw: Option<f64>,
+    power_hp: Option<f64>,
 }
 
 #[derive(Debug, Clone, Copy, Deserialize)]
@@ -51,6 +52,8 @@ impl RawLayout {
             return self.validate(source, file);
         };
         self.refuse_with_second(&c)?;
+        // The file as the second winding's own layout, before the first's coils are kept.
+        let mut again = self.clone();
         keep(&mut self.coil, &coils1);
         keep(&mut self.group, &groups1);
         // Each winding brings out its three line leads unless six are asked for.
@@ -80,17 +83,29 @@ impl RawLayout {
                 ),
             ));
         }
-        // The file once more, as the second winding's own layout.
-        let mut again: RawLayout = toml::from_str(source).map_err(|e| LayoutError::Syntax {
-            file: file.to_string(),
-            message: e.message().to_string(),
-        })?;
-        again.second_winding = None;
         keep(&mut again.coil, &coils2);
         keep(&mut again.group, &groups2);
-        let renamed = Renamed {
-            wire: raw2.wire_diameter_mm.is_some(),
-        };
+        // Keys the second winding's refusals name as the user wrote them in
+        // [second_winding].
+        let mut renamed: Vec<(&'static str, &'static str)> = vec![
+            ("machine.poles", "poles"),
+            ("measured.line_resistance_ohm", "line_resistance_ohm"),
+        ];
+        for (given, from, to) in [
+            (
+                raw2.wire_diameter_mm.is_some(),
+                "wire.diameter_mm",
+                "wire_diameter_mm",
+            ),
+            (raw2.current_a.is_some(), "nameplate.current_a", "current_a"),
+            (raw2.speed_rpm.is_some(), "nameplate.speed_rpm", "speed_rpm"),
+            (raw2.power_kw.is_some(), "nameplate.power_kw", "power_kw"),
+            (raw2.power_hp.is_some(), "nameplate.power_hp", "power_hp"),
+        ] {
+            if given {
+                renamed.push((from, to));
+            }
+        }
         again.machine.poles = raw2.poles;
         again.winding = RawWinding {
             layers: raw2.layers,
@@ -108,9 +123,12 @@ impl RawLayout {
             grading: None,
         };
         if let Some(d) = raw2.wire_diameter_mm {
+            // Its own wire: the first's gauge, insulated diameter and strands do not apply.
             let wire = again.wire.get_or_insert_with(Default::default);
             wire.diameter_mm = Some(d);
             wire.awg = None;
+            wire.insulated_diameter_mm = None;
+            wire.strands_in_hand = None;
         }
         again.measured = match (again.measured.take(), raw2.line_resistance_ohm) {
             (_, None) => None,
@@ -122,15 +140,29 @@ impl RawLayout {
                 temperature_c: m.and_then(|m| m.temperature_c),
             }),
         };
+        // Its rating: its own current, speed and power; the frame, voltage, frequency and
+        // insulation are the motor's; the first winding's connection, efficiency, power
+        // factor and service factor are not its.
+        let rated = raw2.current_a.is_some()
+            || raw2.speed_rpm.is_some()
+            || raw2.power_kw.is_some()
+            || raw2.power_hp.is_some();
+        if rated && again.nameplate.is_none() {
+            again.nameplate = Some(Default::default());
+        }
         if let Some(n) = again.nameplate.as_mut() {
             n.current_a = raw2.current_a.map(super::OneOrMore::One);
             n.speed_rpm = raw2.speed_rpm;
             n.power_kw = raw2.power_kw;
-            n.power_hp = None;
+            n.power_hp = raw2.power_hp;
+            n.connection = None;
+            n.efficiency_percent = None;
+            n.power_factor = None;
+            n.service_factor = None;
         }
         let mut second = again
             .validate(source, file)
-            .map_err(|e| relocate(e, source, &coils2, &groups2, Some(renamed)))?;
+            .map_err(|e| relocate(e, source, &coils2, &groups2, Some(&renamed)))?;
         let mut first = first;
         let [one, two] = speed_numbers([first.design.poles, second.design.poles]);
         first.design.leads.speed = one;
@@ -193,12 +225,6 @@ impl RawLayout {
     }
 }
 
-/// Which keys of the second winding were written in `[second_winding]`.
-#[derive(Clone, Copy)]
-struct Renamed {
-    wire: bool,
-}
-
 /// Indices of the entries of each winding, in file order; a `winding` other than 1 or 2
 /// (or 2 without `[second_winding]`) is refused.
 fn split(
@@ -257,7 +283,7 @@ fn relocate(
     source: &str,
     coils: &[usize],
     groups: &[usize],
-    second: Option<Renamed>,
+    second: Option<&[(&str, &str)]>,
 ) -> LayoutError {
     let LayoutError::Invalid {
         file,
@@ -281,13 +307,12 @@ fn relocate(
         entry("coil", coils, rest)
     } else if let Some(rest) = key.strip_prefix("group[") {
         entry("group", groups, rest)
-    } else if let Some(s) = second {
-        let own = match key.as_str() {
-            "machine.poles" => Some("poles"),
-            "wire.diameter_mm" if s.wire => Some("wire_diameter_mm"),
-            "measured.line_resistance_ohm" => Some("line_resistance_ohm"),
-            k => k.strip_prefix("winding."),
-        };
+    } else if let Some(renamed) = second {
+        let own = renamed
+            .iter()
+            .find(|(from, _)| *from == key)
+            .map(|(_, to)| *to)
+            .or_else(|| key.strip_prefix("winding."));
         own.map(|k| {
             (
                 format!("second_winding.{k}"),

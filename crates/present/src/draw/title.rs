@@ -60,6 +60,11 @@ impl TitleBlock {
                  connect from this sheet; see beltwright audit."
                     .to_string(),
             ),
+            Soundness::Pair => Some(
+                "NOT A SOUND WINDING: the two windings of this core have findings between \
+                 them. Do not wind or connect from this sheet; see the two windings' sheet."
+                    .to_string(),
+            ),
             Soundness::Sound => None,
         };
         TitleBlock {

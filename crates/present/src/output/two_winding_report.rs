@@ -60,10 +60,6 @@ pub struct TwoWindingJson<'a> {
     pair: &'a TwoWindingReport,
     /// The pair's findings in words.
     pair_findings: Vec<FindingJson<'a>>,
-    /// True when neither winding nor the pair has anything to act on (audit view; the
-    /// top level's `sound` is the first winding's own).
-    #[serde(skip_serializing_if = "Option::is_none")]
-    all_sound: Option<bool>,
 }
 
 /// A winding's name in words: "the 4-pole winding".
@@ -143,6 +139,23 @@ pub fn finding_words(r: &TwoWindingReport, f: &Finding) -> String {
                 .unwrap_or_default(),
             name(*idle)
         ),
+        Finding::PathsCirculate {
+            running,
+            idle,
+            path_ratio,
+            path_v,
+        } => format!(
+            "while {} runs, the parallel paths of {}'s phases have EMFs {} of the running \
+             phase voltage apart{}: a current circulates between them, heating an idle \
+             winding. Give {} one path, or paths that link the other field alike",
+            name(*running),
+            name(*idle),
+            percent(*path_ratio),
+            path_v
+                .map(|v| format!(" ({} V)", num(v, 0)))
+                .unwrap_or_default(),
+            name(*idle)
+        ),
         Finding::SlotsOverfull { fill, limit } => format!(
             "both windings fill the fullest slot to {} of its area; about {} is what goes in \
              by hand: thinner wire or fewer turns",
@@ -205,34 +218,50 @@ pub fn parts_table(r: &TwoWindingReport) -> Table {
 
 /// What each winding induces in the other while it runs.
 pub fn coupling_table(r: &TwoWindingReport) -> Table {
-    let mut t = Table::new(&[
+    let paths = r.couplings.iter().any(|c| c.idle_paths > 1);
+    let mut columns = vec![
         ("running", Align::Left),
         ("idle", Align::Left),
         ("idle phase", Align::Right),
+    ];
+    if paths {
+        columns.push(("between paths", Align::Right));
+    }
+    columns.extend([
         ("idle leads", Align::Right),
         ("round a delta", Align::Right),
     ]);
+    let mut t = Table::new(&columns);
     for c in &r.couplings {
         let Coupling { running, idle, .. } = c;
-        t.push(vec![
+        let how = match (c.idle_connection, c.closed_inside) {
+            (Connection::Star, _) => "star",
+            (Connection::Delta, true) => "delta",
+            (Connection::Delta, false) => "open delta",
+        };
+        let mut row = vec![
             format!("{}-pole", r.windings[*running].poles),
-            format!(
-                "{}-pole ({})",
-                r.windings[*idle].poles,
-                connection(c.idle_connection)
-            ),
-            with_volts(c.phase_ratio, c.idle_phase_v),
+            format!("{}-pole ({how})", r.windings[*idle].poles),
+            with_volts(Some(c.phase_ratio), c.idle_phase_v),
+        ];
+        if paths {
+            row.push(with_volts(Some(c.path_ratio), c.path_v));
+        }
+        row.extend([
             with_volts(c.line_ratio, c.idle_line_v),
             with_volts(c.loop_ratio, c.loop_v),
         ]);
+        t.push(row);
     }
     t
 }
 
-fn with_volts(ratio: f64, v: Option<f64>) -> String {
-    match v {
-        Some(_) => format!("{} ({})", percent(ratio), volts(v)),
-        None => percent(ratio),
+/// A ratio of the running phase voltage with its volts, or "-" where it has no meaning.
+fn with_volts(ratio: Option<f64>, v: Option<f64>) -> String {
+    match (ratio, v) {
+        (Some(x), Some(_)) => format!("{} ({})", percent(x), volts(v)),
+        (Some(x), None) => percent(x),
+        (None, _) => "-".into(),
     }
 }
 
@@ -266,22 +295,34 @@ pub fn summary(r: &TwoWindingReport) -> Vec<String> {
             .into(),
     );
     for c in &r.couplings {
-        if c.idle_connection == Connection::Delta
+        if let Some(l) = c.loop_ratio
             && !c.closed_inside
-            && c.loop_ratio > crate::two_winding::CANCELS
+            && l > crate::two_winding::CANCELS
         {
             lines.push(format!(
                 "{}'s delta is brought out open: its contactor must leave it open while {} \
                  runs ({}{} round it).",
                 capital(&winding_name(&r.windings[c.idle])),
                 winding_name(&r.windings[c.running]),
-                percent(c.loop_ratio),
+                percent(l),
                 c.loop_v
                     .map(|v| format!(" of the phase voltage, {} V,", num(v, 0)))
                     .unwrap_or_default()
             ));
         }
     }
+    lines.push(
+        "In each winding's own tables and sheets below, top and bottom are its own layers \
+         within its share of the slot."
+            .into(),
+    );
+    lines.push(
+        "Test each winding's insulation against the other winding and the frame, the \
+         winding not under test joined to the frame (IEC 60034-1's high-voltage test, from \
+         memory); the fill above leaves no room for a separator between the windings unless \
+         the slot area given allows for one."
+            .into(),
+    );
     lines.iter().map(|l| paragraph(l)).collect()
 }
 
@@ -358,6 +399,38 @@ impl TwoWindingView<'_, '_> {
         }
     }
 
+    /// Every finding of the pair: each recorded winding's audit's, then the pair's own.
+    fn findings_table(&self) -> Table {
+        use super::Words;
+        let r = self.study.report();
+        let mut t = Table::new(&[
+            ("winding", Align::Left),
+            ("kind", Align::Left),
+            ("message", Align::Left),
+        ]);
+        for (i, st) in self.study.studies().iter().enumerate() {
+            for f in st
+                .audit()
+                .map(|a| a.findings.as_slice())
+                .unwrap_or_default()
+            {
+                let kind = serde_json::to_value(f.kind)
+                    .ok()
+                    .and_then(|v| v.as_str().map(str::to_string))
+                    .unwrap_or_default();
+                t.push(vec![(i + 1).to_string(), kind, f.message()]);
+            }
+        }
+        for f in r.findings.iter().filter(|f| f.between()) {
+            let kind = serde_json::to_value(f)
+                .ok()
+                .and_then(|v| v.get("kind").and_then(|k| k.as_str()).map(str::to_string))
+                .unwrap_or_default();
+            t.push(vec!["both".into(), kind, capital(&finding_words(r, f))]);
+        }
+        t
+    }
+
     /// Winding `i`'s own main table of this view (the pair's table where it has none).
     fn own_table(&self, i: usize) -> Table {
         let st = &self.study.studies()[i];
@@ -381,11 +454,32 @@ impl TwoWindingView<'_, '_> {
     }
 }
 
+/// How many problems the audit of a two-winding core found: each recorded winding's
+/// findings, a synthesized winding that is not balanced, and the findings between them.
+pub fn problems(study: &TwoStudy) -> usize {
+    let r = study.report();
+    let own: usize = study
+        .studies()
+        .iter()
+        .zip(&r.windings)
+        .map(|(s, p)| match s.audit() {
+            Some(a) => a.findings.len(),
+            None => usize::from(!p.balanced),
+        })
+        .sum();
+    own + r.findings.iter().filter(|f| f.between()).count()
+}
+
 impl Report for TwoWindingView<'_, '_> {
     fn json(&self) -> impl Serialize + '_ {
         let r = self.study.report();
         let (mut first, _) = self.own(0);
         let (second, _) = self.own(1);
+        // The audit's verdict at the top level is the whole core's: neither winding nor
+        // the pair has anything to act on (each winding's own is in its findings).
+        if self.view == View::Audit {
+            first.insert("sound".into(), serde_json::Value::Bool(self.sound()));
+        }
         if first.is_empty() {
             // Keep the opening every JSON begins with.
             if let Ok(serde_json::Value::Object(o)) = serde_json::to_value(Opening::default()) {
@@ -405,7 +499,6 @@ impl Report for TwoWindingView<'_, '_> {
                     message: finding_words(r, f),
                 })
                 .collect(),
-            all_sound: (self.view == View::Audit).then(|| self.sound()),
         }
     }
 
@@ -432,8 +525,12 @@ impl Report for TwoWindingView<'_, '_> {
     }
 
     /// Each winding's own table of the view, one after the other, with the winding's
-    /// number in front (the pair's table when the two have different columns).
+    /// number in front (the pair's table when the two have different columns); the audit's
+    /// is every finding, each winding's and the pair's.
     fn main_table(&self) -> Table {
+        if self.view == View::Audit {
+            return self.findings_table();
+        }
         let own = [self.own_table(0), self.own_table(1)];
         if own[0].headers != own[1].headers {
             return parts_table(self.study.report());
