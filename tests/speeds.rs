@@ -500,3 +500,25 @@ fn the_winding_factor_warning_judges_both_speeds_and_not_one_pole_pitch() {
     );
     assert_eq!(plan(11)["warnings"], serde_json::json!([]));
 }
+
+#[test]
+fn the_held_back_fan_record_has_its_one_reversed_half_found() {
+    // Phase U's first group (a half of the phase: its two groups are the halves the
+    // bridge joins) written backwards: its EMF cancels the other half's at two poles.
+    let out = common::run(&[
+        "audit",
+        "layouts/fan-two-speed-as-found.toml",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(out.status.code(), Some(1));
+    let a: Value = serde_json::from_slice(&out.stdout).expect("json");
+    assert_eq!(kinds(&a), ["reversed_group"], "{:#}", a["findings"]);
+    assert_eq!(
+        a["findings"][0]["coils"],
+        serde_json::json!([1, 2, 3, 4, 5, 6])
+    );
+    // With the group turned round, the other speed is sound too.
+    assert_eq!(a["other_speed"]["after_fix"], true);
+    assert_eq!(a["other_speed"]["balanced"], true);
+}
