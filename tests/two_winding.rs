@@ -290,7 +290,7 @@ fn bad_two_winding_layouts_exit_2_naming_the_key() {
         ("poles = 12", "poles = 11", "second_winding.poles"),
         ("pitch = 3 ", "pitch = 40 ", "second_winding.pitch"),
         ("leads = 6 ", "leads = 9 ", "winding.leads"),
-        ("sharing = \"layers\"", "sharing = \"slots\"", "sharing"),
+        ("sharing = \"layers\"", "sharing = \"alternate\"", "sharing"),
         (
             "turns_per_coil = 72",
             "turns_per_coil = 72\nbogus = 1",
@@ -402,4 +402,67 @@ fn the_second_winding_keeps_its_own_wire_and_rating_and_refusals_name_its_lines(
         err.contains(&format!("line {line}: second_winding.current_a")),
         "{err}"
     );
+}
+
+const BY_SLOTS: &str = "[machine]\ntopology = \"rotary\"\nslots = 48\npoles = 4\n\n\
+    [winding]\nlayers = 2\npitch = 10\nturns_per_coil = 20\n\n\
+    [second_winding]\npoles = 8\nsharing = \"slots\"\nlayers = 2\npitch = 6\n\
+    turns_per_coil = 30\n\n[core]\nbore_mm = 140.0\nstack_mm = 100.0\n\
+    slot_area_mm2 = 90.0\n\n[supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\n\
+    [wire]\ndiameter_mm = 0.9\n";
+
+#[test]
+fn windings_sharing_by_slots_lie_in_their_own_slots_with_the_half_cores_factors() {
+    let (w1, w2, sharing) = pair(BY_SLOTS);
+    assert_eq!(sharing, beltwright::spec::Sharing::Slots);
+    // Each in every other slot: the first in slots 1, 3, 5, … (0-based even), the second
+    // in 2, 4, 6, ….
+    for (w, parity) in [(&w1, 0), (&w2, 1)] {
+        assert_eq!(w.geometry.slots, 48);
+        assert!(
+            w.coils
+                .iter()
+                .all(|c| c.go % 2 == parity && c.back % 2 == parity)
+        );
+        assert!(w.is_balanced());
+    }
+    // On its 24 slots the 4-pole winding has q = 2 and span 5 of 6: k_d = sin(q·α/2) /
+    // (q·sin(α/2)) with α = 30°, k_p = sin(5/6·90°) (Say's factors): both cos 15°. The
+    // 8-pole one is full pitch at q = 1: k_w1 = 1.
+    let kw = |w: &beltwright::winding::Winding| {
+        let e = w
+            .phase_emf(0, beltwright::winding::Elec::FUNDAMENTAL)
+            .norm();
+        let n: f64 = w
+            .coils
+            .iter()
+            .filter(|c| c.phase == 0)
+            .map(|c| c.turns as f64)
+            .sum();
+        e / n
+    };
+    let c15 = (15f64).to_radians().cos();
+    assert!((kw(&w1) - c15 * c15).abs() < 1e-12, "{}", kw(&w1));
+    assert!((kw(&w2) - 1.0).abs() < 1e-12, "{}", kw(&w2));
+    // Each slot holds one winding: the pair's fill is the fuller winding's, not the sum;
+    // 4 and 8 poles never couple (orders 2ν against 4μ, ν and μ odd).
+    let t = TwoStudy::new([&w1, &w2], [None, None], sharing);
+    let r = t.report();
+    let fills = [
+        t.studies()[0].card().slot_fill,
+        t.studies()[1].card().slot_fill,
+    ]
+    .map(|f| f.expect("fill"));
+    assert_eq!(r.slot_fill, Some(fills[0].max(fills[1])));
+    assert!(r.couplings.iter().all(|c| c.phase_ratio < 1e-12));
+    // An odd slot count or an odd span cannot be shared so.
+    for (from, to, key) in [
+        ("slots = 48", "slots = 47", "machine.slots"),
+        ("pitch = 6", "pitch = 5", "second_winding.pitch"),
+    ] {
+        let f = common::temp_layout(&BY_SLOTS.replacen(from, to, 1));
+        let out = common::run(&["plan", f.path().to_str().expect("path")]);
+        assert_eq!(out.status.code(), Some(2));
+        assert!(String::from_utf8_lossy(&out.stderr).contains(key), "{to}");
+    }
 }

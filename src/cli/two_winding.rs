@@ -7,7 +7,7 @@ use beltwright::draw::{self, FileKind, Page, Sheet};
 use beltwright::output::Words;
 use beltwright::output::two_winding_report::{self as words, View};
 use beltwright::spec::Spec;
-use beltwright::two_winding::{Position, TwoStudy};
+use beltwright::two_winding::{TwoStudy, positions};
 use beltwright::winding::{self, PlanError, Winding};
 
 use super::args::{Cli, Command};
@@ -39,7 +39,7 @@ fn windings(spec: &Spec, file: &str, source: &str) -> Result<[Winding; 2], Failu
     let other = winding::build_lenient(&second.spec)
         .map_err(|e| second_failure(file, source, &second.spec, &e))?;
     let mut out = [first, other];
-    for (w, at) in out.iter_mut().zip([Position::Bottom, Position::Top]) {
+    for (w, at) in out.iter_mut().zip(positions(second.sharing)) {
         w.labels.title = Some(words::sheet_title(title, w.geometry.poles, at));
     }
     Ok(out)

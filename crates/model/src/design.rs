@@ -495,6 +495,10 @@ pub struct Design {
     /// A single-phase winding (`machine.phases = 1`): a main and an auxiliary winding 90
     /// electrical degrees apart, held as two phases of the coil list (main first).
     pub single_phase: Option<SinglePhase>,
+    /// The winding lies in every other slot only, from slot 1 (`Some(0)`) or slot 2
+    /// (`Some(1)`): one of two windings sharing a core by slots. Synthesis lays it out on
+    /// half the slots and places it in its own; its span is in the core's slot pitches.
+    pub alternate_slots: Option<usize>,
 }
 
 /// A single-phase stator's two windings and how the auxiliary is fed.
@@ -641,6 +645,7 @@ impl Design {
             winding_temperature_c: 20.0,
             pole_change: None,
             single_phase: None,
+            alternate_slots: None,
         }
     }
 

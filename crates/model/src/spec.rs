@@ -69,6 +69,9 @@ pub enum Sharing {
     /// Each winding in its own layers of every slot: the first at the bottom of the
     /// slot, the second above it, nearer the bore.
     Layers,
+    /// Each winding in its own slots: the first in slots 1, 3, 5, …, the second in slots
+    /// 2, 4, 6, … (`Design::alternate_slots`).
+    Slots,
 }
 
 impl Spec {

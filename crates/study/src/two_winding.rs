@@ -80,6 +80,18 @@ pub enum Position {
     Bottom,
     /// Above the other, nearer the bore, wound second.
     Top,
+    /// In slots 1, 3, 5, … (a core shared by slots).
+    OddSlots,
+    /// In slots 2, 4, 6, ….
+    EvenSlots,
+}
+
+/// Where the first and the second winding lie, by how they share the slots.
+pub fn positions(sharing: Sharing) -> [Position; 2] {
+    match sharing {
+        Sharing::Layers => [Position::Bottom, Position::Top],
+        Sharing::Slots => [Position::OddSlots, Position::EvenSlots],
+    }
 }
 
 /// One winding of the pair, as the pair's report needs it (its own reports are in its
@@ -251,11 +263,7 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
             Part {
                 poles: wi.geometry.poles,
                 speed,
-                position: if i == 0 {
-                    Position::Bottom
-                } else {
-                    Position::Top
-                },
+                position: positions(sharing)[i],
                 synchronous_rpm: crate::speeds::synchronous_rpm(wi, wi.geometry.poles),
                 connection: wi.design.connection,
                 coils: wi.coils.len(),
@@ -277,8 +285,10 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
         .map(|(r, i)| coupling(w[r], w[i], r, i))
         .collect();
     let cards = [studies[0].card(), studies[1].card()];
-    let slot_fill = match (cards[0].slot_fill, cards[1].slot_fill) {
-        (Some(a), Some(b)) => Some(a + b),
+    // Sharing by layers, both windings lie in every slot; by slots, each slot holds one.
+    let slot_fill = match (cards[0].slot_fill, cards[1].slot_fill, sharing) {
+        (Some(a), Some(b), Sharing::Layers) => Some(a + b),
+        (Some(a), Some(b), Sharing::Slots) => Some(a.max(b)),
         _ => None,
     };
     let both = |f: fn(&crate::card::DataCard) -> Option<f64>| match (f(cards[0]), f(cards[1])) {
@@ -334,7 +344,10 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
         couplings,
         slot_fill,
         slot_fill_limit: FILL_LIMIT,
-        wires_per_slot: cards[0].wires_per_slot + cards[1].wires_per_slot,
+        wires_per_slot: match sharing {
+            Sharing::Layers => cards[0].wires_per_slot + cards[1].wires_per_slot,
+            Sharing::Slots => cards[0].wires_per_slot.max(cards[1].wires_per_slot),
+        },
         copper_mass_kg: both(|c| c.copper_mass_kg),
         wire_to_order_kg: both(|c| c.wire_to_order_kg),
         findings,

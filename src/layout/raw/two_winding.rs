@@ -37,6 +37,7 @@ pub(super) struct RawSecond {
 #[serde(rename_all = "kebab-case")]
 enum RawSharing {
     Layers,
+    Slots,
 }
 
 impl RawLayout {
@@ -52,6 +53,9 @@ impl RawLayout {
             return self.validate(source, file);
         };
         self.refuse_with_second(&c)?;
+        if matches!(raw2.sharing, Some(RawSharing::Slots)) {
+            alternate_checks(&self, &raw2, &c)?;
+        }
         // The file as the second winding's own layout, before the first's coils are kept.
         let mut again = self.clone();
         keep(&mut self.coil, &coils1);
@@ -167,12 +171,18 @@ impl RawLayout {
         let [one, two] = speed_numbers([first.design.poles, second.design.poles]);
         first.design.leads.speed = one;
         second.design.leads.speed = two;
+        let sharing = match raw2.sharing.unwrap_or(RawSharing::Layers) {
+            RawSharing::Layers => Sharing::Layers,
+            RawSharing::Slots => Sharing::Slots,
+        };
+        if sharing == Sharing::Slots {
+            first.design.alternate_slots = Some(0);
+            second.design.alternate_slots = Some(1);
+        }
         Ok(Spec {
             second: Some(Box::new(SecondWinding {
                 spec: second,
-                sharing: match raw2.sharing.unwrap_or(RawSharing::Layers) {
-                    RawSharing::Layers => Sharing::Layers,
-                },
+                sharing,
             })),
             ..first
         })
@@ -336,4 +346,42 @@ fn relocate(
             message,
         },
     }
+}
+
+/// A core shared by slots: an even slot count, and spans that go from a winding's slot to
+/// another of its own (an even number of slot pitches).
+fn alternate_checks(raw: &RawLayout, second: &RawSecond, c: &Checker) -> Result<(), LayoutError> {
+    let slots = raw.machine.slots;
+    if slots % 2 != 0 {
+        return Err(c.err(
+            "machine",
+            0,
+            "slots",
+            format!(
+                "{slots} slots cannot be shared by slots (every other slot each); give an even \
+                 slot count, or sharing = \"layers\""
+            ),
+        ));
+    }
+    for (table, pitch) in [
+        ("winding", raw.winding.pitch),
+        ("second_winding", second.pitch),
+    ] {
+        if let Some(y) = pitch
+            && y % 2 != 0
+        {
+            return Err(c.err(
+                table,
+                0,
+                "pitch",
+                format!(
+                    "a winding in every other slot spans an even number of slot pitches, not \
+                     {y}; give {} or {}",
+                    (y - 1).max(2),
+                    y + 1
+                ),
+            ));
+        }
+    }
+    Ok(())
 }

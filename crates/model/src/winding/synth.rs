@@ -22,9 +22,42 @@ pub fn build(spec: &Spec) -> Result<Winding, PlanError> {
         return super::single_phase::synthesize(&spec.design, &spec.labels)
             .map_err(PlanError::SinglePhase);
     }
-    let mut w = synthesize_explained(&spec.design, true)?;
+    let mut w = match spec.design.alternate_slots {
+        Some(offset) => in_alternate_slots(&spec.design, offset)?,
+        None => synthesize_explained(&spec.design, true)?,
+    };
     w.labels = spec.labels.clone();
     Ok(w)
+}
+
+/// A winding in every other slot of the design's core, from slot `offset` (0 or 1): laid
+/// out on a core of half the slots (each of its slots two of the core's apart, so every
+/// slot angle is the half core's plus one constant, and balance and factors are the half
+/// core's), then placed in its own slots with its spans doubled.
+fn in_alternate_slots(design: &Design, offset: usize) -> Result<Winding, PlanError> {
+    let half = Design {
+        slots: design.slots / 2,
+        pitch: design.pitch.map(|y| (y / 2).max(1)),
+        alternate_slots: None,
+        ..design.clone()
+    };
+    let w = synthesize_explained(&half, true)?;
+    let place = |k: usize| 2 * k + offset.min(1);
+    Ok(Winding {
+        design: design.clone(),
+        geometry: Geometry::rotary(design.slots, design.poles, design.phases, design.layers),
+        coils: w
+            .coils
+            .iter()
+            .map(|c| Coil {
+                go: place(c.go),
+                back: place(c.back),
+                ..c.clone()
+            })
+            .collect(),
+        pitch: 2 * w.pitch,
+        ..w
+    })
 }
 
 /// The balanced winding a design asks for, connected in its parallel paths, without title

@@ -237,7 +237,10 @@ fn header(
     let notes = if tooth_coils(w) {
         "Tooth coils: each coil surrounds one tooth.  \u{2193} go side: current enters.  \
          \u{2191} back side.  Top: lead end; bottom: far end, each coil's number under its end."
-    } else if w.geometry.layers == 2 && w.design.leads.speed != 0 {
+    } else if w.geometry.layers == 2
+        && w.design.leads.speed != 0
+        && w.design.alternate_slots.is_none()
+    {
         // One of two windings in the slots: its layers lie within its own share.
         "Left column: this winding's upper layer; right: its lower layer.  \u{2193} go side: \
          current enters.  \u{2191} back side.  Top: lead end; bottom: far end, each coil's number under its end."

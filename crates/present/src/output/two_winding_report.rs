@@ -76,6 +76,8 @@ pub fn part_line(i: usize, p: &Part) -> String {
     let at = match p.position {
         Position::Bottom => "bottom of the slots",
         Position::Top => "top of the slots, above the other",
+        Position::OddSlots => "slots 1, 3, 5, ...",
+        Position::EvenSlots => "slots 2, 4, 6, ...",
     };
     let rpm = p
         .synchronous_rpm
@@ -102,6 +104,18 @@ fn short_position(p: Position) -> &'static str {
     match p {
         Position::Bottom => "bottom",
         Position::Top => "top",
+        Position::OddSlots => "odd slots",
+        Position::EvenSlots => "even slots",
+    }
+}
+
+/// Where a winding lies, for a heading: "bottom of the slots", "odd slots".
+fn place_words(p: Position) -> &'static str {
+    match p {
+        Position::Bottom => "bottom of the slots",
+        Position::Top => "top of the slots",
+        Position::OddSlots => "odd slots",
+        Position::EvenSlots => "even slots",
     }
 }
 
@@ -275,7 +289,11 @@ pub fn summary(r: &TwoWindingReport) -> Vec<String> {
         .collect();
     if let Some(f) = r.slot_fill {
         lines.push(format!(
-            "Both windings fill the fullest slot to {} ({} wires; limit about {}).",
+            "{} the fullest slot to {} ({} wires; limit about {}).",
+            match r.sharing {
+                crate::spec::Sharing::Layers => "Both windings fill",
+                crate::spec::Sharing::Slots => "Each slot holds one winding; its wire fills",
+            },
             percent(f),
             r.wires_per_slot,
             percent(r.slot_fill_limit)
@@ -311,18 +329,25 @@ pub fn summary(r: &TwoWindingReport) -> Vec<String> {
             ));
         }
     }
-    lines.push(
-        "In each winding's own tables and sheets below, top and bottom are its own layers \
-         within its share of the slot."
-            .into(),
-    );
-    lines.push(
+    if r.sharing == crate::spec::Sharing::Layers {
+        lines.push(
+            "In each winding's own tables and sheets below, top and bottom are its own layers \
+             within its share of the slot."
+                .into(),
+        );
+    }
+    lines.push(format!(
         "Test each winding's insulation against the other winding and the frame, the \
-         winding not under test joined to the frame (IEC 60034-1's high-voltage test, from \
-         memory); the fill above leaves no room for a separator between the windings unless \
-         the slot area given allows for one."
-            .into(),
-    );
+             winding not under test joined to the frame (IEC 60034-1's high-voltage test, \
+             from memory){}",
+        match r.sharing {
+            crate::spec::Sharing::Layers => {
+                "; the fill above leaves no room for a separator between the windings \
+                     unless the slot area given allows for one."
+            }
+            crate::spec::Sharing::Slots => ".",
+        }
+    ));
     lines.iter().map(|l| paragraph(l)).collect()
 }
 
@@ -509,10 +534,10 @@ impl Report for TwoWindingView<'_, '_> {
         s.extend(pair_sections(r));
         for (i, p) in r.windings.iter().enumerate() {
             s.push(Section::Heading(format!(
-                "Winding {} of 2: {} poles, {} of the slots",
+                "Winding {} of 2: {} poles, {}",
                 i + 1,
                 p.poles,
-                short_position(p.position)
+                place_words(p.position)
             )));
             let (_, own) = self.own(i);
             // The caution is printed once, at the top.

@@ -25,6 +25,12 @@ pub struct SlotCheck {
 /// primary (its span's worth of slots at each end).
 pub(super) fn expected(w: &Winding, k: usize) -> usize {
     let g = &w.geometry;
+    // One of two windings sharing the core by slots: the other's slots hold none of it.
+    if let Some(offset) = w.design.alternate_slots
+        && k % 2 != offset
+    {
+        return 0;
+    }
     if g.topology == Topology::Linear && g.layers == 2 {
         let y = w.pitch.min(g.slots / 2);
         if k < y || k + y >= g.slots {
@@ -40,8 +46,15 @@ pub fn check_slots(w: &Winding) -> SlotCheck {
     let mut out = SlotCheck::default();
     for (k, &n) in sides.iter().enumerate() {
         let want = expected(w, k);
-        if want < w.geometry.layers {
+        if want < w.geometry.layers && want > 0 {
             out.half_filled_by_design.push(SlotNo::at(k));
+        }
+        if want == 0 {
+            // The other winding's slot: nothing of this one belongs there.
+            if n > 0 {
+                out.overfilled.push(SlotNo::at(k));
+            }
+            continue;
         }
         if n == 0 {
             out.empty.push(SlotNo::at(k));
