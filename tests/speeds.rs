@@ -522,3 +522,38 @@ fn the_held_back_fan_record_has_its_one_reversed_half_found() {
     assert_eq!(a["other_speed"]["after_fix"], true);
     assert_eq!(a["other_speed"]["balanced"], true);
 }
+
+#[test]
+fn factors_and_field_at_the_lower_speed_agree_with_both_speeds_report() {
+    // `factors --speed low` and `field --speed low` give the winding at twice the poles;
+    // `speeds` (whose figures are checked against the closed forms above) gives the same
+    // k_w1, THD and σ_d there, and the field turns forward in the lower speed's own
+    // sequence (the board exchanges the leads).
+    let f = "layouts/fan-two-speed.toml";
+    let speeds = common::json(&["speeds", f, "--format", "json"]);
+    let low = &speeds["low_speed"];
+    let factors = common::json(&["factors", f, "--speed", "low", "--format", "json"]);
+    assert_eq!(factors["design"]["poles"], 4);
+    let kw1 = factors["rows"][0]["winding"].as_f64().expect("kw1");
+    let want = low["fundamental"]["winding"]
+        .as_f64()
+        .expect("kw1 at 4 poles");
+    assert!((kw1 - want).abs() < 1e-12, "{kw1} against {want}");
+    let field = common::json(&["field", f, "--speed", "low", "--format", "json"]);
+    assert_eq!(field["working_wave"], "forward");
+    for (a, b) in [
+        ("differential_leakage", "differential_leakage"),
+        ("thd", "thd"),
+    ] {
+        let (x, y) = (
+            field[a].as_f64().expect("field"),
+            low[b].as_f64().expect("speeds"),
+        );
+        assert!((x - y).abs() < 1e-12, "{a}: {x} against {y}");
+    }
+    // As laid out (--speed high) is the plain command; a one-speed winding refuses it.
+    let high = common::json(&["factors", f, "--speed", "high", "--format", "json"]);
+    assert_eq!(high["design"]["poles"], 2);
+    let out = common::run(&["factors", "layouts/pump-rewind.toml", "--speed", "low"]);
+    assert_eq!(out.status.code(), Some(2));
+}

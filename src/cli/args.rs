@@ -30,6 +30,16 @@ mirror!(
     /// Order of the phase currents in time.
     SequenceArg => beltwright::field::Sequence { Positive, Negative }
 );
+/// Which speed of a pole-changing winding: as laid out (the higher, `machine.poles`) or
+/// at twice the poles (the lower).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum SpeedArg {
+    /// The higher speed: the winding as laid out, at machine.poles.
+    High,
+    /// The lower speed: twice the poles, by consequent poles.
+    Low,
+}
+
 mirror!(
     /// Which sheet to draw.
     SheetArg => beltwright::draw::Sheet { Slots, Connections, Star, Field, Card, Thrust, Section }
@@ -385,6 +395,10 @@ pub struct FactorsArgs {
     /// Highest electrical order listed.
     #[arg(long, default_value = "25", value_parser = flags::upto)]
     pub upto: f64,
+    /// A pole-changing winding (winding.pole_change) at this speed: high as laid out, low
+    /// at twice the poles.
+    #[arg(long, value_enum)]
+    pub speed: Option<SpeedArg>,
 }
 
 #[derive(Args)]
@@ -681,6 +695,10 @@ pub struct FieldArgs {
     /// Also write the field sheet (SVG) to this file.
     #[arg(long)]
     pub svg: Option<PathBuf>,
+    /// A pole-changing winding (winding.pole_change) at this speed: high as laid out, low
+    /// at twice the poles, its supply leads as the standard's board joins them.
+    #[arg(long, value_enum, conflicts_with = "sequence")]
+    pub speed: Option<SpeedArg>,
 }
 
 #[derive(Args)]

@@ -131,7 +131,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             Ok(say(wrote(&written)))
         }
         Command::Factors(a) => {
-            let w = load(&a.common.file)?;
+            let w = at_speed(load(&a.common.file)?, a.speed, &a.common.file)?;
             let orders = factors::orders_for(&w, a.upto);
             if orders > factors::MAX_ORDERS {
                 return Err(Failure::input(format!(
@@ -474,7 +474,7 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
     if let Some(out) = &a.svg {
         check_output(out, &[&a.common.file], "--svg")?;
     }
-    let w = load(&a.common.file)?;
+    let w = at_speed(load(&a.common.file)?, a.speed, &a.common.file)?;
     let orders = (a.upto * w.geometry.poles as f64 / 2.0).floor();
     if orders > field::MAX_ORDERS as f64 {
         return Err(Failure::input(format!(
@@ -487,6 +487,13 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
     let currents = match &a.currents {
         Some(text) => field::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,
+        // The lower speed of a pole-changing winding in its own sequence: the standard's
+        // board exchanges the supply leads so that it turns the same way.
+        None if a.speed == Some(SpeedArg::Low) => field::balanced_currents(
+            w.geometry.phases,
+            winding::star::sequence_of(&w.phase_emfs(winding::Elec::FUNDAMENTAL))
+                .unwrap_or(winding::star::Sequence::Positive),
+        ),
         None => field::balanced_currents(w.geometry.phases, a.sequence.into()),
     };
     let opts = FieldOptions {
@@ -633,6 +640,28 @@ fn present<R: Report + 'static>(report: R, format: impl Into<Format>) -> Printed
 /// Lines of text for stdout.
 pub(super) fn say(text: String) -> Printed {
     Box::new(move |out: &mut dyn Write| out.write_all(text.as_bytes()))
+}
+
+/// A pole-changing winding at the speed asked for: as laid out (high), or at twice the
+/// poles (low); any other winding only as laid out.
+fn at_speed(w: Winding, speed: Option<SpeedArg>, file: &Path) -> Result<Winding, Failure> {
+    match speed {
+        None | Some(SpeedArg::High) if w.design.pole_change.is_some() || speed.is_none() => Ok(w),
+        Some(SpeedArg::Low) if w.design.pole_change.is_some() => {
+            let mut low = winding::pole_change::lower_speed(&w).unwrap_or(w);
+            let title = low.labels.title.take().unwrap_or_default();
+            low.labels.title = Some(format!(
+                "{title} (lower speed, {} poles)",
+                low.geometry.poles
+            ));
+            Ok(low)
+        }
+        _ => Err(Failure::input(format!(
+            "{}: --speed is for a pole-changing winding (winding.pole_change); this one has \
+             one speed, so leave --speed out",
+            file.display()
+        ))),
+    }
 }
 
 /// Read and validate a layout file and build its winding.

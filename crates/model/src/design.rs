@@ -608,6 +608,16 @@ pub enum PoleChange {
     StarDoubleStar,
 }
 
+impl PoleChange {
+    /// How the halves' phases are joined at the lower speed (each phase's halves in series).
+    pub fn lower_connection(self) -> Connection {
+        match self {
+            PoleChange::DeltaDoubleStar => Connection::Delta,
+            PoleChange::StarDoubleStar => Connection::Star,
+        }
+    }
+}
+
 impl Design {
     /// A three-phase design of the given core with every optional key at its default (U, V,
     /// W; lap; one turn per coil; one path; star; no skew; nearest full pitch; no shop

@@ -29,6 +29,17 @@ pub fn in_reversed_half(w: &Winding, c: &super::Coil) -> bool {
     w.span(c) < 0
 }
 
+/// A pole-changing winding's lower speed as a winding of its own: at twice the poles
+/// ([`at_double_poles`]), in the series connection of that speed, with no second speed of
+/// its own; `None` for a winding that does not change poles.
+pub fn lower_speed(w: &Winding) -> Option<Winding> {
+    let pc = w.design.pole_change?;
+    let mut d = at_double_poles(w);
+    d.design.pole_change = None;
+    d.design.connection = pc.lower_connection();
+    Some(d)
+}
+
 /// `w` (a rotary winding at its own pole count) at twice the poles, with the coils of its
 /// reversed groups turned back, as the series connection of a pole-changing winding
 /// joins them.
