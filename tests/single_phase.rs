@@ -507,3 +507,19 @@ fn the_connection_and_slot_sheets_carry_the_single_phase_leads_and_capacitor() {
     ]);
     assert_eq!(out.status.code(), Some(2));
 }
+
+#[test]
+fn the_card_gives_the_insulation_tests_at_the_rated_voltage() {
+    // IEC 60034-1, clause 9.2 (from memory): 1000 V + 2·U_N, at least 1500 V, for one
+    // minute; a repeat test at 80 %. At 230 V that is 1460 V, so 1500 V.
+    let v = common::json(&["card", "layouts/pump-capacitor.toml", "--format", "json"]);
+    let a = &v["single_phase"]["acceptance"];
+    assert_eq!(a["hipot_new_v"], 1500.0);
+    assert_eq!(a["hipot_repeat_v"], 1200.0);
+    // A 400 V rating: 1800 V.
+    let text = std::fs::read_to_string("layouts/pump-capacitor.toml")
+        .expect("example")
+        .replace("line_voltage_v = 230.0", "line_voltage_v = 400.0");
+    let v = json("card", &text);
+    assert_eq!(v["single_phase"]["acceptance"]["hipot_new_v"], 1800.0);
+}

@@ -582,21 +582,10 @@ fn six_lead_sections(six: &crate::card::two_speed::SixLeads) -> Vec<Section> {
     s
 }
 
-/// Acceptance: resistance balance, high-potential test, insulation; the readings against the card.
-fn acceptance_sections(card: &DataCard) -> Vec<Section> {
-    let mut s = Vec::new();
-    s.push(Section::Heading("Acceptance".into()));
-    let a = &card.acceptance;
+/// The high-potential and insulation tests of the acceptance figures, and whose
+/// procedures govern: every card's, three-phase or single-phase.
+pub fn insulation_tests(a: &crate::card::Acceptance) -> Vec<String> {
     let mut lines = Vec::new();
-    if let Some(r) = &a.line_resistance {
-        lines.push(format!(
-            "line-to-line resistance at {} C: {} ohm on each pair, largest deviation \
-             from the mean of the three within +/-{}% (EASA AR100)",
-            num(r.temperature_c, 1),
-            ohms(r.line_ohm),
-            num(a.balance_tolerance_percent, 1)
-        ));
-    }
     match (a.hipot_new_v, a.hipot_repeat_v) {
         (Some(n), Some(r)) => lines.push(format!(
             "high-potential test, windings to frame, 1 min: {} V for a new winding, {} V \
@@ -615,6 +604,25 @@ fn acceptance_sections(card: &DataCard) -> Vec<Section> {
         num(a.polarization_index_min, 1)
     ));
     lines.push(crate::safety::ACCEPTANCE_NOTE.to_string());
+    lines
+}
+
+/// Acceptance: resistance balance, high-potential test, insulation; the readings against the card.
+fn acceptance_sections(card: &DataCard) -> Vec<Section> {
+    let mut s = Vec::new();
+    s.push(Section::Heading("Acceptance".into()));
+    let a = &card.acceptance;
+    let mut lines = Vec::new();
+    if let Some(r) = &a.line_resistance {
+        lines.push(format!(
+            "line-to-line resistance at {} C: {} ohm on each pair, largest deviation \
+             from the mean of the three within +/-{}% (EASA AR100)",
+            num(r.temperature_c, 1),
+            ohms(r.line_ohm),
+            num(a.balance_tolerance_percent, 1)
+        ));
+    }
+    lines.extend(insulation_tests(a));
     s.push(Section::Lines(lines.iter().map(|x| paragraph(x)).collect()));
 
     if let Some(m) = &card.measured {

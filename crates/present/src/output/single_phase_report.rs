@@ -507,6 +507,13 @@ impl Report for SinglePhaseView<'_> {
                 s.push(Section::Heading("Leads".into()));
                 s.push(Section::Table(boards_table(&r.boards)));
                 s.extend(self.capacitor_or_missing());
+                s.push(Section::Heading("Acceptance".into()));
+                s.push(Section::Lines(
+                    super::card_report::insulation_tests(&r.acceptance)
+                        .iter()
+                        .map(|l| paragraph(l))
+                        .collect(),
+                ));
             }
             View::Audit => {
                 if r.findings.is_empty() {

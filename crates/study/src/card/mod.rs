@@ -565,7 +565,6 @@ pub fn card(w: &Winding) -> DataCard {
         (Some(a), Some(b)) => Some(a.max(b)),
         (a, b) => a.or(b),
     };
-    let hipot = rated.map(hipot_new_v);
     // A dual-voltage winding (9, 12 leads) is planned with its sections in parallel, its
     // lower voltage: a supply at the nameplate's higher voltage says otherwise.
     if let (Some(n), Some(v)) = (&w.design.nameplate, w.design.supply.line_voltage_v)
@@ -653,15 +652,7 @@ pub fn card(w: &Winding) -> DataCard {
         wire_to_order_kg: mass.map(|m| m * (1.0 + WIRE_ALLOWANCE_PERCENT / 100.0)),
         wire_allowance_percent: WIRE_ALLOWANCE_PERCENT,
         measured: measured::check(w),
-        acceptance: Acceptance {
-            line_resistance: at,
-            balance_tolerance_percent: BALANCE_TOLERANCE_PERCENT,
-            hipot_new_v: hipot,
-            hipot_repeat_v: hipot.map(|v| 0.8 * v),
-            hipot_rated_v: rated,
-            insulation_resistance_min_mohm: 5.0,
-            polarization_index_min: 2.0,
-        },
+        acceptance: acceptance(rated, at),
         warnings,
     }
 }
@@ -701,6 +692,23 @@ pub fn formers(w: &Winding) -> Vec<Former> {
 /// High-potential test voltage of a new winding for rated line voltage `u` (volts):
 /// 1000 V + 2·U_N, at least 1500 V (IEC 60034-1, clause 9.2, Table 16 item for machines
 /// below 10 MW; from memory).
+/// The acceptance figures of a winding rated `rated_v` (line volts) whose line-to-line
+/// resistance is expected to read `line_resistance`: the high-potential test (IEC 60034-1),
+/// insulation resistance and polarization index (IEEE 43-2013), the readings' balance
+/// (EASA AR100).
+pub fn acceptance(rated_v: Option<f64>, line_resistance: Option<AtTemperature>) -> Acceptance {
+    let hipot = rated_v.map(hipot_new_v);
+    Acceptance {
+        line_resistance,
+        balance_tolerance_percent: BALANCE_TOLERANCE_PERCENT,
+        hipot_new_v: hipot,
+        hipot_repeat_v: hipot.map(|v| 0.8 * v),
+        hipot_rated_v: rated_v,
+        insulation_resistance_min_mohm: 5.0,
+        polarization_index_min: 2.0,
+    }
+}
+
 pub fn hipot_new_v(u: f64) -> f64 {
     (1000.0 + 2.0 * u).max(1500.0)
 }

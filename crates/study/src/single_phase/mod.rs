@@ -246,6 +246,9 @@ pub struct SinglePhaseReport {
     pub leads: Vec<String>,
     /// Audit findings (empty: sound).
     pub findings: Vec<Finding>,
+    /// The high-potential and insulation tests, at the highest rated voltage (the supply's
+    /// or the nameplate's).
+    pub acceptance: crate::card::Acceptance,
 }
 
 /// Turns-weighted EMF of a winding and of one section of the main.
@@ -478,7 +481,21 @@ pub fn study(w: &Winding) -> Option<SinglePhaseReport> {
         capacitor: cap,
         capacitor_missing: missing,
         findings,
+        acceptance: crate::card::acceptance(rated_voltage(w), None),
     })
+}
+
+/// The highest voltage the stator is rated for: the supply's, or the nameplate's highest.
+fn rated_voltage(w: &Winding) -> Option<f64> {
+    let stamped = w
+        .design
+        .nameplate
+        .as_ref()
+        .and_then(|n| n.voltages_v.iter().copied().reduce(f64::max));
+    match (w.design.supply.line_voltage_v, stamped) {
+        (Some(a), Some(b)) => Some(a.max(b)),
+        (a, b) => a.or(b),
+    }
 }
 
 /// The motor as the capacitor solver sees it.
