@@ -313,7 +313,7 @@ fn fan_record(edit: impl Fn(&mut Vec<(String, u64, u64)>)) -> String {
         .collect();
     for (phase, go, back) in coils {
         s.push_str(&format!(
-            "\n[[coil]]\nphase = \"{phase}\"\ngo = {go}\nback = {back}\nturns = 14\n"
+            "\n[[coil]]\nphase = \"{phase}\"\ngo = {go}\nback = {back}\nturns = 28\n"
         ));
     }
     s
@@ -556,4 +556,30 @@ fn factors_and_field_at_the_lower_speed_agree_with_both_speeds_report() {
     assert_eq!(high["design"]["poles"], 2);
     let out = common::run(&["factors", "layouts/pump-rewind.toml", "--speed", "low"]);
     assert_eq!(out.status.code(), Some(2));
+}
+
+#[test]
+fn the_cards_flux_density_is_the_pole_changing_windings_worse_speed() {
+    // At each speed B̂ = π·Φ/(2·τ·L) with Φ = E/(√2·π·f·N·k_w1) (the EMF equation, any
+    // machines text): at the lower speed (4 poles, series star) N is the phase's whole
+    // series turns at U/√3; at the higher (2 poles, double star) the halves are in
+    // parallel, so half of them, at U/√3 too. The card checks the higher of the two.
+    let f = "layouts/fan-two-speed.toml";
+    let speeds = common::json(&["speeds", f, "--format", "json"]);
+    let card = common::json(&["card", f, "--format", "json"]);
+    let (u, hz, bore, stack) = (400.0 / 3f64.sqrt(), 50.0, 0.110, 0.090);
+    let peak = |poles: f64, n: f64, kw: f64| {
+        let phi = u / (2f64.sqrt() * PI * hz * n * kw);
+        let tau = PI * bore / poles;
+        PI * phi / (2.0 * tau * stack)
+    };
+    let n = card["series_turns_per_phase"].as_f64().expect("N");
+    let kw = |s: &str| speeds[s]["fundamental"]["winding"].as_f64().expect("kw1");
+    let low = peak(4.0, n, kw("low_speed"));
+    let high = peak(2.0, n / 2.0, kw("high_speed"));
+    let m = &card["loading"]["magnetic"];
+    let want = low.max(high);
+    let got = m["gap"]["peak_t"].as_f64().expect("peak");
+    assert!((got - want).abs() < 1e-9 * want, "{got} against {want}");
+    assert_eq!(m["at_poles"], if low >= high { 4 } else { 2 });
 }

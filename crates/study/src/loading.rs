@@ -214,6 +214,10 @@ pub struct Magnetic {
     pub yoke: Option<Density>,
     /// Stacking factor used.
     pub stacking_factor: f64,
+    /// For a pole-changing winding, the pole count of the speed these figures are worked
+    /// at: the one whose gap density is higher (`None` for a winding of one speed).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub at_poles: Option<usize>,
 }
 
 /// The electric loading at rated current.
@@ -398,6 +402,33 @@ pub fn gap_peak(phi: f64, tau: f64, l: f64) -> f64 {
 /// The flux per pole and flux densities of `w` on its core at its supply, with the EMF
 /// `emf_ratio` times the phase voltage (1 at no load, where the flux is highest).
 pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic, LoadingError> {
+    let Some(low) = crate::winding::pole_change::lower_speed(w) else {
+        return magnetic_at(w, limits, emf_ratio, 1.0, w.design.connection);
+    };
+    // A pole-changing winding: at the higher speed (as laid out) its halves are in
+    // parallel in double star, so half its series turns at the star's phase voltage; at
+    // the lower, all in series in that speed's connection. The speed of the higher gap
+    // density is the one the core must carry.
+    let mut high = magnetic_at(w, limits, emf_ratio, 0.5, crate::winding::Connection::Star)?;
+    let mut lower = magnetic_at(&low, limits, emf_ratio, 1.0, low.design.connection)?;
+    high.at_poles = Some(w.geometry.poles);
+    lower.at_poles = Some(low.geometry.poles);
+    Ok(if lower.gap.peak_t > high.gap.peak_t {
+        lower
+    } else {
+        high
+    })
+}
+
+/// [`magnetic`] of `w` as one winding of `turns_share` of its series turns per phase,
+/// connected `connection`.
+fn magnetic_at(
+    w: &Winding,
+    limits: &Limits,
+    emf_ratio: f64,
+    turns_share: f64,
+    connection: crate::winding::Connection,
+) -> Result<Magnetic, LoadingError> {
     let d = &w.design;
     let (line, f) = supply_of(d);
     let line = line.ok_or(LoadingError::Missing(Input::LineVoltage))?;
@@ -410,10 +441,11 @@ pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic
         .ok_or(LoadingError::Missing(Input::SlotPitch))?;
     let l = d.core.stack_m.ok_or(LoadingError::Missing(Input::Stack))?;
     let (n, kw) = weakest_phase(w);
+    let n = n * turns_share;
     if n <= 0.0 || kw <= 1e-9 {
         return Err(LoadingError::NoTurns);
     }
-    let e = emf_ratio * d.connection.phase_voltage(line);
+    let e = emf_ratio * connection.phase_voltage(line);
     let phi = flux_per_pole(e, f, n * kw);
     let gap_peak = gap_peak(phi, tau, l);
     let k_fe = d.core.stacking();
@@ -436,6 +468,7 @@ pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic
         frequency_hz: f,
         series_turns: n,
         winding_factor: kw,
+        at_poles: None,
         flux_per_pole_wb: phi,
         gap_mean_t: phi / (tau * l),
         gap: Density {

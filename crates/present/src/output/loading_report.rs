@@ -254,8 +254,17 @@ pub fn loading_table(l: &Loading) -> Table {
 /// The lines under the loading table: the basis of each figure.
 pub fn loading_notes(l: &Loading) -> Vec<String> {
     let m = &l.magnetic;
+    let at = m
+        .at_poles
+        .map(|p| {
+            format!(
+                " at {p} poles (of a pole-changing winding's two speeds, the one whose gap \
+                 density is higher)"
+            )
+        })
+        .unwrap_or_default();
     let mut v = vec![paragraph(&format!(
-        "flux at EMF {} × the phase voltage ({} V), {} Hz, N_ph {}, k_w1 {}; stacking \
+        "flux{at} at EMF {} × the phase voltage ({} V), {} Hz, N_ph {}, k_w1 {}; stacking \
          factor {}",
         num(m.emf_ratio, 3),
         num(m.phase_emf_v, 1),
