@@ -258,9 +258,33 @@ pub fn board_sentence(b: &Board) -> String {
     format!(
         "{supply}, field toward {} slots: L1 to {}; N to {}{joined}.",
         way(b.towards_rising_slots),
-        b.l1.join(" + "),
-        b.l2.join(" + ")
+        leads_on(b, &b.l1, "through the capacitor"),
+        leads_on(b, &b.l2, "through the capacitor")
     )
+}
+
+/// The leads on one line, the one that goes through the capacitor marked so.
+fn leads_on(b: &Board, leads: &[String], marked: &str) -> String {
+    leads
+        .iter()
+        .map(|l| match &b.through_capacitor {
+            Some(c) if c == l => format!("{l} {marked}"),
+            _ => l.clone(),
+        })
+        .collect::<Vec<_>>()
+        .join(" + ")
+}
+
+/// The lead tables, with what "via C" means when a lead goes through the capacitor.
+pub fn boards_sections(boards: &[Board]) -> Vec<Section> {
+    let mut s = vec![Section::Table(boards_table(boards))];
+    if boards.iter().any(|b| b.through_capacitor.is_some()) {
+        s.push(Section::Lines(vec![paragraph(
+            "via C: through the capacitor, in series with the auxiliary winding (a start \
+             capacitor through its switch too)",
+        )]));
+    }
+    s
 }
 
 /// The lead tables.
@@ -276,8 +300,8 @@ pub fn boards_table(boards: &[Board]) -> Table {
         t.push(vec![
             b.voltage.clone(),
             format!("{} slots", way(b.towards_rising_slots)),
-            b.l1.join(" + "),
-            b.l2.join(" + "),
+            leads_on(b, &b.l1, "via C"),
+            leads_on(b, &b.l2, "via C"),
             if b.joined.is_empty() {
                 "-".into()
             } else {
@@ -479,7 +503,7 @@ impl Report for SinglePhaseView<'_> {
                 s.push(Section::Table(self.main_table()));
                 s.extend(self.capacitor_or_missing());
                 s.push(Section::Heading("Connections".into()));
-                s.push(Section::Table(boards_table(&r.boards)));
+                s.extend(boards_sections(&r.boards));
             }
             View::Factors => {
                 s.push(Section::Table(parts_table(r)));
@@ -505,7 +529,7 @@ impl Report for SinglePhaseView<'_> {
             View::Card => {
                 s.push(Section::Lines(vec![part_card(&r.main), part_card(&r.aux)]));
                 s.push(Section::Heading("Leads".into()));
-                s.push(Section::Table(boards_table(&r.boards)));
+                s.extend(boards_sections(&r.boards));
                 s.extend(self.capacitor_or_missing());
                 s.push(Section::Heading("Acceptance".into()));
                 s.push(Section::Lines(

@@ -177,6 +177,9 @@ pub struct Board {
     pub l2: Vec<String>,
     /// Leads joined together and to nothing else.
     pub joined: Vec<String>,
+    /// The auxiliary lead that goes to its line through the capacitor (in series with the
+    /// auxiliary winding); `None` for a stator without one.
+    pub through_capacitor: Option<String>,
 }
 
 /// A finding of the single-phase audit.
@@ -354,7 +357,7 @@ fn waves(w: &Winding, nu: u32, i: [Complex64; 2]) -> (f64, f64) {
 /// main: the sections in parallel with the auxiliary on the line at the lower voltage; in
 /// series at the higher, the auxiliary across the second section (the same voltage as
 /// at the lower).
-fn boards(leads: &[String], same_way_rising: bool) -> Vec<Board> {
+fn boards(leads: &[String], same_way_rising: bool, capacitor: bool) -> Vec<Board> {
     let l = |i: usize| leads[i].clone();
     let mut out = Vec::new();
     for swap in [false, true] {
@@ -370,8 +373,9 @@ fn boards(leads: &[String], same_way_rising: bool) -> Vec<Board> {
                 voltage: "single".into(),
                 towards_rising_slots: rising,
                 l1: vec![l(0), za],
-                l2: vec![l(1), zb],
+                l2: vec![l(1), zb.clone()],
                 joined: Vec::new(),
+                through_capacitor: capacitor.then(|| zb.clone()),
             });
         } else {
             out.push(Board {
@@ -380,13 +384,15 @@ fn boards(leads: &[String], same_way_rising: bool) -> Vec<Board> {
                 l1: vec![l(0), l(2), za.clone()],
                 l2: vec![l(1), l(3), zb.clone()],
                 joined: Vec::new(),
+                through_capacitor: capacitor.then(|| zb.clone()),
             });
             out.push(Board {
                 voltage: "high".into(),
                 towards_rising_slots: rising,
                 l1: vec![l(0)],
-                l2: vec![l(3), zb],
+                l2: vec![l(3), zb.clone()],
                 joined: vec![l(1), l(2), za],
+                through_capacitor: capacitor.then(|| zb.clone()),
             });
         }
     }
@@ -469,7 +475,11 @@ pub fn study(w: &Winding) -> Option<SinglePhaseReport> {
         slots: w.geometry.slots,
         poles: w.geometry.poles,
         slots_per_pole: w.geometry.slots as f64 / w.geometry.poles as f64,
-        boards: boards(&leads, same_way_rising),
+        boards: boards(
+            &leads,
+            same_way_rising,
+            sp.capacitor != crate::design::CapacitorDuty::None,
+        ),
         leads,
         main,
         aux,
