@@ -481,6 +481,7 @@ fn the_connection_and_slot_sheets_carry_the_single_phase_leads_and_capacitor() {
         "Z2",
         "L1 to U1 + Z1",
         "L1 to U1 + Z2",
+        "N to U2 + Z2 through the capacitor",
         "µF",
         "main winding",
     ] {
