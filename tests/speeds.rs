@@ -583,3 +583,22 @@ fn the_cards_flux_density_is_the_pole_changing_windings_worse_speed() {
     assert!((got - want).abs() < 1e-9 * want, "{got} against {want}");
     assert_eq!(m["at_poles"], if low >= high { 4 } else { 2 });
 }
+
+#[test]
+fn the_audit_and_speeds_turn_the_field_the_same_way_on_the_same_leads() {
+    // The higher speed's lines go on the taps in the standard's order (2W, 2U, 2V: the
+    // taps of phases V, U, W), so the field turns against the phases' own sequence there;
+    // the audit of a sound record says what `speeds` says for the same leads.
+    let speeds = common::json(&["speeds", "layouts/fan-two-speed.toml", "--format", "json"]);
+    let high = speeds["connections"]
+        .as_array()
+        .expect("connections")
+        .iter()
+        .find(|c| c["poles"] == 2)
+        .expect("the higher speed's board");
+    let (_, a) = audit(&fan_record(|_| {}));
+    let d = &a["travel_detail"];
+    assert_eq!(d["line_leads"], serde_json::json!(["2W", "2U", "2V"]));
+    let rising = d["sequence"] == "positive";
+    assert_eq!(serde_json::json!(rising), high["towards_rising_slots"]);
+}

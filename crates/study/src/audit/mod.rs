@@ -794,10 +794,26 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
         o
     });
     let g = &w.geometry;
+    // A pole-changing winding's lines go on its taps in the standard's order, which feeds
+    // the phases out of order (`pole_change::feeds_in_order`): the field then turns the
+    // other way from the phases' own sequence, as `speeds` says.
+    let sequence = match w.design.pole_change {
+        Some(_)
+            if !crate::winding::pole_change::feeds_in_order(
+                &crate::winding::pole_change::HIGH_SPEED,
+            ) =>
+        {
+            match bal.sequence {
+                Sequence::Positive => Sequence::Negative,
+                Sequence::Negative => Sequence::Positive,
+            }
+        }
+        _ => bal.sequence,
+    };
     let travel = Travel {
         starts: w.design.phase_labels.clone(),
         topology: g.topology,
-        sequence: bal.sequence,
+        sequence,
         slots: g.slots,
         line_leads: match (w.design.pole_change, w.design.leads.speed) {
             (Some(_), _) => Some(
