@@ -26,6 +26,12 @@ fn example_layouts() -> Vec<(String, Winding)> {
             let name = path.display().to_string();
             let source = std::fs::read_to_string(&path).expect("readable layout");
             out.push((name.clone(), build(&source, &name)));
+            // A two-winding core's second winding is drawn on sheets of its own too.
+            let spec = layout::parse(&source, &name).unwrap_or_else(|e| panic!("{name}: {e}"));
+            if let Some(second) = spec.second {
+                let w = winding::build(&second.spec).unwrap_or_else(|e| panic!("{name}: {e}"));
+                out.push((format!("{name} (second winding)"), w));
+            }
         }
     }
     assert!(!out.is_empty(), "no example layouts found");

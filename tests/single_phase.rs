@@ -524,3 +524,32 @@ fn the_card_gives_the_insulation_tests_at_the_rated_voltage() {
     let v = json("card", &text);
     assert_eq!(v["single_phase"]["acceptance"]["hipot_new_v"], 1800.0);
 }
+
+#[test]
+fn the_reversed_coil_is_named_by_its_slots_and_polyphase_options_are_refused() {
+    let rec = "layouts/pump-capacitor-as-found.toml";
+    let out = common::run(&["audit", rec, "--format", "json"]);
+    let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+    let f = &v["findings"][0];
+    assert_eq!((f["go"].as_u64(), f["back"].as_u64()), (Some(10), Some(15)));
+    assert!(
+        f["message"]
+            .as_str()
+            .expect("message")
+            .contains("in at slot 10, out at slot 15"),
+        "{f}"
+    );
+    for args in [
+        vec!["audit", rec, "--intended", "layouts/pump-capacitor.toml"],
+        vec!["factors", "layouts/pump-capacitor.toml", "--speed", "low"],
+        vec!["field", "layouts/hoist-two-winding.toml", "--speed", "low"],
+    ] {
+        let out = common::run(&args);
+        assert_eq!(out.status.code(), Some(2), "{args:?}");
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(
+            err.contains("leave") && err.contains("out"),
+            "{args:?}: {err}"
+        );
+    }
+}

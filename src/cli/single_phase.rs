@@ -69,11 +69,17 @@ fn run(
         })
     };
     match &cli.command {
+        Command::Factors(a) if a.speed.is_some() => Err(no_speeds(file)),
+        Command::Field(a) if a.speed.is_some() => Err(no_speeds(file)),
         Command::Plan(a) if a.out.is_none() => Ok(view(View::Plan, a.common.format.into())),
         Command::Factors(a) => Ok(view(View::Factors, a.common.format.into())),
         Command::Field(a) if a.svg.is_none() => Ok(view(View::Field, a.common.format.into())),
         Command::Card(a) => Ok(view(View::Card, a.format.into())),
-        Command::Audit(a) if a.intended.is_none() => {
+        Command::Audit(a) if a.intended.is_some() => Err(Failure::input(format!(
+            "{file}: a single-phase record is audited against its own [main] and [aux] \
+             design, which it carries; leave out --intended"
+        ))),
+        Command::Audit(a) => {
             let printed = view(View::Audit, a.common.format.into());
             if report.findings.is_empty() {
                 Ok(printed)
@@ -151,6 +157,13 @@ fn run(
              it"
         ))),
     }
+}
+
+/// `--speed` asked of a stator that does not change poles.
+pub(super) fn no_speeds(file: &str) -> Failure {
+    Failure::input(format!(
+        "{file}: --speed is for a pole-changing winding (winding.pole_change); leave it out"
+    ))
 }
 
 /// The study's single-phase report.

@@ -94,6 +94,8 @@ fn run(cli: &Cli, name: &str, spec: &Spec, file: &str, source: &str) -> Result<P
         }))
     };
     match &cli.command {
+        Command::Factors(a) if a.speed.is_some() => Err(super::single_phase::no_speeds(file)),
+        Command::Field(a) if a.speed.is_some() => Err(super::single_phase::no_speeds(file)),
         Command::Plan(a) if a.out.is_none() => view(View::Plan, a.common.format.into()),
         Command::Factors(a) => view(View::Factors, a.common.format.into()),
         Command::Field(a) if a.svg.is_none() => view(View::Field, a.common.format.into()),

@@ -770,9 +770,20 @@ fn group_box(
 
 /// The legend under the boards: how a group box reads and whose lead marking is used.
 fn groups_note(w: &Winding) -> String {
+    // A winding of a two-winding motor: what its own board cannot show.
+    let pair = if w.design.leads.speed == 0 {
+        ""
+    } else if w.design.connection == Connection::Delta && w.design.leads.count == 6 {
+        " One of two windings in this core: its delta is closed only by its own speed's \
+         contactor and must stay open while the other runs; its leads are then live: never \
+         join them to the other winding's."
+    } else {
+        " One of two windings in this core: while the other runs its leads are live; never \
+         join them to the other winding's."
+    };
     format!(
         "Groups: S start, F finish as wound; a reversed group is connected F in, S out; under \
-         each group its coils. Leads marked to {}.",
+         each group its coils. Leads marked to {}.{pair}",
         match w.design.leads.marking {
             Marking::Iec => "IEC 60034-8",
             Marking::Nema => "NEMA MG 1",

@@ -535,6 +535,9 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid, range: std::ops::Range<usize>) -> 
         }
         // Coil groups, bracketed above the slot numbers.
         let mut brackets = Group::new().set("class", "groups");
+        // Each bracket's span in this row (group, start, end, primary) first, so that a
+        // label may use the room up to its neighbours' labels.
+        let mut placed: Vec<(usize, f64, f64, f64, f64, bool)> = Vec::new();
         for (gi, grp) in groups.iter().enumerate() {
             let lefts: Vec<usize> = grp
                 .coils
@@ -557,21 +560,41 @@ fn rows(w: &Winding, pal: &Palette, g: &Grid, range: std::ops::Range<usize>) -> 
                 }
                 let (ca, cb) = (a.max(lo + 0.5), b.min(hi - 0.5));
                 let primary = shift == 0.0 && start >= lo && start <= hi;
-                brackets = brackets.add(bracket(
-                    w,
-                    pal,
-                    gi,
-                    grp.phase,
-                    grp.polarity,
-                    x_of(ca),
-                    x_of(cb),
-                    top,
-                    p,
-                    primary,
-                    ca > a,
-                    cb < b,
-                ));
+                placed.push((gi, a, b, ca, cb, primary));
             }
+        }
+        let centres: Vec<f64> = placed
+            .iter()
+            .filter(|q| q.5)
+            .map(|q| (x_of(q.3) + x_of(q.4)) / 2.0)
+            .collect();
+        for &(gi, a, b, ca, cb, primary) in &placed {
+            let grp = &groups[gi];
+            let (xa, xb) = (x_of(ca), x_of(cb));
+            let centre = (xa + xb) / 2.0;
+            // Up to the nearest other label's centre on either side (two labels of that
+            // width then just meet), and never less than the bracket itself.
+            let gap = centres
+                .iter()
+                .map(|c| (c - centre).abs())
+                .filter(|d| *d > 1e-6)
+                .fold(f64::INFINITY, f64::min);
+            let room = gap.min((xb - xa) + 1.4 * p).max(xb - xa + 0.8 * p) - 0.1 * p;
+            brackets = brackets.add(bracket(
+                w,
+                pal,
+                gi,
+                grp.phase,
+                grp.polarity,
+                xa,
+                xb,
+                top,
+                p,
+                primary,
+                ca > a,
+                cb < b,
+                room,
+            ));
         }
         let jumpers = if g.lead_band > 0.0 {
             lead_end(w, pal, &x_of, band_top, top)
@@ -849,6 +872,7 @@ fn bracket(
     primary: bool,
     open_left: bool,
     open_right: bool,
+    room: f64,
 ) -> Group {
     let (x0, x1) = (xa - 0.4 * p, xb + 0.4 * p);
     let y = top + BRACKET - 1.0;
@@ -864,9 +888,6 @@ fn bracket(
     }
     let sign = if polarity > 0 { "+" } else { "\u{2212}" };
     let full = format!("{} {}{}", number + 1, w.label(phase), sign);
-    // Its own bracket's width (a slot pitch at least, less a little): two one-coil groups
-    // side by side then keep their labels apart.
-    let room = (x1 - x0).max(0.9 * p);
     let size = MIN_TEXT;
     let text_s = if text::width(&full, size) <= room {
         full

@@ -85,7 +85,20 @@ impl TitleBlock {
                         None => h.poles.to_string(),
                     },
                 ),
-                ("Span y", span),
+                (
+                    "Span y",
+                    // A single-phase stator's concentric groups: their spans, outermost first.
+                    match s.single_phase() {
+                        Some(sp) => sp
+                            .main
+                            .spans
+                            .iter()
+                            .map(|y| y.to_string())
+                            .collect::<Vec<_>>()
+                            .join("/"),
+                        None => span,
+                    },
+                ),
                 ("Layers", h.layers.to_string()),
                 (
                     "Turns/coil",
@@ -101,7 +114,15 @@ impl TitleBlock {
                         )
                     },
                 ),
-                ("Paths a", h.parallel_paths.to_string()),
+                (
+                    "Paths a",
+                    // A pole-changing winding: one path at the lower speed, its halves in
+                    // parallel (double star) at the higher.
+                    match h.pole_change {
+                        Some(_) => "1/2".into(),
+                        None => h.parallel_paths.to_string(),
+                    },
+                ),
                 (
                     "Connection",
                     match h.pole_change {

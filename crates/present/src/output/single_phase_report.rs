@@ -107,9 +107,15 @@ pub struct SinglePhaseJson<'a> {
 /// A finding in words.
 pub fn finding_words(f: &Finding) -> String {
     match f {
-        Finding::CoilReversed { coil, winding } => format!(
-            "coil {coil} of the {winding} winding is reversed: its EMF opposes the rest of \
-             the winding; exchange its ends"
+        Finding::CoilReversed {
+            coil,
+            winding,
+            go,
+            back,
+        } => format!(
+            "coil {coil} of the {winding} winding (in at slot {go}, out at slot {back}) is \
+             reversed: its EMF opposes the rest of the winding; exchange its ends so that \
+             current enters at slot {back}"
         ),
         Finding::NotInQuadrature { angle_deg } => format!(
             "the auxiliary's axis is {} electrical degrees from the main's, not 90: a group \

@@ -192,6 +192,10 @@ pub enum Finding {
         coil: usize,
         /// Its winding's label.
         winding: String,
+        /// The slot its current enters, as recorded (from 1).
+        go: usize,
+        /// The slot it leaves (from 1).
+        back: usize,
     },
     /// The axes of the windings are not 90 electrical degrees apart.
     NotInQuadrature {
@@ -672,6 +676,8 @@ fn audit(w: &Winding, shift: f64, main: &Part, aux: &Part, sections: u8) -> Vec<
                 out.push(Finding::CoilReversed {
                     coil: i + 1,
                     winding: w.label(p).to_string(),
+                    go: c.go + 1,
+                    back: c.back + 1,
                 });
             }
         }
