@@ -527,8 +527,8 @@ fn the_held_back_fan_record_has_its_one_reversed_half_found() {
 fn factors_and_field_at_the_lower_speed_agree_with_both_speeds_report() {
     // `factors --speed low` and `field --speed low` give the winding at twice the poles;
     // `speeds` (whose figures are checked against the closed forms above) gives the same
-    // k_w1, THD and σ_d there, and the field turns forward in the lower speed's own
-    // sequence (the board exchanges the leads).
+    // k_w1, THD and σ_d there, and fed as the lower speed's board feeds it (L1, L2, L3 on
+    // 1U, 1V, 1W) the field turns the way `speeds` says it does at 4 poles.
     let f = "layouts/fan-two-speed.toml";
     let speeds = common::json(&["speeds", f, "--format", "json"]);
     let low = &speeds["low_speed"];
@@ -540,7 +540,17 @@ fn factors_and_field_at_the_lower_speed_agree_with_both_speeds_report() {
         .expect("kw1 at 4 poles");
     assert!((kw1 - want).abs() < 1e-12, "{kw1} against {want}");
     let field = common::json(&["field", f, "--speed", "low", "--format", "json"]);
-    assert_eq!(field["working_wave"], "forward");
+    let board = speeds["connections"]
+        .as_array()
+        .expect("connections")
+        .iter()
+        .find(|c| c["poles"] == 4)
+        .expect("the lower speed's board");
+    let forward = board["towards_rising_slots"] == true;
+    assert_eq!(
+        field["working_wave"],
+        if forward { "forward" } else { "backward" }
+    );
     for (a, b) in [
         ("differential_leakage", "differential_leakage"),
         ("thd", "thd"),

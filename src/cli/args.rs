@@ -696,8 +696,8 @@ pub struct FieldArgs {
     #[arg(long)]
     pub svg: Option<PathBuf>,
     /// A pole-changing winding (winding.pole_change) at this speed: high as laid out, low
-    /// at twice the poles, its supply leads as the standard's board joins them.
-    #[arg(long, value_enum, conflicts_with = "sequence")]
+    /// at twice the poles, L1, L2, L3 on 1U, 1V, 1W as the lower speed's board feeds it.
+    #[arg(long, value_enum)]
     pub speed: Option<SpeedArg>,
 }
 

@@ -487,13 +487,8 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
     let currents = match &a.currents {
         Some(text) => field::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,
-        // The lower speed of a pole-changing winding in its own sequence: the standard's
-        // board exchanges the supply leads so that it turns the same way.
-        None if a.speed == Some(SpeedArg::Low) => field::balanced_currents(
-            w.geometry.phases,
-            winding::star::sequence_of(&w.phase_emfs(winding::Elec::FUNDAMENTAL))
-                .unwrap_or(winding::star::Sequence::Positive),
-        ),
+        // (The lower speed of a pole-changing winding is fed as its board feeds it: L1,
+        // L2, L3 on 1U, 1V, 1W, so its field turns as `speeds` says.)
         None => field::balanced_currents(w.geometry.phases, a.sequence.into()),
     };
     let opts = FieldOptions {

@@ -145,7 +145,7 @@ impl Report for SpeedsReport {
                 ("smaller", Align::Right),
                 ("order 2 % lower speed", Align::Right),
                 ("flux ratio", Align::Right),
-                ("", Align::Left),
+                ("note", Align::Left),
             ]);
             for sp in &self.spans {
                 let mut marks = Vec::new();

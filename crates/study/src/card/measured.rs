@@ -231,7 +231,9 @@ pub struct SectionFigure {
 /// and 12 (none for 3 leads, whose ends are inside). `None` without resistance data or
 /// when a section has no coils.
 pub fn section_figures(w: &Winding) -> Option<Vec<SectionFigure>> {
-    if w.geometry.phases != 3 || w.design.leads.count == 3 {
+    // A pole-changing winding's six leads are its ends and taps, not each phase's own
+    // start and finish: its readings between them are the card's `six_leads`.
+    if w.geometry.phases != 3 || w.design.leads.count == 3 || w.design.pole_change.is_some() {
         return None;
     }
     let r = path_resistances(w)?;
