@@ -282,11 +282,23 @@ fn sheet_figures(s: &Study, page: &Page, prefix: &str) -> Vec<(String, String)> 
     for sheet in Sheet::ALL.into_iter().filter(|sheet| sheet.applies(s)) {
         let pages = draw::draw(s, sheet, page);
         let count = pages.len();
+        let what = match (s.single_phase(), sheet) {
+            (Some(_), Sheet::Slots) => {
+                "Slot layout: the core unrolled flat, every coil side of the main and \
+                 auxiliary windings with its current direction, spans and groups."
+            }
+            (Some(_), Sheet::Connections) => {
+                "Connection diagram: the main and auxiliary groups in connection order with \
+                 jumpers and leads, the lead tables with the capacitor, and the winding \
+                 schedule."
+            }
+            _ => caption(sheet),
+        };
         for (k, svg) in pages.into_iter().enumerate() {
             let label = if count > 1 {
-                format!("{prefix}{} (page {} of {count})", caption(sheet), k + 1)
+                format!("{prefix}{what} (page {} of {count})", k + 1)
             } else {
-                format!("{prefix}{}", caption(sheet))
+                format!("{prefix}{what}")
             };
             figures.push((svg, label));
         }
