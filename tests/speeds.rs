@@ -561,9 +561,26 @@ fn factors_and_field_at_the_lower_speed_agree_with_both_speeds_report() {
         );
         assert!((x - y).abs() < 1e-12, "{a}: {x} against {y}");
     }
-    // As laid out (--speed high) is the plain command; a one-speed winding refuses it.
+    // As laid out (--speed high) are the factors of the plain command; its field, fed on
+    // the taps as the higher speed's board feeds them, turns as `speeds` says too.
     let high = common::json(&["factors", f, "--speed", "high", "--format", "json"]);
     assert_eq!(high["design"]["poles"], 2);
+    let board2 = speeds["connections"]
+        .as_array()
+        .expect("connections")
+        .iter()
+        .find(|c| c["poles"] == 2)
+        .expect("the higher speed's board");
+    let field2 = common::json(&["field", f, "--speed", "high", "--format", "json"]);
+    assert_eq!(
+        field2["working_wave"],
+        if board2["towards_rising_slots"] == true {
+            "forward"
+        } else {
+            "backward"
+        }
+    );
+    // A one-speed winding refuses --speed.
     let out = common::run(&["factors", "layouts/pump-rewind.toml", "--speed", "low"]);
     assert_eq!(out.status.code(), Some(2));
 }

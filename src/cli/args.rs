@@ -695,9 +695,10 @@ pub struct FieldArgs {
     /// Also write the field sheet (SVG) to this file.
     #[arg(long)]
     pub svg: Option<PathBuf>,
-    /// A pole-changing winding (winding.pole_change) at this speed: high as laid out, low
-    /// at twice the poles, L1, L2, L3 on 1U, 1V, 1W as the lower speed's board feeds it.
-    #[arg(long, value_enum)]
+    /// A pole-changing winding (winding.pole_change) at this speed, fed as that speed's
+    /// board feeds it: high as laid out (L1, L2, L3 on the taps), low at twice the poles
+    /// (L1, L2, L3 on 1U, 1V, 1W).
+    #[arg(long, value_enum, conflicts_with_all = ["sequence", "currents"])]
     pub speed: Option<SpeedArg>,
 }
 

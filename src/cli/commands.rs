@@ -487,8 +487,14 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
     let currents = match &a.currents {
         Some(text) => field::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,
-        // (The lower speed of a pole-changing winding is fed as its board feeds it: L1,
-        // L2, L3 on 1U, 1V, 1W, so its field turns as `speeds` says.)
+        // A pole-changing winding's higher speed fed as its board feeds it: L1, L2, L3 on
+        // the taps in the standard's order, which is not the phases' (so its field turns
+        // as `speeds` says). The lower speed's board feeds 1U, 1V, 1W: the phases in order.
+        None if a.speed == Some(SpeedArg::High)
+            && !winding::pole_change::feeds_in_order(&winding::pole_change::HIGH_SPEED) =>
+        {
+            field::balanced_currents(w.geometry.phases, winding::star::Sequence::Negative)
+        }
         None => field::balanced_currents(w.geometry.phases, a.sequence.into()),
     };
     let opts = FieldOptions {

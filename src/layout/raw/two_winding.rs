@@ -53,9 +53,6 @@ impl RawLayout {
             return self.validate(source, file);
         };
         self.refuse_with_second(&c)?;
-        if matches!(raw2.sharing, Some(RawSharing::Slots)) {
-            alternate_checks(&self, &raw2, &c)?;
-        }
         // The file as the second winding's own layout, before the first's coils are kept.
         let mut again = self.clone();
         keep(&mut self.coil, &coils1);
@@ -176,6 +173,8 @@ impl RawLayout {
             RawSharing::Slots => Sharing::Slots,
         };
         if sharing == Sharing::Slots {
+            // Checked after both windings' own ranges, so the numbers here are valid ones.
+            alternate_checks(&first, &second, &c)?;
             first.design.alternate_slots = Some(0);
             second.design.alternate_slots = Some(1);
         }
@@ -349,9 +348,9 @@ fn relocate(
 }
 
 /// A core shared by slots: an even slot count, and spans that go from a winding's slot to
-/// another of its own (an even number of slot pitches).
-fn alternate_checks(raw: &RawLayout, second: &RawSecond, c: &Checker) -> Result<(), LayoutError> {
-    let slots = raw.machine.slots;
+/// another of its own (an even number of slot pitches). Both windings are validated.
+fn alternate_checks(first: &Spec, second: &Spec, c: &Checker) -> Result<(), LayoutError> {
+    let slots = first.design.slots;
     if slots % 2 != 0 {
         return Err(c.err(
             "machine",
@@ -364,21 +363,21 @@ fn alternate_checks(raw: &RawLayout, second: &RawSecond, c: &Checker) -> Result<
         ));
     }
     for (table, pitch) in [
-        ("winding", raw.winding.pitch),
-        ("second_winding", second.pitch),
+        ("winding", first.design.pitch),
+        ("second_winding", second.design.pitch),
     ] {
         if let Some(y) = pitch
             && y % 2 != 0
         {
+            let lower = if y > 2 { y - 1 } else { y + 1 };
             return Err(c.err(
                 table,
                 0,
                 "pitch",
                 format!(
                     "a winding in every other slot spans an even number of slot pitches, not \
-                     {y}; give {} or {}",
-                    (y - 1).max(2),
-                    y + 1
+                     {y}; give {lower} or {}",
+                    y.saturating_add(1)
                 ),
             ));
         }
