@@ -305,6 +305,9 @@ pub enum LoadingWarning {
         part: Part,
         /// The value and its limit.
         density: Density,
+        /// A pole-changing winding's speed where it is passed, by its pole count.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        at_poles: Option<usize>,
     },
     /// Current density above its limit.
     CurrentDensityAbove {
@@ -338,8 +341,13 @@ pub enum Part {
 /// Everything this module works out for one winding.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Loading {
-    /// Magnetic loading at no load.
+    /// Magnetic loading at no load (a pole-changing winding's: at the speed whose gap
+    /// density is higher).
     pub magnetic: Magnetic,
+    /// A pole-changing winding's other speed: its densities are held to the limits too
+    /// (the back iron carries the larger flux per pole at the higher speed).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub other_speed: Option<Magnetic>,
     /// Electric loading, when a rated current is stamped or follows from the power.
     pub electric: Option<Electric>,
     /// Slot fill by insulated wire (the card's), against its limit.
@@ -402,8 +410,20 @@ pub fn gap_peak(phi: f64, tau: f64, l: f64) -> f64 {
 /// The flux per pole and flux densities of `w` on its core at its supply, with the EMF
 /// `emf_ratio` times the phase voltage (1 at no load, where the flux is highest).
 pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic, LoadingError> {
+    Ok(magnetic_speeds(w, limits, emf_ratio)?.0)
+}
+
+/// [`magnetic`], and for a pole-changing winding its other speed beside it.
+pub fn magnetic_speeds(
+    w: &Winding,
+    limits: &Limits,
+    emf_ratio: f64,
+) -> Result<(Magnetic, Option<Magnetic>), LoadingError> {
     let Some(low) = crate::winding::pole_change::lower_speed(w) else {
-        return magnetic_at(w, limits, emf_ratio, 1.0, w.design.connection);
+        return Ok((
+            magnetic_at(w, limits, emf_ratio, 1.0, w.design.connection)?,
+            None,
+        ));
     };
     // A pole-changing winding: at the higher speed (as laid out) its halves are in
     // parallel in double star, so half its series turns at the star's phase voltage; at
@@ -414,9 +434,9 @@ pub fn magnetic(w: &Winding, limits: &Limits, emf_ratio: f64) -> Result<Magnetic
     high.at_poles = Some(w.geometry.poles);
     lower.at_poles = Some(low.geometry.poles);
     Ok(if lower.gap.peak_t > high.gap.peak_t {
-        lower
+        (lower, Some(high))
     } else {
-        high
+        (high, Some(lower))
     })
 }
 
@@ -650,20 +670,26 @@ pub fn of_rated(
     if w.design.turns_assumed && !w.from_coil_list {
         return Err(LoadingError::TurnsAssumed);
     }
-    let magnetic = magnetic(w, limits, emf_ratio)?;
+    let (magnetic, other_speed) = magnetic_speeds(w, limits, emf_ratio)?;
     let electric = electric(w, limits, rated);
     let heating = electric
         .as_ref()
         .and_then(|e| heating(w, &magnetic, e, limits.heat_transfer_w_m2k));
     let slot_fill = slot_fill(w, limits);
     let mut warnings = Vec::new();
-    for (part, density) in [
-        (Part::Gap, Some(magnetic.gap)),
-        (Part::Teeth, magnetic.tooth),
-        (Part::Yoke, magnetic.yoke),
-    ] {
-        if let Some(density) = density.filter(Density::passed) {
-            warnings.push(LoadingWarning::FluxDensityAbove { part, density });
+    for m in std::iter::once(&magnetic).chain(other_speed.as_ref()) {
+        for (part, density) in [
+            (Part::Gap, Some(m.gap)),
+            (Part::Teeth, m.tooth),
+            (Part::Yoke, m.yoke),
+        ] {
+            if let Some(density) = density.filter(Density::passed) {
+                warnings.push(LoadingWarning::FluxDensityAbove {
+                    part,
+                    density,
+                    at_poles: m.at_poles,
+                });
+            }
         }
     }
     if let Some(density) = electric
@@ -704,6 +730,7 @@ pub fn of_rated(
     }
     Ok(Loading {
         magnetic,
+        other_speed,
         electric,
         slot_fill,
         heating,

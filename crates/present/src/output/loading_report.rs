@@ -100,10 +100,17 @@ impl std::fmt::Display for super::Say<'_, Part> {
 impl std::fmt::Display for super::Say<'_, LoadingWarning> {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         match self.0 {
-            LoadingWarning::FluxDensityAbove { part, density } => write!(
+            LoadingWarning::FluxDensityAbove {
+                part,
+                density,
+                at_poles,
+            } => write!(
                 f,
-                "peak flux density in the {} is {} T, above the limit of {} T",
+                "peak flux density in the {}{} is {} T, above the limit of {} T",
                 super::Say(part),
+                at_poles
+                    .map(|p| format!(" at {p} poles"))
+                    .unwrap_or_default(),
                 num(density.peak_t, 3),
                 num(density.limit_t, 3)
             ),
@@ -192,6 +199,11 @@ pub fn loading_table(l: &Loading) -> Table {
         ("", Align::Left),
     ]);
     let m = &l.magnetic;
+    // A pole-changing winding's two speeds: each peak says at which pole count.
+    let at_m = match (&l.other_speed, m.at_poles) {
+        (Some(_), Some(p)) => format!(" at {p} poles"),
+        _ => String::new(),
+    };
     t.push(vec![
         "flux per pole".into(),
         format!("{} mWb", num(m.flux_per_pole_wb * 1e3, 4)),
@@ -204,9 +216,9 @@ pub fn loading_table(l: &Loading) -> Table {
         String::new(),
         String::new(),
     ]);
-    density_row(&mut t, "gap, peak", &m.gap);
+    density_row(&mut t, &format!("gap, peak{at_m}"), &m.gap);
     if let Some(d) = &m.tooth {
-        density_row(&mut t, "teeth, peak at narrowest", d);
+        density_row(&mut t, &format!("teeth, peak at narrowest{at_m}"), d);
     }
     if let Some(b) = m.tooth_mean_t {
         t.push(vec![
@@ -217,7 +229,21 @@ pub fn loading_table(l: &Loading) -> Table {
         ]);
     }
     if let Some(d) = &m.yoke {
-        density_row(&mut t, "back iron, peak", d);
+        density_row(&mut t, &format!("back iron, peak{at_m}"), d);
+    }
+    // A pole-changing winding's other speed: its peaks too.
+    if let Some(o) = &l.other_speed {
+        let at = o
+            .at_poles
+            .map(|p| format!(" at {p} poles"))
+            .unwrap_or_default();
+        density_row(&mut t, &format!("gap, peak{at}"), &o.gap);
+        if let Some(d) = &o.tooth {
+            density_row(&mut t, &format!("teeth, peak{at}"), d);
+        }
+        if let Some(d) = &o.yoke {
+            density_row(&mut t, &format!("back iron, peak{at}"), d);
+        }
     }
     if let Some(e) = &l.electric {
         t.push(vec![
