@@ -351,7 +351,7 @@ fn relocate(
 /// another of its own (an even number of slot pitches). Both windings are validated.
 fn alternate_checks(first: &Spec, second: &Spec, c: &Checker) -> Result<(), LayoutError> {
     let slots = first.design.slots;
-    if slots % 2 != 0 {
+    if !slots.is_multiple_of(2) {
         return Err(c.err(
             "machine",
             0,
@@ -367,7 +367,7 @@ fn alternate_checks(first: &Spec, second: &Spec, c: &Checker) -> Result<(), Layo
         ("second_winding", second.design.pitch),
     ] {
         if let Some(y) = pitch
-            && y % 2 != 0
+            && !y.is_multiple_of(2)
         {
             let lower = if y > 2 { y - 1 } else { y + 1 };
             return Err(c.err(
