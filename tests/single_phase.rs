@@ -481,7 +481,8 @@ fn the_connection_and_slot_sheets_carry_the_single_phase_leads_and_capacitor() {
         "Z2",
         "L1 to U1 + Z1",
         "L1 to U1 + Z2",
-        "N to U2 + Z2 through the capacitor",
+        "N to U2, and through the capacitor to Z2",
+        "discharge it",
         "µF",
         "main winding",
     ] {

@@ -466,3 +466,62 @@ fn windings_sharing_by_slots_lie_in_their_own_slots_with_the_half_cores_factors(
         assert!(String::from_utf8_lossy(&out.stderr).contains(key), "{to}");
     }
 }
+
+#[test]
+fn a_record_sharing_by_slots_finds_a_coil_laid_in_the_other_windings_slots() {
+    // The by-slots core as planned, written coil by coil, with one 8-pole coil laid a slot
+    // along: into slots of the 4-pole winding. The audit must say where it belongs (one
+    // edit), not that a slot holds more than its layers.
+    let plan = common::json(&[
+        "plan",
+        common::temp_layout(BY_SLOTS).path().to_str().expect("path"),
+        "--format",
+        "json",
+    ]);
+    let mut text = BY_SLOTS
+        .replace("pitch = 10\n", "")
+        .replace("pitch = 6\n", "");
+    let coil = |c: &Value, winding: u8, shift: u64| {
+        format!(
+            "\n[[coil]]\nwinding = {winding}\nphase = \"{}\"\ngo = {}\nback = {}\n",
+            c["phase"].as_str().expect("phase"),
+            c["go"].as_u64().expect("go") + shift,
+            c["back"].as_u64().expect("back") + shift
+        )
+    };
+    for c in plan["coils"].as_array().expect("coils") {
+        text.push_str(&coil(c, 1, 0));
+    }
+    let second = plan["second_winding"]["coils"].as_array().expect("coils");
+    for (i, c) in second.iter().enumerate() {
+        text.push_str(&coil(c, 2, u64::from(i == 4)));
+    }
+    let moved = &second[4];
+    let f = common::temp_layout(&text);
+    let out = common::run(&[
+        "audit",
+        f.path().to_str().expect("path"),
+        "--format",
+        "json",
+    ]);
+    assert_eq!(out.status.code(), Some(1));
+    let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+    assert_eq!(
+        v["findings"].as_array().map(Vec::len),
+        Some(0),
+        "{}",
+        v["findings"]
+    );
+    let found = v["second_winding"]["findings"]
+        .as_array()
+        .expect("findings");
+    assert_eq!(found.len(), 1, "{found:?}");
+    assert_eq!(found[0]["kind"], "coil_wrong_slots");
+    let message = found[0]["message"].as_str().expect("message");
+    let home = format!(
+        "in at slot {}, out at slot {}",
+        moved["go"].as_u64().expect("go"),
+        moved["back"].as_u64().expect("back")
+    );
+    assert!(message.contains(&home), "{message}");
+}

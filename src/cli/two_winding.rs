@@ -35,9 +35,22 @@ fn windings(spec: &Spec, file: &str, source: &str) -> Result<[Winding; 2], Failu
         )));
     };
     let title = spec.labels.title.as_deref();
-    let first = winding::build_lenient(spec).map_err(|e| plan_failure(file, source, spec, &e))?;
+    // A refusal of a winding in every other slot speaks of the slots it is laid out on.
+    let halved = |mut f: Failure| {
+        if second.sharing == beltwright::spec::Sharing::Slots {
+            f.message.push_str(&format!(
+                " (sharing by slots, each winding is laid out on its own {} slots, every \
+                 other one of the core's {}: the counts above are of those)",
+                spec.design.slots / 2,
+                spec.design.slots
+            ));
+        }
+        f
+    };
+    let first =
+        winding::build_lenient(spec).map_err(|e| halved(plan_failure(file, source, spec, &e)))?;
     let other = winding::build_lenient(&second.spec)
-        .map_err(|e| second_failure(file, source, &second.spec, &e))?;
+        .map_err(|e| halved(second_failure(file, source, &second.spec, &e)))?;
     let mut out = [first, other];
     for (w, at) in out.iter_mut().zip(positions(second.sharing)) {
         w.labels.title = Some(words::sheet_title(title, w.geometry.poles, at));

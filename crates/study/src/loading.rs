@@ -525,7 +525,13 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
     let (phase, cond) = conductor_current(w, rated.line_a());
     let z = conductors_per_slot(w);
     let ts = w.slot_pitch_m()?;
-    let a = z as f64 * cond / ts;
+    // A = z·I/τ_s, every slot filled; a winding in every other slot fills half of them.
+    let filled = if w.design.alternate_slots.is_some() {
+        0.5
+    } else {
+        1.0
+    };
+    let a = filled * z as f64 * cond / ts;
     let j = d.wire.as_ref().map(|spec| Checked {
         value: cond / Wire::of(spec).conductor_area_mm2,
         limit: limits.current_density_a_mm2,

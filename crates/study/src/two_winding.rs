@@ -285,10 +285,12 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
         .map(|(r, i)| coupling(w[r], w[i], r, i))
         .collect();
     let cards = [studies[0].card(), studies[1].card()];
-    // Sharing by layers, both windings lie in every slot; by slots, each slot holds one.
+    // Sharing by layers, both windings lie in every slot; by slots, each slot holds one,
+    // and the fuller winding's slot is the fullest (its fill and its wires together).
+    let fuller = usize::from(cards[1].slot_fill.unwrap_or(0.0) > cards[0].slot_fill.unwrap_or(0.0));
     let slot_fill = match (cards[0].slot_fill, cards[1].slot_fill, sharing) {
         (Some(a), Some(b), Sharing::Layers) => Some(a + b),
-        (Some(a), Some(b), Sharing::Slots) => Some(a.max(b)),
+        (Some(_), Some(_), Sharing::Slots) => cards[fuller].slot_fill,
         _ => None,
     };
     let both = |f: fn(&crate::card::DataCard) -> Option<f64>| match (f(cards[0]), f(cards[1])) {
@@ -346,7 +348,7 @@ fn report(studies: &[Study; 2], sharing: Sharing) -> TwoWindingReport {
         slot_fill_limit: FILL_LIMIT,
         wires_per_slot: match sharing {
             Sharing::Layers => cards[0].wires_per_slot + cards[1].wires_per_slot,
-            Sharing::Slots => cards[0].wires_per_slot.max(cards[1].wires_per_slot),
+            Sharing::Slots => cards[fuller].wires_per_slot,
         },
         copper_mass_kg: both(|c| c.copper_mass_kg),
         wire_to_order_kg: both(|c| c.wire_to_order_kg),

@@ -437,14 +437,26 @@ impl Winding {
         self.slot_fill()
             .iter()
             .enumerate()
-            .filter(|(_, f)| f.iter().all(|x| x.is_none()))
+            .filter(|(k, f)| f.iter().all(|x| x.is_none()) && self.own_slot(*k))
             .map(|(k, _)| k)
             .collect()
     }
 
-    /// Slots per pole per phase q = Z_active / (2p·m), as a reduced fraction (num, den).
+    /// Whether slot `k` is this winding's to fill: every slot, or every other one for a
+    /// winding sharing its core by slots (`Design::alternate_slots`).
+    pub fn own_slot(&self, k: usize) -> bool {
+        self.design.alternate_slots.is_none_or(|o| k % 2 == o)
+    }
+
+    /// Slots per pole per phase q = Z_active / (2p·m), as a reduced fraction (num, den);
+    /// of its own slots for a winding in every other slot.
     pub fn slots_per_pole_phase(&self) -> (u64, u64) {
         let active = (self.geometry.pole_pitch_slots * self.geometry.poles as f64).round() as u64;
+        let active = if self.design.alternate_slots.is_some() {
+            active / 2
+        } else {
+            active
+        };
         let den = (self.geometry.poles * self.geometry.phases) as u64;
         let g = gcd(active, den).max(1);
         (active / g, den / g)

@@ -54,6 +54,13 @@ pub fn board(sp: &SinglePhaseReport, width: f64) -> (Group, f64) {
     for b in &sp.boards {
         g = say(g, &board_sentence(b), "lead-table");
     }
+    if sp.boards.iter().any(|b| b.through_capacitor.is_some()) {
+        g = say(
+            g,
+            crate::output::single_phase_report::CAPACITOR_CAUTION,
+            "caution-note",
+        );
+    }
     let mut h = y;
     // The circuit of the first table, when the main is one section.
     if let Some(b) = sp

@@ -368,9 +368,12 @@ fn header(
             .join(" or "),
         crate::numbering::noun_for(&sizes, "coil", "coils")
     );
-    // Concentric groups of two windings leave a layer empty here and there.
+    // Concentric groups of two windings leave a layer empty here and there; a winding in
+    // every other slot leaves the other winding's slots.
     let counts = if single.is_some() {
         format!("{counts}. Crossed column: empty layer.")
+    } else if w.design.alternate_slots.is_some() {
+        format!("{counts}. Crossed slots: the other winding's.")
     } else {
         counts
     };

@@ -244,6 +244,10 @@ impl Report for AuditReport {
             ("slots with a layer empty", &sc.partly_filled),
             ("overfilled slots", &sc.overfilled),
             (
+                "the other winding's slots holding a side",
+                &sc.other_windings,
+            ),
+            (
                 "half-filled end slots (by design)",
                 &sc.half_filled_by_design,
             ),

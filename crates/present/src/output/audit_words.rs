@@ -63,6 +63,7 @@ pub fn words(f: &Fact) -> String {
         Fact::PathMoves { .. } | Fact::PathDiffers { .. } => path_words(f),
         Fact::EmptySlots { .. }
         | Fact::OverfilledSlots { .. }
+        | Fact::OtherWindingsSlots { .. }
         | Fact::TurnsDiffer { .. }
         | Fact::SpanDiffers { .. } => slot_words(f),
         Fact::NoFundamental
@@ -245,6 +246,19 @@ fn slot_words(f: &Fact) -> String {
             ranges(slots),
             crate::numbering::count(*layers, "layer", "layers"),
             ranges(coils)
+        ),
+        Fact::OtherWindingsSlots { slots, coils } => format!(
+            "slots {} are the other winding's (the two share the core by slots, each in every \
+             other slot); {} {} a side there: check {} slot numbers, or whether the two \
+             windings' tables are the other way round",
+            ranges(slots),
+            if coils.len() == 1 { "coil" } else { "coils" },
+            if coils.len() == 1 {
+                format!("{} has", ranges(coils))
+            } else {
+                format!("{} have", ranges(coils))
+            },
+            if coils.len() == 1 { "its" } else { "their" }
         ),
         Fact::TurnsDiffer {
             coils,

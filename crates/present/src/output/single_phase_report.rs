@@ -264,10 +264,33 @@ pub fn board_sentence(b: &Board) -> String {
     format!(
         "{supply}, field toward {} slots: L1 to {}; N to {}{joined}.",
         way(b.towards_rising_slots),
-        leads_on(b, &b.l1, "through the capacitor"),
-        leads_on(b, &b.l2, "through the capacitor")
+        line_words(b, &b.l1),
+        line_words(b, &b.l2)
     )
 }
+
+/// The leads on one line in words, the capacitor's named apart: "U2, and through the
+/// capacitor to Z2".
+fn line_words(b: &Board, leads: &[String]) -> String {
+    let (through, direct): (Vec<&String>, Vec<&String>) = leads
+        .iter()
+        .partition(|l| b.through_capacitor.as_ref() == Some(*l));
+    let direct = direct
+        .iter()
+        .map(|l| l.as_str())
+        .collect::<Vec<_>>()
+        .join(" + ");
+    match through.first() {
+        Some(c) if direct.is_empty() => format!("{c} through the capacitor"),
+        Some(c) => format!("{direct}, and through the capacitor to {c}"),
+        None => direct,
+    }
+}
+
+/// What the capacitor asks of whoever touches the leads (common practice).
+pub const CAPACITOR_CAUTION: &str = "The capacitor keeps its charge after the supply is \
+    off: discharge it through a resistor before touching the leads, and disconnect it, with \
+    the winding's leads joined, for the insulation tests.";
 
 /// The leads on one line, the one that goes through the capacitor marked so.
 fn leads_on(b: &Board, leads: &[String], marked: &str) -> String {
@@ -538,12 +561,11 @@ impl Report for SinglePhaseView<'_> {
                 s.extend(boards_sections(&r.boards));
                 s.extend(self.capacitor_or_missing());
                 s.push(Section::Heading("Acceptance".into()));
-                s.push(Section::Lines(
-                    super::card_report::insulation_tests(&r.acceptance)
-                        .iter()
-                        .map(|l| paragraph(l))
-                        .collect(),
-                ));
+                let mut lines = super::card_report::insulation_tests(&r.acceptance);
+                if r.boards.iter().any(|b| b.through_capacitor.is_some()) {
+                    lines.insert(0, CAPACITOR_CAUTION.to_string());
+                }
+                s.push(Section::Lines(lines.iter().map(|l| paragraph(l)).collect()));
             }
             View::Audit => {
                 if r.findings.is_empty() {

@@ -161,6 +161,13 @@ pub enum Fact {
         /// Coils with a side there.
         coils: Vec<CoilNo>,
     },
+    /// Sides of this winding in the other winding's slots (a core shared by slots).
+    OtherWindingsSlots {
+        /// The slots.
+        slots: Vec<SlotNo>,
+        /// Coils with a side there.
+        coils: Vec<CoilNo>,
+    },
     /// Coils whose turns differ from the rest.
     TurnsDiffer {
         /// The coils.

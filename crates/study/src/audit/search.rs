@@ -770,8 +770,8 @@ fn relay_candidates(w: &Winding) -> Vec<(usize, crate::winding::Coil)> {
     };
     let mut out = Vec::new();
     for (i, c) in w.coils.iter().enumerate() {
-        let go_over = sides[c.go] > layers;
-        let back_over = sides[c.back] > layers;
+        let go_over = super::slots::over(w, c.go, sides[c.go]);
+        let back_over = super::slots::over(w, c.back, sides[c.back]);
         if !go_over && !back_over {
             continue;
         }

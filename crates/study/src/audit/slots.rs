@@ -19,6 +19,12 @@ pub struct SlotCheck {
     pub half_filled_by_design: Vec<SlotNo>,
     /// Coils (from 1) with a side in an overfilled slot.
     pub overfilled_coils: Vec<CoilNo>,
+    /// Slots of the other winding (a core shared by slots) holding a side of this one.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub other_windings: Vec<SlotNo>,
+    /// Coils (from 1) with a side there.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub other_windings_coils: Vec<CoilNo>,
 }
 
 /// Sides each slot should hold: the layer count, one at the ends of a double-layer linear
@@ -26,9 +32,7 @@ pub struct SlotCheck {
 pub(super) fn expected(w: &Winding, k: usize) -> usize {
     let g = &w.geometry;
     // One of two windings sharing the core by slots: the other's slots hold none of it.
-    if let Some(offset) = w.design.alternate_slots
-        && k % 2 != offset
-    {
+    if !w.own_slot(k) {
         return 0;
     }
     if g.topology == Topology::Linear && g.layers == 2 {
@@ -38,6 +42,16 @@ pub(super) fn expected(w: &Winding, k: usize) -> usize {
         }
     }
     g.layers
+}
+
+/// Whether slot `k`, holding `n` sides, holds more than it may: more than the layers, or
+/// anything at all in the other winding's slot of a core shared by slots.
+pub(super) fn over(w: &Winding, k: usize, n: usize) -> bool {
+    if expected(w, k) == 0 {
+        n > 0
+    } else {
+        n > w.geometry.layers
+    }
 }
 
 /// Count the coil sides in every slot.
@@ -52,7 +66,7 @@ pub fn check_slots(w: &Winding) -> SlotCheck {
         if want == 0 {
             // The other winding's slot: nothing of this one belongs there.
             if n > 0 {
-                out.overfilled.push(SlotNo::at(k));
+                out.other_windings.push(SlotNo::at(k));
             }
             continue;
         }
@@ -64,13 +78,14 @@ pub fn check_slots(w: &Winding) -> SlotCheck {
             out.overfilled.push(SlotNo::at(k));
         }
     }
-    out.overfilled_coils = (0..w.coils.len())
-        .filter(|&i| {
-            let c = &w.coils[i];
-            sides[c.go] > w.geometry.layers || sides[c.back] > w.geometry.layers
-        })
-        .map(CoilNo::at)
-        .collect();
+    let with_side_in = |slot: &dyn Fn(usize) -> bool| -> Vec<CoilNo> {
+        (0..w.coils.len())
+            .filter(|&i| slot(w.coils[i].go) || slot(w.coils[i].back))
+            .map(CoilNo::at)
+            .collect()
+    };
+    out.overfilled_coils = with_side_in(&|k| expected(w, k) > 0 && sides[k] > w.geometry.layers);
+    out.other_windings_coils = with_side_in(&|k| expected(w, k) == 0 && sides[k] > 0);
     out
 }
 
@@ -94,6 +109,18 @@ impl SlotCheck {
                 detail: Fact::EmptySlots {
                     empty: self.empty.clone(),
                     partly_filled: self.partly_filled.clone(),
+                },
+            });
+        }
+        if !self.other_windings.is_empty() {
+            f.push(Finding {
+                kind: FindingKind::OverfilledSlots,
+                coils: self.other_windings_coils.clone(),
+                slots: self.other_windings.clone(),
+                phases: Vec::new(),
+                detail: Fact::OtherWindingsSlots {
+                    slots: self.other_windings.clone(),
+                    coils: self.other_windings_coils.clone(),
                 },
             });
         }

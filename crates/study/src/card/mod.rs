@@ -554,17 +554,7 @@ pub fn card(w: &Winding) -> DataCard {
                 .reduce(f64::max)
         })
         .or(w.design.supply.line_voltage_v);
-    // The nameplate's highest voltage governs where it is higher (a 400/690 V machine is
-    // tested for 690 V).
-    let stamped = w
-        .design
-        .nameplate
-        .as_ref()
-        .and_then(|n| n.voltages_v.iter().copied().reduce(f64::max));
-    let rated = match (rated, stamped) {
-        (Some(a), Some(b)) => Some(a.max(b)),
-        (a, b) => a.or(b),
-    };
+    let rated = test_voltage(w, rated);
     // A dual-voltage winding (9, 12 leads) is planned with its sections in parallel, its
     // lower voltage: a supply at the nameplate's higher voltage says otherwise.
     if let (Some(n), Some(v)) = (&w.design.nameplate, w.design.supply.line_voltage_v)
@@ -692,6 +682,21 @@ pub fn formers(w: &Winding) -> Vec<Former> {
 /// High-potential test voltage of a new winding for rated line voltage `u` (volts):
 /// 1000 V + 2·U_N, at least 1500 V (IEC 60034-1, clause 9.2, Table 16 item for machines
 /// below 10 MW; from memory).
+/// The voltage a winding's high-potential test is worked from: `given` (the supply's, or
+/// a dual-voltage winding's higher) or the nameplate's highest, whichever is higher (a
+/// 400/690 V machine is tested for 690 V).
+pub fn test_voltage(w: &Winding, given: Option<f64>) -> Option<f64> {
+    let stamped = w
+        .design
+        .nameplate
+        .as_ref()
+        .and_then(|n| n.voltages_v.iter().copied().reduce(f64::max));
+    match (given, stamped) {
+        (Some(a), Some(b)) => Some(a.max(b)),
+        (a, b) => a.or(b),
+    }
+}
+
 /// The acceptance figures of a winding rated `rated_v` (line volts) whose line-to-line
 /// resistance is expected to read `line_resistance`: the high-potential test (IEC 60034-1),
 /// insulation resistance and polarization index (IEEE 43-2013), the readings' balance

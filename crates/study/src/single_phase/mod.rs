@@ -495,21 +495,11 @@ pub fn study(w: &Winding) -> Option<SinglePhaseReport> {
         capacitor: cap,
         capacitor_missing: missing,
         findings,
-        acceptance: crate::card::acceptance(rated_voltage(w), None),
+        acceptance: crate::card::acceptance(
+            crate::card::test_voltage(w, w.design.supply.line_voltage_v),
+            None,
+        ),
     })
-}
-
-/// The highest voltage the stator is rated for: the supply's, or the nameplate's highest.
-fn rated_voltage(w: &Winding) -> Option<f64> {
-    let stamped = w
-        .design
-        .nameplate
-        .as_ref()
-        .and_then(|n| n.voltages_v.iter().copied().reduce(f64::max));
-    match (w.design.supply.line_voltage_v, stamped) {
-        (Some(a), Some(b)) => Some(a.max(b)),
-        (a, b) => a.or(b),
-    }
 }
 
 /// The motor as the capacitor solver sees it.
