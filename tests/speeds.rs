@@ -669,3 +669,76 @@ fn the_audit_and_speeds_turn_the_field_the_same_way_on_the_same_leads() {
     let rising = d["sequence"] == "positive";
     assert_eq!(serde_json::json!(rising), high["towards_rising_slots"]);
 }
+
+#[test]
+fn readings_between_the_six_leads_find_a_half_on_the_wrong_lead() {
+    // As delivered, nothing linked, a series-star pole-changing winding of halves h reads
+    // (series resistors, any circuits text): end to end 1U-A-2U-B-star-B-2W-A-1V, 4h; tap
+    // to tap 2h; an end to its own tap h. With the markings of 1U and 2U exchanged, every
+    // reading that touches phase U's two leads changes: "1U-1V" is 2U to 1V, 3h, and so on.
+    let f = "layouts/fan-two-speed.toml";
+    let card = common::json(&["card", f, "--format", "json"]);
+    let h = card["six_leads"]["halves"][0]["reversed_ohm"]
+        .as_f64()
+        .expect("half");
+    let base = std::fs::read_to_string(f).expect("example");
+    let audit_with = |r: [f64; 9]| {
+        let list = r.map(|x| format!("{x:.6}")).join(", ");
+        let text = format!("{base}\n[measured]\nsix_lead_ohm = [{list}]\ntemperature_c = 20.0\n");
+        let file = common::temp_layout(&text);
+        let out = common::run(&[
+            "audit",
+            file.path().to_str().expect("path"),
+            "--format",
+            "json",
+        ]);
+        let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+        (out.status.code(), v)
+    };
+    let marked = [4.0, 4.0, 4.0, 2.0, 2.0, 2.0, 1.0, 1.0, 1.0].map(|k| k * h);
+    let (code, v) = audit_with(marked);
+    assert_eq!(code, Some(0), "{:#}", v["findings"]);
+    let swapped = [3.0, 4.0, 3.0, 3.0, 2.0, 3.0, 1.0, 1.0, 1.0].map(|k| k * h);
+    let (code, v) = audit_with(swapped);
+    assert_eq!(code, Some(1));
+    let f6: Vec<&Value> = v["findings"]
+        .as_array()
+        .expect("findings")
+        .iter()
+        .filter(|f| f["kind"] == "six_lead_readings")
+        .collect();
+    assert_eq!(f6.len(), 1, "{:#}", v["findings"]);
+    assert_eq!(
+        f6[0]["detail"]["exchanged"],
+        serde_json::json!([["1U", "2U"]])
+    );
+    // A half of phase U short of turns (four fifths of its resistance): no exchange
+    // explains the readings.
+    let short = [3.8, 4.0, 3.8, 2.0, 2.0, 2.0, 0.8, 1.0, 1.0].map(|k| k * h);
+    let (code, v) = audit_with(short);
+    assert_eq!(code, Some(1));
+    let f6 = v["findings"]
+        .as_array()
+        .expect("findings")
+        .iter()
+        .find(|f| f["kind"] == "six_lead_readings")
+        .expect("a six-lead finding");
+    assert_eq!(f6["detail"]["exchanged"], serde_json::json!([]));
+}
+
+#[test]
+fn the_held_back_lead_readings_find_the_exchanged_markings() {
+    let out = common::run(&[
+        "audit",
+        "layouts/fan-two-speed-leads-as-found.toml",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(out.status.code(), Some(1));
+    let v: Value = serde_json::from_slice(&out.stdout).expect("json");
+    assert_eq!(kinds(&v), ["six_lead_readings"], "{:#}", v["findings"]);
+    assert_eq!(
+        v["findings"][0]["detail"]["exchanged"],
+        serde_json::json!([["1U", "2U"]])
+    );
+}

@@ -105,6 +105,7 @@ struct RawWire {
 struct RawMeasured {
     line_resistance_ohm: Option<Vec<f64>>,
     section_resistance_ohm: Option<Vec<f64>>,
+    six_lead_ohm: Option<Vec<f64>>,
     main_resistance_ohm: Option<f64>,
     aux_resistance_ohm: Option<f64>,
     temperature_c: Option<f64>,
@@ -1227,20 +1228,67 @@ impl RawLayout {
                     .into(),
             ));
         }
+        let temperature_c = c
+            .within("measured", "temperature_c", m.temperature_c, -60.0, 250.0)?
+            .unwrap_or(20.0);
         if d.pole_change.is_some() {
             // Its leads are not a star or delta's: line readings worked back as one would
-            // condemn a sound winding.
+            // condemn a sound winding. It is read between its six leads as delivered.
+            let key = "six_lead_ohm";
+            let Some(v) = &m.six_lead_ohm else {
+                return Err(c.err(
+                    "measured",
+                    0,
+                    if m.section_resistance_ohm.is_some() {
+                        "section_resistance_ohm"
+                    } else {
+                        "line_resistance_ohm"
+                    },
+                    "a pole-changing winding is read between its six leads as delivered, \
+                     nothing linked: give six_lead_ohm = [1U-1V, 1V-1W, 1W-1U, 2U-2W, 2W-2V, \
+                     2V-2U, 1U-2U, 1V-2W, 1W-2V] (the card's table) instead"
+                        .into(),
+                ));
+            };
+            if m.line_resistance_ohm.is_some() || m.section_resistance_ohm.is_some() {
+                return Err(c.err(
+                    "measured",
+                    0,
+                    key,
+                    "give the six leads' readings alone: remove line_resistance_ohm and \
+                     section_resistance_ohm"
+                        .into(),
+                ));
+            }
+            if v.len() != 9 {
+                return Err(c.err(
+                    "measured",
+                    0,
+                    key,
+                    format!(
+                        "{} values given; give nine, in the card's order: 1U-1V, 1V-1W, \
+                         1W-1U, 2U-2W, 2W-2V, 2V-2U, 1U-2U, 1V-2W, 1W-2V",
+                        v.len()
+                    ),
+                ));
+            }
+            each(key, v)?;
+            return Ok(Measured {
+                line_resistance_ohm: None,
+                section_resistance_ohm: None,
+                main_resistance_ohm: None,
+                aux_resistance_ohm: None,
+                six_lead_ohm: Some(v.clone()),
+                temperature_c,
+            });
+        }
+        if m.six_lead_ohm.is_some() {
             return Err(c.err(
                 "measured",
                 0,
-                if m.section_resistance_ohm.is_some() {
-                    "section_resistance_ohm"
-                } else {
-                    "line_resistance_ohm"
-                },
-                "readings of a pole-changing winding are not judged yet: compare them with \
-                 the card's table of readings between the six leads (as delivered, nothing \
-                 linked) and remove [measured]"
+                "six_lead_ohm",
+                "six-lead readings belong to a pole-changing winding (winding.pole_change); \
+                 give line_resistance_ohm or section_resistance_ohm"
                     .into(),
             ));
         }
@@ -1329,9 +1377,8 @@ impl RawLayout {
             section_resistance_ohm: sections,
             main_resistance_ohm: None,
             aux_resistance_ohm: None,
-            temperature_c: c
-                .within("measured", "temperature_c", m.temperature_c, -60.0, 250.0)?
-                .unwrap_or(20.0),
+            six_lead_ohm: None,
+            temperature_c,
         })
     }
 }

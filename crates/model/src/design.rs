@@ -243,6 +243,10 @@ pub struct Measured {
     pub main_resistance_ohm: Option<f64>,
     /// A single-phase stator's auxiliary winding across its own leads, ohms.
     pub aux_resistance_ohm: Option<f64>,
+    /// A pole-changing winding's readings between its six leads as delivered (nothing
+    /// linked), in the card's order: end to end (1U-1V, 1V-1W, 1W-1U), tap to tap (2U-2W,
+    /// 2W-2V, 2V-2U), each end to its own tap (1U-2U, 1V-2W, 1W-2V), ohms.
+    pub six_lead_ohm: Option<Vec<f64>>,
     /// Winding temperature at the measurement, °C.
     pub temperature_c: f64,
 }

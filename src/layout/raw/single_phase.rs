@@ -81,6 +81,7 @@ impl RawLayout {
         Ok(crate::design::Measured {
             line_resistance_ohm: None,
             section_resistance_ohm: None,
+            six_lead_ohm: None,
             main_resistance_ohm: c.within(
                 "measured",
                 "main_resistance_ohm",

@@ -136,6 +136,7 @@ impl RawLayout {
             (m, Some(r)) => Some(RawMeasured {
                 line_resistance_ohm: Some(r),
                 section_resistance_ohm: None,
+                six_lead_ohm: None,
                 main_resistance_ohm: None,
                 aux_resistance_ohm: None,
                 temperature_c: m.and_then(|m| m.temperature_c),

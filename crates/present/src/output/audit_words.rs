@@ -69,7 +69,8 @@ pub fn words(f: &Fact) -> String {
         Fact::NoFundamental
         | Fact::Unbalanced { .. }
         | Fact::UnbalancedAtOtherSpeed { .. }
-        | Fact::MeasuredResistance { .. } => balance_words(f),
+        | Fact::MeasuredResistance { .. }
+        | Fact::SixLeadReadings { .. } => balance_words(f),
         Fact::CoresDiffer { .. }
         | Fact::DiffersFromDesign { .. }
         | Fact::MissingFromRecord { .. } => design_words(f),
@@ -298,6 +299,40 @@ fn slot_words(f: &Fact) -> String {
 /// The words of the balance and the measured resistances.
 fn balance_words(f: &Fact) -> String {
     match f {
+        Fact::SixLeadReadings {
+            temperature_c,
+            worst_percent,
+            tolerance_percent,
+            exchanged,
+        } => {
+            let head = format!(
+                "the readings between the six leads at {} C are up to {} % from the card's \
+                 (tolerance {} %)",
+                num(*temperature_c, 1),
+                num(*worst_percent, 1),
+                num(*tolerance_percent, 0)
+            );
+            let pairs: Vec<String> = exchanged
+                .iter()
+                .map(|[a, b]| format!("{a} and {b}"))
+                .collect();
+            match pairs.as_slice() {
+                [] => format!(
+                    "{head}, and no exchange of two leads' markings explains them: check \
+                     each half for an open circuit, shorted turns or wrong turns"
+                ),
+                [one] => format!(
+                    "{head}; they agree with the markings of {one} exchanged: a half is \
+                     brought out on the wrong lead. Trace the two leads to their halves and \
+                     mark them again before connecting either speed"
+                ),
+                more => format!(
+                    "{head}; they agree with any one of these markings exchanged: {}. Trace \
+                     the leads to their halves and mark them again before connecting",
+                    more.join("; ")
+                ),
+            }
+        }
         Fact::NoFundamental => "no fundamental EMF: the coil groups are not connected \
                                 alternately (every other group must be reversed), or the \
                                 coils were recorded in one direction; check the group \

@@ -552,17 +552,26 @@ fn six_lead_sections(six: &crate::card::two_speed::SixLeads) -> Vec<Section> {
         ]);
     }
     s.push(Section::Table(halves));
-    let mut t = Table::new(&[
+    let measured = six.measured.as_ref();
+    let mut columns = vec![
         ("board", Align::Left),
         ("between", Align::Left),
         ("ohm", Align::Right),
-    ]);
-    for r in &six.delivered {
-        t.push(vec![
+    ];
+    if measured.is_some() {
+        columns.push(("read, at 20 C", Align::Right));
+    }
+    let mut t = Table::new(&columns);
+    for (i, r) in six.delivered.iter().enumerate() {
+        let mut row = vec![
             "as delivered, nothing linked".into(),
             format!("{}-{}", r.between[0], r.between[1]),
             ohms(r.ohm),
-        ]);
+        ];
+        if let Some(m) = measured {
+            row.push(m.readings_20c_ohm.get(i).map_or("-".into(), |v| ohms(*v)));
+        }
+        t.push(row);
     }
     for sp in &six.speeds {
         let board = if sp.linked.is_empty() {
@@ -571,14 +580,46 @@ fn six_lead_sections(six: &crate::card::two_speed::SixLeads) -> Vec<Section> {
             format!("{} poles, {} linked", sp.poles, sp.linked.join("+"))
         };
         for r in &sp.lines {
-            t.push(vec![
+            let mut row = vec![
                 board.clone(),
                 format!("{}-{}", r.between[0], r.between[1]),
                 ohms(r.ohm),
-            ]);
+            ];
+            if measured.is_some() {
+                row.push(String::new());
+            }
+            t.push(row);
         }
     }
     s.push(Section::Table(t));
+    if let Some(m) = measured {
+        let verdict = if m.as_marked {
+            format!(
+                "the readings taken at {} C agree with the card as marked (within {} %)",
+                num(m.temperature_c, 1),
+                num(crate::card::measured::FAR_PERCENT, 0)
+            )
+        } else if m.exchanged.is_empty() {
+            format!(
+                "the readings taken at {} C are up to {} % from the card's, and no exchange of \
+                 two leads' markings explains them: see beltwright audit",
+                num(m.temperature_c, 1),
+                num(m.worst_percent, 1)
+            )
+        } else {
+            format!(
+                "the readings taken at {} C agree with the card only with the markings of {} \
+                 exchanged: see beltwright audit",
+                num(m.temperature_c, 1),
+                m.exchanged
+                    .iter()
+                    .map(|[a, b]| format!("{a} and {b}"))
+                    .collect::<Vec<_>>()
+                    .join(", or ")
+            )
+        };
+        s.push(Section::Lines(vec![paragraph(&verdict)]));
+    }
     s
 }
 

@@ -216,6 +216,17 @@ pub enum Fact {
         /// Spread of the phase magnitudes there, per cent.
         spread_percent: f64,
     },
+    /// A pole-changing winding's readings between its six leads off the card's.
+    SixLeadReadings {
+        /// Temperature of the readings, °C.
+        temperature_c: f64,
+        /// Largest departure from the card's readings as marked, per cent.
+        worst_percent: f64,
+        /// The tolerance, per cent.
+        tolerance_percent: f64,
+        /// The exchanges of two leads' markings that explain the readings.
+        exchanged: Vec<[String; 2]>,
+    },
     /// Measured resistances unbalanced or off the card.
     MeasuredResistance {
         /// How the readings were taken.

@@ -67,6 +67,9 @@ pub enum FindingKind {
     CoilWrongSlots,
     /// A pole-changing winding balanced as laid out but not at its other pole count.
     UnbalancedAtOtherSpeed,
+    /// A pole-changing winding's readings between its six leads off the card's (a half
+    /// brought out on the wrong lead, or a half of the wrong resistance).
+    SixLeadReadings,
 }
 
 /// One thing wrong with the winding, and what to do about it. Its words (`message()`, and
@@ -775,6 +778,25 @@ pub fn audit(w: &Winding, intended: Option<&Winding>) -> AuditReport {
                     .cloned()
                     .collect(),
                 suggestion: r.suggestion.clone(),
+            },
+        });
+    }
+    // A pole-changing winding read between its six leads: as marked, or with two leads'
+    // markings exchanged.
+    if let Some(c) = crate::card::two_speed::six_leads(w)
+        .and_then(|s| s.measured)
+        .filter(|c| !c.as_marked)
+    {
+        findings.push(Finding {
+            kind: FindingKind::SixLeadReadings,
+            coils: Vec::new(),
+            slots: Vec::new(),
+            phases: Vec::new(),
+            detail: Fact::SixLeadReadings {
+                temperature_c: c.temperature_c,
+                worst_percent: c.worst_percent,
+                tolerance_percent: crate::card::measured::FAR_PERCENT,
+                exchanged: c.exchanged,
             },
         });
     }

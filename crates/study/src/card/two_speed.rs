@@ -61,6 +61,28 @@ pub struct SixLeads {
     pub delivered: Vec<LeadReading>,
     /// On each speed's board: the lower speed (twice the poles) first.
     pub speeds: Vec<SpeedReadings>,
+    /// The readings of `[measured] six_lead_ohm`, judged against `delivered`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measured: Option<LeadCheck>,
+}
+
+/// A pole-changing winding's readings between its six leads, against the card: as marked,
+/// or with two leads' markings exchanged (an end and a tap, two ends, two taps: a half
+/// brought out on the wrong lead).
+#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+pub struct LeadCheck {
+    /// Temperature of the readings, °C.
+    pub temperature_c: f64,
+    /// The readings at 20 °C, in `delivered`'s order.
+    pub readings_20c_ohm: Vec<f64>,
+    /// Largest departure of a reading from the card's, as marked, per cent.
+    pub worst_percent: f64,
+    /// True when every reading is within [`FAR_PERCENT`](super::measured::FAR_PERCENT) of
+    /// the card's.
+    pub as_marked: bool,
+    /// The exchanges of two leads' markings under which every reading agrees instead (empty
+    /// when the readings agree as marked, or no single exchange explains them).
+    pub exchanged: Vec<[String; 2]>,
 }
 
 /// The six leads' figures of `w` at 20 °C; `None` when `w` is not pole-changing or a half
@@ -119,8 +141,15 @@ pub fn six_leads(w: &Winding) -> Option<SixLeads> {
             lines,
         })
     };
+    let measured = w
+        .design
+        .measured
+        .as_ref()
+        .and_then(|m| Some((m.six_lead_ohm.as_ref()?, m.temperature_c)))
+        .and_then(|(v, t)| lead_check(w, &net, &delivered, v, t));
     let poles = w.geometry.poles;
     Some(SixLeads {
+        measured,
         pole_change: pc,
         halves: (0..3)
             .map(|p| Halves {
@@ -134,5 +163,91 @@ pub fn six_leads(w: &Winding) -> Option<SixLeads> {
             on(&pole_change::LOW_SPEED, 2 * poles)?,
             on(&pole_change::HIGH_SPEED, poles)?,
         ],
+    })
+}
+
+/// The six leads, in the order `delivered` pairs them: ends, then taps.
+const LEADS: [Lead; 6] = [
+    Lead::end(0),
+    Lead::end(1),
+    Lead::end(2),
+    Lead::tap(0),
+    Lead::tap(1),
+    Lead::tap(2),
+];
+
+/// The pairs `delivered` reads, as indices into [`LEADS`].
+const PAIRS: [(usize, usize); 9] = [
+    (0, 1),
+    (1, 2),
+    (2, 0),
+    (3, 4),
+    (4, 5),
+    (5, 3),
+    (0, 3),
+    (1, 4),
+    (2, 5),
+];
+
+/// Readings `v` at `t` °C between the six leads (`delivered`'s order) judged against the
+/// network of halves `net`: as marked, and under every exchange of two leads' markings.
+fn lead_check(
+    w: &Winding,
+    net: &crate::network::Network,
+    delivered: &[LeadReading],
+    v: &[f64],
+    t: f64,
+) -> Option<LeadCheck> {
+    if v.len() != PAIRS.len() || delivered.len() != PAIRS.len() {
+        return None;
+    }
+    let material = w
+        .design
+        .wire
+        .as_ref()
+        .map(|x| x.material)
+        .unwrap_or_default();
+    let to_20 = |r: f64| r / crate::wire::metal(material).at_temperature(1.0, t);
+    let readings: Vec<f64> = v.iter().map(|r| to_20(*r)).collect();
+    // The largest departure, per cent, of the readings from what the network gives with
+    // the markings of leads `a` and `b` exchanged (none when a == b).
+    let worst = |a: usize, b: usize| -> Option<f64> {
+        let at = |i: usize| {
+            let j = if i == a {
+                b
+            } else if i == b {
+                a
+            } else {
+                i
+            };
+            LEADS[j].node()
+        };
+        PAIRS
+            .iter()
+            .zip(&readings)
+            .map(|(&(x, y), r)| {
+                let want = net.between(at(x), at(y))?;
+                Some(100.0 * (r - want).abs() / want)
+            })
+            .try_fold(0.0f64, |m, d| d.map(|d| m.max(d)))
+    };
+    let far = super::measured::FAR_PERCENT;
+    let as_marked_worst = worst(0, 0)?;
+    let marking = w.design.leads.marking;
+    let exchanged = if as_marked_worst <= far {
+        Vec::new()
+    } else {
+        (0..6)
+            .flat_map(|a| (a + 1..6).map(move |b| (a, b)))
+            .filter(|&(a, b)| worst(a, b).is_some_and(|d| d <= far))
+            .map(|(a, b)| [LEADS[a].name(marking), LEADS[b].name(marking)])
+            .collect()
+    };
+    Some(LeadCheck {
+        temperature_c: t,
+        readings_20c_ohm: readings,
+        worst_percent: as_marked_worst,
+        as_marked: as_marked_worst <= far,
+        exchanged,
     })
 }
