@@ -78,10 +78,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                     Ok(())
                 }));
             };
-            if out
-                .extension()
-                .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
-            {
+            if is_html(out) {
                 let (spec, name, source) = read_spec_source(&a.file)?;
                 let w = winding::build_lenient(&spec)
                     .map_err(|e| plan_failure(&name, &source, &spec, &e))?;
@@ -91,13 +88,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
                 let inputs: Vec<&Path> = std::iter::once(a.file.as_path())
                     .chain(a.intended.as_deref())
                     .collect();
-                write_set(
-                    &[(out.to_path_buf(), html.into_bytes())],
-                    &Vec::new,
-                    &inputs,
-                    "-o",
-                )?;
-                return Ok(say(wrote(std::slice::from_ref(out))));
+                return write_page(out, html, &inputs);
             }
             let kind = sheet_kind(out)?;
             let w = load(&a.file)?;
@@ -111,15 +102,7 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
             let intended = intended(a.intended.as_deref(), &w, &a.file.display().to_string())?;
             let study = Study::new(&w, intended.as_ref());
             if kind == FileKind::Pdf {
-                let parts = beltwright::output::html::parts(&study);
-                for part in parts.parts.iter().filter(|p| p.title != "Data card") {
-                    pages.extend(draw::tables::draw(
-                        &study,
-                        &part.title,
-                        &part.sections,
-                        &page,
-                    ));
-                }
+                pages.extend(beltwright::output::html::part_pages(&study, &page));
             }
             pages.extend(
                 Sheet::ALL
@@ -636,6 +619,23 @@ fn write_atomic(path: &Path, input: &Path, bytes: &[u8], flag: &str) -> Result<(
 fn present<R: Report + 'static>(report: R, format: impl Into<Format>) -> Printed {
     let format = format.into();
     Box::new(move |out: &mut dyn Write| output::write(&report, format, out))
+}
+
+/// Whether `out` names an HTML page (`report -o x.html`).
+pub(super) fn is_html(out: &Path) -> bool {
+    out.extension()
+        .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
+}
+
+/// Write the HTML page `html` to `out` whole, never over one of `inputs`.
+pub(super) fn write_page(out: &Path, html: String, inputs: &[&Path]) -> Result<Printed, Failure> {
+    write_set(
+        &[(out.to_path_buf(), html.into_bytes())],
+        &Vec::new,
+        inputs,
+        "-o",
+    )?;
+    Ok(say(wrote(std::slice::from_ref(&out.to_path_buf()))))
 }
 
 /// Lines of text for stdout.

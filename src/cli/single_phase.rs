@@ -10,8 +10,9 @@ use beltwright::study::Study;
 use beltwright::winding::Winding;
 
 use super::args::{Cli, Command};
-use super::commands::{page_of, read_spec_source, say, sheet_kind, write_sheet, wrote};
-use super::files::write_set;
+use super::commands::{
+    is_html, page_of, read_spec_source, say, sheet_kind, write_page, write_sheet, wrote,
+};
 use super::{Failure, Printed};
 
 /// The file a command reads, when it reads one layout.
@@ -133,18 +134,9 @@ fn run(
             let Some(out) = &a.output else {
                 return Ok(view(View::Plan, beltwright::output::Format::Text));
             };
-            if out
-                .extension()
-                .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
-            {
+            if is_html(out) {
                 let html = beltwright::output::html::document(&study);
-                write_set(
-                    &[(out.to_path_buf(), html.into_bytes())],
-                    &Vec::new,
-                    &[a.file.as_path()],
-                    "-o",
-                )?;
-                return Ok(say(wrote(std::slice::from_ref(out))));
+                return write_page(out, html, &[a.file.as_path()]);
             }
             let kind = sheet_kind(out)?;
             let pages = sheets(&study, &w, &page_of(a.page, a.portrait));

@@ -12,9 +12,10 @@ use beltwright::winding::{self, PlanError, Winding};
 
 use super::args::{Cli, Command};
 use super::commands::{
-    page_of, plan_failure, read_spec_source, say, sheet_kind, write_sheet, wrote,
+    is_html, page_of, plan_failure, read_spec_source, say, sheet_kind, write_page, write_sheet,
+    wrote,
 };
-use super::files::{check_output, write_set};
+use super::files::check_output;
 use super::single_phase::file_of;
 use super::{Failure, Printed};
 
@@ -148,19 +149,10 @@ fn run(cli: &Cli, name: &str, spec: &Spec, file: &str, source: &str) -> Result<P
             let inputs: Vec<&Path> = std::iter::once(a.file.as_path())
                 .chain(a.intended.as_deref())
                 .collect();
-            if out
-                .extension()
-                .is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"))
-            {
+            if is_html(out) {
                 let html =
                     beltwright::output::html::document_two(&study, spec.labels.title.as_deref());
-                write_set(
-                    &[(out.to_path_buf(), html.into_bytes())],
-                    &Vec::new,
-                    &inputs,
-                    "-o",
-                )?;
-                return Ok(say(wrote(std::slice::from_ref(out))));
+                return write_page(out, html, &inputs);
             }
             let kind = sheet_kind(out)?;
             for p in &inputs {
@@ -190,13 +182,7 @@ fn sheets(study: &TwoStudy, title: Option<&str>, page: &Page, kind: FileKind) ->
     let mut pages = draw::tables::draw_under(&block, &words::pair_sections(study.report()), page);
     for s in study.studies() {
         if kind == FileKind::Pdf {
-            for part in beltwright::output::html::parts(s)
-                .parts
-                .iter()
-                .filter(|p| p.title != "Data card")
-            {
-                pages.extend(draw::tables::draw(s, &part.title, &part.sections, page));
-            }
+            pages.extend(beltwright::output::html::part_pages(s, page));
         }
         pages.extend(
             Sheet::ALL

@@ -13,14 +13,38 @@ use crate::single_phase::SinglePhaseReport;
 const SIZE: f64 = 2.6;
 const LINE: f64 = 3.3;
 
+/// A circuit wire: the page's rule at the drawing's line width.
 fn wire(x1: f64, y1: f64, x2: f64, y2: f64) -> Line {
-    Line::new()
-        .set("x1", r(x1))
-        .set("y1", r(y1))
-        .set("x2", r(x2))
-        .set("y2", r(y2))
-        .set("stroke", "#000000")
-        .set("stroke-width", 0.35)
+    super::page::rule(x1, y1, x2, y2, 0.35)
+}
+
+/// One winding of the circuit between its two terminals at `top` and `bottom` on the
+/// vertical `x`: its box, its leads' marks and its name.
+fn part(x: f64, top: f64, bottom: f64, leads: [&str; 2], name: &str) -> Group {
+    Group::new()
+        .add(
+            Rectangle::new()
+                .set("x", r(x - 3.0))
+                .set("y", r(top + 2.0))
+                .set("width", 6.0)
+                .set("height", r(bottom - top - 4.0))
+                .set("fill", "none")
+                .set("stroke", "#000000")
+                .set("stroke-width", 0.35),
+        )
+        .add(wire(x, top, x, top + 2.0))
+        .add(wire(x, bottom - 2.0, x, bottom))
+        .add(terminal(x, top))
+        .add(terminal(x, bottom))
+        .add(label(x + 2.0, top - 0.6, SIZE, Anchor::Start, leads[0]))
+        .add(label(x + 2.0, bottom + 3.0, SIZE, Anchor::Start, leads[1]))
+        .add(label(
+            x + 4.0,
+            (top + bottom) / 2.0 + 1.0,
+            SIZE,
+            Anchor::Start,
+            name,
+        ))
 }
 
 fn terminal(x: f64, y: f64) -> Circle {
@@ -78,31 +102,14 @@ pub fn board(sp: &SinglePhaseReport, width: f64) -> (Group, f64) {
             .add(label(0.0, top + 1.0, SIZE, Anchor::Start, "L1"))
             .add(label(0.0, bottom + 1.0, SIZE, Anchor::Start, "N"));
         // Main: its two leads on the two lines.
-        let (m_top, m_bot) = (top + 7.0, bottom - 7.0);
         c = c
-            .add(wire(xm, top, xm, m_top))
-            .add(wire(xm, m_bot, xm, bottom))
-            .add(
-                Rectangle::new()
-                    .set("x", r(xm - 3.0))
-                    .set("y", r(m_top + 2.0))
-                    .set("width", 6.0)
-                    .set("height", r(m_bot - m_top - 4.0))
-                    .set("fill", "none")
-                    .set("stroke", "#000000")
-                    .set("stroke-width", 0.35),
-            )
-            .add(wire(xm, m_top, xm, m_top + 2.0))
-            .add(wire(xm, m_bot - 2.0, xm, m_bot))
-            .add(terminal(xm, m_top))
-            .add(terminal(xm, m_bot))
-            .add(label(xm + 2.0, m_top - 0.6, SIZE, Anchor::Start, &b.l1[0]))
-            .add(label(xm + 2.0, m_bot + 3.0, SIZE, Anchor::Start, &b.l2[0]))
-            .add(label(
-                xm + 4.0,
-                (m_top + m_bot) / 2.0 + 1.0,
-                SIZE,
-                Anchor::Start,
+            .add(wire(xm, top, xm, top + 7.0))
+            .add(wire(xm, bottom - 7.0, xm, bottom))
+            .add(part(
+                xm,
+                top + 7.0,
+                bottom - 7.0,
+                [&b.l1[0], &b.l2[0]],
                 "main",
             ));
         // Auxiliary: its winding, then the capacitor down to the line.
@@ -110,29 +117,7 @@ pub fn board(sp: &SinglePhaseReport, width: f64) -> (Group, f64) {
         let cap_y = bottom - 6.0;
         c = c
             .add(wire(xa, top, xa, a_top))
-            .add(
-                Rectangle::new()
-                    .set("x", r(xa - 3.0))
-                    .set("y", r(a_top + 2.0))
-                    .set("width", 6.0)
-                    .set("height", r(a_bot - a_top - 4.0))
-                    .set("fill", "none")
-                    .set("stroke", "#000000")
-                    .set("stroke-width", 0.35),
-            )
-            .add(wire(xa, a_top, xa, a_top + 2.0))
-            .add(wire(xa, a_bot - 2.0, xa, a_bot))
-            .add(terminal(xa, a_top))
-            .add(terminal(xa, a_bot))
-            .add(label(xa + 2.0, a_top - 0.6, SIZE, Anchor::Start, &b.l1[1]))
-            .add(label(xa + 2.0, a_bot + 3.0, SIZE, Anchor::Start, &b.l2[1]))
-            .add(label(
-                xa + 4.0,
-                (a_top + a_bot) / 2.0 + 1.0,
-                SIZE,
-                Anchor::Start,
-                "aux",
-            ))
+            .add(part(xa, a_top, a_bot, [&b.l1[1], &b.l2[1]], "aux"))
             .add(wire(xa, a_bot, xa, cap_y - 0.8))
             .add(wire(xa - 3.0, cap_y - 0.8, xa + 3.0, cap_y - 0.8).set("stroke-width", 0.6))
             .add(wire(xa - 3.0, cap_y + 0.8, xa + 3.0, cap_y + 0.8).set("stroke-width", 0.6))

@@ -189,6 +189,17 @@ pub fn parts(s: &Study) -> Parts {
     Parts { parts: out }
 }
 
+/// The PDF report's table pages: every part of `s` but the data card (which is a sheet
+/// of its own) set as pages under the winding's title block.
+pub fn part_pages(s: &Study, page: &Page) -> Vec<String> {
+    parts(s)
+        .parts
+        .iter()
+        .filter(|p| p.title != "Data card")
+        .flat_map(|p| draw::tables::draw(s, &p.title, &p.sections, page))
+        .collect()
+}
+
 /// The report's performance table lists every fifth slip of the study's sweep (steps of
 /// 0.05 from standstill to synchronism); the sheet draws them all.
 const PERFORMANCE_ROWS_EVERY: usize = 5;

@@ -4,7 +4,7 @@
 use schemars::JsonSchema;
 use serde::Serialize;
 
-use super::json::Opening;
+use super::json::{Opening, Worded};
 use super::reports::paragraph;
 use super::{Align, Report, Section, Table, caution, num};
 use crate::design::CapacitorDuty;
@@ -60,16 +60,6 @@ pub struct CoilJson {
     pub turns: u32,
 }
 
-/// A finding with its sentence.
-#[derive(Serialize, JsonSchema)]
-pub struct FindingJson<'a> {
-    /// The typed finding.
-    #[serde(flatten)]
-    pub finding: &'a Finding,
-    /// In words.
-    pub message: String,
-}
-
 /// The JSON of every single-phase view: the whole study, with the plan contract's
 /// `coils` and `winding_factor` (the main's), the factors contract's `rows` (the main's;
 /// `aux_rows` the auxiliary's) or the field contract's `rows` (the spectrum).
@@ -96,7 +86,7 @@ pub struct SinglePhaseJson<'a> {
     #[serde(skip_serializing_if = "Option::is_none")]
     sound: Option<bool>,
     /// Findings in words (audit view).
-    findings: Vec<FindingJson<'a>>,
+    findings: Vec<Worded<'a, Finding>>,
     /// Why no capacitor could be worked out, in words.
     #[serde(skip_serializing_if = "Option::is_none")]
     capacitor_missing_message: Option<String>,
@@ -508,8 +498,8 @@ impl Report for SinglePhaseView<'_> {
             findings: r
                 .findings
                 .iter()
-                .map(|f| FindingJson {
-                    finding: f,
+                .map(|f| Worded {
+                    fact: f,
                     message: finding_words(f),
                 })
                 .collect(),

@@ -5,7 +5,7 @@
 use schemars::JsonSchema;
 use serde::Serialize;
 
-use super::json::Opening;
+use super::json::{Opening, Worded};
 use super::reports::paragraph;
 use super::{Align, Format, Report, Section, Table, caution, num};
 use crate::two_winding::{Coupling, Finding, Part, Position, Speed, TwoStudy, TwoWindingReport};
@@ -34,16 +34,6 @@ pub struct TwoWindingView<'a, 'w> {
     pub view: View,
 }
 
-/// A finding of the pair with its sentence.
-#[derive(Serialize, JsonSchema)]
-pub struct FindingJson<'a> {
-    /// The typed finding.
-    #[serde(flatten)]
-    pub finding: &'a Finding,
-    /// In words.
-    pub message: String,
-}
-
 /// The JSON of a two-winding view: the first winding's own JSON of the view at the top
 /// level (so the contract's `coils`, `winding_factor`, `rows`, `findings` read as for one
 /// winding), the second's under `second_winding`, and the pair's report under `pair`.
@@ -59,7 +49,7 @@ pub struct TwoWindingJson<'a> {
     /// The pair: where each winding lies, its leads, the coupling, the slots both fill.
     pair: &'a TwoWindingReport,
     /// The pair's findings in words.
-    pair_findings: Vec<FindingJson<'a>>,
+    pair_findings: Vec<Worded<'a, Finding>>,
 }
 
 /// A winding's name in words: "the 4-pole winding".
@@ -519,8 +509,8 @@ impl Report for TwoWindingView<'_, '_> {
             pair_findings: r
                 .findings
                 .iter()
-                .map(|f| FindingJson {
-                    finding: f,
+                .map(|f| Worded {
+                    fact: f,
                     message: finding_words(r, f),
                 })
                 .collect(),
