@@ -14,12 +14,15 @@ done; done; done
 files=$(ls "$here"/layouts/*.toml "$out"/gen/*.toml)
 for f in $files; do
   n=$(basename "$f" .toml); d="$out/run/$n"; mkdir -p "$d"
-  for c in plan factors field pitch card thrust inductance; do
+  for c in plan factors field pitch card thrust inductance loading size speeds plates; do
     for fmt in text json csv; do
       "$bin" $c "$f" --format $fmt > "$d/$c.$fmt" 2> "$d/$c.$fmt.err"; echo "exit $?" >> "$d/$c.$fmt.err"
     done
   done
   "$bin" audit "$f" > "$d/audit.text" 2>&1; echo "exit $?" >> "$d/audit.text"
+  for fmt in text json csv; do
+    "$bin" rewind "$here/layouts/hoist-rewind-sound.toml" "$f" --wire-diameter-mm 1.12 --format $fmt > "$d/rewind.$fmt" 2>&1; echo "exit $?" >> "$d/rewind.$fmt"
+  done
   "$bin" audit "$f" --format json > "$d/audit.json" 2>&1
   for sh in slots connections star field card thrust; do
     (cd "$d" && "$bin" draw "$f" --sheet $sh -o "$sh.svg" > "$sh.draw.out" 2>&1; echo "exit $?" >> "$sh.draw.out")
