@@ -6,7 +6,7 @@
 //! page) and this one, the command line with its TOML adapter ([`layout`]). The modules of
 //! the three below are re-exported here under their own names, so one path reaches each.
 
-pub use beltwright_model::{design, iron, numbering, sanitize, spec, winding, wire};
+pub use beltwright_model::{design, iron, numbering, sanitize, spec, units, winding, wire};
 pub use beltwright_present::{draw, output, safety};
 pub use beltwright_study::{
     assumption, audit, card, factors, field, header, inductance, layers, leakage, linear, loading,

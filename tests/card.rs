@@ -34,12 +34,12 @@ fn awg_diameters_follow_astm_b258() {
         (24, 0.511),
         (36, 0.127),
     ] {
-        let got = wire::awg_diameter_m(n) * 1e3;
+        let got = wire::awg_diameter(n).mm();
         assert!(
             (got - d_mm).abs() < 0.0006,
             "AWG {n}: {got} mm, table {d_mm}"
         );
-        assert_eq!(wire::nearest_awg(got * 1e-3), (n, true));
+        assert_eq!(wire::nearest_awg(wire::awg_diameter(n)), (n, true));
     }
 }
 
@@ -66,7 +66,7 @@ fn mean_turn_and_resistance_by_hand() {
         "parallel_paths = 2\nconnection = \"delta\"",
         "",
     )));
-    let l = c.mean_turn_mm.expect("sizes given");
+    let l = c.mean_turn.expect("sizes given").mm();
     assert!((l - 510.59).abs() < 0.01, "{l}");
     let r = c.phase_resistance_20c_ohm.expect("wire given");
     assert!((r - 0.32579).abs() < 1e-4, "{r}");
@@ -167,8 +167,8 @@ fn audit_recognises_a_wrong_wire_size() {
     let r = check(&format!("[{e}, {e}, {e}]"));
     assert!(!r.sound);
     match r.suggestion {
-        Suggestion::WireSizeStep { diameter_mm, .. } => {
-            assert!((diameter_mm - 0.80).abs() < 1e-9, "{diameter_mm}")
+        Suggestion::WireSizeStep { diameter, .. } => {
+            assert!((diameter.mm() - 0.80).abs() < 1e-9, "{diameter:?}")
         }
         other => panic!("{other:?}"),
     }
@@ -237,17 +237,17 @@ fn formers_follow_the_mean_turn_rule_at_mid_slot() {
     assert_eq!(c.formers.len(), 1);
     let f = &c.formers[0];
     let pitch = std::f64::consts::PI * 140.0 / 36.0;
-    assert!((f.span_width_mm - 8.0 * pitch).abs() < 1e-9);
+    assert!((f.span_width.mm() - 8.0 * pitch).abs() < 1e-9);
     assert!(
-        (f.mean_turn_mm - 534.572).abs() < 1e-3,
+        (f.mean_turn.mm() - 534.572).abs() < 1e-3,
         "{}",
-        f.mean_turn_mm
+        f.mean_turn.mm()
     );
-    assert!((f.straight_mm - 150.0).abs() < 1e-9);
+    assert!((f.straight.mm() - 150.0).abs() < 1e-9);
     assert!(
-        (f.end_extension_mm - 57.416).abs() < 1e-3,
+        (f.end_extension.mm() - 57.416).abs() < 1e-3,
         "{}",
-        f.end_extension_mm
+        f.end_extension.mm()
     );
-    assert!((c.mean_turn_mm.expect("mean turn") - f.mean_turn_mm).abs() < 1e-9);
+    assert!((c.mean_turn.expect("mean turn").mm() - f.mean_turn.mm()).abs() < 1e-9);
 }

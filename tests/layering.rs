@@ -94,3 +94,62 @@ fn every_library_crate_forbids_io_the_same_way() {
         );
     }
 }
+
+/// Units are typed inside (`units`: `Length`, `Area`, `Conductivity`, `Capacitance`): the
+/// model and the analyses scale no quantity by a power of ten themselves. Every `* 1e3`,
+/// `/ 1e-6`, `* 1000.0` … in their source is refused outside `units.rs`, the one owner of
+/// the conversions, whether spaced, parenthesised or written with an exponent sign or digit
+/// separators. (A bound or a floor such as `.max(1e-6)` is no conversion and is not matched.)
+#[test]
+fn the_model_and_the_analyses_convert_no_units_themselves() {
+    fn walk(dir: &std::path::Path, out: &mut Vec<std::path::PathBuf>) {
+        for e in std::fs::read_dir(dir).expect("source folder").flatten() {
+            let p = e.path();
+            if p.is_dir() {
+                walk(&p, out);
+            } else if p.extension().is_some_and(|x| x == "rs") {
+                out.push(p);
+            }
+        }
+    }
+    let mut files = Vec::new();
+    walk(std::path::Path::new("crates/model/src"), &mut files);
+    walk(std::path::Path::new("crates/study/src"), &mut files);
+    assert!(files.len() > 40, "the sources were not found");
+    // A power of ten of 3, 4 or 6 (kilo, centi², mega, milli, micro), written as an
+    // exponent or in full, right after a `*` or `/`.
+    let is_power = |lit: &str| {
+        let t: String = lit.chars().filter(|c| *c != '_').collect();
+        let t = t.trim_end_matches("f64");
+        matches!(
+            t.parse::<f64>().ok(),
+            Some(v) if [1e3, 1e-3, 1e4, 1e-4, 1e6, 1e-6].contains(&v)
+        )
+    };
+    let mut found = Vec::new();
+    for f in files.iter().filter(|f| !f.ends_with("units.rs")) {
+        let text = std::fs::read_to_string(f).expect("source");
+        for (n, line) in text.lines().enumerate() {
+            let code = line.split("//").next().unwrap_or("");
+            let chars: Vec<char> = code.chars().collect();
+            for (i, c) in chars.iter().enumerate() {
+                if *c != '*' && *c != '/' {
+                    continue;
+                }
+                let rest: String = chars[i + 1..]
+                    .iter()
+                    .skip_while(|c| c.is_whitespace() || **c == '(')
+                    .take_while(|c| c.is_ascii_alphanumeric() || matches!(c, '.' | '_' | '-'))
+                    .collect();
+                if rest.starts_with(|c: char| c.is_ascii_digit()) && is_power(&rest) {
+                    found.push(format!("{}:{}: {}", f.display(), n + 1, line.trim()));
+                }
+            }
+        }
+    }
+    assert!(
+        found.is_empty(),
+        "unit conversions outside crates/model/src/units.rs:\n{}",
+        found.join("\n")
+    );
+}

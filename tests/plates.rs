@@ -6,6 +6,7 @@ mod common;
 use beltwright::layout;
 use beltwright::plates::{MAX_CHOICES, Metal, PlateQuery, PlatesError, plates};
 use beltwright::thrust::{ThrustQuery, thrust};
+use beltwright::units::Length;
 use beltwright::winding::{self, Winding};
 
 fn shuttle() -> Winding {
@@ -50,9 +51,9 @@ fn the_layouts_own_plate_is_the_thrust_reports_field_model() {
 fn every_combination_is_compared_in_order() {
     let w = shuttle();
     let q = PlateQuery {
-        thickness_mm: vec![3.0, 5.0],
+        thickness: vec![Length::from_mm(3.0), Length::from_mm(5.0)],
         metal: vec![Metal::Aluminium, Metal::Copper],
-        clearance_mm: vec![2.0, 4.0],
+        clearance: vec![Length::from_mm(2.0), Length::from_mm(4.0)],
         current_a: vec![10.0],
     };
     let r = plates(&w, &q).expect("plates");
@@ -60,7 +61,7 @@ fn every_combination_is_compared_in_order() {
     let order: Vec<(f64, f64)> = r
         .choices
         .iter()
-        .map(|c| (c.thickness_mm, c.clearance_mm))
+        .map(|c| (c.thickness.mm(), c.clearance.mm()))
         .collect();
     assert_eq!(
         order,
@@ -75,7 +76,7 @@ fn every_combination_is_compared_in_order() {
             (5.0, 4.0)
         ]
     );
-    let ratio = r.choices[2].conductivity_ms_m / r.choices[0].conductivity_ms_m;
+    let ratio = r.choices[2].conductivity.s_m() / r.choices[0].conductivity.s_m();
     assert!((ratio - 58.0 / 35.381).abs() < 1e-3, "{ratio}");
     // A wider clearance lowers the standstill thrust at the same current (less field).
     assert!(r.choices[1].standstill_thrust_n < r.choices[0].standstill_thrust_n);
@@ -85,8 +86,8 @@ fn every_combination_is_compared_in_order() {
 fn too_many_combinations_are_refused() {
     let w = shuttle();
     let q = PlateQuery {
-        thickness_mm: (1..=15).map(f64::from).collect(),
-        clearance_mm: (1..=15).map(f64::from).collect(),
+        thickness: (1..=15).map(|t| Length::from_mm(t.into())).collect(),
+        clearance: (1..=15).map(|g| Length::from_mm(g.into())).collect(),
         ..PlateQuery::default()
     };
     assert_eq!(plates(&w, &q), Err(PlatesError::TooMany(225)));

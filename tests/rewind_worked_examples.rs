@@ -6,7 +6,8 @@
 use beltwright::design::{Connection, Design, Supply, Topology};
 use beltwright::factors::closed;
 use beltwright::layout::Spec;
-use beltwright::rewind::{OldConductor, RewindError, area_of_diameter, rewind};
+use beltwright::rewind::{OldConductor, RewindError, rewind};
+use beltwright::units::{Area, Length};
 use beltwright::winding::{self, Winding};
 use std::f64::consts::PI;
 
@@ -58,7 +59,14 @@ fn shortening_full_pitch_to_seven_ninths_raises_turns_by_the_winding_factor_rati
 fn star_to_delta_at_the_same_line_voltage_multiplies_turns_by_root_three() {
     let old = build(&design(36, 4, 7, Connection::Star, 50.0));
     let new = build(&design(36, 4, 7, Connection::Delta, 50.0));
-    let r = rewind(&old, &new, Some(OldConductor::DiameterMm(1.0)), 1, None).expect("same core");
+    let r = rewind(
+        &old,
+        &new,
+        Some(OldConductor::Diameter(Length::from_mm(1.0))),
+        1,
+        None,
+    )
+    .expect("same core");
     assert!((r.series_turns_exact / r.old.series_turns - 3f64.sqrt()).abs() < 1e-12);
     assert!((r.turns_per_coil_exact - 20.0 * 3f64.sqrt()).abs() < 1e-9);
     assert_eq!(r.turns_per_coil, 35);
@@ -66,16 +74,17 @@ fn star_to_delta_at_the_same_line_voltage_multiplies_turns_by_root_three() {
     // output in delta, where the phase current is the line current over √3 (standard), so
     // the conductor shrinks by √3.
     let c = r.conductor.expect("conductor asked for");
-    let exact_area = c.new_conductor_area_mm2 * 35.0 / r.turns_per_coil_exact;
-    assert!((exact_area - area_of_diameter(1.0) / 3f64.sqrt()).abs() < 1e-12);
+    let exact_area = c.new_conductor_area.mm2() * 35.0 / r.turns_per_coil_exact;
     // Area of a 1 mm wire is π/4 mm² (geometry).
-    assert!((c.old_area_mm2 - PI / 4.0).abs() < 1e-15);
+    assert!((exact_area - PI / 4.0 / 3f64.sqrt()).abs() < 1e-12);
+    assert!((c.old_area.mm2() - PI / 4.0).abs() < 1e-15);
     let two = c
         .options
         .iter()
         .find(|o| o.wires_in_hand == 2)
         .expect("two in hand");
-    assert!((2.0 * area_of_diameter(two.diameter_mm) - c.new_conductor_area_mm2).abs() < 1e-12);
+    let d = two.diameter.mm();
+    assert!((2.0 * PI / 4.0 * d * d - c.new_conductor_area.mm2()).abs() < 1e-12);
 }
 
 // 50 Hz to 60 Hz at the same voltage: N_ph ∝ 1/f at constant flux (EMF equation).
@@ -97,11 +106,18 @@ fn two_parallel_paths_double_the_turns_per_coil_and_halve_the_wire() {
     let mut s = design(36, 4, 7, Connection::Star, 50.0);
     s.design.parallel_paths = 2;
     let new = build(&s);
-    let r = rewind(&old, &new, Some(OldConductor::AreaMm2(1.2)), 1, None).expect("same core");
+    let r = rewind(
+        &old,
+        &new,
+        Some(OldConductor::Area(Area::from_mm2(1.2))),
+        1,
+        None,
+    )
+    .expect("same core");
     assert!((r.turns_per_coil_exact - 40.0).abs() < 1e-9);
     assert!((r.series_turns_exact - r.old.series_turns).abs() < 1e-9);
     let c = r.conductor.expect("conductor");
-    assert!((c.new_conductor_area_mm2 - 0.6).abs() < 1e-12);
+    assert!((c.new_conductor_area.mm2() - 0.6).abs() < 1e-12);
     assert!((c.phase_current_ratio - 1.0).abs() < 1e-12);
 }
 
@@ -227,17 +243,17 @@ fn rewind_proposes_standard_wire_and_the_new_line_current() {
     let r = rewind(
         &old,
         &new,
-        Some(OldConductor::DiameterMm(1.0)),
+        Some(OldConductor::Diameter(Length::from_mm(1.0))),
         1,
         Some(10.0),
     )
     .expect("same core");
     let c = r.conductor.expect("conductor");
     let want_area = PI / 4.0 / 3f64.sqrt() * (20.0 * 3f64.sqrt() / 35.0);
-    assert!((c.new_conductor_area_mm2 - want_area).abs() < 1e-12);
+    assert!((c.new_conductor_area.mm2() - want_area).abs() < 1e-12);
     let one = &c.standard_metric[0];
     assert_eq!(one.wire.strands_in_hand, 1);
-    assert_eq!(one.wire.diameter_mm, 0.75);
+    assert_eq!(one.wire.diameter.mm(), 0.75);
     let i = c.new_line_current_a.expect("old current given");
     assert!(
         (i - 10.0 * want_area / (PI / 4.0) * 3f64.sqrt()).abs() < 1e-9,

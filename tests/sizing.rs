@@ -55,7 +55,7 @@ fn published_design_is_reproduced_to_its_printed_digits() {
     let z = sizing::size(&s, &published_request()).expect("sizes");
     // Printed pole pitch τ = 101.94 mm (Table III).
     let w = wind(&published_core(""));
-    assert_eq!(format!("{:.2}", w.pole_pitch_m().unwrap() * 1e3), "101.94");
+    assert_eq!(format!("{:.2}", w.pole_pitch().unwrap().mm()), "101.94");
     // k_w 0.945 (Table II): distribution × pitch of 36 slots, 4 poles, span 8.
     assert_eq!(format!("{:.3}", z.winding_factor), "0.945");
     // N1 = 144 turns per phase (Table III), from eq. 18 rounded to whole turns per coil.
@@ -295,8 +295,9 @@ fn a_flat_primary_is_sized_like_a_rotary_core() {
     // T), with the plan's pole pitch τ: gap Φ = (2/π)·0.85·τ·L; teeth
     // Φ = (2/π)·(1.8·0.95·8/15)·τ·L; back iron Φ = 2·1.6·0.95·0.100·0.020. The least sets it.
     let tau = wind(&src.replace("layers = 2", "layers = 2\nturns_per_coil = 1"))
-        .pole_pitch_m()
-        .unwrap();
+        .pole_pitch()
+        .unwrap()
+        .m();
     let gap = 2.0 / PI * 0.85 * tau * 0.100;
     let teeth = 2.0 / PI * (1.8 * 0.95 * 8.0 / 15.0) * tau * 0.100;
     let yoke = 2.0 * 1.6 * 0.95 * 0.100 * 0.020;
@@ -360,7 +361,7 @@ fn a_flat_primary_sized_for_a_thrust_takes_the_most_turns_that_still_give_it() {
         ..Limits::default()
     };
     let fit = sizing::wire_for(&wind(&layout_with(n, None)), 1e-9, &loose, false).unwrap();
-    let w = wind(&layout_with(n, Some(fit.diameter_mm)));
+    let w = wind(&layout_with(n, Some(fit.diameter.mm())));
     let q = beltwright::thrust::ThrustQuery {
         current_a: None,
         slip_from: 0.2,
@@ -497,8 +498,7 @@ fn the_sized_wire_goes_in_and_a_thrust_sized_primary_keeps_its_current() {
     let text = beltwright::layout::amend(&stripped(""), &z.chosen).unwrap();
     let w = wind(&text);
     let wire = beltwright::wire::Wire::of(w.design.wire.as_ref().unwrap());
-    let p = beltwright::packing::of(&w, wire.insulated_diameter_mm * 1e-3, wire.strands_in_hand)
-        .unwrap();
+    let p = beltwright::packing::of(&w, wire.insulated_diameter.m(), wire.strands_in_hand).unwrap();
     assert!(p.fits(), "{} of {}", p.laid.len(), p.wanted);
     assert_eq!(w.coils[0].turns, best.turns_per_coil);
     // A flat primary sized for a thrust: the written layout's nameplate carries the model's

@@ -110,7 +110,7 @@ fn magnetising_inductance_follows_the_closed_form() {
     assert!((r.synchronous_speed_m_s - 2.0 * 50.0 * tau).abs() < 1e-12);
     // No slot opening: Carter 1, g_e = clearance + plate = 7 mm.
     assert_eq!(r.carter_coefficient, 1.0);
-    assert!((r.effective_gap_mm - 7.0).abs() < 1e-12);
+    assert!((r.effective_gap.mm() - 7.0).abs() < 1e-12);
     // G = μ0·ω·τ²·σ_e·d/(π²·g_e) with σ_e = K·σ (Laithwaite 1965), σ = 1/0.028264 MS/m.
     let k = russell_norsworthy(0.040, 0.060, tau);
     assert!((r.edge_factor - k).abs() < 1e-12);
@@ -271,20 +271,20 @@ fn the_models_assumptions_are_checked_against_the_inputs() {
     for a in &r.assumptions {
         match a {
             Assumption::PlateThickerThanSkinDepth {
-                skin_depth_mm,
+                skin_depth,
                 thin_below_slip,
                 ..
             } => {
-                assert!((skin_depth_mm / (delta * 1e3) - 1.0).abs() < 1e-12);
+                assert!((skin_depth.m() / delta - 1.0).abs() < 1e-12);
                 assert!((thin_below_slip / (delta / 0.020).powi(2) - 1.0).abs() < 1e-12);
                 seen += 1;
             }
-            Assumption::PlateNarrowerThanStack { plate_mm, stack_mm } => {
-                assert_eq!((*plate_mm, *stack_mm), (60.0, 80.0));
+            Assumption::PlateNarrowerThanStack { plate, stack } => {
+                assert_eq!((plate.mm(), stack.mm()), (60.0, 80.0));
                 seen += 1;
             }
-            Assumption::PlateConductivity { ms_m } => {
-                assert!((ms_m - sigma * 1e-6).abs() < 1e-9);
+            Assumption::PlateConductivity { conductivity } => {
+                assert!((conductivity.s_m() / sigma - 1.0).abs() < 1e-12);
                 seen += 1;
             }
             Assumption::PrimaryCurrentDensity { density_a_mm2, .. } => {

@@ -3,6 +3,7 @@
 
 use beltwright::output::Words;
 use beltwright::study::Study;
+use beltwright::units::{Area, Length};
 use std::io::{IsTerminal, Write};
 use std::path::{Path, PathBuf};
 
@@ -267,7 +268,7 @@ fn same_wire(
         (None, None) => true,
         (Some(a), Some(b)) => {
             let size = match (a.size, b.size) {
-                (WireSize::Diameter(x), WireSize::Diameter(y)) => (x - y).abs() <= 1e-9,
+                (WireSize::Diameter(x), WireSize::Diameter(y)) => (x - y).m().abs() <= 1e-9,
                 (x, y) => x == y,
             };
             size && a.strands_in_hand == b.strands_in_hand && a.material == b.material
@@ -363,9 +364,19 @@ fn run_thrust(a: ThrustArgs) -> Result<Printed, Failure> {
 fn run_plates(a: PlatesArgs) -> Result<Printed, Failure> {
     let w = load(&a.common.file)?;
     let q = beltwright::plates::PlateQuery {
-        thickness_mm: a.thickness_mm,
+        thickness: a
+            .thickness_mm
+            .iter()
+            .copied()
+            .map(Length::from_mm)
+            .collect(),
         metal: a.metal,
-        clearance_mm: a.clearance_mm,
+        clearance: a
+            .clearance_mm
+            .iter()
+            .copied()
+            .map(Length::from_mm)
+            .collect(),
         current_a: a.current,
     };
     let r = beltwright::plates::plates(&w, &q).map_err(|e| {
@@ -434,8 +445,8 @@ fn intended(path: Option<&Path>, w: &Winding, name: &str) -> Result<Option<Windi
 
 fn run_rewind(a: RewindArgs) -> Result<Printed, Failure> {
     let conductor = match (a.wire_diameter_mm, a.conductor_mm2) {
-        (Some(d), _) => Some(OldConductor::DiameterMm(d)),
-        (None, Some(x)) => Some(OldConductor::AreaMm2(x)),
+        (Some(d), _) => Some(OldConductor::Diameter(Length::from_mm(d))),
+        (None, Some(x)) => Some(OldConductor::Area(Area::from_mm2(x))),
         (None, None) => None,
     };
     let old = load(&a.from)?;

@@ -39,13 +39,13 @@ pub fn amend(source: &str, d: &Design) -> Result<String, toml_edit::TomlError> {
     if let Some(w) = &d.wire {
         let mut t = Table::new();
         match w.size {
-            WireSize::Diameter(m) => t["diameter_mm"] = value(round_mm(m * 1e3)),
+            WireSize::Diameter(d) => t["diameter_mm"] = value(round_mm(d.mm())),
             WireSize::Awg(n) => t["awg"] = value(n as i64),
         }
         t["strands_in_hand"] = value(w.strands_in_hand as i64);
         match w.insulation {
             Insulation::Grade(g) => t["grade"] = value(g as i64),
-            Insulation::Diameter(o) => t["insulated_diameter_mm"] = value(round_mm(o * 1e3)),
+            Insulation::Diameter(o) => t["insulated_diameter_mm"] = value(round_mm(o.mm())),
         }
         if w.material == Material::Aluminium {
             t["material"] = value("aluminium");

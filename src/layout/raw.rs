@@ -2,6 +2,8 @@
 
 use serde::Deserialize;
 
+use crate::units::{Area, Conductivity, Length};
+
 mod single_phase;
 mod two_winding;
 
@@ -553,20 +555,20 @@ impl RawLayout {
         })
     }
 
-    /// The `[core]` sizes, each within its range, in metres.
+    /// The `[core]` sizes, each within its range (given in millimetres).
     fn core_sizes(&self, c: &Checker) -> Result<Core, LayoutError> {
         Ok(match &self.core {
             None => Core::default(),
             Some(k) => Core {
-                slot_pitch_m: c
+                slot_pitch: c
                     .within("core", "slot_pitch_mm", k.slot_pitch_mm, 0.1, 10_000.0)?
-                    .map(|v| v * 1e-3),
-                bore_m: c
+                    .map(Length::from_mm),
+                bore: c
                     .within("core", "bore_mm", k.bore_mm, 1.0, 100_000.0)?
-                    .map(|v| v * 1e-3),
-                stack_m: c
+                    .map(Length::from_mm),
+                stack: c
                     .within("core", "stack_mm", k.stack_mm, 1.0, 100_000.0)?
-                    .map(|v| v * 1e-3),
+                    .map(Length::from_mm),
                 ..Core::default()
             },
         })
@@ -807,7 +809,7 @@ impl RawLayout {
         let Some(k) = &self.core else {
             return Ok(core);
         };
-        let mm = |v: Option<f64>| v.map(|x| x * 1e-3);
+        let mm = |v: Option<f64>| v.map(Length::from_mm);
         let outside = c.within(
             "core",
             "outside_diameter_mm",
@@ -826,8 +828,8 @@ impl RawLayout {
             ));
         }
         let measured = crate::iron::Measured {
-            slot_pitch: core.slot_pitch_m,
-            bore: core.bore_m,
+            slot_pitch: core.slot_pitch,
+            bore: core.bore,
             outside_diameter: mm(outside),
             yoke_depth: mm(c.within("core", "yoke_depth_mm", k.yoke_depth_mm, 0.1, 10_000.0)?),
             tooth_width: mm(c.within("core", "tooth_width_mm", k.tooth_width_mm, 0.1, 1000.0)?),
@@ -836,12 +838,12 @@ impl RawLayout {
         };
         let sections =
             crate::iron::resolve(d.topology, d.slots, &measured).map_err(|e| iron_error(c, &e))?;
-        core.outside_diameter_m = sections.outside_diameter;
-        core.yoke_depth_m = sections.yoke_depth;
-        core.tooth_width_m = sections.tooth_width;
-        core.slot_depth_m = sections.slot_depth;
-        core.slot_width_m = sections.slot_width;
-        core.slot_bottom_width_m = sections.slot_width_bottom;
+        core.outside_diameter = sections.outside_diameter;
+        core.yoke_depth = sections.yoke_depth;
+        core.tooth_width = sections.tooth_width;
+        core.slot_depth = sections.slot_depth;
+        core.slot_width = sections.slot_width;
+        core.slot_bottom_width = sections.slot_width_bottom;
         core.stacking_factor = c.within("core", "stacking_factor", k.stacking_factor, 0.5, 1.0)?;
         Ok(core)
     }
@@ -907,42 +909,42 @@ impl RawLayout {
     }
 
     fn shop_data(&self, c: &Checker, mut d: Design) -> Result<Design, LayoutError> {
-        let mm = |v: Option<f64>| v.map(|x| x * 1e-3);
+        let mm = |v: Option<f64>| v.map(Length::from_mm);
         let parallel_paths = d.parallel_paths;
         if let Some(k) = &self.core {
-            d.airgap_m = mm(c.within("core", "airgap_mm", k.airgap_mm, 0.01, 1000.0)?);
-            d.slot_opening_m =
+            d.airgap = mm(c.within("core", "airgap_mm", k.airgap_mm, 0.01, 1000.0)?);
+            d.slot_opening =
                 mm(c.within("core", "slot_opening_mm", k.slot_opening_mm, 0.0, 1000.0)?);
             let area = c.within("core", "slot_area_mm2", k.slot_area_mm2, 0.01, 1e6)?;
             d.core = self.iron(c, &d)?;
             let core = d.core;
-            let (bore_w, bottom_w) = (core.slot_width_m, core.slot_bottom_width_m);
+            let (bore_w, bottom_w) = (core.slot_width, core.slot_bottom_width);
             // The slot's size: a rectangle, or for parallel-sided teeth a trapezoid taken
             // at its mean width. The usable area for the wire is `slot_area_mm2` when given,
             // else the slot's own area.
-            let size = match (bore_w, bottom_w, core.slot_depth_m) {
+            let size = match (bore_w, bottom_w, core.slot_depth) {
                 (Some(a), Some(b), Some(h)) => Some(((a + b) / 2.0, h)),
                 _ => None,
             };
-            d.slot_size_m = size;
+            d.slot_size = size;
             // A slot given by its width and depth is the usable rectangle, as it always was;
             // a slot left by parallel-sided teeth is the iron's, less liner and wedge.
             let usable = match k.slot_width_mm {
                 Some(_) => size.map(|(b, h)| b * h),
                 None => size.and_then(|(b, h)| crate::iron::usable_area(b, h)),
             };
-            d.slot_area_m2 = area.map(|a| a * 1e-6).or(usable);
+            d.slot_area = area.map(Area::from_mm2).or(usable);
             let rule = TurnRule::default();
             d.turn = TurnRule {
-                mean_turn_m: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
-                end_allowance_m: mm(c.within(
+                mean_turn: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
+                end_allowance: mm(c.within(
                     "core",
                     "end_allowance_mm",
                     k.end_allowance_mm,
                     0.0,
                     10_000.0,
                 )?)
-                .unwrap_or(rule.end_allowance_m),
+                .unwrap_or(rule.end_allowance),
                 end_factor: c
                     .within("core", "end_factor", k.end_factor, 0.0, 10.0)?
                     .unwrap_or(rule.end_factor),
@@ -958,11 +960,10 @@ impl RawLayout {
                         "give the bare size once: diameter_mm or awg, not both".into(),
                     ));
                 }
-                (Some(dm), None) => WireSize::Diameter(
+                (Some(dm), None) => WireSize::Diameter(Length::from_mm(
                     c.within("wire", "diameter_mm", Some(dm), 0.01, 20.0)?
-                        .unwrap_or(dm)
-                        * 1e-3,
-                ),
+                        .unwrap_or(dm),
+                )),
                 (None, Some(n)) if (-3..=56).contains(&n) => WireSize::Awg(n as i32),
                 (None, Some(n)) => {
                     return Err(c.err(
@@ -1005,11 +1006,10 @@ impl RawLayout {
                 (Some(g), None) => {
                     Insulation::Grade(c.range("wire", "grade", g, 1, 3, "IEC 60317 grade")? as u8)
                 }
-                (None, Some(o)) => Insulation::Diameter(
+                (None, Some(o)) => Insulation::Diameter(Length::from_mm(
                     c.within("wire", "insulated_diameter_mm", Some(o), 0.01, 25.0)?
-                        .unwrap_or(o)
-                        * 1e-3,
-                ),
+                        .unwrap_or(o),
+                )),
                 (None, None) => Insulation::Grade(2),
             };
             d.wire = Some(WireSpec {
@@ -1101,11 +1101,11 @@ impl RawLayout {
                         "give material or conductivity_ms_m, not both".into(),
                     ));
                 }
-                (None, Some(v)) => {
+                (None, Some(v)) => Conductivity::from_ms_m(
                     c.within("secondary", "conductivity_ms_m", Some(v), 0.1, 100.0)?
-                        .unwrap_or(v)
-                        * 1e6
-                }
+                        .unwrap_or(v),
+                )
+                .s_m(),
                 (Some(PlateMaterial::Copper), None) => crate::card::wire::COPPER.conductivity_s_m(),
                 (Some(PlateMaterial::Aluminium), None) | (None, None) => {
                     crate::card::wire::PLATE_ALUMINIUM_S_M
@@ -1153,17 +1153,18 @@ impl RawLayout {
                 500.0,
             )? {
                 Some(t) => Some(Backing {
-                    thickness_m: t * 1e-3,
-                    conductivity_s_m: c
-                        .within(
+                    thickness: Length::from_mm(t),
+                    conductivity_s_m: Conductivity::from_ms_m(
+                        c.within(
                             "secondary",
                             "backing_conductivity_ms_m",
                             s.backing_conductivity_ms_m,
                             0.0,
                             60.0,
                         )?
-                        .unwrap_or(BACKING_STEEL_MS_M)
-                        * 1e6,
+                        .unwrap_or(BACKING_STEEL_MS_M),
+                    )
+                    .s_m(),
                     relative_permeability: c
                         .within(
                             "secondary",
@@ -1183,17 +1184,17 @@ impl RawLayout {
                 alpha_per_k: alpha,
                 backing,
                 conductivity_s_m: conductivity,
-                thickness_m: c
-                    .within(
+                thickness: Length::from_mm(
+                    c.within(
                         "secondary",
                         "thickness_mm",
                         Some(s.thickness_mm),
                         0.05,
                         200.0,
                     )?
-                    .unwrap_or(s.thickness_mm)
-                    * 1e-3,
-                width_m: mm(c.within("secondary", "width_mm", s.width_mm, 1.0, 100_000.0)?),
+                    .unwrap_or(s.thickness_mm),
+                ),
+                width: mm(c.within("secondary", "width_mm", s.width_mm, 1.0, 100_000.0)?),
                 back_iron: s.back_iron.unwrap_or(true),
             });
         }
@@ -1486,7 +1487,7 @@ fn nameplate(c: &Checker, n: &RawNameplate) -> Result<crate::design::Nameplate, 
         }
         (Some(kw), None) => c
             .within(t, "power_kw", Some(kw), 0.001, 1e5)?
-            .map(|v| v * 1e3),
+            .map(crate::units::watts_of_kw),
         // 1 hp = 745.7 W (mechanical horsepower, NEMA MG 1 ratings).
         (None, Some(hp)) => c
             .within(t, "power_hp", Some(hp), 0.001, 1e5)?
@@ -1578,12 +1579,12 @@ fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
         Size::SlotWidth => "slot_width_mm",
         Size::SlotDepth => "slot_depth_mm",
     };
-    let n = |m: f64| crate::numbering::short(m * 1e3);
+    let n = |l: Length| crate::numbering::short(l.mm());
     match e {
         GeometryError::NoTooth {
             from,
-            tooth_m,
-            slot_pitch_m,
+            tooth,
+            slot_pitch,
         } => c.err(
             "core",
             0,
@@ -1592,13 +1593,13 @@ fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
                 "with core.{} this leaves teeth of {} mm at the bore: the slot pitch there \
                  is {} mm, so tooth and slot must each be narrower than that",
                 key(from[1]),
-                n(*tooth_m),
-                n(*slot_pitch_m)
+                n(*tooth),
+                n(*slot_pitch)
             ),
         ),
         GeometryError::NoSlot {
-            tooth_m,
-            slot_pitch_m,
+            tooth,
+            slot_pitch,
             pitch_from,
         } => c.err(
             "core",
@@ -1607,15 +1608,15 @@ fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
             format!(
                 "{} mm leaves no slot: with core.{} the slot pitch at the bore is {} mm, so the \
                  tooth must be narrower than that",
-                n(*tooth_m),
+                n(*tooth),
                 key(*pitch_from),
-                n(*slot_pitch_m)
+                n(*slot_pitch)
             ),
         ),
         GeometryError::ToothAndSlot {
-            tooth_m,
-            slot_m,
-            slot_pitch_m,
+            tooth,
+            slot,
+            slot_pitch,
         } => c.err(
             "core",
             0,
@@ -1623,15 +1624,15 @@ fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
             format!(
                 "tooth {} mm + slot_width_mm {} mm = {} mm, but the slot pitch at the bore is \
                  {} mm (within {} % or {} mm); give one of the two and the other follows",
-                n(*tooth_m),
-                n(*slot_m),
-                n(tooth_m + slot_m),
-                n(*slot_pitch_m),
+                n(*tooth),
+                n(*slot),
+                n(*tooth + *slot),
+                n(*slot_pitch),
                 crate::iron::GEOMETRY_TOLERANCE * 100.0,
-                crate::iron::GEOMETRY_TOLERANCE_M * 1e3
+                crate::iron::GEOMETRY_TOLERANCE_ABS.mm()
             ),
         ),
-        GeometryError::NoYoke { from, yoke_m } => c.err(
+        GeometryError::NoYoke { from, yoke } => c.err(
             "core",
             0,
             key(from[0]),
@@ -1640,18 +1641,18 @@ fn iron_error(c: &Checker, e: &crate::iron::GeometryError) -> LayoutError {
                  the outside diameter must exceed the bore by more than twice the slot depth",
                 key(from[1]),
                 key(from[2]),
-                n(*yoke_m)
+                n(*yoke)
             ),
         ),
-        GeometryError::YokeAndDiameters { given_m, derived_m } => c.err(
+        GeometryError::YokeAndDiameters { given, derived } => c.err(
             "core",
             0,
             "yoke_depth_mm",
             format!(
                 "{} mm given, but (outside_diameter_mm − bore_mm)/2 − slot_depth_mm = {} mm; \
                  give the back-iron depth or the outside diameter, and the other follows",
-                n(*given_m),
-                n(*derived_m)
+                n(*given),
+                n(*derived)
             ),
         ),
     }

@@ -12,6 +12,8 @@ use std::fmt;
 
 use serde::Serialize;
 
+use crate::units::{Area, Length};
+
 /// Closed rotary core or open, flat linear primary.
 #[derive(
     Debug, Clone, Copy, PartialEq, Eq, Serialize, schemars::JsonSchema, serde::Deserialize,
@@ -98,37 +100,29 @@ impl fmt::Display for Connection {
 }
 
 /// Core sizes, in SI units inside the program.
-#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct Core {
-    /// Slot pitch along the gap, metres.
-    pub slot_pitch_m: Option<f64>,
-    /// Bore diameter of a rotary core, metres.
-    pub bore_m: Option<f64>,
-    /// Stack length (core depth across the gap's direction of travel), metres.
-    pub stack_m: Option<f64>,
-    /// Outside diameter of a rotary core's lamination, metres (given, or from the back-iron
+    /// Slot pitch along the gap.
+    pub slot_pitch: Option<Length>,
+    /// Bore diameter of a rotary core.
+    pub bore: Option<Length>,
+    /// Stack length (core depth across the gap's direction of travel).
+    pub stack: Option<Length>,
+    /// Outside diameter of a rotary core's lamination (given, or from the back-iron
     /// depth).
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub outside_diameter_m: Option<f64>,
-    /// Back-iron (yoke) depth behind the slots, metres (given, or from the diameters).
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub yoke_depth_m: Option<f64>,
-    /// Narrowest tooth width, metres ([`crate::iron`]: given, or the slot pitch at the bore
+    pub outside_diameter: Option<Length>,
+    /// Back-iron (yoke) depth behind the slots (given, or from the diameters).
+    pub yoke_depth: Option<Length>,
+    /// Narrowest tooth width ([`crate::iron`]: given, or the slot pitch at the bore
     /// less the slot width).
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub tooth_width_m: Option<f64>,
-    /// Slot depth from the gap to the slot bottom, metres.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub slot_depth_m: Option<f64>,
-    /// Slot width at the bore (given, or the slot pitch less the tooth), metres.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub slot_width_m: Option<f64>,
+    pub tooth_width: Option<Length>,
+    /// Slot depth from the gap to the slot bottom.
+    pub slot_depth: Option<Length>,
+    /// Slot width at the bore (given, or the slot pitch less the tooth).
+    pub slot_width: Option<Length>,
     /// Slot width at the slot bottom (wider than at the bore behind parallel-sided teeth),
-    /// metres.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub slot_bottom_width_m: Option<f64>,
+    pub slot_bottom_width: Option<Length>,
     /// Steel over stack length; [`crate::iron::DEFAULT_STACKING_FACTOR`] when not given.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stacking_factor: Option<f64>,
 }
 
@@ -173,27 +167,25 @@ impl std::fmt::Display for Material {
 }
 
 /// How the wire's bare size was given.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
-#[serde(rename_all = "snake_case")]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub enum WireSize {
-    /// Bare diameter, metres.
-    Diameter(f64),
+    /// Bare diameter.
+    Diameter(Length),
     /// American Wire Gauge number (0000 is −3).
     Awg(i32),
 }
 
 /// How the insulated diameter is found.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
-#[serde(rename_all = "snake_case")]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Insulation {
     /// IEC 60317 enamel grade 1, 2 or 3.
     Grade(u8),
-    /// Overall diameter over the enamel, metres, as measured or from the maker's sheet.
-    Diameter(f64),
+    /// Overall diameter over the enamel, as measured or from the maker's sheet.
+    Diameter(Length),
 }
 
 /// The `[wire]` table.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub struct WireSpec {
     /// Bare size of one strand.
     pub size: WireSize,
@@ -206,12 +198,12 @@ pub struct WireSpec {
 }
 
 /// Rule for the mean length of one turn.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub struct TurnRule {
-    /// Mean turn as given (`core.mean_turn_mm`), metres: overrides the rule.
-    pub mean_turn_m: Option<f64>,
-    /// Allowance per turn for both end windings beyond the span-proportional part, metres.
-    pub end_allowance_m: f64,
+    /// Mean turn as given (`core.mean_turn_mm`): overrides the rule.
+    pub mean_turn: Option<Length>,
+    /// Allowance per turn for both end windings beyond the span-proportional part.
+    pub end_allowance: Length,
     /// End-winding length per coil end as a multiple of the coil's span width.
     pub end_factor: f64,
 }
@@ -220,8 +212,8 @@ impl Default for TurnRule {
     /// l_mt = 2·L + 2·1.2·W + 0.1 m (the low-voltage rule quoted under `card::copper`).
     fn default() -> Self {
         TurnRule {
-            mean_turn_m: None,
-            end_allowance_m: 0.1,
+            mean_turn: None,
+            end_allowance: Length::from_m(0.1),
             end_factor: 1.2,
         }
     }
@@ -345,14 +337,14 @@ pub struct Job {
 }
 
 /// Conductor of a flat primary's secondary plate.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Secondary {
     /// Electrical conductivity, S/m.
     pub conductivity_s_m: f64,
-    /// Plate thickness, metres.
-    pub thickness_m: f64,
-    /// Plate width across the direction of travel, metres (the stack width when not given).
-    pub width_m: Option<f64>,
+    /// Plate thickness.
+    pub thickness: Length,
+    /// Plate width across the direction of travel (the stack width when not given).
+    pub width: Option<Length>,
     /// True when the plate lies on back iron (single-sided machine); false for a plate
     /// between two primaries facing each other, both excited (a double-sided pair).
     pub back_iron: bool,
@@ -383,10 +375,10 @@ pub const BACKING_STEEL_PERMEABILITY: f64 = 500.0;
 
 /// A steel backing of given thickness behind the plate (a single-sided machine's
 /// secondary iron, when it is not taken as ideal).
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Backing {
-    /// Thickness, metres.
-    pub thickness_m: f64,
+    /// Thickness.
+    pub thickness: Length,
     /// Electrical conductivity, S/m.
     pub conductivity_s_m: f64,
     /// Relative permeability (a constant: the steel is taken as unsaturated).
@@ -432,7 +424,7 @@ impl Default for Leads {
 /// the shop's data. Synthesis reads it and nothing else; a [`crate::winding::Winding`] keeps
 /// it beside the coils it was built with (or recorded as). Every shop field is optional in
 /// the layout file.
-#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct Design {
     /// Closed or open core.
     pub topology: Topology,
@@ -467,14 +459,14 @@ pub struct Design {
     pub wire: Option<WireSpec>,
     /// Mean-turn rule.
     pub turn: TurnRule,
-    /// Usable slot area for the wire, m².
-    pub slot_area_m2: Option<f64>,
-    /// Slot width and depth of a rectangular slot, m, when given as dimensions.
-    pub slot_size_m: Option<(f64, f64)>,
-    /// Mechanical clearance between primary and secondary, metres.
-    pub airgap_m: Option<f64>,
-    /// Slot opening width at the gap, metres.
-    pub slot_opening_m: Option<f64>,
+    /// Usable slot area for the wire.
+    pub slot_area: Option<Area>,
+    /// Slot width and depth of a rectangular slot, when given as dimensions.
+    pub slot_size: Option<(Length, Length)>,
+    /// Mechanical clearance between primary and secondary.
+    pub airgap: Option<Length>,
+    /// Slot opening width at the gap.
+    pub slot_opening: Option<Length>,
     /// Phase resistance at 20 °C given directly (when no wire data), ohms.
     pub phase_resistance_ohm: Option<f64>,
     /// Leads and marking.
@@ -506,7 +498,7 @@ pub struct Design {
 }
 
 /// A single-phase stator's two windings and how the auxiliary is fed.
-#[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct SinglePhase {
     /// The main winding.
     pub main: PartSpec,
@@ -645,10 +637,10 @@ impl Design {
             supply: Supply::default(),
             wire: None,
             turn: TurnRule::default(),
-            slot_area_m2: None,
-            slot_size_m: None,
-            airgap_m: None,
-            slot_opening_m: None,
+            slot_area: None,
+            slot_size: None,
+            airgap: None,
+            slot_opening: None,
             phase_resistance_ohm: None,
             leads: Leads::default(),
             measured: None,
@@ -671,11 +663,11 @@ impl Design {
         }
     }
 
-    /// Slot pitch in metres: given directly, or from the bore of a rotary core.
-    pub fn slot_pitch_m(&self) -> Option<f64> {
-        self.core.slot_pitch_m.or_else(|| {
+    /// Slot pitch along the gap: given directly, or from the bore of a rotary core.
+    pub fn slot_pitch(&self) -> Option<Length> {
+        self.core.slot_pitch.or_else(|| {
             self.core
-                .bore_m
+                .bore
                 .filter(|_| self.topology == Topology::Rotary)
                 .map(|d| std::f64::consts::PI * d / self.slots as f64)
         })

@@ -11,6 +11,7 @@
 use std::f64::consts::PI;
 
 use crate::design::Topology;
+use crate::units::{Area, Length};
 
 /// Stacking factor (steel over stack length) when not given: 0.95 for 0.5 mm laminations
 /// with a thin coating (common practice, from memory: 0.93–0.97 is usual).
@@ -22,41 +23,41 @@ pub const DEFAULT_STACKING_FACTOR: f64 = 0.95;
 /// common practice).
 pub const GEOMETRY_TOLERANCE: f64 = 0.02;
 
-/// Absolute part of [`GEOMETRY_TOLERANCE`], metres.
-pub const GEOMETRY_TOLERANCE_M: f64 = 0.2e-3;
+/// Absolute part of [`GEOMETRY_TOLERANCE`]: 0.2 mm.
+pub const GEOMETRY_TOLERANCE_ABS: Length = Length::from_m(0.2e-3);
 
-/// Slot liner thickness taken off each side and the bottom of a slot for its usable area,
-/// metres: 0.3 mm (common practice for low-voltage random windings, from memory).
-pub const LINER_M: f64 = 0.3e-3;
+/// Slot liner thickness taken off each side and the bottom of a slot for its usable area:
+/// 0.3 mm (common practice for low-voltage random windings, from memory).
+pub const LINER: Length = Length::from_m(0.3e-3);
 
-/// Depth at the slot's mouth taken by the tooth tips, the wedge or top stick, metres:
-/// 2 mm (common practice, from memory).
-pub const WEDGE_M: f64 = 2.0e-3;
+/// Depth at the slot's mouth taken by the tooth tips, the wedge or top stick: 2 mm (common
+/// practice, from memory).
+pub const WEDGE: Length = Length::from_m(2.0e-3);
 
-/// The area a slot of mean width `b` and depth `h` (m) leaves for the wire once the liner
-/// and wedge are in: (b − 2·liner)·(h − liner − wedge), m²; `None` when nothing is left.
-pub fn usable_area(b: f64, h: f64) -> Option<f64> {
-    let (w, d) = (b - 2.0 * LINER_M, h - LINER_M - WEDGE_M);
-    (w > 0.0 && d > 0.0).then_some(w * d)
+/// The area a slot of mean width `b` and depth `h` leaves for the wire once the liner and
+/// wedge are in: (b − 2·liner)·(h − liner − wedge); `None` when nothing is left.
+pub fn usable_area(b: Length, h: Length) -> Option<Area> {
+    let (w, d) = (b - 2.0 * LINER, h - LINER - WEDGE);
+    (w > Length::ZERO && d > Length::ZERO).then_some(w * d)
 }
 
-/// The sizes of a core as measured, metres; any may be missing.
+/// The sizes of a core as measured; any may be missing.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct Measured {
     /// Slot pitch at the gap (flat primary), or `None` to take it from the bore.
-    pub slot_pitch: Option<f64>,
+    pub slot_pitch: Option<Length>,
     /// Bore diameter (rotary).
-    pub bore: Option<f64>,
+    pub bore: Option<Length>,
     /// Outside diameter of the lamination (rotary).
-    pub outside_diameter: Option<f64>,
+    pub outside_diameter: Option<Length>,
     /// Back-iron (yoke) depth behind the slots.
-    pub yoke_depth: Option<f64>,
+    pub yoke_depth: Option<Length>,
     /// Width of a parallel-sided tooth.
-    pub tooth_width: Option<f64>,
+    pub tooth_width: Option<Length>,
     /// Width of a parallel-sided slot.
-    pub slot_width: Option<f64>,
+    pub slot_width: Option<Length>,
     /// Slot depth from the gap to the slot bottom.
-    pub slot_depth: Option<f64>,
+    pub slot_depth: Option<Length>,
 }
 
 /// A size of the core, for naming the keys of a core that does not close.
@@ -82,73 +83,74 @@ pub enum Size {
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 pub enum GeometryError {
     /// The teeth come out of zero or negative width at their narrowest.
-    #[error("teeth of {tooth_m} m at the bore (slot pitch {slot_pitch_m} m)")]
+    #[error("teeth of {} m at the bore (slot pitch {} m)", .tooth.m(), .slot_pitch.m())]
     NoTooth {
         /// The sizes that give it.
         from: [Size; 2],
-        /// The tooth width they leave, m.
-        tooth_m: f64,
-        /// The slot pitch at the bore, m.
-        slot_pitch_m: f64,
+        /// The tooth width they leave.
+        tooth: Length,
+        /// The slot pitch at the bore.
+        slot_pitch: Length,
     },
     /// A tooth as wide as the slot pitch or wider leaves no slot.
-    #[error("tooth {tooth_m} m leaves no slot (slot pitch {slot_pitch_m} m)")]
+    #[error("tooth {} m leaves no slot (slot pitch {} m)", .tooth.m(), .slot_pitch.m())]
     NoSlot {
-        /// The tooth width given, m.
-        tooth_m: f64,
-        /// The slot pitch at the bore, m.
-        slot_pitch_m: f64,
+        /// The tooth width given.
+        tooth: Length,
+        /// The slot pitch at the bore.
+        slot_pitch: Length,
         /// The size the slot pitch comes from.
         pitch_from: Size,
     },
     /// Tooth and slot widths given together do not add up to the slot pitch.
-    #[error("tooth {tooth_m} m + slot {slot_m} m is not the slot pitch {slot_pitch_m} m")]
+    #[error("tooth {} m + slot {} m is not the slot pitch {} m", .tooth.m(), .slot.m(), .slot_pitch.m())]
     ToothAndSlot {
-        /// Tooth width, m.
-        tooth_m: f64,
-        /// Slot width, m.
-        slot_m: f64,
-        /// Slot pitch at the bore, m.
-        slot_pitch_m: f64,
+        /// Tooth width.
+        tooth: Length,
+        /// Slot width.
+        slot: Length,
+        /// Slot pitch at the bore.
+        slot_pitch: Length,
     },
     /// The back iron comes out of zero or negative depth.
-    #[error("back iron of {yoke_m} m")]
+    #[error("back iron of {} m", .yoke.m())]
     NoYoke {
         /// The sizes that give it.
         from: [Size; 3],
-        /// The depth they leave, m.
-        yoke_m: f64,
+        /// The depth they leave.
+        yoke: Length,
     },
     /// Back-iron depth given beside the outside diameter and slot depth disagrees with them.
-    #[error("back iron {given_m} m given, {derived_m} m from the diameters")]
+    #[error("back iron {} m given, {} m from the diameters", .given.m(), .derived.m())]
     YokeAndDiameters {
-        /// As given, m.
-        given_m: f64,
-        /// (D_o − D)/2 − h_s, m.
-        derived_m: f64,
+        /// As given.
+        given: Length,
+        /// (D_o − D)/2 − h_s.
+        derived: Length,
     },
 }
 
 /// The core's iron, every size resolved.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Sections {
-    /// Outside diameter (rotary, when it or the back-iron depth is known), m.
-    pub outside_diameter: Option<f64>,
-    /// Back-iron depth, m.
-    pub yoke_depth: Option<f64>,
-    /// Narrowest tooth width (at the bore for a parallel-sided slot), m.
-    pub tooth_width: Option<f64>,
-    /// Slot width at the bore, m.
-    pub slot_width: Option<f64>,
-    /// Slot width at the slot bottom (wider than at the bore for parallel-sided teeth), m.
-    pub slot_width_bottom: Option<f64>,
-    /// Slot depth, m.
-    pub slot_depth: Option<f64>,
+    /// Outside diameter (rotary, when it or the back-iron depth is known).
+    pub outside_diameter: Option<Length>,
+    /// Back-iron depth.
+    pub yoke_depth: Option<Length>,
+    /// Narrowest tooth width (at the bore for a parallel-sided slot).
+    pub tooth_width: Option<Length>,
+    /// Slot width at the bore.
+    pub slot_width: Option<Length>,
+    /// Slot width at the slot bottom (wider than at the bore for parallel-sided teeth).
+    pub slot_width_bottom: Option<Length>,
+    /// Slot depth.
+    pub slot_depth: Option<Length>,
 }
 
 /// Within the geometry tolerance.
-fn agrees(a: f64, b: f64) -> bool {
-    (a - b).abs() <= (GEOMETRY_TOLERANCE * a.abs().max(b.abs())).max(GEOMETRY_TOLERANCE_M)
+fn agrees(a: Length, b: Length) -> bool {
+    let (a, b) = (a.m(), b.m());
+    (a - b).abs() <= (GEOMETRY_TOLERANCE * a.abs().max(b.abs())).max(GEOMETRY_TOLERANCE_ABS.m())
 }
 
 /// Resolve a core's measured sizes: derive what follows from the rest and refuse a core
@@ -156,7 +158,7 @@ fn agrees(a: f64, b: f64) -> bool {
 pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Sections, GeometryError> {
     let rotary = topology == Topology::Rotary;
     let z = slots.max(1) as f64;
-    let pitch_at = |diameter: f64| PI * diameter / z;
+    let pitch_at = |diameter: Length| PI * diameter / z;
     let slot_pitch = m
         .slot_pitch
         .or_else(|| m.bore.filter(|_| rotary).map(pitch_at));
@@ -170,9 +172,9 @@ pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Section
         (Some(t), Some(b), Some(p)) => {
             if !agrees(t + b, p) {
                 return Err(GeometryError::ToothAndSlot {
-                    tooth_m: t,
-                    slot_m: b,
-                    slot_pitch_m: p,
+                    tooth: t,
+                    slot: b,
+                    slot_pitch: p,
                 });
             }
             (Some(t), Some(b))
@@ -182,7 +184,7 @@ pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Section
         (t, b, _) => (t, b),
     };
     if let (Some(t), Some(p)) = (tooth, slot_pitch)
-        && t <= 0.0
+        && t <= Length::ZERO
     {
         let other = if m.tooth_width.is_some() {
             Size::ToothWidth
@@ -191,16 +193,16 @@ pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Section
         };
         return Err(GeometryError::NoTooth {
             from: [other, pitch_key],
-            tooth_m: t,
-            slot_pitch_m: p,
+            tooth: t,
+            slot_pitch: p,
         });
     }
     if let (Some(b), Some(p), Some(t)) = (slot, slot_pitch, m.tooth_width)
-        && b <= 0.0
+        && b <= Length::ZERO
     {
         return Err(GeometryError::NoSlot {
-            tooth_m: t,
-            slot_pitch_m: p,
+            tooth: t,
+            slot_pitch: p,
             pitch_from: pitch_key,
         });
     }
@@ -217,19 +219,16 @@ pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Section
         match (m.bore, m.slot_depth, m.outside_diameter, m.yoke_depth) {
             (Some(d), Some(h), Some(od), given) => {
                 let derived = (od - d) / 2.0 - h;
-                if derived <= 0.0 {
+                if derived <= Length::ZERO {
                     return Err(GeometryError::NoYoke {
                         from: [Size::OutsideDiameter, Size::Bore, Size::SlotDepth],
-                        yoke_m: derived,
+                        yoke: derived,
                     });
                 }
                 if let Some(y) = given
                     && !agrees(y, derived)
                 {
-                    return Err(GeometryError::YokeAndDiameters {
-                        given_m: y,
-                        derived_m: derived,
-                    });
+                    return Err(GeometryError::YokeAndDiameters { given: y, derived });
                 }
                 (Some(od), Some(given.unwrap_or(derived)))
             }
@@ -237,7 +236,7 @@ pub fn resolve(topology: Topology, slots: usize, m: &Measured) -> Result<Section
             (Some(d), None, Some(od), _) if od <= d => {
                 return Err(GeometryError::NoYoke {
                     from: [Size::OutsideDiameter, Size::Bore, Size::SlotDepth],
-                    yoke_m: (od - d) / 2.0,
+                    yoke: (od - d) / 2.0,
                 });
             }
             (_, _, od, y) => (od, y),
@@ -263,10 +262,10 @@ mod tests {
     /// A 36-slot core of 130 mm bore: slot pitch π·130/36 = 11.345 mm (closed form).
     fn core() -> Measured {
         Measured {
-            bore: Some(0.130),
-            outside_diameter: Some(0.210),
-            slot_depth: Some(0.016),
-            slot_width: Some(0.0065),
+            bore: Some(Length::from_m(0.130)),
+            outside_diameter: Some(Length::from_m(0.210)),
+            slot_depth: Some(Length::from_m(0.016)),
+            slot_width: Some(Length::from_m(0.0065)),
             ..Measured::default()
         }
     }
@@ -275,14 +274,14 @@ mod tests {
     fn tooth_and_yoke_follow_from_the_diameters() {
         let s = resolve(Topology::Rotary, 36, &core()).unwrap();
         // t = π·130/36 − 6.5 = 4.8446 mm; y = (210 − 130)/2 − 16 = 24 mm (closed forms).
-        assert!((s.tooth_width.unwrap() - (PI * 0.130 / 36.0 - 0.0065)).abs() < 1e-15);
-        assert!((s.yoke_depth.unwrap() - 0.024).abs() < 1e-15);
+        assert!((s.tooth_width.unwrap().m() - (PI * 0.130 / 36.0 - 0.0065)).abs() < 1e-15);
+        assert!((s.yoke_depth.unwrap().m() - 0.024).abs() < 1e-15);
     }
 
     #[test]
     fn a_core_that_does_not_close_is_refused() {
         let wide = Measured {
-            slot_width: Some(0.012),
+            slot_width: Some(Length::from_m(0.012)),
             ..core()
         };
         assert!(matches!(
@@ -290,7 +289,7 @@ mod tests {
             Err(GeometryError::NoTooth { .. })
         ));
         let deep = Measured {
-            slot_depth: Some(0.040),
+            slot_depth: Some(Length::from_m(0.040)),
             ..core()
         };
         assert!(matches!(
@@ -298,7 +297,7 @@ mod tests {
             Err(GeometryError::NoYoke { .. })
         ));
         let both = Measured {
-            tooth_width: Some(0.006),
+            tooth_width: Some(Length::from_m(0.006)),
             ..core()
         };
         assert!(matches!(
@@ -306,7 +305,7 @@ mod tests {
             Err(GeometryError::ToothAndSlot { .. })
         ));
         let yoke = Measured {
-            yoke_depth: Some(0.030),
+            yoke_depth: Some(Length::from_m(0.030)),
             ..core()
         };
         assert!(matches!(
@@ -318,16 +317,16 @@ mod tests {
     #[test]
     fn a_parallel_tooth_leaves_a_widening_slot() {
         let m = Measured {
-            bore: Some(0.130),
-            slot_depth: Some(0.016),
-            tooth_width: Some(0.005),
-            yoke_depth: Some(0.024),
+            bore: Some(Length::from_m(0.130)),
+            slot_depth: Some(Length::from_m(0.016)),
+            tooth_width: Some(Length::from_m(0.005)),
+            yoke_depth: Some(Length::from_m(0.024)),
             ..Measured::default()
         };
         let s = resolve(Topology::Rotary, 36, &m).unwrap();
         // Bottom width π·(130 + 32)/36 − 5 mm; outside diameter 130 + 2·(16 + 24) = 210 mm.
         let bottom = PI * 0.162 / 36.0 - 0.005;
-        assert!((s.slot_width_bottom.unwrap() - bottom).abs() < 1e-15);
-        assert!((s.outside_diameter.unwrap() - 0.210).abs() < 1e-15);
+        assert!((s.slot_width_bottom.unwrap().m() - bottom).abs() < 1e-15);
+        assert!((s.outside_diameter.unwrap().m() - 0.210).abs() < 1e-15);
     }
 }

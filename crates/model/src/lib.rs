@@ -14,5 +14,6 @@ pub mod network;
 pub mod numbering;
 pub mod sanitize;
 pub mod spec;
+pub mod units;
 pub mod winding;
 pub mod wire;

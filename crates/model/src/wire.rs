@@ -4,6 +4,7 @@
 use serde::Serialize;
 
 use crate::design::{Insulation, Material, WireSize, WireSpec};
+use crate::units::{Area, Length};
 
 /// Electrical and mass constants of a conductor metal at 20 °C.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -32,7 +33,8 @@ impl Metal {
 /// Annealed copper: IEC 60028 (International Annealed Copper Standard) resistivity
 /// 1/58 Ω·mm²/m at 20 °C, α_20 = 0.00393/K, density 8.89 g/cm³.
 pub const COPPER: Metal = Metal {
-    resistivity_ohm_m: 1.0 / 58.0 * 1e-6,
+    // Ω·mm²/m to Ω·m: the square millimetres are an area.
+    resistivity_ohm_m: Area::from_mm2(1.0 / 58.0).m2(),
     alpha_per_k: 0.00393,
     density_kg_m3: 8890.0,
 };
@@ -40,7 +42,7 @@ pub const COPPER: Metal = Metal {
 /// Aluminium: IEC 60889 (hard-drawn aluminium for conductors) resistivity 0.028264 Ω·mm²/m
 /// at 20 °C, α_20 = 0.00403/K, density 2.703 g/cm³.
 pub const ALUMINIUM: Metal = Metal {
-    resistivity_ohm_m: 0.028264e-6,
+    resistivity_ohm_m: Area::from_mm2(0.028264).m2(),
     alpha_per_k: 0.00403,
     density_kg_m3: 2703.0,
 };
@@ -58,18 +60,21 @@ pub fn metal(m: Material) -> Metal {
     }
 }
 
-/// Bare diameter of AWG gauge `n` (0000 = −3), metres: d = 0.127 mm × 92^((36 − n)/39)
+/// Diameter of AWG gauge 36, the defining formula's base (ASTM B258).
+const AWG_36: f64 = 0.127;
+
+/// Bare diameter of AWG gauge `n` (0000 = −3): d = 0.127 mm × 92^((36 − n)/39)
 /// (ASTM B258, the defining formula).
-pub fn awg_diameter_m(n: i32) -> f64 {
-    0.127e-3 * 92f64.powf((36.0 - n as f64) / 39.0)
+pub fn awg_diameter(n: i32) -> Length {
+    Length::from_mm(AWG_36 * 92f64.powf((36.0 - n as f64) / 39.0))
 }
 
-/// The gauge whose diameter is nearest to `d` (metres) on the logarithmic scale, and whether
-/// it is within 1 % (a wire that *is* that gauge rather than merely near it).
-pub fn nearest_awg(d: f64) -> (i32, bool) {
-    let n = (36.0 - 39.0 * (d / 0.127e-3).ln() / 92f64.ln()).round() as i32;
+/// The gauge whose diameter is nearest to `d` on the logarithmic scale, and whether it is
+/// within 1 % (a wire that *is* that gauge rather than merely near it).
+pub fn nearest_awg(d: Length) -> (i32, bool) {
+    let n = (36.0 - 39.0 * (d.mm() / AWG_36).ln() / 92f64.ln()).round() as i32;
     let n = n.clamp(-3, 56);
-    let close = (awg_diameter_m(n) / d - 1.0).abs() <= 0.01;
+    let close = (awg_diameter(n) / d - 1.0).abs() <= 0.01;
     (n, close)
 }
 
@@ -83,36 +88,47 @@ const R40: [f64; 40] = [
 /// Nominal bare diameters of round enamelled winding wire from 0.100 to 5.00 mm: the R20
 /// series with its R40 intermediate sizes (ISO 3 preferred numbers), on which the nominal
 /// diameters of IEC 60317-0-1 are based (from memory).
-pub fn iec_60317_mm() -> impl Iterator<Item = f64> {
+pub fn iec_60317() -> impl Iterator<Item = Length> {
     R40.iter()
         .map(|x| x / 10.0)
         .chain(R40.iter().copied().filter(|x| *x <= 5.0))
+        .map(Length::from_mm)
 }
 
-/// Overall diameter over the enamel of a grade 1, 2 or 3 wire of bare diameter `d` (m):
-/// d + 0.031 mm·(grade + 1)·√(d/mm). An approximation to the maximum overall diameters
+/// Overall diameter over the enamel of a grade 1, 2 or 3 wire of bare diameter `d`:
+/// d + 0.031 mm·(grade + 1)·√(d/mm), a rule in millimetres. An approximation to the maximum overall diameters
 /// of IEC 60317-0-1 (within a few µm of the tabulated values at 0.2, 0.5 and 1.0 mm, from
 /// memory); give `insulated_diameter_mm` from the maker's sheet where it matters.
-pub fn grade_overall_diameter_m(d: f64, grade: u8) -> f64 {
-    let dm = d * 1e3;
-    (dm + 0.031 * (grade as f64 + 1.0) * dm.sqrt()) * 1e-3
+pub fn grade_overall_diameter(d: Length, grade: u8) -> Length {
+    let dm = d.mm();
+    Length::from_mm(dm + 0.031 * (grade as f64 + 1.0) * dm.sqrt())
 }
 
 /// A design's wire with every size resolved.
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Wire {
     /// Bare diameter of one strand, mm.
-    pub diameter_mm: f64,
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    pub diameter: Length,
     /// Bare cross-section of one strand, mm².
-    pub area_mm2: f64,
+    #[serde(rename = "area_mm2", serialize_with = "crate::units::mm2::serialize")]
+    pub area: Area,
     /// Strands wound in hand as one conductor.
     pub strands_in_hand: u32,
     /// Copper (or aluminium) cross-section of the whole conductor, mm².
-    pub conductor_area_mm2: f64,
+    #[serde(
+        rename = "conductor_area_mm2",
+        serialize_with = "crate::units::mm2::serialize"
+    )]
+    pub conductor_area: Area,
     /// AWG gauge: as given, or the gauge this diameter is (within 1 %); null otherwise.
     pub awg: Option<i32>,
     /// Overall diameter over the enamel, mm.
-    pub insulated_diameter_mm: f64,
+    #[serde(
+        rename = "insulated_diameter_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub insulated_diameter: Length,
     /// How the overall diameter was found: "grade 2 (IEC 60317)" or "as given".
     pub insulation: String,
     /// Conductor metal.
@@ -127,31 +143,26 @@ impl Wire {
                 let (n, close) = nearest_awg(d);
                 (d, close.then_some(n))
             }
-            WireSize::Awg(n) => (awg_diameter_m(n), Some(n)),
+            WireSize::Awg(n) => (awg_diameter(n), Some(n)),
         };
         let (over, insulation) = match spec.insulation {
             Insulation::Grade(g) => (
-                grade_overall_diameter_m(d, g),
+                grade_overall_diameter(d, g),
                 format!("grade {g} (IEC 60317, approximate)"),
             ),
             Insulation::Diameter(o) => (o.max(d), "as given".to_string()),
         };
-        let area = circle_area(d);
+        let area = Area::of_circle(d);
         Wire {
-            diameter_mm: d * 1e3,
-            area_mm2: area * 1e6,
+            diameter: d,
+            area,
             strands_in_hand: spec.strands_in_hand,
-            conductor_area_mm2: area * 1e6 * spec.strands_in_hand as f64,
+            conductor_area: area * spec.strands_in_hand as f64,
             awg,
-            insulated_diameter_mm: over * 1e3,
+            insulated_diameter: over,
             insulation,
             material: spec.material,
         }
-    }
-
-    /// Conductor cross-section, m².
-    pub fn conductor_area_m2(&self) -> f64 {
-        self.conductor_area_mm2 * 1e-6
     }
 }
 
@@ -161,39 +172,38 @@ pub struct StandardWire {
     /// Strands in hand.
     pub strands_in_hand: u32,
     /// Bare diameter of each strand, mm (an IEC 60317 nominal size, or an AWG gauge's).
-    pub diameter_mm: f64,
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    pub diameter: Length,
     /// AWG gauge when the size is taken from the AWG series.
     pub awg: Option<i32>,
     /// Conductor area over the wanted area (1 = exact).
     pub area_ratio: f64,
 }
 
-/// The standard wire nearest to a wanted conductor area (m²) for 1 to `max_strands` strands
+/// The standard wire nearest to a wanted conductor area for 1 to `max_strands` strands
 /// in hand, one per strand count, from the IEC 60317 metric series or the AWG series:
 /// the size whose area is nearest on the ratio scale, so neither more nor less copper is
 /// favoured. Sizes under 0.1 mm or over 5 mm are not offered.
-pub fn standard_choices(area_m2: f64, max_strands: u32, awg: bool) -> Vec<StandardWire> {
-    let sizes: Vec<(f64, Option<i32>)> = if awg {
-        (4..=38)
-            .map(|n| (awg_diameter_m(n) * 1e3, Some(n)))
-            .collect()
+pub fn standard_choices(wanted: Area, max_strands: u32, awg: bool) -> Vec<StandardWire> {
+    let sizes: Vec<(Length, Option<i32>)> = if awg {
+        (4..=38).map(|n| (awg_diameter(n), Some(n))).collect()
     } else {
-        iec_60317_mm().map(|d| (d, None)).collect()
+        iec_60317().map(|d| (d, None)).collect()
     };
     (1..=max_strands)
         .filter_map(|s| {
-            let per = area_m2 / s as f64;
+            let per = wanted / s as f64;
             sizes
                 .iter()
-                .map(|&(dmm, n)| {
-                    let a = circle_area(dmm * 1e-3);
-                    (dmm, n, a * s as f64 / area_m2, (a / per).ln().abs())
+                .map(|&(d, n)| {
+                    let a = Area::of_circle(d);
+                    (d, n, a * s as f64 / wanted, (a / per).ln().abs())
                 })
                 .min_by(|x, y| x.3.total_cmp(&y.3))
                 .filter(|x| x.3 < 0.12)
-                .map(|(dmm, n, ratio, _)| StandardWire {
+                .map(|(d, n, ratio, _)| StandardWire {
                     strands_in_hand: s,
-                    diameter_mm: dmm,
+                    diameter: d,
                     awg: n,
                     area_ratio: ratio,
                 })
@@ -201,15 +211,10 @@ pub fn standard_choices(area_m2: f64, max_strands: u32, awg: bool) -> Vec<Standa
         .collect()
 }
 
-/// Fill of a slot of usable area `area` (m²) by `wires` round wires of overall diameter
-/// `d` (m): the wires' circle areas over the area (the one fill rule of the card, the
-/// loadings and the sizing; common practice of random-wound shops).
-pub fn slot_fill(wires: f64, d: f64, area: f64) -> f64 {
-    wires * circle_area(d) / area
-}
-
-/// Area of a round conductor of diameter `d`, π·d²/4, in the square of `d`'s unit: the one
-/// rule for every wire, strand and option the tool sizes.
-pub fn circle_area(d: f64) -> f64 {
-    std::f64::consts::PI / 4.0 * d * d
+/// Fill of a slot of usable area `area` by `wires` round wires of overall diameter `d`: the
+/// wires' circle areas ([`Area::of_circle`], the one rule for every wire, strand and option
+/// the tool sizes) over the area (the one fill rule of the card, the loadings and the
+/// sizing; common practice of random-wound shops).
+pub fn slot_fill(wires: f64, d: Length, area: Area) -> f64 {
+    wires * Area::of_circle(d) / area
 }

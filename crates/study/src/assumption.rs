@@ -1,6 +1,8 @@
 //! What an analysis assumed, because a layout left a value out or the model needs it, as
 //! typed facts; `output::warning_words` puts them into words (text, JSON strings, sheets).
 
+use crate::units::{Conductivity, Length};
+
 /// One assumption an analysis made (worded by the presenters, which write it into the JSON with its `message`).
 #[derive(Debug, Clone, PartialEq, serde::Serialize, schemars::JsonSchema)]
 #[serde(tag = "kind", rename_all = "snake_case")]
@@ -39,7 +41,11 @@ pub enum Assumption {
         /// The limit, T.
         limit_tesla: f64,
         /// Backing thickness, mm.
-        thickness_mm: f64,
+        #[serde(
+            rename = "thickness_mm",
+            serialize_with = "crate::units::mm::serialize"
+        )]
+        thickness: Length,
     },
     /// No slot opening given: Carter's coefficient 1.
     NoSlotOpening,
@@ -52,7 +58,8 @@ pub enum Assumption {
     /// The magnetic gap the model used, millimetres.
     MagneticGap {
         /// Gap, mm.
-        mm: f64,
+        #[serde(rename = "mm", serialize_with = "crate::units::mm::serialize")]
+        gap: Length,
     },
     /// No full `[supply]`: currents at 50 Hz and 400 V line voltage.
     SupplyDefaulted,
@@ -97,22 +104,33 @@ pub enum Assumption {
     /// The plate's conductivity the model used, at the plate's temperature.
     PlateConductivity {
         /// MS/m.
-        ms_m: f64,
+        #[serde(rename = "ms_m", serialize_with = "crate::units::ms_m::serialize")]
+        conductivity: Conductivity,
     },
     /// The plate is narrower than the stack: the edge factor takes it as wide as the stack.
     PlateNarrowerThanStack {
         /// Plate width, mm.
-        plate_mm: f64,
+        #[serde(rename = "plate_mm", serialize_with = "crate::units::mm::serialize")]
+        plate: Length,
         /// Stack width, mm.
-        stack_mm: f64,
+        #[serde(rename = "stack_mm", serialize_with = "crate::units::mm::serialize")]
+        stack: Length,
     },
     /// The plate is thicker than its skin depth at the supply frequency, so the thin-plate
     /// model holds only at low slips.
     PlateThickerThanSkinDepth {
         /// Plate thickness, mm.
-        thickness_mm: f64,
+        #[serde(
+            rename = "thickness_mm",
+            serialize_with = "crate::units::mm::serialize"
+        )]
+        thickness: Length,
         /// Skin depth at the supply frequency (standstill), mm.
-        skin_depth_mm: f64,
+        #[serde(
+            rename = "skin_depth_mm",
+            serialize_with = "crate::units::mm::serialize"
+        )]
+        skin_depth: Length,
         /// The slip below which the plate is thinner than its skin depth.
         thin_below_slip: f64,
     },

@@ -20,6 +20,7 @@
 //! Balanced line voltages on a star without neutral: Z·I = V_ph − V_n·1 with ΣI = 0; on a
 //! delta: Z·I = V_line. The sequence currents follow Fortescue (1918).
 
+use crate::units::Length;
 use num_complex::Complex64;
 use serde::Serialize;
 use std::f64::consts::PI;
@@ -57,7 +58,11 @@ pub struct InductanceReport {
     /// Closed core or flat primary.
     pub topology: Topology,
     /// Effective gap g_e = k_C·g, mm.
-    pub effective_gap_mm: f64,
+    #[serde(
+        rename = "effective_gap_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub effective_gap: Length,
     /// Phase labels.
     pub phases: Vec<String>,
     /// Phase self and mutual inductances of the gap (winding functions), H.
@@ -212,10 +217,12 @@ pub fn winding_function_matrix(w: &Winding, c: &[Vec<f64>]) -> Result<Vec<Vec<f6
     let width = w
         .design
         .core
-        .stack_m
+        .stack
+        .map(Length::m)
         .ok_or(ThrustError::Missing(crate::thrust::Input::Stack))?;
     let ts = w
-        .slot_pitch_m()
+        .slot_pitch()
+        .map(Length::m)
         .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
     let k = MU0 * width * ts / ge;
     Ok(gram(w, c)
@@ -351,7 +358,7 @@ pub fn inductance(w: &Winding, coil_matrix: bool) -> Result<InductanceReport, Th
         design: crate::header::of(w),
         title: w.labels.title.clone(),
         topology: w.geometry.topology,
-        effective_gap_mm: ge * 1e3,
+        effective_gap: Length::from_m(ge),
         phases: w.design.phase_labels.clone(),
         matrix_h: matrix,
         leakage_h: leak,

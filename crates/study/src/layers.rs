@@ -36,6 +36,7 @@
 //! pair is two equal primaries fed alike, whose field is mirror-symmetric about the plate's
 //! mid-plane (B_x = 0 there: R = 0, half the plate for each primary).
 
+use crate::units::Length;
 use num_complex::Complex64 as C;
 use serde::Serialize;
 use std::f64::consts::PI;
@@ -244,7 +245,8 @@ impl Grid {
         most: usize,
     ) -> Result<Grid, ThrustError> {
         let ts = w
-            .slot_pitch_m()
+            .slot_pitch()
+            .map(Length::m)
             .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
         let d = &w.design;
         let k1 = PI / (ts * w.geometry.pole_pitch_slots);
@@ -264,8 +266,9 @@ impl Grid {
             .map(|i| (i as f64 + 0.5 - half as f64) * dk)
             .collect();
         let b0 = d
-            .slot_opening_m
-            .or(d.slot_size_m.map(|(b, _)| b))
+            .slot_opening
+            .map(Length::m)
+            .or(d.slot_size.map(|(b, h)| (b.m(), h.m())).map(|(b, _)| b))
             // Neither given: half the slot pitch (common practice for a slot's width;
             // a current filament of no width would have no finite inductance).
             .unwrap_or(ts / 2.0)
@@ -355,13 +358,14 @@ pub fn gap_inductances(
     let width = w
         .design
         .core
-        .stack_m
+        .stack
+        .map(Length::m)
         .ok_or(ThrustError::Missing(crate::thrust::Input::Stack))?;
     // The field model's grid rule, its air layer above a plate of that thickness (the
     // same wavenumbers reach the plate's face).
     let air = w.design.secondary.map_or(ge, |s| {
         let sides = if s.back_iron { 1.0 } else { 2.0 };
-        (ge - s.thickness_m / sides).max(1e-6)
+        (ge - s.thickness.m() / sides).max(1e-6)
     });
     let grid = Grid::of(
         w,
@@ -435,7 +439,8 @@ impl Sheet {
             .secondary
             .ok_or(ThrustError::Missing(crate::thrust::Input::Secondary))?;
         let ts = w
-            .slot_pitch_m()
+            .slot_pitch()
+            .map(Length::m)
             .ok_or(ThrustError::Missing(crate::thrust::Input::SlotPitch))?;
         let m = w.geometry.phases;
         let z = w.geometry.slots;
@@ -443,7 +448,7 @@ impl Sheet {
         let k1 = PI / tau;
         let sides = if sec.back_iron { 1.0 } else { 2.0 };
         // Per primary: the circuit's gap (already per primary for a pair) less its plate.
-        let plate_t = sec.thickness_m / sides;
+        let plate_t = sec.thickness.m() / sides;
         let air = (md.ge - plate_t).max(1e-6);
         // How far the plate's reaction trails the primary: the entry wave's length
         // τ·G·|1 − s|/π (the end-effect length of Duncan's Q), at the slowest decay asked.
@@ -469,7 +474,7 @@ impl Sheet {
             }
         }
         let stack = c.width_m;
-        let plate_w = sec.width_m.unwrap_or(stack).max(stack);
+        let plate_w = sec.width.map(Length::m).unwrap_or(stack).max(stack);
         let edge = ks
             .iter()
             .map(|k| edge_factor(stack / 2.0, plate_w / 2.0, PI / k.abs()))
@@ -477,7 +482,7 @@ impl Sheet {
         let th_air = ks.iter().map(|k| (k.abs() * air).tanh()).collect();
         let far = match (sec.back_iron, sec.backing) {
             (true, Some(b)) => Far::Steel {
-                t: b.thickness_m,
+                t: b.thickness.m(),
                 sigma: b.conductivity_s_m,
                 mu: MU0 * b.relative_permeability,
             },

@@ -5,7 +5,7 @@
 //! The presenters (`beltwright-present`) put these reports into words, tables and sheets;
 //! this crate cannot see them.
 
-use beltwright_model::{design, iron, network, numbering, spec, winding, wire};
+use beltwright_model::{design, iron, network, numbering, spec, units, winding, wire};
 
 pub mod assumption;
 pub mod audit;

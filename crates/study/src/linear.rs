@@ -5,6 +5,7 @@
 //! I. Boldea, *Linear Electric Machines, Drives and MAGLEVs Handbook*, 2013, ch. 1). Rotary
 //! core: n_s = 120·f / 2p rpm and torque T = P_airgap / ω_s (Say 1983, ch. 7).
 
+use crate::units::Length;
 use serde::Serialize;
 use std::f64::consts::PI;
 
@@ -48,7 +49,7 @@ pub struct Figures {
 pub fn figures(w: &Winding, op: Operating) -> Figures {
     let g = &w.geometry;
     let f = w.design.supply.frequency_hz;
-    let tau = w.pole_pitch_m();
+    let tau = w.pole_pitch().map(Length::m);
     let vs = tau.zip(f).map(|(t, f)| 2.0 * f * t);
     let linear = g.topology == Topology::Linear;
     let ns = f.filter(|_| !linear).map(|f| 120.0 * f / g.poles as f64);
@@ -69,7 +70,8 @@ pub fn figures(w: &Winding, op: Operating) -> Figures {
             .map(|(n, p)| p / (2.0 * PI * n / 60.0)),
         active_length_m: tau.filter(|_| linear).map(|t| t * g.poles as f64),
         total_length_m: w
-            .slot_pitch_m()
+            .slot_pitch()
+            .map(Length::m)
             .filter(|_| linear)
             .map(|s| s * g.slots as f64),
     }

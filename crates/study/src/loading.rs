@@ -20,6 +20,7 @@
 //! Electric loading A = z_Q·I_c/τ_s (conductors in a full slot times the conductor current,
 //! per slot pitch); current density J = I_c/a_c. Temperature rise: see [`heating`].
 
+use crate::units::{Area, Length};
 use serde::Serialize;
 use std::f64::consts::{PI, SQRT_2};
 
@@ -454,12 +455,18 @@ fn magnetic_at(
     let line = line.ok_or(LoadingError::Missing(Input::LineVoltage))?;
     let f = f.ok_or(LoadingError::Missing(Input::Frequency))?;
     let tau = w
-        .pole_pitch_m()
+        .pole_pitch()
+        .map(Length::m)
         .ok_or(LoadingError::Missing(Input::SlotPitch))?;
     let ts = w
-        .slot_pitch_m()
+        .slot_pitch()
+        .map(Length::m)
         .ok_or(LoadingError::Missing(Input::SlotPitch))?;
-    let l = d.core.stack_m.ok_or(LoadingError::Missing(Input::Stack))?;
+    let l = d
+        .core
+        .stack
+        .map(Length::m)
+        .ok_or(LoadingError::Missing(Input::Stack))?;
     let (n, kw) = weakest_phase(w);
     let n = n * turns_share;
     if n <= 0.0 || kw <= 1e-9 {
@@ -469,17 +476,18 @@ fn magnetic_at(
     let phi = flux_per_pole(e, f, n * kw);
     let gap_peak = gap_peak(phi, tau, l);
     let k_fe = d.core.stacking();
-    let tooth = d.core.tooth_width_m.map(|t| Density {
+    let tooth = d.core.tooth_width.map(Length::m).map(|t| Density {
         peak_t: gap_peak * ts / (k_fe * t),
         limit_t: limits.tooth_t,
     });
-    let yoke = d.core.yoke_depth_m.map(|h| Density {
+    let yoke = d.core.yoke_depth.map(Length::m).map(|h| Density {
         peak_t: phi / (2.0 * k_fe * l * h),
         limit_t: limits.yoke_t,
     });
     let tooth_mean_t = d
         .core
-        .tooth_width_m
+        .tooth_width
+        .map(Length::m)
         .map(|t| phi / (w.geometry.pole_pitch_slots * k_fe * t * l));
     Ok(Magnetic {
         emf_ratio,
@@ -524,7 +532,7 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
     let rated = rated.or_else(|| rated_current(d.nameplate.as_ref(), d.supply.line_voltage_v))?;
     let (phase, cond) = conductor_current(w, rated.line_a());
     let z = conductors_per_slot(w);
-    let ts = w.slot_pitch_m()?;
+    let ts = w.slot_pitch().map(Length::m)?;
     // A = z·I/τ_s, every slot filled; a winding in every other slot fills half of them.
     let filled = if w.design.alternate_slots.is_some() {
         0.5
@@ -533,7 +541,8 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
     };
     let a = filled * z as f64 * cond / ts;
     let j = d.wire.as_ref().map(|spec| Checked {
-        value: cond / Wire::of(spec).conductor_area_mm2,
+        // A/mm², the unit the trade's limits are given in.
+        value: cond / Wire::of(spec).conductor_area.mm2(),
         limit: limits.current_density_a_mm2,
     });
     Some(Electric {
@@ -543,7 +552,8 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
         conductors_per_slot: z,
         electric_loading_a_m: a,
         current_density_a_mm2: j,
-        heat_load_a2_mm3: j.map(|j| a * 1e-3 * j.value),
+        // A/m over the millimetres in a metre: A/mm, so that A·J is in A²/mm³.
+        heat_load_a2_mm3: j.map(|j| a / Length::from_m(1.0).mm() * j.value),
     })
 }
 
@@ -603,24 +613,24 @@ pub fn heating(w: &Winding, m: &Magnetic, e: &Electric, coefficient: f64) -> Opt
         reference,
     );
     let copper = w.geometry.phases as f64 * e.phase_current_a.powi(2) * r_hot;
-    let l = d.core.stack_m?;
+    let l = d.core.stack.map(Length::m)?;
     let k_fe = m.stacking_factor;
-    let ts = w.slot_pitch_m()?;
+    let ts = w.slot_pitch().map(Length::m)?;
     let length = ts * w.geometry.slots as f64;
     let surface = match w.geometry.topology {
-        Topology::Rotary => PI * d.core.outside_diameter_m? * l,
+        Topology::Rotary => PI * d.core.outside_diameter.map(Length::m)? * l,
         Topology::Linear => length * l,
     };
     let scale = |b: f64| STEEL_LOSS_W_KG * (b / 1.5).powi(2) * (m.frequency_hz / 50.0).powf(1.5);
     let iron = match (
-        d.core.tooth_width_m,
-        d.core.slot_depth_m,
-        d.core.yoke_depth_m,
+        d.core.tooth_width.map(Length::m),
+        d.core.slot_depth.map(Length::m),
+        d.core.yoke_depth.map(Length::m),
     ) {
         (Some(t), Some(h), Some(y)) => {
             let teeth_kg = w.geometry.slots as f64 * t * h * l * k_fe * STEEL_DENSITY_KG_M3;
             let yoke_len = match w.geometry.topology {
-                Topology::Rotary => PI * (d.core.outside_diameter_m? - y),
+                Topology::Rotary => PI * (d.core.outside_diameter.map(Length::m)? - y),
                 Topology::Linear => length,
             };
             let yoke_kg = yoke_len * y * l * k_fe * STEEL_DENSITY_KG_M3;
@@ -650,10 +660,10 @@ pub fn heating(w: &Winding, m: &Magnetic, e: &Electric, coefficient: f64) -> Opt
 /// slot area are known.
 pub fn slot_fill(w: &Winding, limits: &Limits) -> Option<Checked> {
     let wire = Wire::of(w.design.wire.as_ref()?);
-    let area = w.design.slot_area_m2?;
+    let area = w.design.slot_area?;
     let wires = conductors_per_slot(w) as f64 * wire.strands_in_hand as f64;
     Some(Checked {
-        value: crate::wire::slot_fill(wires, wire.insulated_diameter_mm * 1e-3, area),
+        value: crate::wire::slot_fill(wires, wire.insulated_diameter, area),
         limit: limits.slot_fill,
     })
 }
@@ -724,13 +734,13 @@ pub fn of_rated(
     if d.wire.is_none() {
         unchecked.push(Unchecked::Wire);
     }
-    if d.slot_area_m2.is_none() {
+    if d.slot_area.map(Area::m2).is_none() {
         unchecked.push(Unchecked::SlotArea);
     }
     if electric.is_some()
         && heating.is_none()
         && w.geometry.topology == Topology::Rotary
-        && d.core.outside_diameter_m.is_none()
+        && d.core.outside_diameter.map(Length::m).is_none()
     {
         unchecked.push(Unchecked::CoolingSurface);
     }

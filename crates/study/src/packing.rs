@@ -4,14 +4,15 @@
 //! separator; nothing goes above the wedge. A count that does not go in this way will not
 //! go in by hand either (common practice: random-wound coils settle into rows at best).
 
-use crate::iron::{LINER_M, WEDGE_M};
+use crate::iron::{LINER, WEDGE};
+use crate::units::Length;
 use crate::winding::Winding;
 
-/// Thickness of the separator between two coil sides in one slot, metres: 0.3 mm (common
-/// practice for low-voltage random windings, from memory).
-pub const SEPARATOR_M: f64 = 0.3e-3;
+/// Thickness of the separator between two coil sides in one slot: 0.3 mm (common practice
+/// for low-voltage random windings, from memory).
+pub const SEPARATOR: Length = Length::from_m(0.3e-3);
 
-/// A slot's outline, metres.
+/// A slot's outline, metres (the packing's and the slot-section sheet's working numbers).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Outline {
     /// Width at the gap.
@@ -28,12 +29,12 @@ impl Outline {
     /// The slot of `w`'s core, when its width and depth are known.
     pub fn of(w: &Winding) -> Option<Outline> {
         let c = &w.design.core;
-        let top = c.slot_width_m?;
+        let top = c.slot_width.map(Length::m)?;
         Some(Outline {
             top,
-            bottom: c.slot_bottom_width_m.unwrap_or(top),
-            depth: c.slot_depth_m?,
-            opening: w.design.slot_opening_m.unwrap_or(top).min(top),
+            bottom: c.slot_bottom_width.map(Length::m).unwrap_or(top),
+            depth: c.slot_depth.map(Length::m)?,
+            opening: w.design.slot_opening.map(Length::m).unwrap_or(top).min(top),
         })
     }
 
@@ -74,25 +75,26 @@ impl Packing {
 
 /// Lay `sides` (wires per coil side, bottom side first) of overall diameter `d` (m) in `o`.
 pub fn pack(o: &Outline, d: f64, sides: &[u64]) -> Packing {
+    let (liner, wedge, separator) = (LINER.m(), WEDGE.m(), SEPARATOR.m());
     let wanted: u64 = sides.iter().sum();
     let mut laid = Vec::with_capacity(wanted.min(10_000) as usize);
     let mut separators = Vec::new();
     let pitch = d * 3f64.sqrt() / 2.0;
-    let mut y = o.depth - LINER_M - d / 2.0;
+    let mut y = o.depth - liner - d / 2.0;
     'sides: for (side, &n) in sides.iter().enumerate() {
         if side > 0 && !laid.is_empty() {
             // A fresh row over the separator: the last row's top, the separator, then a
             // whole wire.
-            separators.push(y - d / 2.0 - SEPARATOR_M / 2.0);
-            y -= d + SEPARATOR_M;
+            separators.push(y - d / 2.0 - separator / 2.0);
+            y -= d + separator;
         }
         let mut left = n;
         let mut row = 0usize;
         while left > 0 {
-            if y - d / 2.0 < WEDGE_M {
+            if y - d / 2.0 < wedge {
                 break 'sides;
             }
-            let half = o.width_at(y) / 2.0 - LINER_M - d / 2.0;
+            let half = o.width_at(y) / 2.0 - liner - d / 2.0;
             let shift = if row % 2 == 1 { d / 2.0 } else { 0.0 };
             let mut x = -half + shift;
             let mut in_row = 0;
@@ -184,7 +186,7 @@ mod tests {
         // The second side's row lies a wire and a separator above the first's.
         let y0 = p.laid[0].y;
         let y1 = p.laid[5].y;
-        assert!((y0 - y1 - (1e-3 + SEPARATOR_M)).abs() < 1e-15);
+        assert!((y0 - y1 - (1e-3 + SEPARATOR.m())).abs() < 1e-15);
         // Depth 20 mm less liner and wedge holds at most 20 close rows of about 9 wires.
         assert!(!pack(&o, 1e-3, &[400]).fits());
     }

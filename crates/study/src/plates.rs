@@ -3,6 +3,7 @@
 //! primary (`layers`: skin effect in thick plates, end effects of the finite primary), with
 //! standstill thrust, peak thrust and its speed, and the plate's heat at standstill.
 
+use crate::units::{Conductivity, Length};
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -37,7 +38,10 @@ impl Metal {
                 crate::wire::COPPER.conductivity_s_m(),
                 crate::wire::COPPER.alpha_per_k,
             ),
-            Metal::Conductivity { ms_m } => (ms_m * 1e6, crate::wire::ALUMINIUM.alpha_per_k),
+            Metal::Conductivity { ms_m } => (
+                Conductivity::from_ms_m(ms_m).s_m(),
+                crate::wire::ALUMINIUM.alpha_per_k,
+            ),
         }
     }
 }
@@ -45,12 +49,12 @@ impl Metal {
 /// What to compare; an empty list keeps the layout's own value.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct PlateQuery {
-    /// Plate thicknesses, mm.
-    pub thickness_mm: Vec<f64>,
+    /// Plate thicknesses.
+    pub thickness: Vec<Length>,
     /// Plate metals.
     pub metal: Vec<Metal>,
-    /// Mechanical clearances, mm.
-    pub clearance_mm: Vec<f64>,
+    /// Mechanical clearances.
+    pub clearance: Vec<Length>,
     /// Phase currents, A r.m.s. (empty: fed from the supply voltage).
     pub current_a: Vec<f64>,
 }
@@ -62,13 +66,25 @@ const CURVE_STEPS: usize = 40;
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PlateChoice {
     /// Plate thickness, mm.
-    pub thickness_mm: f64,
+    #[serde(
+        rename = "thickness_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub thickness: Length,
     /// The metal as asked (null: the layout's plate).
     pub metal: Option<Metal>,
     /// Conductivity used, at the plate's temperature, MS/m.
-    pub conductivity_ms_m: f64,
+    #[serde(
+        rename = "conductivity_ms_m",
+        serialize_with = "crate::units::ms_m::serialize"
+    )]
+    pub conductivity: Conductivity,
     /// Mechanical clearance, mm.
-    pub clearance_mm: f64,
+    #[serde(
+        rename = "clearance_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub clearance: Length,
     /// Phase current fed, A (null: fed from the supply voltage).
     pub current_a: Option<f64>,
     /// Thrust at standstill, N.
@@ -127,11 +143,11 @@ pub const MAX_CHOICES: usize = 200;
 pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> {
     let d = &w.design;
     let own = d.secondary;
-    let own_t = own.map(|s| s.thickness_m * 1e3);
-    let thicknesses: Vec<f64> = if q.thickness_mm.is_empty() {
+    let own_t = own.map(|s| s.thickness);
+    let thicknesses: Vec<Length> = if q.thickness.is_empty() {
         vec![own_t.ok_or(ThrustError::Missing(Input::Secondary))?]
     } else {
-        q.thickness_mm.clone()
+        q.thickness.clone()
     };
     let metals: Vec<Option<Metal>> = if q.metal.is_empty() {
         own.ok_or(ThrustError::Missing(Input::Secondary))?;
@@ -139,10 +155,10 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
     } else {
         q.metal.iter().copied().map(Some).collect()
     };
-    let clearances: Vec<f64> = if q.clearance_mm.is_empty() {
-        vec![d.airgap_m.ok_or(ThrustError::Missing(Input::Airgap))? * 1e3]
+    let clearances: Vec<Length> = if q.clearance.is_empty() {
+        vec![d.airgap.ok_or(ThrustError::Missing(Input::Airgap))?]
     } else {
-        q.clearance_mm.clone()
+        q.clearance.clone()
     };
     let currents: Vec<Option<f64>> = if q.current_a.is_empty() {
         vec![None]
@@ -172,19 +188,19 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
             let mut w2 = w.clone();
             let mut sec = own.unwrap_or(crate::design::Secondary {
                 conductivity_s_m: crate::wire::PLATE_ALUMINIUM_S_M,
-                thickness_m: t * 1e-3,
-                width_m: None,
+                thickness: t,
+                width: None,
                 back_iron: true,
                 temperature_c: 20.0,
                 alpha_per_k: crate::wire::ALUMINIUM.alpha_per_k,
                 backing: None,
             });
-            sec.thickness_m = t * 1e-3;
+            sec.thickness = t;
             if let Some(m) = metal {
                 (sec.conductivity_s_m, sec.alpha_per_k) = m.constants();
             }
             w2.design.secondary = Some(sec);
-            w2.design.airgap_m = Some(g * 1e-3);
+            w2.design.airgap = Some(g);
             let feed = match current {
                 Some(i) => Feed::Current { phase_current_a: i },
                 None => Feed::Voltage {
@@ -205,18 +221,18 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
                     .chain(crate::thrust::current_density(&w2, largest, 1.0))
                     .collect();
             let vs = fm.rows.last().map_or(0.0, |r| r.speed_m_s);
-            let area = crate::thrust::plate_area_under_m2(&w2).filter(|a| *a > 0.0);
+            let area = crate::thrust::plate_area_under(&w2).filter(|a| a.m2() > 0.0);
             Ok(PlateChoice {
-                thickness_mm: t,
+                thickness: t,
                 metal,
-                conductivity_ms_m: sec.conductivity_hot_s_m() * 1e-6,
-                clearance_mm: g,
+                conductivity: Conductivity::from_s_m(sec.conductivity_hot_s_m()),
+                clearance: g,
                 current_a: current,
                 standstill_thrust_n: still.thrust_n,
                 peak_thrust_n: fm.max_thrust_n,
                 peak_speed_m_s: (1.0 - fm.max_thrust_slip) * vs,
                 standstill_heat_w: still.secondary_loss_w,
-                standstill_heat_w_cm2: area.map(|a| still.secondary_loss_w / (a * 1e4)),
+                standstill_heat_w_cm2: area.map(|a| still.secondary_loss_w / a.cm2()),
                 standstill_current_a: still.phase_currents_a.iter().copied().fold(0.0, f64::max),
                 warnings,
                 grid_bounded: fm.window_wanted_m > fm.window_m * (1.0 + 1e-9),
@@ -229,7 +245,8 @@ pub fn plates(w: &Winding, q: &PlateQuery) -> Result<PlatesReport, PlatesError> 
         design: crate::header::of(w),
         title: w.labels.title.clone(),
         synchronous_speed_m_s: w
-            .pole_pitch_m()
+            .pole_pitch()
+            .map(Length::m)
             .zip(d.supply.frequency_hz)
             .map_or(0.0, |(tau, f)| 2.0 * f * tau),
         choices,

@@ -2,6 +2,7 @@
 //! worked out once when it is added, and how near a filed record comes to what is asked for.
 //! No storage here: the binary keeps the book (SQLite or PostgreSQL) and reads these types.
 
+use crate::units::Length;
 use serde::{Deserialize, Serialize};
 
 use crate::card::DataCard;
@@ -125,7 +126,8 @@ pub fn figures(w: &Winding, header: &DesignHeader, card: &DataCard) -> Figures {
     let job = d.job.as_ref();
     let magnetic = loading::magnetic(w, &Limits::default(), 1.0).ok();
     let (line, f) = loading::supply_of(d);
-    let mm = |m: Option<f64>| m.map(|v| v * 1e3);
+    // The book's row keeps sizes in the trade's millimetres, as stored and searched.
+    let mm = |l: Option<Length>| l.map(Length::mm);
     let count = |n: usize| u32::try_from(n).unwrap_or(u32::MAX);
     Figures {
         title: header.title.clone(),
@@ -144,18 +146,18 @@ pub fn figures(w: &Winding, header: &DesignHeader, card: &DataCard) -> Figures {
         },
         winding_factor: header.winding_factor,
         series_turns_per_phase: card.series_turns_per_phase,
-        wire_mm: card.wire.as_ref().map(|x| x.diameter_mm),
+        wire_mm: mm(card.wire.as_ref().map(|x| x.diameter)),
         strands_in_hand: card.wire.as_ref().map(|x| x.strands_in_hand),
         awg: card.wire.as_ref().and_then(|x| x.awg),
-        bore_mm: mm(d.core.bore_m),
-        stack_mm: mm(d.core.stack_m),
+        bore_mm: mm(d.core.bore),
+        stack_mm: mm(d.core.stack),
         phase_resistance_20c_ohm: card.phase_resistance_20c_ohm,
         line_resistance_20c_ohm: card.line_resistance_20c_ohm,
         copper_mass_kg: card.copper_mass_kg,
         gap_t: magnetic.as_ref().map(|m| m.gap.peak_t),
         tooth_t: magnetic.as_ref().and_then(|m| m.tooth.map(|t| t.peak_t)),
         yoke_t: magnetic.as_ref().and_then(|m| m.yoke.map(|t| t.peak_t)),
-        power_kw: plate.and_then(|p| p.power_w).map(|p| p / 1e3),
+        power_kw: plate.and_then(|p| p.power_w).map(crate::units::in_kilo),
         // The stamped voltages, else the supply's line voltage the winding is planned for.
         voltages_v: plate
             .map(|p| p.voltages_v.clone())

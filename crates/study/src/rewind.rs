@@ -12,6 +12,7 @@
 //! so with the same ampere-conductors per slot (electric loading) the current density is the
 //! same (common practice of rewind shops).
 
+use crate::units::{Area, Length};
 use serde::Serialize;
 use std::f64::consts::PI;
 
@@ -24,10 +25,10 @@ use crate::winding::{Connection, Topology, Winding};
 /// The old conductor as the rewinder measured it.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum OldConductor {
-    /// Bare copper cross-section of one wire, mm².
-    AreaMm2(f64),
-    /// Bare copper diameter of one wire, mm.
-    DiameterMm(f64),
+    /// Bare copper cross-section of one wire.
+    Area(Area),
+    /// Bare copper diameter of one wire.
+    Diameter(Length),
 }
 
 /// Why a rewind was refused, as typed facts. Their sentences are the presenters'
@@ -108,14 +109,26 @@ pub struct DesignSide {
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ConductorResult {
     /// Old copper area of one wire, mm².
-    pub old_area_mm2: f64,
+    #[serde(
+        rename = "old_area_mm2",
+        serialize_with = "crate::units::mm2::serialize"
+    )]
+    pub old_area: Area,
     /// Old wire diameter, when given as a diameter, mm.
-    pub old_diameter_mm: Option<f64>,
+    #[serde(
+        rename = "old_diameter_mm",
+        serialize_with = "crate::units::opt_mm::serialize"
+    )]
+    pub old_diameter: Option<Length>,
     /// Wires in hand (in parallel per conductor) of the old winding.
     pub wires_in_hand: u32,
     /// Copper area per conductor (all wires in hand) of the new winding, mm², for the
     /// rounded turns.
-    pub new_conductor_area_mm2: f64,
+    #[serde(
+        rename = "new_conductor_area_mm2",
+        serialize_with = "crate::units::mm2::serialize"
+    )]
+    pub new_conductor_area: Area,
     /// Choices of wires in hand and the bare diameter each wire then needs.
     pub options: Vec<WireOption>,
     /// Current per conductor, new over old (same current density).
@@ -151,7 +164,8 @@ pub struct WireOption {
     /// Wires in hand.
     pub wires_in_hand: u32,
     /// Bare diameter of each wire, mm.
-    pub diameter_mm: f64,
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    pub diameter: Length,
 }
 
 /// The recalculated turns and conductor.
@@ -199,11 +213,6 @@ pub struct RewindReport {
     /// (The presenters write this field into the JSON, each fact with its `message`.)
     #[serde(skip)]
     pub warnings: Vec<crate::warnings::DesignWarning>,
-}
-
-/// Circle area from a diameter, mm².
-pub fn area_of_diameter(d_mm: f64) -> f64 {
-    crate::wire::circle_area(d_mm)
 }
 
 fn side(w: &Winding, line: Option<f64>, freq: Option<f64>, turns: Option<f64>) -> DesignSide {
@@ -310,8 +319,8 @@ pub fn rewind(
         .zip(line_old)
         .map(|(f, _)| loading::flux_per_pole(v_old, f, o.series_turns * o.winding_factor));
     let peak_flux_density_t = flux_per_pole_wb
-        .zip(old.pole_pitch_m())
-        .zip(old.design.core.stack_m)
+        .zip(old.pole_pitch().map(Length::m))
+        .zip(old.design.core.stack.map(Length::m))
         .map(|((phi, tau), l)| loading::gap_peak(phi, tau, l));
     // Both designs' loadings on the core, when its sizes and each supply are known.
     let limits = loading::Limits::default();
@@ -330,30 +339,30 @@ pub fn rewind(
     let (conductor, wires_in_hand) = match (conductor, &from_layout) {
         (Some(c), _) => (Some(c), wires_in_hand),
         (None, Some(wr)) => (
-            Some(OldConductor::DiameterMm(wr.diameter_mm)),
+            Some(OldConductor::Diameter(wr.diameter)),
             wr.strands_in_hand,
         ),
         (None, None) => (None, wires_in_hand),
     };
-    let slot_area = new.design.slot_area_m2.or(old.design.slot_area_m2);
+    let slot_area = new.design.slot_area.or(old.design.slot_area);
     let conductor = conductor.map(|c| {
         let (wire, diameter) = match c {
-            OldConductor::AreaMm2(a) => (a, None),
-            OldConductor::DiameterMm(d) => (area_of_diameter(d), Some(d)),
+            OldConductor::Area(a) => (a, None),
+            OldConductor::Diameter(d) => (Area::of_circle(d), Some(d)),
         };
         let old_area = wire * wires_in_hand as f64;
         let new_area = old_area * o.conductors_per_slot / n.conductors_per_slot;
-        let current = new_area / old_area;
+        let current: f64 = new_area / old_area;
         let phase_current = current * a_new / old.parallel_paths as f64;
         ConductorResult {
-            old_area_mm2: wire,
-            old_diameter_mm: diameter,
+            old_area: wire,
+            old_diameter: diameter,
             wires_in_hand,
-            new_conductor_area_mm2: new_area,
+            new_conductor_area: new_area,
             options: (1..=4)
                 .map(|k| WireOption {
                     wires_in_hand: k,
-                    diameter_mm: (4.0 * new_area / (PI * k as f64)).sqrt(),
+                    diameter: Length::from_m((4.0 * new_area.m2() / (PI * k as f64)).sqrt()),
                 })
                 .collect(),
             conductor_current_ratio: current,
@@ -395,21 +404,20 @@ pub fn rewind(
     })
 }
 
-/// Standard wires for a conductor of `area_mm2`, with the fill of a slot of
+/// Standard wires for a conductor of `area`, with the fill of a slot of
 /// `conductors_per_slot` conductors (grade 2 enamel) when the slot area is known.
 fn standard(
-    area_mm2: f64,
+    area: Area,
     conductors_per_slot: f64,
-    slot_area_m2: Option<f64>,
+    slot_area: Option<Area>,
     awg: bool,
 ) -> Vec<StandardOption> {
-    wires::standard_choices(area_mm2 * 1e-6, 4, awg)
+    wires::standard_choices(area, 4, awg)
         .into_iter()
         .map(|wire| {
-            let d = wires::grade_overall_diameter_m(wire.diameter_mm * 1e-3, 2);
-            let fill = slot_area_m2.map(|a| {
-                conductors_per_slot * wire.strands_in_hand as f64 * crate::wire::circle_area(d) / a
-            });
+            let d = wires::grade_overall_diameter(wire.diameter, 2);
+            let fill = slot_area
+                .map(|a| wires::slot_fill(conductors_per_slot * wire.strands_in_hand as f64, d, a));
             StandardOption {
                 wire,
                 slot_fill: fill,

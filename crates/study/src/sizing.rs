@@ -19,6 +19,7 @@
 //! winding's loadings, resistance and copper mass come from [`crate::loading`] and the card:
 //! the sizing owns none of those figures.
 
+use crate::units::{Area, Length};
 use serde::Serialize;
 use std::f64::consts::PI;
 
@@ -28,11 +29,11 @@ use crate::pitch::{self, PitchGoal};
 use crate::spec::{MAX_TURNS, Spec};
 use crate::thrust::Input;
 use crate::winding::{self, Winding};
-use crate::wire::{self as wires, circle_area};
+use crate::wire as wires;
 
-/// Largest strand diameter offered for random-wound coils, mm: 1.6 (common practice, from
+/// Largest strand diameter offered for random-wound coils: 1.6 mm (common practice, from
 /// memory: thicker wire is hard to shape by hand and to insert through the slot opening).
-pub const MAX_STRAND_MM: f64 = 1.6;
+pub const MAX_STRAND: Length = Length::from_m(1.6e-3);
 
 /// Most strands in hand offered.
 pub const MAX_STRANDS: u32 = 4;
@@ -160,7 +161,8 @@ pub struct WireChoice {
     /// Strands in hand.
     pub strands_in_hand: u32,
     /// Bare diameter, mm.
-    pub diameter_mm: f64,
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    pub diameter: Length,
     /// AWG gauge, when from that series.
     pub awg: Option<i32>,
     /// Current density at rated current, A/mm².
@@ -263,22 +265,28 @@ fn supply(d: &Design) -> Result<(f64, f64), SizingError> {
 pub fn flux_limit(w: &Winding, limits: &Limits) -> Result<(f64, loading::Part), SizingError> {
     let d = &w.design;
     let tau = w
-        .pole_pitch_m()
+        .pole_pitch()
+        .map(Length::m)
         .ok_or(SizingError::Missing(Input::SlotPitch))?;
     let ts = w
-        .slot_pitch_m()
+        .slot_pitch()
+        .map(Length::m)
         .ok_or(SizingError::Missing(Input::SlotPitch))?;
-    let l = d.core.stack_m.ok_or(SizingError::Missing(Input::Stack))?;
+    let l = d
+        .core
+        .stack
+        .map(Length::m)
+        .ok_or(SizingError::Missing(Input::Stack))?;
     let k = d.core.stacking();
     let of_gap = |b: f64| 2.0 / PI * b * tau * l;
     let mut best = (of_gap(limits.gap_t), loading::Part::Gap);
-    if let Some(t) = d.core.tooth_width_m {
+    if let Some(t) = d.core.tooth_width.map(Length::m) {
         let phi = of_gap(limits.tooth_t * k * t / ts);
         if phi < best.0 {
             best = (phi, loading::Part::Teeth);
         }
     }
-    if let Some(h) = d.core.yoke_depth_m {
+    if let Some(h) = d.core.yoke_depth.map(Length::m) {
         let phi = 2.0 * limits.yoke_t * k * l * h;
         if phi < best.0 {
             best = (phi, loading::Part::Yoke);
@@ -288,49 +296,50 @@ pub fn flux_limit(w: &Winding, limits: &Limits) -> Result<(f64, loading::Part), 
 }
 
 /// The standard wire for conductor current `i` (A) in `w`: the fewest strands of at most
-/// [`MAX_STRAND_MM`] that keep the current density within its limit. When the slot area is
+/// [`MAX_STRAND`] that keep the current density within its limit. When the slot area is
 /// known, the largest size of that strand count that keeps the fill within its limit (the
 /// slot filled as a winder fills it, for the least copper loss); otherwise the smallest
 /// size within the current-density limit.
 pub fn wire_for(w: &Winding, i: f64, limits: &Limits, awg: bool) -> Option<WireChoice> {
     let z = loading::conductors_per_slot(w) as f64;
+    // The limit is in the trade's A/mm², so the area wanted is in mm².
     let need_mm2 = i / limits.current_density_a_mm2;
-    let sizes: Vec<(f64, Option<i32>)> = if awg {
+    let sizes: Vec<(Length, Option<i32>)> = if awg {
         (4..=40)
             .rev()
-            .map(|n| (wires::awg_diameter_m(n) * 1e3, Some(n)))
+            .map(|n| (wires::awg_diameter(n), Some(n)))
             .collect()
     } else {
-        wires::iec_60317_mm().map(|d| (d, None)).collect()
+        wires::iec_60317().map(|d| (d, None)).collect()
     };
-    let fill_of = |s: u32, d: f64| {
-        let over = wires::grade_overall_diameter_m(d * 1e-3, 2);
+    let fill_of = |s: u32, d: Length| {
+        let over = wires::grade_overall_diameter(d, 2);
         w.design
-            .slot_area_m2
+            .slot_area
             .map(|a| wires::slot_fill(z * s as f64, over, a))
     };
     (1..=MAX_STRANDS).find_map(|s| {
-        let carries = |d: f64| s as f64 * circle_area(d) >= need_mm2 * (1.0 - 1e-12);
+        let carries = |d: Length| s as f64 * Area::of_circle(d).mm2() >= need_mm2 * (1.0 - 1e-12);
         // Within the fill limit, and laid in rows it goes in (the section sheet's rule).
-        let fits = |d: f64| {
+        let fits = |d: Length| {
             fill_of(s, d).is_none_or(|f| f <= limits.slot_fill)
-                && crate::packing::of(w, wires::grade_overall_diameter_m(d * 1e-3, 2), s)
+                && crate::packing::of(w, wires::grade_overall_diameter(d, 2).m(), s)
                     .is_none_or(|p| p.fits())
         };
         let usable = sizes
             .iter()
             .copied()
-            .filter(|(d, _)| *d <= MAX_STRAND_MM && carries(*d) && fits(*d));
-        let (d, n) = if w.design.slot_area_m2.is_some() {
-            usable.max_by(|a, b| a.0.total_cmp(&b.0))?
+            .filter(|(d, _)| *d <= MAX_STRAND && carries(*d) && fits(*d));
+        let (d, n) = if w.design.slot_area.is_some() {
+            usable.max_by(|a, b| a.0.m().total_cmp(&b.0.m()))?
         } else {
-            usable.min_by(|a, b| a.0.total_cmp(&b.0))?
+            usable.min_by(|a, b| a.0.m().total_cmp(&b.0.m()))?
         };
         Some(WireChoice {
             strands_in_hand: s,
-            diameter_mm: d,
+            diameter: d,
             awg: n,
-            current_density_a_mm2: i / (s as f64 * circle_area(d)),
+            current_density_a_mm2: i / (s as f64 * Area::of_circle(d).mm2()),
             slot_fill: fill_of(s, d),
         })
     })
@@ -339,7 +348,7 @@ pub fn wire_for(w: &Winding, i: f64, limits: &Limits, awg: bool) -> Option<WireC
 /// The largest standard wire (fewest strands first) that fits the slot within the fill
 /// limit whatever the current density, when the slot area is known.
 fn largest_fitting(w: &Winding, limits: &Limits, awg: bool) -> Option<WireChoice> {
-    w.design.slot_area_m2?;
+    w.design.slot_area?;
     let loose = Limits {
         current_density_a_mm2: f64::INFINITY,
         ..*limits
@@ -352,7 +361,7 @@ fn spec_of(c: &WireChoice, material: Material) -> WireSpec {
     WireSpec {
         size: match c.awg {
             Some(n) => WireSize::Awg(n),
-            None => WireSize::Diameter(c.diameter_mm * 1e-3),
+            None => WireSize::Diameter(c.diameter),
         },
         strands_in_hand: c.strands_in_hand,
         insulation: Insulation::Grade(2),
@@ -664,7 +673,8 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
             })
             .map_err(|e| SizingError::NoWinding(e.to_string()))?;
             largest_fitting(&probe, &req.limits, req.awg).map(|c| WireChoice {
-                current_density_a_mm2: i / (c.strands_in_hand as f64 * circle_area(c.diameter_mm)),
+                current_density_a_mm2: i
+                    / (c.strands_in_hand as f64 * Area::of_circle(c.diameter).mm2()),
                 ..c
             })
         }
@@ -697,12 +707,12 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     });
     let thrust = point.zip(target).map(|(p, t)| {
         let plate_loss_w = (t.slip * p.airgap_power_w).max(0.0);
-        let under = crate::thrust::plate_area_under_m2(&w);
+        let under = crate::thrust::plate_area_under(&w);
         ThrustCheck {
             wanted: t,
             point: p,
             plate_loss_w,
-            plate_loss_w_m2: under.map(|a| plate_loss_w / a),
+            plate_loss_w_m2: under.map(|a| plate_loss_w / a.m2()),
             met: p.thrust_n >= t.thrust_n,
         }
     });

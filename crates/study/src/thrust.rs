@@ -28,6 +28,7 @@
 //! secondary leakage neglected, the plate wider than the stack, sinusoidal fields. Valid
 //! as a first estimate for G from about 1 to 50 and small gaps against the pole pitch.
 
+use crate::units::{Area, Conductivity, Length};
 use num_complex::Complex64;
 use serde::Serialize;
 use std::f64::consts::PI;
@@ -96,18 +97,22 @@ pub struct Gap {
 /// The gap of `w` ([`Gap`]).
 pub fn gap(w: &Winding) -> Result<Gap, ThrustError> {
     let d = &w.design;
-    let clearance = d.airgap_m.ok_or(ThrustError::Missing(Input::Airgap))?;
+    let clearance = d
+        .airgap
+        .map(Length::m)
+        .ok_or(ThrustError::Missing(Input::Airgap))?;
     let ts = w
-        .slot_pitch_m()
+        .slot_pitch()
+        .map(Length::m)
         .ok_or(ThrustError::Missing(Input::SlotPitch))?;
     // A pair's field is mirror-symmetric about the plate's mid-plane (no tangential
     // field there, as on iron): each primary's gap reaches to it.
     let g = match d.secondary {
-        Some(s) if s.back_iron => clearance + s.thickness_m,
-        Some(s) => clearance + s.thickness_m / 2.0,
+        Some(s) if s.back_iron => clearance + s.thickness.m(),
+        Some(s) => clearance + s.thickness.m() / 2.0,
         None => clearance,
     };
-    let carter = match d.slot_opening_m {
+    let carter = match d.slot_opening.map(Length::m) {
         Some(b0) if b0 > 0.0 => carter_coefficient(ts, b0.min(0.99 * ts), g),
         _ => 1.0,
     };
@@ -224,7 +229,11 @@ pub struct ThrustReport {
     /// Russell–Norsworthy edge factor K.
     pub edge_factor: f64,
     /// Effective gap g_e = k_C·g, mm.
-    pub effective_gap_mm: f64,
+    #[serde(
+        rename = "effective_gap_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub effective_gap: Length,
     /// Magnetising inductance L_m, H.
     pub magnetizing_inductance_h: f64,
     /// Secondary resistance referred to the primary, ohms.
@@ -334,22 +343,24 @@ pub(crate) fn model(w: &Winding) -> Result<Model, ThrustError> {
         .frequency_hz
         .ok_or(ThrustError::Missing(Input::Frequency))?;
     let ts = w
-        .slot_pitch_m()
+        .slot_pitch()
+        .map(Length::m)
         .ok_or(ThrustError::Missing(Input::SlotPitch))?;
     let width = w
         .design
         .core
-        .stack_m
+        .stack
+        .map(Length::m)
         .ok_or(ThrustError::Missing(Input::Stack))?;
     let tau = ts * geo.pole_pitch_slots;
     let mut assumptions = vec![Assumption::ThrustModel, Assumption::FieldModel];
     if !sec.back_iron {
         assumptions.push(Assumption::NoBackIron);
     }
-    if d.slot_opening_m.is_none() {
+    if d.slot_opening.map(Length::m).is_none() {
         assumptions.push(Assumption::NoSlotOpening);
     }
-    let plate_w = sec.width_m.unwrap_or_else(|| {
+    let plate_w = sec.width.map(Length::m).unwrap_or_else(|| {
         assumptions.push(Assumption::NoPlateWidth);
         width
     });
@@ -368,7 +379,7 @@ pub(crate) fn model(w: &Winding) -> Result<Model, ThrustError> {
     let xm = omega * lm;
     let sides = if sec.back_iron { 1.0 } else { 2.0 };
     // Per primary: a pair's primary drives half the plate (see [`gap`]).
-    let goodness = MU0 * omega * tau * tau * sec.conductivity_hot_s_m() * edge * sec.thickness_m
+    let goodness = MU0 * omega * tau * tau * sec.conductivity_hot_s_m() * edge * sec.thickness.m()
         / sides
         / (PI * PI * ge);
     let r2 = xm / goodness;
@@ -380,7 +391,7 @@ pub(crate) fn model(w: &Winding) -> Result<Model, ThrustError> {
             0.0
         }
     };
-    if d.slot_size_m.is_none() {
+    if d.slot_size.is_none() {
         assumptions.push(Assumption::NoSlotSize);
     }
     let (l_slot, l_end) = leakage_h(w).unwrap_or((0.0, 0.0));
@@ -434,13 +445,13 @@ pub(crate) fn model(w: &Winding) -> Result<Model, ThrustError> {
 /// or slot pitch.
 pub fn leakage_h(w: &Winding) -> Option<(f64, f64)> {
     let geo = &w.geometry;
-    let width = w.design.core.stack_m?;
-    let ts = w.slot_pitch_m()?;
+    let width = w.design.core.stack.map(Length::m)?;
+    let ts = w.slot_pitch().map(Length::m)?;
     let n = w.series_turns(0);
     let m = geo.phases as f64;
     let p = geo.poles as f64 / 2.0;
     let active = (geo.pole_pitch_slots * geo.poles as f64).round().max(1.0);
-    let lambda_u = w.design.slot_size_m.map_or(1.0, |(b, h)| h / (3.0 * b));
+    let lambda_u = w.design.slot_size.map_or(1.0, |(b, h)| h / (3.0 * b));
     let l_slot = 4.0 * m / active * MU0 * width * n * n * lambda_u;
     let q = active / (2.0 * p * m);
     let l_w = 2.0 * w.design.turn.end_factor * w.pitch as f64 * ts;
@@ -531,12 +542,12 @@ pub fn point_at(w: &Winding, s: f64) -> Result<Row, ThrustError> {
     Ok(point(&md, feed, s, true))
 }
 
-/// The plate's area under the primary, m²: the primary's length (slots × slot pitch) times
+/// The plate's area under the primary: the primary's length (slots × slot pitch) times
 /// the narrower of plate and stack. The one rule for the plate's heat per area.
-pub fn plate_area_under_m2(w: &Winding) -> Option<f64> {
-    let stack = w.design.core.stack_m?;
-    let plate = w.design.secondary.and_then(|s| s.width_m).unwrap_or(stack);
-    Some(w.slot_pitch_m()? * w.geometry.slots as f64 * plate.min(stack))
+pub fn plate_area_under(w: &Winding) -> Option<Area> {
+    let stack = w.design.core.stack?;
+    let plate = w.design.secondary.and_then(|s| s.width).unwrap_or(stack);
+    Some(w.slot_pitch()? * w.geometry.slots as f64 * plate.min(stack))
 }
 
 /// Slip `k` of `steps` from `a` to `b`; a step that lands on synchronism (0) or standstill
@@ -609,7 +620,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
     let mut checked = checked;
     // The plate's heat at standstill by the field model beside the circuit's.
     if let Some(still) = field_model.rows.iter().find(|r| r.slip == 1.0) {
-        let under = plate_area_under_m2(w).filter(|a| *a > 0.0);
+        let under = plate_area_under(w).filter(|a| a.m2() > 0.0);
         for a in checked.iter_mut() {
             if let Assumption::PlateHeatingAtStandstill {
                 field_watts,
@@ -618,7 +629,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
             } = a
             {
                 *field_watts = Some(still.secondary_loss_w);
-                *field_w_cm2 = under.map(|u| still.secondary_loss_w / (u * 1e4));
+                *field_w_cm2 = under.map(|u| still.secondary_loss_w / u.cm2());
             }
         }
     }
@@ -638,7 +649,7 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         goodness_factor: md.circuit.xm_ohm / md.circuit.r2_ohm,
         carter_coefficient: md.kc,
         edge_factor: md.edge,
-        effective_gap_mm: md.ge * 1e3,
+        effective_gap: Length::from_m(md.ge),
         magnetizing_inductance_h: md.lm,
         secondary_resistance_ohm: md.circuit.r2_ohm,
         synchronous_speed_m_s: md.vs,
@@ -650,7 +661,9 @@ pub fn thrust(w: &Winding, query: &ThrustQuery) -> Result<ThrustReport, ThrustEr
         max_thrust_slip: s_max,
         assumptions: {
             let mut a = md.assumptions.clone();
-            a.push(Assumption::MagneticGap { mm: md.g * 1e3 });
+            a.push(Assumption::MagneticGap {
+                gap: Length::from_m(md.g),
+            });
             a.extend(checked);
             a
         },
@@ -673,19 +686,22 @@ pub(crate) fn backing_saturation(w: &Winding, md: &Model, feed: Feed) -> Option<
     };
     let f = c.omega / (2.0 * PI);
     let phi = crate::loading::flux_per_pole(e, f, c.effective_turns);
-    let tesla = phi / (2.0 * b.thickness_m * c.width_m);
+    let tesla = phi / (2.0 * b.thickness.m() * c.width_m);
     let limit = crate::loading::YOKE_LIMIT_T;
     (tesla > limit).then_some(Assumption::BackingSaturates {
         tesla,
         limit_tesla: limit,
-        thickness_mm: b.thickness_m * 1e3,
+        thickness: b.thickness,
     })
 }
 
 /// The warning when phase current `amps` (at slip `slip`) passes the card's current
 /// density in the layout's wire.
 pub(crate) fn current_density(w: &Winding, amps: f64, slip: f64) -> Option<Assumption> {
-    let area = crate::wire::Wire::of(w.design.wire.as_ref()?).conductor_area_mm2;
+    // A/mm², the unit the trade's limits are given in.
+    let area = crate::wire::Wire::of(w.design.wire.as_ref()?)
+        .conductor_area
+        .mm2();
     let limit = crate::card::CURRENT_DENSITY_LIMIT_A_MM2;
     let j = amps / w.parallel_paths.max(1) as f64 / area;
     (j > limit).then_some(Assumption::PrimaryCurrentDensity {
@@ -705,31 +721,28 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
         return a;
     };
     a.push(Assumption::PlateConductivity {
-        ms_m: sec.conductivity_hot_s_m() * 1e-6,
+        conductivity: Conductivity::from_s_m(sec.conductivity_hot_s_m()),
     });
     a.push(Assumption::Temperatures {
         winding_c: d.winding_temperature_c,
         plate_c: sec.temperature_c,
     });
     a.extend(backing_saturation(w, md, feed));
-    let stack = d.core.stack_m.unwrap_or(0.0);
-    let plate = sec.width_m.unwrap_or(stack);
+    let stack = d.core.stack.unwrap_or(Length::ZERO);
+    let plate = sec.width.unwrap_or(stack);
     if plate < stack {
-        a.push(Assumption::PlateNarrowerThanStack {
-            plate_mm: plate * 1e3,
-            stack_mm: stack * 1e3,
-        });
+        a.push(Assumption::PlateNarrowerThanStack { plate, stack });
     }
     // Skin depth δ = √(2/(ω·μ0·σ)) at the supply frequency; at slip s the plate sees s·f,
     // so it is thinner than δ/√s below s = (δ/t)² (the classical skin depth, e.g.
     // Jackson, Classical Electrodynamics, §8.1).
     let omega = 2.0 * PI * d.supply.frequency_hz.unwrap_or(0.0);
     let delta = (2.0 / (omega * MU0 * sec.conductivity_hot_s_m())).sqrt();
-    if omega > 0.0 && sec.thickness_m > delta {
+    if omega > 0.0 && sec.thickness.m() > delta {
         a.push(Assumption::PlateThickerThanSkinDepth {
-            thickness_mm: sec.thickness_m * 1e3,
-            skin_depth_mm: delta * 1e3,
-            thin_below_slip: (delta / sec.thickness_m).powi(2),
+            thickness: sec.thickness,
+            skin_depth: Length::from_m(delta),
+            thin_below_slip: (delta / sec.thickness.m()).powi(2),
         });
     }
     if let Some(r) = rows
@@ -744,12 +757,12 @@ fn checks(w: &Winding, md: &Model, feed: Feed, rows: &[Row], end: bool) -> Vec<A
         .find(|r| r.slip == 1.0)
         .copied()
         .unwrap_or_else(|| point(md, feed, 1.0, end));
-    if let Some(under) = plate_area_under_m2(w).filter(|a| *a > 0.0)
+    if let Some(under) = plate_area_under(w).filter(|a| a.m2() > 0.0)
         && standstill.airgap_power_w.is_finite()
     {
         a.push(Assumption::PlateHeatingAtStandstill {
             watts: standstill.airgap_power_w,
-            w_cm2: standstill.airgap_power_w / (under * 1e4),
+            w_cm2: standstill.airgap_power_w / under.cm2(),
             field_watts: None,
             field_w_cm2: None,
         });

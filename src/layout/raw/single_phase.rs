@@ -265,7 +265,7 @@ impl RawLayout {
                         ));
                     };
                     Some(crate::design::WireSpec {
-                        size: WireSize::Diameter(dia * 1e-3),
+                        size: WireSize::Diameter(crate::units::Length::from_mm(dia)),
                         strands_in_hand: 1,
                         insulation: match base.insulation {
                             Insulation::Grade(g) => Insulation::Grade(g),

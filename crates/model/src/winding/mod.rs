@@ -11,6 +11,7 @@ pub mod single_phase;
 pub mod star;
 mod synth;
 
+use crate::units::Length;
 use num_complex::Complex64;
 use std::f64::consts::PI;
 use thiserror::Error;
@@ -259,7 +260,7 @@ pub struct Coil {
 }
 
 /// A planned or recorded winding: its [`Design`] plus the coils.
-#[derive(Debug, Clone, PartialEq, serde::Serialize, schemars::JsonSchema)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct Winding {
     /// Title and colours, apart from the physics.
     pub labels: Labels,
@@ -541,14 +542,14 @@ impl Winding {
         &self.design.phase_labels[phase]
     }
 
-    /// Slot pitch in metres, when the design gives it.
-    pub fn slot_pitch_m(&self) -> Option<f64> {
-        self.design.slot_pitch_m()
+    /// Slot pitch along the gap, when the design gives it.
+    pub fn slot_pitch(&self) -> Option<Length> {
+        self.design.slot_pitch()
     }
 
-    /// Pole pitch τ in metres, when the slot pitch is known.
-    pub fn pole_pitch_m(&self) -> Option<f64> {
-        self.slot_pitch_m()
+    /// Pole pitch τ, when the slot pitch is known.
+    pub fn pole_pitch(&self) -> Option<Length> {
+        self.slot_pitch()
             .map(|s| s * self.geometry.pole_pitch_slots)
     }
 }

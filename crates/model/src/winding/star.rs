@@ -253,9 +253,10 @@ mod tests {
     #[test]
     fn roots_table_matches_closed_form() {
         let mut r = Vec::new();
-        roots_of_unity(1000, &mut r);
+        let n = 1000;
+        roots_of_unity(n, &mut r);
         for (k, (c, s)) in r.iter().enumerate() {
-            let a = 2.0 * PI * k as f64 / 1000.0;
+            let a = 2.0 * PI * k as f64 / n as f64;
             assert!((c - a.cos()).abs() < 1e-14 && (s - a.sin()).abs() < 1e-14);
         }
     }

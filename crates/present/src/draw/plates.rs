@@ -35,9 +35,9 @@ pub fn draw(s: &crate::study::Study, report: &PlatesReport, page: &Page) -> Stri
                 "{}: plate {} mm at {} MS/m, clearance {} mm, {}; standstill {} N, peak {} N at {} \
                  m/s, plate heat at standstill {} W",
                 i + 1,
-                num(ch.thickness_mm, 3),
-                num(ch.conductivity_ms_m, 3),
-                num(ch.clearance_mm, 3),
+                num(ch.thickness.mm(), 3),
+                num(ch.conductivity.ms_m(), 3),
+                num(ch.clearance.mm(), 3),
                 ch.current_a
                     .map_or("fed from the supply".to_string(), |i| format!(
                         "{} A",

@@ -12,9 +12,10 @@ use super::page::{Canvas, Page, Rect};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
-use crate::iron::{LINER_M, WEDGE_M};
+use crate::iron::{LINER, WEDGE};
 use crate::output::num;
 use crate::packing::Outline;
+use crate::units::Length;
 
 /// Body text height, mm.
 const BODY: f64 = 3.0;
@@ -47,7 +48,10 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     let (slot, sides) = crate::packing::fullest(w);
     let wire = card.wire.as_ref();
     let strands = wire.map_or(1, |x| x.strands_in_hand);
-    let d_over = wire.map(|x| x.insulated_diameter_mm * 1e-3);
+    let d_over = wire.map(|x| x.insulated_diameter.m());
+    let (liner, wedge) = (LINER.m(), WEDGE.m());
+    // The outline is in metres; the sheet writes millimetres.
+    let mm = |m: f64| Length::from_m(m).mm();
 
     // Scale: the largest of 50, 20, 10, 5, 2, 1 : 1 that fits the slot in the left part.
     let left = Rect {
@@ -55,13 +59,13 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
         h: a.h - 14.0,
         ..a
     };
-    let widest = o.top.max(o.bottom) * 1e3;
-    let depth_mm = o.depth * 1e3;
+    let widest = mm(o.top.max(o.bottom));
+    let depth_mm = mm(o.depth);
     let scale = [50.0, 20.0, 10.0, 5.0, 2.0, 1.0]
         .into_iter()
         .find(|k| depth_mm * k <= left.h * 0.85 && widest * k <= left.w * 0.6)
         .unwrap_or(1.0);
-    let k = scale * 1e3; // paper mm per metre
+    let k = scale * mm(1.0); // paper mm per metre
     let cx = left.x + left.w / 2.0;
     let y0 = left.y + 10.0;
     let px = |x: f64| cx + x * k;
@@ -91,17 +95,17 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     );
     // Liner (inside the sides and bottom) and the wedge line under the mouth.
     let width_at = |y: f64| o.width_at(y);
-    let liner = [
-        (-width_at(WEDGE_M) / 2.0 + LINER_M, WEDGE_M),
-        (-o.bottom / 2.0 + LINER_M, o.depth - LINER_M),
-        (o.bottom / 2.0 - LINER_M, o.depth - LINER_M),
-        (width_at(WEDGE_M) / 2.0 - LINER_M, WEDGE_M),
+    let liner_outline = [
+        (-width_at(wedge) / 2.0 + liner, wedge),
+        (-o.bottom / 2.0 + liner, o.depth - liner),
+        (o.bottom / 2.0 - liner, o.depth - liner),
+        (width_at(wedge) / 2.0 - liner, wedge),
     ];
     g = g.add(
         Polygon::new()
             .set(
                 "points",
-                liner
+                liner_outline
                     .iter()
                     .map(|(x, y)| format!("{},{}", r(px(*x)), r(py(*y))))
                     .collect::<Vec<_>>()
@@ -125,8 +129,8 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
         for y in &p.separators {
             g = g.add(
                 Line::new()
-                    .set("x1", r(px(-width_at(*y) / 2.0 + LINER_M)))
-                    .set("x2", r(px(width_at(*y) / 2.0 - LINER_M)))
+                    .set("x1", r(px(-width_at(*y) / 2.0 + liner)))
+                    .set("x2", r(px(width_at(*y) / 2.0 - liner)))
                     .set("y1", r(py(*y)))
                     .set("y2", r(py(*y)))
                     .set("stroke", "#000")
@@ -158,19 +162,19 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
              opening {} mm",
             slot + 1,
             num(scale, 0),
-            num(o.top * 1e3, 2),
-            num(o.bottom * 1e3, 2),
-            num(o.depth * 1e3, 2),
-            num(o.opening * 1e3, 2)
+            num(mm(o.top), 2),
+            num(mm(o.bottom), 2),
+            num(mm(o.depth), 2),
+            num(mm(o.opening), 2)
         ),
         format!(
             "dashed: liner {} mm, {} mm at the mouth for tips and wedge",
-            num(LINER_M * 1e3, 1),
-            num(WEDGE_M * 1e3, 1)
+            num(LINER.mm(), 1),
+            num(WEDGE.mm(), 1)
         ),
     ];
-    if let Some(t) = w.design.core.tooth_width_m {
-        lines.push(format!("tooth {} mm at its narrowest", num(t * 1e3, 2)));
+    if let Some(t) = w.design.core.tooth_width {
+        lines.push(format!("tooth {} mm at its narrowest", num(t.mm(), 2)));
     }
     let mut yl = py(o.depth) + 8.0;
     for l in &lines {
@@ -192,8 +196,8 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
         Some(x) => t.push(format!(
             "wire: {} × {} mm bare, {} mm over the enamel ({})",
             x.strands_in_hand,
-            num(x.diameter_mm, 3),
-            num(x.insulated_diameter_mm, 3),
+            num(x.diameter.mm(), 3),
+            num(x.insulated_diameter.mm(), 3),
             x.insulation
         )),
         None => t.push("wire: not given, so no wires are drawn".into()),
@@ -207,11 +211,11 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
         sides_words.join(", "),
         total
     ));
-    if let (Some(f), Some(area)) = (card.slot_fill, w.design.slot_area_m2) {
+    if let (Some(f), Some(area)) = (card.slot_fill, w.design.slot_area) {
         t.push(format!(
             "fill by insulated wire {} % of the usable {} mm² (limit {} %)",
             num(f * 100.0, 1),
-            num(area * 1e6, 1),
+            num(area.mm2(), 1),
             num(crate::card::FILL_LIMIT * 100.0, 0)
         ));
     }

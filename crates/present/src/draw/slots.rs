@@ -271,7 +271,10 @@ fn header(
             "v_s = 2\u{b7}f\u{b7}\u{3c4} = {} m/s (f = {} Hz, \u{3c4} = {} mm)",
             num(v, 3),
             num(w.design.supply.frequency_hz.unwrap_or(0.0), 2),
-            num(figures.pole_pitch_m.unwrap_or(0.0) * 1000.0, 2)
+            num(
+                crate::units::Length::from_m(figures.pole_pitch_m.unwrap_or(0.0)).mm(),
+                2
+            )
         ),
         (Topology::Rotary, _) if figures.synchronous_speed_rpm.is_some() => format!(
             "n_s = 120\u{b7}f/2p = {} rpm",

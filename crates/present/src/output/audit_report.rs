@@ -438,7 +438,7 @@ impl Report for RewindReport {
         if let Some(phi) = self.flux_per_pole_wb {
             head.push(format!(
                 "old flux per pole {} mWb{}",
-                num(phi * 1e3, 3),
+                num(crate::units::in_milli(phi), 3),
                 self.peak_flux_density_t
                     .map(|b| format!(", peak air-gap flux density {} T", num(b, 3)))
                     .unwrap_or_default()
@@ -474,15 +474,15 @@ impl Report for RewindReport {
                 format!(
                     "old: {} x {} mm2{}",
                     c.wires_in_hand,
-                    num(c.old_area_mm2, 4),
-                    c.old_diameter_mm
-                        .map(|d| format!(" ({} mm bare diameter)", num(d, 3)))
+                    num(c.old_area.mm2(), 4),
+                    c.old_diameter
+                        .map(|d| format!(" ({} mm bare diameter)", num(d.mm(), 3)))
                         .unwrap_or_default()
                 ),
                 format!(
                     "new: {} mm2 copper per conductor; current per conductor x{}, phase \
                      current x{}{}",
-                    num(c.new_conductor_area_mm2, 4),
+                    num(c.new_conductor_area.mm2(), 4),
                     num(c.conductor_current_ratio, 4),
                     num(c.phase_current_ratio, 4),
                     c.power_ratio
@@ -493,7 +493,13 @@ impl Report for RewindReport {
             lines.push(
                 c.options
                     .iter()
-                    .map(|o| format!("{} in hand: {} mm", o.wires_in_hand, num(o.diameter_mm, 3)))
+                    .map(|o| {
+                        format!(
+                            "{} in hand: {} mm",
+                            o.wires_in_hand,
+                            num(o.diameter.mm(), 3)
+                        )
+                    })
                     .join("; "),
             );
             if let Some(i) = c.new_line_current_a {
@@ -514,7 +520,7 @@ impl Report for RewindReport {
                     t.push(vec![
                         series.into(),
                         o.wire.strands_in_hand.to_string(),
-                        num(o.wire.diameter_mm, 4),
+                        num(o.wire.diameter.mm(), 4),
                         o.wire.awg.map_or("-".into(), |n| n.to_string()),
                         num((o.wire.area_ratio - 1.0) * 100.0, 1),
                         o.slot_fill.map_or("-".into(), |f| num(f * 100.0, 1)),

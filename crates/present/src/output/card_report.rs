@@ -6,6 +6,7 @@ use super::{Say, worded};
 use crate::card::DataCard;
 use crate::card::leads::{Configuration, LeadScheme, Sections};
 use crate::output::Words;
+use crate::units::Length;
 use crate::winding::Connection;
 use std::fmt;
 
@@ -41,9 +42,13 @@ pub fn rating_words(n: &crate::design::Nameplate, hp: bool) -> Vec<String> {
     let mut rating = Vec::new();
     if let Some(p) = n.power_w {
         rating.push(if hp {
-            format!("{} kW ({} hp)", num(p / 1e3, 3), num(p / 745.7, 2))
+            format!(
+                "{} kW ({} hp)",
+                num(crate::units::in_kilo(p), 3),
+                num(p / 745.7, 2)
+            )
         } else {
-            format!("{} kW", num(p / 1e3, 2))
+            format!("{} kW", num(crate::units::in_kilo(p), 2))
         });
     }
     if !n.voltages_v.is_empty() {
@@ -214,10 +219,10 @@ impl Report for DataCard {
             Some(self.series_turns_per_phase),
             "",
         );
-        row("mean_turn", self.mean_turn_mm, "mm");
+        row("mean_turn", self.mean_turn.map(Length::mm), "mm");
         row(
             "wire_diameter",
-            self.wire.as_ref().map(|w| w.diameter_mm),
+            self.wire.as_ref().map(|w| w.diameter.mm()),
             "mm",
         );
         row(
@@ -272,13 +277,13 @@ impl fmt::Display for Say<'_, crate::card::MeanTurnRule> {
             crate::card::MeanTurnRule::Given => f.write_str("as given (core.mean_turn_mm)"),
             crate::card::MeanTurnRule::Rule {
                 end_factor,
-                end_allowance_mm,
+                end_allowance,
             } => write!(
                 f,
                 "2 x stack + 2 x {} x span width + {} mm (span width between the coil sides' \
                  centres: at mid-slot when the slot depth is given, else at the bore)",
                 num(*end_factor, 3),
-                num(*end_allowance_mm, 1)
+                num(end_allowance.mm(), 1)
             ),
         }
     }
@@ -329,12 +334,12 @@ fn winding_sections(card: &DataCard) -> Vec<Section> {
             "wire: {} x {} mm bare {}{} ({} mm2 per strand, {} mm2 per conductor), \
              {} mm over enamel, {}",
             w.strands_in_hand,
-            num(w.diameter_mm, 4),
+            num(w.diameter.mm(), 4),
             w.material,
             w.awg.map(|n| format!(" (AWG {n})")).unwrap_or_default(),
-            num(w.area_mm2, 4),
-            num(w.conductor_area_mm2, 4),
-            num(w.insulated_diameter_mm, 3),
+            num(w.area.mm2(), 4),
+            num(w.conductor_area.mm2(), 4),
+            num(w.insulated_diameter.mm(), 3),
             w.insulation
         )),
         None => lines.push("wire: not given".into()),
@@ -350,7 +355,10 @@ fn copper_sections(card: &DataCard) -> Vec<Section> {
     let mut s = Vec::new();
     s.push(Section::Heading("Copper".into()));
     let mut t = Table::new(&[("figure", Align::Left), ("value", Align::Right)]);
-    t.push(vec!["mean turn".into(), opt(card.mean_turn_mm, 1, "mm")]);
+    t.push(vec![
+        "mean turn".into(),
+        opt(card.mean_turn.map(Length::mm), 1, "mm"),
+    ]);
     t.push(vec![
         "phase resistance at 20 C".into(),
         card.phase_resistance_20c_ohm
@@ -431,10 +439,10 @@ fn copper_sections(card: &DataCard) -> Vec<Section> {
             t.push(vec![
                 f.span.clone(),
                 f.coils.to_string(),
-                num(f.span_width_mm, 1),
-                num(f.straight_mm, 1),
-                num(f.end_extension_mm, 1),
-                num(f.mean_turn_mm, 1),
+                num(f.span_width.mm(), 1),
+                num(f.straight.mm(), 1),
+                num(f.end_extension.mm(), 1),
+                num(f.mean_turn.mm(), 1),
             ]);
         }
         s.push(Section::Table(t));

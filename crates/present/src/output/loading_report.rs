@@ -206,7 +206,7 @@ pub fn loading_table(l: &Loading) -> Table {
     };
     t.push(vec![
         "flux per pole".into(),
-        format!("{} mWb", num(m.flux_per_pole_wb * 1e3, 4)),
+        format!("{} mWb", num(crate::units::in_milli(m.flux_per_pole_wb), 4)),
         String::new(),
         String::new(),
     ]);
@@ -248,7 +248,13 @@ pub fn loading_table(l: &Loading) -> Table {
     if let Some(e) = &l.electric {
         t.push(vec![
             "electric loading".into(),
-            format!("{} A/mm", num(e.electric_loading_a_m * 1e-3, 1)),
+            format!(
+                "{} A/mm",
+                num(
+                    e.electric_loading_a_m * crate::units::Length::from_mm(1.0).m(),
+                    1
+                )
+            ),
             String::new(),
             String::new(),
         ]);
@@ -441,7 +447,7 @@ fn candidates_table(z: &Sizing) -> Table {
 fn wire_words(w: &crate::sizing::WireChoice) -> String {
     let size = match w.awg {
         Some(n) => format!("AWG {n}"),
-        None => format!("{} mm", num(w.diameter_mm, 3)),
+        None => format!("{} mm", num(w.diameter.mm(), 3)),
     };
     format!(
         "{} × {size}, {} A/mm²{}",
@@ -484,7 +490,7 @@ impl Report for Sizing {
                  set by the {}",
                 num(self.line_voltage_v, 1),
                 num(self.frequency_hz, 2),
-                num(self.flux_limit_wb * 1e3, 4),
+                num(crate::units::in_milli(self.flux_limit_wb), 4),
                 super::Say(&self.flux_set_by)
             )),
         ];
@@ -509,7 +515,7 @@ impl Report for Sizing {
                 "within {} A/mm² this core carries about {} kW at this voltage with the largest \
                  wire that goes in (the nameplate asks for more)",
                 num(self.loading.limits.current_density_a_mm2, 1),
-                num(p * 1e-3, 2)
+                num(crate::units::in_kilo(p), 2)
             )));
         }
         if let Some(w) = &self.other_series_wire {
@@ -556,7 +562,10 @@ impl Report for Sizing {
                     .unwrap_or_default(),
                 num(t.plate_loss_w, 0),
                 t.plate_loss_w_m2
-                    .map(|q| format!(" ({} kW/m² of plate under the primary)", num(q * 1e-3, 2)))
+                    .map(|q| format!(
+                        " ({} kW/m² of plate under the primary)",
+                        num(crate::units::in_kilo(q), 2)
+                    ))
                     .unwrap_or_default()
             ))];
             if !t.met {

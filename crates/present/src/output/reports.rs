@@ -3,6 +3,7 @@
 use super::{Align, Report, Section, Table, num};
 use crate::factors::FactorTable;
 use crate::plan::PlanReport;
+use crate::units::Length;
 use itertools::Itertools;
 
 /// One paragraph of a report, kept whole (its white space folded to single spaces): the
@@ -164,7 +165,8 @@ impl Report for PlanReport {
 
         let f = &self.figures;
         let figs: Vec<String> = [
-            opt(f.pole_pitch_m.map(|t| t * 1e3), 2, "mm").map(|v| format!("pole pitch: {v}")),
+            opt(f.pole_pitch_m.map(|t| Length::from_m(t).mm()), 2, "mm")
+                .map(|v| format!("pole pitch: {v}")),
             opt(f.synchronous_speed_m_s, 3, "m/s").map(|v| format!("synchronous speed: {v}")),
             opt(f.synchronous_speed_rpm, 1, "rpm").map(|v| format!("synchronous speed: {v}")),
             f.slip.and(f.speed_m_s.or(f.speed_rpm)).map(|_| {
@@ -175,9 +177,9 @@ impl Report for PlanReport {
             opt(f.speed_rpm, 1, "rpm").map(|v| format!("  rotor speed: {v}")),
             opt(f.thrust_n, 1, "N").map(|v| format!("thrust from air-gap power: {v}")),
             opt(f.torque_nm, 2, "N m").map(|v| format!("torque from air-gap power: {v}")),
-            opt(f.active_length_m.map(|x| x * 1e3), 1, "mm")
+            opt(f.active_length_m.map(|x| Length::from_m(x).mm()), 1, "mm")
                 .map(|v| format!("active length (2p*tau): {v}")),
-            opt(f.total_length_m.map(|x| x * 1e3), 1, "mm")
+            opt(f.total_length_m.map(|x| Length::from_m(x).mm()), 1, "mm")
                 .map(|v| format!("primary length (Z*slot pitch): {v}")),
         ]
         .into_iter()

@@ -402,8 +402,8 @@ fn part_card(p: &Part) -> String {
     let wire = p.wire.as_ref().map_or("wire not given".to_string(), |w| {
         format!(
             "wire {} mm ({} mm over enamel)",
-            num(w.diameter_mm, 3),
-            num(w.insulated_diameter_mm, 3)
+            num(w.diameter.mm(), 3),
+            num(w.insulated_diameter.mm(), 3)
         )
     });
     let sections = if p.sections_20c_ohm.is_empty() {

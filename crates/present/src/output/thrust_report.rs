@@ -5,6 +5,7 @@ use super::{Align, Report, Section, Table, num};
 use crate::inductance::InductanceReport;
 use crate::output::Words;
 use crate::thrust::{Feed, ThrustReport};
+use crate::units::Length;
 
 impl Report for ThrustReport {
     fn json(&self) -> impl serde::Serialize + '_ {
@@ -71,10 +72,10 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
             ),
             format!(
                 "pole pitch {} mm, synchronous speed {} m/s, active length {} mm, width {} mm",
-                num(c.pole_pitch_m * 1e3, 2),
+                num(Length::from_m(c.pole_pitch_m).mm(), 2),
                 num(this.synchronous_speed_m_s, 3),
-                num(c.length_m * 1e3, 1),
-                num(c.width_m * 1e3, 1)
+                num(Length::from_m(c.length_m).mm(), 1),
+                num(Length::from_m(c.width_m).mm(), 1)
             ),
             format!(
                 "goodness factor G = {}, Carter k_C = {}, edge factor K = {}, effective gap \
@@ -82,7 +83,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 num(this.goodness_factor, 3),
                 num(this.carter_coefficient, 4),
                 num(this.edge_factor, 4),
-                num(this.effective_gap_mm, 3)
+                num(this.effective_gap.mm(), 3)
             ),
             format!(
                 "per phase: R1 = {} ohm, X1 = {} ohm (slot {}, end {}, differential {}), X_m = \
@@ -93,7 +94,7 @@ pub fn sections_every(report: &ThrustReport, every: usize) -> Vec<Section> {
                 num(c.x_end_ohm, 4),
                 num(c.x_diff_ohm, 4),
                 num(c.xm_ohm, 4),
-                num(this.magnetizing_inductance_h * 1e3, 4),
+                num(crate::units::in_milli(this.magnetizing_inductance_h), 4),
                 num(this.secondary_resistance_ohm, 4)
             ),
             format!(
@@ -270,12 +271,12 @@ impl Report for InductanceReport {
             format!(
                 "effective gap {} mm; gap inductances in mH, leakage {} mH per phase not \
                  included in the matrix",
-                num(self.effective_gap_mm, 3),
-                num(self.leakage_h * 1e3, 4)
+                num(self.effective_gap.mm(), 3),
+                num(crate::units::in_milli(self.leakage_h), 4)
             ),
             format!(
                 "positive-sequence inductance {} mH",
-                num(self.positive_sequence_h * 1e3, 4)
+                num(crate::units::in_milli(self.positive_sequence_h), 4)
             ),
         ]));
         s.push(Section::Table(self.main_table()));
@@ -339,7 +340,7 @@ impl Report for InductanceReport {
         let mut t = Table::new(&refs);
         for (p, row) in self.phases.iter().zip(&self.matrix_h) {
             let mut r = vec![p.clone()];
-            r.extend(row.iter().map(|x| num(x * 1e3, 5)));
+            r.extend(row.iter().map(|x| num(crate::units::in_milli(*x), 5)));
             t.push(r);
         }
         t
@@ -404,10 +405,10 @@ impl Report for crate::plates::PlatesReport {
                 format!(
                     "{}{}",
                     if c.grid_bounded { "*" } else { "" },
-                    num(c.thickness_mm, 3)
+                    num(c.thickness.mm(), 3)
                 ),
-                num(c.conductivity_ms_m, 3),
-                num(c.clearance_mm, 3),
+                num(c.conductivity.ms_m(), 3),
+                num(c.clearance.mm(), 3),
                 c.current_a
                     .map_or("supply".to_string(), |i| format!("{} A", num(i, 3))),
                 num(c.standstill_thrust_n, 1),

@@ -138,11 +138,11 @@ impl Words for Suggestion {
         };
         match self {
             Suggestion::AsExpected => "the readings agree with the card".into(),
-            Suggestion::WireSizeStep { ratio, diameter_mm } => format!(
+            Suggestion::WireSizeStep { ratio, diameter } => format!(
                 "all phases read {} against the card, as a wire of {} mm would: check the \
                  wire size on the spool",
                 pct(*ratio),
-                num(*diameter_mm, 3)
+                num(diameter.mm(), 3)
             ),
             Suggestion::StrandMissing { ratio, strands } => format!(
                 "all phases read {}, as {} in hand instead of {strands} would: check the \
@@ -261,13 +261,13 @@ impl fmt::Display for Say<'_, Assumption> {
             Assumption::BackingSaturates {
                 tesla,
                 limit_tesla,
-                thickness_mm,
+                thickness,
             } => write!(
                 f,
                 "the {} mm backing carries about {} T at the largest flux, above the {} T \
                  back-iron limit: it saturates, while the models take it as linear, so thrust \
                  and normal force are overstated",
-                num(*thickness_mm, 2),
+                num(thickness.mm(), 2),
                 num(*tesla, 2),
                 num(*limit_tesla, 2)
             ),
@@ -284,7 +284,7 @@ impl fmt::Display for Say<'_, Assumption> {
             Assumption::NoSlotSize => f.write_str(
                 "no slot width and depth: slot permeance 1.0 (a slot three times as deep as wide)",
             ),
-            Assumption::MagneticGap { mm } => write!(f, "magnetic gap {} mm", num(*mm, 3)),
+            Assumption::MagneticGap { gap } => write!(f, "magnetic gap {} mm", num(gap.mm(), 3)),
             Assumption::SupplyDefaulted => {
                 f.write_str("no full [supply]: currents worked out at 50 Hz and 400 V line voltage")
             }
@@ -306,30 +306,30 @@ impl fmt::Display for Say<'_, Assumption> {
                  stands for: its thrust and speed figures are an extrapolation",
                 num(*goodness, 3)
             ),
-            Assumption::PlateConductivity { ms_m } => write!(
+            Assumption::PlateConductivity { conductivity } => write!(
                 f,
                 "the plate's conductivity is taken as {} MS/m at its temperature (a warm plate \
                  conducts less and gives less thrust at a given slip)",
-                num(*ms_m, 3)
+                num(conductivity.ms_m(), 3)
             ),
-            Assumption::PlateNarrowerThanStack { plate_mm, stack_mm } => write!(
+            Assumption::PlateNarrowerThanStack { plate, stack } => write!(
                 f,
                 "the plate ({} mm) is narrower than the stack ({} mm); the edge factor takes \
                  it as wide as the stack, so thrust is overstated",
-                num(*plate_mm, 1),
-                num(*stack_mm, 1)
+                num(plate.mm(), 1),
+                num(stack.mm(), 1)
             ),
             Assumption::PlateThickerThanSkinDepth {
-                thickness_mm,
-                skin_depth_mm,
+                thickness,
+                skin_depth,
                 thin_below_slip,
             } => write!(
                 f,
                 "the plate ({} mm) is thicker than its skin depth at the supply frequency ({} \
                  mm): the circuit's thin-plate model holds only below slip {} (the field model \
                  takes the skin effect)",
-                num(*thickness_mm, 2),
-                num(*skin_depth_mm, 2),
+                num(thickness.mm(), 2),
+                num(skin_depth.mm(), 2),
                 num(*thin_below_slip, 3)
             ),
             Assumption::PrimaryCurrentDensity {

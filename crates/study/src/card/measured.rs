@@ -22,10 +22,11 @@
 //! A phase reversed inside a delta does not change any DC resistance: that is the audit's
 //! EMF check's work.
 
+use crate::units::Length;
 use serde::Serialize;
 
 use super::leads::section_lead;
-use super::wire::{iec_60317_mm, metal};
+use super::wire::{iec_60317, metal};
 use super::{BALANCE_TOLERANCE_PERCENT, Wire, path_resistances, planned_line_resistances};
 use crate::winding::{Connection, Winding};
 
@@ -40,7 +41,8 @@ pub enum Suggestion {
         /// Measured over expected.
         ratio: f64,
         /// The bare diameter that would give the reading, mm.
-        diameter_mm: f64,
+        #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+        diameter: Length,
     },
     /// Every phase high by s/(s − 1): one strand in hand fewer than the card.
     StrandMissing {
@@ -576,9 +578,9 @@ fn uniform(w: &Winding, r: f64, wire: Option<&Wire>) -> Suggestion {
         }
         // The diameter that gives this reading, and whether it is a neighbouring standard
         // size (IEC 60317 series, or one AWG gauge: area ratio 92^(2/39) ≈ 1.261).
-        let d = wr.diameter_mm / r.sqrt();
-        let iec_step = iec_60317_mm()
-            .any(|x| (x / d - 1.0).abs() < 0.01 && (x / wr.diameter_mm - 1.0).abs() > 0.01);
+        let d = wr.diameter / r.sqrt();
+        let iec_step =
+            iec_60317().any(|x| (x / d - 1.0).abs() < 0.01 && (x / wr.diameter - 1.0).abs() > 0.01);
         let awg_step = wr.awg.is_some() && {
             let step = 92f64.powf(2.0 / 39.0);
             (r / step - 1.0).abs() < 0.02 || (r * step - 1.0).abs() < 0.02
@@ -586,7 +588,7 @@ fn uniform(w: &Winding, r: f64, wire: Option<&Wire>) -> Suggestion {
         if iec_step || awg_step {
             return Suggestion::WireSizeStep {
                 ratio: r,
-                diameter_mm: d,
+                diameter: d,
             };
         }
     }

@@ -16,6 +16,7 @@ pub mod measured;
 pub mod two_speed;
 pub use beltwright_model::wire;
 
+use crate::units::Length;
 use serde::Serialize;
 
 use crate::design::Measured;
@@ -109,13 +110,26 @@ pub struct Former {
     pub coils: usize,
     /// Span width W, centre to centre of the coil sides (at mid-slot when the slot depth
     /// is known), mm.
-    pub span_width_mm: f64,
+    #[serde(
+        rename = "span_width_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub span_width: Length,
     /// Straight length of each coil side, mm.
-    pub straight_mm: f64,
+    #[serde(rename = "straight_mm", serialize_with = "crate::units::mm::serialize")]
+    pub straight: Length,
     /// How far each end stands out beyond the core, mm.
-    pub end_extension_mm: f64,
+    #[serde(
+        rename = "end_extension_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub end_extension: Length,
     /// Mean turn of this shape, mm.
-    pub mean_turn_mm: f64,
+    #[serde(
+        rename = "mean_turn_mm",
+        serialize_with = "crate::units::mm::serialize"
+    )]
+    pub mean_turn: Length,
 }
 
 /// How the mean length of a turn was found (worded by the presenters, which write it into the JSON with its `message`).
@@ -129,7 +143,11 @@ pub enum MeanTurnRule {
         /// End-winding length per coil end over the span width.
         end_factor: f64,
         /// Allowance per turn, mm.
-        end_allowance_mm: f64,
+        #[serde(
+            rename = "end_allowance_mm",
+            serialize_with = "crate::units::mm::serialize"
+        )]
+        end_allowance: Length,
     },
 }
 
@@ -200,7 +218,11 @@ pub struct DataCard {
     /// Parallel paths per phase.
     pub parallel_paths: usize,
     /// Turn-weighted mean turn length, mm.
-    pub mean_turn_mm: Option<f64>,
+    #[serde(
+        rename = "mean_turn_mm",
+        serialize_with = "crate::units::opt_mm::serialize"
+    )]
+    pub mean_turn: Option<Length>,
     /// How the mean turn was found.
     /// (The presenters write this field into the JSON, each fact with its `message`.)
     #[serde(skip)]
@@ -280,28 +302,28 @@ pub struct DataCard {
     pub warnings: Vec<CardWarning>,
 }
 
-/// Mean length of one turn of `coil` (metres), or `None` without the sizes.
-pub fn mean_turn_m(w: &Winding, span_slots: f64) -> Option<f64> {
+/// Mean length of one turn of a coil spanning `span_slots`, or `None` without the sizes.
+pub fn mean_turn(w: &Winding, span_slots: f64) -> Option<Length> {
     let rule = &w.design.turn;
-    if let Some(l) = rule.mean_turn_m {
+    if let Some(l) = rule.mean_turn {
         return Some(l);
     }
-    let stack = w.design.core.stack_m?;
-    let pitch = span_pitch_m(w)?;
-    Some(2.0 * stack + 2.0 * rule.end_factor * span_slots * pitch + rule.end_allowance_m)
+    let stack = w.design.core.stack?;
+    let pitch = span_pitch(w)?;
+    Some(2.0 * stack + 2.0 * rule.end_factor * span_slots * pitch + rule.end_allowance)
 }
 
 /// The slot pitch the span width W is measured with: between the coil sides' centres, at
 /// mid-slot — on a rotary core with its bore and slot depth given, π·(D + h)/Z; otherwise
 /// the slot pitch at the gap (a flat primary's sides lie on a straight line; without the
 /// depth the bore's pitch is all there is).
-pub fn span_pitch_m(w: &Winding) -> Option<f64> {
-    let at_gap = w.slot_pitch_m()?;
+pub fn span_pitch(w: &Winding) -> Option<Length> {
+    let at_gap = w.slot_pitch()?;
     match (
         w.geometry.topology,
-        w.design.core.bore_m,
-        w.design.core.slot_pitch_m,
-        w.design.slot_size_m,
+        w.design.core.bore,
+        w.design.core.slot_pitch,
+        w.design.slot_size,
     ) {
         (crate::winding::Topology::Rotary, Some(d), None, Some((_, h))) => {
             Some(std::f64::consts::PI * (d + h) / w.geometry.slots as f64)
@@ -329,10 +351,10 @@ pub fn path_resistances(w: &Winding) -> Option<Vec<Vec<f64>>> {
 }
 
 /// Resistance at 20 °C of coil `c` wound with `wire`: ρ·N·l_mt/A, with the mean turn of
-/// its span ([`mean_turn_m`]); `None` without the sizes a mean turn needs.
+/// its span ([`mean_turn`]); `None` without the sizes a mean turn needs.
 pub fn coil_resistance_20c(w: &Winding, c: &crate::winding::Coil, wire: &Wire) -> Option<f64> {
-    let l = mean_turn_m(w, w.span(c).unsigned_abs() as f64)?;
-    Some(metal(wire.material).resistivity_ohm_m * f64::from(c.turns) * l / wire.conductor_area_m2())
+    let l = mean_turn(w, w.span(c).unsigned_abs() as f64)?.m();
+    Some(metal(wire.material).resistivity_ohm_m * f64::from(c.turns) * l / wire.conductor_area.m2())
 }
 
 /// Phase resistances at 20 °C (each phase's paths in parallel), ohms; `None` when a phase
@@ -423,17 +445,17 @@ pub fn card(w: &Winding) -> DataCard {
     turns.dedup();
 
     let wire = w.design.wire.as_ref().map(Wire::of);
-    let lengths: Option<Vec<f64>> = w
+    let lengths: Option<Vec<Length>> = w
         .coils
         .iter()
-        .map(|c| mean_turn_m(w, w.span(c).unsigned_abs() as f64))
+        .map(|c| mean_turn(w, w.span(c).unsigned_abs() as f64))
         .collect();
     let total_turns: f64 = w.coils.iter().map(|c| c.turns as f64).sum();
     let mean_turn = lengths.as_ref().filter(|_| total_turns > 0.0).map(|ls| {
         ls.iter()
             .zip(&w.coils)
-            .map(|(l, c)| l * c.turns as f64)
-            .sum::<f64>()
+            .map(|(l, c)| *l * c.turns as f64)
+            .sum::<Length>()
             / total_turns
     });
     if mean_turn.is_none() {
@@ -443,11 +465,11 @@ pub fn card(w: &Winding) -> DataCard {
         warnings.push(CardWarning::NoWire);
     }
     let rule = &w.design.turn;
-    let mean_turn_rule = match rule.mean_turn_m {
+    let mean_turn_rule = match rule.mean_turn {
         Some(_) => MeanTurnRule::Given,
         None => MeanTurnRule::Rule {
             end_factor: rule.end_factor,
-            end_allowance_mm: rule.end_allowance_m * 1e3,
+            end_allowance: rule.end_allowance,
         },
     };
 
@@ -480,7 +502,7 @@ pub fn card(w: &Winding) -> DataCard {
             let per: Vec<f64> = ls
                 .iter()
                 .zip(&w.coils)
-                .map(|(l, c)| rho_m * c.turns as f64 * l * wr.conductor_area_m2())
+                .map(|(l, c)| rho_m * c.turns as f64 * l.m() * wr.conductor_area.m2())
                 .collect();
             let total: f64 = per.iter().sum();
             (
@@ -495,11 +517,10 @@ pub fn card(w: &Winding) -> DataCard {
     // Wires in the fullest slot: turns × strands of every coil side in it.
     let strands = wire.as_ref().map_or(1, |x| x.strands_in_hand) as u64;
     let wires_per_slot = crate::loading::conductors_per_slot(w) * strands;
-    let (fill, copper_fill) = match (&wire, w.design.slot_area_m2) {
+    let (fill, copper_fill) = match (&wire, w.design.slot_area) {
         (Some(wr), Some(area)) => {
-            let d = wr.insulated_diameter_mm * 1e-3;
-            let ins = crate::wire::slot_fill(wires_per_slot as f64, d, area);
-            let cu = wires_per_slot as f64 * wr.area_mm2 * 1e-6 / area;
+            let ins = crate::wire::slot_fill(wires_per_slot as f64, wr.insulated_diameter, area);
+            let cu = wires_per_slot as f64 * wr.area / area;
             (Some(ins), Some(cu))
         }
         _ => (None, None),
@@ -581,7 +602,8 @@ pub fn card(w: &Winding) -> DataCard {
     let density = match (rated_current, &wire) {
         (Some(i), Some(wr)) if three => {
             let (_, per_path) = crate::loading::conductor_current(w, i);
-            Some(per_path / wr.conductor_area_mm2)
+            // A/mm², the unit the trade's limits are given in.
+            Some(per_path / wr.conductor_area.mm2())
         }
         _ => None,
     };
@@ -608,7 +630,7 @@ pub fn card(w: &Winding) -> DataCard {
         series_turns_per_phase: w.series_turns(0),
         connection: w.design.connection,
         parallel_paths: w.parallel_paths,
-        mean_turn_mm: mean_turn.map(|l| l * 1e3),
+        mean_turn,
         mean_turn_rule,
         wire,
         phase_resistance_20c_ohm: phase_mean,
@@ -651,8 +673,7 @@ pub fn card(w: &Winding) -> DataCard {
 /// as a length, or the stack or slot pitch is missing).
 pub fn formers(w: &Winding) -> Vec<Former> {
     let rule = &w.design.turn;
-    let (None, Some(stack), Some(pitch)) =
-        (rule.mean_turn_m, w.design.core.stack_m, span_pitch_m(w))
+    let (None, Some(stack), Some(pitch)) = (rule.mean_turn, w.design.core.stack, span_pitch(w))
     else {
         return Vec::new();
     };
@@ -665,15 +686,15 @@ pub fn formers(w: &Winding) -> Vec<Former> {
         .into_iter()
         .map(|(y, n)| {
             let width = y as f64 * pitch;
-            let ext = rule.end_allowance_m / 4.0;
+            let ext = rule.end_allowance / 4.0;
             let rise = width / 2.0 * (k * k - 1.0).max(0.0).sqrt();
             Former {
                 span: format!("1-{}", y + 1),
                 coils: n,
-                span_width_mm: width * 1e3,
-                straight_mm: (stack + 2.0 * ext) * 1e3,
-                end_extension_mm: (ext + rise) * 1e3,
-                mean_turn_mm: (2.0 * stack + 2.0 * k * width + rule.end_allowance_m) * 1e3,
+                span_width: width,
+                straight: stack + 2.0 * ext,
+                end_extension: ext + rise,
+                mean_turn: 2.0 * stack + 2.0 * k * width + rule.end_allowance,
             }
         })
         .collect()

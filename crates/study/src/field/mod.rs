@@ -20,6 +20,7 @@
 mod ends;
 pub use ends::EndCurrents;
 
+use crate::units::Length;
 use num_complex::Complex64;
 use serde::Serialize;
 use std::f64::consts::PI;
@@ -833,7 +834,7 @@ pub fn field(w: &Winding, opts: &FieldOptions) -> Result<FieldReport, FieldError
             continuous,
             strongest_between_orders,
             ends,
-            synchronous_wavenumber_rad_m: w.pole_pitch_m().map(|t| PI / t),
+            synchronous_wavenumber_rad_m: w.pole_pitch().map(Length::m).map(|t| PI / t),
             synchronous_wavenumber_rad_slot: PI / g.pole_pitch_slots,
             forward_wave: f / amp,
             backward_wave: b / amp,

@@ -10,6 +10,7 @@
 //! slip 2 − s. The field is balanced (circular) when I_b = 0, the auxiliary's
 //! ampere-turns leading the main's by 90°. Core loss, friction and windage are left out.
 
+use crate::units::Capacitance;
 use num_complex::Complex64;
 use std::f64::consts::PI;
 
@@ -77,12 +78,12 @@ impl Motor {
 
     /// Reactance of a capacitor of `uf` microfarads at the supply frequency, ohms.
     pub fn capacitor_ohm(&self, uf: f64) -> f64 {
-        1.0 / (2.0 * PI * self.hz * uf * 1e-6)
+        1.0 / (2.0 * PI * self.hz * Capacitance::from_uf(uf).f())
     }
 
     /// Capacitance with reactance `x` ohms at the supply frequency, µF.
     pub fn microfarads(&self, x: f64) -> f64 {
-        1e6 / (2.0 * PI * self.hz * x)
+        Capacitance::from_f(1.0 / (2.0 * PI * self.hz * x)).uf()
     }
 
     /// The state at slip `s` with `series` in the auxiliary's branch (`None`: the

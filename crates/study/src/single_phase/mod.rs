@@ -316,7 +316,7 @@ fn part(w: &Winding, p: usize, wire: Option<Wire>, given_ohm: Option<f64>, secti
         let m = metal(wi.material);
         let ohm = r_coils(None)?;
         // Mass from resistance: m = R·A²·density/ρ (the same mean turns).
-        let a = wi.conductor_area_m2();
+        let a = wi.conductor_area.m2();
         Some(ohm * a * a * m.density_kg_m3 / m.resistivity_ohm_m)
     });
     Part {
