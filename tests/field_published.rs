@@ -11,6 +11,7 @@
 
 use beltwright::factors;
 use beltwright::field::*;
+use beltwright::flags::{PhasorError, parse_currents};
 use beltwright::layout;
 use beltwright::numbering::SlotNo;
 use beltwright::winding::{self, Winding};
@@ -499,22 +500,22 @@ fn currents_parse_and_refuse_clearly() {
     assert!((c[1] - Complex64::new(0.0, -2.0)).norm() < 1e-12);
     assert!(matches!(
         parse_currents("1@0,1@-120", 3),
-        Err(FieldError::CurrentCount {
+        Err(PhasorError::Count {
             given: 2,
             phases: 3
         })
     ));
     assert!(matches!(
         parse_currents("1@0,x@1,1@2", 3),
-        Err(FieldError::BadCurrent { .. })
+        Err(PhasorError::Bad { .. })
     ));
     assert!(matches!(
         parse_currents("1,1@1,1@2", 3),
-        Err(FieldError::BadCurrent { .. })
+        Err(PhasorError::Bad { .. })
     ));
     assert!(matches!(
         parse_currents("-1@0,1@1,1@2", 3),
-        Err(FieldError::BadCurrent { .. })
+        Err(PhasorError::Bad { .. })
     ));
     let w = rotary(36, 4, 2, 7);
     let zero = parse_currents("0@0,0@0,0@0", 3).unwrap();

@@ -479,7 +479,7 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
         )));
     }
     let currents = match &a.currents {
-        Some(text) => field::parse_currents(text, w.geometry.phases)
+        Some(text) => beltwright::flags::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,
         // A pole-changing winding's higher speed fed as its board feeds it: L1, L2, L3 on
         // the taps in the standard's order, which is not the phases' (so its field turns
@@ -499,7 +499,7 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
         slip: a.slip,
     };
     let name = a.common.file.display().to_string();
-    let fail = |e: field::FieldError| Failure::input(format!("{name}: {e}"));
+    let fail = |e: field::FieldError| Failure::input(format!("{name}: {}", e.message()));
     let report = field::field(&w, &opts).map_err(fail)?;
     if let Some(out) = &a.svg {
         let snaps = field::snapshots(&w, &opts, beltwright::study::FIELD_INSTANTS).map_err(fail)?;

@@ -3,6 +3,7 @@
 //! marked along it to show the travel, and the spectrum as stems, forward solid and
 //! backward dashed. The figures (speed, σ_d, THD) in a line below.
 
+use crate::output::Words;
 use svg::node::element::{Group, Polygon};
 
 use super::chart::{Series, chart};
@@ -27,7 +28,11 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
                 a.y + 8.0,
                 3.5,
                 Anchor::Start,
-                &text::fit(&format!("No travelling field to draw: {e}"), 3.5, a.w),
+                &text::fit(
+                    &format!("No travelling field to draw: {}", e.message()),
+                    3.5,
+                    a.w,
+                ),
             )));
             canvas.finish()
         }

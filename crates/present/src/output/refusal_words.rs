@@ -284,6 +284,27 @@ fn single_phase_refusal(r: &crate::winding::single_phase::SinglePhaseRefusal) ->
     }
 }
 
+/// Why a field could not be worked out.
+impl Words for crate::field::FieldError {
+    fn message(&self) -> String {
+        use crate::field::{FieldError, MAX_OPENING};
+        match self {
+            FieldError::CurrentCount { given, phases } => format!(
+                "{} given for {phases} phases; give one `magnitude@angle_deg` per phase",
+                crate::numbering::count(*given, "current", "currents")
+            ),
+            FieldError::SlotOpening(b) => format!(
+                "slot opening {b} is not valid; give a width from 0 up to (not including) \
+                 {MAX_OPENING} slot pitch"
+            ),
+            FieldError::NoWorkingWave => "the winding and the phase currents set up no working \
+                 wave (order 1 is absent), so no spectrum relative to it exists; check the \
+                 coil list and the currents"
+                .into(),
+        }
+    }
+}
+
 /// Why the flat-primary models could not run, naming the layout key a missing input is
 /// given under (the layout file's words, `../shared/design.md`).
 impl Words for crate::thrust::ThrustError {

@@ -53,38 +53,23 @@ pub enum Direction {
     Backward,
 }
 
-/// Why a field could not be computed.
+/// Why a field could not be computed, as typed facts. Their sentences are the presenters'
+/// (`output::refusal_words`); the `Display` here only names the kind, for logs.
 #[derive(Debug, Error, Clone, PartialEq)]
 pub enum FieldError {
-    /// The current list does not give one phasor per phase.
-    #[error(
-        "{} given for {phases} phases; give one `magnitude@angle_deg` per phase",
-        crate::numbering::count(*.given, "current", "currents")
-    )]
+    /// The currents do not give one phasor per phase.
+    #[error("not one current per phase")]
     CurrentCount {
         /// How many were given.
         given: usize,
         /// How many phases the winding has.
         phases: usize,
     },
-    /// One item of the current list could not be read.
-    #[error("`{item}` is not a current phasor: {why}; write magnitude@angle_deg, e.g. 1@-120")]
-    BadCurrent {
-        /// The item as written.
-        item: String,
-        /// What is wrong with it.
-        why: String,
-    },
-    /// The slot-opening width is out of range.
-    #[error(
-        "slot opening {0} is not valid; give a width from 0 up to (not including) 1 slot pitch"
-    )]
+    /// The slot-opening width, in slot pitches, is out of range.
+    #[error("slot opening out of range")]
     SlotOpening(f64),
     /// Winding and currents make no fundamental wave to compare against.
-    #[error(
-        "the winding and the phase currents set up no working wave (order 1 is absent), so no \
-         spectrum relative to it exists; check the coil list and the currents"
-    )]
+    #[error("no working wave")]
     NoWorkingWave,
 }
 
@@ -97,43 +82,6 @@ pub fn balanced_currents(m: usize, seq: Sequence) -> Vec<Complex64> {
                 Sequence::Positive => a,
                 Sequence::Negative => a.conj(),
             }
-        })
-        .collect()
-}
-
-/// Read a list of phase-current phasors written `magnitude@angle_deg`, comma separated, one
-/// per phase in phase order (e.g. `1@0,1@-120,1@120`).
-pub fn parse_currents(text: &str, phases: usize) -> Result<Vec<Complex64>, FieldError> {
-    let items: Vec<&str> = text.split(',').map(str::trim).collect();
-    if items.len() != phases {
-        return Err(FieldError::CurrentCount {
-            given: items.len(),
-            phases,
-        });
-    }
-    items
-        .iter()
-        .map(|item| {
-            let bad = |why: &str| FieldError::BadCurrent {
-                item: item.to_string(),
-                why: why.into(),
-            };
-            let (m, a) = item.split_once('@').ok_or_else(|| bad("no `@`"))?;
-            let m: f64 = m
-                .trim()
-                .parse()
-                .map_err(|_| bad("the magnitude is not a number"))?;
-            let a: f64 = a
-                .trim()
-                .parse()
-                .map_err(|_| bad("the angle is not a number"))?;
-            if !(0.0..=1e9).contains(&m) {
-                return Err(bad("the magnitude must be from 0 to 1e9"));
-            }
-            if !(a.is_finite() && a.abs() <= 1e6) {
-                return Err(bad("the angle must be a finite number of degrees"));
-            }
-            Ok(Complex64::from_polar(m, a.to_radians()))
         })
         .collect()
 }
