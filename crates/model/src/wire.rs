@@ -108,25 +108,22 @@ pub fn grade_overall_diameter(d: Length, grade: u8) -> Length {
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct Wire {
     /// Bare diameter of one strand, mm.
-    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::in_mm")]
     pub diameter: Length,
     /// Bare cross-section of one strand, mm².
-    #[serde(rename = "area_mm2", serialize_with = "crate::units::mm2::serialize")]
+    #[serde(rename = "area_mm2", serialize_with = "crate::units::in_mm2")]
     pub area: Area,
     /// Strands wound in hand as one conductor.
     pub strands_in_hand: u32,
     /// Copper (or aluminium) cross-section of the whole conductor, mm².
-    #[serde(
-        rename = "conductor_area_mm2",
-        serialize_with = "crate::units::mm2::serialize"
-    )]
+    #[serde(rename = "conductor_area_mm2", serialize_with = "crate::units::in_mm2")]
     pub conductor_area: Area,
     /// AWG gauge: as given, or the gauge this diameter is (within 1 %); null otherwise.
     pub awg: Option<i32>,
     /// Overall diameter over the enamel, mm.
     #[serde(
         rename = "insulated_diameter_mm",
-        serialize_with = "crate::units::mm::serialize"
+        serialize_with = "crate::units::in_mm"
     )]
     pub insulated_diameter: Length,
     /// How the overall diameter was found: "grade 2 (IEC 60317)" or "as given".
@@ -172,7 +169,7 @@ pub struct StandardWire {
     /// Strands in hand.
     pub strands_in_hand: u32,
     /// Bare diameter of each strand, mm (an IEC 60317 nominal size, or an AWG gauge's).
-    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::in_mm")]
     pub diameter: Length,
     /// AWG gauge when the size is taken from the AWG series.
     pub awg: Option<i32>,

@@ -41,10 +41,7 @@ pub enum Assumption {
         /// The limit, T.
         limit_tesla: f64,
         /// Backing thickness, mm.
-        #[serde(
-            rename = "thickness_mm",
-            serialize_with = "crate::units::mm::serialize"
-        )]
+        #[serde(rename = "thickness_mm", serialize_with = "crate::units::in_mm")]
         thickness: Length,
     },
     /// No slot opening given: Carter's coefficient 1.
@@ -58,7 +55,7 @@ pub enum Assumption {
     /// The magnetic gap the model used, millimetres.
     MagneticGap {
         /// Gap, mm.
-        #[serde(rename = "mm", serialize_with = "crate::units::mm::serialize")]
+        #[serde(rename = "mm", serialize_with = "crate::units::in_mm")]
         gap: Length,
     },
     /// No full `[supply]`: currents at 50 Hz and 400 V line voltage.
@@ -104,32 +101,26 @@ pub enum Assumption {
     /// The plate's conductivity the model used, at the plate's temperature.
     PlateConductivity {
         /// MS/m.
-        #[serde(rename = "ms_m", serialize_with = "crate::units::ms_m::serialize")]
+        #[serde(rename = "ms_m", serialize_with = "crate::units::in_ms_m")]
         conductivity: Conductivity,
     },
     /// The plate is narrower than the stack: the edge factor takes it as wide as the stack.
     PlateNarrowerThanStack {
         /// Plate width, mm.
-        #[serde(rename = "plate_mm", serialize_with = "crate::units::mm::serialize")]
+        #[serde(rename = "plate_mm", serialize_with = "crate::units::in_mm")]
         plate: Length,
         /// Stack width, mm.
-        #[serde(rename = "stack_mm", serialize_with = "crate::units::mm::serialize")]
+        #[serde(rename = "stack_mm", serialize_with = "crate::units::in_mm")]
         stack: Length,
     },
     /// The plate is thicker than its skin depth at the supply frequency, so the thin-plate
     /// model holds only at low slips.
     PlateThickerThanSkinDepth {
         /// Plate thickness, mm.
-        #[serde(
-            rename = "thickness_mm",
-            serialize_with = "crate::units::mm::serialize"
-        )]
+        #[serde(rename = "thickness_mm", serialize_with = "crate::units::in_mm")]
         thickness: Length,
         /// Skin depth at the supply frequency (standstill), mm.
-        #[serde(
-            rename = "skin_depth_mm",
-            serialize_with = "crate::units::mm::serialize"
-        )]
+        #[serde(rename = "skin_depth_mm", serialize_with = "crate::units::in_mm")]
         skin_depth: Length,
         /// The slip below which the plate is thinner than its skin depth.
         thin_below_slip: f64,

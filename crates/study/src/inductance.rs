@@ -58,10 +58,7 @@ pub struct InductanceReport {
     /// Closed core or flat primary.
     pub topology: Topology,
     /// Effective gap g_e = k_C·g, mm.
-    #[serde(
-        rename = "effective_gap_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "effective_gap_mm", serialize_with = "crate::units::in_mm")]
     pub effective_gap: Length,
     /// Phase labels.
     pub phases: Vec<String>,

@@ -66,24 +66,15 @@ const CURVE_STEPS: usize = 40;
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct PlateChoice {
     /// Plate thickness, mm.
-    #[serde(
-        rename = "thickness_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "thickness_mm", serialize_with = "crate::units::in_mm")]
     pub thickness: Length,
     /// The metal as asked (null: the layout's plate).
     pub metal: Option<Metal>,
     /// Conductivity used, at the plate's temperature, MS/m.
-    #[serde(
-        rename = "conductivity_ms_m",
-        serialize_with = "crate::units::ms_m::serialize"
-    )]
+    #[serde(rename = "conductivity_ms_m", serialize_with = "crate::units::in_ms_m")]
     pub conductivity: Conductivity,
     /// Mechanical clearance, mm.
-    #[serde(
-        rename = "clearance_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "clearance_mm", serialize_with = "crate::units::in_mm")]
     pub clearance: Length,
     /// Phase current fed, A (null: fed from the supply voltage).
     pub current_a: Option<f64>,

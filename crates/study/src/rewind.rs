@@ -109,16 +109,10 @@ pub struct DesignSide {
 #[derive(Debug, Clone, PartialEq, Serialize, schemars::JsonSchema)]
 pub struct ConductorResult {
     /// Old copper area of one wire, mm².
-    #[serde(
-        rename = "old_area_mm2",
-        serialize_with = "crate::units::mm2::serialize"
-    )]
+    #[serde(rename = "old_area_mm2", serialize_with = "crate::units::in_mm2")]
     pub old_area: Area,
     /// Old wire diameter, when given as a diameter, mm.
-    #[serde(
-        rename = "old_diameter_mm",
-        serialize_with = "crate::units::opt_mm::serialize"
-    )]
+    #[serde(rename = "old_diameter_mm", serialize_with = "crate::units::in_mm_opt")]
     pub old_diameter: Option<Length>,
     /// Wires in hand (in parallel per conductor) of the old winding.
     pub wires_in_hand: u32,
@@ -126,7 +120,7 @@ pub struct ConductorResult {
     /// rounded turns.
     #[serde(
         rename = "new_conductor_area_mm2",
-        serialize_with = "crate::units::mm2::serialize"
+        serialize_with = "crate::units::in_mm2"
     )]
     pub new_conductor_area: Area,
     /// Choices of wires in hand and the bare diameter each wire then needs.
@@ -164,7 +158,7 @@ pub struct WireOption {
     /// Wires in hand.
     pub wires_in_hand: u32,
     /// Bare diameter of each wire, mm.
-    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::in_mm")]
     pub diameter: Length,
 }
 

@@ -161,7 +161,7 @@ pub struct WireChoice {
     /// Strands in hand.
     pub strands_in_hand: u32,
     /// Bare diameter, mm.
-    #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+    #[serde(rename = "diameter_mm", serialize_with = "crate::units::in_mm")]
     pub diameter: Length,
     /// AWG gauge, when from that series.
     pub awg: Option<i32>,

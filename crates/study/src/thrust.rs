@@ -229,10 +229,7 @@ pub struct ThrustReport {
     /// Russell–Norsworthy edge factor K.
     pub edge_factor: f64,
     /// Effective gap g_e = k_C·g, mm.
-    #[serde(
-        rename = "effective_gap_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "effective_gap_mm", serialize_with = "crate::units::in_mm")]
     pub effective_gap: Length,
     /// Magnetising inductance L_m, H.
     pub magnetizing_inductance_h: f64,

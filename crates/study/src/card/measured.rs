@@ -41,7 +41,7 @@ pub enum Suggestion {
         /// Measured over expected.
         ratio: f64,
         /// The bare diameter that would give the reading, mm.
-        #[serde(rename = "diameter_mm", serialize_with = "crate::units::mm::serialize")]
+        #[serde(rename = "diameter_mm", serialize_with = "crate::units::in_mm")]
         diameter: Length,
     },
     /// Every phase high by s/(s − 1): one strand in hand fewer than the card.

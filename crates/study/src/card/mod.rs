@@ -110,25 +110,16 @@ pub struct Former {
     pub coils: usize,
     /// Span width W, centre to centre of the coil sides (at mid-slot when the slot depth
     /// is known), mm.
-    #[serde(
-        rename = "span_width_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "span_width_mm", serialize_with = "crate::units::in_mm")]
     pub span_width: Length,
     /// Straight length of each coil side, mm.
-    #[serde(rename = "straight_mm", serialize_with = "crate::units::mm::serialize")]
+    #[serde(rename = "straight_mm", serialize_with = "crate::units::in_mm")]
     pub straight: Length,
     /// How far each end stands out beyond the core, mm.
-    #[serde(
-        rename = "end_extension_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "end_extension_mm", serialize_with = "crate::units::in_mm")]
     pub end_extension: Length,
     /// Mean turn of this shape, mm.
-    #[serde(
-        rename = "mean_turn_mm",
-        serialize_with = "crate::units::mm::serialize"
-    )]
+    #[serde(rename = "mean_turn_mm", serialize_with = "crate::units::in_mm")]
     pub mean_turn: Length,
 }
 
@@ -143,10 +134,7 @@ pub enum MeanTurnRule {
         /// End-winding length per coil end over the span width.
         end_factor: f64,
         /// Allowance per turn, mm.
-        #[serde(
-            rename = "end_allowance_mm",
-            serialize_with = "crate::units::mm::serialize"
-        )]
+        #[serde(rename = "end_allowance_mm", serialize_with = "crate::units::in_mm")]
         end_allowance: Length,
     },
 }
@@ -218,10 +206,7 @@ pub struct DataCard {
     /// Parallel paths per phase.
     pub parallel_paths: usize,
     /// Turn-weighted mean turn length, mm.
-    #[serde(
-        rename = "mean_turn_mm",
-        serialize_with = "crate::units::opt_mm::serialize"
-    )]
+    #[serde(rename = "mean_turn_mm", serialize_with = "crate::units::in_mm_opt")]
     pub mean_turn: Option<Length>,
     /// How the mean turn was found.
     /// (The presenters write this field into the JSON, each fact with its `message`.)
