@@ -909,116 +909,145 @@ impl RawLayout {
     }
 
     fn shop_data(&self, c: &Checker, mut d: Design) -> Result<Design, LayoutError> {
-        let mm = |v: Option<f64>| v.map(Length::from_mm);
-        let parallel_paths = d.parallel_paths;
         if let Some(k) = &self.core {
-            d.airgap = mm(c.within("core", "airgap_mm", k.airgap_mm, 0.01, 1000.0)?);
-            d.slot_opening =
-                mm(c.within("core", "slot_opening_mm", k.slot_opening_mm, 0.0, 1000.0)?);
-            let area = c.within("core", "slot_area_mm2", k.slot_area_mm2, 0.01, 1e6)?;
-            d.core = self.iron(c, &d)?;
-            let core = d.core;
-            let (bore_w, bottom_w) = (core.slot_width, core.slot_bottom_width);
-            // The slot's size: a rectangle, or for parallel-sided teeth a trapezoid taken
-            // at its mean width. The usable area for the wire is `slot_area_mm2` when given,
-            // else the slot's own area.
-            let size = match (bore_w, bottom_w, core.slot_depth) {
-                (Some(a), Some(b), Some(h)) => Some(((a + b) / 2.0, h)),
-                _ => None,
-            };
-            d.slot_size = size;
-            // A slot given by its width and depth is the usable rectangle, as it always was;
-            // a slot left by parallel-sided teeth is the iron's, less liner and wedge.
-            let usable = match k.slot_width_mm {
-                Some(_) => size.map(|(b, h)| b * h),
-                None => size.and_then(|(b, h)| crate::iron::usable_area(b, h)),
-            };
-            d.slot_area = area.map(Area::from_mm2).or(usable);
-            let rule = TurnRule::default();
-            d.turn = TurnRule {
-                mean_turn: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
-                end_allowance: mm(c.within(
-                    "core",
-                    "end_allowance_mm",
-                    k.end_allowance_mm,
-                    0.0,
-                    10_000.0,
-                )?)
-                .unwrap_or(rule.end_allowance),
-                end_factor: c
-                    .within("core", "end_factor", k.end_factor, 0.0, 10.0)?
-                    .unwrap_or(rule.end_factor),
-            };
+            d = self.core_data(c, k, d)?;
         }
         if let Some(wr) = &self.wire {
-            let size = match (wr.diameter_mm, wr.awg) {
-                (Some(_), Some(_)) => {
-                    return Err(c.err(
-                        "wire",
-                        0,
-                        "awg",
-                        "give the bare size once: diameter_mm or awg, not both".into(),
-                    ));
-                }
-                (Some(dm), None) => WireSize::Diameter(Length::from_mm(
-                    c.within("wire", "diameter_mm", Some(dm), 0.01, 20.0)?
-                        .unwrap_or(dm),
-                )),
-                (None, Some(n)) if (-3..=56).contains(&n) => WireSize::Awg(n as i32),
-                (None, Some(n)) => {
-                    return Err(c.err(
-                        "wire",
-                        0,
-                        "awg",
-                        format!(
-                            "{n} is not a gauge; give a whole number from -3 (0000) to 56, \
-                             e.g. 18"
-                        ),
-                    ));
-                }
-                (None, None) => {
-                    return Err(c.err(
-                        "wire",
-                        0,
-                        "diameter_mm",
-                        "give the bare wire size as diameter_mm (e.g. 0.85) or awg (e.g. 18)"
-                            .into(),
-                    ));
-                }
-            };
-            let strands = c.range(
-                "wire",
-                "strands_in_hand",
-                wr.strands_in_hand.unwrap_or(1),
-                1,
-                100,
-                "number of strands in hand",
-            )? as u32;
-            let insulation = match (wr.grade, wr.insulated_diameter_mm) {
-                (Some(_), Some(_)) => {
-                    return Err(c.err(
-                        "wire",
-                        0,
-                        "insulated_diameter_mm",
-                        "give the enamel once: grade or insulated_diameter_mm, not both".into(),
-                    ));
-                }
-                (Some(g), None) => {
-                    Insulation::Grade(c.range("wire", "grade", g, 1, 3, "IEC 60317 grade")? as u8)
-                }
-                (None, Some(o)) => Insulation::Diameter(Length::from_mm(
-                    c.within("wire", "insulated_diameter_mm", Some(o), 0.01, 25.0)?
-                        .unwrap_or(o),
-                )),
-                (None, None) => Insulation::Grade(2),
-            };
-            d.wire = Some(WireSpec {
-                size,
-                strands_in_hand: strands,
-                insulation,
-                material: wr.material.unwrap_or_default(),
-            });
+            d.wire = Some(self.wire_spec(c, wr)?);
         }
+        d = self.winding_data(c, d)?;
+        if let Some(m) = &self.measured {
+            d.measured = Some(self.measured(c, m, &d)?);
+        }
+        if let Some(n) = &self.nameplate {
+            d.nameplate = Some(nameplate(c, n)?);
+        }
+        if let Some(j) = &self.job {
+            d.job = Some(job(c, j)?);
+        }
+        if let Some(s) = &self.secondary {
+            d.secondary = Some(self.secondary(c, s)?);
+        }
+        Ok(d)
+    }
+
+    /// The `[core]` table's shop data: gap, slot opening, the iron, the slot's size and usable
+    /// area, and the mean-turn rule.
+    fn core_data(&self, c: &Checker, k: &RawCore, mut d: Design) -> Result<Design, LayoutError> {
+        let mm = |v: Option<f64>| v.map(Length::from_mm);
+        d.airgap = mm(c.within("core", "airgap_mm", k.airgap_mm, 0.01, 1000.0)?);
+        d.slot_opening = mm(c.within("core", "slot_opening_mm", k.slot_opening_mm, 0.0, 1000.0)?);
+        let area = c.within("core", "slot_area_mm2", k.slot_area_mm2, 0.01, 1e6)?;
+        d.core = self.iron(c, &d)?;
+        let core = d.core;
+        let (bore_w, bottom_w) = (core.slot_width, core.slot_bottom_width);
+        // The slot's size: a rectangle, or for parallel-sided teeth a trapezoid taken
+        // at its mean width. The usable area for the wire is `slot_area_mm2` when given,
+        // else the slot's own area.
+        let size = match (bore_w, bottom_w, core.slot_depth) {
+            (Some(a), Some(b), Some(h)) => Some(((a + b) / 2.0, h)),
+            _ => None,
+        };
+        d.slot_size = size;
+        // A slot given by its width and depth is the usable rectangle, as it always was;
+        // a slot left by parallel-sided teeth is the iron's, less liner and wedge.
+        let usable = match k.slot_width_mm {
+            Some(_) => size.map(|(b, h)| b * h),
+            None => size.and_then(|(b, h)| crate::iron::usable_area(b, h)),
+        };
+        d.slot_area = area.map(Area::from_mm2).or(usable);
+        let rule = TurnRule::default();
+        d.turn = TurnRule {
+            mean_turn: mm(c.within("core", "mean_turn_mm", k.mean_turn_mm, 1.0, 1e6)?),
+            end_allowance: mm(c.within(
+                "core",
+                "end_allowance_mm",
+                k.end_allowance_mm,
+                0.0,
+                10_000.0,
+            )?)
+            .unwrap_or(rule.end_allowance),
+            end_factor: c
+                .within("core", "end_factor", k.end_factor, 0.0, 10.0)?
+                .unwrap_or(rule.end_factor),
+        };
+        Ok(d)
+    }
+
+    /// The `[wire]` table: bare size, strands in hand, enamel and metal.
+    fn wire_spec(&self, c: &Checker, wr: &RawWire) -> Result<WireSpec, LayoutError> {
+        let size = match (wr.diameter_mm, wr.awg) {
+            (Some(_), Some(_)) => {
+                return Err(c.err(
+                    "wire",
+                    0,
+                    "awg",
+                    "give the bare size once: diameter_mm or awg, not both".into(),
+                ));
+            }
+            (Some(dm), None) => WireSize::Diameter(Length::from_mm(
+                c.within("wire", "diameter_mm", Some(dm), 0.01, 20.0)?
+                    .unwrap_or(dm),
+            )),
+            (None, Some(n)) if (-3..=56).contains(&n) => WireSize::Awg(n as i32),
+            (None, Some(n)) => {
+                return Err(c.err(
+                    "wire",
+                    0,
+                    "awg",
+                    format!(
+                        "{n} is not a gauge; give a whole number from -3 (0000) to 56, \
+                         e.g. 18"
+                    ),
+                ));
+            }
+            (None, None) => {
+                return Err(c.err(
+                    "wire",
+                    0,
+                    "diameter_mm",
+                    "give the bare wire size as diameter_mm (e.g. 0.85) or awg (e.g. 18)".into(),
+                ));
+            }
+        };
+        let strands = c.range(
+            "wire",
+            "strands_in_hand",
+            wr.strands_in_hand.unwrap_or(1),
+            1,
+            100,
+            "number of strands in hand",
+        )? as u32;
+        let insulation = match (wr.grade, wr.insulated_diameter_mm) {
+            (Some(_), Some(_)) => {
+                return Err(c.err(
+                    "wire",
+                    0,
+                    "insulated_diameter_mm",
+                    "give the enamel once: grade or insulated_diameter_mm, not both".into(),
+                ));
+            }
+            (Some(g), None) => {
+                Insulation::Grade(c.range("wire", "grade", g, 1, 3, "IEC 60317 grade")? as u8)
+            }
+            (None, Some(o)) => Insulation::Diameter(Length::from_mm(
+                c.within("wire", "insulated_diameter_mm", Some(o), 0.01, 25.0)?
+                    .unwrap_or(o),
+            )),
+            (None, None) => Insulation::Grade(2),
+        };
+        Ok(WireSpec {
+            size,
+            strands_in_hand: strands,
+            insulation,
+            material: wr.material.unwrap_or_default(),
+        })
+    }
+
+    /// The `[winding]` table's shop data: whether one turn is assumed, a given phase
+    /// resistance, the working temperature, a pole change and the leads.
+    fn winding_data(&self, c: &Checker, mut d: Design) -> Result<Design, LayoutError> {
+        let parallel_paths = d.parallel_paths;
         let w = &self.winding;
         // One turn is assumed where neither the winding nor every listed coil gives turns.
         d.turns_assumed = w.turns_per_coil.is_none()
@@ -1082,123 +1111,117 @@ impl RawLayout {
             marking: w.marking.unwrap_or_default(),
             speed: 0,
         };
-        if let Some(m) = &self.measured {
-            d.measured = Some(self.measured(c, m, &d)?);
-        }
-        if let Some(n) = &self.nameplate {
-            d.nameplate = Some(nameplate(c, n)?);
-        }
-        if let Some(j) = &self.job {
-            d.job = Some(job(c, j)?);
-        }
-        if let Some(s) = &self.secondary {
-            let conductivity = match (s.material, s.conductivity_ms_m) {
-                (Some(_), Some(_)) => {
-                    return Err(c.err(
-                        "secondary",
-                        0,
-                        "conductivity_ms_m",
-                        "give material or conductivity_ms_m, not both".into(),
-                    ));
-                }
-                (None, Some(v)) => Conductivity::from_ms_m(
-                    c.within("secondary", "conductivity_ms_m", Some(v), 0.1, 100.0)?
-                        .unwrap_or(v),
-                )
-                .s_m(),
-                (Some(PlateMaterial::Copper), None) => crate::card::wire::COPPER.conductivity_s_m(),
-                (Some(PlateMaterial::Aluminium), None) | (None, None) => {
-                    crate::card::wire::PLATE_ALUMINIUM_S_M
-                }
-            };
-            let alpha = match s.material {
-                Some(PlateMaterial::Copper) => crate::card::wire::COPPER.alpha_per_k,
-                // Aluminium's coefficient also for a plate given by its conductivity alone
-                // (copper's, 0.00393, differs by 3 %).
-                _ => crate::card::wire::ALUMINIUM.alpha_per_k,
-            };
-            let backing_keys =
-                s.backing_conductivity_ms_m.is_some() || s.backing_permeability.is_some();
-            if (backing_keys || s.backing_thickness_mm.is_some()) && s.back_iron == Some(false) {
+        Ok(d)
+    }
+
+    /// The `[secondary]` table: a flat primary's plate and its backing.
+    fn secondary(&self, c: &Checker, s: &RawSecondary) -> Result<Secondary, LayoutError> {
+        let mm = |v: Option<f64>| v.map(Length::from_mm);
+        let conductivity = match (s.material, s.conductivity_ms_m) {
+            (Some(_), Some(_)) => {
                 return Err(c.err(
                     "secondary",
                     0,
-                    if s.backing_thickness_mm.is_some() {
-                        "backing_thickness_mm"
-                    } else if s.backing_conductivity_ms_m.is_some() {
-                        "backing_conductivity_ms_m"
-                    } else {
-                        "backing_permeability"
-                    },
-                    "a plate between two primaries (back_iron = false) has no backing; remove \
-                     the backing_ keys or set back_iron = true"
-                        .into(),
+                    "conductivity_ms_m",
+                    "give material or conductivity_ms_m, not both".into(),
                 ));
             }
-            if backing_keys && s.backing_thickness_mm.is_none() {
-                return Err(c.err(
-                    "secondary",
-                    0,
-                    "backing_thickness_mm",
-                    "the backing's conductivity and permeability need its thickness; give \
-                     backing_thickness_mm, or leave all three out for ideal back iron"
-                        .into(),
-                ));
+            (None, Some(v)) => Conductivity::from_ms_m(
+                c.within("secondary", "conductivity_ms_m", Some(v), 0.1, 100.0)?
+                    .unwrap_or(v),
+            )
+            .s_m(),
+            (Some(PlateMaterial::Copper), None) => crate::card::wire::COPPER.conductivity_s_m(),
+            (Some(PlateMaterial::Aluminium), None) | (None, None) => {
+                crate::card::wire::PLATE_ALUMINIUM_S_M
             }
-            let backing = match c.within(
+        };
+        let alpha = match s.material {
+            Some(PlateMaterial::Copper) => crate::card::wire::COPPER.alpha_per_k,
+            // Aluminium's coefficient also for a plate given by its conductivity alone
+            // (copper's, 0.00393, differs by 3 %).
+            _ => crate::card::wire::ALUMINIUM.alpha_per_k,
+        };
+        let backing_keys =
+            s.backing_conductivity_ms_m.is_some() || s.backing_permeability.is_some();
+        if (backing_keys || s.backing_thickness_mm.is_some()) && s.back_iron == Some(false) {
+            return Err(c.err(
                 "secondary",
+                0,
+                if s.backing_thickness_mm.is_some() {
+                    "backing_thickness_mm"
+                } else if s.backing_conductivity_ms_m.is_some() {
+                    "backing_conductivity_ms_m"
+                } else {
+                    "backing_permeability"
+                },
+                "a plate between two primaries (back_iron = false) has no backing; remove \
+                 the backing_ keys or set back_iron = true"
+                    .into(),
+            ));
+        }
+        if backing_keys && s.backing_thickness_mm.is_none() {
+            return Err(c.err(
+                "secondary",
+                0,
                 "backing_thickness_mm",
-                s.backing_thickness_mm,
-                0.1,
-                500.0,
-            )? {
-                Some(t) => Some(Backing {
-                    thickness: Length::from_mm(t),
-                    conductivity_s_m: Conductivity::from_ms_m(
-                        c.within(
-                            "secondary",
-                            "backing_conductivity_ms_m",
-                            s.backing_conductivity_ms_m,
-                            0.0,
-                            60.0,
-                        )?
-                        .unwrap_or(BACKING_STEEL_MS_M),
-                    )
-                    .s_m(),
-                    relative_permeability: c
-                        .within(
-                            "secondary",
-                            "backing_permeability",
-                            s.backing_permeability,
-                            1.0,
-                            100_000.0,
-                        )?
-                        .unwrap_or(BACKING_STEEL_PERMEABILITY),
-                }),
-                None => None,
-            };
-            d.secondary = Some(Secondary {
-                temperature_c: c
-                    .within("secondary", "temperature_c", s.temperature_c, -50.0, 400.0)?
-                    .unwrap_or(20.0),
-                alpha_per_k: alpha,
-                backing,
-                conductivity_s_m: conductivity,
-                thickness: Length::from_mm(
+                "the backing's conductivity and permeability need its thickness; give \
+                 backing_thickness_mm, or leave all three out for ideal back iron"
+                    .into(),
+            ));
+        }
+        let backing = match c.within(
+            "secondary",
+            "backing_thickness_mm",
+            s.backing_thickness_mm,
+            0.1,
+            500.0,
+        )? {
+            Some(t) => Some(Backing {
+                thickness: Length::from_mm(t),
+                conductivity_s_m: Conductivity::from_ms_m(
                     c.within(
                         "secondary",
-                        "thickness_mm",
-                        Some(s.thickness_mm),
-                        0.05,
-                        200.0,
+                        "backing_conductivity_ms_m",
+                        s.backing_conductivity_ms_m,
+                        0.0,
+                        60.0,
                     )?
-                    .unwrap_or(s.thickness_mm),
-                ),
-                width: mm(c.within("secondary", "width_mm", s.width_mm, 1.0, 100_000.0)?),
-                back_iron: s.back_iron.unwrap_or(true),
-            });
-        }
-        Ok(d)
+                    .unwrap_or(BACKING_STEEL_MS_M),
+                )
+                .s_m(),
+                relative_permeability: c
+                    .within(
+                        "secondary",
+                        "backing_permeability",
+                        s.backing_permeability,
+                        1.0,
+                        100_000.0,
+                    )?
+                    .unwrap_or(BACKING_STEEL_PERMEABILITY),
+            }),
+            None => None,
+        };
+        Ok(Secondary {
+            temperature_c: c
+                .within("secondary", "temperature_c", s.temperature_c, -50.0, 400.0)?
+                .unwrap_or(20.0),
+            alpha_per_k: alpha,
+            backing,
+            conductivity_s_m: conductivity,
+            thickness: Length::from_mm(
+                c.within(
+                    "secondary",
+                    "thickness_mm",
+                    Some(s.thickness_mm),
+                    0.05,
+                    200.0,
+                )?
+                .unwrap_or(s.thickness_mm),
+            ),
+            width: mm(c.within("secondary", "width_mm", s.width_mm, 1.0, 100_000.0)?),
+            back_iron: s.back_iron.unwrap_or(true),
+        })
     }
 }
 

@@ -489,142 +489,25 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     };
     let w1 = build(probe.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
     let (phi, set_by) = flux_limit(&w1, &req.limits)?;
-    let target = match req.thrust {
-        None => None,
-        Some(_) if w1.geometry.topology != crate::winding::Topology::Linear => {
-            return Err(SizingError::ThrustNotLinear);
-        }
-        Some((thrust_n, at)) => {
-            let slip = match at {
-                At::Slip(s) => s,
-                At::Speed(v) => {
-                    let vs = crate::linear::figures(&w1, Default::default())
-                        .synchronous_speed_m_s
-                        .ok_or(SizingError::Missing(Input::SlotPitch))?;
-                    let s = 1.0 - v / vs;
-                    if !(-10.0..=10.0).contains(&s) {
-                        return Err(SizingError::SpeedOutOfReach {
-                            speed_m_s: v,
-                            field_m_s: vs,
-                        });
-                    }
-                    s
-                }
-            };
-            if !(slip > 0.0 && slip <= 1.0) {
-                return Err(SizingError::SlipOutOfRange {
-                    slip,
-                    field_m_s: crate::linear::figures(&w1, Default::default())
-                        .synchronous_speed_m_s,
-                });
-            }
-            // The model's own refusal (no plate, gap or supply) before any sizing.
-            crate::thrust::point_at(&w1, slip).map_err(SizingError::Thrust)?;
-            Some(Target { thrust_n, slip })
-        }
-    };
+    let target = thrust_target(&w1, req)?;
     let kw = crate::factors::fundamental(&w1).winding;
     let rated = loading::rated_current(base.nameplate.as_ref(), Some(line_v));
     // The layout's conductor metal, copper when it gives none.
     let material = base.wire.map_or(Material::Copper, |w| w.material);
 
-    let mut candidates = Vec::new();
-    let mut nearest: Option<(f64, f64)> = None;
-    let connections: &[Connection] = if star_delta.is_some() {
-        &[Connection::Delta]
-    } else {
-        &[Connection::Star, Connection::Delta]
+    let ask = Ask {
+        req,
+        probe: &probe,
+        leads: base.leads.count,
+        line_v,
+        f,
+        phi,
+        kw,
+        target,
+        rated,
+        material,
     };
-    for &connection in connections {
-        for paths in 1..=w1.geometry.poles.max(1) {
-            let Ok(w) = build(Design {
-                connection,
-                parallel_paths: paths,
-                ..probe.clone()
-            }) else {
-                continue;
-            };
-            // A 9- or 12-lead winding brings out two sections per phase: two paths.
-            if w.parallel_paths != paths || (base.leads.count >= 9 && paths != 2) {
-                continue;
-            }
-            let per_turn = w.series_turns(0);
-            if per_turn <= 0.0 || kw <= 1e-9 {
-                continue;
-            }
-            let v_ph = connection.phase_voltage(line_v);
-            // N_ph·k_w1 = E/(√2·π·f·Φ): the EMF equation solved for the turns.
-            let n_exact = loading::flux_per_pole(req.emf_ratio * v_ph, f, phi) / kw;
-            let exact = n_exact / per_turn;
-            // Distance from a usable whole number, kept for the refusal.
-            let off = if exact < 0.5 {
-                0.5 / exact
-            } else {
-                exact / MAX_TURNS as f64
-            };
-            if nearest.is_none_or(|(o, _)| off < o) {
-                nearest = Some((off, exact));
-            }
-            if exact < 0.5 || exact > MAX_TURNS as f64 {
-                continue;
-            }
-            let fewest = (exact - 1e-9).ceil().max(1.0) as u32;
-            // The winding at `turns` per coil; sized for a thrust, with the largest standard
-            // wire that fits the slot (the primary's resistance, and so its thrust, depends
-            // on it), as the written layout will have it.
-            let with_turns = |turns: u32| {
-                let bare = Winding {
-                    coils: w
-                        .coils
-                        .iter()
-                        .map(|c| winding::Coil { turns, ..c.clone() })
-                        .collect(),
-                    design: Design {
-                        turns_per_coil: turns,
-                        ..w.design.clone()
-                    },
-                    ..w.clone()
-                };
-                match target {
-                    Some(_) => match largest_fitting(&bare, &req.limits, req.awg) {
-                        Some(c) => Winding {
-                            design: Design {
-                                wire: Some(spec_of(&c, material)),
-                                ..bare.design.clone()
-                            },
-                            ..bare
-                        },
-                        None => bare,
-                    },
-                    None => bare,
-                }
-            };
-            // A flat primary sized for a thrust takes the most turns (the least flux and
-            // current) that still give it; otherwise the fewest within the flux limits.
-            let (turns, point) = match target {
-                Some(t) => most_turns_for(&with_turns, fewest, t),
-                None => (fewest, None),
-            };
-            let sized = with_turns(turns);
-            let line = point
-                .map(|p| connection.line_current(p.current_a))
-                .or(rated.map(|r| r.line_a()));
-            let current = line.map(|i| loading::conductor_current(&w, i).1);
-            let wire = current.and_then(|i| wire_for(&sized, i, &req.limits, req.awg));
-            candidates.push(Candidate {
-                connection,
-                parallel_paths: paths,
-                phase_voltage_v: v_ph,
-                turns_per_coil_exact: exact,
-                turns_per_coil: turns,
-                series_turns: per_turn * turns as f64,
-                flux_shortfall_percent: 100.0 * (1.0 - exact / turns as f64),
-                conductor_current_a: current,
-                thrust_n: point.map(|p| p.thrust_n),
-                wire,
-            });
-        }
-    }
+    let (mut candidates, nearest) = candidates(&ask, &w1, star_delta.is_some(), build);
     if candidates.is_empty() {
         let exact = nearest.map_or(0.0, |n| n.1);
         // Voltage scales the turns linearly: the voltages giving 1 and MAX_TURNS turns.
@@ -751,4 +634,170 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         copper_mass_kg: card.copper_mass_kg,
         chosen,
     })
+}
+
+/// The thrust a flat primary is sized for, its speed turned into a slip; `None` when no
+/// thrust is asked. Refused on a rotary core, beyond the field's reach, or where the thrust
+/// model cannot run.
+fn thrust_target(w1: &Winding, req: &Request) -> Result<Option<Target>, SizingError> {
+    Ok(match req.thrust {
+        None => None,
+        Some(_) if w1.geometry.topology != crate::winding::Topology::Linear => {
+            return Err(SizingError::ThrustNotLinear);
+        }
+        Some((thrust_n, at)) => {
+            let slip = match at {
+                At::Slip(s) => s,
+                At::Speed(v) => {
+                    let vs = crate::linear::figures(w1, Default::default())
+                        .synchronous_speed_m_s
+                        .ok_or(SizingError::Missing(Input::SlotPitch))?;
+                    let s = 1.0 - v / vs;
+                    if !(-10.0..=10.0).contains(&s) {
+                        return Err(SizingError::SpeedOutOfReach {
+                            speed_m_s: v,
+                            field_m_s: vs,
+                        });
+                    }
+                    s
+                }
+            };
+            if !(slip > 0.0 && slip <= 1.0) {
+                return Err(SizingError::SlipOutOfRange {
+                    slip,
+                    field_m_s: crate::linear::figures(w1, Default::default())
+                        .synchronous_speed_m_s,
+                });
+            }
+            // The model's own refusal (no plate, gap or supply) before any sizing.
+            crate::thrust::point_at(w1, slip).map_err(SizingError::Thrust)?;
+            Some(Target { thrust_n, slip })
+        }
+    })
+}
+
+/// What every connection and path count is sized against: the request, the probe design
+/// at the chosen span, the supply, the flux per pole allowed and the winding factor.
+struct Ask<'a> {
+    req: &'a Request,
+    probe: &'a Design,
+    leads: u8,
+    line_v: f64,
+    f: f64,
+    phi: f64,
+    kw: f64,
+    target: Option<Target>,
+    rated: Option<Rated>,
+    material: Material,
+}
+
+/// The winding `w` at `turns` per coil; sized for a thrust, with the largest standard wire
+/// that fits the slot (the primary's resistance, and so its thrust, depends on it), as the
+/// written layout will have it.
+fn wound_with(w: &Winding, turns: u32, ask: &Ask) -> Winding {
+    let bare = Winding {
+        coils: w
+            .coils
+            .iter()
+            .map(|c| winding::Coil { turns, ..c.clone() })
+            .collect(),
+        design: Design {
+            turns_per_coil: turns,
+            ..w.design.clone()
+        },
+        ..w.clone()
+    };
+    match ask.target {
+        Some(_) => match largest_fitting(&bare, &ask.req.limits, ask.req.awg) {
+            Some(c) => Winding {
+                design: Design {
+                    wire: Some(spec_of(&c, ask.material)),
+                    ..bare.design.clone()
+                },
+                ..bare
+            },
+            None => bare,
+        },
+        None => bare,
+    }
+}
+
+/// Every connection (delta only for a star/delta pair) and path count that makes a
+/// winding, with its turns for the flux allowed and its wire; and the nearest miss (how far
+/// from a usable turn count, and the exact count) for the refusal when none does.
+fn candidates(
+    ask: &Ask,
+    w1: &Winding,
+    star_delta: bool,
+    build: impl Fn(Design) -> Result<Winding, crate::winding::PlanError>,
+) -> (Vec<Candidate>, Option<(f64, f64)>) {
+    let mut candidates = Vec::new();
+    let mut nearest: Option<(f64, f64)> = None;
+    let connections: &[Connection] = if star_delta {
+        &[Connection::Delta]
+    } else {
+        &[Connection::Star, Connection::Delta]
+    };
+    for &connection in connections {
+        for paths in 1..=w1.geometry.poles.max(1) {
+            let Ok(w) = build(Design {
+                connection,
+                parallel_paths: paths,
+                ..ask.probe.clone()
+            }) else {
+                continue;
+            };
+            // A 9- or 12-lead winding brings out two sections per phase: two paths.
+            if w.parallel_paths != paths || (ask.leads >= 9 && paths != 2) {
+                continue;
+            }
+            let per_turn = w.series_turns(0);
+            if per_turn <= 0.0 || ask.kw <= 1e-9 {
+                continue;
+            }
+            let v_ph = connection.phase_voltage(ask.line_v);
+            // N_ph·k_w1 = E/(√2·π·f·Φ): the EMF equation solved for the turns.
+            let n_exact = loading::flux_per_pole(ask.req.emf_ratio * v_ph, ask.f, ask.phi) / ask.kw;
+            let exact = n_exact / per_turn;
+            // Distance from a usable whole number, kept for the refusal.
+            let off = if exact < 0.5 {
+                0.5 / exact
+            } else {
+                exact / MAX_TURNS as f64
+            };
+            if nearest.is_none_or(|(o, _)| off < o) {
+                nearest = Some((off, exact));
+            }
+            if exact < 0.5 || exact > MAX_TURNS as f64 {
+                continue;
+            }
+            let fewest = (exact - 1e-9).ceil().max(1.0) as u32;
+            let with_turns = |turns: u32| wound_with(&w, turns, ask);
+            // A flat primary sized for a thrust takes the most turns (the least flux and
+            // current) that still give it; otherwise the fewest within the flux limits.
+            let (turns, point) = match ask.target {
+                Some(t) => most_turns_for(&with_turns, fewest, t),
+                None => (fewest, None),
+            };
+            let sized = with_turns(turns);
+            let line = point
+                .map(|p| connection.line_current(p.current_a))
+                .or(ask.rated.map(|r| r.line_a()));
+            let current = line.map(|i| loading::conductor_current(&w, i).1);
+            let wire = current.and_then(|i| wire_for(&sized, i, &ask.req.limits, ask.req.awg));
+            candidates.push(Candidate {
+                connection,
+                parallel_paths: paths,
+                phase_voltage_v: v_ph,
+                turns_per_coil_exact: exact,
+                turns_per_coil: turns,
+                series_turns: per_turn * turns as f64,
+                flux_shortfall_percent: 100.0 * (1.0 - exact / turns as f64),
+                conductor_current_a: current,
+                thrust_n: point.map(|p| p.thrust_n),
+                wire,
+            });
+        }
+    }
+    (candidates, nearest)
 }
