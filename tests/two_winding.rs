@@ -525,3 +525,26 @@ fn a_record_sharing_by_slots_finds_a_coil_laid_in_the_other_windings_slots() {
     );
     assert!(message.contains(&home), "{message}");
 }
+
+/// Every JSON a pair gives opens as every JSON does: `schema_version`, then the caution
+/// (the contract of `shared/design.md`), in every view, for a planned pair (whose audit has
+/// no record of its own) and a recorded one; and the audit's top-level verdict is there.
+#[test]
+fn every_view_of_a_pair_opens_with_the_version_and_the_caution() {
+    for file in [HOIST, "layouts/hoist-two-winding-as-found.toml"] {
+        for view in ["plan", "factors", "field", "card", "audit"] {
+            let o = common::run(&[view, file, "--format", "json"]);
+            let text = String::from_utf8_lossy(&o.stdout);
+            assert!(
+                text.starts_with("{\n  \"schema_version\": 3,\n  \"caution\": \"CAUTION:"),
+                "{view} {file}: {}",
+                &text[..text.len().min(120)]
+            );
+            let v: Value = serde_json::from_str(&text).expect("JSON");
+            assert_eq!(v["kind"], "two-winding", "{view} {file}");
+            if view == "audit" {
+                assert!(v["sound"].is_boolean(), "{file}");
+            }
+        }
+    }
+}

@@ -665,8 +665,7 @@ fn thrust_target(w1: &Winding, req: &Request) -> Result<Option<Target>, SizingEr
             if !(slip > 0.0 && slip <= 1.0) {
                 return Err(SizingError::SlipOutOfRange {
                     slip,
-                    field_m_s: crate::linear::figures(w1, Default::default())
-                        .synchronous_speed_m_s,
+                    field_m_s: crate::linear::figures(w1, Default::default()).synchronous_speed_m_s,
                 });
             }
             // The model's own refusal (no plate, gap or supply) before any sizing.

@@ -490,16 +490,16 @@ impl Report for TwoWindingView<'_, '_> {
         let r = self.study.report();
         let (mut first, _) = self.own(0);
         let (second, _) = self.own(1);
-        // The audit's verdict at the top level is the whole core's: neither winding nor
-        // the pair has anything to act on (each winding's own is in its findings).
-        if self.view == View::Audit {
-            first.insert("sound".into(), serde_json::Value::Bool(self.sound()));
-        }
         if first.is_empty() {
             // Keep the opening every JSON begins with.
             if let Ok(serde_json::Value::Object(o)) = serde_json::to_value(Opening::default()) {
                 first = o;
             }
+        }
+        // The audit's verdict at the top level is the whole core's: neither winding nor
+        // the pair has anything to act on (each winding's own is in its findings).
+        if self.view == View::Audit {
+            first.insert("sound".into(), serde_json::Value::Bool(self.sound()));
         }
         TwoWindingJson {
             first,
