@@ -9,9 +9,7 @@ use std::ops::{Add, AddAssign, Div, Mul, Neg, Sub};
 
 use serde::Serializer;
 
-/// Millimetres in a metre (SI prefix milli). Both directions multiply or divide by this
-/// exact integer, so a size given in millimetres (a nominal wire size, a bore) comes back
-/// out as written.
+/// Millimetres in a metre (SI prefix milli).
 const MM_PER_M: f64 = 1e3;
 /// Square millimetres in a square metre.
 const MM2_PER_M2: f64 = 1e6;
@@ -64,9 +62,10 @@ impl Length {
         self.0
     }
 
-    /// The length in millimetres, for the presenters.
-    pub const fn mm(self) -> f64 {
-        self.0 * MM_PER_M
+    /// The length in millimetres, for the presenters: as it was given, when it was given in
+    /// millimetres ([`as_given`]).
+    pub fn mm(self) -> f64 {
+        as_given(self.0 * MM_PER_M, self.0, |mm| Length::from_mm(mm).0)
     }
 
     /// The larger of two lengths.
@@ -110,9 +109,10 @@ impl Area {
         self.0
     }
 
-    /// The area in square millimetres, for the presenters.
-    pub const fn mm2(self) -> f64 {
-        self.0 * MM2_PER_M2
+    /// The area in square millimetres, for the presenters: as it was given, when it was
+    /// given in square millimetres ([`as_given`]).
+    pub fn mm2(self) -> f64 {
+        as_given(self.0 * MM2_PER_M2, self.0, |mm2| Area::from_mm2(mm2).0)
     }
 
     /// The area in square centimetres (a heat flux is quoted per cm²).
@@ -141,10 +141,35 @@ impl Conductivity {
         self.0
     }
 
-    /// The conductivity in MS/m, for the presenters.
-    pub const fn ms_m(self) -> f64 {
-        self.0 / S_PER_MS
+    /// The conductivity in MS/m, for the presenters: as it was given, when it was given in
+    /// MS/m ([`as_given`]).
+    pub fn ms_m(self) -> f64 {
+        as_given(self.0 / S_PER_MS, self.0, |ms_m| Conductivity::from_ms_m(ms_m).0)
     }
+}
+
+/// `v` (a quantity in the presenters' unit, worked out from `si`), or the shortest decimal
+/// of at most 12 significant digits that `back` turns into the very same `si`. A size typed
+/// as 3.97 mm is stored as the nearest double to 0.00397 m; multiplied back it may read
+/// 3.9700000000000006, which is the same length: it is shown as typed. A length worked out
+/// by a formula is shown as it is unless a 12-digit decimal is that same double.
+fn as_given(v: f64, si: f64, back: impl Fn(f64) -> f64) -> f64 {
+    if v == 0.0 || !v.is_finite() {
+        return v;
+    }
+    // Scale so that 12 significant digits sit left of the point; powers of ten up to 1e22
+    // are exact, so the rounded integer divided back is the decimal's nearest double.
+    let k = 11 - v.abs().log10().floor() as i32;
+    if !(-22..=22).contains(&k) {
+        return v;
+    }
+    let p = 10f64.powi(k.abs());
+    let r = if k >= 0 {
+        (v * p).round() / p
+    } else {
+        (v / p).round() * p
+    };
+    if back(r) == si { r } else { v }
 }
 
 macro_rules! linear {
@@ -309,6 +334,24 @@ mod tests {
         for d in crate::wire::iec_60317() {
             assert_eq!(Length::from_mm(d.mm()).mm(), d.mm());
         }
+    }
+
+    #[test]
+    fn what_is_given_in_millimetres_is_shown_as_given() {
+        // Every size of up to three decimals from 0.001 to 2000 mm, area and MS/m value
+        // comes back as typed (3.97 mm is not shown as 3.9700000000000006).
+        for i in 1..2_000_000u32 {
+            let x = f64::from(i) / 1000.0;
+            assert_eq!(Length::from_mm(x).mm(), x, "{x} mm");
+            assert_eq!(Area::from_mm2(x).mm2(), x, "{x} mm²");
+            assert_eq!(Conductivity::from_ms_m(x).ms_m(), x, "{x} MS/m");
+        }
+        for x in [0.489, 3.97, 3.99, 1.06, 12.5e-6, 1234.5678, 150.0] {
+            assert_eq!(Length::from_mm(x).mm(), x, "{x} mm");
+        }
+        // A length worked out is shown as it is: one ulp off 0.4953 m stays one ulp off.
+        let worked = Length::from_m(0.4953f64.next_up());
+        assert_eq!(worked.mm(), 0.4953f64.next_up() * 1000.0);
         assert_eq!((Length::from_mm(2.0) * Length::from_mm(3.0)).mm2(), 6.0);
     }
 
