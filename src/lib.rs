@@ -15,5 +15,5 @@ pub use beltwright_study::{
 };
 
 pub mod book;
-pub mod flags;
 pub mod layout;
+pub mod phasors;

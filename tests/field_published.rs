@@ -11,9 +11,9 @@
 
 use beltwright::factors;
 use beltwright::field::*;
-use beltwright::flags::{PhasorError, parse_currents};
 use beltwright::layout;
 use beltwright::numbering::SlotNo;
+use beltwright::phasors::{PhasorError, parse_currents};
 use beltwright::winding::{self, Winding};
 use beltwright::winding::{Elec, Mech};
 use num_complex::Complex64;

@@ -95,11 +95,13 @@ fn every_library_crate_forbids_io_the_same_way() {
     }
 }
 
-/// Units are typed inside (`units`: `Length`, `Area`, `Conductivity`, `Capacitance`): the
-/// model and the analyses scale no quantity by a power of ten themselves. Every `* 1e3`,
-/// `/ 1e-6`, `* 1000.0` … in their source is refused outside `units.rs`, the one owner of
-/// the conversions, whether spaced, parenthesised or written with an exponent sign or digit
-/// separators. (A bound or a floor such as `.max(1e-6)` is no conversion and is not matched.)
+/// Units are typed inside (`units`: `Length`, `Area`, `Conductivity`, `Capacitance` and the
+/// prefix helpers): the model and the analyses scale no quantity by a power of ten
+/// themselves. A power of ten of 3, 4 or 6 either side of a `*` or `/` (or after `*=`,
+/// `/=`) in their source is refused outside `crates/model/src/units.rs`, the one owner of
+/// the conversions, however spaced, parenthesised or written (`1e3`, `1e+3`, `1_000.0`,
+/// `0.001f64`). What a scan of the text cannot see (a power of ten behind a named constant
+/// or `powi`) is left to review; a bound or a floor such as `.max(1e-6)` is no conversion.
 #[test]
 fn the_model_and_the_analyses_convert_no_units_themselves() {
     fn walk(dir: &std::path::Path, out: &mut Vec<std::path::PathBuf>) {
@@ -116,8 +118,8 @@ fn the_model_and_the_analyses_convert_no_units_themselves() {
     walk(std::path::Path::new("crates/model/src"), &mut files);
     walk(std::path::Path::new("crates/study/src"), &mut files);
     assert!(files.len() > 40, "the sources were not found");
-    // A power of ten of 3, 4 or 6 (kilo, centi², mega, milli, micro), written as an
-    // exponent or in full, right after a `*` or `/`.
+    let units = std::path::Path::new("crates/model/src/units.rs");
+    assert!(files.iter().any(|f| f == units), "units.rs was not found");
     let is_power = |lit: &str| {
         let t: String = lit.chars().filter(|c| *c != '_').collect();
         let t = t.trim_end_matches("f64");
@@ -126,8 +128,9 @@ fn the_model_and_the_analyses_convert_no_units_themselves() {
             Some(v) if [1e3, 1e-3, 1e4, 1e-4, 1e6, 1e-6].contains(&v)
         )
     };
+    let number = |c: &char| c.is_ascii_alphanumeric() || matches!(c, '.' | '_');
     let mut found = Vec::new();
-    for f in files.iter().filter(|f| !f.ends_with("units.rs")) {
+    for f in files.iter().filter(|f| *f != units) {
         let text = std::fs::read_to_string(f).expect("source");
         for (n, line) in text.lines().enumerate() {
             let code = line.split("//").next().unwrap_or("");
@@ -136,12 +139,40 @@ fn the_model_and_the_analyses_convert_no_units_themselves() {
                 if *c != '*' && *c != '/' {
                     continue;
                 }
-                let rest: String = chars[i + 1..]
-                    .iter()
-                    .skip_while(|c| c.is_whitespace() || **c == '(')
-                    .take_while(|c| c.is_ascii_alphanumeric() || matches!(c, '.' | '_' | '-'))
-                    .collect();
-                if rest.starts_with(|c: char| c.is_ascii_digit()) && is_power(&rest) {
+                // The operand after: past `=`, spaces and brackets; an exponent may carry a sign.
+                let mut after = String::new();
+                let mut k = i + 1;
+                while k < chars.len() && (chars[k].is_whitespace() || "=(".contains(chars[k])) {
+                    k += 1;
+                }
+                while k < chars.len()
+                    && (number(&chars[k])
+                        || ("+-".contains(chars[k]) && matches!(chars[k - 1], 'e' | 'E')))
+                {
+                    after.push(chars[k]);
+                    k += 1;
+                }
+                // The operand before: back past spaces (not a bracket: `x.max(1e-6) * 2.0`
+                // is a floor times two).
+                let mut j = i;
+                while j > 0 && chars[j - 1].is_whitespace() {
+                    j -= 1;
+                }
+                let mut before: Vec<char> = Vec::new();
+                while j > 0
+                    && (number(&chars[j - 1])
+                        || ("+-".contains(chars[j - 1])
+                            && j > 1
+                            && matches!(chars[j - 2], 'e' | 'E')))
+                {
+                    before.push(chars[j - 1]);
+                    j -= 1;
+                }
+                let before: String = before.into_iter().rev().collect();
+                let starts_as_number = |t: &str| t.starts_with(|c: char| c.is_ascii_digit());
+                if (starts_as_number(&after) && is_power(&after))
+                    || (starts_as_number(&before) && is_power(&before))
+                {
                     found.push(format!("{}:{}: {}", f.display(), n + 1, line.trim()));
                 }
             }

@@ -479,7 +479,7 @@ fn run_field(a: FieldArgs) -> Result<Printed, Failure> {
         )));
     }
     let currents = match &a.currents {
-        Some(text) => beltwright::flags::parse_currents(text, w.geometry.phases)
+        Some(text) => beltwright::phasors::parse_currents(text, w.geometry.phases)
             .map_err(|e| Failure::input(format!("--currents: {e}")))?,
         // A pole-changing winding's higher speed fed as its board feeds it: L1, L2, L3 on
         // the taps in the standard's order, which is not the phases' (so its field turns

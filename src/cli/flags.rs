@@ -286,7 +286,9 @@ pub fn plate_metal(s: &str) -> Result<beltwright::plates::Metal, String> {
             |v| (0.1..=100.0).contains(&v),
             "give aluminium, copper, or a conductivity from 0.1 to 100 MS/m",
         )
-        .map(|ms_m| beltwright::plates::Metal::Conductivity { ms_m }),
+        .map(|ms_m| beltwright::plates::Metal::Conductivity {
+            conductivity: beltwright::units::Conductivity::from_ms_m(ms_m),
+        }),
     }
 }
 

@@ -1514,7 +1514,7 @@ fn nameplate(c: &Checker, n: &RawNameplate) -> Result<crate::design::Nameplate, 
         // 1 hp = 745.7 W (mechanical horsepower, NEMA MG 1 ratings).
         (None, Some(hp)) => c
             .within(t, "power_hp", Some(hp), 0.001, 1e5)?
-            .map(|v| v * 745.7),
+            .map(crate::units::watts_of_hp),
         (None, None) => None,
     };
     let list =

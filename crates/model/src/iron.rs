@@ -24,15 +24,15 @@ pub const DEFAULT_STACKING_FACTOR: f64 = 0.95;
 pub const GEOMETRY_TOLERANCE: f64 = 0.02;
 
 /// Absolute part of [`GEOMETRY_TOLERANCE`]: 0.2 mm.
-pub const GEOMETRY_TOLERANCE_ABS: Length = Length::from_m(0.2e-3);
+pub const GEOMETRY_TOLERANCE_ABS: Length = Length::from_mm(0.2);
 
 /// Slot liner thickness taken off each side and the bottom of a slot for its usable area:
 /// 0.3 mm (common practice for low-voltage random windings, from memory).
-pub const LINER: Length = Length::from_m(0.3e-3);
+pub const LINER: Length = Length::from_mm(0.3);
 
 /// Depth at the slot's mouth taken by the tooth tips, the wedge or top stick: 2 mm (common
 /// practice, from memory).
-pub const WEDGE: Length = Length::from_m(2.0e-3);
+pub const WEDGE: Length = Length::from_mm(2.0);
 
 /// The area a slot of mean width `b` and depth `h` leaves for the wire once the liner and
 /// wedge are in: (b − 2·liner)·(h − liner − wedge); `None` when nothing is left.

@@ -21,6 +21,25 @@ const S_PER_MS: f64 = 1e6;
 const UF_PER_F: f64 = 1e6;
 /// Watts in a kilowatt.
 const W_PER_KW: f64 = 1e3;
+/// A value in milli-units per unit (H → mH).
+const MILLI_PER_UNIT: f64 = 1e3;
+/// Watts in a mechanical horsepower: 745.7 (NEMA MG 1 ratings; 550 ft·lbf/s).
+const W_PER_HP: f64 = 745.7;
+
+/// Watts of `hp` mechanical horsepower (a nameplate's rating as written).
+pub const fn watts_of_hp(hp: f64) -> f64 {
+    hp * W_PER_HP
+}
+
+/// Mechanical horsepower of `w` watts, for the presenters.
+pub const fn hp_of_watts(w: f64) -> f64 {
+    w / W_PER_HP
+}
+
+/// A quantity per metre given per millimetre (an electric loading in A/m as A/mm).
+pub const fn per_mm(per_m: f64) -> f64 {
+    per_m / MM_PER_M
+}
 
 /// Watts of `kw` kilowatts (a nameplate's rating as written).
 pub const fn watts_of_kw(kw: f64) -> f64 {
@@ -36,7 +55,7 @@ pub const fn in_kilo(x: f64) -> f64 {
 /// A value in its SI unit written with the prefix milli (H → mH, Wb → mWb), for the
 /// presenters.
 pub const fn in_milli(x: f64) -> f64 {
-    x * MM_PER_M
+    x * MILLI_PER_UNIT
 }
 
 /// A length, metres inside.
@@ -144,7 +163,9 @@ impl Conductivity {
     /// The conductivity in MS/m, for the presenters: as it was given, when it was given in
     /// MS/m ([`as_given`]).
     pub fn ms_m(self) -> f64 {
-        as_given(self.0 / S_PER_MS, self.0, |ms_m| Conductivity::from_ms_m(ms_m).0)
+        as_given(self.0 / S_PER_MS, self.0, |ms_m| {
+            Conductivity::from_ms_m(ms_m).0
+        })
     }
 }
 

@@ -50,7 +50,7 @@ pub const ALUMINIUM: Metal = Metal {
 /// Conductivity of an aluminium secondary plate when only "aluminium" is given: the
 /// IEC 60889 value, 35.4 MS/m (a commercially pure grade; alloys are lower, give
 /// `conductivity_ms_m` for them).
-pub const PLATE_ALUMINIUM_S_M: f64 = 1.0 / 0.028264e-6;
+pub const PLATE_ALUMINIUM_S_M: f64 = 1.0 / ALUMINIUM.resistivity_ohm_m;
 
 /// The metal's constants.
 pub fn metal(m: Material) -> Metal {

@@ -552,8 +552,8 @@ pub fn electric(w: &Winding, limits: &Limits, rated: Option<Rated>) -> Option<El
         conductors_per_slot: z,
         electric_loading_a_m: a,
         current_density_a_mm2: j,
-        // A/m over the millimetres in a metre: A/mm, so that A·J is in A²/mm³.
-        heat_load_a2_mm3: j.map(|j| a / Length::from_m(1.0).mm() * j.value),
+        // A in A/mm, so that A·J is in A²/mm³.
+        heat_load_a2_mm3: j.map(|j| crate::units::per_mm(a) * j.value),
     })
 }
 

@@ -10,7 +10,7 @@ use crate::winding::Winding;
 
 /// Thickness of the separator between two coil sides in one slot: 0.3 mm (common practice
 /// for low-voltage random windings, from memory).
-pub const SEPARATOR: Length = Length::from_m(0.3e-3);
+pub const SEPARATOR: Length = Length::from_mm(0.3);
 
 /// A slot's outline, metres (the packing's and the slot-section sheet's working numbers).
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -22,7 +22,8 @@ pub enum Metal {
     /// A conductivity at 20 °C, MS/m (aluminium's temperature coefficient).
     Conductivity {
         /// MS/m.
-        ms_m: f64,
+        #[serde(rename = "ms_m", serialize_with = "crate::units::in_ms_m")]
+        conductivity: Conductivity,
     },
 }
 
@@ -38,10 +39,9 @@ impl Metal {
                 crate::wire::COPPER.conductivity_s_m(),
                 crate::wire::COPPER.alpha_per_k,
             ),
-            Metal::Conductivity { ms_m } => (
-                Conductivity::from_ms_m(ms_m).s_m(),
-                crate::wire::ALUMINIUM.alpha_per_k,
-            ),
+            Metal::Conductivity { conductivity } => {
+                (conductivity.s_m(), crate::wire::ALUMINIUM.alpha_per_k)
+            }
         }
     }
 }

@@ -33,7 +33,7 @@ use crate::wire as wires;
 
 /// Largest strand diameter offered for random-wound coils: 1.6 mm (common practice, from
 /// memory: thicker wire is hard to shape by hand and to insert through the slot opening).
-pub const MAX_STRAND: Length = Length::from_m(1.6e-3);
+pub const MAX_STRAND: Length = Length::from_mm(1.6);
 
 /// Most strands in hand offered.
 pub const MAX_STRANDS: u32 = 4;

@@ -45,7 +45,7 @@ pub fn rating_words(n: &crate::design::Nameplate, hp: bool) -> Vec<String> {
             format!(
                 "{} kW ({} hp)",
                 num(crate::units::in_kilo(p), 3),
-                num(p / 745.7, 2)
+                num(crate::units::hp_of_watts(p), 2)
             )
         } else {
             format!("{} kW", num(crate::units::in_kilo(p), 2))

@@ -250,10 +250,7 @@ pub fn loading_table(l: &Loading) -> Table {
             "electric loading".into(),
             format!(
                 "{} A/mm",
-                num(
-                    e.electric_loading_a_m * crate::units::Length::from_mm(1.0).m(),
-                    1
-                )
+                num(crate::units::per_mm(e.electric_loading_a_m), 1)
             ),
             String::new(),
             String::new(),

@@ -8,7 +8,7 @@ use serde_json::Value;
 
 /// (command, schema of its JSON output) for every analysis command.
 pub fn all() -> Vec<(&'static str, Value)> {
-    let v = |s: schemars::Schema| s.to_value();
+    let v = |s: schemars::Schema| sorted(s.to_value());
     use super::json::*;
     vec![
         ("plan", v(schema_for!(PlanJson))),
@@ -47,4 +47,18 @@ pub fn all() -> Vec<(&'static str, Value)> {
             v(schema_for!(beltwright_study::record::Entry)),
         ),
     ]
+}
+
+/// `v` with every object's keys in order, so a schema file reads the same whatever order
+/// the generator kept them in (the JSON output itself keeps its fields' order).
+fn sorted(v: Value) -> Value {
+    match v {
+        Value::Object(m) => {
+            let mut pairs: Vec<(String, Value)> = m.into_iter().collect();
+            pairs.sort_by(|a, b| a.0.cmp(&b.0));
+            Value::Object(pairs.into_iter().map(|(k, x)| (k, sorted(x))).collect())
+        }
+        Value::Array(a) => Value::Array(a.into_iter().map(sorted).collect()),
+        other => other,
+    }
 }
