@@ -536,3 +536,16 @@ fn a_rating_the_core_cannot_carry_says_what_it_can() {
     assert!((p / (55_000.0 * 6.0 / j) - 1.0).abs() < 1e-12);
     assert!(p < 55_000.0);
 }
+
+/// A core no balanced winding fits is refused with the plan's own reason and the slot
+/// counts that would do (the rule Z = multiple of m·gcd(Z, p) for a double layer; common
+/// practice), not a bare "no winding".
+#[test]
+fn a_core_no_winding_fits_is_refused_with_the_plans_reason() {
+    let file = common::temp_layout(&stripped("").replace("slots = 36", "slots = 35"));
+    let o = common::run(&["size", file.path().to_str().expect("path")]);
+    assert_eq!(o.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert!(err.contains("35 slots cannot carry"), "{err}");
+    assert!(err.contains("33 or 36 slots can"), "{err}");
+}

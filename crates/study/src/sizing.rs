@@ -129,9 +129,13 @@ pub enum SizingError {
         /// The field speed v_s, m/s.
         field_m_s: f64,
     },
-    /// No three-phase winding can be built on this core (the plan's refusal).
-    #[error("no winding can be built on this core: {0}")]
-    NoWinding(String),
+    /// No three-phase winding can be built on this core (the plan's refusal, kept typed so
+    /// it is worded as `plan` words it).
+    #[error("no winding can be built on this core")]
+    NoWinding(crate::winding::PlanError),
+    /// The chosen winding's loadings could not be worked out (it has no working turns).
+    #[error("the chosen winding's loadings cannot be worked out")]
+    Loading(loading::LoadingError),
     /// The voltage needs less than half a turn per coil, or more than a coil may have, in
     /// every connection and path count.
     #[error("no whole number of turns per coil fits the voltage")]
@@ -475,7 +479,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         },
         ..base.clone()
     };
-    let w0 = build(probe.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
+    let w0 = build(probe.clone()).map_err(SizingError::NoWinding)?;
     let (span, span_choice) = match base.pitch {
         Some(y) => (y, SpanChoice::Given),
         None => match pitch::compare(&w0, &PitchGoal::default()).recommended {
@@ -487,7 +491,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         pitch: Some(span),
         ..probe
     };
-    let w1 = build(probe.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
+    let w1 = build(probe.clone()).map_err(SizingError::NoWinding)?;
     let (phi, set_by) = flux_limit(&w1, &req.limits)?;
     let target = thrust_target(&w1, req)?;
     let kw = crate::factors::fundamental(&w1).winding;
@@ -554,7 +558,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
                 turns_per_coil: best.turns_per_coil,
                 ..probe.clone()
             })
-            .map_err(|e| SizingError::NoWinding(e.to_string()))?;
+            .map_err(SizingError::NoWinding)?;
             largest_fitting(&probe, &req.limits, req.awg).map(|c| WireChoice {
                 current_density_a_mm2: i
                     / (c.strands_in_hand as f64 * Area::of_circle(c.diameter).mm2()),
@@ -582,7 +586,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
         nameplate: rated_plate.or(probe.nameplate.clone()),
         ..probe
     };
-    let w = build(chosen.clone()).map_err(|e| SizingError::NoWinding(e.to_string()))?;
+    let w = build(chosen.clone()).map_err(SizingError::NoWinding)?;
     let point = target.and_then(|t| operating_point(&w, t.slip));
     let at = point.zip(target).map(|(p, t)| Rated::ThrustModel {
         line_a: best.connection.line_current(p.current_a),
@@ -605,7 +609,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     let loading = loading::of_rated(&w, &req.limits, req.emf_ratio, at).map_err(|e| match e {
         loading::LoadingError::Missing(i) => SizingError::Missing(i),
         loading::LoadingError::NoTurns | loading::LoadingError::TurnsAssumed => {
-            SizingError::NoWinding(e.to_string())
+            SizingError::Loading(e)
         }
     })?;
     let card = crate::card::card(&w);

@@ -40,7 +40,10 @@ impl Words for SizingError {
     fn message(&self) -> String {
         match self {
             SizingError::Missing(i) => format!("sizing needs {}", key_of(*i)),
-            SizingError::NoWinding(why) => format!("no winding can be built on this core: {why}"),
+            SizingError::Loading(why) => why.message(),
+            SizingError::NoWinding(why) => {
+                format!("no winding can be built on this core: {}", why.message())
+            }
             SizingError::NotThreePhase(m) => format!(
                 "sizing is for three-phase windings; this core is laid out for {m} phases \
                  (machine.phases)"
