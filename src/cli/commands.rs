@@ -190,21 +190,8 @@ pub fn run(cli: Cli) -> Result<Printed, Failure> {
         Command::Speeds(a) => {
             let w = load(&a.common.file)?;
             let name = a.common.file.display();
-            let report = beltwright::speeds::speeds(&w).map_err(|e| {
-                use beltwright::speeds::SpeedsError;
-                Failure::input(match e {
-                    SpeedsError::NotPoleChanging => format!(
-                        "{name}: not a pole-changing winding; give winding.pole_change = \
-                         \"delta-double-star\" (constant torque) or \"star-double-star\" \
-                         (variable torque)"
-                    ),
-                    SpeedsError::Unbalanced { poles } => format!(
-                        "{name}: the phases are not balanced at {poles} poles; a \
-                         pole-changing winding needs whole slots per pole and phase at the \
-                         lower pole count (machine.slots a multiple of 3 × machine.poles)"
-                    ),
-                })
-            })?;
+            let report = beltwright::speeds::speeds(&w)
+                .map_err(|e| Failure::input(format!("{name}: {}", e.message())))?;
             Ok(present(report, a.common.format))
         }
         Command::Template(a) => {
@@ -379,13 +366,8 @@ fn run_plates(a: PlatesArgs) -> Result<Printed, Failure> {
             .collect(),
         current_a: a.current,
     };
-    let r = beltwright::plates::plates(&w, &q).map_err(|e| {
-        let why = match &e {
-            beltwright::plates::PlatesError::Thrust(t) => t.message(),
-            other => other.to_string(),
-        };
-        Failure::input(format!("{}: {why}", a.common.file.display()))
-    })?;
+    let r = beltwright::plates::plates(&w, &q)
+        .map_err(|e| Failure::input(format!("{}: {}", a.common.file.display(), e.message())))?;
     if let Some(out) = &a.chart {
         let kind = FileKind::of_path(out).ok_or_else(|| {
             Failure::input(format!(

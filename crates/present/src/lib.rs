@@ -4,9 +4,8 @@
 
 use beltwright_model::{design, iron, numbering, sanitize, spec, units, winding};
 use beltwright_study::{
-    assumption, audit, card, factors, field, header, inductance, layers, linear, loading, packing,
-    pitch, plan, plates, rewind, single_phase, sizing, speeds, study, survey, thrust, two_winding,
-    warnings,
+    assumption, audit, card, factors, field, header, inductance, layers, loading, pitch, plan,
+    plates, rewind, single_phase, sizing, speeds, study, survey, thrust, two_winding, warnings,
 };
 
 pub mod draw;

@@ -121,6 +121,45 @@ pub fn pack(o: &Outline, d: f64, sides: &[u64]) -> Packing {
     }
 }
 
+/// The fullest slot as the slot-section sheet draws it: which slot (0-based), its coil
+/// sides (phase, turns; bottom first), its outline, the wires each side needs (turns ×
+/// strands) and, when the wire is known, where the packing rule lays them.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SlotPacking {
+    /// The fullest slot, 0-based.
+    pub slot: usize,
+    /// Its coil sides, bottom layer first, as (phase, turns).
+    pub sides: Vec<(usize, u32)>,
+    /// The slot's outline.
+    pub outline: Outline,
+    /// Wires each side needs: turns × strands in hand.
+    pub wires: Vec<u64>,
+    /// The wires laid, when the wire (its diameter over the enamel) is known.
+    pub laid: Option<Packing>,
+}
+
+/// The fullest slot of `w` packed by the rule of [`pack`], when the slot's width and depth
+/// are known: the section sheet's one report.
+pub fn slot_packing(w: &Winding) -> Option<SlotPacking> {
+    crate::runs::count(crate::runs::Analysis::Packing);
+    let outline = Outline::of(w)?;
+    let (slot, sides) = fullest(w);
+    let wire = w.design.wire.as_ref().map(crate::wire::Wire::of);
+    let strands = wire.as_ref().map_or(1, |x| x.strands_in_hand);
+    let wires: Vec<u64> = sides
+        .iter()
+        .map(|(_, t)| *t as u64 * strands as u64)
+        .collect();
+    let laid = wire.map(|x| pack(&outline, x.insulated_diameter.m(), &wires));
+    Some(SlotPacking {
+        slot,
+        sides,
+        outline,
+        wires,
+        laid,
+    })
+}
+
 /// The fullest slot of `w` (0-based) and its coil sides, bottom layer first, as (phase,
 /// turns).
 pub fn fullest(w: &Winding) -> (usize, Vec<(usize, u32)>) {

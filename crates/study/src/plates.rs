@@ -116,14 +116,14 @@ pub struct PlatesReport {
     pub double_sided: bool,
 }
 
-/// Why a comparison cannot be made.
+/// Why a comparison cannot be made, as typed facts worded by the presenters.
 #[derive(Debug, thiserror::Error, Clone, PartialEq)]
 pub enum PlatesError {
     /// The flat-primary models refused the layout or a combination.
     #[error(transparent)]
     Thrust(#[from] ThrustError),
     /// More combinations than the comparison takes.
-    #[error("{0} combinations asked; give at most {MAX_CHOICES}")]
+    #[error("too many combinations ({0})")]
     TooMany(usize),
 }
 

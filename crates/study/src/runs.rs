@@ -35,12 +35,14 @@ pub enum Analysis {
     SinglePhase,
     /// `two_winding::TwoStudy::report`.
     TwoWinding,
+    /// `packing::slot_packing`.
+    Packing,
 }
 
 impl Analysis {
     /// The analyses that report on one winding (a study's); the sizing makes a new winding
     /// and is not among them.
-    pub const OF_A_WINDING: [Analysis; 10] = [
+    pub const OF_A_WINDING: [Analysis; 11] = [
         Analysis::Plan,
         Analysis::Factors,
         Analysis::Field,
@@ -51,11 +53,12 @@ impl Analysis {
         Analysis::Thrust,
         Analysis::Inductance,
         Analysis::Loading,
+        Analysis::Packing,
     ];
 }
 
 /// One counter per [`Analysis`] variant.
-static RUNS: [AtomicUsize; 14] = [const { AtomicUsize::new(0) }; 14];
+static RUNS: [AtomicUsize; 15] = [const { AtomicUsize::new(0) }; 15];
 
 /// Count one run of `a`.
 pub fn count(a: Analysis) {

@@ -41,6 +41,7 @@ pub struct Study<'w> {
     plan: OnceLock<PlanReport>,
     audit: OnceLock<Option<AuditReport>>,
     card: OnceLock<DataCard>,
+    slot_packing: OnceLock<Option<crate::packing::SlotPacking>>,
     thrust: OnceLock<Result<ThrustReport, ThrustError>>,
     inductance: OnceLock<Option<Result<InductanceReport, ThrustError>>>,
     factors: OnceLock<FactorTable>,
@@ -65,6 +66,7 @@ impl<'w> Study<'w> {
             plan: OnceLock::new(),
             audit: OnceLock::new(),
             card: OnceLock::new(),
+            slot_packing: OnceLock::new(),
             thrust: OnceLock::new(),
             inductance: OnceLock::new(),
             factors: OnceLock::new(),
@@ -146,6 +148,13 @@ impl<'w> Study<'w> {
     /// The winding data card.
     pub fn card(&self) -> &DataCard {
         self.card.get_or_init(|| card::card(self.winding))
+    }
+
+    /// The fullest slot packed as the section sheet draws it, when the slot's size is known.
+    pub fn slot_packing(&self) -> Option<&crate::packing::SlotPacking> {
+        self.slot_packing
+            .get_or_init(|| crate::packing::slot_packing(self.winding))
+            .as_ref()
     }
 
     /// A flat primary's performance over [`THRUST_SWEEP`], or why there is none.

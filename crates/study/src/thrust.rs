@@ -42,20 +42,21 @@ use crate::winding::{Topology, Winding};
 /// Permeability of free space, H/m (CODATA 2018, μ0 = 1.25663706212e-6).
 pub const MU0: f64 = 1.256_637_062_12e-6;
 
-/// Why the performance cannot be worked out.
+/// Why the performance cannot be worked out, as typed facts. Their sentences are the
+/// presenters' (`output::refusal_words`); the `Display` here only names the kind, for logs.
 #[derive(Debug, Error, Clone, PartialEq)]
 pub enum ThrustError {
     /// Rotary cores have no thrust here.
-    #[error("thrust is worked out for flat primaries (topology = \"linear\") only")]
+    #[error("not a flat primary")]
     NotLinear,
     /// An input the model needs is missing (its layout key is the presenters' to name).
-    #[error("the model needs an input the layout does not give ({0:?})")]
+    #[error("an input is missing ({0:?})")]
     Missing(Input),
     /// The winding has no fundamental.
-    #[error("the winding has no fundamental EMF, so no working wave to drive the plate")]
+    #[error("no fundamental")]
     NoFundamental,
     /// The field model's phase equations have no single solution at this slip.
-    #[error("the field model's phase equations have no solution at slip {slip}")]
+    #[error("no single solution at slip {slip}")]
     NoSolution {
         /// The slip (not a number when no slip was asked).
         slip: f64,

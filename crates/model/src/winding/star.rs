@@ -204,16 +204,20 @@ pub fn is_positive_sequence(e: &[Complex64]) -> bool {
         return false;
     }
     let (f, _, _) = symmetrical_components(e);
+    matches_forward(e, f, (0..m).map(|k| phase_operator(k, m)))
+}
+
+/// The balance rule itself, given the forward component `f` of `e` and the phase operators
+/// `u` (u_k = [`phase_operator`]`(k, m)`): a working wave, and every phasor within
+/// [`BALANCE_TOL`] of f·u_k, r.m.s. over the phases. [`is_positive_sequence`] and the
+/// audit's search (which keeps its operators in a table for its hot loop) both read it.
+pub fn matches_forward(e: &[Complex64], f: Complex64, u: impl Iterator<Item = Complex64>) -> bool {
     let fm = f.norm();
     if !has_working_wave(fm, e) {
         return false;
     }
-    let r2: f64 = e
-        .iter()
-        .enumerate()
-        .map(|(k, x)| (x - f * phase_operator(k, m)).norm_sqr())
-        .sum();
-    r2.sqrt() <= BALANCE_TOL * fm * (m as f64).sqrt()
+    let r2: f64 = e.iter().zip(u).map(|(x, uk)| (x - f * uk).norm_sqr()).sum();
+    r2.sqrt() <= BALANCE_TOL * fm * (e.len() as f64).sqrt()
 }
 
 /// True when phasors `e` are all equal to their mean within [`BALANCE_TOL`] of its magnitude

@@ -14,7 +14,6 @@ use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::iron::{LINER, WEDGE};
 use crate::output::num;
-use crate::packing::Outline;
 use crate::units::Length;
 
 /// Body text height, mm.
@@ -24,7 +23,7 @@ const LINE: f64 = 4.6;
 
 /// Whether the winding's slot can be drawn (its width and depth are known).
 pub fn applies(s: &crate::study::Study) -> bool {
-    Outline::of(s.winding()).is_some()
+    s.slot_packing().is_some()
 }
 
 /// Draw the sheet; without a slot size it says what is missing.
@@ -32,7 +31,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     let w = s.winding();
     let mut c = Canvas::new(page, &TitleBlock::of(s, "Slot section"));
     let a = c.area;
-    let Some(o) = Outline::of(w) else {
+    let Some(sp) = s.slot_packing() else {
         c.add(Group::new().set("class", "not-available").add(label(
             a.x,
             a.y + 6.0,
@@ -45,9 +44,8 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     };
     let pal = Palette::new(w.geometry.phases, w.labels.colours.as_deref());
     let card = s.card();
-    let (slot, sides) = crate::packing::fullest(w);
+    let (o, slot, sides) = (sp.outline, sp.slot, &sp.sides);
     let wire = card.wire.as_ref();
-    let strands = wire.map_or(1, |x| x.strands_in_hand);
     let d_over = wire.map(|x| x.insulated_diameter.m());
     let (liner, wedge) = (LINER.m(), WEDGE.m());
     // The outline is in metres; the sheet writes millimetres.
@@ -118,14 +116,9 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
     );
 
     // Wires, bottom layer first, where the packing rule lays them.
-    let needed: Vec<u64> = sides
-        .iter()
-        .map(|(_, t)| *t as u64 * strands as u64)
-        .collect();
-    let total: u64 = needed.iter().sum();
+    let total: u64 = sp.wires.iter().sum();
     let mut drawn = 0u64;
-    if let Some(dw) = d_over {
-        let p = crate::packing::pack(&o, dw, &needed);
+    if let (Some(dw), Some(p)) = (d_over, &sp.laid) {
         for y in &p.separators {
             g = g.add(
                 Line::new()

@@ -8,7 +8,6 @@
 //! numbers. Large cores wrap onto several rows; the slot pitch on paper is capped so small
 //! cores are not blown up.
 
-use num_complex::Complex64;
 use svg::node::element::path::Data;
 use svg::node::element::{ClipPath, Definitions, Group, Line, Path, Polygon, Rectangle};
 
@@ -17,7 +16,7 @@ use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use super::title::TitleBlock;
 use crate::output::num;
-use crate::winding::{Elec, Topology, Winding, coil_groups};
+use crate::winding::{Topology, Winding, coil_groups};
 
 /// Largest slot pitch on paper, mm: a small core spreads over the page without its
 /// slots turning into boxes.
@@ -190,7 +189,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
             let mut block = TitleBlock::of(s, "Slot layout");
             block.page = (k + 1, pages);
             let mut canvas = Canvas::new(page, &block);
-            canvas.add(header(w, s.single_phase(), &s.plan().figures, &pal, area));
+            canvas.add(header(w, s.single_phase(), s.plan(), &pal, area));
             let first = k * per_page;
             let body = Group::new()
                 .set("class", "core")
@@ -215,7 +214,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> Vec<String> {
 fn header(
     w: &Winding,
     single: Option<&crate::single_phase::SinglePhaseReport>,
-    figures: &crate::linear::Figures,
+    plan: &crate::plan::PlanReport,
     pal: &Palette,
     area: Rect,
 ) -> Group {
@@ -260,7 +259,13 @@ fn header(
     ));
     // Travelling field.
     let y2 = area.y + 8.5;
-    let dir = field_direction(w);
+    // Towards higher slot numbers with the phases supplied in label order: the plan's
+    // sequence (phase 2 lagging phase 1 lies further along, so the field moves forward).
+    let dir = (w.geometry.phases >= 2)
+        .then_some(plan.sequence)
+        .flatten()
+        .map(|q| q == crate::winding::star::Sequence::Positive);
+    let figures = &plan.figures;
     let sequence: Vec<&str> = (0..w.geometry.phases).map(|k| w.label(k)).collect();
     let what = match w.geometry.topology {
         Topology::Linear => "Travelling field",
@@ -392,19 +397,6 @@ fn header(
         .set("class", "counts"),
     );
     g
-}
-
-/// True when the field travels towards higher slot numbers with the phases supplied in
-/// label order, false when it travels the other way; `None` when the phase EMFs are not an
-/// equal, evenly spaced set. With EMF ∝ e^{−jθ}, phase 2 lagging phase 1 means its coils lie
-/// further along, so the field moves forward.
-fn field_direction(w: &Winding) -> Option<bool> {
-    let m = w.geometry.phases;
-    if m < 2 {
-        return None;
-    }
-    let e: Vec<Complex64> = (0..m).map(|k| w.phase_emf(k, Elec::FUNDAMENTAL)).collect();
-    crate::winding::star::sequence_of(&e).map(|s| s == crate::winding::star::Sequence::Positive)
 }
 
 fn phase_line(pal: &Palette, k: usize, x1: f64, y1: f64, x2: f64, y2: f64, width: f64) -> Line {

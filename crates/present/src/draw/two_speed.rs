@@ -13,6 +13,7 @@ use super::page::{Rect, rule};
 use super::palette::Palette;
 use super::text::{self, Anchor, label, r};
 use crate::design::PoleChange;
+use crate::output::Words;
 use crate::output::speeds_report;
 use crate::speeds::{Duty, SpeedConnection, SpeedsError, SpeedsReport};
 use crate::winding::pole_change::{self, Lead, six_leads_halves};
@@ -395,12 +396,7 @@ pub fn connection(
     let report = match report {
         Ok(r) => r,
         Err(e) => {
-            let why = match e {
-                SpeedsError::NotPoleChanging => "the layout is not pole-changing".to_string(),
-                SpeedsError::Unbalanced { poles } => format!(
-                    "the phases are not balanced at {poles} poles, so neither speed's board is drawn: check the groups' polarities"
-                ),
-            };
+            let why = format!("{}; neither speed's board is drawn", e.message());
             for l in text::wrap(&why, SIZE, at.w - 2.0) {
                 g = g.add(label(at.x, y, SIZE, Anchor::Start, &l));
                 y += LINE;

@@ -284,6 +284,37 @@ fn single_phase_refusal(r: &crate::winding::single_phase::SinglePhaseRefusal) ->
     }
 }
 
+/// Why a pole-changing winding's two speeds could not be worked out.
+impl Words for crate::speeds::SpeedsError {
+    fn message(&self) -> String {
+        use crate::speeds::SpeedsError;
+        match self {
+            SpeedsError::NotPoleChanging => "not a pole-changing winding; give \
+                 winding.pole_change = \"delta-double-star\" (constant torque) or \
+                 \"star-double-star\" (variable torque)"
+                .into(),
+            SpeedsError::Unbalanced { poles } => format!(
+                "the phases are not balanced at {poles} poles; a pole-changing winding needs \
+                 whole slots per pole and phase at the lower pole count (machine.slots a \
+                 multiple of 3 × machine.poles) and its groups' polarities as laid out"
+            ),
+        }
+    }
+}
+
+/// Why a plates comparison could not be made.
+impl Words for crate::plates::PlatesError {
+    fn message(&self) -> String {
+        use crate::plates::{MAX_CHOICES, PlatesError};
+        match self {
+            PlatesError::Thrust(t) => t.message(),
+            PlatesError::TooMany(n) => {
+                format!("{n} combinations asked; give at most {MAX_CHOICES}")
+            }
+        }
+    }
+}
+
 /// Why a field could not be worked out.
 impl Words for crate::field::FieldError {
     fn message(&self) -> String {

@@ -416,20 +416,11 @@ impl Balance {
         st.t[..self.m].iter().all(|&t| t == st.t[0]) && self.ok(&st.e[..self.m])
     }
 
-    /// True when `s` is a non-zero positive-sequence set.
+    /// True when `s` is a non-zero positive-sequence set (the one balance rule,
+    /// `star::matches_forward`, with this search's table of operators).
     fn ok(&self, s: &[C]) -> bool {
         let f = self.forward(s);
-        let fm = f.norm();
-        if !crate::winding::star::has_working_wave(fm, &s[..self.m]) {
-            return false;
-        }
-        let r2: f64 = s
-            .iter()
-            .zip(&self.u)
-            .take(self.m)
-            .map(|(x, u)| (x - f * u).norm_sqr())
-            .sum();
-        r2.sqrt() <= BALANCE_TOL * fm * (self.m as f64).sqrt()
+        crate::winding::star::matches_forward(&s[..self.m], f, self.u[..self.m].iter().copied())
     }
 
     /// ℓ(R(Δ)) for a delta on phases a and b: Re Σ β_k R_k with R = Δ − F(Δ)·u.
@@ -604,7 +595,7 @@ pub fn search(w: &Winding) -> Search {
         let keys: Vec<f64> = sorted.iter().map(|d| d.key).collect();
         let k0 = bal.key_of(&s0.e[..m]);
         let beta_sum: f64 = bal.beta[..m].iter().map(|b| b.norm()).sum();
-        let tol = 1e-7 * scale.max(1.0) * beta_sum;
+        let tol = BALANCE_TOL * scale.max(1.0) * beta_sum;
         let disjoint = |x: &Delta, y: &Delta| {
             let xs = &members[x.lo as usize..x.hi as usize];
             let ys = &members[y.lo as usize..y.hi as usize];

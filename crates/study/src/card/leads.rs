@@ -382,11 +382,8 @@ pub fn scheme(
                 (Sections::Parallel, Sections::Series) => 2.0,
                 _ => 1.0,
             };
-            let by_connection = match (planned, c.connection) {
-                (Connection::Star, Connection::Delta) => 1.0 / crate::design::SQRT_3,
-                (Connection::Delta, Connection::Star) => crate::design::SQRT_3,
-                _ => 1.0,
-            };
+            // The same phase voltage in the other connection (the one star/delta rule).
+            let by_connection = planned.phase_voltage(1.0) / c.connection.phase_voltage(1.0);
             v * by_sections * by_connection
         });
         c.line_resistance_20c_ohm = r.map(|r| r.line_to_line(0, c.connection, c.sections));

@@ -502,13 +502,11 @@ pub fn card(w: &Winding) -> DataCard {
     // Wires in the fullest slot: turns × strands of every coil side in it.
     let strands = wire.as_ref().map_or(1, |x| x.strands_in_hand) as u64;
     let wires_per_slot = crate::loading::conductors_per_slot(w) * strands;
-    let (fill, copper_fill) = match (&wire, w.design.slot_area) {
-        (Some(wr), Some(area)) => {
-            let ins = crate::wire::slot_fill(wires_per_slot as f64, wr.insulated_diameter, area);
-            let cu = wires_per_slot as f64 * wr.area / area;
-            (Some(ins), Some(cu))
-        }
-        _ => (None, None),
+    // The fill by insulated wire is the loadings' (one rule); the copper's beside it.
+    let fill = crate::loading::slot_fill(w, &crate::loading::Limits::default()).map(|c| c.value);
+    let copper_fill = match (&wire, w.design.slot_area) {
+        (Some(wr), Some(area)) => Some(wires_per_slot as f64 * wr.area / area),
+        _ => None,
     };
     if let Some(f) = fill
         && f > FILL_LIMIT
@@ -669,18 +667,19 @@ pub fn formers(w: &Winding) -> Vec<Former> {
     let k = rule.end_factor;
     spans
         .into_iter()
-        .map(|(y, n)| {
+        .filter_map(|(y, n)| {
             let width = y as f64 * pitch;
             let ext = rule.end_allowance / 4.0;
             let rise = width / 2.0 * (k * k - 1.0).max(0.0).sqrt();
-            Former {
+            Some(Former {
                 span: format!("1-{}", y + 1),
                 coils: n,
                 span_width: width,
                 straight: stack + 2.0 * ext,
                 end_extension: ext + rise,
-                mean_turn: 2.0 * stack + 2.0 * k * width + rule.end_allowance,
-            }
+                // The card's one mean-turn rule at this span.
+                mean_turn: mean_turn(w, y as f64)?,
+            })
         })
         .collect()
 }
