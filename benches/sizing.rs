@@ -32,10 +32,16 @@ fn benches(c: &mut Criterion) {
         ..Request::default()
     };
     c.bench_function("size a 72-slot rotary core", |b| {
-        b.iter(|| size(black_box(&rotary), &Request::default()))
+        b.iter(|| {
+            size(
+                &rotary.labels,
+                black_box(&rotary.design),
+                &Request::default(),
+            )
+        })
     });
     c.bench_function("size a flat primary for a thrust", |b| {
-        b.iter(|| size(black_box(&flat), &thrust))
+        b.iter(|| size(&flat.labels, black_box(&flat.design), &thrust))
     });
 }
 

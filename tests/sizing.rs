@@ -52,7 +52,7 @@ fn published_request() -> Request {
 #[test]
 fn published_design_is_reproduced_to_its_printed_digits() {
     let s = spec(&published_core(""));
-    let z = sizing::size(&s, &published_request()).expect("sizes");
+    let z = size_of(&s, &published_request()).expect("sizes");
     // Printed pole pitch τ = 101.94 mm (Table III).
     let w = wind(&published_core(""));
     assert_eq!(format!("{:.2}", w.pole_pitch().unwrap().mm()), "101.94");
@@ -162,7 +162,7 @@ fn loadings_of_a_flat_primary_match_the_hand_calculation() {
 #[test]
 fn sized_turns_keep_every_density_within_its_limit_and_one_turn_less_would_not() {
     let s = spec(&stripped(""));
-    let z = sizing::size(&s, &Request::default()).unwrap();
+    let z = size_of(&s, &Request::default()).unwrap();
     let best = &z.candidates[0];
     assert!(z.loading.magnetic.gap.peak_t <= 0.85 + 1e-12);
     assert!(z.loading.magnetic.tooth.unwrap().peak_t <= 1.8 + 1e-12);
@@ -290,7 +290,7 @@ fn a_flat_primary_is_sized_like_a_rotary_core() {
                yoke_depth_mm = 20.0\nslot_depth_mm = 40.0\n\
                [supply]\nfrequency_hz = 50.0\nline_voltage_v = 400.0\n\
                [nameplate]\ncurrent_a = 8.0\n";
-    let z = sizing::size(&spec(src), &Request::default()).unwrap();
+    let z = size_of(&spec(src), &Request::default()).unwrap();
     // Hand calculation of the flux each part carries at its default limit (0.85, 1.8, 1.6
     // T), with the plan's pole pitch τ: gap Φ = (2/π)·0.85·τ·L; teeth
     // Φ = (2/π)·(1.8·0.95·8/15)·τ·L; back iron Φ = 2·1.6·0.95·0.100·0.020. The least sets it.
@@ -333,7 +333,7 @@ fn a_flat_primary_sized_for_a_thrust_takes_the_most_turns_that_still_give_it() {
         thrust: Some((100.0, sizing::At::Slip(0.2))),
         ..Request::default()
     };
-    let z = sizing::size(&spec(&shuttle()), &req).unwrap();
+    let z = size_of(&spec(&shuttle()), &req).unwrap();
     let t = z.thrust.expect("thrust checked");
     assert!(t.met && t.point.thrust_n >= 100.0, "{}", t.point.thrust_n);
     // The written winding gives the same operating point as the sizing reported.
@@ -429,7 +429,7 @@ fn aluminium_wire_stays_aluminium_and_a_dual_voltage_winding_is_sized_at_its_low
         "diameter_mm = 1.25",
         "diameter_mm = 1.25\nmaterial = \"aluminium\"",
     );
-    let z = sizing::size(&spec(&al), &Request::default()).unwrap();
+    let z = size_of(&spec(&al), &Request::default()).unwrap();
     assert_eq!(
         z.chosen.wire.unwrap().material,
         beltwright::design::Material::Aluminium
@@ -439,7 +439,7 @@ fn aluminium_wire_stays_aluminium_and_a_dual_voltage_winding_is_sized_at_its_low
     let dual = stripped("leads = 12\nparallel_paths = 2")
         .replace("line_voltage_v = 400.0", "line_voltage_v = 460.0")
         .replace("\nvoltage_v = 400\n", "\nvoltage_v = [230, 460]\n");
-    let z = sizing::size(&spec(&dual), &Request::default()).unwrap();
+    let z = size_of(&spec(&dual), &Request::default()).unwrap();
     assert_eq!(z.line_voltage_v, 230.0);
     assert!(z.candidates.iter().all(|c| c.parallel_paths == 2));
 }
@@ -454,9 +454,7 @@ fn a_sized_record_loses_its_old_coils_readings_and_phase_resistance() {
     .replace("[wire]\ndiameter_mm = 1.25\n", "");
     let text = beltwright::layout::amend(
         &record,
-        &sizing::size(&spec(&record), &Request::default())
-            .unwrap()
-            .chosen,
+        &size_of(&spec(&record), &Request::default()).unwrap().chosen,
     )
     .unwrap();
     let table = |t: &str| text.lines().any(|l| l.trim_start().starts_with(t));
@@ -471,7 +469,7 @@ fn a_six_lead_machine_for_two_voltages_root_three_apart_is_wound_delta_for_the_l
     // 230/400 V on six leads (IEC 60034-8 marking; delta on 230 V, star on 400 V: the
     // phase voltage is 230 V either way, IEC 60050-141's √3 between line and phase).
     let src = stripped("").replace("\nvoltage_v = 400\n", "\nvoltage_v = [230, 400]\n");
-    let z = sizing::size(&spec(&src), &Request::default()).unwrap();
+    let z = size_of(&spec(&src), &Request::default()).unwrap();
     assert_eq!(z.star_delta_pair_v, Some((230.0, 400.0)));
     assert!(
         z.candidates
@@ -493,7 +491,7 @@ fn a_thrust_at_or_above_field_speed_and_a_bare_core_to_check_are_refused() {
 
 #[test]
 fn the_sized_wire_goes_in_and_a_thrust_sized_primary_keeps_its_current() {
-    let z = sizing::size(&spec(&stripped("")), &Request::default()).unwrap();
+    let z = size_of(&spec(&stripped("")), &Request::default()).unwrap();
     let best = &z.candidates[0];
     let text = beltwright::layout::amend(&stripped(""), &z.chosen).unwrap();
     let w = wind(&text);
@@ -507,7 +505,7 @@ fn the_sized_wire_goes_in_and_a_thrust_sized_primary_keeps_its_current() {
         thrust: Some((100.0, sizing::At::Slip(0.2))),
         ..Request::default()
     };
-    let z = sizing::size(&spec(&shuttle()), &req).unwrap();
+    let z = size_of(&spec(&shuttle()), &req).unwrap();
     let text = beltwright::layout::amend(&shuttle(), &z.chosen).unwrap();
     let l = loading::of(&wind(&text), &Limits::default(), 1.0).unwrap();
     let j = l.electric.unwrap().current_density_a_mm2.unwrap().value;
@@ -527,7 +525,7 @@ fn a_rating_the_core_cannot_carry_says_what_it_can() {
     // goes in carries J, so the power within the limit is 55 kW × J_limit / J (current
     // scales with power at the same voltage, efficiency and power factor).
     let big = stripped("").replace("power_kw = 5.5", "power_kw = 55");
-    let z = sizing::size(&spec(&big), &Request::default()).unwrap();
+    let z = size_of(&spec(&big), &Request::default()).unwrap();
     let j = z
         .fallback_wire
         .expect("the largest wire that goes in")
@@ -548,4 +546,12 @@ fn a_core_no_winding_fits_is_refused_with_the_plans_reason() {
     let err = String::from_utf8_lossy(&o.stderr);
     assert!(err.contains("35 slots cannot carry"), "{err}");
     assert!(err.contains("33 or 36 slots can"), "{err}");
+}
+
+/// The sizing of a parsed layout (its labels and design).
+fn size_of(
+    s: &beltwright::spec::Spec,
+    req: &Request,
+) -> Result<sizing::Sizing, sizing::SizingError> {
+    sizing::size(&s.labels, &s.design, req)
 }

@@ -260,7 +260,7 @@ proptest! {
                 thrust: linear.then_some((20.0, beltwright::sizing::At::Slip(0.3))),
                 ..Default::default()
             };
-            if let Ok(z) = beltwright::sizing::size(&spec, &req) {
+            if let Ok(z) = beltwright::sizing::size(&spec.labels, &spec.design, &req) {
                 prop_assert!(check(j(render(&z, Format::Json).expect("json"))));
             }
         }

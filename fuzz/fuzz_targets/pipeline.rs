@@ -123,7 +123,7 @@ fuzz_target!(|data: &[u8]| {
         check("loading", &l);
     }
     if w.coils.len() <= 120
-        && let Ok(z) = beltwright::sizing::size(&spec, &Default::default())
+        && let Ok(z) = beltwright::sizing::size(&spec.labels, &spec.design, &Default::default())
     {
         check("size", &z);
     }

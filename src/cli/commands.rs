@@ -282,7 +282,7 @@ fn run_size(a: SizeArgs) -> Result<Printed, Failure> {
                 .or(a.at_speed.map(beltwright::sizing::At::Speed)),
         ),
     };
-    let sizing = beltwright::sizing::size(&spec, &req)
+    let sizing = beltwright::sizing::size(&spec.labels, &spec.design, &req)
         .map_err(|e| Failure::input(format!("{name}: {}", e.message())))?;
     if let Some(out) = &a.output {
         let text = layout::amend(&source, &sizing.chosen)

@@ -23,7 +23,7 @@ use crate::units::{Area, Length};
 use serde::Serialize;
 use std::f64::consts::PI;
 
-use crate::design::{Connection, Design, Insulation, Material, WireSize, WireSpec};
+use crate::design::{Connection, Design, Insulation, Labels, Material, WireSize, WireSpec};
 use crate::loading::{self, Limits, Loading, Rated};
 use crate::pitch::{self, PitchGoal};
 use crate::spec::{MAX_TURNS, Spec};
@@ -449,9 +449,8 @@ fn operating_point(w: &Winding, s: f64) -> Option<crate::thrust::Row> {
 
 /// Size a winding for the core and nameplate of `spec` (its coil list and turns, if any,
 /// are ignored: the core is bare).
-pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
+pub fn size(labels: &Labels, base: &Design, req: &Request) -> Result<Sizing, SizingError> {
     crate::runs::count(crate::runs::Analysis::Sizing);
-    let base = &spec.design;
     if base.phases != 3 {
         return Err(SizingError::NotThreePhase(base.phases));
     }
@@ -463,7 +462,7 @@ pub fn size(spec: &Spec, req: &Request) -> Result<Sizing, SizingError> {
     let line_v = star_delta.map_or(line_v, |(lo, _)| lo);
     let build = |d: Design| {
         winding::build(&Spec {
-            labels: spec.labels.clone(),
+            labels: labels.clone(),
             design: d,
             coils: Vec::new(),
             second: None,
