@@ -184,6 +184,22 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
         w: a.w * 0.48,
         ..a
     };
+    let laid = d_over.map(|_| drawn);
+    c.add(notes(s, sides, total, laid, right));
+    c.finish()
+}
+
+/// The sheet's right part: the wire, the coil sides, the fill, whether every wire went in
+/// (`laid`: how many did, when the wire is known) and the core's loadings.
+fn notes(
+    s: &crate::study::Study,
+    sides: &[(usize, u32)],
+    total: u64,
+    laid: Option<u64>,
+    right: Rect,
+) -> Group {
+    let (w, card) = (s.winding(), s.card());
+    let wire = card.wire.as_ref();
     let mut t = Vec::new();
     match wire {
         Some(x) => t.push(format!(
@@ -212,7 +228,7 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
             num(crate::card::FILL_LIMIT * 100.0, 0)
         ));
     }
-    if d_over.is_some() && drawn < total {
+    if let Some(drawn) = laid.filter(|d| *d < total) {
         t.push(format!(
             "only {drawn} of {total} wires fit as drawn in close rows: the coils will not go \
              in as planned"
@@ -244,6 +260,5 @@ pub fn draw(s: &crate::study::Study, page: &Page) -> String {
             y += LINE;
         }
     }
-    c.add(g);
-    c.finish()
+    g
 }

@@ -9,6 +9,184 @@ use crate::output::Words;
 use crate::rewind::{DesignSide, RewindReport};
 use itertools::Itertools;
 
+/// The measured resistances against the card, when readings were given.
+fn resistance_sections(a: &AuditReport, s: &mut Vec<Section>) {
+    if let Some(r) = &a.resistance {
+        s.push(Section::Heading(format!(
+            "Measured resistance at {} C against the data card",
+            num(r.temperature_c, 1)
+        )));
+        if let Some(m) = r.measured_ohm {
+            let mut t = Table::new(&[
+                ("terminals", Align::Left),
+                ("measured ohm", Align::Right),
+                ("expected ohm", Align::Right),
+                ("from mean %", Align::Right),
+            ]);
+            let mean = m.iter().sum::<f64>() / 3.0;
+            for (k, pair) in ["1-2", "2-3", "3-1"].iter().enumerate() {
+                t.push(vec![
+                    pair.to_string(),
+                    sig(m[k], 4),
+                    r.expected_ohm.map_or("-".into(), |e| sig(e[k], 4)),
+                    num((m[k] / mean - 1.0) * 100.0, 2),
+                ]);
+            }
+            s.push(Section::Table(t));
+        }
+        s.push(Section::Lines(vec![format!(
+            "{} at 20 C, each against the median of its kind (tolerance +/-{}%):",
+            match r.taken {
+                Taken::LineToLine => "Phase resistances worked back from the readings",
+                Taken::Sections => "Section resistances as read across their leads",
+            },
+            num(r.tolerance_percent, 1)
+        )]));
+        let mut t = Table::new(&[
+            ("phase", Align::Left),
+            ("section", Align::Right),
+            ("measured across", Align::Left),
+            ("ohm at 20 C", Align::Right),
+            ("card ohm", Align::Right),
+            ("from median %", Align::Right),
+            ("verdict", Align::Left),
+        ]);
+        for j in &r.judged {
+            t.push(vec![
+                j.phase.clone(),
+                j.section.to_string(),
+                j.between.clone(),
+                sig(j.measured_20c_ohm, 4),
+                j.expected_20c_ohm.map_or("-".into(), |e| sig(e, 4)),
+                format!("{:+.2}", j.deviation_percent),
+                if j.within_tolerance { "ok" } else { "OUTSIDE" }.into(),
+            ]);
+        }
+        s.push(Section::Table(t));
+        s.push(Section::Lines(vec![paragraph(&r.suggestion.message())]));
+    }
+}
+
+/// The phases' EMFs and effective turns, and the parallel paths.
+fn winding_sections(a: &AuditReport, s: &mut Vec<Section>) {
+    s.push(Section::Heading(
+        "Phase EMFs (effective turns N_ph*k_w; angle error from 360/m spacing)".into(),
+    ));
+    let orders: Vec<f64> = a
+        .phases
+        .first()
+        .map(|p| p.harmonics.iter().map(|h| h.order.get()).collect())
+        .unwrap_or_default();
+    let mut cols: Vec<(String, Align)> = vec![
+        ("phase".into(), Align::Left),
+        ("coils".into(), Align::Right),
+        ("N_ph".into(), Align::Right),
+        ("magnitude".into(), Align::Right),
+        ("angle deg".into(), Align::Right),
+        ("error deg".into(), Align::Right),
+    ];
+    cols.extend(
+        orders
+            .iter()
+            .map(|o| (format!("order {}", num(*o, 3)), Align::Right)),
+    );
+    let refs: Vec<(&str, Align)> = cols.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+    let mut t = Table::new(&refs);
+    for p in &a.phases {
+        let mut row = vec![
+            p.phase.clone(),
+            p.coils.to_string(),
+            num(p.series_turns, 2),
+            num(p.magnitude, 3),
+            num(p.angle_deg, 2),
+            num(p.angle_error_deg, 2),
+        ];
+        row.extend(p.harmonics.iter().map(|h| num(h.magnitude, 3)));
+        t.push(row);
+    }
+    s.push(Section::Table(t));
+
+    if !a.paths.is_empty() {
+        s.push(Section::Heading(
+            "Parallel paths (circulating EMF against the mean of the phase's paths)".into(),
+        ));
+        let mut t = Table::new(&[
+            ("phase", Align::Left),
+            ("path", Align::Right),
+            ("turns", Align::Right),
+            ("magnitude", Align::Right),
+            ("angle deg", Align::Right),
+            ("circulating", Align::Right),
+            ("%", Align::Right),
+            ("coils", Align::Left),
+        ]);
+        for p in &a.paths {
+            t.push(vec![
+                p.phase.clone(),
+                p.path.to_string(),
+                p.turns.to_string(),
+                num(p.magnitude, 3),
+                num(p.angle_deg, 2),
+                num(p.circulating_emf, 3),
+                num(p.circulating_percent, 2),
+                ranges(&p.coils),
+            ]);
+        }
+        s.push(Section::Table(t));
+    }
+}
+
+/// The slots' fill, and the slots that differ from the intended design.
+fn slot_sections(a: &AuditReport, s: &mut Vec<Section>) {
+    let sc = &a.slot_check;
+    let mut lines = Vec::new();
+    for (what, v) in [
+        ("empty slots", &sc.empty),
+        ("slots with a layer empty", &sc.partly_filled),
+        ("overfilled slots", &sc.overfilled),
+        (
+            "the other winding's slots holding a side",
+            &sc.other_windings,
+        ),
+        (
+            "half-filled end slots (by design)",
+            &sc.half_filled_by_design,
+        ),
+    ] {
+        if !v.is_empty() {
+            lines.push(format!("{what}: {}", ranges(v)));
+        }
+    }
+    if lines.is_empty() {
+        lines.push("every slot holds its full number of coil sides".into());
+    }
+    s.push(Section::Heading("Slot fill".into()));
+    s.push(Section::Lines(lines));
+
+    if let Some(c) = &a.intended {
+        s.push(Section::Heading(
+            "Slots that differ from the intended design".into(),
+        ));
+        if c.slot_differences.is_empty() {
+            s.push(Section::Lines(vec!["none".into()]));
+        } else {
+            let mut t = Table::new(&[
+                ("slot", Align::Right),
+                ("found", Align::Left),
+                ("intended", Align::Left),
+            ]);
+            for d in &c.slot_differences {
+                t.push(vec![
+                    d.slot.to_string(),
+                    d.found.join(" "),
+                    d.intended.join(" "),
+                ]);
+            }
+            s.push(Section::Table(t));
+        }
+    }
+}
+
 impl Report for AuditReport {
     fn json(&self) -> impl serde::Serialize + '_ {
         super::json::AuditJson::of(self)
@@ -116,174 +294,9 @@ impl Report for AuditReport {
             s.push(Section::Items(lines));
         }
 
-        if let Some(r) = &self.resistance {
-            s.push(Section::Heading(format!(
-                "Measured resistance at {} C against the data card",
-                num(r.temperature_c, 1)
-            )));
-            if let Some(m) = r.measured_ohm {
-                let mut t = Table::new(&[
-                    ("terminals", Align::Left),
-                    ("measured ohm", Align::Right),
-                    ("expected ohm", Align::Right),
-                    ("from mean %", Align::Right),
-                ]);
-                let mean = m.iter().sum::<f64>() / 3.0;
-                for (k, pair) in ["1-2", "2-3", "3-1"].iter().enumerate() {
-                    t.push(vec![
-                        pair.to_string(),
-                        sig(m[k], 4),
-                        r.expected_ohm.map_or("-".into(), |e| sig(e[k], 4)),
-                        num((m[k] / mean - 1.0) * 100.0, 2),
-                    ]);
-                }
-                s.push(Section::Table(t));
-            }
-            s.push(Section::Lines(vec![format!(
-                "{} at 20 C, each against the median of its kind (tolerance +/-{}%):",
-                match r.taken {
-                    Taken::LineToLine => "Phase resistances worked back from the readings",
-                    Taken::Sections => "Section resistances as read across their leads",
-                },
-                num(r.tolerance_percent, 1)
-            )]));
-            let mut t = Table::new(&[
-                ("phase", Align::Left),
-                ("section", Align::Right),
-                ("measured across", Align::Left),
-                ("ohm at 20 C", Align::Right),
-                ("card ohm", Align::Right),
-                ("from median %", Align::Right),
-                ("verdict", Align::Left),
-            ]);
-            for j in &r.judged {
-                t.push(vec![
-                    j.phase.clone(),
-                    j.section.to_string(),
-                    j.between.clone(),
-                    sig(j.measured_20c_ohm, 4),
-                    j.expected_20c_ohm.map_or("-".into(), |e| sig(e, 4)),
-                    format!("{:+.2}", j.deviation_percent),
-                    if j.within_tolerance { "ok" } else { "OUTSIDE" }.into(),
-                ]);
-            }
-            s.push(Section::Table(t));
-            s.push(Section::Lines(vec![paragraph(&r.suggestion.message())]));
-        }
-
-        s.push(Section::Heading(
-            "Phase EMFs (effective turns N_ph*k_w; angle error from 360/m spacing)".into(),
-        ));
-        let orders: Vec<f64> = self
-            .phases
-            .first()
-            .map(|p| p.harmonics.iter().map(|h| h.order.get()).collect())
-            .unwrap_or_default();
-        let mut cols: Vec<(String, Align)> = vec![
-            ("phase".into(), Align::Left),
-            ("coils".into(), Align::Right),
-            ("N_ph".into(), Align::Right),
-            ("magnitude".into(), Align::Right),
-            ("angle deg".into(), Align::Right),
-            ("error deg".into(), Align::Right),
-        ];
-        cols.extend(
-            orders
-                .iter()
-                .map(|o| (format!("order {}", num(*o, 3)), Align::Right)),
-        );
-        let refs: Vec<(&str, Align)> = cols.iter().map(|(h, a)| (h.as_str(), *a)).collect();
-        let mut t = Table::new(&refs);
-        for p in &self.phases {
-            let mut row = vec![
-                p.phase.clone(),
-                p.coils.to_string(),
-                num(p.series_turns, 2),
-                num(p.magnitude, 3),
-                num(p.angle_deg, 2),
-                num(p.angle_error_deg, 2),
-            ];
-            row.extend(p.harmonics.iter().map(|h| num(h.magnitude, 3)));
-            t.push(row);
-        }
-        s.push(Section::Table(t));
-
-        if !self.paths.is_empty() {
-            s.push(Section::Heading(
-                "Parallel paths (circulating EMF against the mean of the phase's paths)".into(),
-            ));
-            let mut t = Table::new(&[
-                ("phase", Align::Left),
-                ("path", Align::Right),
-                ("turns", Align::Right),
-                ("magnitude", Align::Right),
-                ("angle deg", Align::Right),
-                ("circulating", Align::Right),
-                ("%", Align::Right),
-                ("coils", Align::Left),
-            ]);
-            for p in &self.paths {
-                t.push(vec![
-                    p.phase.clone(),
-                    p.path.to_string(),
-                    p.turns.to_string(),
-                    num(p.magnitude, 3),
-                    num(p.angle_deg, 2),
-                    num(p.circulating_emf, 3),
-                    num(p.circulating_percent, 2),
-                    ranges(&p.coils),
-                ]);
-            }
-            s.push(Section::Table(t));
-        }
-
-        let sc = &self.slot_check;
-        let mut lines = Vec::new();
-        for (what, v) in [
-            ("empty slots", &sc.empty),
-            ("slots with a layer empty", &sc.partly_filled),
-            ("overfilled slots", &sc.overfilled),
-            (
-                "the other winding's slots holding a side",
-                &sc.other_windings,
-            ),
-            (
-                "half-filled end slots (by design)",
-                &sc.half_filled_by_design,
-            ),
-        ] {
-            if !v.is_empty() {
-                lines.push(format!("{what}: {}", ranges(v)));
-            }
-        }
-        if lines.is_empty() {
-            lines.push("every slot holds its full number of coil sides".into());
-        }
-        s.push(Section::Heading("Slot fill".into()));
-        s.push(Section::Lines(lines));
-
-        if let Some(c) = &self.intended {
-            s.push(Section::Heading(
-                "Slots that differ from the intended design".into(),
-            ));
-            if c.slot_differences.is_empty() {
-                s.push(Section::Lines(vec!["none".into()]));
-            } else {
-                let mut t = Table::new(&[
-                    ("slot", Align::Right),
-                    ("found", Align::Left),
-                    ("intended", Align::Left),
-                ]);
-                for d in &c.slot_differences {
-                    t.push(vec![
-                        d.slot.to_string(),
-                        d.found.join(" "),
-                        d.intended.join(" "),
-                    ]);
-                }
-                s.push(Section::Table(t));
-            }
-        }
+        resistance_sections(self, &mut s);
+        winding_sections(self, &mut s);
+        slot_sections(self, &mut s);
         s
     }
 

@@ -481,23 +481,7 @@ pub fn card(w: &Winding) -> DataCard {
         .filter(|_| !pole_changing)
         .map(|l| (l[0] + l[1] + l[2]) / 3.0);
 
-    let (mass, mass_phase, mass_coil) = match (&wire, &lengths) {
-        (Some(wr), Some(ls)) => {
-            let rho_m = metal(wr.material).density_kg_m3;
-            let per: Vec<f64> = ls
-                .iter()
-                .zip(&w.coils)
-                .map(|(l, c)| rho_m * c.turns as f64 * l.m() * wr.conductor_area.m2())
-                .collect();
-            let total: f64 = per.iter().sum();
-            (
-                Some(total),
-                Some(total / g.phases as f64),
-                (!per.is_empty()).then(|| total / per.len() as f64),
-            )
-        }
-        _ => (None, None, None),
-    };
+    let (mass, mass_phase, mass_coil) = copper_mass(w, wire.as_ref(), lengths.as_deref());
 
     // Wires in the fullest slot: turns × strands of every coil side in it.
     let strands = wire.as_ref().map_or(1, |x| x.strands_in_hand) as u64;
@@ -559,22 +543,7 @@ pub fn card(w: &Winding) -> DataCard {
         })
         .or(w.design.supply.line_voltage_v);
     let rated = test_voltage(w, rated);
-    // A dual-voltage winding (9, 12 leads) is planned with its sections in parallel, its
-    // lower voltage: a supply at the nameplate's higher voltage says otherwise.
-    if let (Some(n), Some(v)) = (&w.design.nameplate, w.design.supply.line_voltage_v)
-        && w.design.leads.count >= 9
-        && n.voltages_v.len() == 2
-    {
-        let hi = n.voltages_v.iter().copied().fold(f64::MIN, f64::max);
-        let lo = n.voltages_v.iter().copied().fold(f64::MAX, f64::min);
-        if hi > lo * 1.2 && (v - hi).abs() < (v - lo).abs() {
-            warnings.push(CardWarning::SupplyAtHigherVoltage {
-                supply_v: v,
-                lower_v: lo,
-                higher_v: hi,
-            });
-        }
-    }
+    warnings.extend(supply_at_higher_voltage(w));
 
     // Current density at rated current (the loadings' rule): the phase current shared by
     // the paths, over the conductor area. The rated current is stamped, or follows from the
@@ -650,6 +619,50 @@ pub fn card(w: &Winding) -> DataCard {
         acceptance: acceptance(rated, at),
         warnings,
     }
+}
+
+/// Copper mass of the winding, of a phase and of a coil, kg: ρ·N·l_mt·A of every coil (the
+/// wire's metal; each coil's own mean turn), when wire and mean turns are known.
+fn copper_mass(
+    w: &Winding,
+    wire: Option<&Wire>,
+    lengths: Option<&[Length]>,
+) -> (Option<f64>, Option<f64>, Option<f64>) {
+    let (Some(wr), Some(ls)) = (wire, lengths) else {
+        return (None, None, None);
+    };
+    let rho_m = metal(wr.material).density_kg_m3;
+    let per: Vec<f64> = ls
+        .iter()
+        .zip(&w.coils)
+        .map(|(l, c)| rho_m * c.turns as f64 * l.m() * wr.conductor_area.m2())
+        .collect();
+    let total: f64 = per.iter().sum();
+    (
+        Some(total),
+        Some(total / w.geometry.phases as f64),
+        (!per.is_empty()).then(|| total / per.len() as f64),
+    )
+}
+
+/// A dual-voltage winding (9, 12 leads) is planned with its sections in parallel, its
+/// lower voltage: a supply at the nameplate's higher voltage says otherwise.
+fn supply_at_higher_voltage(w: &Winding) -> Option<CardWarning> {
+    let (Some(n), Some(v)) = (&w.design.nameplate, w.design.supply.line_voltage_v) else {
+        return None;
+    };
+    if w.design.leads.count < 9 || n.voltages_v.len() != 2 {
+        return None;
+    }
+    let hi = n.voltages_v.iter().copied().fold(f64::MIN, f64::max);
+    let lo = n.voltages_v.iter().copied().fold(f64::MAX, f64::min);
+    (hi > lo * 1.2 && (v - hi).abs() < (v - lo).abs()).then_some(
+        CardWarning::SupplyAtHigherVoltage {
+            supply_v: v,
+            lower_v: lo,
+            higher_v: hi,
+        },
+    )
 }
 
 /// The former of each distinct span, by the mean-turn rule (empty when the turn is given
