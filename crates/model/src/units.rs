@@ -1,8 +1,9 @@
 //! Physical quantities, held in SI units inside the program: lengths in metres, areas in
 //! square metres. The trade writes and reads millimetres (layouts, cards, sheets, the JSON);
 //! a value is taken from millimetres at the parser ([`Length::from_mm`]) and given in them at
-//! the presenters ([`Length::mm`], or a field's `serialize_with` below), and nowhere between,
-//! so no analysis converts a unit and no m → mm → m round trip exists.
+//! the presenters ([`Length::mm`], or a field's `serialize_with` below): no analysis scales a
+//! unit by hand and no m → mm → m round trip exists. (Current densities stay in the trade's
+//! A/mm², their limits' unit, worked through [`Area::mm2`].)
 
 use std::f64::consts::PI;
 use std::ops::{Add, AddAssign, Div, Mul, Neg, Sub};
@@ -19,8 +20,8 @@ const CM2_PER_M2: f64 = 1e4;
 const S_PER_MS: f64 = 1e6;
 /// Microfarads in a farad.
 const UF_PER_F: f64 = 1e6;
-/// Watts in a kilowatt.
-const W_PER_KW: f64 = 1e3;
+/// Units in a kilo-unit (W in a kW).
+const PER_KILO: f64 = 1e3;
 /// A value in milli-units per unit (H → mH).
 const MILLI_PER_UNIT: f64 = 1e3;
 /// Watts in a mechanical horsepower: 745.7 (NEMA MG 1 ratings; 550 ft·lbf/s).
@@ -43,13 +44,13 @@ pub const fn per_mm(per_m: f64) -> f64 {
 
 /// Watts of `kw` kilowatts (a nameplate's rating as written).
 pub const fn watts_of_kw(kw: f64) -> f64 {
-    kw * W_PER_KW
+    kw * PER_KILO
 }
 
 /// A value in its SI unit written with the prefix kilo (W → kW, W/m² → kW/m²), for the
 /// presenters and the record book's kW column.
 pub const fn in_kilo(x: f64) -> f64 {
-    x / W_PER_KW
+    x / PER_KILO
 }
 
 /// A value in its SI unit written with the prefix milli (H → mH, Wb → mWb), for the
