@@ -6,7 +6,7 @@
 //! A/mm², their limits' unit, worked through [`Area::mm2`].)
 
 use std::f64::consts::PI;
-use std::ops::{Add, AddAssign, Div, Mul, Neg, Sub};
+use std::ops::{Add, Div, Mul, Sub};
 
 use serde::Serializer;
 
@@ -96,11 +96,6 @@ impl Length {
     /// The smaller of two lengths.
     pub fn min(self, other: Length) -> Length {
         Length(self.0.min(other.0))
-    }
-
-    /// True when the length is a finite number.
-    pub fn is_finite(self) -> bool {
-        self.0.is_finite()
     }
 }
 
@@ -202,21 +197,10 @@ macro_rules! linear {
                 $t(self.0 + o.0)
             }
         }
-        impl AddAssign for $t {
-            fn add_assign(&mut self, o: $t) {
-                self.0 += o.0;
-            }
-        }
         impl Sub for $t {
             type Output = $t;
             fn sub(self, o: $t) -> $t {
                 $t(self.0 - o.0)
-            }
-        }
-        impl Neg for $t {
-            type Output = $t;
-            fn neg(self) -> $t {
-                $t(-self.0)
             }
         }
         impl Mul<f64> for $t {

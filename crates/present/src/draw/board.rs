@@ -93,20 +93,24 @@ fn phase_of(terminals: &[Terminal], labels: &[String], lead: &str) -> Option<usi
     labels.iter().position(|l| *l == t.phase)
 }
 
+/// A terminal stud or lead end as every sheet draws it: a white circle of `radius` outlined
+/// in `stroke`, `width` wide (mm).
+pub(crate) fn stud(x: f64, y: f64, radius: f64, stroke: &str, width: f64) -> Circle {
+    Circle::new()
+        .set("cx", r(x))
+        .set("cy", r(y))
+        .set("r", radius)
+        .set("fill", "#FFFFFF")
+        .set("stroke", stroke)
+        .set("stroke-width", width)
+}
+
 /// A terminal: a circle with its marking to the right, above the centre line.
 fn terminal(x: f64, y: f64, name: &str, stroke: &str) -> Group {
     Group::new()
         .set("class", "board-terminal")
         .set("data-lead", name)
-        .add(
-            Circle::new()
-                .set("cx", r(x))
-                .set("cy", r(y))
-                .set("r", 1.6)
-                .set("fill", "#FFFFFF")
-                .set("stroke", stroke)
-                .set("stroke-width", 0.5),
-        )
+        .add(stud(x, y, 1.6, stroke, 0.5))
         .add(label(x + 2.2, y - 1.3, SIZE, Anchor::Start, name))
 }
 

@@ -690,15 +690,7 @@ fn lead(name: &str, x: f64, y: f64, ts: f64, raised: bool) -> Group {
     };
     Group::new()
         .set("class", "lead")
-        .add(
-            Circle::new()
-                .set("cx", r(cx))
-                .set("cy", r(y))
-                .set("r", 1.0)
-                .set("fill", "#FFFFFF")
-                .set("stroke", "#000000")
-                .set("stroke-width", 0.35),
-        )
+        .add(super::board::stud(cx, y, 1.0, "#000000", 0.35))
         .add(label(tx, ty, 2.6 * ts, anchor, name))
 }
 

@@ -48,13 +48,7 @@ fn part(x: f64, top: f64, bottom: f64, leads: [&str; 2], name: &str) -> Group {
 }
 
 fn terminal(x: f64, y: f64) -> Circle {
-    Circle::new()
-        .set("cx", r(x))
-        .set("cy", r(y))
-        .set("r", 1.2)
-        .set("fill", "#FFFFFF")
-        .set("stroke", "#000000")
-        .set("stroke-width", 0.35)
+    super::board::stud(x, y, 1.2, "#000000", 0.35)
 }
 
 /// The board and its words, `width` wide; returns the group and its height (mm).

@@ -50,13 +50,7 @@ fn terminal(x: f64, y: f64, name: &str, open: bool) -> Group {
         .set("class", "speed-terminal")
         .set("data-lead", name)
         .add(
-            Circle::new()
-                .set("cx", r(x))
-                .set("cy", r(y))
-                .set("r", 1.8)
-                .set("fill", "#FFFFFF")
-                .set("stroke", "#000000")
-                .set("stroke-width", 0.5)
+            super::board::stud(x, y, 1.8, "#000000", 0.5)
                 .set("stroke-dasharray", if open { "0.8 0.6" } else { "none" }),
         )
         .add(label(x + 2.4, y - 1.4, SIZE, Anchor::Start, name))
